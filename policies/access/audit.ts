@@ -1,0 +1,7 @@
+import { hasRole } from './actor';
+import type { RuleSet } from './builder';
+
+/** The audit trail is append-only for everyone: nobody may update or delete an entry. */
+export const auditRules: RuleSet = ({ can }, actor) => {
+  if (hasRole(actor, 'admin')) can('read', 'AuditEntry', { organizationId: actor.organizationId });
+};

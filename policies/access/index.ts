@@ -1,0 +1,3 @@
+export * from './actor';
+export * from './subjects';
+export * from './ability';

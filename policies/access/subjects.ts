@@ -1,0 +1,37 @@
+import type { ForcedSubject, MongoAbility } from '@casl/ability';
+
+export const ACTIONS = ['read', 'create', 'update', 'delete', 'manage'] as const;
+export type Action = (typeof ACTIONS)[number];
+
+/**
+ * Subjects and the attributes the rules look at. The server passes loaded records (or copies of
+ * them) tagged with `subject(type, obj)`; the client passes the DTOs it received.
+ */
+export interface SubjectShapes {
+  Organization: { id: string };
+  User: { id: string };
+  Membership: { id: string; organizationId: string; userId: string };
+  Athlete: { id: string; organizationId: string };
+  Invitation: { id: string; organizationId: string };
+  CareTeamAssignment: { id: string; organizationId: string; athleteId: string };
+  GuardianLink: { id: string; organizationId: string; athleteId: string; guardianId: string };
+  AuditEntry: { organizationId: string };
+}
+export type SubjectName = keyof SubjectShapes;
+export const SUBJECT_NAMES: SubjectName[] = [
+  'Organization',
+  'User',
+  'Membership',
+  'Athlete',
+  'Invitation',
+  'CareTeamAssignment',
+  'GuardianLink',
+  'AuditEntry',
+];
+
+type TaggedSubjects = {
+  [K in SubjectName]: SubjectShapes[K] & ForcedSubject<K>;
+}[SubjectName];
+
+export type AppSubject = SubjectName | TaggedSubjects | 'all';
+export type AppAbility = MongoAbility<[Action, AppSubject]>;

@@ -1,0 +1,4 @@
+export * from './common';
+export * from './password';
+export * from './auth';
+export * from './people';

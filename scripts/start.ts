@@ -1,0 +1,56 @@
+/**
+ * `npm start`: database (our own cluster unless DATABASE_URL is set), migrations, demo data, client
+ * build, then the app and API on one port. Ctrl-C stops the server, then the database.
+ */
+import { loadConfig } from '../server/src/config';
+import { createLogger } from '../server/src/logger';
+import { startServer } from '../server/src/server';
+import { createDataSource } from '../server/src/data-source';
+import { DEMO_PASSWORD, DEMO_PEOPLE, loadDemo } from '../server/src/seed/demo';
+import { buildClient, migrate, openDatabase, sessionSecret } from './runtime';
+
+const db = await openDatabase('loadline', false);
+let stopping = false;
+const stopDb = () => db.cluster?.stop();
+process.on('exit', stopDb);
+
+try {
+  const ran = await migrate(db.url);
+  if (ran.length) console.log(`[db] migrations applied: ${ran.join(', ')}`);
+  const seedDs = createDataSource(db.url, 2);
+  await seedDs.initialize();
+  const demo = await loadDemo(seedDs);
+  await seedDs.destroy();
+  console.log(demo.created ? '[demo] demo scenario loaded' : '[demo] demo scenario already present (unchanged)');
+  console.log('[client] building…');
+  await buildClient();
+
+  const config = loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() });
+  const logger = createLogger(config.LOG_LEVEL);
+  const running = await startServer(config, logger);
+
+  const width = Math.max(...DEMO_PEOPLE.map((p) => p.email.length));
+  console.log(`\nLoadline is running at ${config.PUBLIC_URL ?? running.url}\n`);
+  console.log(`Demo accounts (password for all: ${DEMO_PASSWORD}):`);
+  for (const p of DEMO_PEOPLE) console.log(`  ${p.email.padEnd(width)}  ${p.roles.join(', ').padEnd(9)}  ${p.name}`);
+  console.log('\nPress Ctrl-C to stop.\n');
+
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.on(signal, () => {
+      if (stopping) return;
+      stopping = true;
+      console.log(`\n${signal}: stopping the server…`);
+      running
+        .stop()
+        .catch((err) => console.error(err))
+        .finally(() => {
+          stopDb();
+          process.exit(0);
+        });
+    });
+  }
+} catch (err) {
+  console.error(err);
+  stopDb();
+  process.exit(1);
+}

@@ -1,0 +1,112 @@
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { Router } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { Deps } from './http/context';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import { mountRoutes } from './http/route';
+import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
+import { healthRoutes } from './routes/health/health.router';
+import { sessionRoutes } from './routes/session/session.router';
+import { invitationRoutes } from './routes/invitations/invitations.router';
+import { organizationRoutes } from './routes/organizations/organizations.router';
+import { peopleRoutes } from './routes/people/people.router';
+import { athleteRoutes } from './routes/athletes/athletes.router';
+import { careTeamRoutes } from './routes/care-team/care-team.router';
+import { guardianLinkRoutes } from './routes/guardian-links/guardian-links.router';
+import { auditRoutes } from './routes/audit/audit.router';
+
+const ROOT = path.resolve(import.meta.dirname, '../..');
+
+export type AppDeps = Omit<Deps, 'passport'>;
+
+/** Builds the Express app (no listen). The returned `close` ends the app's own pools. */
+export function buildApp(base: AppDeps) {
+  const passport = buildPassport(base as Deps);
+  const deps: Deps = { ...base, passport };
+  const { config } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.TRUST_PROXY === 'true' ? 1 : false);
+
+  app.use(
+    pinoHttp({
+      logger: deps.logger,
+      genReqId: (req, res) => {
+        const incoming = req.headers['x-request-id'];
+        const id = typeof incoming === 'string' && /^[\w-]{8,64}$/.test(incoming) ? incoming : randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      // Cookies and tokens never reach the log.
+      redact: ['req.headers.cookie', 'req.headers["x-csrf-token"]', 'res.headers["set-cookie"]'],
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          fontSrc: ["'self'", 'data:'],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          mediaSrc: ["'self'", 'blob:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'none'"],
+          frameAncestors: ["'none'"],
+          formAction: ["'self'"],
+        },
+      },
+      referrerPolicy: { policy: 'no-referrer' },
+      strictTransportSecurity: config.SECURE_COOKIES === 'true',
+    }),
+  );
+
+  const { middleware: sessionMiddleware, pool: sessionPool } = buildSession(deps);
+  const api = Router();
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  api.use(express.json({ limit: '100kb' }));
+  api.use(sessionMiddleware);
+  api.use(passport.initialize());
+  api.use(passport.session());
+  api.use(absoluteTimeout(deps));
+  api.use(csrfProtection());
+  mountRoutes(api, deps, [
+    ...healthRoutes,
+    ...sessionRoutes(deps),
+    ...invitationRoutes(deps),
+    ...organizationRoutes,
+    ...peopleRoutes,
+    ...athleteRoutes,
+    ...careTeamRoutes,
+    ...guardianLinkRoutes,
+    ...auditRoutes,
+  ]);
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  const clientDist = config.CLIENT_DIST ?? path.join(ROOT, 'client', 'dist');
+  if (existsSync(path.join(clientDist, 'index.html'))) {
+    app.use(express.static(clientDist, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(path.join(clientDist, 'index.html'));
+    });
+  } else {
+    app.get('/', (_req, res) => {
+      res.type('text/plain').send('Loadline API is running. The client is not built: run `npm start` (or `npm run dev` for development).');
+    });
+  }
+  app.use(errorHandler(deps));
+
+  return { app, close: () => sessionPool.end() };
+}

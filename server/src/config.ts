@@ -1,0 +1,32 @@
+import { z } from 'zod';
+
+const ConfigSchema = z.object({
+  DATABASE_URL: z.string().min(1, { message: 'DATABASE_URL is required' }),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default('127.0.0.1'),
+  SESSION_SECRET: z.string().min(32, { message: 'SESSION_SECRET must be at least 32 characters' }),
+  PUBLIC_URL: z.string().url().optional(),
+  /** Cookies get the Secure flag when the app is served over TLS (behind a proxy that terminates it). */
+  SECURE_COOKIES: z.enum(['true', 'false']).default('false'),
+  TRUST_PROXY: z.enum(['true', 'false']).default('false'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  SIGNIN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  SIGNIN_MAX_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).default(10),
+  SIGNIN_MAX_PER_IP: z.coerce.number().int().min(1).default(50),
+  SESSION_IDLE_MINUTES: z.coerce.number().min(1).max(30).default(30),
+  SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).max(12).default(12),
+  INVITATION_TTL_HOURS: z.coerce.number().min(1).max(24 * 14).default(72),
+  BCRYPT_COST: z.coerce.number().int().min(12).max(15).default(12),
+  CLIENT_DIST: z.string().optional(),
+});
+
+export type Config = z.infer<typeof ConfigSchema>;
+
+export function loadConfig(env: Record<string, string | undefined> = process.env, overrides: Partial<Config> = {}): Config {
+  const parsed = ConfigSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  return { ...parsed.data, ...overrides };
+}

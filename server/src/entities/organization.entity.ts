@@ -1,0 +1,17 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+
+@Entity({ name: 'organizations' })
+export class Organization {
+  @PrimaryGeneratedColumn('uuid')
+  id: string;
+
+  @Column('varchar', { length: 200 })
+  name: string;
+
+  /** Shown on the stop-and-seek-care screen; local numbers differ, so each organization sets its own. */
+  @Column('varchar', { name: 'emergency_number', length: 30, default: '911' })
+  emergencyNumber: string;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+}

@@ -1,0 +1,36 @@
+import { subject as tagSubject } from '@casl/ability';
+import type { Action, AppAbility, SubjectName, SubjectShapes } from '../../../policies/access';
+import { AppError } from './errors';
+import { refusalMessage } from './route';
+
+const NOT_FOUND_WORDS: Record<SubjectName, string> = {
+  Organization: 'organization',
+  User: 'account',
+  Membership: 'person',
+  Athlete: 'athlete',
+  Invitation: 'invitation',
+  CareTeamAssignment: 'care-team assignment',
+  GuardianLink: 'guardian link',
+  AuditEntry: 'audit entry',
+};
+
+/**
+ * The object-level check on a loaded record. A record the user may not even read answers 404 (its
+ * existence is not revealed); one they may read but not change answers 403 with the reason.
+ */
+export function authorize<K extends SubjectName>(
+  ability: AppAbility,
+  action: Action,
+  type: K,
+  record: (SubjectShapes[K] & object) | null | undefined,
+  field?: string,
+): asserts record is SubjectShapes[K] {
+  if (!record) throw new AppError('not_found', `That ${NOT_FOUND_WORDS[type]} was not found.`);
+  const tagged = tagSubject(type, { ...record } as SubjectShapes[K] & Record<string, unknown>);
+  if (!ability.can('read', tagged as never)) {
+    throw new AppError('not_found', `That ${NOT_FOUND_WORDS[type]} was not found.`);
+  }
+  if (action !== 'read' && !ability.can(action, tagged as never, field)) {
+    throw new AppError('forbidden', refusalMessage(action, type));
+  }
+}

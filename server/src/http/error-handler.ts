@@ -1,0 +1,62 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import type { ErrorBody } from '../../../policies/dto';
+import type { Deps } from './context';
+import { AppError } from './errors';
+import { appendAudit } from '../services/audit';
+import type { ActorWithOrg } from '../services/actor';
+
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new AppError('not_found', `There is no API route ${req.method} ${req.baseUrl}${req.path}.`));
+};
+
+function normalise(err: unknown): AppError {
+  if (err instanceof AppError) return err;
+  const e = err as { type?: string; status?: number; code?: string };
+  if (e?.type === 'entity.parse.failed') {
+    return new AppError('validation_failed', 'Please check the form: the request body is not valid JSON.', { body: ['is not valid JSON'] });
+  }
+  if (e?.type === 'entity.too.large') return new AppError('payload_too_large', 'The request is too large.');
+  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported') {
+    return new AppError('unsupported_media_type', 'The request body must be UTF-8 JSON.');
+  }
+  // The database is away (connection refused, terminated, timeout): say so, rather than "internal".
+  if (e?.code === 'ECONNREFUSED' || e?.code === '57P01' || e?.code === '57P03' || /Connection terminated|timeout exceeded when trying to connect/i.test(String((err as Error)?.message))) {
+    return new AppError('unavailable', 'The service is briefly unavailable. Please try again in a moment.');
+  }
+  return new AppError('internal', 'Something went wrong on our side. It has been logged; please try again.');
+}
+
+/** The one place errors become responses: `{ error: { code, message, fields? }, requestId }`, never a stack. */
+export function errorHandler(deps: Deps): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    const appErr = normalise(err);
+    const requestId = String(req.id ?? '');
+    if (appErr.code === 'internal' || appErr.code === 'unavailable') {
+      req.log?.error({ err, requestId }, 'request failed');
+    } else {
+      req.log?.info({ code: appErr.code, requestId }, appErr.message);
+    }
+    const actor = res.locals.actor as ActorWithOrg | undefined;
+    if (appErr.code === 'forbidden' && actor) {
+      // Refusals are audited in a transaction of their own: the request itself changed nothing.
+      deps.ds
+        .transaction((m) =>
+          appendAudit(m, {
+            organizationId: actor.organizationId,
+            actorUserId: actor.userId,
+            requestId,
+            action: 'access.refused',
+            subjectType: 'Route',
+            after: { method: req.method, path: req.originalUrl.split('?')[0], message: appErr.message },
+          }),
+        )
+        .catch((auditErr) => deps.logger.error({ err: auditErr, requestId }, 'could not audit a refusal'));
+    }
+    if (res.headersSent) return;
+    const body: ErrorBody = {
+      error: { code: appErr.code, message: appErr.message, ...(appErr.fields ? { fields: appErr.fields } : {}) },
+      requestId,
+    };
+    res.status(appErr.status).json(body);
+  };
+}

@@ -1,0 +1,155 @@
+import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
+import type { z } from 'zod';
+import { defineAbilityFor, type Action, type SubjectName } from '../../../policies/access';
+import { OrgParamsSchema } from '../../../policies/schemas';
+import type { User } from '../entities';
+import { loadActor } from '../services/actor';
+import { AppError, fromZod } from './errors';
+import { makeTx, type BaseCtx, type Deps, type OrgCtx } from './context';
+
+/**
+ * Every route says who may call it. There is no default: a route without `access` does not compile.
+ * - public: anyone (a short list, reviewed in the route table snapshot);
+ * - signedIn: any signed-in person, for their own account;
+ * - org: a member of the organization in `:orgId` whose rules allow `action` on some `subject`;
+ *   the handler then checks the loaded record itself.
+ */
+export type Access =
+  | { kind: 'public' }
+  | { kind: 'signedIn' }
+  | { kind: 'org'; action: Action; subject: SubjectName };
+
+type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
+type ZodAny = z.ZodType;
+type Infer<T> = T extends ZodAny ? z.infer<T> : undefined;
+
+interface RouteBase<P, Q, B> {
+  method: Method;
+  /** Path below /api, Express syntax. */
+  path: string;
+  summary: string;
+  params?: P;
+  query?: Q;
+  body?: B;
+  /** Runs before the session check, e.g. sign-in rate limits. */
+  before?: RequestHandler[];
+  status?: number;
+}
+
+export type RouteDef =
+  | (RouteBase<ZodAny, ZodAny, ZodAny> & {
+      access: { kind: 'public' } | { kind: 'signedIn' };
+      handler: (ctx: BaseCtx<any, any, any>) => Promise<unknown>;
+    })
+  | (RouteBase<ZodAny, ZodAny, ZodAny> & {
+      access: { kind: 'org'; action: Action; subject: SubjectName };
+      handler: (ctx: OrgCtx<any, any, any>) => Promise<unknown>;
+    });
+
+/** Helpers that keep handler parameter types tied to their schemas. */
+export function publicRoute<P extends ZodAny | undefined = undefined, Q extends ZodAny | undefined = undefined, B extends ZodAny | undefined = undefined>(
+  def: RouteBase<P, Q, B> & { access: { kind: 'public' } | { kind: 'signedIn' }; handler: (ctx: BaseCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown> },
+): RouteDef {
+  return def as unknown as RouteDef;
+}
+
+export function orgRoute<P extends ZodAny | undefined = undefined, Q extends ZodAny | undefined = undefined, B extends ZodAny | undefined = undefined>(
+  def: RouteBase<P, Q, B> & { access: { kind: 'org'; action: Action; subject: SubjectName }; handler: (ctx: OrgCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown> },
+): RouteDef {
+  return def as unknown as RouteDef;
+}
+
+export interface RouteTableRow {
+  method: string;
+  path: string;
+  access: string;
+}
+
+/** Route → required access, for review: the snapshot test makes any change to it visible. */
+export const ROUTE_TABLE: RouteTableRow[] = [];
+
+function accessLabel(a: Access): string {
+  return a.kind === 'org' ? `member: ${a.action} ${a.subject}` : a.kind;
+}
+
+const asyncHandler =
+  (fn: (req: Request, res: Response) => Promise<void>): RequestHandler =>
+  (req, res, next: NextFunction) => {
+    fn(req, res).catch(next);
+  };
+
+export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void {
+  for (const def of defs) {
+    const fullPath = `/api${def.path}`;
+    if (!ROUTE_TABLE.some((r) => r.method === def.method.toUpperCase() && r.path === fullPath)) {
+      ROUTE_TABLE.push({ method: def.method.toUpperCase(), path: fullPath, access: accessLabel(def.access) });
+    }
+    const handler = asyncHandler(async (req, res) => {
+      const requestId = String(req.id);
+      const user = (req.user as User | undefined) ?? null;
+      if (def.access.kind !== 'public' && !user) {
+        throw new AppError('unauthenticated', 'Please sign in to continue.');
+      }
+      // Organization membership is resolved before input validation so an outsider learns nothing
+      // about what the route accepts: not a member → 404, as if the organization did not exist.
+      let orgCtx: Pick<OrgCtx<unknown, unknown, unknown>, 'actor' | 'ability'> | null = null;
+      if (def.access.kind === 'org') {
+        const orgParams = OrgParamsSchema.partial().passthrough().safeParse({ orgId: req.params.orgId });
+        const orgId = orgParams.success ? orgParams.data.orgId : undefined;
+        const actor = orgId ? await loadActor(deps.ds, user!.id, orgId) : null;
+        if (!actor) throw new AppError('not_found', 'That organization was not found.');
+        const ability = defineAbilityFor(actor);
+        res.locals.actor = actor;
+        if (!ability.can(def.access.action, def.access.subject)) {
+          throw new AppError('forbidden', refusalMessage(def.access.action, def.access.subject));
+        }
+        orgCtx = { actor, ability };
+      }
+      const parse = (schema: ZodAny | undefined, value: unknown, where: 'params' | 'query' | 'body') => {
+        if (!schema) return undefined;
+        const result = schema.safeParse(value ?? {});
+        if (!result.success) throw fromZod(result.error, where);
+        return result.data;
+      };
+      const params = parse(def.params, req.params, 'params');
+      const query = parse(def.query, req.query, 'query');
+      const body = parse(def.body, req.body, 'body');
+      const organizationId = orgCtx?.actor.organizationId ?? null;
+      const ctx = {
+        req,
+        res,
+        deps,
+        ds: deps.ds,
+        requestId,
+        user,
+        params,
+        query,
+        body,
+        tx: makeTx(deps.ds, requestId, user?.id ?? null, organizationId),
+        ...orgCtx,
+      };
+      const result = await (def.handler as (c: typeof ctx) => Promise<unknown>)(ctx);
+      if (res.headersSent) return;
+      if (result === undefined) res.status(def.status ?? 204).end();
+      else res.status(def.status ?? 200).json(result);
+    });
+    router[def.method](def.path, ...(def.before ?? []), handler);
+  }
+}
+
+const SUBJECT_WORDS: Record<SubjectName, string> = {
+  Organization: 'organization settings',
+  User: 'accounts',
+  Membership: 'people and roles',
+  Athlete: 'athlete profiles',
+  Invitation: 'invitations',
+  CareTeamAssignment: 'care teams',
+  GuardianLink: 'guardian links',
+  AuditEntry: 'the audit trail',
+};
+
+export function refusalMessage(action: Action, subject: SubjectName): string {
+  const verb = action === 'read' ? 'see' : action === 'create' ? 'add to' : action === 'delete' ? 'remove from' : 'change';
+  return `Your role does not allow you to ${verb} ${SUBJECT_WORDS[subject]}. Ask an admin of your organization if you need this.`;
+}
+

@@ -1,0 +1,4 @@
+import { CreateFoundation1764600000000 } from './1764600000000-create-foundation';
+
+/** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
+export const MIGRATIONS = [CreateFoundation1764600000000];

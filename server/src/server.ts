@@ -1,0 +1,54 @@
+import 'reflect-metadata';
+import type { Server } from 'node:http';
+import type { DataSource } from 'typeorm';
+import type { Logger } from 'pino';
+import { buildApp } from './app';
+import type { Config } from './config';
+import { createDataSource } from './data-source';
+
+export interface RunningServer {
+  url: string;
+  server: Server;
+  ds: DataSource;
+  /** Stops taking connections, lets in-flight requests finish, closes the pools. */
+  stop(): Promise<void>;
+}
+
+/**
+ * Opens the database and listens. The pool gets an error listener, so a database that drops or
+ * restarts never crashes the process: requests fail with 503 until it is back.
+ */
+export async function startServer(config: Config, logger: Logger): Promise<RunningServer> {
+  const ds = createDataSource(config.DATABASE_URL);
+  await ds.initialize();
+  const pool = (ds.driver as unknown as { master: import('pg').Pool }).master;
+  pool.on('error', (err) => logger.warn({ err }, 'database pool: idle client error'));
+  const { app, close } = buildApp({ ds, config, logger });
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(config.PORT, config.HOST, () => resolve(s));
+    s.on('error', reject);
+  });
+  server.keepAliveTimeout = 5000;
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : config.PORT;
+  const url = `http://${config.HOST}:${port}`;
+  let stopping: Promise<void> | null = null;
+  return {
+    url,
+    server,
+    ds,
+    stop() {
+      stopping ??= (async () => {
+        await new Promise<void>((resolve) => {
+          server.close(() => resolve());
+          server.closeIdleConnections();
+          // Requests still running after 10 s are cut, so shutdown always ends.
+          setTimeout(() => server.closeAllConnections(), 10_000).unref();
+        });
+        await close();
+        await ds.destroy();
+      })();
+      return stopping;
+    },
+  };
+}

@@ -1,0 +1,62 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import type { Actor } from '../../../policies/access';
+import type { Role } from '../../../policies/roles';
+
+interface ActorRow {
+  membership_id: string;
+  organization_id: string;
+  organization_name: string;
+  roles: Role[];
+  coach_of: string[];
+  clinician_of: string[];
+  guardian_of: string[];
+}
+
+/**
+ * One query for everything the rules need about a user in each active membership. Care-team and
+ * guardian links only count while the person still holds the matching role, and only for athletes
+ * still active, so removing a role or a member takes effect on the very next request.
+ */
+const ACTOR_SQL = `
+  SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, m.roles,
+    CASE WHEN 'coach' = ANY(m.roles) THEN COALESCE((
+      SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
+      JOIN memberships a ON a.id = c.athlete_id AND a.active
+      WHERE c.member_id = m.id AND c.role = 'coach'), '{}') ELSE '{}' END AS coach_of,
+    CASE WHEN 'clinician' = ANY(m.roles) THEN COALESCE((
+      SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
+      JOIN memberships a ON a.id = c.athlete_id AND a.active
+      WHERE c.member_id = m.id AND c.role = 'clinician'), '{}') ELSE '{}' END AS clinician_of,
+    CASE WHEN 'guardian' = ANY(m.roles) THEN COALESCE((
+      SELECT array_agg(g.athlete_id ORDER BY g.athlete_id) FROM guardian_links g
+      JOIN memberships a ON a.id = g.athlete_id AND a.active
+      WHERE g.guardian_id = m.id), '{}') ELSE '{}' END AS guardian_of
+  FROM memberships m JOIN organizations o ON o.id = m.organization_id
+  WHERE m.user_id = $1 AND m.active`;
+
+export interface ActorWithOrg extends Actor {
+  organizationName: string;
+}
+
+function toActor(userId: string, row: ActorRow): ActorWithOrg {
+  return {
+    userId,
+    organizationId: row.organization_id,
+    organizationName: row.organization_name,
+    membershipId: row.membership_id,
+    roles: row.roles,
+    coachOf: row.coach_of,
+    clinicianOf: row.clinician_of,
+    guardianOf: row.guardian_of,
+  };
+}
+
+export async function loadActors(db: DataSource | EntityManager, userId: string): Promise<ActorWithOrg[]> {
+  const rows: ActorRow[] = await db.query(`${ACTOR_SQL} ORDER BY o.name`, [userId]);
+  return rows.map((r) => toActor(userId, r));
+}
+
+export async function loadActor(db: DataSource | EntityManager, userId: string, organizationId: string): Promise<ActorWithOrg | null> {
+  const rows: ActorRow[] = await db.query(`${ACTOR_SQL} AND m.organization_id = $2`, [userId, organizationId]);
+  return rows[0] ? toActor(userId, rows[0]) : null;
+}
