@@ -125,7 +125,7 @@ export function csrfProtection(): RequestHandler {
     const origin = req.get('origin');
     if (origin) {
       const host = req.get('host');
-      let originHost: string | null = null;
+      let originHost: string | null;
       try {
         originHost = new URL(origin).host;
       } catch {

@@ -8,7 +8,7 @@ export const healthRoutes: RouteDef[] = [
     summary: 'Is the app up, and can it reach its database?',
     access: { kind: 'public' },
     async handler({ ds, res }) {
-      let database: HealthDto['database'] = 'down';
+      let database: HealthDto['database'];
       try {
         await Promise.race([
           ds.query('SELECT 1'),

@@ -1,0 +1,93 @@
+/**
+ * `npm test`: type-check, then unit + integration tests (vitest, real PostgreSQL in a fresh test
+ * database), then browser tests (Playwright driving Debian's Chromium against the built app on a
+ * fresh e2e database with the demo scenario). Exits non-zero on the first failing stage.
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { loadConfig } from '../server/src/config';
+import { createLogger } from '../server/src/logger';
+import { startServer } from '../server/src/server';
+import { createDataSource } from '../server/src/data-source';
+import { loadDemo } from '../server/src/seed/demo';
+import { ROOT, buildClient, migrate, openDatabase } from './runtime';
+
+const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+const args = new Set(process.argv.slice(2));
+const only = (stage: string) => args.size === 0 || args.has(stage);
+
+function stage(name: string) {
+  console.log(`\n=== ${name} ===`);
+}
+
+function run(cmd: string, argv: string[], env: Record<string, string> = {}): Promise<number> {
+  return new Promise((resolve) => {
+    const child = spawn(cmd, argv, { cwd: ROOT, stdio: 'inherit', env: { ...process.env, ...env } });
+    child.on('exit', (code, signal) => resolve(code ?? (signal ? 1 : 0)));
+  });
+}
+
+function ensureChromium() {
+  if (existsSync(CHROMIUM)) return;
+  if (process.getuid?.() !== 0) throw new Error(`Chromium not found at ${CHROMIUM}; install Debian's "chromium" package.`);
+  console.log('[e2e] installing Debian\'s chromium package…');
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
+  const res = spawnSync('apt-get', ['install', '-y', '-qq', 'chromium'], { stdio: 'inherit', env });
+  if (res.status !== 0 || !existsSync(CHROMIUM)) throw new Error('could not install chromium');
+}
+
+let failed = false;
+let cluster: { stop(): void } | null = null;
+try {
+  if (only('typecheck')) {
+    stage('type-check');
+    if ((await run('npx', ['tsc', '--noEmit', '-p', '.'])) !== 0) throw new Error('type-check failed');
+    stage('lint');
+    if ((await run('npx', ['eslint', '.'])) !== 0) throw new Error('lint failed');
+  }
+
+  if (only('unit')) {
+    stage('unit and integration tests (vitest, real PostgreSQL)');
+    const db = await openDatabase('loadline_test', true);
+    cluster ??= db.cluster;
+    const code = await run('npx', ['vitest', 'run'], { TEST_DATABASE_URL: db.url });
+    if (code !== 0) throw new Error('vitest failed');
+  }
+
+  if (only('e2e')) {
+    stage('browser tests (Playwright on Debian Chromium)');
+    ensureChromium();
+    const db = await openDatabase('loadline_e2e', true);
+    cluster ??= db.cluster;
+    await migrate(db.url);
+    const seedDs = createDataSource(db.url, 2);
+    await seedDs.initialize();
+    await loadDemo(seedDs);
+    await seedDs.destroy();
+    await buildClient();
+    const config = loadConfig({
+      ...process.env,
+      DATABASE_URL: db.url,
+      SESSION_SECRET: 'e2e-secret-e2e-secret-e2e-secret-e2e-secret',
+      PORT: '0',
+      LOG_LEVEL: 'warn',
+      CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
+    });
+    const server = await startServer(config, createLogger(config.LOG_LEVEL));
+    try {
+      const code = await run('npx', ['playwright', 'test'], { E2E_BASE_URL: server.url, CHROMIUM_PATH: CHROMIUM });
+      if (code !== 0) throw new Error('browser tests failed');
+    } finally {
+      await server.stop();
+    }
+  }
+  console.log('\nAll tests passed.');
+} catch (err) {
+  failed = true;
+  console.error(`\nTESTS FAILED: ${(err as Error).message}`);
+} finally {
+  cluster?.stop();
+}
+process.exit(failed ? 1 : 0);

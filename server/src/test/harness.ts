@@ -1,0 +1,85 @@
+import { afterAll, beforeAll, inject } from 'vitest';
+import request from 'supertest';
+import type { Express } from 'express';
+import type { DataSource } from 'typeorm';
+import pino from 'pino';
+import { buildApp } from '../app';
+import { loadConfig, type Config } from '../config';
+import { createDataSource } from '../data-source';
+
+export const TEST_SECRET = 'test-secret-that-is-long-enough-for-the-config-check';
+
+export interface Harness {
+  app: Express;
+  ds: DataSource;
+  config: Config;
+}
+
+/**
+ * Builds the real app on the real test database for one test file. Each test creates its own
+ * organization through the factories, so files never depend on each other's rows.
+ */
+export function useHarness(overrides: Record<string, string> = {}): Harness {
+  const h = {} as Harness;
+  let close: (() => Promise<void>) | undefined;
+  beforeAll(async () => {
+    const url = inject('databaseUrl');
+    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', ...overrides });
+    h.ds = createDataSource(url, 5);
+    await h.ds.initialize();
+    const built = buildApp({ ds: h.ds, config: h.config, logger: pino({ level: 'silent' }) });
+    h.app = built.app;
+    close = built.close;
+  });
+  afterAll(async () => {
+    await close?.();
+    await h.ds?.destroy();
+  });
+  return h;
+}
+
+export type Agent = ReturnType<typeof request.agent>;
+
+/** A browser-like client: keeps cookies and sends the session's CSRF token on every write. */
+export class Client {
+  csrf = '';
+  constructor(readonly agent: Agent) {}
+
+  static async anonymous(app: Express): Promise<Client> {
+    const c = new Client(request.agent(app));
+    await c.refresh();
+    return c;
+  }
+
+  async refresh() {
+    const res = await this.agent.get('/api/session');
+    this.csrf = res.body.csrfToken;
+    return res;
+  }
+
+  get(path: string) {
+    return this.agent.get(path);
+  }
+  post(path: string, body?: object) {
+    return this.agent.post(path).set('x-csrf-token', this.csrf).send(body ?? {});
+  }
+  patch(path: string, body?: object) {
+    return this.agent.patch(path).set('x-csrf-token', this.csrf).send(body ?? {});
+  }
+  delete(path: string) {
+    return this.agent.delete(path).set('x-csrf-token', this.csrf);
+  }
+
+  async signIn(email: string, password: string) {
+    const res = await this.post('/api/session', { email, password });
+    if (res.status === 200) this.csrf = res.body.csrfToken;
+    return res;
+  }
+}
+
+export async function signedIn(app: Express, email: string, password: string): Promise<Client> {
+  const c = await Client.anonymous(app);
+  const res = await c.signIn(email, password);
+  if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return c;
+}

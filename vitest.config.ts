@@ -1,0 +1,30 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: 'server',
+          environment: 'node',
+          include: ['server/src/**/*.test.ts', 'policies/**/*.test.ts', 'scripts/**/*.test.ts'],
+          globalSetup: ['server/src/test/global-setup.ts'],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+          // Each file builds its own app and organizations; two workers match the 2-core machines.
+          maxWorkers: 2,
+        },
+      },
+      {
+        plugins: [react()],
+        test: {
+          name: 'client',
+          environment: 'happy-dom',
+          include: ['client/src/**/*.test.{ts,tsx}'],
+          setupFiles: ['client/src/test/setup.ts'],
+        },
+      },
+    ],
+  },
+});
