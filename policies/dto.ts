@@ -2,6 +2,9 @@
 import type { Actor } from './access/actor';
 import type { Role, CareTeamRole } from './roles';
 import type { Unit } from './schemas/common';
+import type { BodyRegion } from './body-regions';
+import type { InForce, PlanStage } from './load/in-force';
+import type { ParticipationStatus } from './load/patterns';
 
 export interface UserDto {
   id: string;
@@ -105,6 +108,8 @@ export interface AuditEntryDto {
   action: string;
   subjectType: string;
   subjectId: string | null;
+  athleteId: string | null;
+  athleteName: string | null;
   before: unknown;
   after: unknown;
   requestId: string | null;
@@ -124,4 +129,85 @@ export interface ErrorBody {
 export interface HealthDto {
   status: 'ok' | 'degraded';
   database: 'up' | 'down';
+}
+
+// ---- Cases, status and restriction plans ----
+
+/** Fields beyond the first few are present only when the reader's role may see them. */
+export interface CaseDto {
+  id: string;
+  organizationId: string;
+  athleteId: string;
+  athleteName: string;
+  status: ParticipationStatus;
+  statusEffectiveFrom: string;
+  openedAt: string;
+  closedOn: string | null;
+  version: number;
+  bodyRegions?: BodyRegion[];
+  onsetDate?: string;
+  diagnosis?: string | null;
+  clinicalNotes?: string | null;
+  statusNote?: string | null;
+  reviewDate?: string | null;
+  openedByName?: string | null;
+  closingNote?: string | null;
+  planId?: string | null;
+}
+
+export interface StatusChangeDto {
+  id: string;
+  status: ParticipationStatus;
+  effectiveFrom: string;
+  note: string | null;
+  setByName: string | null;
+  createdAt: string;
+}
+
+export interface CaseDetailDto extends CaseDto {
+  statusHistory?: StatusChangeDto[];
+}
+
+export interface PlanVersionDto {
+  planId: string;
+  version: number;
+  stages: PlanStage[];
+  guidance: string;
+  changeNote: string | null;
+  createdAt: string;
+  createdByName: string | null;
+}
+
+export interface PlanDto {
+  id: string;
+  organizationId: string;
+  caseId: string;
+  athleteId: string;
+  version: number;
+  current: PlanVersionDto;
+  /** Whether the reader may open earlier versions (care team only). */
+  canSeeHistory: boolean;
+}
+
+export interface InForceDto extends InForce {
+  athleteId: string;
+  status: ParticipationStatus;
+  statusEffectiveFrom: string | null;
+  /** Plain-words guidance of each plan in force. */
+  guidance: string[];
+}
+
+export interface CaseloadRowDto {
+  athleteId: string;
+  athleteName: string;
+  age: number | null;
+  isMinor: boolean;
+  sport: string | null;
+  status: ParticipationStatus;
+  statusEffectiveFrom: string | null;
+  openCaseCount: number;
+  openCaseId: string | null;
+  nextReviewDate: string | null;
+  /** Arrives with pain reports. */
+  latestPainReport: { reportedAt: string; painNow: number } | null;
 }

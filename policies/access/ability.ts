@@ -10,6 +10,8 @@ import { invitationRules } from './invitation';
 import { careTeamRules } from './care-team';
 import { guardianLinkRules } from './guardian-link';
 import { auditRules } from './audit';
+import { caseRules } from './case';
+import { restrictionPlanRules } from './restriction-plan';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -20,6 +22,8 @@ const RULE_SETS: RuleSet[] = [
   careTeamRules,
   guardianLinkRules,
   auditRules,
+  caseRules,
+  restrictionPlanRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

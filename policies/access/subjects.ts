@@ -15,7 +15,12 @@ export interface SubjectShapes {
   Invitation: { id: string; organizationId: string };
   CareTeamAssignment: { id: string; organizationId: string; athleteId: string };
   GuardianLink: { id: string; organizationId: string; athleteId: string; guardianId: string };
-  AuditEntry: { organizationId: string };
+  AuditEntry: { organizationId: string; athleteId?: string | null };
+  /** The organization's whole hash chain, checked end to end. */
+  AuditChain: { organizationId: string };
+  Case: { id: string; organizationId: string; athleteId: string };
+  ParticipationStatus: { organizationId: string; athleteId: string };
+  RestrictionPlan: { id: string; organizationId: string; athleteId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -27,6 +32,10 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'CareTeamAssignment',
   'GuardianLink',
   'AuditEntry',
+  'AuditChain',
+  'Case',
+  'ParticipationStatus',
+  'RestrictionPlan',
 ];
 
 type TaggedSubjects = {

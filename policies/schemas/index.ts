@@ -2,3 +2,4 @@ export * from './common';
 export * from './password';
 export * from './auth';
 export * from './people';
+export * from './cases';

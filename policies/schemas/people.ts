@@ -64,6 +64,7 @@ export const AuditQuerySchema = z.strictObject({
   action: z.string().max(80).optional(),
   actorId: UuidSchema.optional(),
   subjectId: UuidSchema.optional(),
+  athleteId: UuidSchema.optional(),
   from: IsoDateSchema.optional(),
   to: IsoDateSchema.optional(),
   limit: z.coerce.number().int().min(1).max(500).default(100),

@@ -17,6 +17,8 @@ import { athleteRoutes } from './routes/athletes/athletes.router';
 import { careTeamRoutes } from './routes/care-team/care-team.router';
 import { guardianLinkRoutes } from './routes/guardian-links/guardian-links.router';
 import { auditRoutes } from './routes/audit/audit.router';
+import { caseRoutes } from './routes/cases/cases.router';
+import { planRoutes } from './routes/plans/plans.router';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 
@@ -90,6 +92,8 @@ export function buildApp(base: AppDeps) {
     ...careTeamRoutes,
     ...guardianLinkRoutes,
     ...auditRoutes,
+    ...caseRoutes,
+    ...planRoutes,
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

@@ -7,6 +7,7 @@ import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
  */
 @Entity({ name: 'audit_entries' })
 @Index('audit_entries_org_id_idx', ['organizationId', 'id'])
+@Index('audit_entries_athlete_idx', ['organizationId', 'athleteId', 'id'])
 export class AuditEntry {
   @PrimaryGeneratedColumn('increment', { type: 'bigint' })
   id: string;
@@ -22,6 +23,10 @@ export class AuditEntry {
 
   @Column('varchar', { length: 80 })
   action: string;
+
+  /** The athlete the entry is about, when there is one: lets clinicians follow their athletes' trail. */
+  @Column('uuid', { name: 'athlete_id', nullable: true })
+  athleteId: string | null;
 
   @Column('varchar', { name: 'subject_type', length: 60 })
   subjectType: string;

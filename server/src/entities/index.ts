@@ -6,8 +6,15 @@ import { CareTeamAssignment } from './care-team-assignment.entity';
 import { GuardianLink } from './guardian-link.entity';
 import { Invitation } from './invitation.entity';
 import { AuditEntry } from './audit-entry.entity';
+import { CaseRecord } from './case.entity';
+import { ParticipationStatusChange } from './participation-status-change.entity';
+import { RestrictionPlan } from './restriction-plan.entity';
+import { RestrictionPlanVersion } from './restriction-plan-version.entity';
 
-export { Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry };
+export {
+  Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
+  ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion,
+};
 
 export const ENTITIES = [
   Organization,
@@ -18,4 +25,8 @@ export const ENTITIES = [
   GuardianLink,
   Invitation,
   AuditEntry,
+  CaseRecord,
+  ParticipationStatusChange,
+  RestrictionPlan,
+  RestrictionPlanVersion,
 ];

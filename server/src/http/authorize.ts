@@ -12,6 +12,10 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   CareTeamAssignment: 'care-team assignment',
   GuardianLink: 'guardian link',
   AuditEntry: 'audit entry',
+  AuditChain: 'audit chain',
+  Case: 'case',
+  ParticipationStatus: 'participation status',
+  RestrictionPlan: 'restriction plan',
 };
 
 /**

@@ -59,7 +59,9 @@ export const versionConflict = (what: string) =>
 
 /** Turns zod issues into `{ "field.path": ["message"] }` and one sentence naming each field. */
 export function fromZod(error: z.ZodError, where: 'body' | 'query' | 'params'): AppError {
-  const fields: Record<string, string[]> = {};
+  // No prototype: an unknown key such as `constructor` or `__proto__` in a request must be reported,
+  // not resolved to Object.prototype's member (which made the push below throw, answering 500).
+  const fields: Record<string, string[]> = Object.create(null);
   for (const issue of error.issues) {
     let key = issue.path.map(String).join('.');
     let message = issue.message;

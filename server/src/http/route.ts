@@ -146,6 +146,10 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   CareTeamAssignment: 'care teams',
   GuardianLink: 'guardian links',
   AuditEntry: 'the audit trail',
+  AuditChain: 'the audit chain check',
+  Case: 'cases',
+  ParticipationStatus: 'participation status',
+  RestrictionPlan: 'restriction plans',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

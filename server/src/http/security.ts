@@ -1,4 +1,4 @@
-import { randomBytes, timingSafeEqual } from 'node:crypto';
+import { createHash, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { RequestHandler } from 'express';
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
@@ -169,7 +169,11 @@ export function signInLimits(deps: Deps): RequestHandler[] {
     legacyHeaders: false,
     keyGenerator: (req) => {
       const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
-      return `account:${email}`;
+      if (email) return `account:${email}`;
+      // Invitation routes carry a token, not an e-mail: count failures per link. A single shared key
+      // would let ten bad requests from anyone block every invitation for the whole window.
+      const token = typeof req.body?.token === 'string' ? req.body.token : '';
+      return `invitation:${createHash('sha256').update(token).digest('hex')}`;
     },
     handler: (_req, _res, next) => next(rateLimited),
   });

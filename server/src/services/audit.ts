@@ -11,12 +11,15 @@ export interface AuditInput {
   action: string;
   subjectType: string;
   subjectId?: string | null;
+  /** The athlete the change concerns, if any (clinicians browse their athletes' trail by it). */
+  athleteId?: string | null;
   before?: unknown;
   after?: unknown;
   requestId?: string | null;
 }
 
-type Hashable = Pick<AuditEntry, 'organizationId' | 'occurredAt' | 'actorUserId' | 'action' | 'subjectType' | 'subjectId' | 'before' | 'after' | 'requestId'>;
+type Hashable = Pick<AuditEntry, 'organizationId' | 'occurredAt' | 'actorUserId' | 'action' | 'subjectType' | 'subjectId' | 'before' | 'after' | 'requestId'> &
+  Partial<Pick<AuditEntry, 'athleteId'>>;
 
 export function entryHash(prevHash: string, e: Hashable): string {
   const canonical = canonicalJson({
@@ -29,6 +32,8 @@ export function entryHash(prevHash: string, e: Hashable): string {
     before: e.before,
     after: e.after,
     requestId: e.requestId,
+    // Added with the cases migration; left out when empty so entries written before it still verify.
+    ...(e.athleteId ? { athleteId: e.athleteId } : {}),
   });
   return createHash('sha256').update(prevHash).update(canonical).digest('hex');
 }
@@ -55,6 +60,7 @@ export async function appendAudit(manager: EntityManager, input: AuditInput): Pr
     action: input.action,
     subjectType: input.subjectType,
     subjectId: input.subjectId ?? null,
+    athleteId: input.athleteId ?? null,
     before: toPlainJson(input.before ?? null),
     after: toPlainJson(input.after ?? null),
     requestId: input.requestId ?? null,
@@ -100,4 +106,17 @@ export async function verifyChain(manager: EntityManager, organizationId: string
     if (rows.length < batch) break;
   }
   return { organizationId, entries: count, intact: true, firstBrokenId: null, reason: null };
+}
+
+/**
+ * Clinical free text never enters the trail: the entry records that it changed and its length, so
+ * the trail proves what happened without becoming a second copy of the notes.
+ */
+export function redact<T extends Record<string, unknown>>(value: T | null, fields: readonly string[]): Record<string, unknown> | null {
+  if (!value) return null;
+  const out: Record<string, unknown> = { ...value };
+  for (const f of fields) {
+    if (typeof out[f] === 'string') out[f] = `[redacted: ${(out[f] as string).length} characters]`;
+  }
+  return out;
 }

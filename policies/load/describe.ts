@@ -1,0 +1,32 @@
+import type { Unit } from '../schemas/common';
+import { PATTERN_LABELS, type Caps, type MovementPattern, type PatternRule } from './patterns';
+import { formatLoad } from './units';
+
+/** Caps in plain words, for athletes and guardians: "up to 60% of your best, RPE 7 or easier". */
+export function describeCaps(caps: Caps | undefined, unit: Unit): string[] {
+  if (!caps) return [];
+  const parts: string[] = [];
+  if (caps.maxPercent1RM !== undefined) parts.push(`up to ${caps.maxPercent1RM}% of your best lift`);
+  if (caps.maxLoadKg !== undefined) parts.push(`no more than ${formatLoad(caps.maxLoadKg, unit)}`);
+  if (caps.maxRpe !== undefined) parts.push(`effort RPE ${caps.maxRpe} or easier`);
+  if (caps.maxSetsPerSession !== undefined) parts.push(`at most ${caps.maxSetsPerSession} sets a session`);
+  if (caps.maxRepsPerSet !== undefined) parts.push(`at most ${caps.maxRepsPerSet} reps a set`);
+  if (caps.maxHardSetsPerWeek !== undefined) parts.push(`at most ${caps.maxHardSetsPerWeek} hard sets a week`);
+  if (caps.impactAllowed === false) parts.push('no jumping, landing or other impact');
+  return parts;
+}
+
+export function describeRule(pattern: MovementPattern, rule: PatternRule, unit: Unit): string {
+  const name = PATTERN_LABELS[pattern];
+  if (rule.mode === 'blocked') return `${name}: not allowed for now`;
+  if (rule.mode === 'free') return `${name}: no limits`;
+  const parts = describeCaps(rule.caps, unit);
+  return parts.length ? `${name}: ${parts.join(', ')}` : `${name}: allowed with care`;
+}
+
+/** '2026-03-14' → '14 March 2026', without time zones getting in the way. */
+export function describeDate(iso: string): string {
+  const [y, m, d] = iso.split('-').map(Number);
+  const months = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+  return `${d} ${months[m - 1]} ${y}`;
+}

@@ -1,0 +1,4 @@
+export * from './patterns';
+export * from './units';
+export * from './in-force';
+export * from './describe';

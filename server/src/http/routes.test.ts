@@ -1,0 +1,357 @@
+import { randomUUID } from 'node:crypto';
+import net from 'node:net';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import request from 'supertest';
+import fc from 'fast-check';
+import pino from 'pino';
+import { z } from 'zod';
+import * as schemas from '../../../policies/schemas';
+import { buildApp } from '../app';
+import { loadConfig } from '../config';
+import { createDataSource } from '../data-source';
+import { Client, signedIn, TEST_SECRET, useHarness } from '../test/harness';
+import { createOrg, TEST_PASSWORD } from '../test/factories';
+import { ROUTE_TABLE } from './route';
+
+const WRITE_METHODS = new Set(['POST', 'PATCH', 'PUT', 'DELETE']);
+
+/** Fills `:name` parameters from `ids`, or with a fresh, well-formed uuid. */
+function fillPath(path: string, ids: Record<string, string> = {}): string {
+  return path.replace(/:(\w+)/g, (_m, name: string) => ids[name] ?? randomUUID());
+}
+
+function send(agent: ReturnType<typeof request.agent> | ReturnType<typeof request>, method: string, path: string) {
+  const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
+  return agent[m](path);
+}
+
+/** No stack trace, file path or source line ever reaches a client. */
+function expectNoStack(text: string) {
+  expect(text).not.toMatch(/"stack"/);
+  expect(text).not.toMatch(/^\s*at\s/m);
+  expect(text).not.toMatch(/\bat\s+\S+\s+\(.*:\d+:\d+\)/);
+  expect(text).not.toMatch(/node_modules|\/server\/src\//);
+}
+
+describe('the route table', () => {
+  const h = useHarness({ SIGNIN_MAX_PER_IP: '10000', SIGNIN_MAX_FAILURES_PER_ACCOUNT: '10000' });
+
+  it('is filled when the app is built', () => {
+    expect(ROUTE_TABLE.length).toBeGreaterThan(10);
+    expect(ROUTE_TABLE.every((r) => r.path.startsWith('/api/'))).toBe(true);
+  });
+
+  it('answers 401 unauthenticated to a signed-out caller on every route not on the public list', async () => {
+    const anon = await Client.anonymous(h.app);
+    const guarded = ROUTE_TABLE.filter((r) => r.access !== 'public');
+    expect(guarded.length).toBeGreaterThan(10);
+    const outcomes: string[] = [];
+    for (const route of guarded) {
+      let req = send(anon.agent, route.method, fillPath(route.path));
+      // A valid token of the anonymous session, so CSRF is not what refuses the write.
+      if (WRITE_METHODS.has(route.method)) req = req.set('x-csrf-token', anon.csrf).send({});
+      const res = await req;
+      outcomes.push(`${route.method} ${route.path} → ${res.status} ${res.body?.error?.code}`);
+    }
+    expect(outcomes).toEqual(guarded.map((r) => `${r.method} ${r.path} → 401 unauthenticated`));
+  });
+
+  it('is reviewed as data: any change of a route or its required access shows as a diff here', () => {
+    const rows = ROUTE_TABLE.map((r) => `${r.method.padEnd(6)} ${r.path}  ⇒  ${r.access}`);
+    expect(rows).toMatchInlineSnapshot(`
+      [
+        "GET    /api/health  ⇒  public",
+        "GET    /api/session  ⇒  public",
+        "POST   /api/session  ⇒  public",
+        "DELETE /api/session  ⇒  signedIn",
+        "PATCH  /api/me  ⇒  signedIn",
+        "POST   /api/invitations/preview  ⇒  public",
+        "POST   /api/invitations/accept  ⇒  public",
+        "GET    /api/orgs/:orgId/invitations  ⇒  member: read Invitation",
+        "POST   /api/orgs/:orgId/invitations  ⇒  member: create Invitation",
+        "DELETE /api/orgs/:orgId/invitations/:id  ⇒  member: delete Invitation",
+        "GET    /api/orgs/:orgId  ⇒  member: read Organization",
+        "GET    /api/orgs/:orgId/people  ⇒  member: read Membership",
+        "GET    /api/orgs/:orgId/people/:id  ⇒  member: read Membership",
+        "PATCH  /api/orgs/:orgId/people/:id  ⇒  member: update Membership",
+        "DELETE /api/orgs/:orgId/people/:id  ⇒  member: delete Membership",
+        "GET    /api/orgs/:orgId/athletes  ⇒  member: read Athlete",
+        "GET    /api/orgs/:orgId/athletes/:id  ⇒  member: read Athlete",
+        "PATCH  /api/orgs/:orgId/athletes/:id  ⇒  member: update Athlete",
+        "POST   /api/orgs/:orgId/care-team  ⇒  member: create CareTeamAssignment",
+        "DELETE /api/orgs/:orgId/care-team/:id  ⇒  member: delete CareTeamAssignment",
+        "POST   /api/orgs/:orgId/guardian-links  ⇒  member: create GuardianLink",
+        "DELETE /api/orgs/:orgId/guardian-links/:id  ⇒  member: delete GuardianLink",
+        "GET    /api/orgs/:orgId/audit  ⇒  member: read AuditEntry",
+        "GET    /api/orgs/:orgId/audit/verify  ⇒  member: read AuditEntry",
+      ]
+    `);
+  });
+
+  it('answers an unknown API route with a JSON 404 not_found', async () => {
+    const res = await request(h.app).get('/api/no-such-thing');
+    expect(res.status).toBe(404);
+    expect(res.headers['content-type']).toMatch(/application\/json/);
+    expect(res.body.error.code).toBe('not_found');
+    expect(res.body.requestId).toBe(res.headers['x-request-id']);
+    const anon = await Client.anonymous(h.app);
+    const write = await anon.post('/api/orgs', {});
+    expect(write.status).toBe(404);
+    expect(write.body.error.code).toBe('not_found');
+  });
+
+  it('reports unknown body keys named like Object.prototype members as fields, never a 500', async () => {
+    const anon = await Client.anonymous(h.app);
+    const res = await anon.agent
+      .post('/api/session')
+      .set('x-csrf-token', anon.csrf)
+      .set('Content-Type', 'application/json')
+      .send('{"email":"a@test.example","password":"x","constructor":[],"toString":1,"__proto__":{"admin":true}}');
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('validation_failed');
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['__proto__', 'constructor', 'toString']);
+    expect(res.body.error.message).toContain('constructor');
+  });
+
+  it('answers a malformed JSON body with 400 validation_failed naming body, and no stack trace', async () => {
+    const res = await request(h.app).post('/api/session').set('Content-Type', 'application/json').send('{"email": "a@b.example", ');
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('validation_failed');
+    expect(res.body.error.fields).toHaveProperty('body');
+    expect(Object.keys(res.body).sort()).toEqual(['error', 'requestId']);
+    expect(res.body.error).not.toHaveProperty('stack');
+    expectNoStack(res.text);
+  });
+
+  it('answers a body over 100 kB with 413', async () => {
+    const big = JSON.stringify({ email: 'a@test.example', password: 'x'.repeat(110 * 1024) });
+    const res = await request(h.app).post('/api/session').set('Content-Type', 'application/json').send(big);
+    expect(res.status).toBe(413);
+    expect(res.body.error.code).toBe('payload_too_large');
+    expectNoStack(res.text);
+  });
+
+  it('sends the security headers: tight CSP, nosniff, no referrer, no-store on the API, request id', async () => {
+    for (const path of ['/api/health', '/api/session', '/api/no-such-thing']) {
+      const res = await request(h.app).get(path);
+      const csp = String(res.headers['content-security-policy']);
+      for (const directive of ["script-src 'self'", "object-src 'none'", "frame-ancestors 'none'", "base-uri 'none'"]) {
+        expect(csp, path).toContain(directive);
+      }
+      expect(csp).not.toContain('unsafe-inline');
+      expect(csp).not.toContain('unsafe-eval');
+      expect(res.headers['x-content-type-options']).toBe('nosniff');
+      expect(res.headers['referrer-policy']).toBe('no-referrer');
+      expect(res.headers['cache-control'], path).toBe('no-store');
+      expect(res.headers['x-request-id']).toMatch(/^[\w-]{8,64}$/);
+      expect(res.headers['x-powered-by']).toBeUndefined();
+    }
+  });
+
+  it('uses the request id in both the header and the error body; a well-formed incoming id is kept, a bad one replaced', async () => {
+    const err = await request(h.app).get('/api/no-such-thing');
+    expect(err.body.requestId).toBe(err.headers['x-request-id']);
+
+    const kept = await request(h.app).get('/api/no-such-thing').set('X-Request-Id', 'trace-1234abcd');
+    expect(kept.headers['x-request-id']).toBe('trace-1234abcd');
+    expect(kept.body.requestId).toBe('trace-1234abcd');
+
+    const replaced = await request(h.app).get('/api/no-such-thing').set('X-Request-Id', 'bad id with spaces <script>');
+    expect(replaced.headers['x-request-id']).not.toContain(' ');
+    expect(replaced.body.requestId).toBe(replaced.headers['x-request-id']);
+  });
+
+  describe('property: arbitrary bodies never cause a 5xx', () => {
+    /** Every field name any request schema knows, so generated bodies often look almost right. */
+    const knownKeys = [
+      ...new Set(
+        Object.values(schemas).flatMap((s) => (s instanceof z.ZodObject ? Object.keys((s as z.ZodObject).shape) : [])),
+      ),
+    ];
+
+    it('knows the request field names', () => {
+      expect(knownKeys).toEqual(expect.arrayContaining(['email', 'password', 'token', 'roles', 'version', 'athleteId']));
+    });
+
+    it('holds for every write route with a body, called by a member the route admits', async () => {
+      const org = await createOrg(h.ds);
+      // The admin first; routes the admin's role does not admit (403 before any validation) are
+      // fuzzed as the athlete's clinician or coach instead, so the bodies do reach the schemas.
+      const callers = [
+        await signedIn(h.app, org.admin.email, TEST_PASSWORD),
+        await signedIn(h.app, org.clinician.email, TEST_PASSWORD),
+        await signedIn(h.app, org.coach.email, TEST_PASSWORD),
+      ];
+      const realIds = [org.id, org.athlete.membershipId, org.coach.membershipId, org.clinician.membershipId, org.guardian.membershipId];
+      const plausible = fc.constantFrom<unknown>(
+        ...realIds,
+        randomUUID(),
+        'new-person@test.example',
+        ['coach'],
+        ['athlete', 'admin'],
+        'coach',
+        'clinician',
+        'athlete',
+        '2010-05-05',
+        '2999-02-30',
+        1,
+        2,
+        0,
+        -1,
+        1e308,
+        'lb',
+        null,
+        '',
+        TEST_PASSWORD,
+        'x'.repeat(300),
+        'a\r\nBcc: x@test.example',
+        { $gt: '' },
+        [],
+        {},
+      );
+      const value = fc.oneof(plausible, fc.jsonValue({ maxDepth: 2 }));
+      const bodyArb = fc.oneof(
+        fc.anything({ maxDepth: 2 }),
+        fc.object({ maxDepth: 2 }),
+        fc.dictionary(fc.constantFrom(...knownKeys), value, { maxKeys: 6 }),
+        fc.dictionary(fc.constantFrom(...knownKeys, '__proto__', 'constructor', 'organizationId'), value, { maxKeys: 4 }),
+      );
+      // `:id` is a real athlete (valid for people and athletes), so well-formed bodies reach the handlers.
+      const ids = { orgId: org.id, id: org.athlete.membershipId };
+      const routes = ROUTE_TABLE.filter((r) => ['POST', 'PATCH', 'PUT'].includes(r.method));
+      expect(routes.length).toBeGreaterThanOrEqual(5);
+
+      const call = (caller: Client, method: string, path: string, json: string) =>
+        send(caller.agent, method, path).set('x-csrf-token', caller.csrf).set('Content-Type', 'application/json').send(json);
+
+      const codes: Record<string, Set<string>> = {};
+      for (const route of routes) {
+        const path = fillPath(route.path, ids);
+        let caller = callers[0];
+        for (const c of callers) {
+          caller = c;
+          const probe = await call(c, route.method, path, '{}');
+          if (probe.body?.error?.code !== 'forbidden') break;
+        }
+        const seen = (codes[`${route.method} ${route.path}`] = new Set());
+        await fc.assert(
+          fc.asyncProperty(bodyArb, async (body) => {
+            const json = JSON.stringify(body) ?? '';
+            const res = await call(caller, route.method, path, json);
+            seen.add(res.status < 400 ? String(res.status) : res.body?.error?.code);
+            if (res.status >= 500) throw new Error(`${route.method} ${path} → ${res.status} ${res.text} for ${json}`);
+            if (res.status >= 400) {
+              expect(res.body.error?.code, res.text).toEqual(expect.any(String));
+              expectNoStack(res.text);
+            }
+          }),
+          { numRuns: 30 },
+        );
+      }
+      // Every caller stayed signed in and passed CSRF, so the bodies were judged on their content.
+      for (const [route, seen] of Object.entries(codes)) {
+        expect([...seen].filter((c) => c === 'unauthenticated' || c === 'csrf_failed'), route).toEqual([]);
+      }
+    });
+  });
+});
+
+/** A TCP proxy in front of PostgreSQL that the test can cut and restore, like a database restart. */
+class PgProxy {
+  private server: net.Server | null = null;
+  private sockets = new Set<net.Socket>();
+  port = 0;
+
+  constructor(
+    private readonly target: { host: string; port: number },
+  ) {}
+
+  async open(port = this.port): Promise<void> {
+    const server = net.createServer((client) => {
+      const upstream = net.connect(this.target.port, this.target.host);
+      for (const s of [client, upstream]) {
+        this.sockets.add(s);
+        s.on('close', () => this.sockets.delete(s));
+        s.on('error', () => {
+          client.destroy();
+          upstream.destroy();
+        });
+      }
+      client.pipe(upstream);
+      upstream.pipe(client);
+    });
+    await new Promise<void>((resolve, reject) => {
+      server.once('error', reject);
+      server.listen(port, '127.0.0.1', () => resolve());
+    });
+    this.server = server;
+    this.port = (server.address() as net.AddressInfo).port;
+  }
+
+  /** Stops listening and cuts every open connection. */
+  async cut(): Promise<void> {
+    const server = this.server;
+    this.server = null;
+    for (const s of this.sockets) s.destroy();
+    this.sockets.clear();
+    if (server) await new Promise<void>((resolve) => server.close(() => resolve()));
+  }
+}
+
+describe('health while the database goes away and comes back', () => {
+  const dbUrl = new URL(inject('databaseUrl'));
+  const proxy = new PgProxy({ host: dbUrl.hostname, port: Number(dbUrl.port || 5432) });
+  let app: Parameters<typeof request>[0];
+  let close: (() => Promise<void>) | undefined;
+  let ds: ReturnType<typeof createDataSource> | undefined;
+
+  beforeAll(async () => {
+    await proxy.open(0);
+    const viaProxy = new URL(dbUrl);
+    viaProxy.hostname = '127.0.0.1';
+    viaProxy.port = String(proxy.port);
+    // The app's pools (TypeORM's and the session store's) both go through the proxy.
+    const config = loadConfig({ DATABASE_URL: viaProxy.toString(), SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent' });
+    ds = createDataSource(viaProxy.toString(), 3);
+    await ds.initialize();
+    const built = buildApp({ ds, config, logger: pino({ level: 'silent' }) });
+    app = built.app;
+    close = built.close;
+  });
+
+  afterAll(async () => {
+    await proxy.open().catch(() => undefined);
+    await close?.();
+    await ds?.destroy();
+    await proxy.cut();
+  });
+
+  it('answers 503 while the database is away and 200 again after, without a restart', async () => {
+    const org = await createOrg(ds!);
+    const user = await signedIn(app as never, org.coach.email, TEST_PASSWORD);
+    const up = await request(app).get('/api/health');
+    expect(up.status).toBe(200);
+    expect(up.body).toEqual({ status: 'ok', database: 'up' });
+
+    await proxy.cut();
+    const down = await request(app).get('/api/health');
+    expect(down.status).toBe(503);
+    expect(down.body).toEqual({ status: 'degraded', database: 'down' });
+    expect(down.headers['cache-control']).toBe('no-store');
+    // A signed-in request needs the session store, which is away too: a clean error, not a crash.
+    const whileDown = await user.get('/api/session');
+    expect(whileDown.status).toBe(503);
+    expect(whileDown.body.error.code).toBe('unavailable');
+    expectNoStack(whileDown.text);
+    expect((await request(app).get('/api/health')).status).toBe(503);
+
+    await proxy.open();
+    const back = await request(app).get('/api/health');
+    expect(back.status).toBe(200);
+    expect(back.body).toEqual({ status: 'ok', database: 'up' });
+    // The session survived in the database: the same person is still signed in.
+    const again = await user.get('/api/session');
+    expect(again.status).toBe(200);
+    expect(again.body.user?.id).toBe(org.coach.userId);
+  });
+});
