@@ -1,0 +1,63 @@
+import type { ReactNode } from 'react';
+import { Outlet } from 'react-router-dom';
+import { useSession } from '../../features/auth/api/get-session';
+import { CareCaution } from '../../components/Cautions';
+import { Button } from '../../components/ui/Button';
+import { ErrorNotice } from '../../components/ui/Notice';
+import { Loading } from '../../components/ui/Panel';
+import { Brand } from './Brand';
+
+/**
+ * Every page: a skip link, the session loaded before anything else (it carries the CSRF token),
+ * and the standing caution in the footer.
+ */
+export function RootLayout() {
+  const session = useSession();
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a
+        href="#main"
+        className="sr-only rounded bg-ink px-3 py-2 text-paper focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-10"
+      >
+        Skip to content
+      </a>
+      <div className="flex-1">
+        {session.isPending ? (
+          <CenteredShell>
+            <Loading what="Loadline" />
+          </CenteredShell>
+        ) : session.isError ? (
+          <CenteredShell>
+            <ErrorNotice error={session.error} title="Loadline could not start" />
+            <Button className="mt-3" variant="secondary" onClick={() => void session.refetch()}>
+              Try again
+            </Button>
+          </CenteredShell>
+        ) : (
+          <Outlet />
+        )}
+      </div>
+      <footer className="border-t border-rule px-4 py-3">
+        <div className="mx-auto max-w-6xl">
+          <CareCaution />
+        </div>
+      </footer>
+    </div>
+  );
+}
+
+/** A narrow single column under a plain header, for signing in, accepting an invitation and errors. */
+export function CenteredShell({ children }: { children: ReactNode }) {
+  return (
+    <>
+      <header className="border-b border-rule bg-sheet px-4 py-3">
+        <div className="mx-auto max-w-6xl">
+          <Brand />
+        </div>
+      </header>
+      <main id="main" tabIndex={-1} className="mx-auto w-full max-w-md px-4 py-8 focus:outline-none">
+        {children}
+      </main>
+    </>
+  );
+}

@@ -1,0 +1,54 @@
+import { Navigate, createBrowserRouter } from 'react-router-dom';
+import { RootLayout } from './layout/RootLayout';
+import { SignedInLayout } from './layout/SignedInLayout';
+import { SignInPage } from './routes/sign-in';
+import { InvitePage } from './routes/invite';
+import { HomeRedirect } from './routes/home-redirect';
+import { AccountPage } from './routes/account';
+import { NotFoundPage } from './routes/not-found';
+import { CoachHome } from './routes/coach';
+import { ClinicianHome } from './routes/clinician';
+import { AthleteHome } from './routes/athlete';
+import { GuardianHome } from './routes/guardian';
+import { AdminLayout } from './routes/admin/admin-layout';
+import { PeoplePage } from './routes/admin/people';
+import { PersonPage } from './routes/admin/person';
+import { InvitationsPage } from './routes/admin/invitations';
+import { AuditPage } from './routes/admin/audit';
+
+export const routes = [
+  {
+    element: <RootLayout />,
+    children: [
+      { path: '/sign-in', element: <SignInPage /> },
+      { path: '/invite', element: <InvitePage /> },
+      {
+        element: <SignedInLayout />,
+        children: [
+          { index: true, element: <HomeRedirect /> },
+          {
+            path: '/admin',
+            element: <AdminLayout />,
+            children: [
+              { index: true, element: <Navigate to="/admin/people" replace /> },
+              { path: 'people', element: <PeoplePage /> },
+              { path: 'people/:personId', element: <PersonPage /> },
+              { path: 'invitations', element: <InvitationsPage /> },
+              { path: 'audit', element: <AuditPage /> },
+            ],
+          },
+          { path: '/coach', element: <CoachHome /> },
+          { path: '/clinician', element: <ClinicianHome /> },
+          { path: '/athlete', element: <AthleteHome /> },
+          { path: '/guardian', element: <GuardianHome /> },
+          { path: '/account', element: <AccountPage /> },
+          { path: '*', element: <NotFoundPage /> },
+        ],
+      },
+    ],
+  },
+];
+
+export function createAppRouter() {
+  return createBrowserRouter(routes);
+}

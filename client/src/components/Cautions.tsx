@@ -1,0 +1,48 @@
+import { useId } from 'react';
+
+/** The standing caution, on every page. Short, in plain words, never behind a click. */
+export function CareCaution() {
+  return (
+    <p className="text-xs text-ink-2">
+      Loadline keeps a record of decisions made by the athlete&apos;s licensed clinician. It does not diagnose or
+      treat, and it is no substitute for professional care. Follow local law, your sport&apos;s governing body and
+      your organization&apos;s policies.
+    </p>
+  );
+}
+
+/**
+ * Warning signs that mean stop and get urgent care. Shown in full on the athlete's and guardian's
+ * pages, with the organization's emergency number when we know it.
+ */
+export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string | null }) {
+  const id = useId();
+  return (
+    <section aria-labelledby={id} className="rounded-lg border-2 border-line-deep bg-sheet p-4 text-sm sm:p-5">
+      <h2 id={id} className="flex items-center gap-2 text-base font-bold">
+        <span aria-hidden="true" className="text-line-deep">
+          ▲
+        </span>
+        Warning signs: stop and get urgent care now
+      </h2>
+      <p className="mt-2">Stop training and get urgent medical care straight away if any of these appear:</p>
+      <ul className="mt-2 list-disc space-y-0.5 pl-5">
+        <li>new numbness in the groin or inner thighs</li>
+        <li>new trouble controlling the bladder or bowel</li>
+        <li>weakness in a leg that keeps getting worse</li>
+        <li>back pain together with a fever</li>
+        <li>pain after a hard fall or a heavy blow</li>
+        <li>weight loss with no explanation</li>
+        <li>pain that stays all night, even at rest</li>
+      </ul>
+      {emergencyNumber && (
+        <p className="mt-2 font-semibold">
+          In an emergency call <span className="tabular-nums">{emergencyNumber}</span>.
+        </p>
+      )}
+      <p className="mt-2">
+        During a session, stop and tell your clinician if pain climbs past the ceiling your clinician set.
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,237 @@
+import { useId, type ComponentProps, type ReactNode } from 'react';
+import { fieldSentence } from '../../lib/form-errors';
+import { cx } from './cx';
+
+const CONTROL =
+  'block w-full rounded-md border border-rule-strong bg-sheet px-3 text-ink placeholder:text-muted ' +
+  'aria-[invalid=true]:border-line-deep aria-[invalid=true]:border-2';
+
+function describedBy(...ids: unknown[]): string | undefined {
+  const list = ids.filter((id): id is string => typeof id === 'string' && id !== '').join(' ');
+  return list || undefined;
+}
+
+function FieldMessage({ id, label, error }: { id: string; label: string; error?: string }) {
+  const sentence = fieldSentence(label, error);
+  if (!sentence) return null;
+  return (
+    <p id={id} className="mt-1 flex items-start gap-1.5 text-sm font-semibold text-line-deep">
+      <span aria-hidden="true">▲</span>
+      <span>{sentence}</span>
+    </p>
+  );
+}
+
+interface FieldFrameProps {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  /** Large targets for the athlete's and guardian's phone screens. */
+  large?: boolean;
+}
+
+export type TextFieldProps = ComponentProps<'input'> & FieldFrameProps;
+
+export function TextField({ label, hint, error, large, className, id, ...input }: TextFieldProps) {
+  const autoId = useId();
+  const inputId = id ?? autoId;
+  const hintId = `${inputId}-hint`;
+  const errorId = `${inputId}-error`;
+  return (
+    <div className={className}>
+      <label htmlFor={inputId} className="block text-sm font-semibold">
+        {label}
+      </label>
+      {hint && (
+        <p id={hintId} className="text-sm text-muted">
+          {hint}
+        </p>
+      )}
+      <input
+        id={inputId}
+        className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm', 'tabular-nums')}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hint && hintId, error && errorId)}
+        {...input}
+      />
+      <FieldMessage id={errorId} label={label} error={error} />
+    </div>
+  );
+}
+
+export type SelectFieldProps = ComponentProps<'select'> & FieldFrameProps;
+
+export function SelectField({ label, hint, error, large, className, id, children, ...select }: SelectFieldProps) {
+  const autoId = useId();
+  const selectId = id ?? autoId;
+  const hintId = `${selectId}-hint`;
+  const errorId = `${selectId}-error`;
+  return (
+    <div className={className}>
+      <label htmlFor={selectId} className="block text-sm font-semibold">
+        {label}
+      </label>
+      {hint && (
+        <p id={hintId} className="text-sm text-muted">
+          {hint}
+        </p>
+      )}
+      <select
+        id={selectId}
+        className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm')}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hint && hintId, error && errorId)}
+        {...select}
+      >
+        {children}
+      </select>
+      <FieldMessage id={errorId} label={label} error={error} />
+    </div>
+  );
+}
+
+export interface ChoiceOption<V extends string> {
+  value: V;
+  label: string;
+  hint?: string;
+}
+
+interface ChoiceGroupBase<V extends string> {
+  legend: string;
+  options: readonly ChoiceOption<V>[];
+  error?: string;
+  hint?: ReactNode;
+  name: string;
+  large?: boolean;
+  className?: string;
+  disabled?: boolean;
+}
+
+function ChoiceFrame({
+  legend,
+  hint,
+  error,
+  className,
+  children,
+}: {
+  legend: string;
+  hint?: ReactNode;
+  error?: string;
+  className?: string;
+  children: ReactNode;
+}) {
+  const id = useId();
+  return (
+    <fieldset
+      className={cx('min-w-0', className)}
+      aria-describedby={describedBy(hint && `${id}-hint`, error && `${id}-error`)}
+    >
+      <legend className="text-sm font-semibold">{legend}</legend>
+      {hint && (
+        <p id={`${id}-hint`} className="text-sm text-muted">
+          {hint}
+        </p>
+      )}
+      {children}
+      <FieldMessage id={`${id}-error`} label={legend} error={error} />
+    </fieldset>
+  );
+}
+
+const CHOICE_ROW = 'flex items-start gap-2 rounded-md py-1.5';
+const CHOICE_INPUT = 'mt-0.5 size-5 shrink-0 accent-ink';
+
+/** Several independent choices, e.g. a person's roles. Controlled: pair with react-hook-form's Controller. */
+export function CheckboxGroup<V extends string>({
+  legend,
+  options,
+  value,
+  onChange,
+  onBlur,
+  error,
+  hint,
+  name,
+  large,
+  className,
+  disabled,
+}: ChoiceGroupBase<V> & { value: readonly V[]; onChange: (next: V[]) => void; onBlur?: () => void }) {
+  const baseId = useId();
+  function toggle(option: V, checked: boolean) {
+    const next = options.map((o) => o.value).filter((v) => (v === option ? checked : value.includes(v)));
+    onChange(next);
+  }
+  return (
+    <ChoiceFrame legend={legend} hint={hint} error={error} className={className}>
+      <div className="mt-1 flex flex-wrap gap-x-5 gap-y-1">
+        {options.map((option) => {
+          const id = `${baseId}-${option.value}`;
+          return (
+            <div key={option.value} className={cx(CHOICE_ROW, large && 'min-h-12 items-center')}>
+              <input
+                id={id}
+                type="checkbox"
+                name={name}
+                value={option.value}
+                checked={value.includes(option.value)}
+                onChange={(e) => toggle(option.value, e.target.checked)}
+                onBlur={onBlur}
+                disabled={disabled}
+                aria-invalid={error ? true : undefined}
+                className={CHOICE_INPUT}
+              />
+              <label htmlFor={id} className="text-sm">
+                {option.label}
+                {option.hint && <span className="block text-muted">{option.hint}</span>}
+              </label>
+            </div>
+          );
+        })}
+      </div>
+    </ChoiceFrame>
+  );
+}
+
+/** One choice out of a few, e.g. kg or lb. Controlled. */
+export function RadioGroup<V extends string>({
+  legend,
+  options,
+  value,
+  onChange,
+  onBlur,
+  error,
+  hint,
+  name,
+  large,
+  className,
+  disabled,
+}: ChoiceGroupBase<V> & { value: V | undefined; onChange: (next: V) => void; onBlur?: () => void }) {
+  const baseId = useId();
+  return (
+    <ChoiceFrame legend={legend} hint={hint} error={error} className={className}>
+      <div className="mt-1 flex flex-wrap gap-x-5 gap-y-1">
+        {options.map((option) => {
+          const id = `${baseId}-${option.value}`;
+          return (
+            <div key={option.value} className={cx(CHOICE_ROW, large && 'min-h-12 items-center')}>
+              <input
+                id={id}
+                type="radio"
+                name={name}
+                value={option.value}
+                checked={value === option.value}
+                onChange={() => onChange(option.value)}
+                onBlur={onBlur}
+                disabled={disabled}
+                className={CHOICE_INPUT}
+              />
+              <label htmlFor={id} className="text-sm">
+                {option.label}
+                {option.hint && <span className="block text-muted">{option.hint}</span>}
+              </label>
+            </div>
+          );
+        })}
+      </div>
+    </ChoiceFrame>
+  );
+}

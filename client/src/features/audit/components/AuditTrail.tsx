@@ -1,0 +1,156 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { AuditQuerySchema } from '../../../../../policies/schemas';
+import type { AuditEntryDto } from '../../../../../policies/dto';
+import { formatDateTime } from '../../../lib/format';
+import { Button } from '../../../components/ui/Button';
+import { TextField } from '../../../components/ui/Field';
+import { ErrorNotice } from '../../../components/ui/Notice';
+import { Loading } from '../../../components/ui/Panel';
+import { useAudit, type AuditFilters } from '../api/get-audit';
+
+type Input = z.input<typeof AuditQuerySchema>;
+type Output = z.output<typeof AuditQuerySchema>;
+
+const emptyToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+
+export function AuditTrail({ orgId }: { orgId: string }) {
+  const [filters, setFilters] = useState<AuditFilters>({});
+  const audit = useAudit(orgId, filters);
+  const {
+    register,
+    handleSubmit,
+    reset,
+    formState: { errors },
+  } = useForm<Input, unknown, Output>({ resolver: zodResolver(AuditQuerySchema) });
+
+  const onSubmit = handleSubmit(({ action, from, to }) => setFilters({ action, from, to }));
+  const clear = () => {
+    reset({ action: undefined, from: undefined, to: undefined });
+    setFilters({});
+  };
+
+  const entries = audit.data?.pages.flatMap((p) => p.entries) ?? [];
+  const filtered = Boolean(filters.action || filters.from || filters.to);
+
+  return (
+    <div className="space-y-4">
+      <form onSubmit={onSubmit} noValidate className="flex flex-wrap items-end gap-3" aria-label="Filter the audit trail">
+        <TextField
+          label="Action"
+          hint="e.g. invitation.created"
+          className="w-full sm:w-56"
+          error={errors.action?.message}
+          {...register('action', { setValueAs: emptyToUndefined })}
+        />
+        <TextField
+          label="From"
+          type="date"
+          className="w-full sm:w-44"
+          error={errors.from?.message}
+          {...register('from', { setValueAs: emptyToUndefined })}
+        />
+        <TextField
+          label="To"
+          type="date"
+          className="w-full sm:w-44"
+          error={errors.to?.message}
+          {...register('to', { setValueAs: emptyToUndefined })}
+        />
+        <div className="flex gap-2">
+          <Button type="submit">Apply filters</Button>
+          {filtered && (
+            <Button variant="secondary" onClick={clear}>
+              Clear filters
+            </Button>
+          )}
+        </div>
+      </form>
+
+      {audit.isPending ? (
+        <Loading what="the audit trail" />
+      ) : !audit.data ? (
+        <ErrorNotice error={audit.error} />
+      ) : (
+        <>
+          <div
+            role="region"
+            tabIndex={0}
+            aria-label="Audit entries"
+            className="overflow-x-auto rounded-lg border border-rule bg-sheet"
+          >
+            <table className="w-full min-w-[48rem] border-collapse text-left text-sm">
+              <thead>
+                <tr className="border-b border-rule bg-shade">
+                  <th scope="col" className="px-3 py-2 whitespace-nowrap">When</th>
+                  <th scope="col" className="px-3 py-2">Who</th>
+                  <th scope="col" className="px-3 py-2">Action</th>
+                  <th scope="col" className="px-3 py-2">Subject</th>
+                  <th scope="col" className="px-3 py-2">Change</th>
+                </tr>
+              </thead>
+              <tbody>
+                {entries.length === 0 ? (
+                  <tr>
+                    <td colSpan={5} className="px-3 py-4 text-ink-2">
+                      {filtered ? 'No entries match these filters.' : 'Nothing has been recorded yet.'}
+                    </td>
+                  </tr>
+                ) : (
+                  entries.map((entry) => <AuditRow key={entry.id} entry={entry} />)
+                )}
+              </tbody>
+            </table>
+          </div>
+          {audit.hasNextPage && (
+            <Button variant="secondary" busy={audit.isFetchingNextPage} onClick={() => void audit.fetchNextPage()}>
+              Load older entries
+            </Button>
+          )}
+          {audit.isFetchNextPageError && <ErrorNotice error={audit.error} />}
+        </>
+      )}
+    </div>
+  );
+}
+
+function AuditRow({ entry }: { entry: AuditEntryDto }) {
+  const hasChange = entry.before != null || entry.after != null;
+  return (
+    <tr className="border-b border-rule align-top last:border-b-0">
+      <td className="px-3 py-2 whitespace-nowrap tabular-nums">{formatDateTime(entry.occurredAt)}</td>
+      <td className="px-3 py-2">{entry.actorName ?? <span className="text-muted">System</span>}</td>
+      <td className="px-3 py-2 font-mono text-xs">{entry.action}</td>
+      <td className="px-3 py-2">
+        {entry.subjectType}
+        {entry.subjectId && <span className="block font-mono text-xs text-muted">{entry.subjectId.slice(0, 8)}</span>}
+      </td>
+      <td className="px-3 py-2">
+        {hasChange ? (
+          <details>
+            <summary className="cursor-pointer">Before and after</summary>
+            <div className="mt-2 grid gap-2 md:grid-cols-2">
+              <ChangeBlock title="Before" value={entry.before} />
+              <ChangeBlock title="After" value={entry.after} />
+            </div>
+          </details>
+        ) : (
+          <span className="text-muted">—</span>
+        )}
+      </td>
+    </tr>
+  );
+}
+
+function ChangeBlock({ title, value }: { title: string; value: unknown }) {
+  return (
+    <div>
+      <p className="text-xs font-semibold text-muted">{title}</p>
+      <pre className="max-w-md overflow-x-auto rounded bg-paper p-2 text-xs whitespace-pre-wrap">
+        {value == null ? '—' : JSON.stringify(value, null, 2)}
+      </pre>
+    </div>
+  );
+}
