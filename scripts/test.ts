@@ -73,6 +73,8 @@ try {
       SESSION_SECRET: 'e2e-secret-e2e-secret-e2e-secret-e2e-secret',
       PORT: '0',
       LOG_LEVEL: 'warn',
+      // Every browser test signs in from the same address; the per-IP limit is tested in vitest.
+      SIGNIN_MAX_PER_IP: '1000',
       CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
     });
     const server = await startServer(config, createLogger(config.LOG_LEVEL));

@@ -1,3 +1,4 @@
+import './lib/zod-jitless';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import '@fontsource/public-sans/400.css';

@@ -12,6 +12,7 @@ import { guardianLinkRules } from './guardian-link';
 import { auditRules } from './audit';
 import { caseRules } from './case';
 import { restrictionPlanRules } from './restriction-plan';
+import { athleteReportRules } from './athlete-reports';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -24,6 +25,7 @@ const RULE_SETS: RuleSet[] = [
   auditRules,
   caseRules,
   restrictionPlanRules,
+  athleteReportRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

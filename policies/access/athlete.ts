@@ -8,13 +8,11 @@ import type { RuleSet } from './builder';
 export const athleteRules: RuleSet = ({ can }, actor) => {
   const org = actor.organizationId;
   if (hasRole(actor, 'athlete')) can('read', 'Athlete', { organizationId: org, id: actor.membershipId });
-  if (actor.coachOf.length > 0) can('read', 'Athlete', { organizationId: org, id: { $in: actor.coachOf } });
-  if (actor.clinicianOf.length > 0) {
-    can('read', 'Athlete', { organizationId: org, id: { $in: actor.clinicianOf } });
-  }
-  if (actor.guardianOf.length > 0) {
-    can('read', 'Athlete', { organizationId: org, id: { $in: actor.guardianOf } });
-  }
+  // Granted by role even while the list is empty: a coach with no athlete yet is shown an empty list,
+  // and another team's athlete answers 404 (not revealed), not 403 (SECURITY item 14).
+  if (hasRole(actor, 'coach')) can('read', 'Athlete', { organizationId: org, id: { $in: actor.coachOf } });
+  if (hasRole(actor, 'clinician')) can('read', 'Athlete', { organizationId: org, id: { $in: actor.clinicianOf } });
+  if (hasRole(actor, 'guardian')) can('read', 'Athlete', { organizationId: org, id: { $in: actor.guardianOf } });
   if (hasRole(actor, 'admin')) {
     can('read', 'Athlete', { organizationId: org });
     can('update', 'Athlete', ['dateOfBirth', 'sport', 'position'], { organizationId: org });

@@ -8,7 +8,7 @@ export const auditRules: RuleSet = ({ can }, actor) => {
     can('read', 'AuditChain', { organizationId: actor.organizationId });
   }
   // Clinicians follow the trail of the athletes in their care.
-  if (actor.clinicianOf.length > 0) {
+  if (hasRole(actor, 'clinician')) {
     can('read', 'AuditEntry', { organizationId: actor.organizationId, athleteId: { $in: actor.clinicianOf } });
   }
 };

@@ -23,7 +23,8 @@ export const CLINICAL_FIELDS = ['diagnosis', 'clinicalNotes'] as const;
 
 export const caseRules: RuleSet = ({ can }, actor) => {
   const org = actor.organizationId;
-  if (actor.clinicianOf.length > 0) {
+  // Granted by role even while the list is empty, so another team's record answers 404, not 403.
+  if (hasRole(actor, 'clinician')) {
     const mine = { organizationId: org, athleteId: { $in: actor.clinicianOf } };
     can('read', 'Case', [...CASE_FIELDS.all], mine);
     can('create', 'Case', mine);
@@ -32,14 +33,16 @@ export const caseRules: RuleSet = ({ can }, actor) => {
     can('create', 'RestrictionPlan', mine);
     can('update', 'RestrictionPlan', mine);
   }
-  if (actor.coachOf.length > 0) can('read', 'Case', [...CASE_FIELDS.coach], { organizationId: org, athleteId: { $in: actor.coachOf } });
+  if (hasRole(actor, 'coach')) can('read', 'Case', [...CASE_FIELDS.coach], { organizationId: org, athleteId: { $in: actor.coachOf } });
   if (hasRole(actor, 'athlete')) can('read', 'Case', [...CASE_FIELDS.athlete], { organizationId: org, athleteId: actor.membershipId });
-  if (actor.guardianOf.length > 0) can('read', 'Case', [...CASE_FIELDS.guardian], { organizationId: org, athleteId: { $in: actor.guardianOf } });
+  if (hasRole(actor, 'guardian')) can('read', 'Case', [...CASE_FIELDS.guardian], { organizationId: org, athleteId: { $in: actor.guardianOf } });
   if (hasRole(actor, 'admin')) can('read', 'Case', [...CASE_FIELDS.admin], { organizationId: org });
 
   // Everyone around the athlete sees the participation status.
-  const around = [...actor.coachOf, ...actor.clinicianOf, ...actor.guardianOf];
-  if (around.length > 0) can('read', 'ParticipationStatus', { organizationId: org, athleteId: { $in: around } });
+  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician') || hasRole(actor, 'guardian')) {
+    const around = [...actor.coachOf, ...actor.clinicianOf, ...actor.guardianOf];
+    can('read', 'ParticipationStatus', { organizationId: org, athleteId: { $in: around } });
+  }
   if (hasRole(actor, 'athlete')) can('read', 'ParticipationStatus', { organizationId: org, athleteId: actor.membershipId });
   if (hasRole(actor, 'admin')) can('read', 'ParticipationStatus', { organizationId: org });
 };

@@ -8,8 +8,10 @@ import type { RuleSet } from './builder';
  */
 export const restrictionPlanRules: RuleSet = ({ can }, actor) => {
   const org = actor.organizationId;
-  const team = [...actor.coachOf, ...actor.clinicianOf];
-  if (team.length > 0) can('read', 'RestrictionPlan', ['current', 'history'], { organizationId: org, athleteId: { $in: team } });
-  if (actor.guardianOf.length > 0) can('read', 'RestrictionPlan', ['current'], { organizationId: org, athleteId: { $in: actor.guardianOf } });
+  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician')) {
+    const team = [...actor.coachOf, ...actor.clinicianOf];
+    can('read', 'RestrictionPlan', ['current', 'history'], { organizationId: org, athleteId: { $in: team } });
+  }
+  if (hasRole(actor, 'guardian')) can('read', 'RestrictionPlan', ['current'], { organizationId: org, athleteId: { $in: actor.guardianOf } });
   if (hasRole(actor, 'athlete')) can('read', 'RestrictionPlan', ['current'], { organizationId: org, athleteId: actor.membershipId });
 };

@@ -21,6 +21,11 @@ export interface SubjectShapes {
   Case: { id: string; organizationId: string; athleteId: string };
   ParticipationStatus: { organizationId: string; athleteId: string };
   RestrictionPlan: { id: string; organizationId: string; athleteId: string };
+  PainReport: { id: string; organizationId: string; athleteId: string };
+  CheckIn: { organizationId: string; athleteId: string };
+  TrainingLog: { id: string; organizationId: string; athleteId: string };
+  Flag: { id: string; organizationId: string; athleteId: string };
+  Notification: { id: string; organizationId: string; recipientId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -36,6 +41,11 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Case',
   'ParticipationStatus',
   'RestrictionPlan',
+  'PainReport',
+  'CheckIn',
+  'TrainingLog',
+  'Flag',
+  'Notification',
 ];
 
 type TaggedSubjects = {

@@ -7,7 +7,7 @@ export function describeCaps(caps: Caps | undefined, unit: Unit): string[] {
   if (!caps) return [];
   const parts: string[] = [];
   if (caps.maxPercent1RM !== undefined) parts.push(`up to ${caps.maxPercent1RM}% of your best lift`);
-  if (caps.maxLoadKg !== undefined) parts.push(`no more than ${formatLoad(caps.maxLoadKg, unit)}`);
+  if (caps.maxLoadKg !== undefined) parts.push(`no more than ${formatLoad(caps.maxLoadKg, unit, 'down')}`);
   if (caps.maxRpe !== undefined) parts.push(`effort RPE ${caps.maxRpe} or easier`);
   if (caps.maxSetsPerSession !== undefined) parts.push(`at most ${caps.maxSetsPerSession} sets a session`);
   if (caps.maxRepsPerSet !== undefined) parts.push(`at most ${caps.maxRepsPerSet} reps a set`);

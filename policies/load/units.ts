@@ -14,8 +14,12 @@ export function fromUnit(value: number, unit: Unit): number {
   return unit === 'kg' ? value : lbToKg(value);
 }
 
-/** A load for display: up to 2 decimals, trailing zeros dropped, with its unit. */
-export function formatLoad(kg: number, unit: Unit): string {
+/**
+ * A load for display: up to 2 decimals, trailing zeros dropped, with its unit. A cap is rounded down
+ * so the number shown never exceeds the true limit (under a cap, round down, never to nearest).
+ */
+export function formatLoad(kg: number, unit: Unit, rounding: 'nearest' | 'down' = 'nearest'): string {
   const v = toUnit(kg, unit);
-  return `${Number(v.toFixed(2))} ${unit}`;
+  const shown = rounding === 'down' ? Math.floor(v * 100 + 1e-9) / 100 : Number(v.toFixed(2));
+  return `${shown} ${unit}`;
 }

@@ -3,3 +3,4 @@ export * from './password';
 export * from './auth';
 export * from './people';
 export * from './cases';
+export * from './athlete';

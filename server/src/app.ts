@@ -19,6 +19,10 @@ import { guardianLinkRoutes } from './routes/guardian-links/guardian-links.route
 import { auditRoutes } from './routes/audit/audit.router';
 import { caseRoutes } from './routes/cases/cases.router';
 import { planRoutes } from './routes/plans/plans.router';
+import { painReportRoutes } from './routes/pain-reports/pain-reports.router';
+import { trainingRoutes } from './routes/training/training.router';
+import { flagRoutes } from './routes/flags/flags.router';
+import { notificationRoutes } from './routes/notifications/notifications.router';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 
@@ -94,6 +98,10 @@ export function buildApp(base: AppDeps) {
     ...auditRoutes,
     ...caseRoutes,
     ...planRoutes,
+    ...painReportRoutes,
+    ...trainingRoutes,
+    ...flagRoutes,
+    ...notificationRoutes,
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

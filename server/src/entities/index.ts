@@ -10,10 +10,15 @@ import { CaseRecord } from './case.entity';
 import { ParticipationStatusChange } from './participation-status-change.entity';
 import { RestrictionPlan } from './restriction-plan.entity';
 import { RestrictionPlanVersion } from './restriction-plan-version.entity';
+import { PainReport } from './pain-report.entity';
+import { CheckIn } from './check-in.entity';
+import { TrainingLog } from './training-log.entity';
+import { Flag } from './flag.entity';
+import { Notification } from './notification.entity';
 
 export {
   Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
-  ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion,
+  ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion, PainReport, CheckIn, TrainingLog, Flag, Notification,
 };
 
 export const ENTITIES = [
@@ -29,4 +34,9 @@ export const ENTITIES = [
   ParticipationStatusChange,
   RestrictionPlan,
   RestrictionPlanVersion,
+  PainReport,
+  CheckIn,
+  TrainingLog,
+  Flag,
+  Notification,
 ];

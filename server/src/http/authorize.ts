@@ -16,6 +16,11 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Case: 'case',
   ParticipationStatus: 'participation status',
   RestrictionPlan: 'restriction plan',
+  PainReport: 'pain report',
+  CheckIn: 'check-in',
+  TrainingLog: 'training log',
+  Flag: 'flag',
+  Notification: 'notice',
 };
 
 /**
@@ -31,7 +36,8 @@ export function authorize<K extends SubjectName>(
 ): asserts record is SubjectShapes[K] {
   if (!record) throw new AppError('not_found', `That ${NOT_FOUND_WORDS[type]} was not found.`);
   const tagged = tagSubject(type, { ...record } as SubjectShapes[K] & Record<string, unknown>);
-  if (!ability.can('read', tagged as never)) {
+  // A read of a part the reader may not see (a plan's history for an athlete) answers 404 like the rest.
+  if (!ability.can('read', tagged as never) || (action === 'read' && field !== undefined && !ability.can('read', tagged as never, field))) {
     throw new AppError('not_found', `That ${NOT_FOUND_WORDS[type]} was not found.`);
   }
   if (action !== 'read' && !ability.can(action, tagged as never, field)) {

@@ -150,6 +150,11 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Case: 'cases',
   ParticipationStatus: 'participation status',
   RestrictionPlan: 'restriction plans',
+  PainReport: 'pain reports',
+  CheckIn: 'check-ins',
+  TrainingLog: 'training logs',
+  Flag: 'flags',
+  Notification: 'notices',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

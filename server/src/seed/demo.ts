@@ -1,7 +1,12 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import bcrypt from 'bcryptjs';
 import type { Role } from '../../../policies/roles';
-import { AthleteProfile, CareTeamAssignment, GuardianLink, Membership, Organization, User } from '../entities';
+import { randomUUID } from 'node:crypto';
+import { addDays, formatISO } from 'date-fns';
+import {
+  AthleteProfile, CareTeamAssignment, CaseRecord, GuardianLink, Membership, Organization, ParticipationStatusChange, RestrictionPlan,
+  RestrictionPlanVersion, User,
+} from '../entities';
 import { appendAudit } from '../services/audit';
 
 /** Invented people in an invented facility; any likeness to real people is accidental. */
@@ -69,10 +74,12 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12): Promise<{ creat
     if (again) return again.id;
     const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911' }));
     const ids: Record<string, string> = {};
+    const userIds: Record<string, string> = {};
     for (const p of DEMO_PEOPLE) {
       const user = await m.save(m.create(User, { email: p.email, displayName: p.name, passwordHash: hash, unitPref: p.key === 'maya' ? 'lb' : 'kg' }));
       const membership = await m.save(m.create(Membership, { organizationId: org.id, userId: user.id, roles: p.roles, active: true }));
       ids[p.key] = membership.id;
+      userIds[p.key] = user.id;
       if (p.athlete) {
         await m.save(m.create(AthleteProfile, { id: membership.id, organizationId: org.id, ...p.athlete }));
       }
@@ -83,6 +90,7 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12): Promise<{ creat
     for (const [athlete, guardian] of GUARDIANS) {
       await m.save(m.create(GuardianLink, { organizationId: org.id, athleteId: ids[athlete], guardianId: ids[guardian] }));
     }
+    await loadDemoCase(m, org.id, ids, userIds);
     await appendAudit(m, {
       organizationId: org.id,
       actorUserId: null,
@@ -94,4 +102,49 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12): Promise<{ creat
     return org.id;
   });
   return { created: true, organizationId };
+}
+
+const day = (offset: number) => formatISO(addDays(new Date(), offset), { representation: 'date' });
+
+/**
+ * One case already under way, so coaches and the admin see a limited athlete from the first start:
+ * Sam's right ankle, a two-stage plan dated around the day the demo was loaded.
+ */
+async function loadDemoCase(m: EntityManager, organizationId: string, ids: Record<string, string>, userIds: Record<string, string>) {
+  const c = await m.save(
+    m.create(CaseRecord, {
+      organizationId,
+      athleteId: ids.sam,
+      bodyRegions: ['ankle_foot_right'],
+      onsetDate: day(-9),
+      diagnosis: 'Lateral ankle sprain, grade I (demo)',
+      clinicalNotes: 'Invented demo note: rolled ankle on landing in practice; swelling settling.',
+      reviewDate: day(6),
+      openedBy: userIds.clinicianMarcus,
+    }),
+  );
+  await m.save(m.create(ParticipationStatusChange, { organizationId, athleteId: ids.sam, caseId: c.id, status: 'out', effectiveFrom: day(-9), note: 'Rest the ankle for a few days.', setBy: userIds.clinicianMarcus }));
+  await m.save(m.create(ParticipationStatusChange, { organizationId, athleteId: ids.sam, caseId: c.id, status: 'limited', effectiveFrom: day(-5), note: 'Upper body and careful lower body work only.', setBy: userIds.clinicianMarcus }));
+  const plan = await m.save(m.create(RestrictionPlan, { organizationId, athleteId: ids.sam, caseId: c.id, version: 1 }));
+  const stages = [
+    {
+      id: randomUUID(), label: 'Protect', startDate: day(-5), endDate: day(6), reviewDate: day(6), painCeiling: 3,
+      patterns: {
+        jump: { mode: 'blocked' as const }, sprint: { mode: 'blocked' as const },
+        squat: { mode: 'capped' as const, caps: { maxPercent1RM: 50, maxRpe: 6, maxSetsPerSession: 3, impactAllowed: false } },
+        lunge: { mode: 'blocked' as const },
+        hinge: { mode: 'capped' as const, caps: { maxPercent1RM: 60, maxRpe: 7 } },
+      },
+    },
+    {
+      id: randomUUID(), label: 'Rebuild', startDate: day(7), endDate: day(27), reviewDate: day(27), painCeiling: 4,
+      patterns: {
+        jump: { mode: 'capped' as const, caps: { maxSetsPerSession: 3, maxRepsPerSet: 5 } },
+        sprint: { mode: 'capped' as const, caps: { maxRpe: 6 } },
+        squat: { mode: 'capped' as const, caps: { maxPercent1RM: 75, maxRpe: 8 } },
+        lunge: { mode: 'capped' as const, caps: { maxLoadKg: 20, impactAllowed: false } },
+      },
+    },
+  ];
+  await m.save(m.create(RestrictionPlanVersion, { planId: plan.id, version: 1, stages, guidance: 'Keep the ankle quiet this week: no jumping or sprinting. Upper body as normal.', changeNote: 'Demo plan', createdBy: userIds.clinicianMarcus }));
 }

@@ -1,5 +1,3 @@
-import { subject as tagSubject } from '@casl/ability';
-import { permittedFieldsOf } from '@casl/ability/extra';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { AppAbility } from '../../../policies/access';
 import type { CaseDto, CaseloadRowDto, PlanVersionDto, StatusChangeDto } from '../../../policies/dto';
@@ -7,6 +5,7 @@ import type { PlanInput } from '../../../policies/load/in-force';
 import type { ParticipationStatus } from '../../../policies/load/patterns';
 import { ageOn, isMinor } from '../../../policies/roles';
 import { accessibleWhere } from '../http/accessible';
+import { pickPermitted } from './fields';
 import type { RestrictionPlanVersion } from '../entities';
 
 type Db = DataSource | EntityManager;
@@ -59,16 +58,6 @@ interface CaseRow {
   closing_note: string | null;
   plan_id: string | null;
   version: number;
-}
-
-/** Keeps only the fields the reader's rules allow on this record (CASL field rules). */
-export function visibleFields<T extends { organizationId: string; athleteId: string; id: string }>(ability: AppAbility, dto: T): Partial<T> {
-  const fields = permittedFieldsOf(ability, 'read', tagSubject('Case', { id: dto.id, organizationId: dto.organizationId, athleteId: dto.athleteId }) as never, {
-    fieldsFrom: (rule) => rule.fields ?? [],
-  });
-  const out: Partial<T> = {};
-  for (const f of fields) if (f in dto) (out as Record<string, unknown>)[f] = (dto as Record<string, unknown>)[f];
-  return out;
 }
 
 export interface CaseQuery {
@@ -124,7 +113,7 @@ export async function listCases(db: Db, ability: AppAbility, organizationId: str
       planId: r.plan_id,
     };
     if (!withNotes) delete (full as Partial<CaseDto>).clinicalNotes;
-    return visibleFields(ability, full) as CaseDto;
+    return pickPermitted(ability, 'Case', full) as CaseDto;
   });
 }
 
@@ -162,17 +151,20 @@ export async function planVersions(db: Db, planId: string, version?: number): Pr
   return rows.map((r) => toPlanVersionDto({ ...r, createdAt: new Date(r.createdAt) } as RestrictionPlanVersion, r.created_by_name));
 }
 
-/** The current version of every plan of the athletes' open cases, as the in-force lookup takes them. */
-export async function activePlans(db: Db, athleteIds: string[]): Promise<Map<string, (PlanInput & { guidance: string })[]>> {
+/**
+ * The current version of every plan whose case is open on `date` (a case closed on D stops counting
+ * from D), as the in-force lookup takes them.
+ */
+export async function activePlans(db: Db, athleteIds: string[], date: string): Promise<Map<string, (PlanInput & { guidance: string })[]>> {
   const out = new Map<string, (PlanInput & { guidance: string })[]>();
   if (athleteIds.length === 0) return out;
   const rows: { athlete_id: string; plan_id: string; case_id: string; version: number; stages: PlanInput['stages']; guidance: string }[] = await db.query(
     `SELECT p.athlete_id, p.id AS plan_id, p.case_id, p.version, v.stages, v.guidance
        FROM restriction_plans p
-       JOIN cases c ON c.id = p.case_id AND c.closed_on IS NULL
+       JOIN cases c ON c.id = p.case_id AND (c.closed_on IS NULL OR c.closed_on > $2)
        JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version
       WHERE p.athlete_id = ANY($1)`,
-    [athleteIds],
+    [athleteIds, date],
   );
   for (const r of rows) {
     const list = out.get(r.athlete_id) ?? [];
@@ -187,11 +179,11 @@ export async function athleteStatuses(db: Db, athleteIds: string[], date: string
   const out = new Map<string, { status: ParticipationStatus; since: string | null; openCaseIds: string[]; nextReview: string | null }>();
   if (athleteIds.length === 0) return out;
   const cases: { id: string; athlete_id: string; review_date: string | null }[] = await db.query(
-    `SELECT id, athlete_id, review_date FROM cases WHERE athlete_id = ANY($1) AND closed_on IS NULL ORDER BY opened_at DESC`,
-    [athleteIds],
+    `SELECT id, athlete_id, review_date FROM cases WHERE athlete_id = ANY($1) AND (closed_on IS NULL OR closed_on > $2) ORDER BY opened_at DESC`,
+    [athleteIds, date],
   );
   const statuses = await statusesOn(db, cases.map((c) => c.id), date);
-  const plans = await activePlans(db, athleteIds);
+  const plans = await activePlans(db, athleteIds, date);
   for (const id of athleteIds) {
     const mine = cases.filter((c) => c.athlete_id === id);
     const rows = mine.map((c) => statuses.get(c.id)).filter((s): s is StatusRow => !!s);
@@ -221,7 +213,16 @@ export async function caseload(db: Db, ability: AppAbility, organizationId: stri
     .andWhere(acl.sql, acl.params)
     .orderBy('u.display_name')
     .getRawMany<{ id: string; name: string; dob: string | null; sport: string | null }>();
-  const statuses = await athleteStatuses(db, athletes.map((a) => a.id), date);
+  const ids = athletes.map((a) => a.id);
+  const statuses = await athleteStatuses(db, ids, date);
+  const reports: { athlete_id: string; reported_at: Date; pain_now: number }[] = ids.length
+    ? await db.query(
+        `SELECT DISTINCT ON (athlete_id) athlete_id, reported_at, pain_now FROM pain_reports
+          WHERE athlete_id = ANY($1) ORDER BY athlete_id, reported_at DESC`,
+        [ids],
+      )
+    : [];
+  const latest = new Map(reports.map((r) => [r.athlete_id, { reportedAt: new Date(r.reported_at).toISOString(), painNow: r.pain_now }]));
   return athletes.map((a) => {
     const st = statuses.get(a.id)!;
     return {
@@ -235,7 +236,7 @@ export async function caseload(db: Db, ability: AppAbility, organizationId: stri
       openCaseCount: st.openCaseIds.length,
       openCaseId: st.openCaseIds[0] ?? null,
       nextReviewDate: st.nextReview,
-      latestPainReport: null,
+      latestPainReport: latest.get(a.id) ?? null,
     };
   });
 }

@@ -26,7 +26,7 @@ export async function careTeamsFor(db: Db, athleteIds: string[]): Promise<CareTe
               mu.display_name AS member_name, c.role
          FROM care_team_assignments c
          JOIN memberships am ON am.id = c.athlete_id JOIN users au ON au.id = am.user_id
-         JOIN memberships mm ON mm.id = c.member_id AND mm.active JOIN users mu ON mu.id = mm.user_id
+         JOIN memberships mm ON mm.id = c.member_id AND mm.active AND c.role = ANY(mm.roles) JOIN users mu ON mu.id = mm.user_id
         WHERE c.athlete_id = ANY($1) ORDER BY c.role, mu.display_name`,
       [athleteIds],
     );
@@ -51,7 +51,7 @@ export async function guardianLinksFor(db: Db, where: { athleteIds?: string[]; g
               gu.display_name AS guardian_name
          FROM guardian_links g
          JOIN memberships am ON am.id = g.athlete_id JOIN users au ON au.id = am.user_id
-         JOIN memberships gm ON gm.id = g.guardian_id AND gm.active JOIN users gu ON gu.id = gm.user_id
+         JOIN memberships gm ON gm.id = g.guardian_id AND gm.active AND 'guardian' = ANY(gm.roles) JOIN users gu ON gu.id = gm.user_id
         WHERE ${column} = ANY($1) ORDER BY gu.display_name`,
       [ids],
     );

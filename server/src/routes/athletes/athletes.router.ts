@@ -43,7 +43,7 @@ export const athleteRoutes: RouteDef[] = [
         authorize(ability, 'update', 'Athlete', profile);
         await updateVersioned(m, AthleteProfile, profile.id, version, { ...changes, updatedAt: () => 'now()' }, 'athlete profile', 'membership_id');
         const before = Object.fromEntries(Object.keys(changes).map((k) => [k, profile[k as keyof typeof changes]]));
-        await audit({ action: 'athlete.updated', subjectType: 'Athlete', subjectId: profile.id, before, after: changes });
+        await audit({ action: 'athlete.updated', subjectType: 'Athlete', subjectId: profile.id, athleteId: profile.id, before, after: changes });
       });
       const [athlete] = await listAthletes(ds, ability, actor.organizationId, params.id);
       return athlete;

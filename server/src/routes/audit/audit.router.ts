@@ -76,7 +76,7 @@ export const auditRoutes: RouteDef[] = [
       const csv = stringify(
         rows.map((e) => [e.id, e.occurredAt, e.actorName ?? '', e.actorUserId ?? '', e.action, e.subjectType, e.subjectId ?? '',
           e.athleteName ?? '', JSON.stringify(e.before ?? null), JSON.stringify(e.after ?? null), e.requestId ?? '']),
-        { header: true, columns: ['id', 'occurred_at_utc', 'actor', 'actor_id', 'action', 'subject_type', 'subject_id', 'athlete', 'before', 'after', 'request_id'] },
+        { header: true, escape_formulas: true, columns: ['id', 'occurred_at_utc', 'actor', 'actor_id', 'action', 'subject_type', 'subject_id', 'athlete', 'before', 'after', 'request_id'] },
       );
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
       res.setHeader('Content-Disposition', `attachment; filename="loadline-audit-${new Date().toISOString().slice(0, 10)}.csv"`);

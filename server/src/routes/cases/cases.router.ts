@@ -181,6 +181,10 @@ export const caseRoutes: RouteDef[] = [
         const c = await loadCase(m, params.id, actor.organizationId);
         authorize(ability, 'update', 'Case', c);
         if (c.closedOn) throw new AppError('conflict', 'This case is already closed.');
+        if (body.closedOn > todayIso()) {
+          // Closing lifts the case's restrictions, so it cannot be dated ahead: set Full from a date instead.
+          throw new AppError('validation_failed', 'Please check the form: closedOn cannot be in the future; to lift limits from a later date, set the status to Full from that date.', { closedOn: ['cannot be in the future'] });
+        }
         if (body.closedOn < c.onsetDate) {
           throw new AppError('validation_failed', 'Please check the form: closedOn must be on or after the onset date.', { closedOn: ['must be on or after the onset date'] });
         }

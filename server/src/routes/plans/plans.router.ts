@@ -139,7 +139,7 @@ export const planRoutes: RouteDef[] = [
     async handler({ ds, ability, actor, params, query }) {
       authorize(ability, 'read', 'RestrictionPlan', { id: '', organizationId: actor.organizationId, athleteId: params.id }, 'current');
       const date = query.date ?? todayIso();
-      const [plans, statuses] = await Promise.all([activePlans(ds, [params.id]), athleteStatuses(ds, [params.id], date)]);
+      const [plans, statuses] = await Promise.all([activePlans(ds, [params.id], date), athleteStatuses(ds, [params.id], date)]);
       const mine = plans.get(params.id) ?? [];
       const status = statuses.get(params.id)!;
       const inForce = inForceOn(mine, date);

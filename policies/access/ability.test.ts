@@ -1,0 +1,262 @@
+import { describe, expect, it } from 'vitest';
+import { ROLES, type Role } from '../roles';
+import type { Actor } from './actor';
+import { asSubject, defineAbilityFor } from './ability';
+import { ACCESS_MATRIX, RELATIONS, type Relation } from './matrix';
+import { ACTIONS, SUBJECT_NAMES, type SubjectName, type SubjectShapes } from './subjects';
+
+const ORG = 'org-a';
+const OTHER_ORG = 'org-b';
+/** The athlete whose care team and guardian the coach, clinician and guardian actors are. */
+const LINKED_ATHLETE = 'member-athlete';
+const OTHER_ATHLETE = 'member-other-athlete';
+const STAFF = 'member-staff';
+const CO_GUARDIAN = 'member-co-guardian';
+const GUARDIAN = 'member-guardian';
+
+/** One actor per role, each the "linked" person the matrix describes. */
+function actorFor(role: Role): Actor {
+  return {
+    userId: `user-${role}`,
+    organizationId: ORG,
+    membershipId: role === 'athlete' ? LINKED_ATHLETE : role === 'guardian' ? GUARDIAN : `member-${role}`,
+    roles: [role],
+    coachOf: role === 'coach' ? [LINKED_ATHLETE] : [],
+    clinicianOf: role === 'clinician' ? [LINKED_ATHLETE] : [],
+    guardianOf: role === 'guardian' ? [LINKED_ATHLETE] : [],
+  };
+}
+
+/** A record of `subject` standing in `relation` to `actor`, as the matrix means it. */
+function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor: Actor): SubjectShapes[K] {
+  const me = actor.membershipId;
+  const isGuardian = actor.roles.includes('guardian');
+  const athleteOf: Record<Relation, string> = {
+    self: me,
+    'own-care-team': LINKED_ATHLETE,
+    'other-athlete': OTHER_ATHLETE,
+    'same-org': STAFF,
+    'other-org': 'member-in-org-b',
+  };
+  const org = relation === 'other-org' ? OTHER_ORG : ORG;
+  const athleteId = athleteOf[relation];
+  const records: { [S in SubjectName]: SubjectShapes[S] } = {
+    Organization: { id: org },
+    User: { id: relation === 'self' ? actor.userId : relation === 'other-org' ? 'user-in-org-b' : 'user-staff' },
+    Membership: { id: athleteId, organizationId: org, userId: relation === 'self' ? actor.userId : `user-of-${athleteId}` },
+    Athlete: { id: athleteId, organizationId: org },
+    Invitation: { id: `invitation-${relation}`, organizationId: org },
+    CareTeamAssignment: { id: `assignment-${relation}`, organizationId: org, athleteId },
+    GuardianLink: {
+      id: `link-${relation}`,
+      organizationId: org,
+      // 'self' for a guardian is their own link to the athlete; for the athlete, a link to them.
+      athleteId: relation === 'self' && isGuardian ? LINKED_ATHLETE : athleteId,
+      guardianId: relation === 'self' ? (isGuardian ? me : GUARDIAN) : CO_GUARDIAN,
+    },
+    // An entry about an athlete, except 'same-org': an entry about no athlete (a sign-in, an invitation).
+    AuditEntry: { organizationId: org, athleteId: relation === 'same-org' ? null : athleteId },
+    AuditChain: { organizationId: org },
+    Case: { id: `case-${relation}`, organizationId: org, athleteId },
+    ParticipationStatus: { organizationId: org, athleteId },
+    RestrictionPlan: { id: `plan-${relation}`, organizationId: org, athleteId },
+    PainReport: { id: `pain-${relation}`, organizationId: org, athleteId },
+    CheckIn: { organizationId: org, athleteId },
+    TrainingLog: { id: `log-${relation}`, organizationId: org, athleteId },
+    Flag: { id: `flag-${relation}`, organizationId: org, athleteId },
+    Notification: { id: `notice-${relation}`, organizationId: org, recipientId: relation === 'self' ? me : relation === 'other-org' ? 'member-in-org-b' : STAFF },
+  };
+  return records[subject] as SubjectShapes[K];
+}
+
+describe('the access matrix', () => {
+  it('covers every role, every subject and every relation', () => {
+    expect(new Set(ACCESS_MATRIX.map((r) => r.role))).toEqual(new Set(ROLES));
+    expect(new Set(ACCESS_MATRIX.map((r) => r.subject))).toEqual(new Set(SUBJECT_NAMES));
+    expect(new Set(ACCESS_MATRIX.map((r) => r.relation))).toEqual(new Set(RELATIONS));
+    // Whatever a role may do somewhere, the table also says it may not do it in another organization.
+    for (const row of ACCESS_MATRIX.filter((r) => r.allowed)) {
+      const otherOrg = ACCESS_MATRIX.find((r) => r.role === row.role && r.subject === row.subject && r.action === row.action && r.relation === 'other-org');
+      expect(otherOrg, `${row.role} ${row.action} ${row.subject} in another organization`).toBeDefined();
+    }
+  });
+
+  it('has no duplicate rows', () => {
+    const keys = ACCESS_MATRIX.map((r) => `${r.role} ${r.action} ${r.subject} ${r.relation}`);
+    expect(new Set(keys).size).toBe(keys.length);
+  });
+
+  it('never allows anything in another organization', () => {
+    expect(ACCESS_MATRIX.filter((r) => r.relation === 'other-org' && r.allowed)).toEqual([]);
+  });
+});
+
+describe('defineAbilityFor, row by row of the matrix', () => {
+  it.each(ACCESS_MATRIX.map((r) => [`${r.role} ${r.allowed ? 'may' : 'may not'} ${r.action} ${r.subject} (${r.relation})`, r] as const))(
+    '%s',
+    (_name, row) => {
+      const actor = actorFor(row.role);
+      const ability = defineAbilityFor(actor);
+      const record = recordFor(row.subject, row.relation, actor);
+      expect(ability.can(row.action, asSubject(row.subject, record) as never)).toBe(row.allowed);
+    },
+  );
+});
+
+describe('defineAbilityFor, beyond the matrix', () => {
+  it('a null actor (signed out, or not a member) may do nothing at all', () => {
+    const ability = defineAbilityFor(null);
+    expect(ability.rules).toEqual([]);
+    for (const subject of SUBJECT_NAMES) {
+      for (const action of ACTIONS) {
+        expect(ability.can(action, subject), `${action} ${subject}`).toBe(false);
+        expect(ability.can(action, asSubject(subject, recordFor(subject, 'same-org', actorFor('admin'))) as never)).toBe(false);
+      }
+    }
+  });
+
+  it('no role is ever granted "manage" (every permission is spelled out)', () => {
+    for (const role of ROLES) {
+      const ability = defineAbilityFor(actorFor(role));
+      expect(ability.rules.filter((r) => [r.action].flat().includes('manage'))).toEqual([]);
+      expect(ability.rules.filter((r) => [r.subject].flat().includes('all'))).toEqual([]);
+    }
+  });
+
+  it('nobody, not even an admin with every role, may write or delete an audit entry', () => {
+    const everything: Actor = { ...actorFor('admin'), roles: [...ROLES], coachOf: [LINKED_ATHLETE], clinicianOf: [LINKED_ATHLETE], guardianOf: [LINKED_ATHLETE] };
+    const ability = defineAbilityFor(everything);
+    const entry = asSubject('AuditEntry', { organizationId: ORG });
+    expect(ability.can('read', entry)).toBe(true);
+    for (const action of ['create', 'update', 'delete', 'manage'] as const) {
+      expect(ability.can(action, entry), action).toBe(false);
+      expect(ability.can(action, 'AuditEntry'), `${action} on the type`).toBe(false);
+    }
+  });
+
+  it('an admin may change a membership\'s roles, but not move it to another organization or another user', () => {
+    const ability = defineAbilityFor(actorFor('admin'));
+    const membership = asSubject('Membership', { id: STAFF, organizationId: ORG, userId: 'user-staff' });
+    expect(ability.can('update', membership, 'roles')).toBe(true);
+    expect(ability.can('update', membership, 'organizationId')).toBe(false);
+    expect(ability.can('update', membership, 'userId')).toBe(false);
+    expect(ability.can('update', membership, 'active')).toBe(false);
+    const elsewhere = asSubject('Membership', { id: 'member-in-org-b', organizationId: OTHER_ORG, userId: 'user-in-org-b' });
+    expect(ability.can('update', elsewhere, 'roles')).toBe(false);
+  });
+
+  it('a person may change only their display name and unit preference on their own account', () => {
+    for (const role of ROLES) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const mine = asSubject('User', { id: actor.userId });
+      expect(ability.can('update', mine, 'displayName'), role).toBe(true);
+      expect(ability.can('update', mine, 'unitPref'), role).toBe(true);
+      for (const field of ['email', 'passwordHash', 'id', 'roles']) expect(ability.can('update', mine, field), `${role} ${field}`).toBe(false);
+      expect(ability.can('update', asSubject('User', { id: 'user-staff' }), 'displayName'), role).toBe(false);
+    }
+  });
+
+  it('an admin may change an athlete\'s date of birth, sport and position, and nothing else', () => {
+    const ability = defineAbilityFor(actorFor('admin'));
+    const athlete = asSubject('Athlete', { id: OTHER_ATHLETE, organizationId: ORG });
+    for (const field of ['dateOfBirth', 'sport', 'position']) expect(ability.can('update', athlete, field), field).toBe(true);
+    for (const field of ['organizationId', 'id', 'version', 'displayName']) expect(ability.can('update', athlete, field), field).toBe(false);
+  });
+
+  it('ids alone never open another organization\'s records', () => {
+    // The same athlete and link ids the actors are tied to, but in another organization.
+    for (const role of ROLES) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const cases = [
+        asSubject('Athlete', { id: LINKED_ATHLETE, organizationId: OTHER_ORG }),
+        asSubject('CareTeamAssignment', { id: 'a', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('GuardianLink', { id: 'l', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE, guardianId: actor.membershipId }),
+        asSubject('Invitation', { id: 'i', organizationId: OTHER_ORG }),
+        asSubject('AuditEntry', { organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('AuditChain', { organizationId: OTHER_ORG }),
+        asSubject('Organization', { id: OTHER_ORG }),
+        asSubject('Case', { id: 'c', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('ParticipationStatus', { organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('RestrictionPlan', { id: 'p', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('PainReport', { id: 'r', organizationId: OTHER_ORG, athleteId: actor.membershipId }),
+        asSubject('CheckIn', { organizationId: OTHER_ORG, athleteId: actor.membershipId }),
+        asSubject('TrainingLog', { id: 't', organizationId: OTHER_ORG, athleteId: actor.membershipId }),
+        asSubject('Flag', { id: 'f', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('Notification', { id: 'n', organizationId: OTHER_ORG, recipientId: actor.membershipId }),
+      ];
+      for (const s of cases) for (const action of ACTIONS) expect(ability.can(action, s as never), `${role} ${action} ${JSON.stringify(s)}`).toBe(false);
+    }
+  });
+
+  it('roles add up: a coach who is also a guardian reads both athletes, and still may not edit either', () => {
+    const actor: Actor = { ...actorFor('coach'), roles: ['coach', 'guardian'], guardianOf: [OTHER_ATHLETE] };
+    const ability = defineAbilityFor(actor);
+    for (const id of [LINKED_ATHLETE, OTHER_ATHLETE]) {
+      const athlete = asSubject('Athlete', { id, organizationId: ORG });
+      expect(ability.can('read', athlete)).toBe(true);
+      expect(ability.can('update', athlete)).toBe(false);
+    }
+    expect(ability.can('read', asSubject('Athlete', { id: 'member-third', organizationId: ORG }))).toBe(false);
+  });
+
+  it('a coach, clinician or guardian with no athlete yet still holds the (empty) right to read athletes', () => {
+    // So the athletes page answers an empty list, and another team's athlete answers 404, not 403.
+    for (const role of ['coach', 'clinician', 'guardian'] as const) {
+      const actor: Actor = { ...actorFor(role), coachOf: [], clinicianOf: [], guardianOf: [] };
+      const ability = defineAbilityFor(actor);
+      expect(ability.can('read', 'Athlete'), role).toBe(true);
+      expect(ability.can('read', asSubject('Athlete', { id: LINKED_ATHLETE, organizationId: ORG })), role).toBe(false);
+    }
+  });
+
+  it('case fields: coaches, guardians and admins never read a diagnosis or clinical notes; the athlete never reads the notes', () => {
+    // SECURITY item 16 (minimum necessary). The full field lists are in case.ts; these are the lines never to cross.
+    const never: Record<Role, string[]> = {
+      clinician: [],
+      athlete: ['clinicalNotes'],
+      coach: ['diagnosis', 'clinicalNotes'],
+      guardian: ['diagnosis', 'clinicalNotes', 'bodyRegions', 'onsetDate', 'closingNote'],
+      admin: ['diagnosis', 'clinicalNotes', 'bodyRegions', 'onsetDate', 'statusNote', 'closingNote', 'reviewDate'],
+    };
+    for (const role of ROLES) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const relation: Relation = role === 'athlete' ? 'self' : role === 'admin' ? 'other-athlete' : 'own-care-team';
+      const record = asSubject('Case', recordFor('Case', relation, actor));
+      expect(ability.can('read', record), role).toBe(true);
+      expect(ability.can('read', record, 'status'), `${role} status`).toBe(true);
+      for (const field of never[role]) expect(ability.can('read', record, field), `${role} ${field}`).toBe(false);
+      if (role === 'clinician') for (const field of ['diagnosis', 'clinicalNotes']) expect(ability.can('read', record, field)).toBe(true);
+    }
+  });
+
+  it('restriction plans: the care team reads their history, the athlete and guardians only what is in force', () => {
+    for (const role of ['athlete', 'coach', 'clinician', 'guardian'] as const) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const plan = asSubject('RestrictionPlan', recordFor('RestrictionPlan', role === 'athlete' ? 'self' : 'own-care-team', actor));
+      expect(ability.can('read', plan, 'current'), role).toBe(true);
+      expect(ability.can('read', plan, 'history'), role).toBe(role === 'coach' || role === 'clinician');
+    }
+  });
+
+  it('pain reports: coaches read the scores and places, never the narrative or the red-flag answers', () => {
+    for (const role of ['athlete', 'coach', 'clinician'] as const) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const report = asSubject('PainReport', recordFor('PainReport', role === 'athlete' ? 'self' : 'own-care-team', actor));
+      expect(ability.can('read', report, 'painNow'), role).toBe(true);
+      for (const field of ['note', 'redFlags']) expect(ability.can('read', report, field), `${role} ${field}`).toBe(role !== 'coach');
+    }
+  });
+
+  it('asSubject does not tag the caller\'s object', () => {
+    const record = { id: LINKED_ATHLETE, organizationId: ORG };
+    asSubject('Athlete', record);
+    expect(Object.keys(record)).toEqual(['id', 'organizationId']);
+    expect(Object.getOwnPropertySymbols(record)).toEqual([]);
+    expect((record as Record<string, unknown>).__caslSubjectType__).toBeUndefined();
+  });
+});

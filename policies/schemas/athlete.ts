@@ -1,0 +1,92 @@
+import { z } from 'zod';
+import { BODY_REGIONS } from '../body-regions';
+import { MOVEMENT_PATTERNS } from '../load/patterns';
+import { RED_FLAG_ITEMS } from '../red-flags';
+import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
+
+/** 0–10 verbal numeric rating, whole numbers (LOINC 72514-3 takes integers 0–10). */
+export const PainScoreSchema = z
+  .number({ message: 'must be a number from 0 to 10' })
+  .int({ message: 'must be a whole number from 0 to 10' })
+  .min(0, { message: 'must be from 0 to 10' })
+  .max(10, { message: 'must be from 0 to 10' });
+
+/** Session RPE on Foster's modified CR-10: whole numbers 0–10 (Foster et al. 2001). */
+export const SessionRpeSchema = z
+  .number({ message: 'must be a number from 0 to 10' })
+  .int({ message: 'must be a whole number from 0 to 10' })
+  .min(0, { message: 'must be from 0 to 10' })
+  .max(10, { message: 'must be from 0 to 10' });
+
+/** Set RPE on the reps-in-reserve scale: 1–10 in half steps (Zourdos et al. 2016). */
+export const SetRpeSchema = z
+  .number({ message: 'must be a number from 1 to 10' })
+  .min(1, { message: 'must be from 1 to 10' })
+  .max(10, { message: 'must be from 1 to 10' })
+  .multipleOf(0.5, { message: 'must be a whole or half step' });
+
+const redFlagShape = Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, z.boolean({ message: 'must be answered yes or no' })])) as Record<
+  string,
+  z.ZodBoolean
+>;
+
+export const PainReportCreateSchema = z.strictObject({
+  athleteId: UuidSchema,
+  bodyRegions: z.array(z.enum(BODY_REGIONS, { message: 'must be a body region from the list' })).min(1, { message: 'choose at least one place' }),
+  painNow: PainScoreSchema,
+  painWorst24h: PainScoreSchema,
+  onsetDate: IsoDateSchema,
+  aggravatingPatterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement from the list' })).default([]),
+  startedInTraining: z.boolean({ message: 'must be yes or no' }),
+  note: z.string().trim().max(2000, { message: 'must be at most 2,000 characters' }).optional(),
+  /** Every screen question must be answered, so "not answered" is never read as "no". */
+  redFlags: z.strictObject(redFlagShape),
+});
+export type PainReportCreateInput = z.infer<typeof PainReportCreateSchema>;
+
+export const CheckInSchema = z.strictObject({
+  athleteId: UuidSchema,
+  date: IsoDateSchema,
+  sleepHours: z.number({ message: 'must be a number' }).min(0, { message: 'must be 0–16' }).max(16, { message: 'must be 0–16' }).multipleOf(0.5, { message: 'must be in half hours' }),
+  soreness: PainScoreSchema,
+  readiness: PainScoreSchema,
+  painNow: PainScoreSchema,
+});
+export type CheckInInput = z.infer<typeof CheckInSchema>;
+
+export const LoggedSetSchema = z.strictObject({
+  exercise: z.string().trim().min(1, { message: 'is required' }).max(120, { message: 'must be at most 120 characters' }),
+  /** Kilograms; the client converts from the athlete's unit. 0 for bodyweight. */
+  loadKg: z.number({ message: 'must be a number' }).min(0, { message: 'must be 0 or more' }).max(1000, { message: 'must be at most 1000 kg' }),
+  reps: z.number({ message: 'must be a number' }).int({ message: 'must be a whole number' }).min(0, { message: 'must be 0 or more' }).max(100, { message: 'must be at most 100' }),
+  rpe: SetRpeSchema.nullable().optional(),
+});
+export type LoggedSetInput = z.infer<typeof LoggedSetSchema>;
+
+export const TrainingLogCreateSchema = z.strictObject({
+  athleteId: UuidSchema,
+  date: IsoDateSchema,
+  durationMinutes: z.number({ message: 'must be a number' }).int({ message: 'must be whole minutes' }).min(1, { message: 'must be at least 1 minute' }).max(600, { message: 'must be at most 600 minutes' }),
+  sessionRpe: SessionRpeSchema,
+  painBefore: PainScoreSchema,
+  painDuring: PainScoreSchema,
+  sets: z.array(LoggedSetSchema).max(200, { message: 'must be at most 200 sets' }).default([]),
+  notes: z.string().trim().max(1000, { message: 'must be at most 1,000 characters' }).optional(),
+});
+export type TrainingLogCreateInput = z.infer<typeof TrainingLogCreateSchema>;
+
+export const NextMorningSchema = z.strictObject({
+  painNextMorning: PainScoreSchema,
+  version: VersionSchema,
+});
+export type NextMorningInput = z.infer<typeof NextMorningSchema>;
+
+export const AthleteRangeQuerySchema = z.strictObject({
+  from: IsoDateSchema.optional(),
+  to: IsoDateSchema.optional(),
+});
+
+export const FlagListQuerySchema = z.strictObject({
+  athleteId: UuidSchema.optional(),
+  state: z.enum(['open', 'acknowledged', 'all'], { message: 'must be open, acknowledged or all' }).default('open'),
+});

@@ -1,0 +1,43 @@
+import type { EntityManager } from 'typeorm';
+import { Notification } from '../entities';
+
+export interface AthleteCircle {
+  clinicians: string[];
+  coaches: string[];
+  guardians: string[];
+}
+
+/** The active people around an athlete: care-team clinicians and coaches (holding that role) and guardians. */
+export async function athleteCircle(m: EntityManager, athleteId: string): Promise<AthleteCircle> {
+  const rows: { member_id: string; role: 'coach' | 'clinician' | 'guardian' }[] = await m.query(
+    `SELECT c.member_id, c.role FROM care_team_assignments c
+       JOIN memberships mm ON mm.id = c.member_id AND mm.active AND c.role = ANY(mm.roles)
+      WHERE c.athlete_id = $1
+     UNION ALL
+     SELECT g.guardian_id, 'guardian' FROM guardian_links g
+       JOIN memberships gm ON gm.id = g.guardian_id AND gm.active AND 'guardian' = ANY(gm.roles)
+      WHERE g.athlete_id = $1`,
+    [athleteId],
+  );
+  const pick = (role: string) => [...new Set(rows.filter((r) => r.role === role).map((r) => r.member_id))];
+  return { clinicians: pick('clinician'), coaches: pick('coach'), guardians: pick('guardian') };
+}
+
+export interface NoticeInput {
+  organizationId: string;
+  athleteId: string | null;
+  kind: string;
+  severity: Notification['severity'];
+  title: string;
+  body: string;
+}
+
+/** In-app notices, written in the caller's transaction so a notice exists exactly when its cause does. */
+export async function notify(m: EntityManager, recipientIds: string[], notice: NoticeInput): Promise<void> {
+  const unique = [...new Set(recipientIds)];
+  if (unique.length === 0) return;
+  await m.insert(
+    Notification,
+    unique.map((recipientId) => ({ ...notice, recipientId })),
+  );
+}

@@ -1,0 +1,92 @@
+import type { EntityManager } from 'typeorm';
+import { addDays, formatISO, parseISO } from 'date-fns';
+import { evaluatePain, type PainRuleResult } from '../../../policies/load/pain-rule';
+import { inForceOn } from '../../../policies/load/in-force';
+import type { TrainingLogCreateInput } from '../../../policies/schemas';
+import { Flag, TrainingLog } from '../entities';
+import type { AuditFn } from '../http/context';
+import { activePlans } from './cases';
+import { athleteCircle, notify } from './notify';
+
+const iso = (d: Date) => formatISO(d, { representation: 'date' });
+export const shiftDate = (date: string, days: number) => iso(addDays(parseISO(date), days));
+
+/** The clinician's pain ceiling in force for the athlete on that date (default 5 with no plan). */
+export async function painCeilingOn(m: EntityManager, athleteId: string, date: string): Promise<number> {
+  const plans = (await activePlans(m, [athleteId], date)).get(athleteId) ?? [];
+  return inForceOn(plans, date).painCeiling;
+}
+
+/** Mean pain-during of the three 7-day windows ending on `date`, oldest first (windows with no log are skipped). */
+async function weeklyPainMeans(m: EntityManager, athleteId: string, date: string): Promise<number[]> {
+  const rows: { week: number; mean: string }[] = await m.query(
+    `SELECT floor(($2::date - date) / 7)::int AS week, avg(pain_during) AS mean
+       FROM training_logs WHERE athlete_id = $1 AND date > $2::date - 21 AND date <= $2::date
+      GROUP BY 1 ORDER BY 1 DESC`,
+    [athleteId, date],
+  );
+  return rows.length === 3 ? rows.map((r) => Number(r.mean)) : [];
+}
+
+async function raiseFlags(m: EntityManager, log: TrainingLog, result: PainRuleResult, athleteName: string) {
+  if (result.action !== 'reduce') return;
+  const message = `${athleteName}, session of ${log.date}: ${result.flags.map((f) => f.message).join(' ')} Suggested: reduce the next session.`;
+  await m.insert(Flag, { organizationId: log.organizationId, athleteId: log.athleteId, kind: 'pain_rule', severity: 'routine', message, suggestedAction: 'reduce', sourceType: 'TrainingLog', sourceId: log.id });
+  const circle = await athleteCircle(m, log.athleteId);
+  await notify(m, [...circle.clinicians, ...circle.coaches], {
+    organizationId: log.organizationId,
+    athleteId: log.athleteId,
+    kind: 'pain_rule',
+    severity: 'routine',
+    title: `Pain response: ${athleteName}`,
+    body: message,
+  });
+}
+
+export async function createTrainingLog(
+  m: EntityManager,
+  input: TrainingLogCreateInput,
+  ctx: { organizationId: string; athleteName: string },
+  audit: AuditFn,
+): Promise<{ log: TrainingLog; painRule: PainRuleResult }> {
+  const painCeiling = await painCeilingOn(m, input.athleteId, input.date);
+  const log = await m.save(
+    m.create(TrainingLog, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      date: input.date,
+      durationMinutes: input.durationMinutes,
+      sessionRpe: input.sessionRpe,
+      painBefore: input.painBefore,
+      painDuring: input.painDuring,
+      painNextMorning: null,
+      painCeiling,
+      sets: input.sets,
+      notes: input.notes ?? null,
+    }),
+  );
+  const painRule = evaluatePain({ ceiling: painCeiling, during: input.painDuring, before: input.painBefore, nextMorning: null, weeklyMeans: await weeklyPainMeans(m, input.athleteId, input.date) });
+  await raiseFlags(m, log, painRule, ctx.athleteName);
+  await audit({
+    action: 'training_log.created',
+    subjectType: 'TrainingLog',
+    subjectId: log.id,
+    athleteId: input.athleteId,
+    after: { date: input.date, durationMinutes: input.durationMinutes, sessionRpe: input.sessionRpe, painDuring: input.painDuring, sets: input.sets.length, painRule: painRule.action },
+  });
+  return { log, painRule };
+}
+
+export async function recordNextMorning(
+  m: EntityManager,
+  log: TrainingLog,
+  painNextMorning: number,
+  athleteName: string,
+  audit: AuditFn,
+): Promise<PainRuleResult> {
+  log.painNextMorning = painNextMorning;
+  const painRule = evaluatePain({ ceiling: log.painCeiling, during: null, before: log.painBefore, nextMorning: painNextMorning });
+  await raiseFlags(m, log, painRule, athleteName);
+  await audit({ action: 'training_log.next_morning', subjectType: 'TrainingLog', subjectId: log.id, athleteId: log.athleteId, before: { painNextMorning: null }, after: { painNextMorning, painRule: painRule.action } });
+  return painRule;
+}
