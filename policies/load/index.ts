@@ -6,3 +6,7 @@ export * from './plan-diff';
 export * from './workload';
 export * from './pain-rule';
 export * from './one-rm';
+export * from './intensity';
+export * from './steps';
+export * from './plates';
+export * from './compliance';
