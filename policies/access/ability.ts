@@ -13,6 +13,7 @@ import { auditRules } from './audit';
 import { caseRules } from './case';
 import { restrictionPlanRules } from './restriction-plan';
 import { athleteReportRules } from './athlete-reports';
+import { programRules } from './program';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -26,6 +27,7 @@ const RULE_SETS: RuleSet[] = [
   caseRules,
   restrictionPlanRules,
   athleteReportRules,
+  programRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

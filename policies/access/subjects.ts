@@ -26,6 +26,11 @@ export interface SubjectShapes {
   TrainingLog: { id: string; organizationId: string; athleteId: string };
   Flag: { id: string; organizationId: string; athleteId: string };
   Notification: { id: string; organizationId: string; recipientId: string };
+  Exercise: { id: string; organizationId: string };
+  Baseline: { organizationId: string; athleteId: string };
+  /** A program as seen for one of its athletes. */
+  Program: { id: string; organizationId: string; athleteId: string };
+  ProgramException: { id: string; organizationId: string; athleteId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -46,6 +51,10 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'TrainingLog',
   'Flag',
   'Notification',
+  'Exercise',
+  'Baseline',
+  'Program',
+  'ProgramException',
 ];
 
 type TaggedSubjects = {

@@ -4,3 +4,4 @@ export * from './auth';
 export * from './people';
 export * from './cases';
 export * from './athlete';
+export * from './programs';

@@ -23,6 +23,10 @@ import { painReportRoutes } from './routes/pain-reports/pain-reports.router';
 import { trainingRoutes } from './routes/training/training.router';
 import { flagRoutes } from './routes/flags/flags.router';
 import { notificationRoutes } from './routes/notifications/notifications.router';
+import { exerciseRoutes } from './routes/programs/exercises.router';
+import { programRoutes } from './routes/programs/programs.router';
+import { exceptionRoutes } from './routes/programs/exceptions.router';
+import { rosterRoutes } from './routes/programs/roster.router';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 
@@ -102,6 +106,10 @@ export function buildApp(base: AppDeps) {
     ...trainingRoutes,
     ...flagRoutes,
     ...notificationRoutes,
+    ...exerciseRoutes,
+    ...programRoutes,
+    ...exceptionRoutes,
+    ...rosterRoutes,
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

@@ -1,10 +1,11 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { fireEvent, render, screen } from '@testing-library/react';
+import { fireEvent, render, screen, within } from '@testing-library/react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider, createMemoryRouter } from 'react-router-dom';
 import type { Actor } from '../../../policies/access';
-import type { AthleteProfileDto, SessionDto } from '../../../policies/dto';
+import type { AthleteProfileDto, CaseloadRowDto, SessionDto } from '../../../policies/dto';
 import type { Role } from '../../../policies/roles';
+import type { PatternRule } from '../../../policies/load/patterns';
 import { createQueryClient } from '../lib/query-client';
 import { jsonResponse } from '../test/render';
 import { routes } from './router';
@@ -69,6 +70,23 @@ function maya(over: Partial<AthleteProfileDto> = {}): AthleteProfileDto {
   };
 }
 
+function mayaRow(over: Partial<CaseloadRowDto> = {}): CaseloadRowDto {
+  return {
+    athleteId: 'm-maya',
+    athleteName: 'Maya Torres',
+    age: 16,
+    isMinor: true,
+    sport: 'Softball',
+    status: 'limited',
+    statusEffectiveFrom: '2026-03-02',
+    openCaseCount: 1,
+    openCaseId: 'c-1',
+    nextReviewDate: '2026-03-16',
+    latestPainReport: null,
+    ...over,
+  };
+}
+
 /** Answers by path; anything unexpected is a 404 so a stray call shows up in the page. */
 function serve(routesByPath: Record<string, unknown>) {
   fetchMock.mockImplementation(async (input) => {
@@ -97,15 +115,30 @@ describe('app routes', () => {
     expect(screen.getByText(/does not diagnose or treat/)).toBeInTheDocument();
   });
 
-  it('opens a coach on "My athletes" with their care-team athletes and who they are', async () => {
-    serve({ '/session': sessionFor(['coach'], { coachOf: ['m-maya'] }), [`/orgs/${ORG}/athletes`]: [maya()] });
+  it('opens a coach on "My athletes" with their care-team athletes, their status and who they are', async () => {
+    serve({ '/session': sessionFor(['coach'], { coachOf: ['m-maya'] }), [`/orgs/${ORG}/caseload`]: [mayaRow()] });
     const router = renderAt('/');
     expect(await screen.findByRole('heading', { name: 'My athletes' })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe('/coach');
-    expect(await screen.findByText('Maya Torres')).toBeInTheDocument();
+    expect(await screen.findByRole('link', { name: 'Maya Torres' })).toHaveAttribute('href', '/coach/athletes/m-maya');
+    const table = screen.getByRole('region', { name: 'Athletes you coach' });
+    expect(within(table).getByRole('img', { name: 'Participation status: Limited' })).toBeInTheDocument();
     expect(screen.getByText('theo@x.test · Coach')).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Sign out' })).toBeInTheDocument();
-    expect(screen.getByText('Programs and caps arrive in a coming release')).toBeInTheDocument();
+    expect(screen.getByText('Programs arrive in a coming release')).toBeInTheDocument();
+  });
+
+  it('opens a clinician on "My caseload" with their athletes only, and no pain report yet', async () => {
+    serve({
+      '/session': sessionFor(['clinician', 'admin'], { clinicianOf: ['m-maya'] }),
+      [`/orgs/${ORG}/caseload`]: [mayaRow(), mayaRow({ athleteId: 'm-sam', athleteName: 'Sam Whitfield', status: 'full' })],
+    });
+    renderAt('/clinician');
+    expect(await screen.findByRole('heading', { name: 'My caseload' })).toBeInTheDocument();
+    expect(await screen.findByRole('link', { name: 'Maya Torres' })).toHaveAttribute('href', '/clinician/athletes/m-maya');
+    expect(screen.queryByText('Sam Whitfield')).not.toBeInTheDocument();
+    expect(screen.getByText('none yet')).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Audit trail' })).toHaveAttribute('href', '/clinician/audit');
   });
 
   it('refuses an admin page to a coach in words', async () => {
@@ -144,5 +177,41 @@ describe('app routes', () => {
     expect(screen.getByRole('heading', { name: /Warning signs/ })).toBeInTheDocument();
     expect(await screen.findByText(/In an emergency call/)).toHaveTextContent('911');
     expect(screen.queryByRole('navigation', { name: 'Your views' })).not.toBeInTheDocument();
+  });
+
+  it("shows an athlete today's limits in plain words, the pain ceiling and the guidance", async () => {
+    const patterns: Record<string, PatternRule> = Object.fromEntries(
+      ['hinge', 'squat', 'lunge', 'horizontal_push', 'vertical_push', 'horizontal_pull', 'vertical_pull', 'carry', 'rotation', 'jump', 'sprint', 'throw', 'swing'].map(
+        (p) => [p, { mode: 'free' } as PatternRule],
+      ),
+    );
+    patterns.hinge = { mode: 'capped', caps: { maxPercent1RM: 60 } };
+    patterns.jump = { mode: 'blocked' };
+    const stage = { id: 's1', label: 'Protect', startDate: '2026-03-02', endDate: '2026-03-14', painCeiling: 4, patterns: {} };
+    serve({
+      '/session': sessionFor(['athlete'], { membershipId: 'm-theo' }),
+      [`/orgs/${ORG}`]: { id: ORG, name: 'Harbor Point Performance', emergencyNumber: '911' },
+      [`/orgs/${ORG}/athletes/m-theo`]: maya({ id: 'm-theo', displayName: 'Theo Lindqvist' }),
+      [`/orgs/${ORG}/athletes/m-theo/in-force`]: {
+        date: '2026-03-05',
+        athleteId: 'm-theo',
+        stages: [{ planId: 'p1', caseId: 'c1', planVersion: 1, stage }],
+        patterns,
+        painCeiling: 4,
+        restricted: true,
+        status: 'limited',
+        statusEffectiveFrom: '2026-03-02',
+        guidance: ['Walk and cycle freely.'],
+      },
+    });
+    renderAt('/athlete');
+    expect(await screen.findByRole('heading', { name: 'What you may do today' })).toBeInTheDocument();
+    expect(screen.getByText('Jump / landing: not allowed for now')).toBeInTheDocument();
+    expect(screen.getByText('Hinge: up to 60% of your best lift')).toBeInTheDocument();
+    expect(screen.getByText(/Everything else has no limits: squat/)).toBeInTheDocument();
+    expect(screen.getByText('These limits apply until 14 March 2026.')).toBeInTheDocument();
+    expect(screen.getByText('Stop a session and tell your clinician if pain rises past 4/10.')).toBeInTheDocument();
+    expect(screen.getByText('Walk and cycle freely.')).toBeInTheDocument();
+    expect(screen.getByRole('img', { name: /Participation status: Limited/ })).toBeInTheDocument();
   });
 });

@@ -7,7 +7,12 @@ import { HomeRedirect } from './routes/home-redirect';
 import { AccountPage } from './routes/account';
 import { NotFoundPage } from './routes/not-found';
 import { CoachHome } from './routes/coach';
-import { ClinicianHome } from './routes/clinician';
+import { CoachAthletePage } from './routes/coach-athlete';
+import { ClinicianLayout } from './routes/clinician/clinician-layout';
+import { ClinicianHome } from './routes/clinician/caseload';
+import { ClinicianAthletePage } from './routes/clinician/athlete';
+import { ClinicianCasePage } from './routes/clinician/case';
+import { ClinicianAuditPage } from './routes/clinician/audit';
 import { AthleteHome } from './routes/athlete';
 import { GuardianHome } from './routes/guardian';
 import { AdminLayout } from './routes/admin/admin-layout';
@@ -38,7 +43,17 @@ export const routes = [
             ],
           },
           { path: '/coach', element: <CoachHome /> },
-          { path: '/clinician', element: <ClinicianHome /> },
+          { path: '/coach/athletes/:athleteId', element: <CoachAthletePage /> },
+          {
+            path: '/clinician',
+            element: <ClinicianLayout />,
+            children: [
+              { index: true, element: <ClinicianHome /> },
+              { path: 'athletes/:athleteId', element: <ClinicianAthletePage /> },
+              { path: 'cases/:caseId', element: <ClinicianCasePage /> },
+              { path: 'audit', element: <ClinicianAuditPage /> },
+            ],
+          },
           { path: '/athlete', element: <AthleteHome /> },
           { path: '/guardian', element: <GuardianHome /> },
           { path: '/account', element: <AccountPage /> },

@@ -46,3 +46,21 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
     </section>
   );
 }
+
+/**
+ * The caution at the top of case and plan screens, where clinical decisions are written down or
+ * read. It is part of the page, not a dialog: it never needs a click to be read.
+ */
+export function ClinicalRecordCaution({ audience = 'clinician', className }: { audience?: 'clinician' | 'team'; className?: string }) {
+  return (
+    <p
+      className={`rounded-md border border-rule border-l-4 border-l-line bg-sheet px-3 py-2 text-sm text-ink-2 ${className ?? ''}`}
+    >
+      <span className="font-semibold text-ink">
+        {audience === 'clinician' ? 'A record of your decisions, not a diagnosis.' : "The clinician's limits, not a diagnosis."}
+      </span>{' '}
+      Loadline records what the athlete&apos;s licensed clinician decides; it does not diagnose, treat or replace
+      professional care. Follow local law, your governing body&apos;s rules and your organization&apos;s policies.
+    </p>
+  );
+}

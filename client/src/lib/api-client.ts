@@ -157,5 +157,6 @@ export const api = {
   get: <T>(path: string, options?: Omit<RequestOptions, 'body'>) => apiRequest<T>('GET', path, options),
   post: <T>(path: string, body?: unknown) => apiRequest<T>('POST', path, { body: body ?? {} }),
   patch: <T>(path: string, body: unknown) => apiRequest<T>('PATCH', path, { body }),
+  put: <T>(path: string, body: unknown) => apiRequest<T>('PUT', path, { body }),
   delete: <T = void>(path: string) => apiRequest<T>('DELETE', path),
 };

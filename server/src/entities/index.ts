@@ -15,10 +15,17 @@ import { CheckIn } from './check-in.entity';
 import { TrainingLog } from './training-log.entity';
 import { Flag } from './flag.entity';
 import { Notification } from './notification.entity';
+import { Exercise } from './exercise.entity';
+import { Baseline } from './baseline.entity';
+import { Program } from './program.entity';
+import { ProgramSession } from './program-session.entity';
+import { SessionHold } from './session-hold.entity';
+import { ProgramException } from './program-exception.entity';
 
 export {
   Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
   ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion, PainReport, CheckIn, TrainingLog, Flag, Notification,
+  Exercise, Baseline, Program, ProgramSession, SessionHold, ProgramException,
 };
 
 export const ENTITIES = [
@@ -39,4 +46,10 @@ export const ENTITIES = [
   TrainingLog,
   Flag,
   Notification,
+  Exercise,
+  Baseline,
+  Program,
+  ProgramSession,
+  SessionHold,
+  ProgramException,
 ];

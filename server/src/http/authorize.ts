@@ -21,6 +21,10 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   TrainingLog: 'training log',
   Flag: 'flag',
   Notification: 'notice',
+  Exercise: 'exercise',
+  Baseline: 'baseline',
+  Program: 'program',
+  ProgramException: 'exception request',
 };
 
 /**

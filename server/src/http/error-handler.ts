@@ -54,7 +54,7 @@ export function errorHandler(deps: Deps): ErrorRequestHandler {
     }
     if (res.headersSent) return;
     const body: ErrorBody = {
-      error: { code: appErr.code, message: appErr.message, ...(appErr.fields ? { fields: appErr.fields } : {}) },
+      error: { code: appErr.code, message: appErr.message, ...(appErr.fields ? { fields: appErr.fields } : {}), ...(appErr.details !== undefined ? { details: appErr.details } : {}) },
       requestId,
     };
     res.status(appErr.status).json(body);

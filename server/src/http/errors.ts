@@ -44,6 +44,8 @@ export class AppError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields?: Record<string, string[]>,
+    /** Structured detail the client can render, e.g. the breaches that stopped a publish. */
+    readonly details?: unknown,
   ) {
     super(message);
   }

@@ -155,6 +155,10 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   TrainingLog: 'training logs',
   Flag: 'flags',
   Notification: 'notices',
+  Exercise: 'the exercise library',
+  Baseline: 'baselines',
+  Program: 'programs',
+  ProgramException: 'exceptions',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

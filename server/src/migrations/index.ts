@@ -1,6 +1,12 @@
 import { CreateFoundation1764600000000 } from './1764600000000-create-foundation';
 import { CreateCasesAndPlans1764700000000 } from './1764700000000-create-cases-and-plans';
 import { CreateAthleteReports1764800000000 } from './1764800000000-create-athlete-reports';
+import { CreatePrograms1764900000000 } from './1764900000000-create-programs';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
-export const MIGRATIONS = [CreateFoundation1764600000000, CreateCasesAndPlans1764700000000, CreateAthleteReports1764800000000];
+export const MIGRATIONS = [
+  CreateFoundation1764600000000,
+  CreateCasesAndPlans1764700000000,
+  CreateAthleteReports1764800000000,
+  CreatePrograms1764900000000,
+];

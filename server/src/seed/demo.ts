@@ -8,6 +8,7 @@ import {
   RestrictionPlanVersion, User,
 } from '../entities';
 import { appendAudit } from '../services/audit';
+import { seedExerciseLibrary } from '../services/exercise-library';
 
 /** Invented people in an invented facility; any likeness to real people is accidental. */
 export const DEMO_ORG_NAME = 'Harbor Point Performance';
@@ -90,6 +91,7 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12): Promise<{ creat
     for (const [athlete, guardian] of GUARDIANS) {
       await m.save(m.create(GuardianLink, { organizationId: org.id, athleteId: ids[athlete], guardianId: ids[guardian] }));
     }
+    await seedExerciseLibrary(m, org.id);
     await loadDemoCase(m, org.id, ids, userIds);
     await appendAudit(m, {
       organizationId: org.id,

@@ -25,8 +25,9 @@ interface StatusRow {
 }
 
 /**
- * Status of each case on `date`: the latest change already in effect; a case whose first status
- * starts later shows that first status (it is what the clinician set for the case).
+ * Status of each case on `date`: among the changes already in effect, the most recently recorded
+ * one wins — so an emergency Out recorded today overrides a Full that was scheduled earlier for a
+ * later day. A case whose first status starts later shows that first status.
  */
 export async function statusesOn(db: Db, caseIds: string[], date: string): Promise<Map<string, StatusRow>> {
   if (caseIds.length === 0) return new Map();
@@ -35,8 +36,9 @@ export async function statusesOn(db: Db, caseIds: string[], date: string): Promi
        FROM participation_status_changes s
       WHERE s.case_id = ANY($1)
       ORDER BY s.case_id, (s.effective_from <= $2) DESC,
+               CASE WHEN s.effective_from <= $2 THEN s.created_at END DESC NULLS LAST,
                CASE WHEN s.effective_from <= $2 THEN s.effective_from END DESC NULLS LAST,
-               s.effective_from ASC, s.created_at DESC`,
+               s.effective_from ASC`,
     [caseIds, date],
   );
   return new Map(rows.map((r) => [r.case_id, r]));

@@ -5,6 +5,7 @@ import { flaggedItems, routeReport, type ReportRoute } from '../../../policies/r
 import { CaseRecord, Flag, PainReport, ParticipationStatusChange } from '../entities';
 import type { AuditFn } from '../http/context';
 import { athleteCircle, notify } from './notify';
+import { recheckAthlete } from './programs';
 
 export interface PainReportOutcome {
   report: PainReport;
@@ -94,10 +95,12 @@ export async function createPainReport(
     report.caseId = await setOut(m, report, ctx.userId, ctx.today, audit);
     report = await m.save(report);
     statusSetToOut = true;
+    await recheckAthlete(m, ctx.organizationId, input.athleteId, 'The athlete reported an emergency warning sign and is Out.');
     const items = flaggedItems(input.redFlags).filter((i) => i.tier === 'emergency').map((i) => i.question);
     const message = `${ctx.athleteName} answered yes to an emergency warning sign (${where}). They were told to stop and get urgent medical care now, and are set to Out.`;
-    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_emergency', severity: 'emergency', message: `${message} Answers: ${items.join(' / ')}`, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
-    await notify(m, circle.clinicians, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_emergency', severity: 'emergency', title: `Emergency warning sign: ${ctx.athleteName}`, body: message });
+    // Coaches read flags but never the red-flag answers (PAIN_REPORT_FIELDS): the answers go only in the clinicians' notice.
+    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_emergency', severity: 'emergency', message, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
+    await notify(m, circle.clinicians, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_emergency', severity: 'emergency', title: `Emergency warning sign: ${ctx.athleteName}`, body: `${message} Answers: ${items.join(' / ')}` });
     await notify(m, circle.coaches, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'status_out', severity: 'emergency', title: `${ctx.athleteName} is Out`, body: `${ctx.athleteName} has been set to Out after a pain report and must not train until a clinician clears it.` });
     // Guardians of a minor are told; they never see the answers or the narrative.
     await notify(m, circle.guardians, {
@@ -111,8 +114,8 @@ export async function createPainReport(
   } else if (route === 'urgent') {
     const items = flaggedItems(input.redFlags).map((i) => i.question);
     const message = `${ctx.athleteName} reported pain (${where}, ${input.painNow}/10 now) with a warning sign that needs review today.`;
-    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_urgent', severity: 'urgent', message: `${message} Answers: ${items.join(' / ')}`, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
-    await notify(m, circle.clinicians, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_urgent', severity: 'urgent', title: `Review today: ${ctx.athleteName}`, body: message });
+    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_urgent', severity: 'urgent', message, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
+    await notify(m, circle.clinicians, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_urgent', severity: 'urgent', title: `Review today: ${ctx.athleteName}`, body: `${message} Answers: ${items.join(' / ')}` });
   } else {
     const message = `${ctx.athleteName} reported pain: ${where}, ${input.painNow}/10 now, ${input.painWorst24h}/10 at worst in the last 24 hours. No warning signs.`;
     await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'pain_report', severity: 'routine', message, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import bcrypt from 'bcryptjs';
 import type { Role } from '../../../policies/roles';
+import { seedExerciseLibrary } from '../services/exercise-library';
 import { AthleteProfile, CareTeamAssignment, GuardianLink, Membership, Organization, User } from '../entities';
 
 export const TEST_PASSWORD = 'long enough test passphrase';
@@ -78,5 +79,6 @@ export async function createOrg(ds: DataSource, name = `Org ${randomUUID().slice
     { organizationId: id, athleteId: athlete.membershipId, memberId: clinician.membershipId, role: 'clinician' },
   ]);
   await ds.getRepository(GuardianLink).save({ organizationId: id, athleteId: athlete.membershipId, guardianId: guardian.membershipId });
+  await seedExerciseLibrary(ds.manager, id);
   return { id, admin, coach, clinician, athlete, guardian, otherAthlete, otherCoach, otherClinician, otherGuardian };
 }

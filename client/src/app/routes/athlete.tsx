@@ -1,9 +1,12 @@
 import { useAthlete } from '../../features/athletes/api/get-athlete';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
 import { useOrganization } from '../../features/organization/api/get-organization';
+import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
+import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { ComingLater, Loading, PageHeader } from '../../components/ui/Panel';
+import { todayLocal } from '../../lib/dates';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { RoleGate } from '../layout/RoleGate';
@@ -25,6 +28,7 @@ function AthleteProfile() {
   return (
     <div className="mx-auto max-w-xl space-y-5">
       <PageHeader title="My profile">What {membership.organizationName} has on record for you, and who looks after you.</PageHeader>
+      <MyToday athleteId={membership.id} />
       <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {athlete.isPending ? (
         <Loading what="your profile" />
@@ -35,10 +39,26 @@ function AthleteProfile() {
       )}
       <ComingLater title="Pain reports and training logs arrive in a coming release">
         <p>
-          Soon you will report pain here, see what you may do today, and log each session. Until then, tell your
-          clinician or coach about any pain in person, straight away.
+          Soon you will report pain here and log each session. Until then, tell your clinician or coach about any pain in
+          person, straight away.
         </p>
       </ComingLater>
     </div>
+  );
+}
+
+/** Status and today's limits. Without access to them (no answer, or refused), the section stays out. */
+function MyToday({ athleteId }: { athleteId: string }) {
+  const { orgId, user } = useCurrentMembership();
+  const inForce = useInForce(orgId, athleteId, todayLocal());
+  if (inForce.isPending) return <Loading what="what you may do today" />;
+  if (inForce.isError) return isNoAccess(inForce.error) ? null : <ErrorNotice error={inForce.error} />;
+  return (
+    <>
+      <section aria-label="My status" className="rounded-lg border border-rule bg-sheet p-4 sm:p-5">
+        <StatusToday inForce={inForce.data} />
+      </section>
+      <TodayLimits inForce={inForce.data} unit={user.unitPref} />
+    </>
   );
 }

@@ -1,9 +1,13 @@
+import { useId } from 'react';
 import { useAthletes } from '../../features/athletes/api/get-athletes';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
 import { useOrganization } from '../../features/organization/api/get-organization';
+import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
+import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { ComingLater, Loading, PageHeader } from '../../components/ui/Panel';
+import { todayLocal } from '../../lib/dates';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { RoleGate } from '../layout/RoleGate';
@@ -28,7 +32,6 @@ function Wards() {
       <PageHeader title={mine.length > 1 ? 'Your athletes' : 'Your athlete'}>
         The athletes you are linked to as parent or guardian at {membership.organizationName}.
       </PageHeader>
-      <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {athletes.isPending ? (
         <Loading what="your athletes" />
       ) : athletes.isError ? (
@@ -38,14 +41,42 @@ function Wards() {
           No athlete is linked to you yet. The organization&apos;s administrator links guardians to athletes.
         </p>
       ) : (
-        mine.map((athlete) => <AthleteCard key={athlete.id} athlete={athlete} />)
+        mine.map((athlete) => <WardToday key={athlete.id} athleteId={athlete.id} name={firstName(athlete.displayName)} />)
       )}
+      <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
+      {mine.map((athlete) => (
+        <AthleteCard key={athlete.id} athlete={athlete} />
+      ))}
       <ComingLater title="Clearance letters arrive in a coming release">
         <p>
-          You will be told here, in plain words, what your athlete may do and until when, and you will receive and
-          acknowledge clearance letters. Until then, the care team will contact you directly.
+          You will receive and acknowledge clearance letters here. Until then, the care team will contact you directly
+          when your athlete is cleared.
         </p>
       </ComingLater>
     </div>
+  );
+}
+
+function firstName(displayName: string): string {
+  return displayName.split(/\s+/)[0] || displayName;
+}
+
+/** The athlete's status and limits in plain words; left out when the guardian has no view of them. */
+function WardToday({ athleteId, name }: { athleteId: string; name: string }) {
+  const { orgId, user } = useCurrentMembership();
+  const inForce = useInForce(orgId, athleteId, todayLocal());
+  const headingId = useId();
+  if (inForce.isPending) return <Loading what={`${name}'s limits`} />;
+  if (inForce.isError) return isNoAccess(inForce.error) ? null : <ErrorNotice error={inForce.error} />;
+  return (
+    <>
+      <section aria-labelledby={headingId} className="rounded-lg border border-rule bg-sheet p-4 sm:p-5">
+        <h2 id={headingId} className="mb-2 text-xl font-bold">
+          {name}&apos;s status
+        </h2>
+        <StatusToday inForce={inForce.data} name={name} />
+      </section>
+      <TodayLimits inForce={inForce.data} unit={user.unitPref} name={name} />
+    </>
   );
 }

@@ -1,4 +1,4 @@
-import { useId, useState } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import {
   flexRender,
   getCoreRowModel,
@@ -24,6 +24,10 @@ export interface DataTableProps<T> {
   empty: string;
   noun?: { one: string; many: string };
   initialSorting?: SortingState;
+  /** More filters beside the search box (e.g. a status choice); the caller narrows `data` itself. */
+  toolbar?: ReactNode;
+  /** The width below which the table scrolls sideways; narrower tables can pass e.g. 'min-w-[44rem]'. */
+  minWidthClass?: string;
 }
 
 /**
@@ -40,6 +44,8 @@ export function DataTable<T>({
   empty,
   noun = { one: 'row', many: 'rows' },
   initialSorting = [],
+  toolbar,
+  minWidthClass = 'min-w-[64rem]',
 }: DataTableProps<T>) {
   const filterId = useId();
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
@@ -70,21 +76,24 @@ export function DataTable<T>({
 
   return (
     <div>
-      {filter && (
+      {(filter || toolbar) && (
         <div className="mb-3 flex flex-wrap items-end gap-3">
-          <div className="w-full max-w-xs">
-            <label htmlFor={filterId} className="block text-sm font-semibold">
-              {filter.label}
-            </label>
-            <input
-              id={filterId}
-              type="search"
-              value={globalFilter}
-              placeholder={filter.placeholder}
-              onChange={(e) => setGlobalFilter(e.target.value)}
-              className="mt-1 block min-h-10 w-full rounded-md border border-rule-strong bg-sheet px-3 text-sm"
-            />
-          </div>
+          {filter && (
+            <div className="w-full max-w-xs">
+              <label htmlFor={filterId} className="block text-sm font-semibold">
+                {filter.label}
+              </label>
+              <input
+                id={filterId}
+                type="search"
+                value={globalFilter}
+                placeholder={filter.placeholder}
+                onChange={(e) => setGlobalFilter(e.target.value)}
+                className="mt-1 block min-h-10 w-full rounded-md border border-rule-strong bg-sheet px-3 text-sm"
+              />
+            </div>
+          )}
+          {toolbar}
           <p className="pb-2 text-sm text-muted tabular-nums" aria-live="polite">
             {globalFilter ? `Showing ${rows.length} of ${count(data.length)}` : count(data.length)}
           </p>
@@ -96,7 +105,7 @@ export function DataTable<T>({
         tabIndex={0}
         className="overflow-x-auto rounded-lg border border-rule bg-sheet"
       >
-        <table className="w-full min-w-[64rem] border-collapse text-left text-sm">
+        <table className={cx('w-full border-collapse text-left text-sm', minWidthClass)}>
           <caption className={cx('px-3 pt-3 text-left font-semibold', hideCaption && 'sr-only')}>{caption}</caption>
           <thead>
             {table.getHeaderGroups().map((group) => (

@@ -90,6 +90,37 @@ export function SelectField({ label, hint, error, large, className, id, children
   );
 }
 
+export type TextAreaFieldProps = ComponentProps<'textarea'> & FieldFrameProps;
+
+/** Free text, e.g. notes. The hint sits between label and box, so who will read it is said up front. */
+export function TextAreaField({ label, hint, error, large, className, id, rows = 3, ...textarea }: TextAreaFieldProps) {
+  const autoId = useId();
+  const areaId = id ?? autoId;
+  const hintId = `${areaId}-hint`;
+  const errorId = `${areaId}-error`;
+  return (
+    <div className={className}>
+      <label htmlFor={areaId} className="block text-sm font-semibold">
+        {label}
+      </label>
+      {hint && (
+        <p id={hintId} className="text-sm text-muted">
+          {hint}
+        </p>
+      )}
+      <textarea
+        id={areaId}
+        rows={rows}
+        className={cx(CONTROL, 'mt-1 py-2', large ? 'text-base' : 'text-sm')}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hint && hintId, error && errorId)}
+        {...textarea}
+      />
+      <FieldMessage id={errorId} label={label} error={error} />
+    </div>
+  );
+}
+
 export interface ChoiceOption<V extends string> {
   value: V;
   label: string;

@@ -14,6 +14,7 @@ import { redact } from '../../services/audit';
 import { caseload, listCases, statusHistory } from '../../services/cases';
 import { requireMemberWithRole } from '../../services/org-members';
 import { updateVersioned } from '../../services/versioned';
+import { recheckAthlete } from '../../services/programs';
 
 const CaseListQuerySchema = z.strictObject({
   athleteId: UuidSchema.optional(),
@@ -164,6 +165,7 @@ export const caseRoutes: RouteDef[] = [
           before: previous ? { status: previous.status, effectiveFrom: previous.effectiveFrom } : null,
           after: { caseId: c.id, status: body.status, effectiveFrom: body.effectiveFrom, note: body.note ?? null },
         });
+        await recheckAthlete(m, c.organizationId, c.athleteId, `The clinician set the status to ${body.status} from ${body.effectiveFrom}.`);
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);
       return { ...dto, statusHistory: await statusHistory(ds, params.id) } satisfies CaseDetailDto;
@@ -190,6 +192,7 @@ export const caseRoutes: RouteDef[] = [
         }
         await updateVersioned(m, CaseRecord, c.id, body.version, { closedOn: body.closedOn, closingNote: body.closingNote ?? null, updatedAt: () => 'now()' }, 'case');
         await audit({ action: 'case.closed', subjectType: 'Case', subjectId: c.id, athleteId: c.athleteId, before: { closedOn: null }, after: body });
+        await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician closed a case.');
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);
       return dto;

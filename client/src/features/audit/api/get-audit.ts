@@ -7,6 +7,7 @@ export interface AuditFilters {
   action?: string;
   actorId?: string;
   subjectId?: string;
+  athleteId?: string;
   from?: string;
   to?: string;
 }
@@ -31,6 +32,14 @@ export function getAuditQueryOptions(orgId: string, filters: AuditFilters) {
     initialPageParam: undefined as number | undefined,
     getNextPageParam: (last) => last.nextBefore ?? undefined,
   });
+}
+
+/** The CSV export of the same filtered entries: a plain GET the browser downloads with its cookie. */
+export function auditExportHref(orgId: string, filters: AuditFilters): string {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(filters)) if (value) params.set(key, value);
+  const query = params.toString();
+  return `/api/orgs/${orgId}/audit/export${query ? `?${query}` : ''}`;
 }
 
 export function useAudit(orgId: string, filters: AuditFilters) {

@@ -5,18 +5,27 @@ import type { z } from 'zod';
 import { AuditQuerySchema } from '../../../../../policies/schemas';
 import type { AuditEntryDto } from '../../../../../policies/dto';
 import { formatDateTime } from '../../../lib/format';
-import { Button } from '../../../components/ui/Button';
-import { TextField } from '../../../components/ui/Field';
-import { ErrorNotice } from '../../../components/ui/Notice';
+import { Button, buttonClass } from '../../../components/ui/Button';
+import { SelectField, TextField } from '../../../components/ui/Field';
+import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
-import { useAudit, type AuditFilters } from '../api/get-audit';
+import { emptyToUndefined } from '../../../lib/form-values';
+import { auditExportHref, useAudit, type AuditFilters } from '../api/get-audit';
+import { useVerifyChain } from '../api/verify-chain';
 
 type Input = z.input<typeof AuditQuerySchema>;
 type Output = z.output<typeof AuditQuerySchema>;
 
-const emptyToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+export interface AthleteOption {
+  id: string;
+  name: string;
+}
 
-export function AuditTrail({ orgId }: { orgId: string }) {
+/**
+ * The audit trail with its filters, for admins (everything) and clinicians (their athletes' entries;
+ * the server decides which). `athletes` fills the athlete filter; `canVerify` offers the chain check.
+ */
+export function AuditTrail({ orgId, athletes = [], canVerify = false }: { orgId: string; athletes?: AthleteOption[]; canVerify?: boolean }) {
   const [filters, setFilters] = useState<AuditFilters>({});
   const audit = useAudit(orgId, filters);
   const {
@@ -26,18 +35,33 @@ export function AuditTrail({ orgId }: { orgId: string }) {
     formState: { errors },
   } = useForm<Input, unknown, Output>({ resolver: zodResolver(AuditQuerySchema) });
 
-  const onSubmit = handleSubmit(({ action, from, to }) => setFilters({ action, from, to }));
+  const onSubmit = handleSubmit(({ athleteId, action, from, to }) => setFilters({ athleteId, action, from, to }));
   const clear = () => {
-    reset({ action: undefined, from: undefined, to: undefined });
+    reset({ athleteId: undefined, action: undefined, from: undefined, to: undefined });
     setFilters({});
   };
 
   const entries = audit.data?.pages.flatMap((p) => p.entries) ?? [];
-  const filtered = Boolean(filters.action || filters.from || filters.to);
+  const filtered = Boolean(filters.athleteId || filters.action || filters.from || filters.to);
 
   return (
     <div className="space-y-4">
       <form onSubmit={onSubmit} noValidate className="flex flex-wrap items-end gap-3" aria-label="Filter the audit trail">
+        {athletes.length > 0 && (
+          <SelectField
+            label="Athlete"
+            className="w-full sm:w-56"
+            error={errors.athleteId?.message}
+            {...register('athleteId', { setValueAs: emptyToUndefined })}
+          >
+            <option value="">All athletes</option>
+            {athletes.map((a) => (
+              <option key={a.id} value={a.id}>
+                {a.name}
+              </option>
+            ))}
+          </SelectField>
+        )}
         <TextField
           label="Action"
           hint="e.g. invitation.created"
@@ -69,6 +93,13 @@ export function AuditTrail({ orgId }: { orgId: string }) {
         </div>
       </form>
 
+      <div className="flex flex-wrap items-center gap-3">
+        <a href={auditExportHref(orgId, filters)} download className={buttonClass('secondary', 'sm')}>
+          Download {filtered ? 'these entries' : 'the trail'} as CSV
+        </a>
+        {canVerify && <ChainCheck orgId={orgId} />}
+      </div>
+
       {audit.isPending ? (
         <Loading what="the audit trail" />
       ) : !audit.data ? (
@@ -86,6 +117,7 @@ export function AuditTrail({ orgId }: { orgId: string }) {
                 <tr className="border-b border-rule bg-shade">
                   <th scope="col" className="px-3 py-2 whitespace-nowrap">When</th>
                   <th scope="col" className="px-3 py-2">Who</th>
+                  <th scope="col" className="px-3 py-2">Athlete</th>
                   <th scope="col" className="px-3 py-2">Action</th>
                   <th scope="col" className="px-3 py-2">Subject</th>
                   <th scope="col" className="px-3 py-2">Change</th>
@@ -94,7 +126,7 @@ export function AuditTrail({ orgId }: { orgId: string }) {
               <tbody>
                 {entries.length === 0 ? (
                   <tr>
-                    <td colSpan={5} className="px-3 py-4 text-ink-2">
+                    <td colSpan={6} className="px-3 py-4 text-ink-2">
                       {filtered ? 'No entries match these filters.' : 'Nothing has been recorded yet.'}
                     </td>
                   </tr>
@@ -122,6 +154,7 @@ function AuditRow({ entry }: { entry: AuditEntryDto }) {
     <tr className="border-b border-rule align-top last:border-b-0">
       <td className="px-3 py-2 whitespace-nowrap tabular-nums">{formatDateTime(entry.occurredAt)}</td>
       <td className="px-3 py-2">{entry.actorName ?? <span className="text-muted">System</span>}</td>
+      <td className="px-3 py-2">{entry.athleteName ?? <span className="text-muted">—</span>}</td>
       <td className="px-3 py-2 font-mono text-xs">{entry.action}</td>
       <td className="px-3 py-2">
         {entry.subjectType}
@@ -141,6 +174,37 @@ function AuditRow({ entry }: { entry: AuditEntryDto }) {
         )}
       </td>
     </tr>
+  );
+}
+
+/** Re-checks every link of the organization's hash chain and says plainly what it found. */
+function ChainCheck({ orgId }: { orgId: string }) {
+  const verify = useVerifyChain(orgId);
+  const report = verify.data;
+  return (
+    <div className="flex flex-wrap items-center gap-3">
+      <Button variant="secondary" size="sm" busy={verify.isPending} onClick={() => verify.mutate()}>
+        Check the chain
+      </Button>
+      <div aria-live="polite" className="text-sm">
+        {report &&
+          (report.intact ? (
+            <Notice tone="done" className="py-1.5">
+              <p className="tabular-nums">
+                Intact — {report.entries} {report.entries === 1 ? 'entry' : 'entries'} checked
+              </p>
+            </Notice>
+          ) : (
+            <Notice tone="problem" className="py-1.5">
+              <p className="font-semibold">
+                Broken at entry #{report.firstBrokenId}: {report.reason}
+              </p>
+              <p>Entries from there on cannot be trusted as recorded. Export the trail and contact your Loadline operator.</p>
+            </Notice>
+          ))}
+      </div>
+      {verify.isError && <ErrorNotice error={verify.error} />}
+    </div>
   );
 }
 

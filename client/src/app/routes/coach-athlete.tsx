@@ -1,0 +1,134 @@
+import { Link, useParams } from 'react-router-dom';
+import type { CaseloadRowDto } from '../../../../policies/dto';
+import { useCaseload } from '../../features/caseload/api/get-caseload';
+import { useCases } from '../../features/cases/api/get-cases';
+import { regionsText } from '../../features/cases/components/case-words';
+import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
+import { usePlans } from '../../features/plans/api/get-plan';
+import { InForceSummary } from '../../features/plans/components/InForceSummary';
+import { PlanStagesView } from '../../features/plans/components/PlanStagesView';
+import { ClinicalRecordCaution } from '../../components/Cautions';
+import { ErrorNotice, Notice } from '../../components/ui/Notice';
+import { Badge, Facts, Loading, PageHeader, Panel } from '../../components/ui/Panel';
+import { StatusMark } from '../../components/ui/StatusMark';
+import { todayLocal } from '../../lib/dates';
+import { formatDate } from '../../lib/format';
+import { useCurrentMembership } from '../../lib/membership-context';
+import { useDocumentTitle } from '../../lib/use-document-title';
+import { RoleGate } from '../layout/RoleGate';
+
+/**
+ * One athlete for their coach: status, dates and the functional limits in force today and coming.
+ * The server sends coaches no diagnosis and no notes, and this page has no place for them.
+ */
+export function CoachAthletePage() {
+  return (
+    <RoleGate role="coach">
+      <CoachAthlete />
+    </RoleGate>
+  );
+}
+
+function CoachAthlete() {
+  const { athleteId = '' } = useParams();
+  const { orgId } = useCurrentMembership();
+  const caseload = useCaseload(orgId);
+  const row = caseload.data?.find((r) => r.athleteId === athleteId);
+  useDocumentTitle(row?.athleteName ?? 'Athlete');
+
+  return (
+    <div className="space-y-5">
+      <p className="text-sm">
+        <Link to="/coach">← My athletes</Link>
+      </p>
+      {caseload.isPending ? (
+        <Loading what="this athlete" />
+      ) : caseload.isError ? (
+        <ErrorNotice error={caseload.error} />
+      ) : !row ? (
+        <Notice tone="problem" role="alert" title="Not one of your athletes">
+          <p>This athlete is not in your organization, or you are not on their care team.</p>
+        </Notice>
+      ) : (
+        <AthleteLimits row={row} />
+      )}
+    </div>
+  );
+}
+
+function AthleteLimits({ row }: { row: CaseloadRowDto }) {
+  const { orgId, user } = useCurrentMembership();
+  const today = todayLocal();
+  const cases = useCases(orgId, { athleteId: row.athleteId, state: 'open' });
+  const inForce = useInForce(orgId, row.athleteId, today);
+  const planIds = (cases.data ?? []).map((c) => c.planId).filter((id): id is string => !!id);
+  const plans = usePlans(orgId, planIds);
+  const allStages = plans.flatMap((p) => p.data?.current.stages ?? []);
+  const numbers = new Map(plans.flatMap((p) => (p.data?.current.stages ?? []).map((s, i) => [s.id, i + 1] as const)));
+  const upcoming = allStages.filter((s) => s.startDate > today).sort((a, b) => (a.startDate < b.startDate ? -1 : 1));
+
+  return (
+    <>
+      <PageHeader title={row.athleteName}>
+        {[row.sport, row.age !== null ? `${row.age} years` : null].filter(Boolean).join(' · ')}
+        {row.isMinor && (
+          <>
+            {' '}
+            <Badge>Minor</Badge>
+          </>
+        )}
+      </PageHeader>
+      <ClinicalRecordCaution audience="team" />
+
+      <Panel title="Status">
+        <Facts
+          items={[
+            { label: 'Status', value: <StatusMark status={row.status} explain /> },
+            { label: 'Since', value: row.statusEffectiveFrom ? formatDate(row.statusEffectiveFrom) : 'no open case' },
+            { label: 'Next review', value: row.nextReviewDate ? formatDate(row.nextReviewDate) : 'none set' },
+          ]}
+        />
+        {(cases.data ?? []).length > 0 && (
+          <ul className="mt-3 space-y-2 text-sm">
+            {cases.data!.map((c) => (
+              <li key={c.id} className="rounded-md border border-rule px-3 py-2">
+                <span className="font-semibold">{regionsText(c.bodyRegions)}</span>
+                <span className="text-ink-2 tabular-nums">
+                  {' '}
+                  · onset {formatDate(c.onsetDate)}
+                  {c.reviewDate && ` · review ${formatDate(c.reviewDate)}`}
+                </span>
+                {c.statusNote && <p className="mt-0.5">“{c.statusNote}”</p>}
+              </li>
+            ))}
+          </ul>
+        )}
+        {cases.isError && <ErrorNotice error={cases.error} className="mt-3" />}
+      </Panel>
+
+      {!(inForce.isError && isNoAccess(inForce.error)) && (
+        <Panel title="Limits in force">
+          <p className="mb-3 text-sm text-muted">Today, {formatDate(today)}. Program under these; the clinician sets them.</p>
+          {inForce.isPending ? (
+            <Loading what="the limits" />
+          ) : inForce.isError ? (
+            <ErrorNotice error={inForce.error} />
+          ) : (
+            <InForceSummary inForce={inForce.data} unit={user.unitPref} showStatus={false} />
+          )}
+        </Panel>
+      )}
+
+      <Panel title="Upcoming stages">
+        {cases.isPending || plans.some((p) => p.isPending) ? (
+          <Loading what="the plans" />
+        ) : upcoming.length === 0 ? (
+          <p className="text-sm text-ink-2">No later stage is planned yet.</p>
+        ) : (
+          <PlanStagesView stages={upcoming} unit={user.unitPref} today={today} numbers={numbers} />
+        )}
+        {plans.map((p, i) => p.isError && <ErrorNotice key={planIds[i]} error={p.error} className="mt-3" />)}
+      </Panel>
+    </>
+  );
+}
