@@ -135,11 +135,19 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
   const ordered = [...sets].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.sessionId < b.sessionId ? -1 : a.sessionId > b.sessionId ? 1 : a.order - b.order));
   const sessionCounts = new Map<string, number>();
   const weekCounts = new Map<string, number>();
+  const weekCache = new Map<string, string>();
+  const weekFor = (date: string) => {
+    let w = weekCache.get(date);
+    if (w === undefined) weekCache.set(date, (w = weekOf(date)));
+    return w;
+  };
+  let set: EngineSet = ordered[0];
+  // One closure for the whole run (not one per set): this loop is the hot path of every publish.
+  const push = (b: Omit<Breach, 'setId' | 'sessionId' | 'date' | 'exerciseId' | 'waived'>) =>
+    breaches.push({ setId: set.id, sessionId: set.sessionId, date: set.date, exerciseId: set.exerciseId, waived: ctx.waivedSetIds?.has(set.id) ?? false, ...b });
 
-  for (const set of ordered) {
+  for (set of ordered) {
     const ex = ctx.exercises[set.exerciseId];
-    const push = (b: Omit<Breach, 'setId' | 'sessionId' | 'date' | 'exerciseId' | 'waived'>) =>
-      breaches.push({ setId: set.id, sessionId: set.sessionId, date: set.date, exerciseId: set.exerciseId, waived: ctx.waivedSetIds?.has(set.id) ?? false, ...b });
     if (!ex) continue;
     const day = inForce(set.date);
     const name = ex.name;
@@ -236,13 +244,14 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
       }
       const hard = rpe === null || rpe >= HARD_SET_RPE;
       if (!hard) continue;
-      const wKey = `${weekOf(set.date)}|${p}`;
+      const week = weekFor(set.date);
+      const wKey = `${week}|${p}`;
       const wCount = (weekCounts.get(wKey) ?? 0) + 1;
       weekCounts.set(wKey, wCount);
       const maxHard = r.caps?.maxHardSetsPerWeek;
       if (maxHard !== undefined && wCount > maxHard) {
-        push({ rule: 'hard_sets_per_week', pattern: p, limit: `max ${maxHard} hard sets per week`, planned: `hard set ${wCount} of the week of ${weekOf(set.date)}`, fits: `${maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`, fittingKg: null,
-          message: `${PATTERN_LABELS[p]}: max ${maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${weekOf(set.date)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.` });
+        push({ rule: 'hard_sets_per_week', pattern: p, limit: `max ${maxHard} hard sets per week`, planned: `hard set ${wCount} of the week of ${week}`, fits: `${maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`, fittingKg: null,
+          message: `${PATTERN_LABELS[p]}: max ${maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${week}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.` });
       }
     }
   }

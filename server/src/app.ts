@@ -78,7 +78,7 @@ export function buildApp(base: AppDeps) {
     }),
   );
 
-  const { middleware: sessionMiddleware, pool: sessionPool } = buildSession(deps);
+  const { middleware: sessionMiddleware, close: closeSessions } = buildSession(deps);
   const api = Router();
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
@@ -128,5 +128,5 @@ export function buildApp(base: AppDeps) {
   }
   app.use(errorHandler(deps));
 
-  return { app, close: () => sessionPool.end() };
+  return { app, close: closeSessions };
 }

@@ -30,7 +30,7 @@ export function ensureCsrfToken(req: Parameters<RequestHandler>[0]): string {
   return req.session.csrfToken;
 }
 
-export function buildSession(deps: Deps): { middleware: RequestHandler; pool: pg.Pool } {
+export function buildSession(deps: Deps): { middleware: RequestHandler; close: () => Promise<void> } {
   const { config } = deps;
   const PgStore = connectPgSimple(session);
   // A small pool of its own, so session reads never queue behind long queries; errors are logged,
@@ -38,16 +38,17 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; pool: pg
   const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 5000 });
   pool.on('error', (err) => deps.logger.warn({ err }, 'session pool: idle client error'));
   const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
-  const middleware = session({
-    name: SESSION_COOKIE,
-    secret: config.SESSION_SECRET,
-    store: new PgStore({
+  const store = new PgStore({
       pool,
       tableName: 'session',
       createTableIfMissing: false,
       pruneSessionInterval: 15 * 60,
       errorLog: (...args: unknown[]) => deps.logger.warn({ args }, 'session store error'),
-    }),
+  });
+  const middleware = session({
+    name: SESSION_COOKIE,
+    secret: config.SESSION_SECRET,
+    store,
     resave: false,
     saveUninitialized: false,
     // Each request pushes the idle expiry forward; the store's row expires with the cookie, so an
@@ -61,7 +62,12 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; pool: pg
       maxAge: idleMs,
     },
   });
-  return { middleware, pool };
+  // The store's prune timer stops before its pool ends, so shutdown leaves nothing running.
+  const close = async () => {
+    store.close();
+    await pool.end();
+  };
+  return { middleware, close };
 }
 
 /** A bcrypt hash to compare against when the e-mail is unknown, so both paths take the same time. */

@@ -2,6 +2,7 @@ import { CreateFoundation1764600000000 } from './1764600000000-create-foundation
 import { CreateCasesAndPlans1764700000000 } from './1764700000000-create-cases-and-plans';
 import { CreateAthleteReports1764800000000 } from './1764800000000-create-athlete-reports';
 import { CreatePrograms1764900000000 } from './1764900000000-create-programs';
+import { AddAthleteIndexes1765000000000 } from './1765000000000-add-athlete-indexes';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -9,4 +10,5 @@ export const MIGRATIONS = [
   CreateCasesAndPlans1764700000000,
   CreateAthleteReports1764800000000,
   CreatePrograms1764900000000,
+  AddAthleteIndexes1765000000000,
 ];

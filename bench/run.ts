@@ -1,0 +1,8 @@
+/** `npm run bench`: the engine timings, then the HTTP benchmark. */
+import { spawnSync } from 'node:child_process';
+
+for (const file of ['bench/engine.ts', 'bench/http.ts']) {
+  console.log(`\n=== ${file} ===`);
+  const r = spawnSync('node', ['--import', 'tsx', file], { stdio: 'inherit' });
+  if (r.status !== 0) process.exit(r.status ?? 1);
+}
