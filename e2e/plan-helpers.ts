@@ -1,0 +1,81 @@
+import { expect, type Browser, type BrowserContextOptions, type Locator, type Page, type TestInfo } from '@playwright/test';
+
+/**
+ * A calendar day as 'YYYY-MM-DD', counted in UTC from today. The spec runs its browsers in UTC too
+ * (timezoneId), so the app's "today" (the browser's local date) and the server's (UTC) agree with it.
+ */
+export function isoDay(offsetDays = 0, now: Date = new Date()): string {
+  const day = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() + offsetDays));
+  return day.toISOString().slice(0, 10);
+}
+
+/** The project's browser settings for a context made by hand (a second person, or a second tab as the same one). */
+export function contextOptions(testInfo: TestInfo, extra: BrowserContextOptions = {}): BrowserContextOptions {
+  const { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL } = testInfo.project.use;
+  return { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL, timezoneId: 'UTC', ...extra };
+}
+
+/** A 375 px phone, as in the phone project, for people who use the app on their phone. */
+export async function newPhonePage(browser: Browser, testInfo: TestInfo): Promise<Page> {
+  const context = await browser.newContext(
+    contextOptions(testInfo, { viewport: { width: 375, height: 740 }, isMobile: true, hasTouch: true, userAgent: undefined }),
+  );
+  return context.newPage();
+}
+
+export type Mode = 'Blocked' | 'Capped' | 'Free';
+
+/** The cap inputs of one pattern, by the words after the pattern's name in each input's label. */
+export interface Caps {
+  'max % of 1RM'?: string;
+  'max load'?: string;
+  'max RPE'?: string;
+  'max sets per session'?: string;
+  'max reps per set'?: string;
+  'max hard sets per week'?: string;
+}
+
+/** One stage of the plan editor: the fieldset "Stage N". */
+export function stageFieldset(page: Page, number: number): Locator {
+  return page.getByRole('group', { name: `Stage ${number}`, exact: true });
+}
+
+/** Sets one movement pattern's mode in a stage, then its caps (the inputs appear once it is Capped). */
+export async function setPattern(stage: Locator, pattern: string, mode: Mode, caps: Caps = {}): Promise<void> {
+  const group = stage.getByRole('group', { name: `${pattern} mode`, exact: true });
+  // The radios are drawn as a segmented control (the inputs are visually hidden): press the segment.
+  await group.locator('label').filter({ hasText: new RegExp(`^${mode}$`) }).click();
+  await expect(group.getByRole('radio', { name: mode, exact: true })).toBeChecked();
+  for (const [cap, value] of Object.entries(caps)) {
+    await stage.getByLabel(`${pattern} ${cap}`, { exact: true }).fill(value);
+  }
+}
+
+export interface StageInput {
+  start: string;
+  end: string;
+  painCeiling?: string;
+}
+
+export async function fillStageDates(stage: Locator, input: StageInput): Promise<void> {
+  await stage.getByLabel('Start date', { exact: true }).fill(input.start);
+  await stage.getByLabel('End date', { exact: true }).fill(input.end);
+  if (input.painCeiling !== undefined) await stage.getByLabel('Pain ceiling', { exact: true }).fill(input.painCeiling);
+}
+
+/** Everything the page holds as text, including closed <details> and screen-reader-only words. */
+export async function pageText(page: Page): Promise<string> {
+  return page.evaluate(() => document.body.textContent ?? '');
+}
+
+/**
+ * Collects the bodies of the app's API responses on a page, so a test can say what the server sent
+ * to this person — not only what the screen chose to show.
+ */
+export function recordApiBodies(page: Page): () => Promise<string> {
+  const bodies: Promise<string>[] = [];
+  page.on('response', (response) => {
+    if (new URL(response.url()).pathname.startsWith('/api/')) bodies.push(response.text().catch(() => ''));
+  });
+  return async () => (await Promise.all(bodies)).join('\n');
+}
