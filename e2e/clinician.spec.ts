@@ -111,10 +111,10 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
 
     const inForce = priya.getByRole('region', { name: 'In force on' });
     await inForce.getByLabel('Date to check').fill(IN_STAGE_2);
-    await expect(inForce).toContainText('Hinge: up to 75% of your best lift');
+    await expect(inForce).toContainText('Hinge: up to 75% of estimated 1RM');
     await expect(inForce).not.toContainText('Jump / landing: not allowed');
     await inForce.getByRole('button', { name: 'Back to today' }).click();
-    await expect(inForce).toContainText('Hinge: up to 60% of your best lift, effort RPE 7 or easier');
+    await expect(inForce).toContainText('Hinge: up to 60% of estimated 1RM, effort RPE 7 or easier');
     await expect(inForce).toContainText('Jump / landing: not allowed for now');
     await keepScreenshot(priya, test.info(), 'clinician-case-with-plan');
   });
@@ -159,7 +159,7 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     await expect(status).toContainText(FAMILY_NOTE);
 
     const limits = page.getByRole('region', { name: 'Limits in force' });
-    await expect(limits).toContainText('Hinge: up to 55% of your best lift, effort RPE 7 or easier');
+    await expect(limits).toContainText('Hinge: up to 55% of estimated 1RM, effort RPE 7 or easier');
     await expect(limits).toContainText('Jump / landing: not allowed for now');
     await expect(limits).toContainText(GUIDANCE);
 

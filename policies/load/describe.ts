@@ -2,11 +2,14 @@ import type { Unit } from '../schemas/common';
 import { PATTERN_LABELS, type Caps, type MovementPattern, type PatternRule } from './patterns';
 import { formatLoad } from './units';
 
-/** Caps in plain words, for athletes and guardians: "up to 60% of your best, RPE 7 or easier". */
-export function describeCaps(caps: Caps | undefined, unit: Unit): string[] {
+/** Who reads the words: athletes and guardians ("your best lift") or staff ("estimated 1RM"). */
+export type Voice = 'athlete' | 'staff';
+
+/** Caps in plain words: "up to 60% of your best lift, effort RPE 7 or easier". */
+export function describeCaps(caps: Caps | undefined, unit: Unit, voice: Voice = 'athlete'): string[] {
   if (!caps) return [];
   const parts: string[] = [];
-  if (caps.maxPercent1RM !== undefined) parts.push(`up to ${caps.maxPercent1RM}% of your best lift`);
+  if (caps.maxPercent1RM !== undefined) parts.push(`up to ${caps.maxPercent1RM}% of ${voice === 'staff' ? 'estimated 1RM' : 'your best lift'}`);
   if (caps.maxLoadKg !== undefined) parts.push(`no more than ${formatLoad(caps.maxLoadKg, unit, 'down')}`);
   if (caps.maxRpe !== undefined) parts.push(`effort RPE ${caps.maxRpe} or easier`);
   if (caps.maxSetsPerSession !== undefined) parts.push(`at most ${caps.maxSetsPerSession} sets a session`);
@@ -16,11 +19,11 @@ export function describeCaps(caps: Caps | undefined, unit: Unit): string[] {
   return parts;
 }
 
-export function describeRule(pattern: MovementPattern, rule: PatternRule, unit: Unit): string {
+export function describeRule(pattern: MovementPattern, rule: PatternRule, unit: Unit, voice: Voice = 'athlete'): string {
   const name = PATTERN_LABELS[pattern];
   if (rule.mode === 'blocked') return `${name}: not allowed for now`;
   if (rule.mode === 'free') return `${name}: no limits`;
-  const parts = describeCaps(rule.caps, unit);
+  const parts = describeCaps(rule.caps, unit, voice);
   return parts.length ? `${name}: ${parts.join(', ')}` : `${name}: allowed with care`;
 }
 

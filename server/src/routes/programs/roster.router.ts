@@ -41,7 +41,7 @@ export const rosterRoutes: RouteDef[] = [
           athleteId: r.athleteId,
           athleteName: r.athleteName,
           status: r.status,
-          limitsToday: MOVEMENT_PATTERNS.filter((p) => inForce.patterns[p].mode !== 'free').map((p) => describeRule(p, inForce.patterns[p], user.unitPref)),
+          limitsToday: MOVEMENT_PATTERNS.filter((p) => inForce.patterns[p].mode !== 'free').map((p) => describeRule(p, inForce.patterns[p], user.unitPref, 'staff')),
           sessionsOnHold: count(holds, r.athleteId),
           pendingExceptions: count(pending, r.athleteId),
           nextSession: n ? { id: n.id, date: n.date, title: n.title } : null,

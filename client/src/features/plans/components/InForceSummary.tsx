@@ -54,7 +54,7 @@ export function InForceSummary({ inForce, unit, showStatus = true }: { inForce: 
                 const rule = inForce.patterns[p];
                 return (
                   <li key={p} className="grid gap-2 px-3 py-2 sm:grid-cols-[1fr_minmax(10rem,16rem)] sm:items-center">
-                    <p>{describeRule(p, rule, unit)}</p>
+                    <p>{describeRule(p, rule, unit, 'staff')}</p>
                     {rule.mode === 'capped' && rule.caps?.maxPercent1RM !== undefined && (
                       <LineBar
                         label={`${PATTERN_LABELS[p]}: share of best lift allowed`}
