@@ -65,6 +65,11 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     TrainingLog: { id: `log-${relation}`, organizationId: org, athleteId },
     Flag: { id: `flag-${relation}`, organizationId: org, athleteId },
     Notification: { id: `notice-${relation}`, organizationId: org, recipientId: relation === 'self' ? me : relation === 'other-org' ? 'member-in-org-b' : STAFF },
+    // The library belongs to the organization, not to a person: only 'same-org' and 'other-org' apply.
+    Exercise: { id: `exercise-${relation}`, organizationId: org },
+    Baseline: { organizationId: org, athleteId },
+    Program: { id: `program-${relation}`, organizationId: org, athleteId },
+    ProgramException: { id: `exception-${relation}`, organizationId: org, athleteId },
   };
   return records[subject] as SubjectShapes[K];
 }
@@ -185,6 +190,10 @@ describe('defineAbilityFor, beyond the matrix', () => {
         asSubject('TrainingLog', { id: 't', organizationId: OTHER_ORG, athleteId: actor.membershipId }),
         asSubject('Flag', { id: 'f', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
         asSubject('Notification', { id: 'n', organizationId: OTHER_ORG, recipientId: actor.membershipId }),
+        asSubject('Exercise', { id: 'e', organizationId: OTHER_ORG }),
+        asSubject('Baseline', { organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
+        asSubject('Program', { id: 'p', organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
+        asSubject('ProgramException', { id: 'x', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
       ];
       for (const s of cases) for (const action of ACTIONS) expect(ability.can(action, s as never), `${role} ${action} ${JSON.stringify(s)}`).toBe(false);
     }
@@ -250,6 +259,29 @@ describe('defineAbilityFor, beyond the matrix', () => {
       expect(ability.can('read', report, 'painNow'), role).toBe(true);
       for (const field of ['note', 'redFlags']) expect(ability.can('read', report, field), `${role} ${field}`).toBe(role !== 'coach');
     }
+  });
+
+  it('programs: the athlete reads only the published part of their own; the care team reads drafts too', () => {
+    for (const role of ['athlete', 'coach', 'clinician'] as const) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const program = asSubject('Program', recordFor('Program', role === 'athlete' ? 'self' : 'own-care-team', actor));
+      expect(ability.can('read', program, 'published'), role).toBe(true);
+      expect(ability.can('read', program, 'draft'), `${role} draft`).toBe(role !== 'athlete');
+    }
+  });
+
+  it('exceptions: a coach who is also a clinician of the athlete may decide; coaching alone never may', () => {
+    const coach = defineAbilityFor(actorFor('coach'));
+    const exception = asSubject('ProgramException', { id: 'x', organizationId: ORG, athleteId: LINKED_ATHLETE });
+    expect(coach.can('create', exception)).toBe(true);
+    expect(coach.can('update', exception)).toBe(false);
+    const both = defineAbilityFor({ ...actorFor('coach'), roles: ['coach', 'clinician'], clinicianOf: [LINKED_ATHLETE] });
+    expect(both.can('update', exception)).toBe(true);
+    // Clinician of another athlete: the role alone opens nothing.
+    const elsewhere = defineAbilityFor({ ...actorFor('clinician'), clinicianOf: [OTHER_ATHLETE] });
+    expect(elsewhere.can('update', exception)).toBe(false);
+    expect(elsewhere.can('read', exception)).toBe(false);
   });
 
   it('asSubject does not tag the caller\'s object', () => {

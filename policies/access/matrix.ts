@@ -242,6 +242,64 @@ const GRID: [SubjectName, Action, Relation, string][] = [
   ['Notification',       'update', 'self',            'Y   Y   Y   Y   Y'],
   ['Notification',       'update', 'same-org',        'n   n   n   n   n'],
   ['Notification',       'update', 'other-org',       'n   n   n   n   n'],
+
+  // The organization's exercise library: names and movement patterns, nothing about a person, so
+  // every member reads it (athletes and guardians see exercise names in sessions). Coaches and
+  // admins keep it; nobody deletes an exercise (archiving is an update), so old sessions still resolve.
+  ['Exercise',           'read',   'same-org',        'Y   Y   Y   Y   Y'],
+  ['Exercise',           'read',   'other-org',       'n   n   n   n   n'],
+  ['Exercise',           'create', 'same-org',        'n   Y   n   n   Y'],
+  ['Exercise',           'create', 'other-org',       'n   n   n   n   n'],
+  ['Exercise',           'update', 'same-org',        'n   Y   n   n   Y'],
+  ['Exercise',           'update', 'other-org',       'n   n   n   n   n'],
+  ['Exercise',           'delete', 'same-org',        'n   n   n   n   n'],
+
+  // Strength baselines (tested or estimated 1RM): the care team records and reads them, the athlete
+  // reads their own; guardians and admins none. Append-only: a new baseline replaces, never edits.
+  ['Baseline',           'read',   'self',            'Y   -   -   -   -'],
+  ['Baseline',           'read',   'own-care-team',   '-   Y   Y   n   -'],
+  ['Baseline',           'read',   'other-athlete',   'n   n   n   n   n'],
+  ['Baseline',           'read',   'other-org',       'n   n   n   n   n'],
+  ['Baseline',           'create', 'self',            'n   -   -   -   -'],
+  ['Baseline',           'create', 'own-care-team',   '-   Y   Y   n   -'],
+  ['Baseline',           'create', 'other-athlete',   'n   n   n   n   n'],
+  ['Baseline',           'create', 'other-org',       'n   n   n   n   n'],
+  ['Baseline',           'update', 'own-care-team',   '-   n   n   n   -'],
+  ['Baseline',           'delete', 'own-care-team',   '-   n   n   n   -'],
+
+  // A program as seen for one of its athletes (a group program is checked athlete by athlete).
+  // Coaches build and edit programs for their care-team athletes; clinicians read them; the athlete
+  // reads their own, published sessions only (the 'published' field, checked in ability.test.ts).
+  // Guardians and admins see none. Sessions are removed through 'update'; a program is never deleted.
+  ['Program',            'read',   'self',            'Y   -   -   -   -'],
+  ['Program',            'read',   'own-care-team',   '-   Y   Y   n   -'],
+  ['Program',            'read',   'other-athlete',   'n   n   n   n   n'],
+  ['Program',            'read',   'other-org',       'n   n   n   n   n'],
+  ['Program',            'create', 'self',            'n   -   -   -   -'],
+  ['Program',            'create', 'own-care-team',   '-   Y   n   n   -'],
+  ['Program',            'create', 'other-athlete',   'n   n   n   n   n'],
+  ['Program',            'create', 'other-org',       'n   n   n   n   n'],
+  ['Program',            'update', 'self',            'n   -   -   -   -'],
+  ['Program',            'update', 'own-care-team',   '-   Y   n   n   -'],
+  ['Program',            'update', 'other-athlete',   'n   n   n   n   n'],
+  ['Program',            'update', 'other-org',       'n   n   n   n   n'],
+  ['Program',            'delete', 'own-care-team',   '-   n   n   n   -'],
+
+  // Going past a cap: the athlete's coach asks, the athlete's clinician decides ('update'); both read
+  // the requests. The athlete, guardians and admins neither ask, decide nor read.
+  ['ProgramException',   'read',   'self',            'n   -   -   -   -'],
+  ['ProgramException',   'read',   'own-care-team',   '-   Y   Y   n   -'],
+  ['ProgramException',   'read',   'other-athlete',   'n   n   n   n   n'],
+  ['ProgramException',   'read',   'other-org',       'n   n   n   n   n'],
+  ['ProgramException',   'create', 'self',            'n   -   -   -   -'],
+  ['ProgramException',   'create', 'own-care-team',   '-   Y   n   n   -'],
+  ['ProgramException',   'create', 'other-athlete',   'n   n   n   n   n'],
+  ['ProgramException',   'create', 'other-org',       'n   n   n   n   n'],
+  ['ProgramException',   'update', 'self',            'n   -   -   -   -'],
+  ['ProgramException',   'update', 'own-care-team',   '-   n   Y   n   -'],
+  ['ProgramException',   'update', 'other-athlete',   'n   n   n   n   n'],
+  ['ProgramException',   'update', 'other-org',       'n   n   n   n   n'],
+  ['ProgramException',   'delete', 'own-care-team',   '-   n   n   n   -'],
 ];
 
 function expand(): MatrixRow[] {

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
-import { checkSets, type Breach, type EngineContext, type EngineExercise, type EngineSet } from '../../../policies/load/compliance';
+import { checkSets, weekOf, type Breach, type EngineContext, type EngineExercise, type EngineSet } from '../../../policies/load/compliance';
 import type { ParticipationStatus } from '../../../policies/load/patterns';
 import type { Unit } from '../../../policies/schemas/common';
 import type { PlannedSetInput, SessionContent } from '../../../policies/schemas/programs';
@@ -118,16 +118,20 @@ export async function breachesFor(m: EntityManager, organizationId: string, athl
  * sessions that fit again come off hold. Runs in the caller's transaction.
  */
 export async function recheckAthlete(m: EntityManager, organizationId: string, athleteId: string, reason: string): Promise<{ held: string[]; released: string[] }> {
-  const sessions = await m
+  const today = todayIso();
+  // From the Monday of this week, so this week's earlier sessions count toward the weekly limits (as
+  // on publish); only sessions from today on are held or released.
+  const thisWeek = await m
     .createQueryBuilder(ProgramSession, 's')
     .innerJoin('programs', 'p', 'p.id = s.program_id')
     .where(':athlete = ANY(p.athlete_ids)', { athlete: athleteId })
     .andWhere(`s.status = 'published'`)
-    .andWhere('s.date >= :today', { today: todayIso() })
+    .andWhere('s.date >= :from', { from: weekOf(today) })
     .orderBy('s.date')
     .getMany();
-  const ctx = await engineContext(m, organizationId, athleteId, sessions, 'kg');
-  const breaches = checkSets(sessions.flatMap(engineSets), ctx).filter((b) => !b.waived);
+  const sessions = thisWeek.filter((s) => s.date >= today);
+  const ctx = await engineContext(m, organizationId, athleteId, thisWeek, 'kg');
+  const breaches = checkSets(thisWeek.flatMap(engineSets), ctx).filter((b) => !b.waived);
   const bySession = new Map<string, Breach[]>();
   for (const b of breaches) bySession.set(b.sessionId, [...(bySession.get(b.sessionId) ?? []), b]);
   const existing = await m.find(SessionHold, { where: { athleteId } });

@@ -79,7 +79,13 @@ export const exerciseRoutes: RouteDef[] = [
         authorize(ability, 'update', 'Exercise', ex);
         await checkReference(m, actor.organizationId, changes.referenceId);
         if (changes.referenceId === ex.id) throw new AppError('validation_failed', 'Please check the form: referenceId cannot be the exercise itself.', { referenceId: ['cannot be the exercise itself'] });
-        await updateVersioned(m, Exercise, ex.id, version, changes as Record<string, unknown>, 'exercise');
+        try {
+          await updateVersioned(m, Exercise, ex.id, version, changes as Record<string, unknown>, 'exercise');
+        } catch (err) {
+          // A rename onto another exercise's name hits the unique index: say so, as create does (was a 500).
+          if (isUniqueViolation(err)) throw new AppError('conflict', `The library already has an exercise named "${changes.name}".`, { name: ['is already in the library'] });
+          throw err;
+        }
         await audit({ action: 'exercise.updated', subjectType: 'Exercise', subjectId: ex.id, before: Object.fromEntries(Object.keys(changes).map((k) => [k, ex[k as keyof Exercise]])), after: changes });
         return toExerciseDto(await m.findOneByOrFail(Exercise, { id: ex.id }));
       });

@@ -24,7 +24,11 @@ export function onlyPublished(actor: ActorWithOrg, program: Program): boolean {
   return !(actor.roles.includes('coach') || actor.roles.includes('clinician')) || !program.athleteIds.some((a) => actor.coachOf.includes(a) || actor.clinicianOf.includes(a));
 }
 
-export async function programDto(m: EntityManager, program: Program, publishedOnly: boolean): Promise<ProgramDto> {
+/**
+ * `holdsOf`: show only that athlete's holds. An athlete reading a group program must not see a
+ * teammate's breaches, which spell out the teammate's caps and 1RM (as the today view filters them).
+ */
+export async function programDto(m: EntityManager, program: Program, publishedOnly: boolean, holdsOf?: string): Promise<ProgramDto> {
   const sessions = await m.find(ProgramSession, { where: { programId: program.id, ...(publishedOnly ? { status: 'published' as const } : {}) }, order: { date: 'ASC', createdAt: 'ASC' } });
   const names: { id: string; name: string }[] = await m.query(
     `SELECT m.id, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
@@ -38,7 +42,7 @@ export async function programDto(m: EntityManager, program: Program, publishedOn
     athleteNames: program.athleteIds.map((id) => byId.get(id) ?? 'Unknown athlete'),
     version: program.version,
     createdAt: program.createdAt.toISOString(),
-    sessions: await sessionDtos(m, sessions, program.name),
+    sessions: (await sessionDtos(m, sessions, program.name)).map((s) => (holdsOf === undefined ? s : { ...s, holds: s.holds.filter((h) => h.athleteId === holdsOf) })),
   };
 }
 

@@ -22,8 +22,10 @@ import type { Unit } from '../../../../policies/schemas/common';
 async function loadSessionWithProgram(m: EntityManager, ability: AppAbility, actor: ActorWithOrg, sessionId: string, action: 'read' | 'update') {
   const session = await m.findOne(ProgramSession, { where: { id: sessionId, organizationId: actor.organizationId } });
   const program = session ? await m.findOne(Program, { where: { id: session.programId } }) : null;
-  authorizeProgram(ability, actor, action, program);
-  if (!session || (action === 'read' && session.status !== 'published' && onlyPublished(actor, program))) throw new AppError('not_found', 'That session was not found.');
+  authorizeProgram(ability, actor, 'read', program);
+  // A draft the caller may not see is not revealed by any action on it (404 before any 403).
+  if (!session || (session.status !== 'published' && onlyPublished(actor, program))) throw new AppError('not_found', 'That session was not found.');
+  if (action !== 'read') authorizeProgram(ability, actor, action, program);
   return { session, program };
 }
 
@@ -75,7 +77,7 @@ export const programRoutes: RouteDef[] = [
         } catch {
           continue;
         }
-        out.push(await programDto(ds.manager, p, onlyPublished(actor, p)));
+        out.push(await programDto(ds.manager, p, onlyPublished(actor, p), onlyPublished(actor, p) ? actor.membershipId : undefined));
       }
       return out;
     },
@@ -109,7 +111,7 @@ export const programRoutes: RouteDef[] = [
     async handler({ ds, ability, actor, params }) {
       const p = await ds.getRepository(Program).findOne({ where: { id: params.id, organizationId: actor.organizationId } });
       authorizeProgram(ability, actor, 'read', p);
-      return programDto(ds.manager, p, onlyPublished(actor, p));
+      return programDto(ds.manager, p, onlyPublished(actor, p), onlyPublished(actor, p) ? actor.membershipId : undefined);
     },
   }),
   orgRoute({
@@ -202,7 +204,7 @@ export const programRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'read', subject: 'Program' },
     params: ProgramItemParamsSchema,
     async handler({ ds, ability, actor, user, params }) {
-      const { session, program } = await loadSessionWithProgram(ds.manager, ability, actor, params.id, 'update');
+      const { session, program } = await loadSessionWithProgram(ds.manager, ability, actor, params.id, 'read');
       return { results: await checkForAthletes(ds.manager, program, [session], user.unitPref) };
     },
   }),
