@@ -22,6 +22,8 @@ export const CaseCreateSchema = z.strictObject({
   /** Shown to the athlete and guardian with the status, in plain words. */
   statusNote: PlainWords.optional(),
   reviewDate: IsoDateSchema.optional(),
+  /** Open the case from this pain report (it is linked to the new case). */
+  painReportId: UuidSchema.optional(),
 });
 export type CaseCreateInput = z.infer<typeof CaseCreateSchema>;
 

@@ -6,7 +6,7 @@ import {
 } from '../../../../policies/schemas';
 import { todayIso } from '../../../../policies/roles';
 import type { CaseDetailDto } from '../../../../policies/dto';
-import { CaseRecord, ParticipationStatusChange } from '../../entities';
+import { CaseRecord, PainReport, ParticipationStatusChange } from '../../entities';
 import { authorize } from '../../http/authorize';
 import { AppError } from '../../http/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
@@ -83,6 +83,12 @@ export const caseRoutes: RouteDef[] = [
             setBy: user.id,
           }),
         );
+        if (body.painReportId) {
+          const linked = await m.update(PainReport, { id: body.painReportId, athleteId: body.athleteId, organizationId: org }, { caseId: saved.id });
+          if (linked.affected !== 1) {
+            throw new AppError('validation_failed', "Please check the form: painReportId must be one of this athlete's pain reports.", { painReportId: ["must be one of this athlete's pain reports"] });
+          }
+        }
         await audit({ action: 'case.opened', subjectType: 'Case', subjectId: saved.id, athleteId: body.athleteId, after: redact(body, CLINICAL_FIELDS) });
         return saved.id;
       });
