@@ -3,7 +3,7 @@ import { fireEvent, render, screen, within } from '@testing-library/react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider, createMemoryRouter } from 'react-router-dom';
 import type { Actor } from '../../../policies/access';
-import type { AthleteProfileDto, CaseloadRowDto, SessionDto } from '../../../policies/dto';
+import type { AthleteProfileDto, CaseloadRowDto, RosterRowDto, SessionDto } from '../../../policies/dto';
 import type { Role } from '../../../policies/roles';
 import type { PatternRule } from '../../../policies/load/patterns';
 import { createQueryClient } from '../lib/query-client';
@@ -116,7 +116,16 @@ describe('app routes', () => {
   });
 
   it('opens a coach on "My athletes" with their care-team athletes, their status and who they are', async () => {
-    serve({ '/session': sessionFor(['coach'], { coachOf: ['m-maya'] }), [`/orgs/${ORG}/caseload`]: [mayaRow()] });
+    const roster: RosterRowDto = {
+      athleteId: 'm-maya',
+      athleteName: 'Maya Torres',
+      status: 'limited',
+      limitsToday: ['Hinge: up to 60% of your best lift'],
+      sessionsOnHold: 1,
+      pendingExceptions: 0,
+      nextSession: null,
+    };
+    serve({ '/session': sessionFor(['coach'], { coachOf: ['m-maya'] }), [`/orgs/${ORG}/roster`]: [roster] });
     const router = renderAt('/');
     expect(await screen.findByRole('heading', { name: 'My athletes' })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe('/coach');
@@ -125,7 +134,9 @@ describe('app routes', () => {
     expect(within(table).getByRole('img', { name: 'Participation status: Limited' })).toBeInTheDocument();
     expect(screen.getByText('theo@x.test · Coach')).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Sign out' })).toBeInTheDocument();
-    expect(screen.getByText('Programs arrive in a coming release')).toBeInTheDocument();
+    expect(within(table).getByText('Hinge: up to 60% of your best lift')).toBeInTheDocument();
+    expect(within(table).getByText('1 on hold')).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'New program' })).toBeInTheDocument();
   });
 
   it('opens a clinician on "My caseload" with their athletes only, and no pain report yet', async () => {

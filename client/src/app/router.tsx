@@ -8,13 +8,23 @@ import { AccountPage } from './routes/account';
 import { NotFoundPage } from './routes/not-found';
 import { CoachHome } from './routes/coach';
 import { CoachAthletePage } from './routes/coach-athlete';
+import { CoachExercisesPage } from './routes/coach/exercises';
+import { CoachProgramPage } from './routes/coach/program';
 import { ClinicianLayout } from './routes/clinician/clinician-layout';
 import { ClinicianHome } from './routes/clinician/caseload';
 import { ClinicianAthletePage } from './routes/clinician/athlete';
 import { ClinicianCasePage } from './routes/clinician/case';
 import { ClinicianAuditPage } from './routes/clinician/audit';
+import { ClinicianExceptionsPage } from './routes/clinician/exceptions';
 import { AthleteHome } from './routes/athlete';
 import { GuardianHome } from './routes/guardian';
+import { ReportPainPage } from './routes/athlete/report';
+import { CheckInPage } from './routes/athlete/check-in';
+import { LogSessionPage } from './routes/athlete/log';
+import { MyWeekPage } from './routes/athlete/week';
+import { StaffWorkloadPage } from './routes/staff/workload';
+import { StaffFlagsPage } from './routes/staff/flags';
+import { NoticesPage } from './routes/notices';
 import { AdminLayout } from './routes/admin/admin-layout';
 import { PeoplePage } from './routes/admin/people';
 import { PersonPage } from './routes/admin/person';
@@ -44,6 +54,8 @@ export const routes = [
           },
           { path: '/coach', element: <CoachHome /> },
           { path: '/coach/athletes/:athleteId', element: <CoachAthletePage /> },
+          { path: '/coach/exercises', element: <CoachExercisesPage /> },
+          { path: '/coach/programs/:programId', element: <CoachProgramPage /> },
           {
             path: '/clinician',
             element: <ClinicianLayout />,
@@ -51,10 +63,18 @@ export const routes = [
               { index: true, element: <ClinicianHome /> },
               { path: 'athletes/:athleteId', element: <ClinicianAthletePage /> },
               { path: 'cases/:caseId', element: <ClinicianCasePage /> },
+              { path: 'exceptions', element: <ClinicianExceptionsPage /> },
               { path: 'audit', element: <ClinicianAuditPage /> },
             ],
           },
           { path: '/athlete', element: <AthleteHome /> },
+          { path: '/athlete/report', element: <ReportPainPage /> },
+          { path: '/athlete/check-in', element: <CheckInPage /> },
+          { path: '/athlete/log', element: <LogSessionPage /> },
+          { path: '/athlete/week', element: <MyWeekPage /> },
+          { path: '/staff/athletes/:athleteId/workload', element: <StaffWorkloadPage /> },
+          { path: '/staff/flags', element: <StaffFlagsPage /> },
+          { path: '/notices', element: <NoticesPage /> },
           { path: '/guardian', element: <GuardianHome /> },
           { path: '/account', element: <AccountPage /> },
           { path: '*', element: <NotFoundPage /> },

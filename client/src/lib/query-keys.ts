@@ -21,4 +21,17 @@ export const queryKeys = {
   /** Prefix of every in-force query; any change to a case or plan can move what is in force. */
   inForceAll: (orgId: string) => ['orgs', orgId, 'in-force'] as const,
   inForce: (orgId: string, athleteId: string, date: string) => ['orgs', orgId, 'in-force', athleteId, date] as const,
+  // Athlete reports. Each "All" key is the prefix a write invalidates.
+  painReportsAll: (orgId: string) => ['orgs', orgId, 'pain-reports'] as const,
+  painReports: (orgId: string, athleteId: string) => ['orgs', orgId, 'pain-reports', athleteId] as const,
+  checkInsAll: (orgId: string) => ['orgs', orgId, 'check-ins'] as const,
+  checkIns: (orgId: string, athleteId: string, range: { from: string; to: string }) => ['orgs', orgId, 'check-ins', athleteId, range] as const,
+  trainingLogsAll: (orgId: string) => ['orgs', orgId, 'training-logs'] as const,
+  trainingLogs: (orgId: string, athleteId: string, range: { from: string; to: string }) =>
+    ['orgs', orgId, 'training-logs', athleteId, range] as const,
+  workloadAll: (orgId: string) => ['orgs', orgId, 'workload'] as const,
+  workload: (orgId: string, athleteId: string, to: string, days: number) => ['orgs', orgId, 'workload', athleteId, to, days] as const,
+  flagsAll: (orgId: string) => ['orgs', orgId, 'flags'] as const,
+  flags: (orgId: string, filters: { athleteId?: string; state: string }) => ['orgs', orgId, 'flags', filters] as const,
+  notifications: (orgId: string) => ['orgs', orgId, 'notifications'] as const,
 };

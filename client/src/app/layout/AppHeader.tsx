@@ -3,6 +3,7 @@ import { Link, NavLink, useNavigate } from 'react-router-dom';
 import type { MembershipSummaryDto, UserDto } from '../../../../policies/dto';
 import { ROLE_LABELS } from '../../../../policies/roles';
 import type { useSignOut } from '../../features/auth/api/sign-out';
+import { NoticesLink } from '../../features/notifications/components/NoticesLink';
 import { Button } from '../../components/ui/Button';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { cx } from '../../components/ui/cx';
@@ -70,6 +71,7 @@ export function AppHeader({
             </p>
           </div>
           <div className="flex items-center gap-2">
+            {membership && <NoticesLink orgId={membership.organizationId} />}
             <NavLink
               to="/account"
               className={({ isActive }) => cx('rounded px-1 text-sm font-semibold', isActive && 'underline decoration-line decoration-2')}

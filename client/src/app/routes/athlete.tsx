@@ -3,13 +3,15 @@ import { AthleteCard } from '../../features/athletes/components/AthleteCard';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
+import { TodaySessions } from '../../features/programs/components/TodaySessions';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
-import { ComingLater, Loading, PageHeader } from '../../components/ui/Panel';
+import { Loading, PageHeader } from '../../components/ui/Panel';
 import { todayLocal } from '../../lib/dates';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { RoleGate } from '../layout/RoleGate';
+import { AthleteActions } from './athlete/AthleteActions';
 
 export function AthleteHome() {
   useDocumentTitle('My profile');
@@ -28,6 +30,8 @@ function AthleteProfile() {
   return (
     <div className="mx-auto max-w-xl space-y-5">
       <PageHeader title="My profile">What {membership.organizationName} has on record for you, and who looks after you.</PageHeader>
+      <AthleteActions orgId={orgId} athleteId={membership.id} />
+      <TodaySessions athleteId={membership.id} />
       <MyToday athleteId={membership.id} />
       <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {athlete.isPending ? (
@@ -37,12 +41,6 @@ function AthleteProfile() {
       ) : (
         <AthleteCard athlete={athlete.data} self />
       )}
-      <ComingLater title="Pain reports and training logs arrive in a coming release">
-        <p>
-          Soon you will report pain here and log each session. Until then, tell your clinician or coach about any pain in
-          person, straight away.
-        </p>
-      </ComingLater>
     </div>
   );
 }

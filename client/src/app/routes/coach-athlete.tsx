@@ -7,7 +7,10 @@ import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { usePlans } from '../../features/plans/api/get-plan';
 import { InForceSummary } from '../../features/plans/components/InForceSummary';
 import { PlanStagesView } from '../../features/plans/components/PlanStagesView';
+import { AthletePrograms } from '../../features/programs/components/AthletePrograms';
+import { BaselinesPanel } from '../../features/programs/components/BaselinesPanel';
 import { ClinicalRecordCaution } from '../../components/Cautions';
+import { ButtonLink } from '../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../components/ui/Notice';
 import { Badge, Facts, Loading, PageHeader, Panel } from '../../components/ui/Panel';
 import { StatusMark } from '../../components/ui/StatusMark';
@@ -16,6 +19,7 @@ import { formatDate } from '../../lib/format';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { RoleGate } from '../layout/RoleGate';
+import { staffWorkloadHref } from './staff/paths';
 
 /**
  * One athlete for their coach: status, dates and the functional limits in force today and coming.
@@ -69,7 +73,14 @@ function AthleteLimits({ row }: { row: CaseloadRowDto }) {
 
   return (
     <>
-      <PageHeader title={row.athleteName}>
+      <PageHeader
+        title={row.athleteName}
+        actions={
+          <ButtonLink to={staffWorkloadHref(row.athleteId)} variant="secondary">
+            Workload and pain
+          </ButtonLink>
+        }
+      >
         {[row.sport, row.age !== null ? `${row.age} years` : null].filter(Boolean).join(' · ')}
         {row.isMinor && (
           <>
@@ -128,6 +139,15 @@ function AthleteLimits({ row }: { row: CaseloadRowDto }) {
           <PlanStagesView stages={upcoming} unit={user.unitPref} today={today} numbers={numbers} />
         )}
         {plans.map((p, i) => p.isError && <ErrorNotice key={planIds[i]} error={p.error} className="mt-3" />)}
+      </Panel>
+
+      <Panel title="Programs">
+        <AthletePrograms orgId={orgId} athleteId={row.athleteId} athleteName={row.athleteName} today={today} />
+      </Panel>
+
+      <Panel title="Baselines">
+        <p className="mb-3 text-sm text-muted">Each lift&apos;s current 1RM: caps given as a % of 1RM are worked out from it.</p>
+        <BaselinesPanel orgId={orgId} athleteId={row.athleteId} unit={user.unitPref} canRecord />
       </Panel>
     </>
   );

@@ -1,11 +1,13 @@
-import { useCaseload } from '../../features/caseload/api/get-caseload';
-import { CaseloadTable } from '../../features/caseload/components/CaseloadTable';
+import { useRoster } from '../../features/programs/api/get-roster';
+import { NewProgram } from '../../features/programs/components/NewProgramForm';
+import { RosterTable } from '../../features/programs/components/RosterTable';
+import { ButtonLink } from '../../components/ui/Button';
 import { ErrorNotice } from '../../components/ui/Notice';
-import { ComingLater, Loading, PageHeader } from '../../components/ui/Panel';
+import { Loading, PageHeader } from '../../components/ui/Panel';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { RoleGate } from '../layout/RoleGate';
-import { MarksLegend } from './legend';
+import { STAFF_FLAGS } from './staff/paths';
 
 export const coachAthleteHref = (athleteId: string) => `/coach/athletes/${athleteId}`;
 
@@ -20,33 +22,40 @@ export function CoachHome() {
 
 function CoachRoster() {
   const { orgId, membership } = useCurrentMembership();
-  const caseload = useCaseload(orgId);
+  const roster = useRoster(orgId);
   // An admin who also coaches is sent everyone; this page is the athletes they coach.
-  const mine = (caseload.data ?? []).filter((r) => membership.actor.coachOf.includes(r.athleteId));
+  const mine = (roster.data ?? []).filter((r) => membership.actor.coachOf.includes(r.athleteId));
   return (
     <div className="space-y-5">
-      <PageHeader title="My athletes">
-        Athletes whose care team you are on as their coach. Open an athlete to see the limits their clinician set.
+      <PageHeader
+        title="My athletes"
+        actions={
+          <>
+            <ButtonLink to="/coach/exercises" variant="secondary">
+              Exercise library
+            </ButtonLink>
+            <ButtonLink to={STAFF_FLAGS} variant="secondary">
+              Flags
+            </ButtonLink>
+          </>
+        }
+      >
+        Athletes whose care team you are on as their coach: who is limited today, which sessions are on hold, and what
+        waits for a clinician. Open an athlete for their limits, programs and 1RMs.
       </PageHeader>
-      {caseload.isPending ? (
+      <NewProgram orgId={orgId} athletes={mine.map((r) => ({ id: r.athleteId, name: r.athleteName }))} />
+      {roster.isPending ? (
         <Loading what="athletes" />
-      ) : caseload.isError ? (
-        <ErrorNotice error={caseload.error} />
+      ) : roster.isError ? (
+        <ErrorNotice error={roster.error} />
       ) : (
-        <CaseloadTable
+        <RosterTable
           rows={mine}
           caption="Athletes you coach"
           empty="You are not on any athlete's care team yet. Your organization's administrator adds coaches to care teams."
           athleteHref={coachAthleteHref}
         />
       )}
-      <ComingLater title="Programs arrive in a coming release">
-        <p>
-          Writing programs, and checking every planned set against these limits, come next. Until then, program by hand
-          under the limits on each athlete&apos;s page.
-        </p>
-        <MarksLegend />
-      </ComingLater>
     </div>
   );
 }

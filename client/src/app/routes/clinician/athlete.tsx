@@ -8,7 +8,7 @@ import { CaseList } from '../../../features/cases/components/CaseList';
 import { OpenCaseForm } from '../../../features/cases/components/OpenCaseForm';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
-import { Button } from '../../../components/ui/Button';
+import { Button, ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Badge, Loading, PageHeader, Panel } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
@@ -17,6 +17,7 @@ import { formatDate } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
 import { clinicianCaseHref } from './paths';
+import { staffWorkloadHref } from '../staff/paths';
 
 export function ClinicianAthletePage() {
   const { athleteId = '' } = useParams();
@@ -60,12 +61,16 @@ function AthleteCases({ athleteId, row }: { athleteId: string; row: CaseloadRowD
       <PageHeader
         title={row.athleteName}
         actions={
-          canOpen &&
-          !opening && (
-            <Button onClick={() => setOpening(true)} variant="primary">
-              Open a case
-            </Button>
-          )
+          <>
+            <ButtonLink to={staffWorkloadHref(athleteId)} variant="secondary">
+              Workload and pain
+            </ButtonLink>
+            {canOpen && !opening && (
+              <Button onClick={() => setOpening(true)} variant="primary">
+                Open a case
+              </Button>
+            )}
+          </>
         }
       >
         <span className="flex flex-wrap items-center gap-x-3 gap-y-1">

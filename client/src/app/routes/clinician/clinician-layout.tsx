@@ -4,6 +4,8 @@ import { RoleGate } from '../../layout/RoleGate';
 
 const LINKS = [
   { to: '/clinician', label: 'Caseload', end: true },
+  { to: '/staff/flags', label: 'Flags', end: false },
+  { to: '/clinician/exceptions', label: 'Exception requests', end: false },
   { to: '/clinician/audit', label: 'Audit trail', end: false },
 ];
 

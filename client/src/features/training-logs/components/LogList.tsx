@@ -1,0 +1,56 @@
+import type { TrainingLogDto } from '../../../../../policies/dto';
+import type { Unit } from '../../../../../policies/schemas';
+import { formatLoad } from '../../../../../policies/load/units';
+import { formatDate } from '../../../lib/format';
+import { LineBar } from '../../../components/ui/LineBar';
+import { effortWords } from './effort-words';
+
+/** "Back squat 3 × 5 at 60 kg": identical consecutive sets are folded into one line. */
+export function setsSummary(sets: TrainingLogDto['sets'], unit: Unit): string[] {
+  const lines: { text: string; count: number }[] = [];
+  for (const s of sets) {
+    const text = `${s.exercise} — ${s.reps} reps at ${s.loadKg === 0 ? 'body weight' : formatLoad(s.loadKg, unit)}`;
+    const last = lines.at(-1);
+    if (last && last.text === text) last.count += 1;
+    else lines.push({ text, count: 1 });
+  }
+  return lines.map((l) => (l.count > 1 ? `${l.count} sets: ${l.text}` : l.text));
+}
+
+/**
+ * The athlete's sessions, newest first, each with its pain drawn against the clinician's ceiling
+ * (the product's line), so a breach is the bar crossing it, plus words.
+ */
+export function LogList({ logs, unit, empty }: { logs: readonly TrainingLogDto[]; unit: Unit; empty: string }) {
+  if (logs.length === 0) return <p className="text-sm text-ink-2">{empty}</p>;
+  return (
+    <ol className="space-y-3">
+      {logs.map((log) => (
+        <li key={log.id} className="rounded-lg border border-rule bg-sheet p-4">
+          <h3 className="font-bold tabular-nums">{formatDate(log.date)}</h3>
+          <p className="text-sm text-ink-2 tabular-nums">
+            {log.durationMinutes} min · effort {log.sessionRpe} ({effortWords(log.sessionRpe).toLowerCase()}) · load {log.sessionLoad}
+          </p>
+          <div className="mt-2 space-y-2">
+            <LineBar label={`Pain during, ${formatDate(log.date)}`} value={log.painDuring} limit={log.painCeiling} max={10} format={String} />
+            <p className="text-sm tabular-nums">
+              Pain before {log.painBefore}/10 · next morning{' '}
+              {log.painNextMorning === null ? 'not given yet' : `${log.painNextMorning}/10`}
+              {log.painNextMorning !== null && log.painNextMorning > log.painBefore && (
+                <span className="font-semibold text-line-deep"> — higher than before the session</span>
+              )}
+            </p>
+          </div>
+          {log.sets.length > 0 && (
+            <ul className="mt-2 list-disc pl-5 text-sm">
+              {setsSummary(log.sets, unit).map((line, i) => (
+                <li key={i}>{line}</li>
+              ))}
+            </ul>
+          )}
+          {log.notes && <p className="mt-2 text-sm text-ink-2">“{log.notes}”</p>}
+        </li>
+      ))}
+    </ol>
+  );
+}
