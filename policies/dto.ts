@@ -400,3 +400,49 @@ export interface TodayDto {
   unit: import('./schemas/common').Unit;
   sessions: (ProgramSessionDto & { onHold: boolean; exerciseNames: Record<string, string>; loadsKg: Record<string, number | null> })[];
 }
+
+// ---- Letters ----
+export interface LetterDto {
+  id: string;
+  athleteId: string;
+  athleteName: string;
+  decision: 'full' | 'limited';
+  effectiveFrom: string;
+  validUntil: string | null;
+  limits: string[];
+  clinicianName: string;
+  credential: string;
+  licenceNumber: string;
+  familyNote: string;
+  signature: string | null;
+  signedAt: string | null;
+  status: 'draft' | 'signed' | 'superseded';
+  supersededBy: string | null;
+  pdfSha256: string | null;
+  version: number;
+  createdAt: string;
+  acknowledgements: { guardianId: string; guardianName: string; acknowledgedAt: string }[];
+  /** Clinicians and admins only. */
+  deliveries?: { id: string; to: string; status: string; attempts: number; lastError: string | null; sentAt: string | null }[];
+  /** Shown once, in the response that signs the letter. */
+  verificationCode?: string;
+}
+
+export interface LetterCheckDto {
+  status: 'valid' | 'superseded' | 'unknown';
+  athleteInitials?: string;
+  decision?: string;
+  effectiveFrom?: string;
+  validUntil?: string | null;
+  organizationName?: string;
+  issuedOn?: string;
+}
+
+export interface OutboxMessageDto {
+  id: string;
+  receivedAt: string;
+  to: string[];
+  subject: string | null;
+  text: string | null;
+  attachments: { filename: string; contentType: string; size: number }[];
+}

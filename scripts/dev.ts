@@ -9,6 +9,7 @@ import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { loadDemo } from '../server/src/seed/demo';
 import { ROOT, migrate, openDatabase, sessionSecret } from './runtime';
+import { startFakeSmtp } from '../server/src/mail/fake-smtp';
 
 const db = await openDatabase('loadline', false);
 process.on('exit', () => db.cluster?.stop());
@@ -18,7 +19,14 @@ await seedDs.initialize();
 await loadDemo(seedDs);
 await seedDs.destroy();
 
-const config = loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret(), CLIENT_DIST: '/nonexistent' });
+const fake = process.env.SMTP_URL ? null : await startFakeSmtp(db.url, 0);
+const config = loadConfig({
+  ...process.env,
+  ...(fake ? { SMTP_URL: fake.url, FAKE_MAIL: 'true' } : {}),
+  DATABASE_URL: db.url,
+  SESSION_SECRET: sessionSecret(),
+  CLIENT_DIST: '/nonexistent',
+});
 const api = await startServer(config, createLogger(config.LOG_LEVEL));
 const { createServer } = await import('vite');
 process.env.API_PORT = String(new URL(api.url).port);
@@ -29,6 +37,6 @@ console.log(`API on ${api.url}; the dev server proxies /api to it.`);
 
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
   process.on(signal, () => {
-    Promise.allSettled([vite.close(), api.stop()]).finally(() => process.exit(0));
+    Promise.allSettled([vite.close(), api.stop(), fake?.stop()]).finally(() => process.exit(0));
   });
 }

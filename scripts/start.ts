@@ -8,6 +8,7 @@ import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { DEMO_PASSWORD, DEMO_PEOPLE, loadDemo } from '../server/src/seed/demo';
 import { buildClient, migrate, openDatabase, sessionSecret } from './runtime';
+import { startFakeSmtp, type FakeSmtp } from '../server/src/mail/fake-smtp';
 
 const db = await openDatabase('loadline', false);
 let stopping = false;
@@ -25,12 +26,17 @@ try {
   console.log('[client] building…');
   await buildClient();
 
-  const config = loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() });
+  // Without SMTP_URL, mail goes to our local fake SMTP server (loopback) and the admin's outbox page.
+  let fake: FakeSmtp | null = null;
+  if (!process.env.SMTP_URL) fake = await startFakeSmtp(db.url, Number(process.env.LOADLINE_SMTP_PORT ?? 0));
+  const mailEnv = fake ? { SMTP_URL: fake.url, FAKE_MAIL: 'true' } : {};
+  const config = loadConfig({ ...process.env, ...mailEnv, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() });
   const logger = createLogger(config.LOG_LEVEL);
   const running = await startServer(config, logger);
 
   const width = Math.max(...DEMO_PEOPLE.map((p) => p.email.length));
-  console.log(`\nLoadline is running at ${config.PUBLIC_URL ?? running.url}\n`);
+  console.log(`\nLoadline is running at ${config.PUBLIC_URL ?? running.url}`);
+  console.log(fake ? `E-mail goes to the local fake SMTP server on 127.0.0.1:${fake.port} (admins: Outbox page).\n` : `E-mail goes to ${config.SMTP_URL}.\n`);
   console.log(`Demo accounts (password for all: ${DEMO_PASSWORD}):`);
   for (const p of DEMO_PEOPLE) console.log(`  ${p.email.padEnd(width)}  ${p.roles.join(', ').padEnd(9)}  ${p.name}`);
   console.log('\nPress Ctrl-C to stop.\n');
@@ -42,6 +48,7 @@ try {
       console.log(`\n${signal}: stopping the server…`);
       running
         .stop()
+        .then(() => fake?.stop())
         .catch((err) => console.error(err))
         .finally(() => {
           stopDb();

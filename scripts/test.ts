@@ -12,6 +12,7 @@ import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { loadDemo } from '../server/src/seed/demo';
 import { ROOT, buildClient, migrate, openDatabase } from './runtime';
+import { startFakeSmtp } from '../server/src/mail/fake-smtp';
 
 const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 const args = new Set(process.argv.slice(2));
@@ -67,8 +68,11 @@ try {
     await loadDemo(seedDs);
     await seedDs.destroy();
     await buildClient();
+    const fake = await startFakeSmtp(db.url, 0);
     const config = loadConfig({
       ...process.env,
+      SMTP_URL: fake.url,
+      FAKE_MAIL: 'true',
       DATABASE_URL: db.url,
       SESSION_SECRET: 'e2e-secret-e2e-secret-e2e-secret-e2e-secret',
       PORT: '0',
@@ -83,6 +87,7 @@ try {
       if (code !== 0) throw new Error('browser tests failed');
     } finally {
       await server.stop();
+      await fake.stop();
     }
   }
   console.log('\nAll tests passed.');

@@ -14,6 +14,7 @@ import { caseRules } from './case';
 import { restrictionPlanRules } from './restriction-plan';
 import { athleteReportRules } from './athlete-reports';
 import { programRules } from './program';
+import { letterRules } from './letter';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -28,6 +29,7 @@ const RULE_SETS: RuleSet[] = [
   restrictionPlanRules,
   athleteReportRules,
   programRules,
+  letterRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

@@ -31,6 +31,10 @@ export interface SubjectShapes {
   /** A program as seen for one of its athletes. */
   Program: { id: string; organizationId: string; athleteId: string };
   ProgramException: { id: string; organizationId: string; athleteId: string };
+  Letter: { id: string; organizationId: string; athleteId: string };
+  LetterAcknowledgement: { organizationId: string; athleteId: string };
+  /** The local fake mail server's messages (only while it is in use). */
+  Outbox: { organizationId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -55,6 +59,9 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Baseline',
   'Program',
   'ProgramException',
+  'Letter',
+  'LetterAcknowledgement',
+  'Outbox',
 ];
 
 type TaggedSubjects = {

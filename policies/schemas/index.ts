@@ -5,3 +5,4 @@ export * from './people';
 export * from './cases';
 export * from './athlete';
 export * from './programs';
+export * from './letters';

@@ -5,6 +5,7 @@ import express, { Router } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { Deps } from './http/context';
+import type { JobQueue } from './jobs/queue';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { mountRoutes } from './http/route';
 import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
@@ -27,15 +28,16 @@ import { exerciseRoutes } from './routes/programs/exercises.router';
 import { programRoutes } from './routes/programs/programs.router';
 import { exceptionRoutes } from './routes/programs/exceptions.router';
 import { rosterRoutes } from './routes/programs/roster.router';
+import { letterRoutes } from './routes/letters/letters.router';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 
-export type AppDeps = Omit<Deps, 'passport'>;
+export type AppDeps = Omit<Deps, 'passport' | 'jobs'> & { jobs?: JobQueue | null };
 
 /** Builds the Express app (no listen). The returned `close` ends the app's own pools. */
 export function buildApp(base: AppDeps) {
   const passport = buildPassport(base as Deps);
-  const deps: Deps = { ...base, passport };
+  const deps: Deps = { ...base, jobs: base.jobs ?? null, passport };
   const { config } = deps;
   const app = express();
   app.disable('x-powered-by');
@@ -110,6 +112,7 @@ export function buildApp(base: AppDeps) {
     ...programRoutes,
     ...exceptionRoutes,
     ...rosterRoutes,
+    ...letterRoutes(deps),
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

@@ -18,6 +18,12 @@ const ConfigSchema = z.object({
   INVITATION_TTL_HOURS: z.coerce.number().min(1).max(24 * 14).default(72),
   BCRYPT_COST: z.coerce.number().int().min(12).max(15).default(12),
   CLIENT_DIST: z.string().optional(),
+  /** Where e-mail goes. Unset: no e-mail is queued (the app still works; notices stay in-app). */
+  SMTP_URL: z.string().optional(),
+  /** Set by npm start / npm test when SMTP_URL is our local fake: enables the admin's outbox page. */
+  FAKE_MAIL: z.enum(['true', 'false']).default('false'),
+  /** Run the e-mail worker in this process (one or more app servers may do so). */
+  RUN_WORKERS: z.enum(['true', 'false']).default('true'),
 });
 
 export type Config = z.infer<typeof ConfigSchema>;

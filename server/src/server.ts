@@ -5,9 +5,13 @@ import type { Logger } from 'pino';
 import { buildApp } from './app';
 import type { Config } from './config';
 import { createDataSource } from './data-source';
+import { JobQueue, setNoticeQueue } from './jobs/queue';
+import { setNoticeBaseUrl } from './services/notify';
+import { createTransport, deliver } from './mail/deliveries';
 
 export interface RunningServer {
   url: string;
+  jobs: JobQueue | null;
   server: Server;
   ds: DataSource;
   /** Stops taking connections, lets in-flight requests finish, closes the pools. */
@@ -23,7 +27,18 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
   await ds.initialize();
   const pool = (ds.driver as unknown as { master: import('pg').Pool }).master;
   pool.on('error', (err) => logger.warn({ err }, 'database pool: idle client error'));
-  const { app, close } = buildApp({ ds, config, logger });
+  // E-mail goes through the queue; this process also works the queue unless told not to.
+  let jobs: JobQueue | null = null;
+  if (config.SMTP_URL) {
+    jobs = new JobQueue(config.DATABASE_URL, logger);
+    await jobs.start();
+    if (config.RUN_WORKERS === 'true') {
+      const transport = createTransport(config.SMTP_URL);
+      await jobs.work((job) => deliver(ds, transport, logger, job.deliveryId));
+    }
+  }
+  setNoticeQueue(jobs);
+  const { app, close } = buildApp({ ds, config, logger, jobs });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
     s.on('error', reject);
@@ -32,9 +47,11 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
+  setNoticeBaseUrl(config.PUBLIC_URL ?? url);
   let stopping: Promise<void> | null = null;
   return {
     url,
+    jobs,
     server,
     ds,
     stop() {
@@ -45,6 +62,7 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
           // Requests still running after 10 s are cut, so shutdown always ends.
           setTimeout(() => server.closeAllConnections(), 10_000).unref();
         });
+        await jobs?.stop();
         await close();
         await ds.destroy();
       })();

@@ -21,11 +21,14 @@ import { Program } from './program.entity';
 import { ProgramSession } from './program-session.entity';
 import { SessionHold } from './session-hold.entity';
 import { ProgramException } from './program-exception.entity';
+import { ClearanceLetter } from './clearance-letter.entity';
+import { EmailDelivery } from './email-delivery.entity';
+import { LetterAcknowledgement } from './letter-acknowledgement.entity';
 
 export {
   Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
   ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion, PainReport, CheckIn, TrainingLog, Flag, Notification,
-  Exercise, Baseline, Program, ProgramSession, SessionHold, ProgramException,
+  Exercise, Baseline, Program, ProgramSession, SessionHold, ProgramException, ClearanceLetter, EmailDelivery, LetterAcknowledgement,
 };
 
 export const ENTITIES = [
@@ -52,4 +55,7 @@ export const ENTITIES = [
   ProgramSession,
   SessionHold,
   ProgramException,
+  ClearanceLetter,
+  EmailDelivery,
+  LetterAcknowledgement,
 ];

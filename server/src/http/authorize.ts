@@ -25,6 +25,9 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Baseline: 'baseline',
   Program: 'program',
   ProgramException: 'exception request',
+  Letter: 'letter',
+  LetterAcknowledgement: 'acknowledgement',
+  Outbox: 'outbox',
 };
 
 /**

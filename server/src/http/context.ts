@@ -2,6 +2,7 @@ import type { Request, Response } from 'express';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Logger } from 'pino';
 import type { buildPassport as buildPassportType } from './security';
+import type { JobQueue } from '../jobs/queue';
 import type { AppAbility } from '../../../policies/access';
 import type { Config } from '../config';
 import type { User } from '../entities';
@@ -13,6 +14,8 @@ export interface Deps {
   config: Config;
   logger: Logger;
   passport: ReturnType<typeof buildPassportType>;
+  /** The job queue, when e-mail is configured. */
+  jobs: JobQueue | null;
 }
 
 /** Writes an audit entry in the surrounding transaction; actor, organization and request id are filled in. */

@@ -159,6 +159,9 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Baseline: 'baselines',
   Program: 'programs',
   ProgramException: 'exceptions',
+  Letter: 'clearance letters',
+  LetterAcknowledgement: 'letter acknowledgements',
+  Outbox: 'the test outbox',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

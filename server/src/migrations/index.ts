@@ -3,6 +3,7 @@ import { CreateCasesAndPlans1764700000000 } from './1764700000000-create-cases-a
 import { CreateAthleteReports1764800000000 } from './1764800000000-create-athlete-reports';
 import { CreatePrograms1764900000000 } from './1764900000000-create-programs';
 import { AddAthleteIndexes1765000000000 } from './1765000000000-add-athlete-indexes';
+import { CreateLettersAndMail1765100000000 } from './1765100000000-create-letters-and-mail';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -11,4 +12,5 @@ export const MIGRATIONS = [
   CreateAthleteReports1764800000000,
   CreatePrograms1764900000000,
   AddAthleteIndexes1765000000000,
+  CreateLettersAndMail1765100000000,
 ];

@@ -1,5 +1,11 @@
 import type { EntityManager } from 'typeorm';
 import { Notification } from '../entities';
+import { getNoticeQueue } from '../jobs/queue';
+import { enqueueEmail } from '../mail/deliveries';
+import { emails } from '../../../templates/email/messages';
+
+/** Notices that also go out by e-mail: the ones someone must act on, not routine news. */
+const EMAILED_KINDS = new Set(['red_flag_emergency', 'red_flag_emergency_guardian', 'red_flag_urgent', 'status_out', 'sessions_on_hold', 'exception_requested', 'exception_granted', 'exception_refused']);
 
 export interface AthleteCircle {
   clinicians: string[];
@@ -40,4 +46,25 @@ export async function notify(m: EntityManager, recipientIds: string[], notice: N
     Notification,
     unique.map((recipientId) => ({ ...notice, recipientId })),
   );
+  const queue = getNoticeQueue();
+  if (!queue || !EMAILED_KINDS.has(notice.kind)) return;
+  const people: { id: string; email: string; name: string }[] = await m.query(
+    `SELECT m.id, u.email, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
+    [unique],
+  );
+  for (const p of people) {
+    await enqueueEmail(m, queue, {
+      organizationId: notice.organizationId,
+      kind: `notice:${notice.kind}`,
+      to: p.email,
+      recipientId: p.id,
+      content: emails.notice({ name: p.name, title: notice.title, body: notice.body, url: `${noticeBaseUrl}/notices` }),
+    });
+  }
+}
+
+/** Base URL for links in e-mails (PUBLIC_URL, or the server's own address). */
+let noticeBaseUrl = 'http://127.0.0.1:3000';
+export function setNoticeBaseUrl(url: string): void {
+  noticeBaseUrl = url.replace(/\/$/, '');
 }

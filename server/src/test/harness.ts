@@ -6,6 +6,9 @@ import pino from 'pino';
 import { buildApp } from '../app';
 import { loadConfig, type Config } from '../config';
 import { createDataSource } from '../data-source';
+import { startFakeSmtp, type FakeSmtp } from '../mail/fake-smtp';
+import { JobQueue } from '../jobs/queue';
+import { createTransport, deliver } from '../mail/deliveries';
 
 export const TEST_SECRET = 'test-secret-that-is-long-enough-for-the-config-check';
 
@@ -13,26 +16,39 @@ export interface Harness {
   app: Express;
   ds: DataSource;
   config: Config;
+  /** With `{ mail: true }`: the real fake SMTP server and the pg-boss queue with its worker. */
+  smtp?: FakeSmtp;
+  jobs?: JobQueue;
 }
 
 /**
  * Builds the real app on the real test database for one test file. Each test creates its own
  * organization through the factories, so files never depend on each other's rows.
  */
-export function useHarness(overrides: Record<string, string> = {}): Harness {
+export function useHarness(overrides: Record<string, string> = {}, opts: { mail?: boolean } = {}): Harness {
   const h = {} as Harness;
   let close: (() => Promise<void>) | undefined;
   beforeAll(async () => {
     const url = inject('databaseUrl');
-    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', ...overrides });
+    const logger = pino({ level: 'silent' });
+    if (opts.mail) h.smtp = await startFakeSmtp(url, 0);
+    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}), ...overrides });
     h.ds = createDataSource(url, 5);
     await h.ds.initialize();
-    const built = buildApp({ ds: h.ds, config: h.config, logger: pino({ level: 'silent' }) });
+    if (opts.mail) {
+      h.jobs = new JobQueue(url, logger);
+      await h.jobs.start();
+      const transport = createTransport(h.smtp!.url);
+      await h.jobs.work((job) => deliver(h.ds, transport, logger, job.deliveryId));
+    }
+    const built = buildApp({ ds: h.ds, config: h.config, logger, jobs: h.jobs ?? null });
     h.app = built.app;
     close = built.close;
   });
   afterAll(async () => {
+    await h.jobs?.stop();
     await close?.();
+    await h.smtp?.stop();
     await h.ds?.destroy();
   });
   return h;

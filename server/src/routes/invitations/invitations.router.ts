@@ -9,6 +9,9 @@ import { signInLimits } from '../../http/security';
 import { acceptInvitation, findUsableInvitation, newInvitationToken, toInvitationDto } from '../../services/invitations';
 import { sessionDto } from '../../services/session-dto';
 import { startSession } from '../../services/sign-in';
+import { enqueueEmail } from '../../mail/deliveries';
+import { emails } from '../../../../templates/email/messages';
+import { ROLE_LABELS } from '../../../../policies/roles';
 
 export function invitationRoutes(deps: Deps): RouteDef[] {
   return [
@@ -75,6 +78,9 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
         authorize(ability, 'create', 'Invitation', { id: '', organizationId: actor.organizationId });
         const { token, tokenHash } = newInvitationToken();
         const expiresAt = new Date(Date.now() + deps.config.INVITATION_TTL_HOURS * 3_600_000);
+        const base = deps.config.PUBLIC_URL ?? `${req.protocol}://${req.get('host')}`;
+        // The token rides in the fragment, which browsers never send to a server or in a Referer.
+        const link = `${base}/invite#${token}`;
         const inv = await tx(async (m, audit) => {
           const saved = await m.save(
             m.create(Invitation, {
@@ -90,11 +96,15 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
             }),
           );
           await audit({ action: 'invitation.created', subjectType: 'Invitation', subjectId: saved.id, after: { email: saved.email, roles: saved.roles, expiresAt } });
+          await enqueueEmail(m, deps.jobs, {
+            organizationId: actor.organizationId,
+            kind: 'invitation',
+            to: saved.email,
+            content: emails.invitation({ organizationName: actor.organizationName, inviterName: user.displayName, roles: saved.roles.map((r) => ROLE_LABELS[r].toLowerCase()).join(' and '), link, expiresAt: expiresAt.toISOString().slice(0, 10) }),
+          });
           return saved;
         });
-        const base = deps.config.PUBLIC_URL ?? `${req.protocol}://${req.get('host')}`;
-        // The token rides in the fragment, which browsers never send to a server or in a Referer.
-        return toInvitationDto(inv, user.displayName, `${base}/invite#${token}`);
+        return toInvitationDto(inv, user.displayName, link);
       },
     }),
     orgRoute({

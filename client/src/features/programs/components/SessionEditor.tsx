@@ -177,9 +177,10 @@ export function SessionEditor({ orgId, unit, athletes, session, library, engines
           <HoldNotice key={h.athleteId} athleteName={nameOf(h.athleteId)} breaches={h.breaches} />
         ))}
       <FormProvider {...methods}>
+        {/* "Date" and "Title", not "Session date"/"Session title": those name the add-a-session form beside it. */}
         <div className="flex flex-wrap gap-3">
-          <TextField label="Session date" type="date" form={formId} className="w-44" error={formState.errors.date?.message} {...register('date')} />
-          <TextField label="Session title" form={formId} className="min-w-[12rem] flex-1" error={formState.errors.title?.message} {...register('title')} />
+          <TextField label="Date" type="date" form={formId} className="w-44" error={formState.errors.date?.message} {...register('date')} />
+          <TextField label="Title" form={formId} className="min-w-[12rem] flex-1" error={formState.errors.title?.message} {...register('title')} />
         </div>
         <SessionActions
           orgId={orgId}

@@ -1,0 +1,34 @@
+import type { EmailContent } from './layout';
+
+/** The e-mails Loadline sends, as content for the layout. Each has default sample data for tests. */
+export const emails = {
+  invitation(d: { organizationName: string; inviterName: string; roles: string; link: string; expiresAt: string } = {
+    organizationName: 'Sample Club', inviterName: 'Sample Admin', roles: 'coach', link: 'http://127.0.0.1:3000/invite#sample', expiresAt: '2026-12-05',
+  }): EmailContent {
+    return {
+      subject: `You're invited to ${d.organizationName} on Loadline`,
+      greeting: 'Hello,',
+      paragraphs: [
+        `${d.inviterName} has invited you to join ${d.organizationName} on Loadline as ${d.roles}.`,
+        `The link works once and until ${d.expiresAt}. If you did not expect this, you can ignore this e-mail.`,
+      ],
+      action: { label: 'Accept the invitation', url: d.link },
+    };
+  },
+  notice(d: { name: string; title: string; body: string; url: string } = { name: 'Sample', title: 'Sample notice', body: 'Something needs your attention.', url: 'http://127.0.0.1:3000/notices' }): EmailContent {
+    return { subject: d.title, greeting: `Hello ${d.name},`, paragraphs: [d.body, 'Sign in to Loadline to see the details.'], action: { label: 'Open Loadline', url: d.url } };
+  },
+  letter(d: { name: string; athleteName: string; decision: string; organizationName: string; url: string } = {
+    name: 'Sample', athleteName: 'Sample Athlete', decision: 'Full participation from 1 December 2026', organizationName: 'Sample Club', url: 'http://127.0.0.1:3000/',
+  }): EmailContent {
+    return {
+      subject: `Clearance letter for ${d.athleteName}`,
+      greeting: `Hello ${d.name},`,
+      paragraphs: [
+        `${d.organizationName} has issued a clearance letter for ${d.athleteName}: ${d.decision}.`,
+        'The signed letter is attached as a PDF. Anyone holding it can check that it is genuine with the code printed on it.',
+      ],
+      action: { label: 'Open it in Loadline', url: d.url },
+    };
+  },
+};
