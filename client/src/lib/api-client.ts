@@ -26,6 +26,8 @@ export class ApiError extends Error {
   readonly code: ApiErrorCode | (string & {});
   readonly fields: Record<string, string[]>;
   readonly requestId: string | null;
+  /** Structured detail some refusals carry, e.g. the breaches that stopped a publish. */
+  readonly details: unknown;
 
   constructor(init: {
     status: number;
@@ -33,6 +35,7 @@ export class ApiError extends Error {
     message: string;
     fields?: Record<string, string[]>;
     requestId?: string | null;
+    details?: unknown;
   }) {
     super(init.message);
     this.name = 'ApiError';
@@ -40,6 +43,7 @@ export class ApiError extends Error {
     this.code = init.code;
     this.fields = init.fields ?? {};
     this.requestId = init.requestId ?? null;
+    this.details = init.details;
   }
 }
 
@@ -88,6 +92,7 @@ export async function errorFromResponse(response: Response): Promise<ApiError> {
       message: body.error.message,
       fields: body.error.fields,
       requestId: typeof body.requestId === 'string' ? body.requestId : null,
+      details: body.error.details,
     });
   }
   const fallback = fallbackFor(response.status);
