@@ -1,4 +1,4 @@
-import { devices, expect, type Browser, type Page, type TestInfo } from '@playwright/test';
+import { devices, expect, type Browser, type Locator, type Page, type TestInfo } from '@playwright/test';
 import { RED_FLAG_ITEMS } from '../policies/red-flags';
 
 /**
@@ -13,18 +13,25 @@ export async function newDesktopPage(browser: Browser, testInfo: TestInfo): Prom
   return context.newPage();
 }
 
+/**
+ * Chooses a radio drawn as a large button: the input itself is visually hidden and its label takes the
+ * tap, so the label is what a finger (and Playwright) presses.
+ */
+async function press(page: Page, scope: Page | Locator, name: string): Promise<void> {
+  const radio = scope.getByRole('radio', { name, exact: true });
+  // `has` is matched inside each label, so it names the radio from the label, not from the page.
+  await scope.locator('label').filter({ has: page.getByRole('radio', { name, exact: true }) }).click();
+  await expect(radio).toBeChecked();
+}
+
 /** One choice on a 0–10 scale, e.g. pickScore(page, 'Pain now', 3) — the radio named "Pain now 3". */
 export async function pickScore(page: Page, label: string, n: number): Promise<void> {
-  const radio = page.getByRole('radio', { name: `${label} ${n}`, exact: true });
-  await radio.check();
-  await expect(radio).toBeChecked();
+  await press(page, page, `${label} ${n}`);
 }
 
 /** A Yes/No question drawn by YesNo: a radio group named by its question. */
 export async function answerYesNo(page: Page, question: string, answer: 'Yes' | 'No'): Promise<void> {
-  const radio = page.getByRole('radiogroup', { name: question, exact: true }).getByRole('radio', { name: answer, exact: true });
-  await radio.check();
-  await expect(radio).toBeChecked();
+  await press(page, page.getByRole('radiogroup', { name: question, exact: true }), answer);
 }
 
 export interface PainDetails {
