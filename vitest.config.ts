@@ -8,7 +8,7 @@ export default defineConfig({
         test: {
           name: 'server',
           environment: 'node',
-          include: ['server/src/**/*.test.ts', 'policies/**/*.test.ts', 'scripts/**/*.test.ts'],
+          include: ['server/src/**/*.test.ts', 'policies/**/*.test.ts', 'scripts/**/*.test.ts', 'templates/**/*.test.ts'],
           globalSetup: ['server/src/test/global-setup.ts'],
           testTimeout: 30_000,
           hookTimeout: 60_000,
@@ -23,6 +23,8 @@ export default defineConfig({
           environment: 'happy-dom',
           include: ['client/src/**/*.test.{ts,tsx}'],
           setupFiles: ['client/src/test/setup.ts'],
+          // Same as the server project: vitest refuses projects with different worker counts in one group.
+          maxWorkers: 2,
         },
       },
     ],
