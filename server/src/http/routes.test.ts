@@ -134,6 +134,15 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/exceptions/:id/decide  ⇒  member: update ProgramException",
         "GET    /api/orgs/:orgId/roster  ⇒  member: read Athlete",
         "GET    /api/orgs/:orgId/athletes/:id/today  ⇒  member: read Program",
+        "GET    /api/orgs/:orgId/letters  ⇒  member: read Letter",
+        "POST   /api/orgs/:orgId/letters  ⇒  member: create Letter",
+        "PATCH  /api/orgs/:orgId/letters/:id  ⇒  member: update Letter",
+        "GET    /api/orgs/:orgId/letters/:id/preview  ⇒  member: update Letter",
+        "POST   /api/orgs/:orgId/letters/:id/sign  ⇒  member: update Letter",
+        "GET    /api/orgs/:orgId/letters/:id/pdf  ⇒  member: read Letter",
+        "POST   /api/orgs/:orgId/letters/:id/acknowledge  ⇒  member: create LetterAcknowledgement",
+        "POST   /api/check  ⇒  public",
+        "GET    /api/orgs/:orgId/outbox  ⇒  member: read Outbox",
       ]
     `);
   });
