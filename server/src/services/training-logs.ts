@@ -3,7 +3,8 @@ import { addDays, formatISO, parseISO } from 'date-fns';
 import { evaluatePain, type PainRuleResult } from '../../../policies/load/pain-rule';
 import { inForceOn } from '../../../policies/load/in-force';
 import type { TrainingLogCreateInput } from '../../../policies/schemas';
-import { Flag, TrainingLog } from '../entities';
+import { Baseline, Flag, TrainingLog } from '../entities';
+import { estimateOneRm } from '../../../policies/load/one-rm';
 import type { AuditFn } from '../http/context';
 import { activePlans } from './cases';
 import { athleteCircle, notify } from './notify';
@@ -65,6 +66,7 @@ export async function createTrainingLog(
       notes: input.notes ?? null,
     }),
   );
+  await recordLoggedBaselines(m, log);
   const painRule = evaluatePain({ ceiling: painCeiling, during: input.painDuring, before: input.painBefore, nextMorning: null, weeklyMeans: await weeklyPainMeans(m, input.athleteId, input.date) });
   await raiseFlags(m, log, painRule, ctx.athleteName);
   await audit({
@@ -89,4 +91,27 @@ export async function recordNextMorning(
   await raiseFlags(m, log, painRule, athleteName);
   await audit({ action: 'training_log.next_morning', subjectType: 'TrainingLog', subjectId: log.id, athleteId: log.athleteId, before: { painNextMorning: null }, after: { painNextMorning, painRule: painRule.action } });
   return painRule;
+}
+
+/**
+ * Logged sets feed the athlete's strength history: each set of a library exercise (matched by name)
+ * becomes a 'logged' baseline with its Epley estimate (RIR-adjusted when an RPE was logged). They are
+ * history only; the engine's 1RM stays the latest tested or estimated baseline staff recorded.
+ */
+async function recordLoggedBaselines(m: EntityManager, log: TrainingLog): Promise<void> {
+  if (log.sets.length === 0) return;
+  const names = [...new Set(log.sets.map((s) => s.exercise.trim().toLowerCase()))];
+  const exercises: { id: string; name: string }[] = await m.query(
+    `SELECT id, lower(name) AS name FROM exercises WHERE organization_id = $1 AND lower(name) = ANY($2)`,
+    [log.organizationId, names],
+  );
+  const byName = new Map(exercises.map((e) => [e.name, e.id]));
+  const rows = log.sets.flatMap((s) => {
+    const exerciseId = byName.get(s.exercise.trim().toLowerCase());
+    const est = exerciseId && s.loadKg > 0 ? estimateOneRm(s.loadKg, s.reps, s.rpe ?? null) : null;
+    if (!exerciseId || !est) return [];
+    return [{ organizationId: log.organizationId, athleteId: log.athleteId, exerciseId, kind: 'logged' as const, loadKg: s.loadKg, reps: s.reps, rpe: s.rpe ?? null,
+      e1rmKg: Math.round(est.value * 100) / 100, formula: 'epley' as const, lowReliability: est.lowReliability, testedOn: log.date, createdBy: null }];
+  });
+  if (rows.length) await m.insert(Baseline, rows);
 }
