@@ -70,6 +70,10 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     Baseline: { organizationId: org, athleteId },
     Program: { id: `program-${relation}`, organizationId: org, athleteId },
     ProgramException: { id: `exception-${relation}`, organizationId: org, athleteId },
+    Letter: { id: `letter-${relation}`, organizationId: org, athleteId },
+    LetterAcknowledgement: { organizationId: org, athleteId },
+    // The organization's outbox is about no athlete: only 'same-org' and 'other-org' apply.
+    Outbox: { organizationId: org },
   };
   return records[subject] as SubjectShapes[K];
 }
@@ -194,6 +198,9 @@ describe('defineAbilityFor, beyond the matrix', () => {
         asSubject('Baseline', { organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
         asSubject('Program', { id: 'p', organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
         asSubject('ProgramException', { id: 'x', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('Letter', { id: 'l', organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
+        asSubject('LetterAcknowledgement', { organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
+        asSubject('Outbox', { organizationId: OTHER_ORG }),
       ];
       for (const s of cases) for (const action of ACTIONS) expect(ability.can(action, s as never), `${role} ${action} ${JSON.stringify(s)}`).toBe(false);
     }
@@ -282,6 +289,32 @@ describe('defineAbilityFor, beyond the matrix', () => {
     const elsewhere = defineAbilityFor({ ...actorFor('clinician'), clinicianOf: [OTHER_ATHLETE] });
     expect(elsewhere.can('update', exception)).toBe(false);
     expect(elsewhere.can('read', exception)).toBe(false);
+  });
+
+  it('letters: everyone around the athlete reads the content; only clinicians and admins read who it was sent to', () => {
+    for (const role of ROLES) {
+      const actor = actorFor(role);
+      const ability = defineAbilityFor(actor);
+      const relation: Relation = role === 'athlete' ? 'self' : role === 'admin' ? 'other-athlete' : 'own-care-team';
+      const letter = asSubject('Letter', recordFor('Letter', relation, actor));
+      expect(ability.can('read', letter, 'content'), `${role} content`).toBe(true);
+      expect(ability.can('read', letter, 'deliveries'), `${role} deliveries`).toBe(role === 'clinician' || role === 'admin');
+      // No other part of a letter exists to read: an unknown field opens nothing.
+      expect(ability.can('read', letter, 'pdfBytes'), `${role} unknown field`).toBe(false);
+    }
+  });
+
+  it('letters: a clinician of another athlete, or a guardian of another athlete, neither reads, signs nor acknowledges', () => {
+    const letter = asSubject('Letter', { id: 'l', organizationId: ORG, athleteId: LINKED_ATHLETE });
+    const clinician = defineAbilityFor({ ...actorFor('clinician'), clinicianOf: [OTHER_ATHLETE] });
+    expect(clinician.can('read', letter)).toBe(false);
+    expect(clinician.can('update', letter)).toBe(false);
+    const guardian = defineAbilityFor({ ...actorFor('guardian'), guardianOf: [OTHER_ATHLETE] });
+    expect(guardian.can('read', letter)).toBe(false);
+    expect(guardian.can('create', asSubject('LetterAcknowledgement', { organizationId: ORG, athleteId: LINKED_ATHLETE }))).toBe(false);
+    // …while each still holds the (empty) right, so the list answers [] and the record answers 404.
+    expect(clinician.can('read', 'Letter')).toBe(true);
+    expect(guardian.can('create', 'LetterAcknowledgement')).toBe(true);
   });
 
   it('asSubject does not tag the caller\'s object', () => {

@@ -300,6 +300,44 @@ const GRID: [SubjectName, Action, Relation, string][] = [
   ['ProgramException',   'update', 'other-athlete',   'n   n   n   n   n'],
   ['ProgramException',   'update', 'other-org',       'n   n   n   n   n'],
   ['ProgramException',   'delete', 'own-care-team',   '-   n   n   n   -'],
+
+  // Clearance letters carry status and limits only (SECURITY item 26), so the athlete's whole circle
+  // reads them (the 'content' field; who sent what, 'deliveries', is for clinicians and admins,
+  // checked in ability.test.ts); admins read every letter for the record. Only the athlete's own
+  // clinicians draft and sign; a signed letter is never deleted, a later one supersedes it.
+  ['Letter',             'read',   'self',            'Y   -   -   -   -'],
+  ['Letter',             'read',   'own-care-team',   '-   Y   Y   Y   -'],
+  ['Letter',             'read',   'other-athlete',   'n   n   n   n   Y'],
+  ['Letter',             'read',   'other-org',       'n   n   n   n   n'],
+  ['Letter',             'create', 'self',            'n   -   -   -   -'],
+  ['Letter',             'create', 'own-care-team',   '-   n   Y   n   -'],
+  ['Letter',             'create', 'other-athlete',   'n   n   n   n   n'],
+  ['Letter',             'create', 'other-org',       'n   n   n   n   n'],
+  ['Letter',             'update', 'self',            'n   -   -   -   -'],
+  ['Letter',             'update', 'own-care-team',   '-   n   Y   n   -'],
+  ['Letter',             'update', 'other-athlete',   'n   n   n   n   n'],
+  ['Letter',             'update', 'other-org',       'n   n   n   n   n'],
+  ['Letter',             'delete', 'self',            'n   -   -   -   -'],
+  ['Letter',             'delete', 'own-care-team',   '-   n   n   n   -'],
+  ['Letter',             'delete', 'other-athlete',   'n   n   n   n   n'],
+
+  // A guardian acknowledges a letter about the athlete they are linked to, and reads that they did.
+  ['LetterAcknowledgement', 'read',   'self',          'n   -   -   -   -'],
+  ['LetterAcknowledgement', 'read',   'own-care-team', '-   n   n   Y   -'],
+  ['LetterAcknowledgement', 'read',   'other-athlete', 'n   n   n   n   n'],
+  ['LetterAcknowledgement', 'read',   'other-org',     'n   n   n   n   n'],
+  ['LetterAcknowledgement', 'create', 'self',          'n   -   -   -   -'],
+  ['LetterAcknowledgement', 'create', 'own-care-team', '-   n   n   Y   -'],
+  ['LetterAcknowledgement', 'create', 'other-athlete', 'n   n   n   n   n'],
+  ['LetterAcknowledgement', 'create', 'other-org',     'n   n   n   n   n'],
+  ['LetterAcknowledgement', 'delete', 'own-care-team', '-   n   n   n   -'],
+
+  // The local fake mail server's messages: the admin's outbox page, read-only.
+  ['Outbox',             'read',   'same-org',        'n   n   n   n   Y'],
+  ['Outbox',             'read',   'other-org',       'n   n   n   n   n'],
+  ['Outbox',             'create', 'same-org',        'n   n   n   n   n'],
+  ['Outbox',             'update', 'same-org',        'n   n   n   n   n'],
+  ['Outbox',             'delete', 'same-org',        'n   n   n   n   n'],
 ];
 
 function expand(): MatrixRow[] {

@@ -80,16 +80,21 @@ describe('platesPerSide', () => {
     expect(kgToLb(kgBar)).toBeCloseTo(44.09, 2);
   });
 
-  it('uses the IWF discs from the heaviest down (100 kg = 25 + 15 a side)', () => {
-    expect(KG_PLATES).toEqual([25, 20, 15, 10, 5, 2.5, 2, 1.5, 1, 0.5]);
+  it('uses IWF discs plus the 1.25 kg fractional plate (common practice), fewest plates first (100 kg = 25 + 15 a side)', () => {
+    expect(KG_PLATES).toEqual([25, 20, 15, 10, 5, 2.5, 2, 1.5, 1.25, 1, 0.5]);
     expect(LB_PLATES).toEqual([45, 35, 25, 10, 5, 2.5]);
     expect(platesPerSide(100, 'kg').perSide).toEqual([25, 15]);
     expect(platesPerSide(183, 'kg', { collarsEach: 2.5 }).perSide).toEqual([25, 25, 25, 2.5, 1.5]); // 79 kg a side
   });
 
-  it('says how much it could not make: 102.5 kg with collars is 102 kg, short by 0.5 kg', () => {
-    // 38.75 kg a side: 25 + 10 + 2.5 + 1 = 38.5; the 0.25 left has no disc.
-    expect(platesPerSide(102.5, 'kg', { collarsEach: 2.5 })).toEqual({ bar: 20, collarsEach: 2.5, perSide: [25, 10, 2.5, 1], total: 102, shortBy: 0.5 });
+  it('makes every 2.5 kg step exactly with the 1.25 kg plate: 82.5 kg = 20 kg bar + 25 + 5 + 1.25 a side', () => {
+    expect(platesPerSide(82.5, 'kg')).toEqual({ bar: 20, collarsEach: 0, perSide: [25, 5, 1.25], total: 82.5, shortBy: 0 });
+    // Taking the heaviest plate first would fail here (2 + 0.25); the fewest-plates search finds 1.25 + 1.
+    expect(platesPerSide(24.5, 'kg').perSide).toEqual([1.25, 1]);
+  });
+
+  it('says how much it could not make: 102.6 kg with collars is 102.5 kg, short by 0.1 kg', () => {
+    expect(platesPerSide(102.6, 'kg', { collarsEach: 2.5 })).toEqual({ bar: 20, collarsEach: 2.5, perSide: [25, 10, 2.5, 1.25], total: 102.5, shortBy: 0.1 });
   });
 
   it('a target lighter than the bar gets no plates, and the total shows the bar is heavier', () => {

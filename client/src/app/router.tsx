@@ -3,6 +3,7 @@ import { RootLayout } from './layout/RootLayout';
 import { SignedInLayout } from './layout/SignedInLayout';
 import { SignInPage } from './routes/sign-in';
 import { InvitePage } from './routes/invite';
+import { CheckPage } from './routes/check';
 import { HomeRedirect } from './routes/home-redirect';
 import { AccountPage } from './routes/account';
 import { NotFoundPage } from './routes/not-found';
@@ -30,6 +31,7 @@ import { PeoplePage } from './routes/admin/people';
 import { PersonPage } from './routes/admin/person';
 import { InvitationsPage } from './routes/admin/invitations';
 import { AuditPage } from './routes/admin/audit';
+import { OutboxPage } from './routes/admin/outbox';
 
 export const routes = [
   {
@@ -37,6 +39,9 @@ export const routes = [
     children: [
       { path: '/sign-in', element: <SignInPage /> },
       { path: '/invite', element: <InvitePage /> },
+      // Public: a letter's holder checks its code without signing in.
+      { path: '/check', element: <CheckPage /> },
+      { path: '/check/:code', element: <CheckPage /> },
       {
         element: <SignedInLayout />,
         children: [
@@ -50,6 +55,7 @@ export const routes = [
               { path: 'people/:personId', element: <PersonPage /> },
               { path: 'invitations', element: <InvitationsPage /> },
               { path: 'audit', element: <AuditPage /> },
+              { path: 'outbox', element: <OutboxPage /> },
             ],
           },
           { path: '/coach', element: <CoachHome /> },

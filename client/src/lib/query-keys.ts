@@ -34,4 +34,9 @@ export const queryKeys = {
   flagsAll: (orgId: string) => ['orgs', orgId, 'flags'] as const,
   flags: (orgId: string, filters: { athleteId?: string; state: string }) => ['orgs', orgId, 'flags', filters] as const,
   notifications: (orgId: string) => ['orgs', orgId, 'notifications'] as const,
+  lettersAll: (orgId: string) => ['orgs', orgId, 'letters'] as const,
+  letters: (orgId: string, athleteId: string | null) => ['orgs', orgId, 'letters', { athleteId }] as const,
+  outbox: (orgId: string) => ['orgs', orgId, 'outbox'] as const,
+  /** The public letter check: not tied to an organization or a session. */
+  letterCheck: (code: string) => ['letter-check', code] as const,
 };

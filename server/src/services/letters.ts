@@ -46,7 +46,11 @@ export async function listLetters(db: DataSource | EntityManager, ability: AppAb
   const qb = db.getRepository(ClearanceLetter).createQueryBuilder('l').where('l.organization_id = :org', { org: organizationId }).orderBy('l.created_at', 'DESC').limit(200);
   if (where.athleteId) qb.andWhere('l.athlete_id = :a', { a: where.athleteId });
   if (where.id) qb.andWhere('l.id = :id', { id: where.id });
-  const letters = (await qb.getMany()).filter((l) => ability.can('read', asSubject('Letter', { id: l.id, organizationId: l.organizationId, athleteId: l.athleteId }), 'content'));
+  // A draft is the signing clinicians' working copy (not signed, not valid): nobody else sees it.
+  const letters = (await qb.getMany()).filter((l) => {
+    const s = asSubject('Letter', { id: l.id, organizationId: l.organizationId, athleteId: l.athleteId });
+    return ability.can('read', s, 'content') && (l.status !== 'draft' || ability.can('update', s));
+  });
   if (letters.length === 0) return [];
   const ids = letters.map((l) => l.id);
   const [names, acks, deliveries] = await Promise.all([

@@ -1,12 +1,13 @@
 import { useAthlete } from '../../features/athletes/api/get-athlete';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
+import { CurrentLetter } from '../../features/letters/components/CurrentLetter';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
 import { TodaySessions } from '../../features/programs/components/TodaySessions';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
-import { Loading, PageHeader } from '../../components/ui/Panel';
+import { Loading, PageHeader, Panel } from '../../components/ui/Panel';
 import { todayLocal } from '../../lib/dates';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
@@ -33,6 +34,9 @@ function AthleteProfile() {
       <AthleteActions orgId={orgId} athleteId={membership.id} />
       <TodaySessions athleteId={membership.id} />
       <MyToday athleteId={membership.id} />
+      <Panel title="My clearance letter">
+        <CurrentLetter orgId={orgId} athleteId={membership.id} audience="athlete" />
+      </Panel>
       <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {athlete.isPending ? (
         <Loading what="your profile" />

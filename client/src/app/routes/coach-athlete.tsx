@@ -4,6 +4,7 @@ import { useCaseload } from '../../features/caseload/api/get-caseload';
 import { useCases } from '../../features/cases/api/get-cases';
 import { regionsText } from '../../features/cases/components/case-words';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
+import { CurrentLetter } from '../../features/letters/components/CurrentLetter';
 import { usePlans } from '../../features/plans/api/get-plan';
 import { InForceSummary } from '../../features/plans/components/InForceSummary';
 import { PlanStagesView } from '../../features/plans/components/PlanStagesView';
@@ -129,6 +130,10 @@ function AthleteLimits({ row }: { row: CaseloadRowDto }) {
           )}
         </Panel>
       )}
+
+      <Panel title="Clearance letter">
+        <CurrentLetter orgId={orgId} athleteId={row.athleteId} audience="coach" />
+      </Panel>
 
       <Panel title="Upcoming stages">
         {cases.isPending || plans.some((p) => p.isPending) ? (

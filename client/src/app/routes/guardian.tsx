@@ -1,12 +1,13 @@
 import { useId } from 'react';
 import { useAthletes } from '../../features/athletes/api/get-athletes';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
+import { FamilyLetters } from '../../features/letters/components/FamilyLetters';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
-import { ComingLater, Loading, PageHeader } from '../../components/ui/Panel';
+import { Loading, PageHeader } from '../../components/ui/Panel';
 import { todayLocal } from '../../lib/dates';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
@@ -43,16 +44,17 @@ function Wards() {
       ) : (
         mine.map((athlete) => <WardToday key={athlete.id} athleteId={athlete.id} name={firstName(athlete.displayName)} />)
       )}
+      {mine.length > 0 && (
+        <FamilyLetters
+          orgId={orgId}
+          guardianId={membership.id}
+          athletes={mine.map((a) => ({ id: a.id, name: firstName(a.displayName) }))}
+        />
+      )}
       <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {mine.map((athlete) => (
         <AthleteCard key={athlete.id} athlete={athlete} />
       ))}
-      <ComingLater title="Clearance letters arrive in a coming release">
-        <p>
-          You will receive and acknowledge clearance letters here. Until then, the care team will contact you directly
-          when your athlete is cleared.
-        </p>
-      </ComingLater>
     </div>
   );
 }

@@ -218,10 +218,17 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: "The local fake mail server's messages (admins; only while the fake is in use)",
       access: { kind: 'org', action: 'read', subject: 'Outbox' },
       params: OrgParamsSchema,
-      async handler({ ds }) {
+      async handler({ ds, actor }) {
         if (deps.config.FAKE_MAIL !== 'true') throw new AppError('not_found', 'The outbox exists only while the local fake mail server is in use.');
+        // The mailbox is shared by every organization: only messages of this organization's deliveries
+        // (matched by the Message-ID deliver() sets) are listed (SECURITY item 15).
         const rows: { id: string; received_at: Date; envelope_to: string[]; subject: string | null; text_body: string | null; attachments: OutboxMessageDto['attachments'] }[] =
-          await ds.query(`SELECT id, received_at, envelope_to, subject, text_body, attachments FROM fake_mailbox ORDER BY id DESC LIMIT 200`);
+          await ds.query(
+            `SELECT f.id, f.received_at, f.envelope_to, f.subject, f.text_body, f.attachments FROM fake_mailbox f
+              WHERE EXISTS (SELECT 1 FROM email_deliveries d WHERE d.organization_id = $1 AND f.message_id = '<' || d.id || '@loadline.invalid>')
+              ORDER BY f.id DESC LIMIT 200`,
+            [actor.organizationId],
+          );
         return rows.map((r): OutboxMessageDto => ({ id: String(r.id), receivedAt: new Date(r.received_at).toISOString(), to: r.envelope_to, subject: r.subject, text: r.text_body, attachments: r.attachments }));
       },
     }),

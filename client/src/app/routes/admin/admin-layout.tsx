@@ -6,6 +6,7 @@ const LINKS = [
   { to: '/admin/people', label: 'People', end: false },
   { to: '/admin/invitations', label: 'Invitations', end: false },
   { to: '/admin/audit', label: 'Audit trail', end: false },
+  { to: '/admin/outbox', label: 'Outbox', end: false },
 ];
 
 export const personHref = (id: string) => `/admin/people/${id}`;

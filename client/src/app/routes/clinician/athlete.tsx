@@ -7,6 +7,7 @@ import { useCases } from '../../../features/cases/api/get-cases';
 import { CaseList } from '../../../features/cases/components/CaseList';
 import { OpenCaseForm } from '../../../features/cases/components/OpenCaseForm';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
+import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
 import { Button, ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
@@ -118,6 +119,8 @@ function AthleteCases({ athleteId, row }: { athleteId: string; row: CaseloadRowD
       )}
 
       <InForcePanel orgId={orgId} athleteId={athleteId} unit={user.unitPref} />
+
+      <ClearanceLetters orgId={orgId} athleteId={athleteId} athleteName={row.athleteName} />
     </>
   );
 }

@@ -9,6 +9,7 @@ import { CloseCaseForm } from '../../../features/cases/components/CloseCaseForm'
 import { StatusTimeline } from '../../../features/cases/components/StatusTimeline';
 import { regionsText } from '../../../features/cases/components/case-words';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
+import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
 import { PlanSection } from '../../../features/plans/components/PlanSection';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
@@ -108,6 +109,8 @@ function CaseScreen({ detail }: { detail: CaseDetailDto }) {
       </Panel>
 
       <InForcePanel orgId={orgId} athleteId={detail.athleteId} unit={user.unitPref} />
+
+      <ClearanceLetters orgId={orgId} athleteId={detail.athleteId} athleteName={detail.athleteName} />
 
       {canUpdate && open && (
         <Panel title="Close the case">

@@ -49,7 +49,7 @@ describe('InviteForm', () => {
 
     expect(await screen.findByLabelText('Invitation link')).toHaveValue('http://localhost/invite#aBcD_efGh-ijKlMnOpQrStUv');
     expect(screen.getByRole('button', { name: 'Copy link' })).toBeInTheDocument();
-    expect(screen.getByText(/E-mail delivery arrives in a coming release/)).toBeInTheDocument();
+    expect(screen.getByText(/The invitation was e-mailed to maya@x.test/)).toBeInTheDocument();
     // The form starts clean for the next person.
     expect(screen.getByLabelText('E-mail')).toHaveValue('');
     expect(screen.getByRole('checkbox', { name: 'Athlete' })).not.toBeChecked();

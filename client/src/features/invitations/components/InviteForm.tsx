@@ -134,8 +134,8 @@ function CreatedInvitation({ invitation, onDismiss }: { invitation: InvitationDt
         <div className="mt-2 space-y-2">
           <CopyField label="Invitation link" value={invitation.link} buttonLabel="Copy link" />
           <p>
-            E-mail delivery arrives in a coming release: for now, send this link to {invitation.email} yourself. It
-            works once, expires {formatDateTime(invitation.expiresAt)}, and is shown only now.
+            The invitation was e-mailed to {invitation.email}. The link is here too, to copy if the e-mail does not arrive.
+            It works once, expires {formatDateTime(invitation.expiresAt)}, and is shown only now.
           </p>
         </div>
       ) : (

@@ -1,0 +1,137 @@
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import { AbilityProvider } from '@casl/react';
+import { defineAbilityFor, type Actor } from '../../../../../policies/access';
+import type { LetterDto } from '../../../../../policies/dto';
+import { MembershipContext } from '../../../lib/membership-context';
+import { jsonResponse, renderWithProviders } from '../../../test/render';
+import { ClearanceLetters } from './ClearanceLetters';
+
+const ORG = '11111111-1111-4111-8111-111111111111';
+const MAYA = '22222222-2222-4222-8222-222222222222';
+const fetchMock = vi.fn<typeof fetch>();
+beforeEach(() => vi.stubGlobal('fetch', fetchMock));
+afterEach(() => {
+  vi.unstubAllGlobals();
+  fetchMock.mockReset();
+});
+
+const actor: Actor = { userId: 'u-priya', organizationId: ORG, membershipId: 'm-priya', roles: ['clinician'], coachOf: [], clinicianOf: [MAYA], guardianOf: [] };
+
+function renderSection() {
+  return renderWithProviders(
+    <AbilityProvider value={defineAbilityFor(actor)}>
+      <MembershipContext.Provider
+        value={{
+          orgId: ORG,
+          user: { id: 'u-priya', email: 'priya@x.test', displayName: 'Priya Raman', unitPref: 'kg' },
+          membership: { id: 'm-priya', organizationId: ORG, organizationName: 'Harbor Point Performance', roles: ['clinician'], actor },
+        }}
+      >
+        <ClearanceLetters orgId={ORG} athleteId={MAYA} athleteName="Maya Torres" />
+      </MembershipContext.Provider>
+    </AbilityProvider>,
+  );
+}
+
+const draft: LetterDto = {
+  id: 'l-1',
+  athleteId: MAYA,
+  athleteName: 'Maya Torres',
+  decision: 'limited',
+  effectiveFrom: '2026-03-16',
+  validUntil: '2026-04-13',
+  limits: ['Hinge: up to 60% of your best lift', 'Jump / landing: not allowed for now'],
+  clinicianName: 'Priya Raman',
+  credential: 'Physiotherapist, PT',
+  licenceNumber: 'PT-448812',
+  familyNote: '',
+  signature: null,
+  signedAt: null,
+  status: 'draft',
+  supersededBy: null,
+  pdfSha256: null,
+  version: 1,
+  createdAt: '2026-03-12T14:00:00.000Z',
+  acknowledgements: [],
+  deliveries: [],
+};
+
+describe('ClearanceLetters', () => {
+  it('saves a limited draft without limits, so the server fills them in, then shows them as editable lines', async () => {
+    let served: LetterDto[] = [];
+    fetchMock.mockImplementation(async (_input, init) => {
+      if (init?.method === 'POST') {
+        served = [draft];
+        return jsonResponse(201, draft);
+      }
+      return jsonResponse(200, served);
+    });
+    renderSection();
+    const section = await screen.findByRole('region', { name: 'Clearance letters' });
+    expect(within(section).getByText(/does not diagnose, treat or replace professional care/)).toBeInTheDocument();
+    expect(await screen.findByText(/No clearance letter yet/)).toBeInTheDocument();
+
+    fireEvent.click(screen.getByRole('button', { name: 'Write a clearance letter' }));
+    fireEvent.click(screen.getByRole('radio', { name: 'Limited participation' }));
+    fireEvent.change(screen.getByLabelText('From'), { target: { value: '2026-03-16' } });
+    fireEvent.change(screen.getByLabelText('Valid until (next review)'), { target: { value: '2026-04-13' } });
+    fireEvent.change(screen.getByLabelText('Credential'), { target: { value: 'Physiotherapist, PT' } });
+    fireEvent.change(screen.getByLabelText('Licence number'), { target: { value: 'PT-448812' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save draft letter' }));
+
+    expect(await screen.findByRole('heading', { name: 'Draft letter: Limited participation' })).toBeInTheDocument();
+    const post = fetchMock.mock.calls.find(([, init]) => init?.method === 'POST');
+    expect(String(post?.[0])).toBe(`/api/orgs/${ORG}/letters`);
+    expect(JSON.parse(post?.[1]?.body as string)).toEqual({
+      athleteId: MAYA,
+      decision: 'limited',
+      effectiveFrom: '2026-03-16',
+      validUntil: '2026-04-13',
+      credential: 'Physiotherapist, PT',
+      licenceNumber: 'PT-448812',
+      familyNote: '',
+    });
+    expect(screen.getByLabelText('Limit 1')).toHaveValue('Hinge: up to 60% of your best lift');
+    expect(screen.getByLabelText('Limit 2')).toHaveValue('Jump / landing: not allowed for now');
+    expect(screen.getByRole('link', { name: 'Preview PDF' })).toHaveAttribute('href', `/api/orgs/${ORG}/letters/l-1/preview`);
+    expect(screen.getByRole('img', { name: /Letter status: Draft/ })).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Save draft letter' })).not.toBeInTheDocument();
+  });
+
+  it('shows the code once after signing, and each recipient’s delivery in words', async () => {
+    const signed: LetterDto = {
+      ...draft,
+      status: 'signed',
+      signature: 'Priya Raman',
+      signedAt: '2026-03-12T15:00:00.000Z',
+      version: 2,
+      deliveries: [
+        { id: 'd1', to: 'elena@x.test', status: 'sent', attempts: 1, lastError: null, sentAt: '2026-03-12T15:00:05.000Z' },
+        { id: 'd2', to: 'theo@x.test', status: 'failed', attempts: 5, lastError: 'Mailbox unavailable', sentAt: null },
+      ],
+    };
+    let served: LetterDto[] = [draft];
+    fetchMock.mockImplementation(async (_input, init) => {
+      if (init?.method === 'POST') {
+        served = [signed];
+        return jsonResponse(200, { ...signed, verificationCode: '7K3M-Q9TX-2HBD-VR4P-N8CW' });
+      }
+      return jsonResponse(200, served);
+    });
+    renderSection();
+    fireEvent.change(await screen.findByLabelText('Type your full name to sign'), { target: { value: 'Priya Raman' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Sign and send' }));
+
+    expect(await screen.findByText('7K3M-Q9TX-2HBD-VR4P-N8CW')).toBeInTheDocument();
+    expect(screen.getByText('Verification code')).toBeInTheDocument();
+    expect(screen.getByText(/Anyone holding the letter can check it at/)).toHaveTextContent('/check');
+    await waitFor(() => expect(screen.getByRole('img', { name: /Letter status: Signed/ })).toBeInTheDocument());
+    expect(screen.getByText('Not delivered: Mailbox unavailable')).toBeInTheDocument();
+    expect(screen.getByText('Failed')).toBeInTheDocument();
+    expect(screen.getByText('Sent')).toBeInTheDocument();
+
+    fireEvent.click(screen.getByRole('button', { name: 'I have noted the code' }));
+    expect(screen.queryByText('7K3M-Q9TX-2HBD-VR4P-N8CW')).not.toBeInTheDocument();
+  });
+});

@@ -1,0 +1,110 @@
+import { useState } from 'react';
+import { asSubject } from '../../../../../policies/access';
+import type { LetterDto } from '../../../../../policies/dto';
+import { useAppAbility } from '../../../lib/ability';
+import { useCurrentMembership } from '../../../lib/membership-context';
+import { Button } from '../../../components/ui/Button';
+import { ErrorNotice } from '../../../components/ui/Notice';
+import { Loading, Panel } from '../../../components/ui/Panel';
+import { currentLetter, useLetters } from '../api/get-letters';
+import { DraftLetter } from './DraftLetter';
+import { LetterCaution } from './LetterCaution';
+import { LetterRecord } from './LetterRecord';
+import { VerificationCodeNotice } from './VerificationCodeNotice';
+import { WriteLetterForm } from './WriteLetterForm';
+
+/**
+ * The clinician's "Clearance letters" section for one athlete: drafts (editable, previewable,
+ * signable), the letter in force with its deliveries and acknowledgements, and earlier letters.
+ */
+export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: string; athleteId: string; athleteName: string }) {
+  const { user } = useCurrentMembership();
+  const ability = useAppAbility();
+  const letters = useLetters(orgId, athleteId, { followDeliveries: true });
+  const [writing, setWriting] = useState(false);
+  // Held here, not in the draft: the draft becomes a signed letter the moment the list refreshes.
+  const [justSigned, setJustSigned] = useState<LetterDto | null>(null);
+  const scope = { organizationId: orgId, athleteId };
+  const canWrite = ability.can('create', asSubject('Letter', { id: '', ...scope }));
+  const canEdit = ability.can('update', asSubject('Letter', { id: '', ...scope }));
+
+  const all = letters.data ?? [];
+  const drafts = all.filter((l) => l.status === 'draft');
+  const current = currentLetter(all);
+  const earlier = all.filter((l) => l.status === 'superseded');
+  const mine = all.find((l) => l.clinicianName === user.displayName);
+  const byId = new Map(all.map((l) => [l.id, l]));
+
+  return (
+    <Panel
+      title="Clearance letters"
+      actions={
+        canWrite &&
+        !writing && (
+          <Button onClick={() => setWriting(true)} variant="primary">
+            Write a clearance letter
+          </Button>
+        )
+      }
+    >
+      <div className="space-y-4">
+        <LetterCaution audience="clinician" />
+        {justSigned?.verificationCode && (
+          <VerificationCodeNotice code={justSigned.verificationCode} athleteName={athleteName} onDone={() => setJustSigned(null)} />
+        )}
+        {writing && (
+          <section aria-label="New clearance letter" className="rounded-md border border-rule-strong p-3 sm:p-4">
+            <h3 className="mb-3 text-base font-bold">New clearance letter for {athleteName}</h3>
+            <WriteLetterForm
+              orgId={orgId}
+              athleteId={athleteId}
+              athleteName={athleteName}
+              signer={{ credential: mine?.credential ?? '', licenceNumber: mine?.licenceNumber ?? '' }}
+              onSaved={() => setWriting(false)}
+              onCancel={() => setWriting(false)}
+            />
+          </section>
+        )}
+        {letters.isPending ? (
+          <Loading what="clearance letters" />
+        ) : letters.isError ? (
+          <ErrorNotice error={letters.error} />
+        ) : all.length === 0 && !writing ? (
+          <p className="text-sm text-ink-2">
+            No clearance letter yet. Write one when {athleteName} is ready to return, fully or within named limits.
+          </p>
+        ) : (
+          <>
+            {drafts.map((draft) =>
+              canEdit ? (
+                <DraftLetter
+                  key={draft.id}
+                  orgId={orgId}
+                  letter={draft}
+                  signerName={user.displayName}
+                  replaces={current}
+                  onSigned={setJustSigned}
+                />
+              ) : (
+                <LetterRecord key={draft.id} orgId={orgId} letter={draft} />
+              ),
+            )}
+            {current && <LetterRecord orgId={orgId} letter={current} />}
+            {earlier.length > 0 && (
+              <details className="rounded-md border border-rule">
+                <summary className="cursor-pointer px-3 py-2 text-sm font-semibold">
+                  Earlier letters, superseded ({earlier.length})
+                </summary>
+                <div className="space-y-3 p-3 pt-0">
+                  {earlier.map((l) => (
+                    <LetterRecord key={l.id} orgId={orgId} letter={l} supersededBy={l.supersededBy ? byId.get(l.supersededBy) : null} />
+                  ))}
+                </div>
+              </details>
+            )}
+          </>
+        )}
+      </div>
+    </Panel>
+  );
+}

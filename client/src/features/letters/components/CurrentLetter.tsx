@@ -1,0 +1,57 @@
+import type { LetterDto } from '../../../../../policies/dto';
+import { buttonClass } from '../../../components/ui/Button';
+import { ErrorNotice } from '../../../components/ui/Notice';
+import { Loading } from '../../../components/ui/Panel';
+import { StatusMark } from '../../../components/ui/StatusMark';
+import { isApiError } from '../../../lib/api-client';
+import { currentLetter, letterPdfHref, useLetters } from '../api/get-letters';
+import { LimitsList } from './LetterRecord';
+import { dayOf, letterDates } from './letter-words';
+
+/**
+ * The letter in force, for the athlete (their own) and the coach (a care-team athlete): decision,
+ * dates, limits and the PDF. Drafts never show here; the section stays out for a reader refused the letters.
+ */
+export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; athleteId: string; audience: 'athlete' | 'coach' }) {
+  const letters = useLetters(orgId, athleteId);
+  if (letters.isPending) return <Loading what="the clearance letter" />;
+  if (letters.isError) {
+    return isApiError(letters.error) && (letters.error.status === 403 || letters.error.status === 404) ? null : (
+      <ErrorNotice error={letters.error} />
+    );
+  }
+  const current = currentLetter(letters.data);
+  if (!current) {
+    return (
+      <p className="text-sm text-ink-2">
+        {audience === 'athlete'
+          ? 'No clearance letter yet. When your clinician signs one, it appears here and is e-mailed to you.'
+          : 'No signed clearance letter. Program under the limits in force.'}
+      </p>
+    );
+  }
+  return <LetterSummary orgId={orgId} letter={current} audience={audience} />;
+}
+
+function LetterSummary({ orgId, letter, audience }: { orgId: string; letter: LetterDto; audience: 'athlete' | 'coach' }) {
+  return (
+    <div className="space-y-3">
+      <StatusMark status={letter.decision} size={audience === 'athlete' ? 'lg' : 'sm'} explain />
+      <p className={audience === 'athlete' ? 'text-base' : 'text-sm'}>{letterDates(letter)}.</p>
+      {letter.decision === 'limited' && <LimitsList limits={letter.limits} large={audience === 'athlete'} />}
+      {audience === 'athlete' && letter.familyNote && (
+        <div className="text-base">
+          <p className="font-semibold">From your clinician</p>
+          <p className="mt-1 border-l-2 border-rule pl-3 whitespace-pre-wrap">{letter.familyNote}</p>
+        </div>
+      )}
+      <p className="text-sm text-ink-2">
+        Signed by {letter.clinicianName}, {letter.credential}
+        {letter.signedAt ? `, on ${dayOf(letter.signedAt)}` : ''}.
+      </p>
+      <a href={letterPdfHref(orgId, letter.id)} download className={buttonClass('secondary', audience === 'athlete' ? 'lg' : 'md')}>
+        Download the letter (PDF)
+      </a>
+    </div>
+  );
+}

@@ -1,0 +1,76 @@
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import type { LetterDto } from '../../../../../policies/dto';
+import { jsonResponse, renderWithProviders } from '../../../test/render';
+import { FamilyLetters } from './FamilyLetters';
+
+const fetchMock = vi.fn<typeof fetch>();
+beforeEach(() => vi.stubGlobal('fetch', fetchMock));
+afterEach(() => {
+  vi.unstubAllGlobals();
+  fetchMock.mockReset();
+});
+
+const letter = (over: Partial<LetterDto> = {}): LetterDto => ({
+  id: 'l-2',
+  athleteId: 'm-maya',
+  athleteName: 'Maya Torres',
+  decision: 'limited',
+  effectiveFrom: '2026-03-16',
+  validUntil: '2026-04-13',
+  limits: ['Hinge: up to 60% of your best lift', 'Jump / landing: not allowed for now'],
+  clinicianName: 'Priya Raman',
+  credential: 'Physiotherapist, PT',
+  licenceNumber: 'PT-448812',
+  familyNote: 'Build back to full games over two weeks.',
+  signature: 'Priya Raman',
+  signedAt: '2026-03-12T15:00:00.000Z',
+  status: 'signed',
+  supersededBy: null,
+  pdfSha256: 'ab',
+  version: 2,
+  createdAt: '2026-03-12T14:00:00.000Z',
+  acknowledgements: [],
+  ...over,
+});
+
+describe('FamilyLetters', () => {
+  it('shows the signed letter with its PDF, and the acknowledge button goes once pressed', async () => {
+    const acknowledged = letter({
+      acknowledgements: [{ guardianId: 'm-elena', guardianName: 'Elena Torres', acknowledgedAt: '2026-03-13T09:10:00.000Z' }],
+    });
+    let served = [letter(), letter({ id: 'l-1', status: 'superseded', supersededBy: 'l-2', decision: 'full', limits: [] })];
+    fetchMock.mockImplementation(async (_input, init) => {
+      if (init?.method === 'POST') {
+        served = [acknowledged, served[1]];
+        return jsonResponse(200, acknowledged);
+      }
+      return jsonResponse(200, served);
+    });
+    renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
+
+    expect(await screen.findByRole('heading', { name: 'Letters' })).toBeInTheDocument();
+    const card = await screen.findByRole('article', { name: 'Clearance letter for Maya' });
+    expect(within(card).getByText('From 16 March 2026 until 13 April 2026.')).toBeInTheDocument();
+    expect(within(card).getByText('Hinge: up to 60% of your best lift')).toBeInTheDocument();
+    expect(within(card).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', '/api/orgs/org-1/letters/l-2/pdf');
+    // Only the letter in force asks to be acknowledged; the earlier one is folded away.
+    expect(screen.getAllByRole('button', { name: 'I have read this letter' })).toHaveLength(1);
+
+    fireEvent.click(screen.getByRole('button', { name: 'I have read this letter' }));
+    expect(await screen.findByText(/Acknowledged on 13 March 2026/)).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'I have read this letter' })).not.toBeInTheDocument();
+    const post = fetchMock.mock.calls.find(([, init]) => init?.method === 'POST');
+    expect(String(post?.[0])).toBe('/api/orgs/org-1/letters/l-2/acknowledge');
+    await waitFor(() => expect(screen.queryByRole('button', { name: 'I have read this letter' })).not.toBeInTheDocument());
+  });
+
+  it('counts only this guardian’s own acknowledgement', async () => {
+    fetchMock.mockResolvedValue(
+      jsonResponse(200, [letter({ acknowledgements: [{ guardianId: 'm-other', guardianName: 'Sam Torres', acknowledgedAt: '2026-03-13T09:10:00.000Z' }] })]),
+    );
+    renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
+    expect(await screen.findByRole('button', { name: 'I have read this letter' })).toBeInTheDocument();
+    expect(screen.queryByText(/Acknowledged on/)).not.toBeInTheDocument();
+  });
+});

@@ -1,0 +1,137 @@
+import { useId } from 'react';
+import type { LetterDto } from '../../../../../policies/dto';
+import { describeDate } from '../../../../../policies/load/describe';
+import { formatDateTime } from '../../../lib/format';
+import { cx } from '../../../components/ui/cx';
+import { Facts } from '../../../components/ui/Panel';
+import { letterPdfHref } from '../api/get-letters';
+import { LetterStatusMark } from './LetterMarks';
+import { DECISION_WORDS, dayOf, deliveryWords, type Delivery } from './letter-words';
+
+/** A signed or superseded letter as the care team's record: contents, who it went to, who has read it. */
+export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; letter: LetterDto; supersededBy?: LetterDto | null }) {
+  const headingId = useId();
+  return (
+    <article aria-labelledby={headingId} className={cx('rounded-md border p-3 sm:p-4', letter.status === 'signed' ? 'border-ink' : 'border-rule')}>
+      <header className="mb-3 flex flex-wrap items-center justify-between gap-2">
+        <h3 id={headingId} className="text-base font-bold">
+          {DECISION_WORDS[letter.decision]}{' '}
+          <span className="font-normal text-ink-2 tabular-nums">from {describeDate(letter.effectiveFrom)}</span>
+        </h3>
+        <LetterStatusMark status={letter.status} />
+      </header>
+      {letter.status === 'superseded' && (
+        <p className="mb-3 text-sm text-ink-2">
+          Replaced by {supersededBy?.signedAt ? `the letter signed on ${dayOf(supersededBy.signedAt)}` : 'a later letter'}.
+        </p>
+      )}
+      <div className="grid gap-4 md:grid-cols-2">
+        <div className="space-y-3">
+          <Facts
+            items={[
+              { label: 'From', value: describeDate(letter.effectiveFrom) },
+              { label: 'Valid until', value: letter.validUntil ? describeDate(letter.validUntil) : 'no end date' },
+              { label: 'Signed', value: `${letter.signature ?? letter.clinicianName}, ${formatDateTime(letter.signedAt)}` },
+              { label: 'Credential', value: `${letter.credential} · licence ${letter.licenceNumber}` },
+            ]}
+          />
+          {letter.decision === 'limited' && <LimitsList limits={letter.limits} />}
+          {letter.familyNote && (
+            <div className="text-sm">
+              <p className="text-muted">Note for the family</p>
+              <p className="mt-0.5 whitespace-pre-wrap">{letter.familyNote}</p>
+            </div>
+          )}
+          <p className="text-sm">
+            <a href={letterPdfHref(orgId, letter.id)} download className="font-semibold">
+              Download the letter (PDF)
+            </a>
+          </p>
+        </div>
+        <div className="space-y-3">
+          {letter.deliveries && <DeliveryList deliveries={letter.deliveries} />}
+          <Acknowledgements letter={letter} />
+        </div>
+      </div>
+    </article>
+  );
+}
+
+export function LimitsList({ limits, large }: { limits: string[]; large?: boolean }) {
+  if (limits.length === 0) return <p className="text-sm text-ink-2">No limits are listed on this letter.</p>;
+  return (
+    <div>
+      <p className={large ? 'font-semibold' : 'text-sm text-muted'}>Limits</p>
+      <ul className={cx('mt-1 space-y-1', large ? 'text-base' : 'text-sm')}>
+        {limits.map((limit, i) => (
+          <li key={i} className="border-l-4 border-line py-0.5 pl-2">
+            {limit}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+function DeliveryGlyph({ state }: { state: 'sent' | 'waiting' | 'failed' }) {
+  // Filled dot for sent, open dot for waiting, a triangle for a failure: readable without colour.
+  return (
+    <svg width="12" height="12" viewBox="0 0 12 12" aria-hidden="true" focusable="false" className="mt-1 shrink-0">
+      {state === 'sent' ? (
+        <circle cx="6" cy="6" r="5" fill="currentColor" />
+      ) : state === 'waiting' ? (
+        <circle cx="6" cy="6" r="4.2" fill="none" stroke="currentColor" strokeWidth="1.6" />
+      ) : (
+        <path d="M6 1 L11.2 10.8 H0.8 Z" fill="currentColor" />
+      )}
+    </svg>
+  );
+}
+
+/** One line per recipient: the address, then Sent / Queued / Failed in words, with the reason for a failure. */
+export function DeliveryList({ deliveries }: { deliveries: Delivery[] }) {
+  return (
+    <div className="text-sm">
+      <p className="text-muted">E-mailed to</p>
+      {deliveries.length === 0 ? (
+        <p className="mt-0.5 text-ink-2">Nobody: no recipient had an e-mail address on record.</p>
+      ) : (
+        <ul className="mt-1 space-y-1.5">
+          {deliveries.map((d) => {
+            const words = deliveryWords(d);
+            return (
+              <li key={d.id} className={cx('flex items-start gap-2', words.state === 'failed' && 'text-line-deep')}>
+                <DeliveryGlyph state={words.state} />
+                <span className="min-w-0">
+                  <span className="break-all">{d.to}</span>
+                  {' — '}
+                  <span className="font-semibold">{words.word}</span>
+                  {words.detail && <span className={cx('block tabular-nums', words.state !== 'failed' && 'text-ink-2')}>{words.detail}</span>}
+                </span>
+              </li>
+            );
+          })}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+function Acknowledgements({ letter }: { letter: LetterDto }) {
+  return (
+    <div className="text-sm">
+      <p className="text-muted">Read by the family</p>
+      {letter.acknowledgements.length === 0 ? (
+        <p className="mt-0.5 text-ink-2">No guardian has acknowledged it yet.</p>
+      ) : (
+        <ul className="mt-1 space-y-0.5">
+          {letter.acknowledgements.map((a) => (
+            <li key={a.guardianId} className="tabular-nums">
+              Acknowledged by {a.guardianName}, {formatDateTime(a.acknowledgedAt)}
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
