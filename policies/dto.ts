@@ -446,3 +446,15 @@ export interface OutboxMessageDto {
   text: string | null;
   attachments: { filename: string; contentType: string; size: number }[];
 }
+
+export interface DeliveryDto {
+  id: string;
+  kind: string;
+  to: string;
+  subject: string;
+  status: 'queued' | 'sending' | 'sent' | 'failed';
+  attempts: number;
+  lastError: string | null;
+  createdAt: string;
+  sentAt: string | null;
+}

@@ -143,6 +143,7 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/letters/:id/acknowledge  ⇒  member: create LetterAcknowledgement",
         "POST   /api/check  ⇒  public",
         "GET    /api/orgs/:orgId/outbox  ⇒  member: read Outbox",
+        "GET    /api/orgs/:orgId/deliveries  ⇒  member: read Outbox",
       ]
     `);
   });

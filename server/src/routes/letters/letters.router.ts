@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { z } from 'zod';
-import type { LetterCheckDto, OutboxMessageDto } from '../../../../policies/dto';
+import type { DeliveryDto, LetterCheckDto, OutboxMessageDto } from '../../../../policies/dto';
 import {
   CheckCodeSchema, LetterCreateSchema, LetterSignSchema, LetterUpdateSchema, OrgItemParamsSchema, OrgParamsSchema, UuidSchema,
 } from '../../../../policies/schemas';
@@ -230,6 +230,25 @@ export function letterRoutes(deps: Deps): RouteDef[] {
             [actor.organizationId],
           );
         return rows.map((r): OutboxMessageDto => ({ id: String(r.id), receivedAt: new Date(r.received_at).toISOString(), to: r.envelope_to, subject: r.subject, text: r.text_body, attachments: r.attachments }));
+      },
+    }),
+    orgRoute({
+      method: 'get',
+      path: '/orgs/:orgId/deliveries',
+      summary: "The organization's outgoing e-mail and its delivery state (queued, sending, sent, failed with the reason)",
+      access: { kind: 'org', action: 'read', subject: 'Outbox' },
+      params: OrgParamsSchema,
+      async handler({ ds, actor }) {
+        const rows: { id: string; kind: string; to_address: string; subject: string; status: DeliveryDto['status']; attempts: number; last_error: string | null; created_at: Date; sent_at: Date | null }[] =
+          await ds.query(
+            `SELECT id, kind, to_address, subject, status, attempts, last_error, created_at, sent_at FROM email_deliveries
+              WHERE organization_id = $1 ORDER BY created_at DESC LIMIT 300`,
+            [actor.organizationId],
+          );
+        return rows.map((r): DeliveryDto => ({
+          id: r.id, kind: r.kind, to: r.to_address, subject: r.subject, status: r.status, attempts: r.attempts, lastError: r.last_error,
+          createdAt: new Date(r.created_at).toISOString(), sentAt: r.sent_at ? new Date(r.sent_at).toISOString() : null,
+        }));
       },
     }),
   ];

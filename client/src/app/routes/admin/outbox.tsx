@@ -1,4 +1,5 @@
 import { OutboxList } from '../../../features/outbox/components/OutboxList';
+import { DeliveryTable } from '../../../features/outbox/components/DeliveryTable';
 import { PageHeader } from '../../../components/ui/Panel';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
@@ -9,8 +10,11 @@ export function OutboxPage() {
   return (
     <div className="space-y-4">
       <PageHeader title="Outbox">
-        The e-mails Loadline sent, as the local test mail server received them: invitations and signed clearance letters.
+        Every e-mail Loadline sent or is trying to send, with its state (a failure shows its reason), and what the local test mail server received.
       </PageHeader>
+      <h2 className="text-lg font-bold">Deliveries</h2>
+      <DeliveryTable orgId={orgId} />
+      <h2 className="text-lg font-bold">Received by the local test mail server</h2>
       <OutboxList orgId={orgId} />
     </div>
   );
