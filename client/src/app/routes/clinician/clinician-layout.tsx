@@ -1,5 +1,5 @@
-import { NavLink, Outlet } from 'react-router-dom';
-import { cx } from '../../../components/ui/cx';
+import { Outlet } from 'react-router-dom';
+import { SectionNav } from '../../../components/ui/SectionNav';
 import { RoleGate } from '../../layout/RoleGate';
 
 const LINKS = [
@@ -13,26 +13,7 @@ const LINKS = [
 export function ClinicianLayout() {
   return (
     <RoleGate role="clinician">
-      <nav aria-label="Clinic" className="mb-5">
-        <ul className="flex flex-wrap gap-2 text-sm">
-          {LINKS.map((link) => (
-            <li key={link.to}>
-              <NavLink
-                to={link.to}
-                end={link.end}
-                className={({ isActive }) =>
-                  cx(
-                    'inline-flex min-h-9 items-center rounded-md border px-3 font-semibold no-underline',
-                    isActive ? 'border-ink bg-ink text-paper' : 'border-rule-strong bg-sheet text-ink hover:bg-shade',
-                  )
-                }
-              >
-                {link.label}
-              </NavLink>
-            </li>
-          ))}
-        </ul>
-      </nav>
+      <SectionNav label="Clinic" links={LINKS} />
       <Outlet />
     </RoleGate>
   );
