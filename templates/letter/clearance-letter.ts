@@ -1,6 +1,7 @@
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
+import { nameWithCredential } from '../../policies/letters';
 
 const require = createRequire(import.meta.url);
 /** Public Sans from the installed package (pdfkit reads .woff, not .woff2); nothing is downloaded. */
@@ -109,7 +110,7 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
   doc.moveDown(1);
   doc.font('Bold').fontSize(12).text('Signed');
   doc.font('Body').fontSize(11).text(d.draft ? '(not yet signed)' : `${d.signature} — ${d.signedAt.replace('T', ' ').slice(0, 16)} UTC`);
-  doc.text(`${d.clinicianName}, ${d.credential}, licence ${d.licenceNumber}`);
+  doc.text(`${nameWithCredential(d.clinicianName, d.credential)}, licence ${d.licenceNumber}`);
   doc.moveDown(1);
   if (!d.draft && qr) {
     const y = doc.y;

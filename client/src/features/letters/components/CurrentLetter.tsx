@@ -7,6 +7,7 @@ import { isApiError } from '../../../lib/api-client';
 import { currentLetter, letterPdfHref, useLetters } from '../api/get-letters';
 import { LimitsList } from './LetterRecord';
 import { dayOf, letterDates } from './letter-words';
+import { nameWithCredential } from '../../../../../policies/letters';
 
 /**
  * The letter in force, for the athlete (their own) and the coach (a care-team athlete): decision,
@@ -46,7 +47,7 @@ function LetterSummary({ orgId, letter, audience }: { orgId: string; letter: Let
         </div>
       )}
       <p className="text-sm text-ink-2">
-        Signed by {letter.clinicianName}, {letter.credential}
+        Signed by {nameWithCredential(letter.clinicianName, letter.credential)}
         {letter.signedAt ? `, on ${dayOf(letter.signedAt)}` : ''}.
       </p>
       <a href={letterPdfHref(orgId, letter.id)} download className={buttonClass('secondary', audience === 'athlete' ? 'lg' : 'md')}>

@@ -11,6 +11,7 @@ import { LetterCaution } from './LetterCaution';
 import { LetterStatusMark } from './LetterMarks';
 import { LimitsList } from './LetterRecord';
 import { DECISION_WORDS, dayOf, letterDates } from './letter-words';
+import { nameWithCredential } from '../../../../../policies/letters';
 
 /**
  * "Letters" on the guardian's phone: the signed letter of each linked athlete, large and plain,
@@ -110,7 +111,7 @@ function FamilyLetter({ orgId, letter, guardianId, name }: { orgId: string; lett
         </div>
       )}
       <p className="text-sm text-ink-2">
-        Signed by {letter.clinicianName}, {letter.credential}
+        Signed by {nameWithCredential(letter.clinicianName, letter.credential)}
         {letter.signedAt && `, on ${dayOf(letter.signedAt)}`}.
       </p>
       <div className="flex flex-col gap-2 sm:flex-row sm:flex-wrap">
