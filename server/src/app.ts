@@ -87,9 +87,11 @@ export function buildApp(base: AppDeps) {
     next();
   });
   api.use(express.json({ limit: '100kb' }));
-  api.use(sessionMiddleware);
-  api.use(passport.initialize());
-  api.use(passport.session());
+  // The health check never needs a session: load balancers call it often and without cookies.
+  const unlessHealth = (mw: express.RequestHandler): express.RequestHandler => (req, res, next) => (req.path === '/health' ? next() : mw(req, res, next));
+  api.use(unlessHealth(sessionMiddleware));
+  api.use(unlessHealth(passport.initialize()));
+  api.use(unlessHealth(passport.session()));
   api.use(absoluteTimeout(deps));
   api.use(csrfProtection());
   mountRoutes(api, deps, [

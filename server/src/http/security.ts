@@ -38,6 +38,7 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
   const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 5000 });
   pool.on('error', (err) => deps.logger.warn({ err }, 'session pool: idle client error'));
   const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
+  const touchEveryMs = Math.min(60_000, idleMs / 10);
   const store = new PgStore({
       pool,
       tableName: 'session',
@@ -45,6 +46,18 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
       pruneSessionInterval: 15 * 60,
       errorLog: (...args: unknown[]) => deps.logger.warn({ args }, 'session store error'),
   });
+  // Rolling sessions would write the row's expiry on every request. Touch each session at most once a
+  // minute instead: the stored expiry then lags by under a minute, so the server-side idle timeout
+  // can only end a session slightly earlier, never later.
+  const lastTouch = new Map<string, number>();
+  const touch = store.touch.bind(store);
+  store.touch = (sid: string, sess: session.SessionData, cb?: (err?: unknown) => void) => {
+    const now = Date.now();
+    if (now - (lastTouch.get(sid) ?? 0) < touchEveryMs) return cb?.();
+    if (lastTouch.size > 50_000) lastTouch.clear();
+    lastTouch.set(sid, now);
+    touch(sid, sess, cb);
+  };
   const middleware = session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
