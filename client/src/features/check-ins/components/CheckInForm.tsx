@@ -1,4 +1,4 @@
-import { Controller, useForm, useWatch } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { CheckInSchema } from '../../../../../policies/schemas';
@@ -8,7 +8,7 @@ import { formatDate } from '../../../lib/format';
 import { Button } from '../../../components/ui/Button';
 import { TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
-import { ScoreScale } from '../../../components/ui/ScoreScale';
+import { ScoreField } from '../../../components/ui/ScoreScale';
 import { useCreateCheckIn } from '../api/create-check-in';
 
 type Input = z.input<typeof CheckInSchema>;
@@ -81,51 +81,9 @@ export function CheckInForm({ orgId, athleteId, date, existing }: { orgId: strin
           +
         </Button>
       </div>
-      <Controller
-        control={control}
-        name="soreness"
-        render={({ field }) => (
-          <ScoreScale
-            label="Soreness"
-            value={field.value}
-            onChange={field.onChange}
-            onBlur={field.onBlur}
-            low="Not sore"
-            high="As sore as can be"
-            error={errors.soreness?.message}
-          />
-        )}
-      />
-      <Controller
-        control={control}
-        name="readiness"
-        render={({ field }) => (
-          <ScoreScale
-            label="Ready to train"
-            value={field.value}
-            onChange={field.onChange}
-            onBlur={field.onBlur}
-            low="Not ready at all"
-            high="Ready for anything"
-            error={errors.readiness?.message}
-          />
-        )}
-      />
-      <Controller
-        control={control}
-        name="painNow"
-        render={({ field }) => (
-          <ScoreScale
-            label="Pain now"
-            value={field.value}
-            onChange={field.onChange}
-            onBlur={field.onBlur}
-            low="No pain"
-            high="Worst pain you can imagine"
-            error={errors.painNow?.message}
-          />
-        )}
-      />
+      <ScoreField control={control} name="soreness" label="Soreness" low="Not sore" high="As sore as can be" error={errors.soreness?.message} />
+      <ScoreField control={control} name="readiness" label="Ready to train" low="Not ready at all" high="Ready for anything" error={errors.readiness?.message} />
+      <ScoreField control={control} name="painNow" label="Pain now" low="No pain" high="Worst pain you can imagine" error={errors.painNow?.message} />
       <ErrorNotice error={save.error} title="Check-in not saved" />
       {save.isSuccess && (
         <Notice tone="done" role="status" title={`Checked in for ${formatDate(save.data.date)}. Thank you.`}>

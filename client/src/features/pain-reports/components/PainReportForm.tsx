@@ -13,7 +13,7 @@ import { todayLocal } from '../../../lib/dates';
 import { Button } from '../../../components/ui/Button';
 import { CheckboxGroup, TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice } from '../../../components/ui/Notice';
-import { ScoreScale } from '../../../components/ui/ScoreScale';
+import { ScoreField } from '../../../components/ui/ScoreScale';
 import { useCreatePainReport } from '../api/create-pain-report';
 import { BodyMap } from './BodyMap';
 import { EmergencyScreen, ReportOutcome } from './ReportOutcome';
@@ -147,36 +147,8 @@ export function PainReportForm({
             name="bodyRegions"
             render={({ field }) => <BodyMap value={field.value ?? []} onChange={field.onChange} error={errors.bodyRegions?.message} />}
           />
-          <Controller
-            control={control}
-            name="painNow"
-            render={({ field }) => (
-              <ScoreScale
-                label="Pain now"
-                value={field.value}
-                onChange={field.onChange}
-                onBlur={field.onBlur}
-                low={PAIN_LOW}
-                high={PAIN_HIGH}
-                error={errors.painNow?.message}
-              />
-            )}
-          />
-          <Controller
-            control={control}
-            name="painWorst24h"
-            render={({ field }) => (
-              <ScoreScale
-                label="Worst pain in the last 24 hours"
-                value={field.value}
-                onChange={field.onChange}
-                onBlur={field.onBlur}
-                low={PAIN_LOW}
-                high={PAIN_HIGH}
-                error={errors.painWorst24h?.message}
-              />
-            )}
-          />
+          <ScoreField control={control} name="painNow" label="Pain now" low={PAIN_LOW} high={PAIN_HIGH} error={errors.painNow?.message} />
+          <ScoreField control={control} name="painWorst24h" label="Worst pain in the last 24 hours" low={PAIN_LOW} high={PAIN_HIGH} error={errors.painWorst24h?.message} />
           <TextField
             label="When did it start?"
             type="date"

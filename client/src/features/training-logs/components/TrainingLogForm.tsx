@@ -1,5 +1,5 @@
 import { useEffect, useRef } from 'react';
-import { Controller, useFieldArray, useForm, useWatch } from 'react-hook-form';
+import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import type { TrainingLogOutcomeDto } from '../../../../../policies/dto';
 import type { TrainingLogCreateInput, Unit } from '../../../../../policies/schemas';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
@@ -8,7 +8,7 @@ import { todayLocal } from '../../../lib/dates';
 import { Button } from '../../../components/ui/Button';
 import { TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice } from '../../../components/ui/Notice';
-import { ScoreScale } from '../../../components/ui/ScoreScale';
+import { ScoreField } from '../../../components/ui/ScoreScale';
 import { useCreateTrainingLog } from '../api/create-training-log';
 import { EMPTY_SET, logFormResolver, toNumber, toNumberOrNull, type LogFormValues } from './log-form';
 import { SessionEffortField } from './SessionEffortField';
@@ -94,39 +94,8 @@ export function TrainingLogForm({
         error={errors.sessionRpe?.message}
         input={register('sessionRpe', { setValueAs: toNumber })}
       />
-      <Controller
-        control={control}
-        name="painBefore"
-        render={({ field }) => (
-          <ScoreScale
-            label="Pain before"
-            hint="Before you started."
-            value={field.value}
-            onChange={field.onChange}
-            onBlur={field.onBlur}
-            low="No pain"
-            high="Worst pain you can imagine"
-            error={errors.painBefore?.message}
-          />
-        )}
-      />
-      <Controller
-        control={control}
-        name="painDuring"
-        render={({ field }) => (
-          <ScoreScale
-            label="Pain during"
-            hint="The most it hurt during the session."
-            value={field.value}
-            onChange={field.onChange}
-            onBlur={field.onBlur}
-            low="No pain"
-            high="Worst pain you can imagine"
-            limit={painCeiling}
-            error={errors.painDuring?.message}
-          />
-        )}
-      />
+      <ScoreField control={control} name="painBefore" label="Pain before" hint="Before you started." low="No pain" high="Worst pain you can imagine" error={errors.painBefore?.message} />
+      <ScoreField control={control} name="painDuring" label="Pain during" hint="The most it hurt during the session." low="No pain" high="Worst pain you can imagine" limit={painCeiling} error={errors.painDuring?.message} />
 
       <fieldset className="min-w-0 space-y-3">
         <legend className="text-base font-semibold">Sets</legend>
