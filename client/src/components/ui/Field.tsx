@@ -30,16 +30,21 @@ interface FieldFrameProps {
   large?: boolean;
 }
 
-export type TextFieldProps = ComponentProps<'input'> & FieldFrameProps;
+interface ControlA11y {
+  id: string;
+  'aria-invalid': true | undefined;
+  'aria-describedby': string | undefined;
+}
 
-export function TextField({ label, hint, error, large, className, id, ...input }: TextFieldProps) {
+/** Label, hint and error around one control, with the ids that tie them together for screen readers. */
+function FieldFrame({ label, hint, error, className, id, children }: FieldFrameProps & { className?: string; id?: string; children: (a11y: ControlA11y) => ReactNode }) {
   const autoId = useId();
-  const inputId = id ?? autoId;
-  const hintId = `${inputId}-hint`;
-  const errorId = `${inputId}-error`;
+  const controlId = id ?? autoId;
+  const hintId = `${controlId}-hint`;
+  const errorId = `${controlId}-error`;
   return (
     <div className={className}>
-      <label htmlFor={inputId} className="block text-sm font-semibold">
+      <label htmlFor={controlId} className="block text-sm font-semibold">
         {label}
       </label>
       {hint && (
@@ -47,46 +52,33 @@ export function TextField({ label, hint, error, large, className, id, ...input }
           {hint}
         </p>
       )}
-      <input
-        id={inputId}
-        className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm', 'tabular-nums')}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(hint && hintId, error && errorId)}
-        {...input}
-      />
+      {children({ id: controlId, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy(hint && hintId, error && errorId) })}
       <FieldMessage id={errorId} label={label} error={error} />
     </div>
+  );
+}
+
+export type TextFieldProps = ComponentProps<'input'> & FieldFrameProps;
+
+export function TextField({ label, hint, error, large, className, id, ...input }: TextFieldProps) {
+  return (
+    <FieldFrame label={label} hint={hint} error={error} className={className} id={id}>
+      {(a11y) => <input {...a11y} className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm', 'tabular-nums')} {...input} />}
+    </FieldFrame>
   );
 }
 
 export type SelectFieldProps = ComponentProps<'select'> & FieldFrameProps;
 
 export function SelectField({ label, hint, error, large, className, id, children, ...select }: SelectFieldProps) {
-  const autoId = useId();
-  const selectId = id ?? autoId;
-  const hintId = `${selectId}-hint`;
-  const errorId = `${selectId}-error`;
   return (
-    <div className={className}>
-      <label htmlFor={selectId} className="block text-sm font-semibold">
-        {label}
-      </label>
-      {hint && (
-        <p id={hintId} className="text-sm text-muted">
-          {hint}
-        </p>
+    <FieldFrame label={label} hint={hint} error={error} className={className} id={id}>
+      {(a11y) => (
+        <select {...a11y} className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm')} {...select}>
+          {children}
+        </select>
       )}
-      <select
-        id={selectId}
-        className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm')}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(hint && hintId, error && errorId)}
-        {...select}
-      >
-        {children}
-      </select>
-      <FieldMessage id={errorId} label={label} error={error} />
-    </div>
+    </FieldFrame>
   );
 }
 
@@ -94,30 +86,10 @@ export type TextAreaFieldProps = ComponentProps<'textarea'> & FieldFrameProps;
 
 /** Free text, e.g. notes. The hint sits between label and box, so who will read it is said up front. */
 export function TextAreaField({ label, hint, error, large, className, id, rows = 3, ...textarea }: TextAreaFieldProps) {
-  const autoId = useId();
-  const areaId = id ?? autoId;
-  const hintId = `${areaId}-hint`;
-  const errorId = `${areaId}-error`;
   return (
-    <div className={className}>
-      <label htmlFor={areaId} className="block text-sm font-semibold">
-        {label}
-      </label>
-      {hint && (
-        <p id={hintId} className="text-sm text-muted">
-          {hint}
-        </p>
-      )}
-      <textarea
-        id={areaId}
-        rows={rows}
-        className={cx(CONTROL, 'mt-1 py-2', large ? 'text-base' : 'text-sm')}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(hint && hintId, error && errorId)}
-        {...textarea}
-      />
-      <FieldMessage id={errorId} label={label} error={error} />
-    </div>
+    <FieldFrame label={label} hint={hint} error={error} className={className} id={id}>
+      {(a11y) => <textarea {...a11y} rows={rows} className={cx(CONTROL, 'mt-1 py-2', large ? 'text-base' : 'text-sm')} {...textarea} />}
+    </FieldFrame>
   );
 }
 
