@@ -74,6 +74,10 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     LetterAcknowledgement: { organizationId: org, athleteId },
     // The organization's outbox is about no athlete: only 'same-org' and 'other-org' apply.
     Outbox: { organizationId: org },
+    // Uploads and notes made by the actor themself, so 'delete' rows read as "their own upload".
+    CaseDocument: { id: `document-${relation}`, organizationId: org, athleteId, uploadedByUserId: actor.userId },
+    Clip: { id: `clip-${relation}`, organizationId: org, athleteId, uploadedByUserId: actor.userId },
+    ClipNote: { id: `clip-note-${relation}`, organizationId: org, athleteId, authorUserId: actor.userId },
   };
   return records[subject] as SubjectShapes[K];
 }

@@ -15,6 +15,7 @@ import { restrictionPlanRules } from './restriction-plan';
 import { athleteReportRules } from './athlete-reports';
 import { programRules } from './program';
 import { letterRules } from './letter';
+import { uploadRules } from './uploads';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -30,6 +31,7 @@ const RULE_SETS: RuleSet[] = [
   athleteReportRules,
   programRules,
   letterRules,
+  uploadRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

@@ -16,6 +16,8 @@ export interface Actor {
   clinicianOf: string[];
   /** Athlete membership ids the actor is linked to as guardian. */
   guardianOf: string[];
+  /** Organization setting: guardians may watch their athlete's technique clips. Off when absent. */
+  guardiansSeeClips?: boolean;
 }
 
 export function hasRole(actor: Actor, role: Role): boolean {

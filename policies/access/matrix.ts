@@ -338,6 +338,46 @@ const GRID: [SubjectName, Action, Relation, string][] = [
   ['Outbox',             'create', 'same-org',        'n   n   n   n   n'],
   ['Outbox',             'update', 'same-org',        'n   n   n   n   n'],
   ['Outbox',             'delete', 'same-org',        'n   n   n   n   n'],
+  // Outside documents on a case: clinicians on the team and the athlete only (coaches, guardians
+  // and admins never). 'delete' rows are about the actor's own upload.
+  ['CaseDocument',       'read',   'self',            'Y   -   -   -   -'],
+  ['CaseDocument',       'read',   'own-care-team',   '-   n   Y   n   -'],
+  ['CaseDocument',       'read',   'other-athlete',   'n   n   n   n   n'],
+  ['CaseDocument',       'read',   'other-org',       'n   n   n   n   n'],
+  ['CaseDocument',       'create', 'self',            'Y   -   -   -   -'],
+  ['CaseDocument',       'create', 'own-care-team',   '-   n   Y   n   -'],
+  ['CaseDocument',       'create', 'other-athlete',   'n   n   n   n   n'],
+  ['CaseDocument',       'create', 'other-org',       'n   n   n   n   n'],
+  ['CaseDocument',       'delete', 'self',            'Y   -   -   -   -'],
+  ['CaseDocument',       'delete', 'own-care-team',   '-   n   Y   n   -'],
+  ['CaseDocument',       'delete', 'other-athlete',   'n   n   n   n   n'],
+  ['CaseDocument',       'delete', 'other-org',       'n   n   n   n   n'],
+
+  // Technique clips: the athlete and the care team; guardians only when the organization turns it
+  // on (the matrix's actor has the setting off). 'delete' rows are about the actor's own upload.
+  ['Clip',               'read',   'self',            'Y   -   -   -   -'],
+  ['Clip',               'read',   'own-care-team',   '-   Y   Y   n   -'],
+  ['Clip',               'read',   'other-athlete',   'n   n   n   n   n'],
+  ['Clip',               'read',   'other-org',       'n   n   n   n   n'],
+  ['Clip',               'create', 'self',            'Y   -   -   -   -'],
+  ['Clip',               'create', 'own-care-team',   '-   Y   n   n   -'],
+  ['Clip',               'create', 'other-athlete',   'n   n   n   n   n'],
+  ['Clip',               'create', 'other-org',       'n   n   n   n   n'],
+  ['Clip',               'delete', 'self',            'Y   -   -   -   -'],
+  ['Clip',               'delete', 'own-care-team',   '-   Y   n   n   -'],
+  ['Clip',               'delete', 'other-athlete',   'n   n   n   n   n'],
+  ['Clip',               'delete', 'other-org',       'n   n   n   n   n'],
+  ['ClipNote',           'read',   'self',            'Y   -   -   -   -'],
+  ['ClipNote',           'read',   'own-care-team',   '-   Y   Y   n   -'],
+  ['ClipNote',           'read',   'other-athlete',   'n   n   n   n   n'],
+  ['ClipNote',           'read',   'other-org',       'n   n   n   n   n'],
+  ['ClipNote',           'create', 'self',            'n   -   -   -   -'],
+  ['ClipNote',           'create', 'own-care-team',   '-   Y   Y   n   -'],
+  ['ClipNote',           'create', 'other-athlete',   'n   n   n   n   n'],
+  ['ClipNote',           'create', 'other-org',       'n   n   n   n   n'],
+  ['ClipNote',           'delete', 'own-care-team',   '-   Y   Y   n   -'],
+  ['ClipNote',           'delete', 'other-athlete',   'n   n   n   n   n'],
+  ['ClipNote',           'delete', 'other-org',       'n   n   n   n   n'],
 ];
 
 function expand(): MatrixRow[] {

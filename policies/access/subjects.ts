@@ -35,6 +35,12 @@ export interface SubjectShapes {
   LetterAcknowledgement: { organizationId: string; athleteId: string };
   /** The local fake mail server's messages (only while it is in use). */
   Outbox: { organizationId: string };
+  /** An outside document on a case: clinicians on the care team and the athlete only. */
+  CaseDocument: { id: string; organizationId: string; athleteId: string; uploadedByUserId: string };
+  /** A technique clip of a logged set. */
+  Clip: { id: string; organizationId: string; athleteId: string; uploadedByUserId: string };
+  /** A note pinned to a time in a clip. */
+  ClipNote: { id: string; organizationId: string; athleteId: string; authorUserId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -62,6 +68,9 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Letter',
   'LetterAcknowledgement',
   'Outbox',
+  'CaseDocument',
+  'Clip',
+  'ClipNote',
 ];
 
 type TaggedSubjects = {

@@ -6,3 +6,4 @@ export * from './cases';
 export * from './athlete';
 export * from './programs';
 export * from './letters';
+export * from './uploads';

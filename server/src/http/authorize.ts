@@ -28,6 +28,9 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Letter: 'letter',
   LetterAcknowledgement: 'acknowledgement',
   Outbox: 'outbox',
+  CaseDocument: 'document',
+  Clip: 'clip',
+  ClipNote: 'note',
 };
 
 /**

@@ -162,6 +162,9 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Letter: 'clearance letters',
   LetterAcknowledgement: 'letter acknowledgements',
   Outbox: 'the test outbox',
+  CaseDocument: 'case documents',
+  Clip: 'technique clips',
+  ClipNote: 'notes on clips',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {
