@@ -17,6 +17,21 @@ const ConfigSchema = z.object({
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).max(12).default(12),
   INVITATION_TTL_HOURS: z.coerce.number().min(1).max(24 * 14).default(72),
   BCRYPT_COST: z.coerce.number().int().min(12).max(15).default(12),
+  /** Password reset links work once and for this many minutes. */
+  RESET_TTL_MINUTES: z.coerce.number().min(1).max(24 * 60).default(30),
+  /** Reset requests per e-mail address and per IP address, over SIGNIN_WINDOW_SECONDS. */
+  RESET_MAX_PER_ACCOUNT: z.coerce.number().int().min(1).default(5),
+  RESET_MAX_PER_IP: z.coerce.number().int().min(1).default(20),
+  /**
+   * 32 bytes (64 hex characters or base64) that encrypt two-step sign-in secrets at rest. Unset: a key
+   * is derived from SESSION_SECRET, so changing SESSION_SECRET then makes enrolled authenticators unusable.
+   */
+  TOTP_KEY: z
+    .string()
+    .refine((v) => /^[0-9a-fA-F]{64}$/.test(v.trim()) || Buffer.from(v.trim(), 'base64').length === 32, {
+      message: 'TOTP_KEY must be 32 bytes, written as 64 hex characters or base64',
+    })
+    .optional(),
   CLIENT_DIST: z.string().optional(),
   /** Where e-mail goes. Unset: no e-mail is queued (the app still works; notices stay in-app). */
   SMTP_URL: z.string().optional(),
@@ -24,6 +39,18 @@ const ConfigSchema = z.object({
   FAKE_MAIL: z.enum(['true', 'false']).default('false'),
   /** Run the e-mail worker in this process (one or more app servers may do so). */
   RUN_WORKERS: z.enum(['true', 'false']).default('true'),
+  /** Uploaded files on local disk (default `<repo>/.data/uploads`); unused when S3_BUCKET is set. */
+  STORAGE_DIR: z.string().optional(),
+  /** Upload size limits in MB (fractions allowed, so tests can use small ones). */
+  UPLOAD_MAX_DOCUMENT_MB: z.coerce.number().positive().default(20),
+  UPLOAD_MAX_CLIP_MB: z.coerce.number().positive().default(300),
+  /** Uploads go to this bucket through the S3 API when set. */
+  S3_BUCKET: z.string().optional(),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).default('false'),
 });
 
 export type Config = z.infer<typeof ConfigSchema>;
