@@ -10,12 +10,8 @@ import type { RestrictionPlanVersion } from '../entities';
 
 type Db = DataSource | EntityManager;
 
-const SEVERITY: Record<ParticipationStatus, number> = { full: 0, limited: 1, out: 2 };
-
-/** The most restrictive status wins when an athlete has several open cases. */
-export function mostRestrictive(statuses: ParticipationStatus[]): ParticipationStatus {
-  return statuses.reduce<ParticipationStatus>((acc, s) => (SEVERITY[s] > SEVERITY[acc] ? s : acc), 'full');
-}
+export { mostRestrictive } from '../../../policies/load/status-on';
+import { mostRestrictive } from '../../../policies/load/status-on';
 
 interface StatusRow {
   case_id: string;

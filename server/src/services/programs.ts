@@ -6,7 +6,8 @@ import type { Unit } from '../../../policies/schemas/common';
 import type { PlannedSetInput, SessionContent } from '../../../policies/schemas/programs';
 import { todayIso } from '../../../policies/roles';
 import { Exercise, ProgramSession, SessionHold } from '../entities';
-import { activePlans, mostRestrictive } from './cases';
+import { activePlans } from './cases';
+import { statusOnDate } from '../../../policies/load/status-on';
 import { athleteCircle, notify } from './notify';
 
 /** A set's content, hashed: a granted exception covers the set only while it stays as granted. */
@@ -41,17 +42,13 @@ export async function currentBaselines(m: EntityManager, athleteId: string): Pro
 
 /** Participation status by date: per open case, the most recently recorded change in effect (as statusesOn). */
 async function statusLookup(m: EntityManager, athleteId: string): Promise<(date: string) => ParticipationStatus> {
-  const rows: { case_id: string; status: ParticipationStatus; effective_from: string }[] = await m.query(
-    `SELECT s.case_id, s.status, s.effective_from FROM participation_status_changes s
+  const rows: { case_id: string; status: ParticipationStatus; effective_from: string; created_at: Date }[] = await m.query(
+    `SELECT s.case_id, s.status, s.effective_from, s.created_at FROM participation_status_changes s
        JOIN cases c ON c.id = s.case_id AND c.closed_on IS NULL
-      WHERE s.athlete_id = $1 ORDER BY s.created_at, s.effective_from`,
+      WHERE s.athlete_id = $1`,
     [athleteId],
   );
-  return (date) => {
-    const latest = new Map<string, ParticipationStatus>();
-    for (const r of rows) if (r.effective_from <= date) latest.set(r.case_id, r.status);
-    return mostRestrictive([...latest.values()]);
-  };
+  return statusOnDate(rows.map((r) => ({ caseId: r.case_id, status: r.status, effectiveFrom: r.effective_from, createdAt: new Date(r.created_at).toISOString() })));
 }
 
 /** Set ids of this athlete covered by granted exceptions whose sets are unchanged since the grant. */

@@ -11,6 +11,7 @@ import {
 } from '../../../../../policies/load/compliance';
 import { inForceOn, ruleForPatterns, type PlanInput } from '../../../../../policies/load/in-force';
 import type { ParticipationStatus } from '../../../../../policies/load/patterns';
+import { statusOnDate, type StatusChangeInput } from '../../../../../policies/load/status-on';
 import type { Unit } from '../../../../../policies/schemas';
 import type { SessionContent } from '../../../../../policies/schemas/programs';
 
@@ -21,7 +22,10 @@ export interface AthleteEngine {
   plans: PlanInput[];
   /** Current 1RM in kg per exercise id. */
   oneRms: Record<string, number>;
+  /** Today's participation status. */
   status: ParticipationStatus;
+  /** The status decisions of the open cases; each set is checked against the status of its date. */
+  statusChanges?: StatusChangeInput[];
   /** Every published session the athlete has, in any program. */
   published: ProgramSessionDto[];
 }
@@ -79,7 +83,7 @@ export function liveBreaches({ session, engine, exercises, unit, waived }: LiveC
     plans: engine.plans,
     exercises,
     baselines: engine.oneRms,
-    statusOn: () => engine.status,
+    statusOn: engine.statusChanges ? statusOnDate(engine.statusChanges) : () => engine.status,
     waivedSetIds: waived,
     unit,
   };
