@@ -24,12 +24,16 @@ import { ProgramException } from './program-exception.entity';
 import { ClearanceLetter } from './clearance-letter.entity';
 import { EmailDelivery } from './email-delivery.entity';
 import { LetterAcknowledgement } from './letter-acknowledgement.entity';
+import { CaseDocument } from './case-document.entity';
+import { Clip } from './clip.entity';
+import { ClipNote } from './clip-note.entity';
 
 export {
   Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
   ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion, PainReport, CheckIn, TrainingLog, Flag, Notification,
   Exercise, Baseline, Program, ProgramSession, SessionHold, ProgramException, ClearanceLetter, EmailDelivery, LetterAcknowledgement,
 };
+export { CaseDocument, Clip, ClipNote };
 
 export const ENTITIES = [
   Organization,
@@ -58,4 +62,7 @@ export const ENTITIES = [
   ClearanceLetter,
   EmailDelivery,
   LetterAcknowledgement,
+  CaseDocument,
+  Clip,
+  ClipNote,
 ];

@@ -1,4 +1,4 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, VersionColumn } from 'typeorm';
 
 @Entity({ name: 'organizations' })
 export class Organization {
@@ -12,6 +12,13 @@ export class Organization {
   @Column('varchar', { name: 'emergency_number', length: 30, default: '911' })
   emergencyNumber: string;
 
+  /** Guardians may watch their athlete's technique clips (off unless an admin turns it on). */
+  @Column('boolean', { name: 'guardians_see_clips', default: false })
+  guardiansSeeClips: boolean;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
+
+  @VersionColumn({ type: 'int' })
+  version: number;
 }

@@ -4,6 +4,7 @@ import { CreateAthleteReports1764800000000 } from './1764800000000-create-athlet
 import { CreatePrograms1764900000000 } from './1764900000000-create-programs';
 import { AddAthleteIndexes1765000000000 } from './1765000000000-add-athlete-indexes';
 import { CreateLettersAndMail1765100000000 } from './1765100000000-create-letters-and-mail';
+import { CreateUploads1765200000000 } from './1765200000000-create-uploads';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -13,4 +14,5 @@ export const MIGRATIONS = [
   CreatePrograms1764900000000,
   AddAthleteIndexes1765000000000,
   CreateLettersAndMail1765100000000,
+  CreateUploads1765200000000,
 ];

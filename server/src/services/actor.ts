@@ -6,6 +6,7 @@ interface ActorRow {
   membership_id: string;
   organization_id: string;
   organization_name: string;
+  guardians_see_clips: boolean;
   roles: Role[];
   coach_of: string[];
   clinician_of: string[];
@@ -18,7 +19,7 @@ interface ActorRow {
  * still active, so removing a role or a member takes effect on the very next request.
  */
 const ACTOR_SQL = `
-  SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, m.roles,
+  SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, o.guardians_see_clips, m.roles,
     CASE WHEN 'coach' = ANY(m.roles) THEN COALESCE((
       SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
       JOIN memberships a ON a.id = c.athlete_id AND a.active
@@ -48,6 +49,7 @@ function toActor(userId: string, row: ActorRow): ActorWithOrg {
     coachOf: row.coach_of,
     clinicianOf: row.clinician_of,
     guardianOf: row.guardian_of,
+    guardiansSeeClips: row.guardians_see_clips,
   };
 }
 
