@@ -129,3 +129,15 @@ describe('decisionWords', () => {
     expect(decisionWords({ decision: 'limited', effectiveFrom: '2026-12-31' })).toBe('Limited participation from 31 December 2026');
   });
 });
+
+describe('names outside basic Latin', () => {
+  it('prints Polish and Vietnamese names with glyphs from the matching Public Sans files', async () => {
+    const latinOnly = await readPdf(await renderLetterPdf(SAMPLE_LETTER));
+    const { text, fonts } = await readPdf(await renderLetterPdf({ ...SAMPLE_LETTER, athleteName: 'Łucja Żółć-Nguyễn', signature: 'Đặng Thu' }));
+    expect(text).toContain('Łucja Żółć-Nguyễn');
+    expect(text).toContain('Đặng Thu');
+    // The latin-ext and vietnamese files are embedded and drawn with, besides the latin ones.
+    expect(fonts.length).toBeGreaterThan(latinOnly.fonts.length);
+    expect(fonts.every((f) => f.embedded)).toBe(true);
+  });
+});

@@ -1,12 +1,7 @@
-import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
 import { nameWithCredential } from '../../policies/letters';
-
-const require = createRequire(import.meta.url);
-/** Public Sans from the installed package (pdfkit reads .woff, not .woff2); nothing is downloaded. */
-const FONT_REGULAR = require.resolve('@fontsource/public-sans/files/public-sans-latin-400-normal.woff');
-const FONT_BOLD = require.resolve('@fontsource/public-sans/files/public-sans-latin-700-normal.woff');
+import { fontFiles, writeText } from './font-runs';
 
 export interface LetterData {
   organizationName: string;
@@ -73,10 +68,10 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
     tagged: true,
     lang: 'en',
     displayTitle: true,
-    info: { Title: `Clearance letter — ${d.athleteName}`, Author: d.organizationName, Subject: decisionWords(d), Creator: 'Loadline' },
+    info: { Title: `Clearance letter — ${d.athleteName.normalize('NFC')}`, Author: d.organizationName, Subject: decisionWords(d), Creator: 'Loadline' },
   } as PDFKit.PDFDocumentOptions);
-  doc.registerFont('Body', FONT_REGULAR);
-  doc.registerFont('Bold', FONT_BOLD);
+  // Public Sans from the installed package (pdfkit reads .woff, not .woff2), one file per script subset.
+  for (const f of fontFiles()) doc.registerFont(f.name, f.file);
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
@@ -84,14 +79,14 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
   const ink = '#14202e';
   const accent = '#c2571a';
   const grey = '#5b6470';
-  doc.fillColor(ink).font('Bold').fontSize(11).text(d.organizationName.toUpperCase(), { characterSpacing: 1 });
+  writeText(doc.fillColor(ink).fontSize(11), 'Bold', d.organizationName.toUpperCase(), { characterSpacing: 1 });
   doc.moveTo(60, doc.y + 6).lineTo(535, doc.y + 6).lineWidth(2).strokeColor(accent).stroke();
   doc.moveDown(1.2);
   doc.font('Bold').fontSize(22).text('Clearance letter');
   if (d.draft) doc.font('Bold').fontSize(12).fillColor(accent).text('DRAFT — not signed, not valid').fillColor(ink);
   doc.moveDown(0.8);
   doc.font('Body').fontSize(11).fillColor(grey).text('Athlete');
-  doc.font('Bold').fontSize(14).fillColor(ink).text(d.athleteName);
+  writeText(doc.fontSize(14).fillColor(ink), 'Bold', d.athleteName);
   doc.moveDown(0.6);
   doc.font('Body').fontSize(11).fillColor(grey).text('Decision');
   doc.font('Bold').fontSize(14).fillColor(ink).text(decisionWords(d));
@@ -100,17 +95,17 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
     doc.moveDown(0.6);
     doc.font('Bold').fontSize(12).text('Limits in force');
     doc.font('Body').fontSize(11);
-    for (const l of d.limits) doc.text(`•  ${l}`, { indent: 6 });
+    for (const l of d.limits) writeText(doc, 'Body', `•  ${l}`, { indent: 6 });
   }
   if (d.familyNote) {
     doc.moveDown(0.6);
     doc.font('Bold').fontSize(12).text('A note for the family');
-    doc.font('Body').fontSize(11).text(d.familyNote);
+    writeText(doc.fontSize(11), 'Body', d.familyNote);
   }
   doc.moveDown(1);
   doc.font('Bold').fontSize(12).text('Signed');
-  doc.font('Body').fontSize(11).text(d.draft ? '(not yet signed)' : `${d.signature} — ${d.signedAt.replace('T', ' ').slice(0, 16)} UTC`);
-  doc.text(`${nameWithCredential(d.clinicianName, d.credential)}, licence ${d.licenceNumber}`);
+  writeText(doc.fontSize(11), 'Body', d.draft ? '(not yet signed)' : `${d.signature} — ${d.signedAt.replace('T', ' ').slice(0, 16)} UTC`);
+  writeText(doc, 'Body', `${nameWithCredential(d.clinicianName, d.credential)}, licence ${d.licenceNumber}`);
   doc.moveDown(1);
   if (!d.draft && qr) {
     const y = doc.y;
