@@ -1,0 +1,364 @@
+/**
+ * Backup and restore of the app database with Debian's pg_dump / pg_restore (custom format), and a
+ * tar of the local uploads folder beside the dump. `scripts/db.ts backup | restore` are the command
+ * lines over these functions; `scripts/backup.test.ts` calls them directly.
+ */
+import { spawn } from 'node:child_process';
+import { closeSync, existsSync, fstatSync, mkdirSync, openSync, readSync, readdirSync, rmSync, statSync } from 'node:fs';
+import path from 'node:path';
+import pg from 'pg';
+import type { EntityManager } from 'typeorm';
+import { createDataSource } from '../server/src/data-source';
+import { verifyChain, type ChainReport } from '../server/src/services/audit';
+import { ROOT } from './pg-cluster';
+
+export const BACKUP_DIR = path.join(ROOT, '.data', 'backups');
+/** Every custom-format archive starts with these bytes. */
+const ARCHIVE_MAGIC = 'PGDMP';
+/** PostgreSQL truncates identifiers longer than this, which would make two of our names collide. */
+const MAX_IDENTIFIER = 63;
+
+/** A problem named in a sentence for the person at the command line (no stack trace needed). */
+export class BackupError extends Error {}
+
+/** Rows per table, keyed by table name (`schema.table` outside `public`). */
+export type TableCounts = Record<string, number>;
+
+/** Every organization's audit chain (and the chain of entries without one), walked from its start. */
+export async function verifyAllChains(manager: EntityManager): Promise<ChainReport[]> {
+  const orgs: { organization_id: string | null }[] = await manager.query(
+    'SELECT DISTINCT organization_id FROM audit_entries ORDER BY organization_id NULLS FIRST',
+  );
+  const reports: ChainReport[] = [];
+  for (const { organization_id } of orgs) reports.push(await verifyChain(manager, organization_id));
+  return reports;
+}
+
+/** A UTC timestamp that sorts and is safe in file and database names: 20261202T033612Z. */
+function stamp(at = new Date()): string {
+  return at.toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
+}
+
+function databaseName(url: string): string {
+  const name = decodeURIComponent(new URL(url).pathname.slice(1));
+  if (!name) throw new BackupError(`the database URL names no database: ${redact(url)}`);
+  return name;
+}
+
+function withDatabase(url: string, name: string): string {
+  const u = new URL(url);
+  u.pathname = `/${encodeURIComponent(name)}`;
+  return u.toString();
+}
+
+function redact(url: string): string {
+  const u = new URL(url);
+  if (u.password) u.password = '***';
+  return u.toString();
+}
+
+/**
+ * The connection string for a client tool, without its password: that goes in PGPASSWORD, so it
+ * never shows up in the process list.
+ */
+function toolConnection(url: string): { uri: string; env: NodeJS.ProcessEnv } {
+  const u = new URL(url);
+  const password = decodeURIComponent(u.password);
+  u.password = '';
+  const env: NodeJS.ProcessEnv = { ...process.env };
+  if (password) env.PGPASSWORD = password;
+  return { uri: u.toString(), env };
+}
+
+async function withClient<T>(url: string, fn: (c: pg.Client) => Promise<T>): Promise<T> {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    return await fn(client);
+  } finally {
+    await client.end();
+  }
+}
+
+/**
+ * Debian's pg_dump / pg_restore for the server's major version (the one under
+ * /usr/lib/postgresql/<version>/bin, as pg-cluster.ts finds initdb). A newer client can read an older
+ * server; an older one refuses, so that case is named here rather than by the tool. Without a
+ * version: the newest installed.
+ */
+export function pgTool(tool: 'pg_dump' | 'pg_restore', serverMajor?: number): string {
+  const base = '/usr/lib/postgresql';
+  const versions = existsSync(base)
+    ? readdirSync(base).map(Number).filter((v) => v > 0 && existsSync(path.join(base, String(v), 'bin', tool))).sort((a, b) => a - b)
+    : [];
+  const fit = serverMajor === undefined ? versions.at(-1)
+    : versions.includes(serverMajor) ? serverMajor : versions.find((v) => v > serverMajor);
+  if (fit === undefined) {
+    const found = versions.length ? `only version ${versions.join(', ')} is installed` : 'none is installed';
+    const want = serverMajor ?? '';
+    throw new BackupError(`${tool}${want ? ` for PostgreSQL ${want}` : ''} is needed under ${base} but ${found}; install Debian's "postgresql-client${want ? `-${want}` : ''}"`);
+  }
+  return path.join(base, String(fit), 'bin', tool);
+}
+
+async function serverMajor(url: string): Promise<number> {
+  return withClient(url, async (c) => {
+    const { rows } = await c.query<{ v: string }>("SELECT current_setting('server_version_num') AS v");
+    return Math.floor(Number(rows[0].v) / 10_000);
+  });
+}
+
+/** Runs a tool; its stdout goes to `stdoutFd` when given, otherwise it is returned. */
+function runTool(file: string, args: string[], env: NodeJS.ProcessEnv, stdoutFd?: number): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(file, args, { env, stdio: ['ignore', stdoutFd ?? 'pipe', 'pipe'] });
+    const out: Buffer[] = [];
+    const err: Buffer[] = [];
+    child.stdout?.on('data', (b: Buffer) => out.push(b));
+    child.stderr?.on('data', (b: Buffer) => err.push(b));
+    child.on('error', reject);
+    child.on('close', (code) => {
+      if (code === 0) resolve(Buffer.concat(out).toString('utf8'));
+      else reject(new BackupError(`${path.basename(file)} failed (exit ${code}): ${Buffer.concat(err).toString('utf8').trim()}`));
+    });
+  });
+}
+
+/** A new file only we can read (0600 from the start, not chmod-ed after the data is in it). */
+function createPrivateFile(file: string): number {
+  mkdirSync(path.dirname(file), { recursive: true, mode: 0o700 });
+  try {
+    return openSync(file, 'wx', 0o600);
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'EEXIST') throw new BackupError(`${file} already exists; give another file name`);
+    throw err;
+  }
+}
+
+/** Writes a file through a tool's stdout; a failed run leaves no partial file behind. */
+async function writeThrough(file: string, write: (fd: number) => Promise<unknown>): Promise<number> {
+  const fd = createPrivateFile(file);
+  let ok = false;
+  try {
+    await write(fd);
+    ok = true;
+    return fstatSync(fd).size;
+  } finally {
+    closeSync(fd);
+    if (!ok) rmSync(file, { force: true });
+  }
+}
+
+/** Row counts of every table outside the system schemas (partitions are counted in their parent). */
+export async function countTables(client: pg.Client): Promise<TableCounts> {
+  const { rows } = await client.query<{ schema: string; name: string }>(`
+    SELECT n.nspname AS schema, c.relname AS name
+      FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+     WHERE c.relkind IN ('r', 'p') AND NOT c.relispartition
+       AND n.nspname NOT IN ('pg_catalog', 'information_schema') AND n.nspname NOT LIKE 'pg\\_%'
+     ORDER BY n.nspname = 'public' DESC, n.nspname, c.relname`);
+  const counts: TableCounts = {};
+  for (const { schema, name } of rows) {
+    const table = `${pg.escapeIdentifier(schema)}.${pg.escapeIdentifier(name)}`;
+    const res = await client.query<{ n: string }>(`SELECT count(*) AS n FROM ${table}`);
+    counts[schema === 'public' ? name : `${schema}.${name}`] = Number(res.rows[0].n);
+  }
+  return counts;
+}
+
+export interface BackupOptions {
+  /** The database to back up. */
+  url: string;
+  /** Default: `.data/backups/loadline-<UTC timestamp>.dump`. An existing file is never overwritten. */
+  file?: string;
+  /** The local uploads folder to archive beside the dump, when it exists (null with S3 storage). */
+  uploadsDir?: string | null;
+  /** Also count every table's rows in the very snapshot the dump is taken from. */
+  counts?: boolean;
+}
+
+export interface BackupResult {
+  file: string;
+  bytes: number;
+  /** With `counts`: what a restore of this dump must contain. */
+  counts: TableCounts | null;
+  uploads: { file: string; bytes: number } | null;
+}
+
+export async function backupDatabase(opts: BackupOptions): Promise<BackupResult> {
+  const file = path.resolve(opts.file ?? path.join(BACKUP_DIR, `loadline-${stamp()}.dump`));
+  const pgDump = pgTool('pg_dump', await serverMajor(opts.url));
+  const { uri, env } = toolConnection(opts.url);
+  const args = ['--format=custom', '--no-password', `--dbname=${uri}`];
+
+  let counts: TableCounts | null = null;
+  const bytes = await writeThrough(file, async (fd) => {
+    if (!opts.counts) return runTool(pgDump, args, env, fd);
+    // pg_dump joins this transaction's exported snapshot, so the counts describe exactly what it dumps
+    // even while the app (or another test file) keeps writing.
+    return withClient(opts.url, async (c) => {
+      await c.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
+      try {
+        const { rows } = await c.query<{ id: string }>('SELECT pg_export_snapshot() AS id');
+        counts = await countTables(c);
+        await runTool(pgDump, [...args, `--snapshot=${rows[0].id}`], env, fd);
+      } finally {
+        await c.query('COMMIT');
+      }
+    });
+  });
+
+  // After the dump, so every file a dumped row refers to is already on disk when tar reads the folder.
+  let uploads: BackupResult['uploads'] = null;
+  if (opts.uploadsDir && existsSync(opts.uploadsDir) && statSync(opts.uploadsDir).isDirectory()) {
+    const tarFile = file.replace(/\.dump$/, '') + '.uploads.tar';
+    const tarBytes = await writeThrough(tarFile, (fd) =>
+      // Unfinished uploads (`.partial`) are not files yet; `-C dir .` keeps paths relative to the folder.
+      runTool('tar', ['--create', '--file=-', '--exclude=*.partial', '-C', opts.uploadsDir!, '.'], process.env, fd));
+    uploads = { file: tarFile, bytes: tarBytes };
+  }
+  return { file, bytes, counts, uploads };
+}
+
+/** Refuses, naming the problem, anything that is not a readable custom-format archive. */
+export async function checkArchive(file: string): Promise<void> {
+  if (!existsSync(file)) throw new BackupError(`${file}: no such file`);
+  if (!statSync(file).isFile()) throw new BackupError(`${file} is not a file`);
+  const head = Buffer.alloc(ARCHIVE_MAGIC.length);
+  const fd = openSync(file, 'r');
+  try {
+    readSync(fd, head, 0, head.length, 0);
+  } finally {
+    closeSync(fd);
+  }
+  if (head.toString('latin1') !== ARCHIVE_MAGIC) {
+    throw new BackupError(`${file} is not a pg_dump custom-format archive (made by npm run db:backup); a plain SQL dump is restored with psql`);
+  }
+  // The newest pg_restore installed reads archives of every older version.
+  await runTool(pgTool('pg_restore'), ['--list', file], process.env).catch((err: Error) => {
+    throw new BackupError(`${file} could not be read as an archive: ${err.message}`);
+  });
+}
+
+export interface RestoreOptions {
+  file: string;
+  /** The database to restore into; created when missing. */
+  url: string;
+  /** Replace a database that already holds tables (it is kept under another name, not dropped). */
+  yes?: boolean;
+}
+
+export interface RestoreResult {
+  database: string;
+  /** With `yes` over a database that held tables: the name the previous one is kept under. */
+  previous: string | null;
+  counts: TableCounts;
+  chains: ChainReport[];
+  intact: boolean;
+}
+
+async function relationCount(url: string): Promise<number> {
+  return withClient(url, async (c) => {
+    const { rows } = await c.query<{ n: string }>(`
+      SELECT count(*) AS n FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+       WHERE c.relkind IN ('r', 'p', 'v', 'm', 'S', 'f')
+         AND n.nspname NOT IN ('pg_catalog', 'information_schema') AND n.nspname NOT LIKE 'pg\\_%'`);
+    return Number(rows[0].n);
+  });
+}
+
+/** Restores and checks the result: row counts and every audit chain. */
+async function restoreInto(file: string, url: string): Promise<Omit<RestoreResult, 'previous'>> {
+  const pgRestore = pgTool('pg_restore', await serverMajor(url));
+  const { uri, env } = toolConnection(url);
+  // One transaction: a failed restore leaves the database as empty as it was. Owners and grants are
+  // those of the restoring role, so a dump moves between servers with different role names.
+  await runTool(pgRestore, ['--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error',
+    '--no-password', `--dbname=${uri}`, file], env);
+  const counts = await withClient(url, countTables);
+  const ds = createDataSource(url, 2);
+  await ds.initialize();
+  try {
+    const chains = await verifyAllChains(ds.manager);
+    return { database: databaseName(url), counts, chains, intact: chains.every((r) => r.intact) };
+  } finally {
+    await ds.destroy();
+  }
+}
+
+/** `prefix_suffix`, shortening the prefix so the whole stays a distinct PostgreSQL identifier. */
+function sideName(prefix: string, suffix: string): string {
+  return `${prefix.slice(0, MAX_IDENTIFIER - suffix.length - 1)}_${suffix}`;
+}
+
+/**
+ * Restores an archive into the database `url` names. A missing database is created, an empty one is
+ * filled. One that already holds tables is refused unless `yes`; then the archive is restored into a
+ * new database beside it and the two swap names once that restore has succeeded, so the previous
+ * database stays available (under `previous`) until someone drops it. A chain that does not verify is
+ * reported, not refused: the trail is append-only, so a break the backup already held can never be
+ * repaired, and refusing would make such a backup impossible to restore when it is needed most.
+ */
+export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult> {
+  const file = path.resolve(opts.file);
+  await checkArchive(file);
+  const name = databaseName(opts.url);
+  const admin = withDatabase(opts.url, 'postgres');
+  const q = pg.escapeIdentifier;
+  const exists = await withClient(admin, async (c) => (await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name])).rowCount === 1);
+
+  if (!exists) {
+    await withClient(admin, (c) => c.query(`CREATE DATABASE ${q(name)}`));
+    try {
+      return { ...(await restoreInto(file, opts.url)), previous: null };
+    } catch (err) {
+      await withClient(admin, (c) => c.query(`DROP DATABASE IF EXISTS ${q(name)} WITH (FORCE)`));
+      throw err;
+    }
+  }
+  const relations = await relationCount(opts.url);
+  if (relations === 0) return { ...(await restoreInto(file, opts.url)), previous: null };
+  if (!opts.yes) {
+    throw new BackupError(`database "${name}" already exists and holds ${relations} tables, sequences or views; ` +
+      'pass --yes to replace it (it is kept under another name), or --into <new name> to restore beside it');
+  }
+
+  const at = stamp().toLowerCase();
+  const incoming = sideName(name, `restoring_${at}`);
+  const previous = sideName(name, `before_restore_${at}`);
+  await withClient(admin, (c) => c.query(`CREATE DATABASE ${q(incoming)}`));
+  let result: Omit<RestoreResult, 'previous'>;
+  try {
+    result = await restoreInto(file, withDatabase(opts.url, incoming));
+  } catch (err) {
+    await withClient(admin, (c) => c.query(`DROP DATABASE IF EXISTS ${q(incoming)} WITH (FORCE)`));
+    throw err;
+  }
+  await withClient(admin, async (c) => {
+    // A database with connections cannot be renamed: the app's are closed (stop the app first, or
+    // its pool reconnects at once and the rename is retried).
+    for (let attempt = 1; ; attempt++) {
+      await c.query('SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = $1 AND pid <> pg_backend_pid()', [name]);
+      try {
+        await c.query(`ALTER DATABASE ${q(name)} RENAME TO ${q(previous)}`);
+        break;
+      } catch (err) {
+        if (attempt >= 5) throw new BackupError(`could not rename "${name}" aside (stop the app and retry): ${(err as Error).message}; the restored copy is in "${incoming}"`);
+        await new Promise((r) => setTimeout(r, 200 * attempt));
+      }
+    }
+    try {
+      await c.query(`ALTER DATABASE ${q(incoming)} RENAME TO ${q(name)}`);
+    } catch (err) {
+      await c.query(`ALTER DATABASE ${q(previous)} RENAME TO ${q(name)}`);
+      throw err;
+    }
+  });
+  return { ...result, database: name, previous };
+}
+
+export function formatBytes(bytes: number): string {
+  if (bytes < 1024) return `${bytes} B`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(1)} kB`;
+  return `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+}
