@@ -26,6 +26,28 @@ export interface SessionDto {
   user: UserDto | null;
   memberships: MembershipSummaryDto[];
   csrfToken: string;
+  /** The password was right and two-step sign-in is on: a code is needed before the person is signed in. */
+  secondStep?: boolean;
+}
+
+/** Two-step sign-in on the signed-in person's own account. */
+export interface TwoStepStatusDto {
+  enabled: boolean;
+  enabledAt: string | null;
+  recoveryCodesLeft: number;
+}
+
+/** A new authenticator secret, shown once while the person sets up their app. */
+export interface TwoStepSetupDto {
+  secret: string;
+  otpauthUri: string;
+  /** The otpauth URI as a QR code image (data: URL, PNG). */
+  qrDataUrl: string;
+}
+
+/** Two-step sign-in is on: the recovery codes, shown this once. */
+export interface TwoStepEnabledDto {
+  recoveryCodes: string[];
 }
 
 export interface CareTeamAssignmentDto {

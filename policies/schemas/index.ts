@@ -7,3 +7,4 @@ export * from './athlete';
 export * from './programs';
 export * from './letters';
 export * from './uploads';
+export * from './account-security';

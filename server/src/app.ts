@@ -11,6 +11,7 @@ import { mountRoutes } from './http/route';
 import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
 import { healthRoutes } from './routes/health/health.router';
 import { sessionRoutes } from './routes/session/session.router';
+import { accountSecurityRoutes } from './routes/account-security/account-security.router';
 import { invitationRoutes } from './routes/invitations/invitations.router';
 import { organizationRoutes } from './routes/organizations/organizations.router';
 import { peopleRoutes } from './routes/people/people.router';
@@ -97,6 +98,7 @@ export function buildApp(base: AppDeps) {
   mountRoutes(api, deps, [
     ...healthRoutes,
     ...sessionRoutes(deps),
+    ...accountSecurityRoutes(deps),
     ...invitationRoutes(deps),
     ...organizationRoutes,
     ...peopleRoutes,

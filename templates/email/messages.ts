@@ -15,6 +15,18 @@ export const emails = {
       action: { label: 'Accept the invitation', url: d.link },
     };
   },
+  passwordReset(d: { name: string; link: string; minutes: number } = { name: 'Sample', link: 'http://127.0.0.1:3000/reset#sample', minutes: 30 }): EmailContent {
+    return {
+      subject: 'Choose a new Loadline password',
+      greeting: `Hello ${d.name},`,
+      paragraphs: [
+        'Someone, hopefully you, asked to set a new password for your Loadline account.',
+        `The link below works once, for the next ${d.minutes} minutes. Setting a new password signs your account out everywhere else.`,
+        'If you did not ask for this, ignore this e-mail: your password stays as it is.',
+      ],
+      action: { label: 'Choose a new password', url: d.link },
+    };
+  },
   notice(d: { name: string; title: string; body: string; url: string } = { name: 'Sample', title: 'Sample notice', body: 'Something needs your attention.', url: 'http://127.0.0.1:3000/notices' }): EmailContent {
     return { subject: d.title, greeting: `Hello ${d.name},`, paragraphs: [d.body, 'Sign in to Loadline to see the details.'], action: { label: 'Open Loadline', url: d.url } };
   },

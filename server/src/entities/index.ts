@@ -27,6 +27,8 @@ import { LetterAcknowledgement } from './letter-acknowledgement.entity';
 import { CaseDocument } from './case-document.entity';
 import { Clip } from './clip.entity';
 import { ClipNote } from './clip-note.entity';
+import { PasswordResetToken } from './password-reset-token.entity';
+import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
 
 export {
   Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
@@ -34,6 +36,7 @@ export {
   Exercise, Baseline, Program, ProgramSession, SessionHold, ProgramException, ClearanceLetter, EmailDelivery, LetterAcknowledgement,
 };
 export { CaseDocument, Clip, ClipNote };
+export { PasswordResetToken, UserTotp, TotpRecoveryCode };
 
 export const ENTITIES = [
   Organization,
@@ -65,4 +68,7 @@ export const ENTITIES = [
   CaseDocument,
   Clip,
   ClipNote,
+  PasswordResetToken,
+  UserTotp,
+  TotpRecoveryCode,
 ];

@@ -11,6 +11,7 @@ export type ErrorCode =
   | 'conflict'
   | 'version_conflict'
   | 'invitation_invalid'
+  | 'reset_invalid'
   | 'payload_too_large'
   | 'unsupported_media_type'
   | 'unprocessable'
@@ -27,7 +28,8 @@ export function statusFor(code: ErrorCode): number {
     case 'csrf_failed':
     case 'forbidden': return 403;
     case 'not_found':
-    case 'invitation_invalid': return 404;
+    case 'invitation_invalid':
+    case 'reset_invalid': return 404;
     case 'conflict':
     case 'version_conflict': return 409;
     case 'payload_too_large': return 413;

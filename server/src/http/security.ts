@@ -170,7 +170,11 @@ const rateLimited = new AppError('rate_limited', 'Too many sign-in attempts. Wai
  * Sign-in limits: per IP address, and per account (failures only), over a sliding window. No
  * permanent lockout: when the window passes, the real owner can sign in again.
  */
-export function signInLimits(deps: Deps): RequestHandler[] {
+export function signInLimits(
+  deps: Deps,
+  /** For routes whose body names no account (the second sign-in step): the e-mail to count failures under. */
+  opts: { accountOf?: (req: Parameters<RequestHandler>[0]) => string | undefined } = {},
+): RequestHandler[] {
   const windowMs = deps.config.SIGNIN_WINDOW_SECONDS * 1000;
   const byIp = rateLimit({
     windowMs,
@@ -187,7 +191,8 @@ export function signInLimits(deps: Deps): RequestHandler[] {
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: (req) => {
-      const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
+      const named = req.body?.email ?? opts.accountOf?.(req);
+      const email = typeof named === 'string' ? named.trim().toLowerCase() : '';
       if (email) return `account:${email}`;
       // Invitation routes carry a token, not an e-mail: count failures per link. A single shared key
       // would let ten bad requests from anyone block every invitation for the whole window.

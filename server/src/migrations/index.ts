@@ -5,6 +5,7 @@ import { CreatePrograms1764900000000 } from './1764900000000-create-programs';
 import { AddAthleteIndexes1765000000000 } from './1765000000000-add-athlete-indexes';
 import { CreateLettersAndMail1765100000000 } from './1765100000000-create-letters-and-mail';
 import { CreateUploads1765200000000 } from './1765200000000-create-uploads';
+import { AddAccountSecurity1765300000000 } from './1765300000000-add-account-security';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -15,4 +16,5 @@ export const MIGRATIONS = [
   AddAthleteIndexes1765000000000,
   CreateLettersAndMail1765100000000,
   CreateUploads1765200000000,
+  AddAccountSecurity1765300000000,
 ];

@@ -1,14 +1,29 @@
-import { SignInSchema, ProfileUpdateSchema } from '../../../../policies/schemas';
+import { SignInSchema, ProfileUpdateSchema, SecondStepSchema } from '../../../../policies/schemas';
+import type { SessionDto } from '../../../../policies/dto';
 import { defineAbilityFor, type Actor } from '../../../../policies/access';
 import { publicRoute, type RouteDef } from '../../http/route';
 import type { Deps } from '../../http/context';
-import { signInLimits, SESSION_COOKIE } from '../../http/security';
+import { SESSION_COOKIE } from '../../http/security';
+import { AppError } from '../../http/errors';
 import { sessionDto, toUserDto } from '../../services/session-dto';
-import { auditSignIn, authenticateLocal, invalidCredentials, startSession } from '../../services/sign-in';
+import {
+  accountLimits, auditAccount, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, startSession,
+} from '../../services/sign-in';
+import { isTwoStepOn, twoStepKey, useSecondStepCode } from '../../services/two-step';
 import { authorize } from '../../http/authorize';
 import { User } from '../../entities';
 
+/** The session as the client sees it, saying so when a second-step code is awaited. */
+async function sessionWithStep(ds: Deps['ds'], req: Parameters<typeof sessionDto>[1]): Promise<SessionDto> {
+  const dto = await sessionDto(ds, req);
+  return pendingSecondStep(req) ? { ...dto, secondStep: true } : dto;
+}
+
+const wrongCode = () => new AppError('invalid_credentials', 'That code did not work. Enter the code your app shows now, or one of your unused recovery codes.');
+const stepTimedOut = () => new AppError('unauthenticated', 'Your sign-in timed out before a code was entered. Please enter your e-mail and password again.');
+
 export function sessionRoutes(deps: Deps): RouteDef[] {
+  const limits = accountLimits(deps);
   return [
     publicRoute({
       method: 'get',
@@ -16,15 +31,15 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       summary: 'Who am I, my organizations and roles, and the CSRF token for writes',
       access: { kind: 'public' },
       async handler({ ds, req }) {
-        return sessionDto(ds, req);
+        return sessionWithStep(ds, req);
       },
     }),
     publicRoute({
       method: 'post',
       path: '/session',
-      summary: 'Sign in with e-mail and password',
+      summary: 'Sign in with e-mail and password (with two-step sign-in on: only as far as the second step)',
       access: { kind: 'public' },
-      before: signInLimits(deps),
+      before: limits,
       body: SignInSchema,
       async handler({ req, res, ds, body, requestId }) {
         const user = await authenticateLocal(deps, req, res);
@@ -32,8 +47,42 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
           await auditSignIn(deps, requestId, 'auth.sign_in_failed', null, body.email).catch(() => undefined);
           throw invalidCredentials();
         }
+        if (await isTwoStepOn(ds.manager, user.id)) {
+          await beginSecondStep(req, user);
+          await auditSignIn(deps, requestId, 'auth.second_step_needed', user, body.email);
+          return sessionWithStep(ds, req);
+        }
         await startSession(req, user);
         await auditSignIn(deps, requestId, 'auth.signed_in', user, body.email);
+        return sessionDto(ds, req);
+      },
+    }),
+    publicRoute({
+      method: 'post',
+      path: '/session/second-step',
+      summary: 'Finish signing in with a code from the authenticator app or a recovery code',
+      access: { kind: 'public' },
+      before: limits,
+      body: SecondStepSchema,
+      async handler({ req, ds, body, requestId }) {
+        const pending = pendingSecondStep(req);
+        if (!pending) throw stepTimedOut();
+        const key = twoStepKey(deps.config);
+        const used = await ds.transaction(async (m) => {
+          const kind = await useSecondStepCode(m, key, pending.userId, body.code);
+          if (kind === 'recovery_code') {
+            await auditAccount(m, { requestId, action: 'auth.recovery_code_used', userId: pending.userId });
+          }
+          return kind;
+        });
+        const user = used ? await ds.getRepository(User).findOne({ where: { id: pending.userId } }) : null;
+        if (!user) {
+          await auditSignIn(deps, requestId, 'auth.sign_in_failed', null, pending.email, { step: 'second' }).catch(() => undefined);
+          throw wrongCode();
+        }
+        // passport's login regenerates the session id: the pending marker goes with the old one.
+        await startSession(req, user);
+        await auditSignIn(deps, requestId, 'auth.signed_in', user, pending.email, { secondStep: used! });
         return sessionDto(ds, req);
       },
     }),
