@@ -3,6 +3,8 @@ import { RootLayout } from './layout/RootLayout';
 import { SignedInLayout } from './layout/SignedInLayout';
 import { SignInPage } from './routes/sign-in';
 import { InvitePage } from './routes/invite';
+import { ForgotPasswordPage } from './routes/forgot-password';
+import { ResetPasswordPage } from './routes/reset-password';
 import { CheckPage } from './routes/check';
 import { HomeRedirect } from './routes/home-redirect';
 import { AccountPage } from './routes/account';
@@ -32,6 +34,10 @@ import { PersonPage } from './routes/admin/person';
 import { InvitationsPage } from './routes/admin/invitations';
 import { AuditPage } from './routes/admin/audit';
 import { OutboxPage } from './routes/admin/outbox';
+import { OrganizationSettingsPage } from './routes/admin/settings';
+import { ClipPage } from './routes/clip';
+import { MyClipsPage, NewClipPage } from './routes/athlete/clips';
+import { MyDocumentsPage } from './routes/athlete/documents';
 
 export const routes = [
   {
@@ -39,6 +45,9 @@ export const routes = [
     children: [
       { path: '/sign-in', element: <SignInPage /> },
       { path: '/invite', element: <InvitePage /> },
+      { path: '/forgot-password', element: <ForgotPasswordPage /> },
+      // The reset token rides in the fragment (#…), which never reaches the server.
+      { path: '/reset', element: <ResetPasswordPage /> },
       // Public: a letter's holder checks its code without signing in.
       { path: '/check', element: <CheckPage /> },
       { path: '/check/:code', element: <CheckPage /> },
@@ -56,6 +65,7 @@ export const routes = [
               { path: 'invitations', element: <InvitationsPage /> },
               { path: 'audit', element: <AuditPage /> },
               { path: 'outbox', element: <OutboxPage /> },
+              { path: 'settings', element: <OrganizationSettingsPage /> },
             ],
           },
           { path: '/coach', element: <CoachHome /> },
@@ -78,6 +88,11 @@ export const routes = [
           { path: '/athlete/check-in', element: <CheckInPage /> },
           { path: '/athlete/log', element: <LogSessionPage /> },
           { path: '/athlete/week', element: <MyWeekPage /> },
+          { path: '/athlete/clips', element: <MyClipsPage /> },
+          { path: '/athlete/clips/new', element: <NewClipPage /> },
+          { path: '/athlete/documents', element: <MyDocumentsPage /> },
+          // One clip page for everyone who may watch it; the server decides who that is.
+          { path: '/clips/:clipId', element: <ClipPage /> },
           { path: '/staff/athletes/:athleteId/workload', element: <StaffWorkloadPage /> },
           { path: '/staff/flags', element: <StaffFlagsPage /> },
           { path: '/notices', element: <NoticesPage /> },

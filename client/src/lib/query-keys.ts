@@ -37,6 +37,13 @@ export const queryKeys = {
   lettersAll: (orgId: string) => ['orgs', orgId, 'letters'] as const,
   letters: (orgId: string, athleteId: string | null) => ['orgs', orgId, 'letters', { athleteId }] as const,
   outbox: (orgId: string) => ['orgs', orgId, 'outbox'] as const,
+  // Uploads. Documents hang off a case; clips off an athlete's logged sessions.
+  caseDocuments: (orgId: string, caseId: string) => ['orgs', orgId, 'cases', caseId, 'documents'] as const,
+  clipsAll: (orgId: string) => ['orgs', orgId, 'clips'] as const,
+  clipLists: (orgId: string) => ['orgs', orgId, 'clips', 'list'] as const,
+  clips: (orgId: string, filters: { athleteId?: string; trainingLogId?: string }) => ['orgs', orgId, 'clips', 'list', filters] as const,
+  clip: (orgId: string, id: string) => ['orgs', orgId, 'clips', id] as const,
+  organizationSettings: (orgId: string) => ['orgs', orgId, 'settings'] as const,
   /** The public letter check: not tied to an organization or a session. */
   letterCheck: (code: string) => ['letter-check', code] as const,
 };

@@ -10,6 +10,7 @@ import { InForceSummary } from '../../features/plans/components/InForceSummary';
 import { PlanStagesView } from '../../features/plans/components/PlanStagesView';
 import { AthletePrograms } from '../../features/programs/components/AthletePrograms';
 import { BaselinesPanel } from '../../features/programs/components/BaselinesPanel';
+import { ClipsSection } from '../../features/clips/components/ClipsSection';
 import { ClinicalRecordCaution } from '../../components/Cautions';
 import { ButtonLink } from '../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../components/ui/Notice';
@@ -145,6 +146,8 @@ function AthleteLimits({ row }: { row: CaseloadRowDto }) {
         )}
         {plans.map((p, i) => p.isError && <ErrorNotice key={planIds[i]} error={p.error} className="mt-3" />)}
       </Panel>
+
+      <ClipsSection orgId={orgId} athleteId={row.athleteId} athleteName={row.athleteName} />
 
       <Panel title="Programs">
         <AthletePrograms orgId={orgId} athleteId={row.athleteId} athleteName={row.athleteName} today={today} />

@@ -2,6 +2,7 @@ import { useId } from 'react';
 import { useAthletes } from '../../features/athletes/api/get-athletes';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
 import { FamilyLetters } from '../../features/letters/components/FamilyLetters';
+import { FamilyClips } from '../../features/clips/components/ClipsSection';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
@@ -51,6 +52,9 @@ function Wards() {
           athletes={mine.map((a) => ({ id: a.id, name: firstName(a.displayName) }))}
         />
       )}
+      {mine.map((athlete) => (
+        <FamilyClips key={athlete.id} orgId={orgId} athleteId={athlete.id} name={firstName(athlete.displayName)} />
+      ))}
       <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {mine.map((athlete) => (
         <AthleteCard key={athlete.id} athlete={athlete} />

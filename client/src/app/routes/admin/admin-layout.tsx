@@ -7,6 +7,7 @@ const LINKS = [
   { to: '/admin/invitations', label: 'Invitations' },
   { to: '/admin/audit', label: 'Audit trail' },
   { to: '/admin/outbox', label: 'Outbox' },
+  { to: '/admin/settings', label: 'Organization settings' },
 ];
 
 export const personHref = (id: string) => `/admin/people/${id}`;

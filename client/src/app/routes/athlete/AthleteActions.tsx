@@ -1,6 +1,6 @@
 import { ButtonLink } from '../../../components/ui/Button';
 import { NextMorningPrompt } from '../../../features/training-logs/components/NextMorningPrompt';
-import { ATHLETE_CHECK_IN, ATHLETE_LOG, ATHLETE_REPORT, ATHLETE_WEEK } from './paths';
+import { ATHLETE_CHECK_IN, ATHLETE_CLIPS, ATHLETE_DOCUMENTS, ATHLETE_LOG, ATHLETE_REPORT, ATHLETE_WEEK } from './paths';
 
 /**
  * The athlete's four doors, large and first on the page, then the next-morning question when a
@@ -21,6 +21,12 @@ export function AthleteActions({ orgId, athleteId }: { orgId: string; athleteId:
         </ButtonLink>
         <ButtonLink to={ATHLETE_WEEK} size="lg" className="col-span-2 min-h-14 sm:w-full">
           My week
+        </ButtonLink>
+        <ButtonLink to={ATHLETE_CLIPS} size="lg" className="min-h-12 sm:w-full">
+          My clips
+        </ButtonLink>
+        <ButtonLink to={ATHLETE_DOCUMENTS} size="lg" className="min-h-12 sm:w-full">
+          My documents
         </ButtonLink>
       </nav>
       <NextMorningPrompt orgId={orgId} athleteId={athleteId} />

@@ -4,3 +4,7 @@ export const ATHLETE_REPORT = '/athlete/report';
 export const ATHLETE_CHECK_IN = '/athlete/check-in';
 export const ATHLETE_LOG = '/athlete/log';
 export const ATHLETE_WEEK = '/athlete/week';
+export const ATHLETE_CLIPS = '/athlete/clips';
+export const ATHLETE_NEW_CLIP = '/athlete/clips/new';
+export const athleteNewClipHref = (logId: string) => `${ATHLETE_NEW_CLIP}?log=${encodeURIComponent(logId)}`;
+export const ATHLETE_DOCUMENTS = '/athlete/documents';

@@ -12,11 +12,11 @@ import { ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading, PageHeader, Panel } from '../../../components/ui/Panel';
 import { addDaysIso, todayLocal } from '../../../lib/dates';
-import { formatDateTime } from '../../../lib/format';
+import { formatDate, formatDateTime } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
 import { RoleGate } from '../../layout/RoleGate';
-import { ATHLETE_CHECK_IN, ATHLETE_HOME, ATHLETE_LOG } from './paths';
+import { ATHLETE_CHECK_IN, ATHLETE_CLIPS, ATHLETE_HOME, ATHLETE_LOG, athleteNewClipHref } from './paths';
 
 /** Two weeks of sessions and check-ins; the weekly chart looks back four weeks. */
 const DAYS = 14;
@@ -57,6 +57,9 @@ function MyWeek() {
         <ButtonLink to={ATHLETE_CHECK_IN} size="lg">
           Check in
         </ButtonLink>
+        <ButtonLink to={ATHLETE_CLIPS} size="lg">
+          My clips
+        </ButtonLink>
       </div>
 
       {workload.isPending ? (
@@ -74,7 +77,18 @@ function MyWeek() {
         ) : logs.isError ? (
           <ErrorNotice error={logs.error} />
         ) : (
-          <LogList logs={logs.data} unit={user.unitPref} empty="No sessions logged in the last two weeks." />
+          <LogList
+            logs={logs.data}
+            unit={user.unitPref}
+            empty="No sessions logged in the last two weeks."
+            actions={(log) =>
+              log.sets.length > 0 && (
+                <ButtonLink to={athleteNewClipHref(log.id)} size="md" aria-label={`Add a clip to the session of ${formatDate(log.date)}`}>
+                  Add a clip
+                </ButtonLink>
+              )
+            }
+          />
         )}
       </Panel>
 

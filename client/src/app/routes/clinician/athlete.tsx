@@ -8,6 +8,7 @@ import { CaseList } from '../../../features/cases/components/CaseList';
 import { OpenCaseForm } from '../../../features/cases/components/OpenCaseForm';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
 import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
+import { ClipsSection } from '../../../features/clips/components/ClipsSection';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
 import { Button, ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
@@ -119,6 +120,8 @@ function AthleteCases({ athleteId, row }: { athleteId: string; row: CaseloadRowD
       )}
 
       <InForcePanel orgId={orgId} athleteId={athleteId} unit={user.unitPref} />
+
+      <ClipsSection orgId={orgId} athleteId={athleteId} athleteName={row.athleteName} />
 
       <ClearanceLetters orgId={orgId} athleteId={athleteId} athleteName={row.athleteName} />
     </>

@@ -11,6 +11,7 @@ import { regionsText } from '../../../features/cases/components/case-words';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
 import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
 import { PlanSection } from '../../../features/plans/components/PlanSection';
+import { CaseDocuments } from '../../../features/documents/components/CaseDocuments';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading, PageHeader, Panel } from '../../../components/ui/Panel';
@@ -107,6 +108,15 @@ function CaseScreen({ detail }: { detail: CaseDetailDto }) {
           copySources={copySources}
         />
       </Panel>
+
+      <CaseDocuments
+        orgId={orgId}
+        caseId={detail.id}
+        athleteId={detail.athleteId}
+        athleteName={detail.athleteName}
+        audience="clinician"
+        closed={!open}
+      />
 
       <InForcePanel orgId={orgId} athleteId={detail.athleteId} unit={user.unitPref} />
 

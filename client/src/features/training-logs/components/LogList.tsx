@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import type { TrainingLogDto } from '../../../../../policies/dto';
 import type { Unit } from '../../../../../policies/schemas';
 import { formatLoad } from '../../../../../policies/load/units';
@@ -21,7 +22,18 @@ export function setsSummary(sets: TrainingLogDto['sets'], unit: Unit): string[] 
  * The athlete's sessions, newest first, each with its pain drawn against the clinician's ceiling
  * (the product's line), so a breach is the bar crossing it, plus words.
  */
-export function LogList({ logs, unit, empty }: { logs: readonly TrainingLogDto[]; unit: Unit; empty: string }) {
+export function LogList({
+  logs,
+  unit,
+  empty,
+  actions,
+}: {
+  logs: readonly TrainingLogDto[];
+  unit: Unit;
+  empty: string;
+  /** Links under each session, e.g. the page that adds a clip to it. */
+  actions?: (log: TrainingLogDto) => ReactNode;
+}) {
   if (logs.length === 0) return <p className="text-sm text-ink-2">{empty}</p>;
   return (
     <ol className="space-y-3">
@@ -49,6 +61,7 @@ export function LogList({ logs, unit, empty }: { logs: readonly TrainingLogDto[]
             </ul>
           )}
           {log.notes && <p className="mt-2 text-sm text-ink-2">“{log.notes}”</p>}
+          {actions && <div className="mt-3 flex flex-wrap gap-2">{actions(log)}</div>}
         </li>
       ))}
     </ol>

@@ -1,0 +1,39 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { OrganizationSettingsDto } from '../../../../../policies/dto';
+import type { OrganizationSettingsInput } from '../../../../../policies/schemas';
+import { api } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query-keys';
+
+/** The organization's settings with their version, for its admins. */
+export function getOrganizationSettings(orgId: string): Promise<OrganizationSettingsDto> {
+  return api.get<OrganizationSettingsDto>(`/orgs/${orgId}/settings`);
+}
+
+export function getOrganizationSettingsQueryOptions(orgId: string) {
+  return queryOptions({ queryKey: queryKeys.organizationSettings(orgId), queryFn: () => getOrganizationSettings(orgId) });
+}
+
+export function useOrganizationSettings(orgId: string) {
+  return useQuery(getOrganizationSettingsQueryOptions(orgId));
+}
+
+export function updateOrganizationSettings(orgId: string, input: OrganizationSettingsInput): Promise<OrganizationSettingsDto> {
+  return api.patch<OrganizationSettingsDto>(`/orgs/${orgId}/settings`, input);
+}
+
+/**
+ * The name and emergency number show on everyone's pages, and the clips setting changes what
+ * guardians are sent (the session's actor carries it), so all three are refreshed.
+ */
+export function useUpdateOrganizationSettings(orgId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: OrganizationSettingsInput) => updateOrganizationSettings(orgId, input),
+    onSuccess: (settings) => {
+      queryClient.setQueryData(queryKeys.organizationSettings(orgId), settings);
+      void queryClient.invalidateQueries({ queryKey: queryKeys.organization(orgId) });
+      void queryClient.invalidateQueries({ queryKey: queryKeys.clipsAll(orgId) });
+      void queryClient.invalidateQueries({ queryKey: queryKeys.audit(orgId) });
+    },
+  });
+}

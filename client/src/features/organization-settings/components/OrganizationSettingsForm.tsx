@@ -1,0 +1,95 @@
+import { useEffect } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import type { OrganizationSettingsDto } from '../../../../../policies/dto';
+import { OrganizationSettingsSchema } from '../../../../../policies/schemas';
+import { Button } from '../../../components/ui/Button';
+import { TextField } from '../../../components/ui/Field';
+import { ErrorNotice, Notice } from '../../../components/ui/Notice';
+import { isApiError } from '../../../lib/api-client';
+import { applyServerFieldErrors } from '../../../lib/form-errors';
+import { queryKeys } from '../../../lib/query-keys';
+import { useUpdateOrganizationSettings } from '../api/organization-settings';
+
+type Input = z.input<typeof OrganizationSettingsSchema>;
+type Output = z.output<typeof OrganizationSettingsSchema>;
+
+const startingValues = (s: OrganizationSettingsDto): Input => ({
+  name: s.name,
+  emergencyNumber: s.emergencyNumber,
+  guardiansSeeClips: s.guardiansSeeClips,
+  version: s.version,
+});
+
+/** Name, local emergency number and who watches clips; saved with the version it was read at. */
+export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; settings: OrganizationSettingsDto }) {
+  const queryClient = useQueryClient();
+  const update = useUpdateOrganizationSettings(orgId);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    reset,
+    formState: { errors, isDirty },
+  } = useForm<Input, unknown, Output>({ resolver: zodResolver(OrganizationSettingsSchema), defaultValues: startingValues(settings) });
+
+  useEffect(() => {
+    reset(startingValues(settings));
+  }, [settings, reset]);
+
+  const stale = isApiError(update.error) && (update.error.code === 'version_conflict' || update.error.status === 409);
+  const onSubmit = handleSubmit((values) =>
+    update.mutate(values, { onError: (error) => applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'guardiansSeeClips']) }),
+  );
+
+  async function reload() {
+    await queryClient.invalidateQueries({ queryKey: queryKeys.organizationSettings(orgId) });
+    update.reset();
+  }
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="Organization settings" className="max-w-xl space-y-4">
+      {stale ? (
+        <Notice tone="problem" role="alert" title="Not saved: someone else changed these settings">
+          <p>Another admin saved these settings after you opened this page. Reload to see their version, then make your change again.</p>
+          <Button variant="secondary" size="sm" className="mt-2" onClick={() => void reload()}>
+            Reload the settings
+          </Button>
+        </Notice>
+      ) : (
+        <ErrorNotice error={update.error} title="Not saved" />
+      )}
+      {update.isSuccess && !isDirty && (
+        <Notice tone="done" role="status">
+          <p>Settings saved.</p>
+        </Notice>
+      )}
+      <TextField label="Organization name" error={errors.name?.message} {...register('name')} />
+      <TextField
+        label="Local emergency number"
+        hint="Shown with the warning signs on every athlete's and guardian's page, e.g. 911 or 112."
+        inputMode="tel"
+        error={errors.emergencyNumber?.message}
+        {...register('emergencyNumber')}
+      />
+      <fieldset className="rounded-md border border-rule p-3">
+        <legend className="px-1 text-sm font-semibold">Technique clips</legend>
+        <div className="flex items-start gap-2">
+          <input id="guardians-see-clips" type="checkbox" className="mt-0.5 size-5 shrink-0 accent-ink" {...register('guardiansSeeClips')} />
+          <label htmlFor="guardians-see-clips" className="text-sm">
+            Guardians may watch their athlete&apos;s clips
+            <span className="block text-muted">
+              With the notes the coach and clinician pinned to them. Off: only the athlete, the coaches and the clinicians on the care team
+              see clips.
+            </span>
+          </label>
+        </div>
+      </fieldset>
+      <Button type="submit" busy={update.isPending} disabled={!isDirty}>
+        Save settings
+      </Button>
+    </form>
+  );
+}
