@@ -5,6 +5,8 @@
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
+import { mkdtemp, rm } from 'node:fs/promises';
+import os from 'node:os';
 import path from 'node:path';
 import { loadConfig } from '../server/src/config';
 import { createLogger } from '../server/src/logger';
@@ -69,6 +71,8 @@ try {
     await seedDs.destroy();
     await buildClient();
     const fake = await startFakeSmtp(db.url, 0);
+    // Uploads made by the browser tests go to a folder of their own, removed afterwards.
+    const storageDir = await mkdtemp(path.join(os.tmpdir(), 'loadline-e2e-uploads-'));
     const config = loadConfig({
       ...process.env,
       SMTP_URL: fake.url,
@@ -80,6 +84,7 @@ try {
       // Every browser test signs in from the same address; the per-IP limit is tested in vitest.
       SIGNIN_MAX_PER_IP: '1000',
       CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
+      STORAGE_DIR: storageDir,
     });
     const server = await startServer(config, createLogger(config.LOG_LEVEL));
     try {
@@ -88,6 +93,7 @@ try {
     } finally {
       await server.stop();
       await fake.stop();
+      await rm(storageDir, { recursive: true, force: true });
     }
   }
   console.log('\nAll tests passed.');

@@ -30,15 +30,19 @@ import { programRoutes } from './routes/programs/programs.router';
 import { exceptionRoutes } from './routes/programs/exceptions.router';
 import { rosterRoutes } from './routes/programs/roster.router';
 import { letterRoutes } from './routes/letters/letters.router';
+import { documentRoutes } from './routes/uploads/documents.router';
+import { clipRoutes } from './routes/uploads/clips.router';
+import { createStorage } from './storage';
+import type { ObjectStorage } from './storage';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 
-export type AppDeps = Omit<Deps, 'passport' | 'jobs'> & { jobs?: JobQueue | null };
+export type AppDeps = Omit<Deps, 'passport' | 'jobs' | 'storage'> & { jobs?: JobQueue | null; storage?: ObjectStorage };
 
 /** Builds the Express app (no listen). The returned `close` ends the app's own pools. */
 export function buildApp(base: AppDeps) {
   const passport = buildPassport(base as Deps);
-  const deps: Deps = { ...base, jobs: base.jobs ?? null, passport };
+  const deps: Deps = { ...base, jobs: base.jobs ?? null, passport, storage: base.storage ?? createStorage(base.config) };
   const { config } = deps;
   const app = express();
   app.disable('x-powered-by');
@@ -117,6 +121,8 @@ export function buildApp(base: AppDeps) {
     ...exceptionRoutes,
     ...rosterRoutes,
     ...letterRoutes(deps),
+    ...documentRoutes,
+    ...clipRoutes,
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

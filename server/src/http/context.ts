@@ -7,6 +7,7 @@ import type { AppAbility } from '../../../policies/access';
 import type { Config } from '../config';
 import type { User } from '../entities';
 import type { ActorWithOrg } from '../services/actor';
+import type { ObjectStorage } from '../storage';
 import { appendAudit, type AuditInput } from '../services/audit';
 
 export interface Deps {
@@ -16,6 +17,8 @@ export interface Deps {
   passport: ReturnType<typeof buildPassportType>;
   /** The job queue, when e-mail is configured. */
   jobs: JobQueue | null;
+  /** Where uploaded files live (local disk or the S3 API). */
+  storage: ObjectStorage;
 }
 
 /** Writes an audit entry in the surrounding transaction; actor, organization and request id are filled in. */

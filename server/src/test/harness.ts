@@ -1,3 +1,6 @@
+import { mkdtemp, rm } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, inject } from 'vitest';
 import request from 'supertest';
 import type { Express } from 'express';
@@ -19,6 +22,8 @@ export interface Harness {
   /** With `{ mail: true }`: the real fake SMTP server and the pg-boss queue with its worker. */
   smtp?: FakeSmtp;
   jobs?: JobQueue;
+  /** This file's own upload folder (a temporary one), removed after the file's tests. */
+  storageDir: string;
 }
 
 /**
@@ -32,7 +37,8 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
     const url = inject('databaseUrl');
     const logger = pino({ level: 'silent' });
     if (opts.mail) h.smtp = await startFakeSmtp(url, 0);
-    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}), ...overrides });
+    h.storageDir = await mkdtemp(path.join(os.tmpdir(), 'loadline-test-uploads-'));
+    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', STORAGE_DIR: h.storageDir, ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}), ...overrides });
     h.ds = createDataSource(url, 5);
     await h.ds.initialize();
     if (opts.mail) {
@@ -50,6 +56,7 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
     await close?.();
     await h.smtp?.stop();
     await h.ds?.destroy();
+    if (h.storageDir) await rm(h.storageDir, { recursive: true, force: true });
   });
   return h;
 }
