@@ -24,7 +24,7 @@ function dbUrl(name: string): string {
 }
 
 function scratchName(): string {
-  const name = `loadline_restore_${process.pid}_${randomUUID().slice(0, 8)}`;
+  const name = `loadline_rs_${process.pid}_${randomUUID().slice(0, 8)}`;
   scratch.add(name);
   return name;
 }
@@ -40,7 +40,10 @@ async function query<T>(url: string, sql: string, params: unknown[] = []): Promi
 }
 
 afterAll(async () => {
-  for (const name of scratch) await query(dbUrl('postgres'), `DROP DATABASE IF EXISTS ${pg.escapeIdentifier(name)} WITH (FORCE)`);
+  // With the copies a replacing restore sets aside (`<name>_restoring_…`, `<name>_before_restore_…`).
+  const names = await query<{ datname: string }>(dbUrl('postgres'), 'SELECT datname FROM pg_database WHERE datname LIKE ANY ($1)',
+    [[...scratch].map((n) => `${n}%`)]);
+  for (const { datname } of names) await query(dbUrl('postgres'), `DROP DATABASE IF EXISTS ${pg.escapeIdentifier(datname)} WITH (FORCE)`);
   rmSync(work, { recursive: true, force: true });
 });
 
@@ -147,7 +150,6 @@ describe('db:backup and db:restore (SECURITY item 36)', () => {
     const replaced = await restoreBackup({ file: backup.file, url: dbUrl(name), yes: true });
     expect(replaced.database).toBe(name);
     expect(replaced.previous).toMatch(new RegExp(`^${name}_before_restore_\\d{8}t\\d{6}z$`));
-    scratch.add(replaced.previous!);
     expect(replaced.counts).toEqual(backup.counts);
     const marker = `SELECT count(*)::int AS n FROM organizations WHERE name = 'Only in the old copy'`;
     expect(await query(dbUrl(name), marker)).toEqual([{ n: 0 }]);

@@ -195,13 +195,15 @@ export async function backupDatabase(opts: BackupOptions): Promise<BackupResult>
   const bytes = await writeThrough(file, async (fd) => {
     if (!opts.counts) return runTool(pgDump, args, env, fd);
     // pg_dump joins this transaction's exported snapshot, so the counts describe exactly what it dumps
-    // even while the app (or another test file) keeps writing.
+    // even while the app (or another test file) keeps writing. They are taken after the dump: table
+    // locks held here while pg_dump queued for its own behind someone's ALTER TABLE would deadlock
+    // across the two sessions, where PostgreSQL cannot see it.
     return withClient(opts.url, async (c) => {
       await c.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
       try {
         const { rows } = await c.query<{ id: string }>('SELECT pg_export_snapshot() AS id');
-        counts = await countTables(c);
         await runTool(pgDump, [...args, `--snapshot=${rows[0].id}`], env, fd);
+        counts = await countTables(c);
       } finally {
         await c.query('COMMIT');
       }
@@ -232,7 +234,7 @@ export async function checkArchive(file: string): Promise<void> {
     closeSync(fd);
   }
   if (head.toString('latin1') !== ARCHIVE_MAGIC) {
-    throw new BackupError(`${file} is not a pg_dump custom-format archive (made by npm run db:backup); a plain SQL dump is restored with psql`);
+    throw new BackupError(`${file} is not a pg_dump custom-format archive (what npm run db:backup writes); a plain SQL dump is restored with psql`);
   }
   // The newest pg_restore installed reads archives of every older version.
   await runTool(pgTool('pg_restore'), ['--list', file], process.env).catch((err: Error) => {
@@ -306,9 +308,12 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   const admin = withDatabase(opts.url, 'postgres');
   const q = pg.escapeIdentifier;
   const exists = await withClient(admin, async (c) => (await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name])).rowCount === 1);
+  const create = (db: string) => withClient(admin, (c) => c.query(`CREATE DATABASE ${q(db)}`)).catch((err: Error) => {
+    throw new BackupError(`could not create database "${db}" to restore into: ${err.message}`);
+  });
 
   if (!exists) {
-    await withClient(admin, (c) => c.query(`CREATE DATABASE ${q(name)}`));
+    await create(name);
     try {
       return { ...(await restoreInto(file, opts.url)), previous: null };
     } catch (err) {
@@ -326,7 +331,7 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   const at = stamp().toLowerCase();
   const incoming = sideName(name, `restoring_${at}`);
   const previous = sideName(name, `before_restore_${at}`);
-  await withClient(admin, (c) => c.query(`CREATE DATABASE ${q(incoming)}`));
+  await create(incoming);
   let result: Omit<RestoreResult, 'previous'>;
   try {
     result = await restoreInto(file, withDatabase(opts.url, incoming));
