@@ -1,5 +1,7 @@
 import { useSession } from '../../features/auth/api/get-session';
 import { AccountForm } from '../../features/account/components/AccountForm';
+import { TwoStepSection } from '../../features/auth/components/TwoStepSection';
+import { useTwoStepStatus } from '../../features/auth/api/two-step';
 import { Facts, PageHeader, Panel } from '../../components/ui/Panel';
 import { ROLE_LABELS } from '../../../../policies/roles';
 import { useDocumentTitle } from '../../lib/use-document-title';
@@ -10,6 +12,8 @@ export function AccountPage() {
   const user = session.data?.user;
   if (!user) return null;
   const memberships = session.data?.memberships ?? [];
+  // Offered to anyone who holds clinical or admin rights anywhere; shown to anyone who already has it on.
+  const offerTwoStep = memberships.some((m) => m.roles.includes('clinician') || m.roles.includes('admin'));
 
   return (
     <div className="max-w-3xl space-y-5">
@@ -20,6 +24,7 @@ export function AccountPage() {
         </div>
         <AccountForm user={user} />
       </Panel>
+      {offerTwoStep ? <TwoStepSection /> : <TwoStepIfOn />}
       <Panel title="Organizations">
         {memberships.length === 0 ? (
           <p className="text-sm text-ink-2">You are not part of any organization.</p>
@@ -36,4 +41,10 @@ export function AccountPage() {
       </Panel>
     </div>
   );
+}
+
+/** For other roles the section appears only when two-step sign-in is already on, so it can be turned off. */
+function TwoStepIfOn() {
+  const status = useTwoStepStatus();
+  return status.data?.enabled ? <TwoStepSection /> : null;
 }

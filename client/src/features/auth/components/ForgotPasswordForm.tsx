@@ -1,0 +1,59 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { PasswordResetRequestSchema } from '../../../../../policies/schemas';
+import { isApiError } from '../../../lib/api-client';
+import { Button } from '../../../components/ui/Button';
+import { TextField } from '../../../components/ui/Field';
+import { ErrorNotice, Notice } from '../../../components/ui/Notice';
+import { useRequestPasswordReset } from '../api/password-reset';
+
+type Input = z.input<typeof PasswordResetRequestSchema>;
+type Output = z.output<typeof PasswordResetRequestSchema>;
+
+/** Asks for a reset link. The answer reads the same whether or not the address has an account. */
+export function ForgotPasswordForm() {
+  const request = useRequestPasswordReset();
+  const {
+    register,
+    handleSubmit,
+    getValues,
+    formState: { errors },
+  } = useForm<Input, unknown, Output>({ resolver: zodResolver(PasswordResetRequestSchema), defaultValues: { email: '' } });
+
+  if (request.isSuccess) {
+    return (
+      <Notice tone="done" role="status" title="Check your e-mail">
+        <p>{request.data.message}</p>
+        <p>The link works once and only for a short while. Sent to: {getValues('email')}</p>
+      </Notice>
+    );
+  }
+
+  const failure = request.error;
+  return (
+    <form onSubmit={handleSubmit((values) => request.mutate(values))} noValidate className="space-y-4" aria-label="Ask for a password link">
+      {failure &&
+        (isApiError(failure) && failure.code === 'rate_limited' ? (
+          <Notice tone="problem" role="alert" title="Too many requests">
+            <p>{failure.message}</p>
+          </Notice>
+        ) : (
+          <ErrorNotice error={failure} />
+        ))}
+      <TextField
+        label="E-mail"
+        type="email"
+        hint="The address you sign in with."
+        autoComplete="username"
+        inputMode="email"
+        large
+        error={errors.email?.message}
+        {...register('email')}
+      />
+      <Button type="submit" size="lg" busy={request.isPending}>
+        Send me a link
+      </Button>
+    </form>
+  );
+}
