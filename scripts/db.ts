@@ -64,7 +64,8 @@ try {
     if (result.previous) console.log(`the database it replaced is kept as "${result.previous}"; drop it when satisfied`);
     const width = Math.max(...Object.keys(result.counts).map((t) => t.length));
     for (const [table, rows] of Object.entries(result.counts)) console.log(`${table.padEnd(width)}  ${rows}`);
-    if (!printChains(result.chains)) code = 1;
+    if (!printChains(result.chains) || result.unverified) code = 1;
+    if (result.unverified) console.log(result.unverified);
     const tar = positionals[0].replace(/\.dump$/, '') + '.uploads.tar';
     if (tar !== positionals[0] && existsSync(tar)) {
       console.log(`uploads are not restored by this command; their archive is ${tar}: extract it into the uploads folder with tar -xf ${tar} -C <folder>`);
