@@ -79,6 +79,8 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/invitations  ⇒  member: create Invitation",
         "DELETE /api/orgs/:orgId/invitations/:id  ⇒  member: delete Invitation",
         "GET    /api/orgs/:orgId  ⇒  member: read Organization",
+        "GET    /api/orgs/:orgId/settings  ⇒  member: update Organization",
+        "PATCH  /api/orgs/:orgId/settings  ⇒  member: update Organization",
         "GET    /api/orgs/:orgId/people  ⇒  member: read Membership",
         "GET    /api/orgs/:orgId/people/:id  ⇒  member: read Membership",
         "PATCH  /api/orgs/:orgId/people/:id  ⇒  member: update Membership",
@@ -151,6 +153,17 @@ describe('the route table', () => {
         "POST   /api/check  ⇒  public",
         "GET    /api/orgs/:orgId/outbox  ⇒  member: read Outbox",
         "GET    /api/orgs/:orgId/deliveries  ⇒  member: read Outbox",
+        "GET    /api/orgs/:orgId/cases/:id/documents  ⇒  member: read Case",
+        "POST   /api/orgs/:orgId/cases/:id/documents  ⇒  member: read Case",
+        "GET    /api/orgs/:orgId/documents/:id/file  ⇒  member: read Case",
+        "DELETE /api/orgs/:orgId/documents/:id  ⇒  member: read Case",
+        "GET    /api/orgs/:orgId/clips  ⇒  member: read Clip",
+        "POST   /api/orgs/:orgId/clips  ⇒  member: create Clip",
+        "GET    /api/orgs/:orgId/clips/:id  ⇒  member: read Clip",
+        "GET    /api/orgs/:orgId/clips/:id/video  ⇒  member: read Clip",
+        "DELETE /api/orgs/:orgId/clips/:id  ⇒  member: read Clip",
+        "POST   /api/orgs/:orgId/clips/:id/notes  ⇒  member: create ClipNote",
+        "DELETE /api/orgs/:orgId/clips/:id/notes/:noteId  ⇒  member: read ClipNote",
       ]
     `);
   });
