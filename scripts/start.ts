@@ -3,6 +3,7 @@
  * build, then the app and API on one port. Ctrl-C stops the server, then the database.
  */
 import { loadConfig } from '../server/src/config';
+import { createStorage } from '../server/src/storage';
 import { createLogger } from '../server/src/logger';
 import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
@@ -20,7 +21,8 @@ try {
   if (ran.length) console.log(`[db] migrations applied: ${ran.join(', ')}`);
   const seedDs = createDataSource(db.url, 2);
   await seedDs.initialize();
-  const demo = await loadDemo(seedDs);
+  // The demo's referral note goes to the same storage the server will use (local folder or S3).
+  const demo = await loadDemo(seedDs, 12, createStorage(loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() })));
   await seedDs.destroy();
   console.log(demo.created ? '[demo] demo scenario loaded' : '[demo] demo scenario already present (unchanged)');
   console.log('[client] building…');

@@ -9,6 +9,8 @@ import {
 } from '../entities';
 import { appendAudit } from '../services/audit';
 import { seedExerciseLibrary } from '../services/exercise-library';
+import type { ObjectStorage } from '../storage';
+import { attachDemoDocument } from './demo-document';
 
 /** Invented people in an invented facility; any likeness to real people is accidental. */
 export const DEMO_ORG_NAME = 'Harbor Point Performance';
@@ -64,7 +66,7 @@ const GUARDIANS: [athlete: string, guardian: string][] = [
  * Loads the demo scenario once. Idempotent: when the organization exists nothing changes, so a
  * second `npm start` leaves the data (and the audit trail) as it was.
  */
-export async function loadDemo(ds: DataSource, bcryptCost = 12): Promise<{ created: boolean; organizationId: string }> {
+export async function loadDemo(ds: DataSource, bcryptCost = 12, storage?: ObjectStorage): Promise<{ created: boolean; organizationId: string }> {
   const existing = await ds.getRepository(Organization).findOneBy({ name: DEMO_ORG_NAME });
   if (existing) return { created: false, organizationId: existing.id };
   const hash = await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
@@ -92,7 +94,13 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12): Promise<{ creat
       await m.save(m.create(GuardianLink, { organizationId: org.id, athleteId: ids[athlete], guardianId: ids[guardian] }));
     }
     await seedExerciseLibrary(m, org.id);
-    await loadDemoCase(m, org.id, ids, userIds);
+    const caseId = await loadDemoCase(m, org.id, ids, userIds);
+    if (storage) {
+      await attachDemoDocument(m, storage, {
+        organizationId: org.id, athleteId: ids.sam, caseId, athleteName: 'Sam Whitfield', date: day(-8),
+        uploadedByUserId: userIds.clinicianMarcus, uploadedByName: 'Marcus Bell, DPT',
+      });
+    }
     await appendAudit(m, {
       organizationId: org.id,
       actorUserId: null,
@@ -112,7 +120,7 @@ const day = (offset: number) => formatISO(addDays(new Date(), offset), { represe
  * One case already under way, so coaches and the admin see a limited athlete from the first start:
  * Sam's right ankle, a two-stage plan dated around the day the demo was loaded.
  */
-async function loadDemoCase(m: EntityManager, organizationId: string, ids: Record<string, string>, userIds: Record<string, string>) {
+async function loadDemoCase(m: EntityManager, organizationId: string, ids: Record<string, string>, userIds: Record<string, string>): Promise<string> {
   const c = await m.save(
     m.create(CaseRecord, {
       organizationId,
@@ -149,4 +157,5 @@ async function loadDemoCase(m: EntityManager, organizationId: string, ids: Recor
     },
   ];
   await m.save(m.create(RestrictionPlanVersion, { planId: plan.id, version: 1, stages, guidance: 'Keep the ankle quiet this week: no jumping or sprinting. Upper body as normal.', changeNote: 'Demo plan', createdBy: userIds.clinicianMarcus }));
+  return c.id;
 }
