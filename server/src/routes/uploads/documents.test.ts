@@ -1,6 +1,10 @@
 import { existsSync } from 'node:fs';
+import { readdir, stat } from 'node:fs/promises';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import os from 'node:os';
 import path from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { AuditEntry, CaseDocument, CareTeamAssignment } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
@@ -150,6 +154,48 @@ describe('case documents', () => {
     expect((await filesUnder(path.join(h.storageDir, org.id))).length).toBe(filesBefore.length + 1);
     // The session still works after the refusals (the body was drained, the connection kept).
     expect((await clinician.get(`${base}/cases/${kase.id}/documents`)).status).toBe(200);
+  });
+
+  it('an upload the client abandons part-way leaves no temporary file, no stored file and no row', async () => {
+    const { org, kase, base, as } = await w();
+    const clinician = await as('clinician');
+    const rowsBefore = await rowsFor(org);
+    const started = Date.now();
+    const server = h.app.listen(0, '127.0.0.1');
+    await new Promise((resolve) => server.once('listening', resolve));
+    try {
+      const { port } = server.address() as AddressInfo;
+      const cookie = (await clinician.agent.jar.getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false }))
+        .map((c: { name: string; value: string }) => `${c.name}=${c.value}`).join('; ');
+      const boundary = 'loadline-test-boundary';
+      const head = Buffer.from(
+        Object.entries(FIELDS).map(([k, v]) => `--${boundary}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`).join('') +
+          `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="a.pdf"\r\nContent-Type: application/pdf\r\n\r\n`,
+      );
+      const req = http.request({
+        host: '127.0.0.1', port, method: 'POST', path: `${base}/cases/${kase.id}/documents`,
+        headers: { cookie, 'x-csrf-token': clinician.csrf, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + LIMIT - 100) },
+      });
+      req.on('error', () => undefined);
+      req.write(head);
+      req.write(Buffer.concat([PDF, Buffer.alloc(8000, 0x20)]));
+      await new Promise((resolve) => setTimeout(resolve, 200));
+      req.destroy();
+      const leftovers = async () => {
+        const dirs = (await readdir(os.tmpdir())).filter((d) => d.startsWith('loadline-upload-'));
+        const recent = [];
+        for (const d of dirs) {
+          const st = await stat(path.join(os.tmpdir(), d)).catch(() => null);
+          if (st && st.birthtimeMs >= started - 1000) recent.push(d);
+        }
+        return recent;
+      };
+      await vi.waitFor(async () => expect(await leftovers()).toEqual([]), { timeout: 5000, interval: 100 });
+      expect(await rowsFor(org)).toBe(rowsBefore);
+      expect((await filesUnder(path.join(h.storageDir, org.id))).filter((f) => f.endsWith('.partial'))).toEqual([]);
+    } finally {
+      await new Promise((resolve) => server.close(resolve));
+    }
   });
 
   it("ignores a path in the file name: the stored key and the download name are the server's own", async () => {
