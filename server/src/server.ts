@@ -44,6 +44,9 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
     s.on('error', reject);
   });
   server.keepAliveTimeout = 5000;
+  // Node ends a request that takes over 5 minutes to arrive; a full-size clip from a phone on a slow
+  // uplink needs longer. Allow the largest clip at 256 kB/s (20 minutes for 300 MB).
+  server.requestTimeout = Math.max(300_000, Math.ceil((config.UPLOAD_MAX_CLIP_MB * 1024) / 256) * 1000);
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
