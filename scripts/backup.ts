@@ -313,6 +313,8 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   const file = path.resolve(opts.file);
   await checkArchive(file);
   const name = databaseName(opts.url);
+  // The maintenance database is where the creating and renaming happen from; templates seed new ones.
+  if (['postgres', 'template0', 'template1'].includes(name)) throw new BackupError(`will not restore into the "${name}" database; name another with --into`);
   const admin = withDatabase(opts.url, 'postgres');
   const q = pg.escapeIdentifier;
   const exists = await withClient(admin, async (c) => (await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name])).rowCount === 1);
