@@ -158,7 +158,7 @@ function GoToTime({ onGo }: { onGo: (seconds: number) => void }) {
   return (
     <form
       aria-label="Go to a time"
-      className="flex flex-wrap items-end gap-2"
+      className="text-sm"
       onSubmit={(e) => {
         e.preventDefault();
         const seconds = parseClipTime(text);
@@ -170,10 +170,10 @@ function GoToTime({ onGo }: { onGo: (seconds: number) => void }) {
         onGo(seconds);
       }}
     >
-      <div>
-        <label htmlFor={id} className="block text-sm font-semibold">
-          Go to (seconds, or m:ss.s)
-        </label>
+      <label htmlFor={id} className="block font-semibold">
+        Go to (seconds, or m:ss.s)
+      </label>
+      <div className="mt-1 flex flex-wrap gap-2">
         <input
           id={id}
           inputMode="decimal"
@@ -181,14 +181,14 @@ function GoToTime({ onGo }: { onGo: (seconds: number) => void }) {
           onChange={(e) => setText(e.currentTarget.value)}
           aria-invalid={problem ? true : undefined}
           aria-describedby={problem ? `${id}-problem` : undefined}
-          className="mt-1 block min-h-10 w-32 rounded-md border border-rule-strong bg-sheet px-3 text-sm tabular-nums"
+          className="block min-h-10 w-32 rounded-md border border-rule-strong bg-sheet px-3 tabular-nums"
         />
+        <Button type="submit" variant="secondary">
+          Go
+        </Button>
       </div>
-      <Button type="submit" variant="secondary">
-        Go
-      </Button>
       {problem && (
-        <p id={`${id}-problem`} className="basis-full text-sm font-semibold text-line-deep">
+        <p id={`${id}-problem`} className="mt-1 font-semibold text-line-deep">
           {problem}
         </p>
       )}

@@ -11,7 +11,7 @@ export function DocumentsCaution({ athleteName, audience }: { athleteName: strin
           : `Only the clinicians on ${athleteName}'s care team and ${athleteName} see these.`}
       </span>{' '}
       Coaches and guardians do not. Loadline stores each document as it was sent; it does not read, check or interpret
-      it. Questions about what a document says go to the clinician who issued it or to your own clinician.
+      it.{audience === 'athlete' && ' Questions about what a document says go to whoever issued it, or to your clinician.'}
     </p>
   );
 }
