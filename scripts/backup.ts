@@ -109,7 +109,7 @@ async function serverMajor(url: string): Promise<number> {
 }
 
 /** Runs a tool; its stdout goes to `stdoutFd` when given, otherwise it is returned. */
-function runTool(file: string, args: string[], env: NodeJS.ProcessEnv, stdoutFd?: number): Promise<string> {
+function runTool(file: string, args: string[], env: NodeJS.ProcessEnv, stdoutFd?: number, okCodes = [0]): Promise<string> {
   return new Promise((resolve, reject) => {
     const child = spawn(file, args, { env, stdio: ['ignore', stdoutFd ?? 'pipe', 'pipe'] });
     const out: Buffer[] = [];
@@ -118,7 +118,7 @@ function runTool(file: string, args: string[], env: NodeJS.ProcessEnv, stdoutFd?
     child.stderr?.on('data', (b: Buffer) => err.push(b));
     child.on('error', reject);
     child.on('close', (code) => {
-      if (code === 0) resolve(Buffer.concat(out).toString('utf8'));
+      if (code !== null && okCodes.includes(code)) resolve(Buffer.concat(out).toString('utf8'));
       else reject(new BackupError(`${path.basename(file)} failed (exit ${code}): ${Buffer.concat(err).toString('utf8').trim()}`));
     });
   });
@@ -216,7 +216,9 @@ export async function backupDatabase(opts: BackupOptions): Promise<BackupResult>
     const tarFile = file.replace(/\.dump$/, '') + '.uploads.tar';
     const tarBytes = await writeThrough(tarFile, (fd) =>
       // Unfinished uploads (`.partial`) are not files yet; `-C dir .` keeps paths relative to the folder.
-      runTool('tar', ['--create', '--file=-', '--exclude=*.partial', '-C', opts.uploadsDir!, '.'], process.env, fd));
+      // GNU tar exits 1 when a file was deleted or renamed into place while it read the folder: on a
+      // live app that is expected, and the archive is still whole.
+      runTool('tar', ['--create', '--file=-', '--exclude=*.partial', '-C', opts.uploadsDir!, '.'], process.env, fd, [0, 1]));
     uploads = { file: tarFile, bytes: tarBytes };
   }
   return { file, bytes, counts, uploads };
