@@ -4,8 +4,8 @@ import { DEMO, NEW_PASSWORD, signIn } from './helpers';
 
 /**
  * Setup for the uploads spec through the API, so the spec owns its people and records: Dana (the
- * demo admin) invites a new athlete, coach and clinician, puts the two staff on the athlete's care
- * team; the athlete logs one session and the clinician opens a case. Nothing another spec reads is
+ * demo admin) invites a new athlete, coach, clinician and guardian, puts the two staff on the
+ * athlete's care team and links the guardian; the athlete logs one session and the clinician opens a case. Nothing another spec reads is
  * touched. Each write carries the session's CSRF token, as the app's own client does.
  */
 
@@ -34,6 +34,7 @@ export interface UploadsCast {
   athlete: Person;
   coach: Person;
   clinician: Person;
+  guardian: Person;
   caseId: string;
   logId: string;
 }
@@ -70,6 +71,8 @@ export async function castForUploads(
   const athlete = await join(browser, options.phone, await invite('athlete', ['athlete'], { dateOfBirth: '2005-04-02' }), athleteName);
   const coach = await join(browser, options.desktop, await invite('coach', ['coach']), `Clip Coach ${stamp}`);
   const clinician = await join(browser, options.desktop, await invite('clinician', ['clinician']), `Clip Clinician ${stamp}`);
+  const guardian = await join(browser, options.phone, await invite('guardian', ['guardian']), `Clip Guardian ${stamp}`);
+  await apiWrite(admin.request, 'post', `/orgs/${orgId}/guardian-links`, { athleteId: athlete.membershipId, guardianId: guardian.membershipId });
 
   for (const [member, role] of [[coach, 'coach'], [clinician, 'clinician']] as const) {
     await apiWrite(admin.request, 'post', `/orgs/${orgId}/care-team`, { athleteId: athlete.membershipId, memberId: member.membershipId, role });
@@ -93,7 +96,7 @@ export async function castForUploads(
     status: 'limited',
     statusEffectiveFrom: today,
   });
-  return { orgId, admin, athlete, coach, clinician, caseId: opened.id, logId: logged.log.id };
+  return { orgId, admin, athlete, coach, clinician, guardian, caseId: opened.id, logId: logged.log.id };
 }
 
 /**

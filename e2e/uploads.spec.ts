@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
 import { expectHome, expectNoSidewaysScroll, keepScreenshot } from './helpers';
 import { contextOptions, isoDay } from './plan-helpers';
-import { castForUploads, recordWebmClip, tinyPdf, videoTime, type UploadsCast } from './uploads-helpers';
+import { apiWrite, castForUploads, recordWebmClip, tinyPdf, videoTime, type UploadsCast } from './uploads-helpers';
 
 /**
  * Uploads end to end, with people of its own (see uploads-helpers): the athlete films a set in the
@@ -32,7 +32,7 @@ test.describe.serial('clips and case documents', () => {
   });
 
   test.afterAll(async () => {
-    for (const page of [cast?.admin, cast?.athlete.page, cast?.coach.page, cast?.clinician.page]) await page?.context().close();
+    for (const page of [cast?.admin, cast?.athlete.page, cast?.coach.page, cast?.clinician.page, cast?.guardian.page]) await page?.context().close();
   });
 
   test('the athlete records a clip on the phone and uploads it from the logged session, with a progress bar', async () => {
@@ -163,6 +163,54 @@ test.describe.serial('clips and case documents', () => {
     await expect(coach.getByText(DOC_TITLE)).toHaveCount(0);
     const res = await coach.request.get(`/api/orgs/${cast.orgId}/cases/${cast.caseId}/documents`);
     expect(res.status()).toBe(404);
+  });
+
+  test('guardians see clips only once the admin turns that on in Organization settings; a stale save is refused in words', async () => {
+    test.setTimeout(60_000);
+    const guardian = cast.guardian.page;
+    const clipsOf = guardian.getByRole('region', { name: "Clip's technique clips" });
+    await guardian.goto('/guardian');
+    await expectHome(guardian, 'Your athlete');
+    await expect(clipsOf).toHaveCount(0);
+    const hidden = await guardian.request.get(`/api/orgs/${cast.orgId}/clips?athleteId=${cast.athlete.membershipId}`);
+    expect(await hidden.json()).toEqual([]);
+
+    const admin = cast.admin;
+    const stale = await admin.context().newPage();
+    try {
+      for (const page of [admin, stale]) {
+        await page.goto('/admin/settings');
+        await expectHome(page, 'Organization settings');
+      }
+      const allow = (page: typeof admin) => page.getByRole('checkbox', { name: /Guardians may watch their athlete's clips/ });
+      await expect(allow(admin)).not.toBeChecked();
+      await allow(admin).check();
+      await admin.getByRole('button', { name: 'Save settings' }).click();
+      await expect(admin.getByRole('status')).toHaveText('Settings saved.');
+      await keepScreenshot(admin, test.info(), 'organization-settings');
+
+      await allow(stale).check();
+      await stale.getByLabel('Local emergency number').fill('911');
+      await stale.getByRole('button', { name: 'Save settings' }).click();
+      const refused = stale.getByRole('alert');
+      await expect(refused).toContainText('someone else changed these settings');
+      await refused.getByRole('button', { name: 'Reload the settings' }).click();
+      await expect(allow(stale)).toBeChecked();
+
+      await guardian.reload();
+      await expectHome(guardian, 'Your athlete');
+      await clipsOf.getByRole('link', { name: /^Goblet squat, / }).click();
+      await expect(guardian).toHaveURL(clipUrl);
+      await expect(guardian.getByRole('button', { name: `At 1.5 seconds, ${cast.coach.name}: ${NOTE}` })).toBeVisible();
+      await expect(guardian.getByRole('form', { name: 'Pin a note' })).toHaveCount(0);
+      await expect(guardian.getByRole('button', { name: 'Remove this clip' })).toHaveCount(0);
+      await expectNoSidewaysScroll(guardian);
+    } finally {
+      // The demo organization is shared with the other specs: leave the setting as it was.
+      const current = (await (await admin.request.get(`/api/orgs/${cast.orgId}/settings`)).json()) as { version: number };
+      await apiWrite(admin.request, 'patch', `/orgs/${cast.orgId}/settings`, { guardiansSeeClips: false, version: current.version });
+      await stale.close();
+    }
   });
 });
 

@@ -12,7 +12,7 @@ export function OrganizationSettingsPage() {
   return (
     <>
       <PageHeader title="Organization settings">How {settings.data?.name ?? 'the organization'} appears, and who may see what.</PageHeader>
-      <Panel>
+      <Panel className="max-w-2xl">
         {settings.isPending ? (
           <Loading what="the settings" />
         ) : settings.isError ? (
