@@ -88,7 +88,8 @@ try {
     });
     const server = await startServer(config, createLogger(config.LOG_LEVEL));
     try {
-      const code = await run('npx', ['playwright', 'test'], { E2E_BASE_URL: server.url, CHROMIUM_PATH: CHROMIUM });
+      // The database URL lets a browser test read the fake mailbox (e.g. a password reset link).
+      const code = await run('npx', ['playwright', 'test'], { E2E_BASE_URL: server.url, CHROMIUM_PATH: CHROMIUM, E2E_DATABASE_URL: db.url });
       if (code !== 0) throw new Error('browser tests failed');
     } finally {
       await server.stop();
