@@ -166,6 +166,27 @@ describe('password reset', () => {
     expect((await bystander.get(orgPath)).status).toBe(200);
   });
 
+  it('also ends a session that was waiting for the second-step code', async () => {
+    const org = await createOrg(h.ds);
+    const { secret } = await enable(await signedIn(h.app, org.otherAthlete.email, TEST_PASSWORD));
+    const waiting = await Client.anonymous(h.app);
+    const pw = await waiting.post('/api/session', { email: org.otherAthlete.email, password: TEST_PASSWORD });
+    expect(pw.body.secondStep).toBe(true);
+    waiting.csrf = pw.body.csrfToken;
+
+    const token = await requestResetToken(h.app, h.ds, org.otherAthlete.email);
+    expect((await (await Client.anonymous(h.app)).post('/api/password-reset/confirm', { token, password: NEW_PASSWORD })).status).toBe(204);
+
+    // The waiting session is gone: its CSRF token no longer matches, and with a fresh one there is
+    // nothing waiting for a code.
+    const stale = await waiting.post('/api/session/second-step', { code: nextCode(secret) });
+    expect(stale.status).toBe(403);
+    await waiting.refresh();
+    const res = await waiting.post('/api/session/second-step', { code: nextCode(secret) });
+    expect(res.status).toBe(401);
+    expect(res.body.error.code).toBe('unauthenticated');
+  });
+
   it('sends nothing to a person with no active membership', async () => {
     const org = await createOrg(h.ds);
     await h.ds.query(`UPDATE memberships SET active = false WHERE user_id = $1`, [org.otherGuardian.userId]);
