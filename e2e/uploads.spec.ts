@@ -154,6 +154,20 @@ test.describe.serial('clips and case documents', () => {
     await keepScreenshot(clinician, test.info(), 'case-documents-phone');
   });
 
+  test('the athlete finds the same document on My documents, on the phone', async () => {
+    const athlete = cast.athlete.page;
+    await athlete.goto('/athlete');
+    await expectHome(athlete, 'My profile');
+    await athlete.getByRole('link', { name: 'My documents' }).click();
+    await expectHome(athlete, 'My documents');
+    const panel = athlete.getByRole('region', { name: 'Documents: Lower back' });
+    await expect(panel).toContainText('Only you and the clinicians on your care team see these.');
+    await expect(panel.getByRole('article', { name: DOC_TITLE })).toContainText('Bayside Imaging');
+    await expect(panel.getByRole('button', { name: 'Attach a document' })).toBeVisible();
+    await expectNoSidewaysScroll(athlete);
+    await keepScreenshot(athlete, test.info(), 'athlete-documents-phone');
+  });
+
   test('the coach’s page for the athlete has no documents, and the server gives the coach none', async () => {
     const coach = cast.coach.page;
     await coach.goto(`/coach/athletes/${cast.athlete.membershipId}`);
