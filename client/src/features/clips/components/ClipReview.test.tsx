@@ -97,3 +97,35 @@ describe('ClipReview', () => {
     expect(screen.getByRole('button', { name: 'Forward one frame' })).toHaveAttribute('title', expect.stringMatching(/1\/30/));
   });
 });
+
+describe('a WebM clip without its length in the header', () => {
+  it('seeks far ahead once to learn the length, then goes back; a note chosen meanwhile wins over the start', () => {
+    const { container } = renderAs(athlete);
+    const video = container.querySelector('video')!;
+    let duration = Number.POSITIVE_INFINITY;
+    Object.defineProperty(video, 'duration', { configurable: true, get: () => duration });
+    Object.defineProperty(video, 'readyState', { configurable: true, get: () => HTMLMediaElement.HAVE_METADATA });
+
+    fireEvent(video, new Event('loadedmetadata'));
+    expect(video.currentTime).toBeGreaterThan(1000);
+    expect(screen.getByText(/measuring/)).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Play' })).toBeDisabled();
+
+    fireEvent.click(screen.getByRole('button', { name: 'At 2.4 seconds, Theo Lindqvist: Heels lift here.' }));
+    duration = 3.5;
+    fireEvent(video, new Event('durationchange'));
+    expect(video.currentTime).toBeCloseTo(2.4, 3);
+    expect(screen.getByText('/ 00:03.5')).toBeInTheDocument();
+    expect(screen.getByRole('slider', { name: 'Position in the clip' })).toBeEnabled();
+    expect(screen.getByRole('button', { name: 'Play' })).toBeEnabled();
+  });
+
+  it('reads the length straight away when the header has it', () => {
+    const { container } = renderAs(athlete);
+    const video = container.querySelector('video')!;
+    Object.defineProperty(video, 'duration', { configurable: true, get: () => 4.25 });
+    fireEvent(video, new Event('loadedmetadata'));
+    expect(video.currentTime).toBe(0);
+    expect(screen.getByText('/ 00:04.2')).toBeInTheDocument();
+  });
+});
