@@ -1,11 +1,13 @@
 import type { Request, RequestHandler, Response } from 'express';
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { SessionDto } from '../../../policies/dto';
 import type { Deps } from '../http/context';
 import type { User } from '../entities';
 import { AppError } from '../http/errors';
 import { newCsrfToken, signInLimits } from '../http/security';
 import { appendAudit } from './audit';
 import { loadActors } from './actor';
+import { sessionDto } from './session-dto';
 
 export function authenticateLocal(deps: Deps, req: Request, res: Response): Promise<User | false> {
   return new Promise((resolve, reject) => {
@@ -88,6 +90,12 @@ export function pendingSecondStep(req: Request): { userId: string; email: string
   if (!p || req.user) return null;
   if (Date.now() - p.at > SECOND_STEP_MINUTES * 60_000) return null;
   return p;
+}
+
+/** The session as the client sees it, saying so when a second-step code is awaited. */
+export async function sessionWithStep(ds: DataSource, req: Request): Promise<SessionDto> {
+  const dto = await sessionDto(ds, req);
+  return pendingSecondStep(req) ? { ...dto, secondStep: true } : dto;
 }
 
 const limits = new WeakMap<Deps, RequestHandler[]>();

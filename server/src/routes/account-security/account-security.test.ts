@@ -357,6 +357,26 @@ describe('two-step sign-in', () => {
     expect(plain.body.user?.id).toBe(org.guardian.userId);
   });
 
+  it('accepting an invitation with an existing account’s password still asks for the code', async () => {
+    const home = await createOrg(h.ds);
+    const other = await createOrg(h.ds);
+    const { secret } = await enable(await signedIn(h.app, home.clinician.email, TEST_PASSWORD));
+    const admin = await signedIn(h.app, other.admin.email, TEST_PASSWORD);
+    const invite = await admin.post(`/api/orgs/${other.id}/invitations`, { email: home.clinician.email, roles: ['clinician'] });
+    expect(invite.status).toBe(201);
+    const token = new URL(invite.body.link).hash.slice(1);
+
+    const c = await Client.anonymous(h.app);
+    const accepted = await c.post('/api/invitations/accept', { token, displayName: 'Same Person', password: TEST_PASSWORD });
+    expect(accepted.status, JSON.stringify(accepted.body)).toBe(200);
+    expect(accepted.body).toMatchObject({ user: null, secondStep: true });
+    c.csrf = accepted.body.csrfToken;
+    expect((await c.get(`/api/orgs/${other.id}`)).status).toBe(401);
+    const done = await c.post('/api/session/second-step', { code: nextCode(secret) });
+    expect(done.status).toBe(200);
+    expect(done.body.memberships.map((m: { organizationId: string }) => m.organizationId).sort()).toEqual([home.id, other.id].sort());
+  });
+
   it('setup while it is on is refused (the app in use keeps working)', async () => {
     const org = await createOrg(h.ds);
     const c = await signedIn(h.app, org.otherClinician.email, TEST_PASSWORD);

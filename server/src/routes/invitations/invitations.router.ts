@@ -8,7 +8,8 @@ import { orgRoute, publicRoute, type RouteDef } from '../../http/route';
 import { signInLimits } from '../../http/security';
 import { acceptInvitation, findUsableInvitation, newInvitationToken, toInvitationDto } from '../../services/invitations';
 import { sessionDto } from '../../services/session-dto';
-import { startSession } from '../../services/sign-in';
+import { beginSecondStep, sessionWithStep, startSession } from '../../services/sign-in';
+import { isTwoStepOn } from '../../services/two-step';
 import { enqueueEmail } from '../../mail/deliveries';
 import { emails } from '../../../../templates/email/messages';
 import { ROLE_LABELS } from '../../../../policies/roles';
@@ -46,6 +47,12 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       body: InvitationAcceptSchema,
       async handler({ ds, req, body, tx }) {
         const user = await tx((m, audit) => acceptInvitation(m, body, deps.config.BCRYPT_COST, audit));
+        // An existing account with two-step sign-in on still needs its code: the password alone
+        // (checked by the acceptance) must not sign it in here either.
+        if (await isTwoStepOn(ds.manager, user.id)) {
+          await beginSecondStep(req, user);
+          return sessionWithStep(ds, req);
+        }
         await startSession(req, user);
         return sessionDto(ds, req);
       },

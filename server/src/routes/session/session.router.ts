@@ -1,5 +1,4 @@
 import { SignInSchema, ProfileUpdateSchema, SecondStepSchema } from '../../../../policies/schemas';
-import type { SessionDto } from '../../../../policies/dto';
 import { defineAbilityFor, type Actor } from '../../../../policies/access';
 import { publicRoute, type RouteDef } from '../../http/route';
 import type { Deps } from '../../http/context';
@@ -7,17 +6,11 @@ import { SESSION_COOKIE } from '../../http/security';
 import { AppError } from '../../http/errors';
 import { sessionDto, toUserDto } from '../../services/session-dto';
 import {
-  accountLimits, auditAccount, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, startSession,
+  accountLimits, auditAccount, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, sessionWithStep, startSession,
 } from '../../services/sign-in';
 import { isTwoStepOn, twoStepKey, useSecondStepCode } from '../../services/two-step';
 import { authorize } from '../../http/authorize';
 import { User } from '../../entities';
-
-/** The session as the client sees it, saying so when a second-step code is awaited. */
-async function sessionWithStep(ds: Deps['ds'], req: Parameters<typeof sessionDto>[1]): Promise<SessionDto> {
-  const dto = await sessionDto(ds, req);
-  return pendingSecondStep(req) ? { ...dto, secondStep: true } : dto;
-}
 
 const wrongCode = () => new AppError('invalid_credentials', 'That code did not work. Enter the code your app shows now, or one of your unused recovery codes.');
 const stepTimedOut = () => new AppError('unauthenticated', 'Your sign-in timed out before a code was entered. Please enter your e-mail and password again.');
