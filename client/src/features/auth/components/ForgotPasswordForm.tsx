@@ -25,7 +25,10 @@ export function ForgotPasswordForm() {
     return (
       <Notice tone="done" role="status" title="Check your e-mail">
         <p>{request.data.message}</p>
-        <p>The link works once and only for a short while. Sent to: {getValues('email')}</p>
+        <p>
+          The link works once and only for a short while. If nothing arrives within a few minutes, check the address you
+          entered ({getValues('email')}) and ask again.
+        </p>
       </Notice>
     );
   }
