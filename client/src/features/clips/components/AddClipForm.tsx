@@ -185,6 +185,8 @@ function ClipFields({
         <TextField
           label="Video"
           type="file"
+          // The shared field frame styles text boxes; a file picker also needs room above and below its button.
+          style={{ paddingBlock: '0.5rem' }}
           hint="A short MP4, WebM or MOV video of the set, straight from the phone."
           accept={CLIP_ACCEPT}
           large={large}

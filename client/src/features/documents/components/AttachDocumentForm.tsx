@@ -109,6 +109,8 @@ export function AttachDocumentForm({
         <TextField
           label="File"
           type="file"
+          // The shared field frame styles text boxes; a file picker also needs room above and below its button.
+          style={{ paddingBlock: '0.5rem' }}
           hint="PDF, or a photo or scan as JPEG, PNG or HEIC."
           accept={DOCUMENT_ACCEPT}
           large={large}
