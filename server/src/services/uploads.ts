@@ -73,11 +73,13 @@ export async function removeStored(storage: ObjectStorage, logger: Logger, key: 
 }
 
 /**
- * Streams a stored object (or a range of it) into the response. A viewer who seeks or closes the
- * tab ends the response early; that is normal for video and is not an error.
+ * Streams a stored object (or a range of it) into the response. The object is opened before
+ * `headers` sets anything, so a missing object still answers a plain JSON error, not an "attachment".
+ * A viewer who seeks or closes the tab ends the response early; for video that is normal, not an error.
  */
-export async function streamStored(storage: ObjectStorage, res: Response, key: string, range?: ByteRange): Promise<void> {
+export async function streamStored(storage: ObjectStorage, res: Response, key: string, range: ByteRange | undefined, headers: () => void): Promise<void> {
   const body = await storage.get(key, range);
+  headers();
   try {
     await pipeline(body, res);
   } catch (err) {

@@ -196,21 +196,24 @@ export const clipRoutes: RouteDef[] = [
       if (!range || range.start === 0) {
         await tx((_m, audit) => audit({ action: 'clip.viewed', subjectType: 'Clip', subjectId: clip.id, athleteId: clip.athleteId }));
       }
-      res.setHeader('Accept-Ranges', 'bytes');
-      res.setHeader('Content-Type', clip.mediaType);
-      if (range) {
-        res.status(206);
-        res.setHeader('Content-Range', `bytes ${range.start}-${range.end}/${size}`);
-        res.setHeader('Content-Length', String(range.end - range.start + 1));
-      } else {
-        res.status(200);
-        res.setHeader('Content-Length', String(size));
-      }
+      const headers = () => {
+        res.setHeader('Accept-Ranges', 'bytes');
+        res.setHeader('Content-Type', clip.mediaType);
+        if (range) {
+          res.status(206);
+          res.setHeader('Content-Range', `bytes ${range.start}-${range.end}/${size}`);
+          res.setHeader('Content-Length', String(range.end - range.start + 1));
+        } else {
+          res.status(200);
+          res.setHeader('Content-Length', String(size));
+        }
+      };
       if (req.method === 'HEAD') {
+        headers();
         res.end();
         return undefined;
       }
-      await streamStored(deps.storage, res, clip.storageKey, range);
+      await streamStored(deps.storage, res, clip.storageKey, range, headers);
       return undefined;
     },
   }),

@@ -46,6 +46,11 @@ describe('technique clips', () => {
       expect(list.body.map((x: { id: string }) => x.id), who).toEqual([res.body.id]);
       expect((await c.get(res.body.videoPath)).status, who).toBe(200);
     }
+    const coach = await w.as('coach');
+    expect((await coach.get(`${w.base}/clips?trainingLogId=${w.log.id}`)).body.map((x: { id: string }) => x.id)).toEqual([res.body.id]);
+    const otherLog = await createLog(h.ds, w.org.id, w.org.athlete.membershipId);
+    expect((await coach.get(`${w.base}/clips?trainingLogId=${otherLog.id}`)).body).toEqual([]);
+    expect((await coach.get(`${w.base}/clips?athleteId=${w.org.otherAthlete.membershipId}`)).body).toEqual([]);
     const actions = (await h.ds.getRepository(AuditEntry).find({ where: { subjectId: res.body.id }, order: { id: 'ASC' } })).map((a) => a.action);
     expect(actions[0]).toBe('clip.uploaded');
     expect(actions.filter((a) => a === 'clip.viewed')).toHaveLength(3);

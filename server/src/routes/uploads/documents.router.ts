@@ -106,12 +106,13 @@ export const documentRoutes: RouteDef[] = [
       const d = await readableDocument(ds, ability, actor.organizationId, params.id);
       await tx((_m, audit) => audit({ action: 'case_document.downloaded', subjectType: 'CaseDocument', subjectId: d.id, athleteId: d.athleteId }));
       const filename = `${slug(d.title)}-${d.documentDate}.${EXTENSIONS[d.mediaType] ?? 'bin'}`;
-      res.setHeader('Content-Type', d.mediaType);
-      res.setHeader('Content-Length', String(d.sizeBytes));
-      res.setHeader('Content-Disposition', `attachment; filename="${filename}"`);
-      res.setHeader('Cache-Control', 'no-store');
-      res.status(200);
-      await streamStored(deps.storage, res, d.storageKey);
+      await streamStored(deps.storage, res, d.storageKey, undefined, () => {
+        res.setHeader('Content-Type', d.mediaType);
+        res.setHeader('Content-Length', String(d.sizeBytes));
+        res.setHeader('Content-Disposition', `attachment; filename="${filename}"`);
+        res.setHeader('Cache-Control', 'no-store');
+        res.status(200);
+      });
       return undefined;
     },
   }),

@@ -1,5 +1,5 @@
 import { existsSync } from 'node:fs';
-import { readdir, stat } from 'node:fs/promises';
+import { readdir, rm, stat } from 'node:fs/promises';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import os from 'node:os';
@@ -67,7 +67,7 @@ describe('case documents', () => {
     expect(actions).toEqual(['case_document.uploaded', 'case_document.downloaded']);
   });
 
-  it('the athlete uploads to their own case and reads it; another athlete, a coach, a guardian, an admin and an off-team clinician get 404', async () => {
+  it('the athlete uploads to their own case and reads it; another athlete, a coach, a guardian, an admin and an off-team clinician get 404', { timeout: 90_000 }, async () => {
     const { kase, base, as } = await w();
     const athlete = await as('athlete');
     const res = await upload(athlete, `${base}/cases/${kase.id}/documents`, { ...FIELDS, title: 'Referral' }, { data: PNG, name: 'photo.png', type: 'image/png' });
@@ -255,6 +255,19 @@ describe('case documents', () => {
     const own = await upload(await as('athlete'), `${base}/cases/${kase.id}/documents`, FIELDS, { data: PDF, name: 'a.pdf' });
     expect((await (await as('athlete')).delete(`${base}/documents/${own.body.id}`)).status).toBe(204);
     void org;
+  });
+
+  it('a document whose file has gone missing answers a plain JSON error, not an empty attachment', async () => {
+    const { kase, base, as } = await w();
+    const clinician = await as('clinician');
+    const doc = await upload(clinician, `${base}/cases/${kase.id}/documents`, FIELDS, { data: PDF, name: 'a.pdf' });
+    const row = await h.ds.getRepository(CaseDocument).findOneByOrFail({ id: doc.body.id });
+    await rm(path.join(h.storageDir, row.storageKey));
+    const res = await clinician.get(doc.body.downloadPath);
+    expect(res.status).toBe(500);
+    expect(res.headers['content-type']).toMatch(/application\/json/);
+    expect(res.headers['content-disposition']).toBeUndefined();
+    expect(res.body.error.code).toBe('internal');
   });
 
   it('a clinician removed from the care team loses access at once', async () => {
