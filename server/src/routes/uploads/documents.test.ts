@@ -224,6 +224,17 @@ describe('case documents', () => {
     const extra = await upload(clinician, url, { ...FIELDS, organizationId: 'x' }, { data: PDF, name: 'a.pdf' });
     expect(extra.status).toBe(400);
     expect(extra.body.error.fields).toHaveProperty('organizationId');
+    const fieldAfterFile = await clinician.agent.post(url).set('x-csrf-token', clinician.csrf)
+      .field('title', FIELDS.title).field('documentDate', FIELDS.documentDate).attach('file', PDF, 'a.pdf').field('issuedBy', FIELDS.issuedBy);
+    expect(fieldAfterFile.status).toBe(400);
+    expect(fieldAfterFile.body.error.fields).toHaveProperty('issuedBy');
+    const twoFiles = await upload(clinician, url, FIELDS, { data: PDF, name: 'a.pdf' }).attach('file', PDF, 'b.pdf');
+    expect(twoFiles.status).toBe(400);
+    expect(twoFiles.body.error.fields).toEqual({ file: ['must be a single file'] });
+    const otherName = await clinician.agent.post(url).set('x-csrf-token', clinician.csrf)
+      .field('title', FIELDS.title).field('documentDate', FIELDS.documentDate).field('issuedBy', FIELDS.issuedBy).attach('document', PDF, 'a.pdf');
+    expect(otherName.status).toBe(400);
+    expect(otherName.body.error.fields).toHaveProperty('document');
     const json = await clinician.post(url, FIELDS);
     expect(json.status).toBe(415);
     expect(json.body.error.code).toBe('unsupported_media_type');
