@@ -14,6 +14,7 @@ export type ErrorCode =
   | 'reset_invalid'
   | 'payload_too_large'
   | 'unsupported_media_type'
+  | 'range_not_satisfiable'
   | 'unprocessable'
   | 'rate_limited'
   | 'unavailable'
@@ -34,6 +35,7 @@ export function statusFor(code: ErrorCode): number {
     case 'version_conflict': return 409;
     case 'payload_too_large': return 413;
     case 'unsupported_media_type': return 415;
+    case 'range_not_satisfiable': return 416;
     case 'unprocessable': return 422;
     case 'rate_limited': return 429;
     case 'unavailable': return 503;

@@ -187,9 +187,8 @@ export const clipRoutes: RouteDef[] = [
       // A malformed or multi-part Range is ignored (RFC 9110 allows it): the whole file is sent.
       const parsed = header ? rangeParser(size, header, { combine: true }) : undefined;
       if (parsed === -1) {
-        res.status(416).setHeader('Content-Range', `bytes */${size}`);
-        res.end();
-        return undefined;
+        res.setHeader('Content-Range', `bytes */${size}`);
+        throw new AppError('range_not_satisfiable', `The requested range is outside the video (${size} bytes).`);
       }
       const range = Array.isArray(parsed) && parsed.length === 1 && parsed.type === 'bytes' ? parsed[0] : undefined;
       // One entry per viewing, not one per seek: only a request from the start is audited.

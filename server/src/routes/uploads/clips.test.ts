@@ -133,6 +133,7 @@ describe('technique clips', () => {
     const beyond = await coach.get(clip.body.videoPath).set('Range', 'bytes=20000-20100');
     expect(beyond.status).toBe(416);
     expect(beyond.headers['content-range']).toBe('bytes */10000');
+    expect(beyond.body.error.code).toBe('range_not_satisfiable');
 
     // As a <video> element asks: same-origin GET with cookies, no CSRF token needed.
     const element = await coach.agent.get(clip.body.videoPath).set('Sec-Fetch-Dest', 'video').set('Sec-Fetch-Site', 'same-origin').set('Range', 'bytes=0-');
