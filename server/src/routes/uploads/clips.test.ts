@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { AuditEntry, Clip, ClipNote, Notification } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef } from '../../test/factories';
-import { createLog, filesUnder, PDF, webm } from './fixtures';
+import { createLog, filesUnder, MOV, MP4, PDF, webm } from './fixtures';
 
 const LIMIT_MB = 0.05;
 const LIMIT = Math.floor(LIMIT_MB * 1024 * 1024);
@@ -92,6 +92,17 @@ describe('technique clips', () => {
     const posing = await uploadClip(athlete, w, { athleteId: w.org.otherAthlete.membershipId, trainingLogId: othersLog.id });
     expect(posing.status).toBe(404);
     expect(await h.ds.getRepository(Clip).count({ where: { organizationId: w.org.id } })).toBe(0);
+  });
+
+  it('accepts MP4 and QuickTime clips from phones, whatever their names say', async () => {
+    const w = await world();
+    const athlete = await w.as('athlete');
+    const mov = await uploadClip(athlete, w, {}, MOV, 'clip.mp4');
+    expect(mov.status, mov.text).toBe(201);
+    expect(mov.body.mediaType).toBe('video/quicktime');
+    const mp4 = await uploadClip(athlete, w, {}, MP4, 'clip');
+    expect(mp4.body.mediaType).toBe('video/mp4');
+    expect((await athlete.get(mp4.body.videoPath)).headers['content-type']).toBe('video/mp4');
   });
 
   it('refuses a PDF sent as a clip (415) and an oversize clip (413), keeping nothing', async () => {

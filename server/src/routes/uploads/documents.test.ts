@@ -8,7 +8,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { AuditEntry, CaseDocument, CareTeamAssignment } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { createCase, filesUnder, HTML, PDF, PNG } from './fixtures';
+import { createCase, filesUnder, HEIC, HTML, PDF, PNG } from './fixtures';
 
 // A small limit (about 51 kB) so oversize uploads stay quick; the default is 20 MB.
 const LIMIT_MB = 0.05;
@@ -118,6 +118,15 @@ describe('case documents', () => {
     await upload(clinician, url(caseB), { ...FIELDS, title: 'Other case' }, { data: PDF, name: 'c.pdf' });
     const list = await clinician.get(url(caseA));
     expect(list.body.map((d: { title: string }) => d.title)).toEqual(['Newer', 'Older']);
+  });
+
+  it('accepts a HEIC photo of a document (named .jpg by the phone): the type comes from its bytes', async () => {
+    const { kase, base, as } = await w();
+    const res = await upload(await as('clinician'), `${base}/cases/${kase.id}/documents`, FIELDS, { data: HEIC, name: 'IMG_1234.jpg', type: 'image/jpeg' });
+    expect(res.status, res.text).toBe(201);
+    expect(res.body.mediaType).toBe('image/heic');
+    const file = await (await as('clinician')).get(res.body.downloadPath);
+    expect(file.headers['content-disposition']).toBe('attachment; filename="knee-mri-report-2026-11-20.heic"');
   });
 
   it('refuses an HTML file renamed .pdf with 415 and a sentence, keeping nothing', async () => {

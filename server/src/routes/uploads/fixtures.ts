@@ -6,6 +6,10 @@ import { CaseRecord, TrainingLog } from '../../entities';
 /** Minimal files whose first bytes are those of the real formats (what file-type reads). */
 export const PDF = Buffer.from('%PDF-1.4\n1 0 obj\n<< /Type /Catalog >>\nendobj\ntrailer\n<< /Root 1 0 R >>\n%%EOF\n');
 export const PNG = Buffer.from('89504E470D0A1A0A0000000D49484452000000010000000108060000001F15C4890000000049454E44AE426082', 'hex');
+/** ISO base media headers: an 'ftyp' box with the brand that names the format. */
+export const HEIC = Buffer.concat([Buffer.from('000000186674797068656963000000006d69663168656963', 'hex'), Buffer.alloc(500, 1)]);
+export const MOV = Buffer.concat([Buffer.from('00000014667479707174202000000000717420200000000877696465', 'hex'), Buffer.alloc(5000, 2)]);
+export const MP4 = Buffer.concat([Buffer.from('0000001c667479706973736f6d0000020069736f6d69736f32617663316d703431', 'hex'), Buffer.alloc(5000, 3)]);
 export const HTML = Buffer.from('<!doctype html><html><body><script>alert(document.cookie)</script></body></html>\n');
 
 /** An EBML header with DocType "webm", a Segment id, then `size` bytes in all (0..255 repeating, so ranges are checkable). */
