@@ -6,9 +6,11 @@ import { apiWrite, castForUploads, recordWebmClip, tinyPdf, videoTime, type Uplo
 /**
  * Uploads end to end, with people of its own (see uploads-helpers): the athlete films a set in the
  * browser (MediaRecorder, WebM with no length in its header) and uploads it on a 375 px phone,
- * watching the progress bar; the coach opens it, steps to 1.5 s and pins a note there; the athlete
+ * watching the progress bar; the coach opens it, steps to 1.5 s and pins a note there; a file that
+ * is not a video is refused in the server's words and a cancelled upload saves nothing; the athlete
  * chooses the note and the video stops at 1.5 s. Then the clinician attaches a PDF to the case and
- * downloads it, and the coach's page for the athlete shows no documents at all.
+ * downloads it, the athlete finds it too, and the coach's page for the athlete shows no documents at
+ * all. Last, guardians see clips only once the admin turns that on (and it is turned off again).
  *
  * One serial flow in the desktop project; the athlete's screens open on a phone inside it.
  */
@@ -101,6 +103,42 @@ test.describe.serial('clips and case documents', () => {
     await expect(note).toContainText('00:01.5');
     await expect(pin.getByLabel('Note')).toHaveValue('');
     await keepScreenshot(coach, test.info(), 'clip-page-desktop');
+  });
+
+  test('the coach’s upload of a file that is not a video is refused in the server’s words, and a cancelled upload saves nothing', async () => {
+    test.setTimeout(60_000);
+    const coach = cast.coach.page;
+    await coach.goto(`/coach/athletes/${cast.athlete.membershipId}`);
+    const clips = coach.getByRole('region', { name: 'Technique clips' });
+    await expect(clips.getByRole('listitem')).toHaveCount(1);
+    await clips.getByRole('button', { name: 'Add a clip' }).click();
+    const form = clips.getByRole('form', { name: 'Add a clip' });
+    await form.getByLabel('Exercise').selectOption('Romanian deadlift');
+    await form.getByLabel('Caption (optional)').fill('Second set.');
+    await form.getByLabel('Video').setInputFiles({ name: 'set.webm', mimeType: 'video/webm', buffer: tinyPdf() });
+    await form.getByRole('button', { name: 'Upload clip' }).click();
+    const refusal = form.getByRole('alert');
+    await expect(refusal).toContainText('The clip was not saved');
+    await expect(refusal).toContainText('This file is not a WebM, MP4 or QuickTime (MOV) video (its contents were checked, not its name).');
+    await expect(form.getByLabel('Exercise')).toHaveValue('Romanian deadlift');
+    await expect(form.getByLabel('Caption (optional)')).toHaveValue('Second set.');
+
+    // A real clip, sent slowly enough to cancel half-way.
+    await form.getByLabel('Video').setInputFiles({ name: 'set.webm', mimeType: 'video/webm', buffer: await recordWebmClip(coach, 1500) });
+    const cdp = await coach.context().newCDPSession(coach);
+    await cdp.send('Network.enable');
+    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 4 * 1024 });
+    try {
+      await form.getByRole('button', { name: 'Upload clip' }).click();
+      await expect(form.getByRole('progressbar', { name: 'Uploading the clip' })).toBeVisible();
+      await form.getByRole('button', { name: 'Cancel upload' }).click();
+      await expect(form.getByRole('status')).toContainText('Nothing was saved. The form is as you left it.');
+    } finally {
+      await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+    }
+    await expect(form.getByLabel('Caption (optional)')).toHaveValue('Second set.');
+    await coach.reload();
+    await expect(coach.getByRole('region', { name: 'Technique clips' }).getByRole('listitem')).toHaveCount(1);
   });
 
   test('the athlete reads the note and choosing it stops the video at 1.5 s', async () => {
