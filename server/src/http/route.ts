@@ -5,6 +5,7 @@ import { OrgParamsSchema } from '../../../policies/schemas';
 import type { User } from '../entities';
 import { loadActor } from '../services/actor';
 import { AppError, fromZod } from './errors';
+import { loadedActor } from './security';
 import { makeTx, type BaseCtx, type Deps, type OrgCtx } from './context';
 
 /**
@@ -78,6 +79,9 @@ const asyncHandler =
     fn(req, res).catch(next);
   };
 
+/** Built once: a zod schema is costly to build, and this one ran on every organization request. */
+const OrgIdOnly = OrgParamsSchema.partial().passthrough();
+
 export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void {
   for (const def of defs) {
     const fullPath = `/api${def.path}`;
@@ -94,9 +98,11 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
       // about what the route accepts: not a member → 404, as if the organization did not exist.
       let orgCtx: Pick<OrgCtx<unknown, unknown, unknown>, 'actor' | 'ability'> | null = null;
       if (def.access.kind === 'org') {
-        const orgParams = OrgParamsSchema.partial().passthrough().safeParse({ orgId: req.params.orgId });
+        const orgParams = OrgIdOnly.safeParse({ orgId: req.params.orgId });
         const orgId = orgParams.success ? orgParams.data.orgId : undefined;
-        const actor = orgId ? await loadActor(deps.ds, user!.id, orgId) : null;
+        // Usually loaded with the session row in this request (http/security.ts); else loaded here.
+        const loaded = orgId ? loadedActor(user!, orgId) : null;
+        const actor = orgId && loaded === undefined ? await loadActor(deps.ds, user!.id, orgId) : loaded;
         if (!actor) throw new AppError('not_found', 'That organization was not found.');
         const ability = defineAbilityFor(actor);
         res.locals.actor = actor;
