@@ -17,11 +17,11 @@ import { seedExerciseLibrary } from '../server/src/services/exercise-library';
 import { createDataSource } from '../server/src/data-source';
 import { migrate, openDatabase } from '../scripts/runtime';
 
-const ATHLETES = 1000;
-const ROSTER = 50;
+export const ATHLETES = 1000;
+export const ROSTER = 50;
 const PASSWORD = 'bench-password-long-enough';
 
-async function generate(url: string) {
+export async function generate(url: string) {
   const ds = createDataSource(url, 4);
   await ds.initialize();
   const hash = await bcrypt.hash(PASSWORD, 12);
@@ -70,7 +70,7 @@ async function generate(url: string) {
   return { org, athlete: athletes[0], athleteEmail: athletes[0].email };
 }
 
-async function signIn(base: string, email: string): Promise<string> {
+export async function signIn(base: string, email: string): Promise<string> {
   const s = await fetch(`${base}/api/session`);
   const cookie = s.headers.get('set-cookie')!.split(';')[0];
   const { csrfToken } = (await s.json()) as { csrfToken: string };
@@ -94,34 +94,38 @@ async function autocannon(name: string, url: string, cookie?: string): Promise<R
   return { name, rps: r.requests.average, p99: r.latency.p99, p50: r.latency.p50, errors: r.errors, non2xx: r.non2xx };
 }
 
-const db = await openDatabase('loadline_bench', true);
-try {
-  await migrate(db.url);
-  console.log('[bench] generating 1,000 athletes with a year of logs…');
-  const gen = await generate(db.url);
-  const config = loadConfig({ DATABASE_URL: db.url, SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-42', PORT: '0', LOG_LEVEL: 'silent', SIGNIN_MAX_PER_IP: '1000' });
-  const app = await startServer(config, createLogger('silent'));
-  const pool = new pg.Pool({ connectionString: db.url, max: 20 });
-  const bare = express();
-  bare.get('/bare/:athleteId', async (req, res) => {
-    const { rows } = await pool.query('SELECT id, date, session_rpe, duration_minutes FROM training_logs WHERE athlete_id = $1 ORDER BY date DESC LIMIT 20', [req.params.athleteId]);
-    res.json(rows);
-  });
-  const bareServer: Server = await new Promise((resolve) => { const s = bare.listen(0, '127.0.0.1', () => resolve(s)); });
-  const barePort = (bareServer.address() as { port: number }).port;
-  const coachCookie = await signIn(app.url, 'coach@bench.example');
-  const athleteCookie = await signIn(app.url, gen.athleteEmail);
-  const results = [
-    await autocannon('bare route (one indexed query)', `http://127.0.0.1:${barePort}/bare/${gen.athlete.id}`),
-    await autocannon(`coach roster (${ROSTER} athletes)`, `${app.url}/api/orgs/${gen.org}/roster`, coachCookie),
-    await autocannon("athlete's today view", `${app.url}/api/orgs/${gen.org}/athletes/${gen.athlete.id}/today`, athleteCookie),
-  ];
-  const bareRps = results[0].rps;
-  console.log('\n| route | requests/s | p50 ms | p99 ms | ratio to bare | errors / non-2xx |\n| --- | --- | --- | --- | --- | --- |');
-  for (const r of results) console.log(`| ${r.name} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${(r.rps / bareRps).toFixed(2)} | ${r.errors} / ${r.non2xx} |`);
-  await app.stop();
-  await new Promise((r) => bareServer.close(r));
-  await pool.end();
-} finally {
-  db.cluster?.stop();
+if (import.meta.url === `file://${process.argv[1]}`) await main();
+
+async function main() {
+  const db = await openDatabase('loadline_bench', true);
+  try {
+    await migrate(db.url);
+    console.log('[bench] generating 1,000 athletes with a year of logs…');
+    const gen = await generate(db.url);
+    const config = loadConfig({ DATABASE_URL: db.url, SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-42', PORT: '0', LOG_LEVEL: 'silent', SIGNIN_MAX_PER_IP: '1000' });
+    const app = await startServer(config, createLogger('silent'));
+    const pool = new pg.Pool({ connectionString: db.url, max: 20 });
+    const bare = express();
+    bare.get('/bare/:athleteId', async (req, res) => {
+      const { rows } = await pool.query('SELECT id, date, session_rpe, duration_minutes FROM training_logs WHERE athlete_id = $1 ORDER BY date DESC LIMIT 20', [req.params.athleteId]);
+      res.json(rows);
+    });
+    const bareServer: Server = await new Promise((resolve) => { const s = bare.listen(0, '127.0.0.1', () => resolve(s)); });
+    const barePort = (bareServer.address() as { port: number }).port;
+    const coachCookie = await signIn(app.url, 'coach@bench.example');
+    const athleteCookie = await signIn(app.url, gen.athleteEmail);
+    const results = [
+      await autocannon('bare route (one indexed query)', `http://127.0.0.1:${barePort}/bare/${gen.athlete.id}`),
+      await autocannon(`coach roster (${ROSTER} athletes)`, `${app.url}/api/orgs/${gen.org}/roster`, coachCookie),
+      await autocannon("athlete's today view", `${app.url}/api/orgs/${gen.org}/athletes/${gen.athlete.id}/today`, athleteCookie),
+    ];
+    const bareRps = results[0].rps;
+    console.log('\n| route | requests/s | p50 ms | p99 ms | ratio to bare | errors / non-2xx |\n| --- | --- | --- | --- | --- | --- |');
+    for (const r of results) console.log(`| ${r.name} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${(r.rps / bareRps).toFixed(2)} | ${r.errors} / ${r.non2xx} |`);
+    await app.stop();
+    await new Promise((r) => bareServer.close(r));
+    await pool.end();
+  } finally {
+    db.cluster?.stop();
+  }
 }

@@ -20,6 +20,8 @@ export function accessibleWhere(
   subject: SubjectName,
   columns: Record<string, string>,
   prefix = 'acl',
+  /** `column = ANY(:list)` instead of `column IN (:...list)`: the SQL text then does not depend on the list's length (for prepared statements). */
+  opts: { arrays?: boolean } = {},
 ): SqlFilter {
   const params: Record<string, unknown> = {};
   let n = 0;
@@ -36,6 +38,7 @@ export function accessibleWhere(
         const ops = Object.entries(value as Record<string, unknown>);
         return ops
           .map(([op, v]) => {
+            if (op === '$in' && opts.arrays) return `${column} = ANY(${param(v)})`;
             if (op === '$in') return (v as unknown[]).length ? `${column} IN (:...${param(v).slice(1)})` : 'FALSE';
             if (op === '$eq') return `${column} = ${param(v)}`;
             throw new Error(`accessibleWhere: operator ${op} not supported`);

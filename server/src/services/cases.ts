@@ -20,6 +20,12 @@ interface StatusRow {
   note: string | null;
 }
 
+/** `DISTINCT ON (s.case_id) … ORDER BY` this picks each case's status on `date` (see statusesOn). */
+export const statusOnOrder = (date: string) => `s.case_id, (s.effective_from <= ${date}) DESC,
+  CASE WHEN s.effective_from <= ${date} THEN s.created_at END DESC NULLS LAST,
+  CASE WHEN s.effective_from <= ${date} THEN s.effective_from END DESC NULLS LAST,
+  s.effective_from ASC`;
+
 /**
  * Status of each case on `date`: among the changes already in effect, the most recently recorded
  * one wins — so an emergency Out recorded today overrides a Full that was scheduled earlier for a
@@ -31,10 +37,7 @@ export async function statusesOn(db: Db, caseIds: string[], date: string): Promi
     `SELECT DISTINCT ON (s.case_id) s.case_id, s.status, s.effective_from, s.note
        FROM participation_status_changes s
       WHERE s.case_id = ANY($1)
-      ORDER BY s.case_id, (s.effective_from <= $2) DESC,
-               CASE WHEN s.effective_from <= $2 THEN s.created_at END DESC NULLS LAST,
-               CASE WHEN s.effective_from <= $2 THEN s.effective_from END DESC NULLS LAST,
-               s.effective_from ASC`,
+      ORDER BY ${statusOnOrder('$2')}`,
     [caseIds, date],
   );
   return new Map(rows.map((r) => [r.case_id, r]));

@@ -48,16 +48,24 @@ export async function programDto(m: EntityManager, program: Program, publishedOn
 
 export async function sessionDtos(m: EntityManager, sessions: ProgramSession[], programName: string | Map<string, string>): Promise<ProgramSessionDto[]> {
   const holds = sessions.length ? await m.createQueryBuilder(SessionHold, 'h').where('h.session_id IN (:...ids)', { ids: sessions.map((s) => s.id) }).getMany() : [];
-  return sessions.map((s) => ({
+  return sessions.map((s) => toSessionDto(s, typeof programName === 'string' ? programName : programName.get(s.programId) ?? '', holds.filter((h) => h.sessionId === s.id)));
+}
+
+export function toSessionDto(
+  s: Pick<ProgramSession, 'id' | 'programId' | 'date' | 'title' | 'content' | 'status' | 'publishedAt' | 'version'>,
+  programName: string,
+  holds: Pick<SessionHold, 'athleteId' | 'breaches'>[],
+): ProgramSessionDto {
+  return {
     id: s.id,
     programId: s.programId,
-    programName: typeof programName === 'string' ? programName : programName.get(s.programId) ?? '',
+    programName,
     date: s.date,
     title: s.title,
     content: s.content,
     status: s.status,
     publishedAt: s.publishedAt ? s.publishedAt.toISOString() : null,
     version: s.version,
-    holds: holds.filter((h) => h.sessionId === s.id).map((h) => ({ athleteId: h.athleteId, breaches: h.breaches })),
-  }));
+    holds: holds.map((h) => ({ athleteId: h.athleteId, breaches: h.breaches })),
+  };
 }
