@@ -44,7 +44,7 @@ export function ClipNotes({
   const nowMs = toMs(timeSeconds);
 
   return (
-    <section aria-labelledby={headingId} className="rounded-lg border border-rule bg-sheet p-4">
+    <section aria-labelledby={headingId} className="rounded-lg border border-rule bg-sheet p-4 lg:sticky lg:top-4">
       <h2 id={headingId} className="text-lg font-bold">
         Notes <span className="text-base font-normal text-muted tabular-nums">({notes.length})</span>
       </h2>

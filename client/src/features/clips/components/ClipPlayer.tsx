@@ -52,10 +52,11 @@ export function ClipPlayer({
         onKeyDown={onKeyDown}
         className="overflow-hidden rounded-lg bg-ink"
       >
+        {/* Metadata only up front: clips may be large and phones on mobile data; the server answers ranges. */}
         <video
           ref={videoRef}
           src={src}
-          preload="auto"
+          preload="metadata"
           playsInline
           onClick={clock.togglePlay}
           className="mx-auto block max-h-[60vh] w-full bg-ink object-contain"
