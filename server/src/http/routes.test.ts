@@ -73,6 +73,7 @@ describe('the route table', () => {
         "POST   /api/account/two-step/setup  ⇒  signedIn",
         "POST   /api/account/two-step/enable  ⇒  signedIn",
         "POST   /api/account/two-step/disable  ⇒  signedIn",
+        "POST   /api/account/two-step/recovery-codes  ⇒  signedIn",
         "POST   /api/invitations/preview  ⇒  public",
         "POST   /api/invitations/accept  ⇒  public",
         "GET    /api/orgs/:orgId/invitations  ⇒  member: read Invitation",

@@ -1,6 +1,7 @@
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import type { RequestHandler } from 'express';
 import bcrypt from 'bcryptjs';
+import type { EntityManager } from 'typeorm';
 import type { TwoStepEnabledDto, TwoStepSetupDto, TwoStepStatusDto } from '../../../../policies/dto';
 import { PasswordResetConfirmSchema, PasswordResetRequestSchema, TwoStepDisableSchema, TwoStepEnableSchema } from '../../../../policies/schemas';
 import { TotpRecoveryCode, User, UserTotp } from '../../entities';
@@ -38,6 +39,24 @@ const fieldError = (field: string, message: string) =>
 
 export function accountSecurityRoutes(deps: Deps): RouteDef[] {
   const limits = accountLimits(deps);
+
+  /** Changes to two-step sign-in itself need the password again, not just the session. */
+  async function assertPassword(ds: Deps['ds'], userId: string, password: string, outcome: string) {
+    const fresh = await ds.getRepository(User).findOneByOrFail({ id: userId });
+    if (!(await bcrypt.compare(password, fresh.passwordHash))) {
+      throw new AppError('invalid_credentials', `That password is not right, ${outcome}.`, { password: ['is not your current password'] });
+    }
+  }
+
+  /** ...and a current app code or an unused recovery code (which is then used up and audited). */
+  async function useCodeOrRefuse(m: EntityManager, userId: string, code: string, requestId: string, outcome: string) {
+    const row = await lockTotp(m, userId);
+    if (!row?.enabledAt) throw new AppError('conflict', 'Two-step sign-in is not on.');
+    const used = await useSecondStepCode(m, twoStepKey(deps.config), userId, code);
+    if (!used) throw new AppError('invalid_credentials', `That code did not work, ${outcome}.`, { code: ['is not a current code or an unused recovery code'] });
+    if (used === 'recovery_code') await auditAccount(m, { requestId, action: 'auth.recovery_code_used', userId });
+  }
+
   return [
     publicRoute({
       method: 'post',
@@ -137,22 +156,36 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       body: TwoStepDisableSchema,
       async handler({ ds, user, body, requestId }) {
         const me = user!;
-        const fresh = await ds.getRepository(User).findOneByOrFail({ id: me.id });
-        if (!(await bcrypt.compare(body.password, fresh.passwordHash))) {
-          throw new AppError('invalid_credentials', 'That password is not right, so two-step sign-in stays on.', { password: ['is not your current password'] });
-        }
-        const key = twoStepKey(deps.config);
+        await assertPassword(ds, me.id, body.password, 'so two-step sign-in stays on');
         await ds.transaction(async (m) => {
-          const row = await lockTotp(m, me.id);
-          if (!row?.enabledAt) throw new AppError('conflict', 'Two-step sign-in is not on.');
-          const used = await useSecondStepCode(m, key, me.id, body.code);
-          if (!used) throw new AppError('invalid_credentials', 'That code did not work, so two-step sign-in stays on.', { code: ['is not a current code or an unused recovery code'] });
-          if (used === 'recovery_code') await auditAccount(m, { requestId, action: 'auth.recovery_code_used', userId: me.id });
+          await useCodeOrRefuse(m, me.id, body.code, requestId, 'so two-step sign-in stays on');
           await m.delete(TotpRecoveryCode, { userId: me.id });
           await m.delete(UserTotp, { userId: me.id });
           await auditAccount(m, { requestId, action: 'auth.two_step_disabled', userId: me.id });
         });
         return undefined;
+      },
+    }),
+    publicRoute({
+      method: 'post',
+      path: '/account/two-step/recovery-codes',
+      summary: 'Replace the recovery codes (password and a current code needed); answers the new ones, once',
+      access: { kind: 'signedIn' },
+      before: limits,
+      body: TwoStepDisableSchema,
+      async handler({ ds, user, body, requestId }) {
+        const me = user!;
+        await assertPassword(ds, me.id, body.password, 'so your recovery codes stay as they were');
+        const key = twoStepKey(deps.config);
+        return ds.transaction(async (m) => {
+          await useCodeOrRefuse(m, me.id, body.code, requestId, 'so your recovery codes stay as they were');
+          await m.delete(TotpRecoveryCode, { userId: me.id });
+          const recoveryCodes = newRecoveryCodes();
+          await m.insert(TotpRecoveryCode, recoveryCodes.map((c) => ({ userId: me.id, codeHash: recoveryCodeHash(key, normaliseCode(c)), usedAt: null })));
+          await auditAccount(m, { requestId, action: 'auth.recovery_codes_replaced', userId: me.id, after: { recoveryCodes: recoveryCodes.length } });
+          const dto: TwoStepEnabledDto = { recoveryCodes };
+          return dto;
+        });
       },
     }),
   ];

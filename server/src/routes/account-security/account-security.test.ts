@@ -377,6 +377,28 @@ describe('two-step sign-in', () => {
     expect(done.body.memberships.map((m: { organizationId: string }) => m.organizationId).sort()).toEqual([home.id, other.id].sort());
   });
 
+  it('new recovery codes need the password and a current code; the old ones stop working', async () => {
+    const org = await createOrg(h.ds);
+    const c = await signedIn(h.app, org.otherCoach.email, TEST_PASSWORD);
+    const { secret, recoveryCodes: old } = await enable(c);
+    const code = nextCode(secret);
+    expect((await c.post('/api/account/two-step/recovery-codes', { password: 'not my passphrase at all', code })).status).toBe(401);
+    const renewed = await c.post('/api/account/two-step/recovery-codes', { password: TEST_PASSWORD, code });
+    expect(renewed.status, JSON.stringify(renewed.body)).toBe(200);
+    expect(renewed.body.recoveryCodes).toHaveLength(10);
+    expect(renewed.body.recoveryCodes.filter((r: string) => old.includes(r))).toEqual([]);
+    expect(await auditCount(h.ds, 'auth.recovery_codes_replaced', org.otherCoach.userId)).toBe(1);
+
+    const attempt = async (recovery: string) => {
+      const a = await Client.anonymous(h.app);
+      const pw = await a.post('/api/session', { email: org.otherCoach.email, password: TEST_PASSWORD });
+      a.csrf = pw.body.csrfToken;
+      return (await a.post('/api/session/second-step', { code: recovery })).status;
+    };
+    expect(await attempt(old[0])).toBe(401);
+    expect(await attempt(renewed.body.recoveryCodes[0])).toBe(200);
+  });
+
   it('setup while it is on is refused (the app in use keeps working)', async () => {
     const org = await createOrg(h.ds);
     const c = await signedIn(h.app, org.otherClinician.email, TEST_PASSWORD);
@@ -387,7 +409,14 @@ describe('two-step sign-in', () => {
 
   it('needs a session for every account route', async () => {
     const anon = await Client.anonymous(h.app);
-    for (const [method, path] of [['get', '/api/account/two-step'], ['post', '/api/account/two-step/setup'], ['post', '/api/account/two-step/enable'], ['post', '/api/account/two-step/disable']] as const) {
+    const routes = [
+      ['get', '/api/account/two-step'],
+      ['post', '/api/account/two-step/setup'],
+      ['post', '/api/account/two-step/enable'],
+      ['post', '/api/account/two-step/disable'],
+      ['post', '/api/account/two-step/recovery-codes'],
+    ] as const;
+    for (const [method, path] of routes) {
       const res = method === 'get' ? await anon.get(path) : await anon.post(path, {});
       expect(res.status, path).toBe(401);
     }

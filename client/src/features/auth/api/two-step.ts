@@ -32,3 +32,11 @@ export function useDisableTwoStep() {
     onSuccess: () => queryClient.invalidateQueries({ queryKey: twoStepQueryKey }),
   });
 }
+
+export function useRenewRecoveryCodes() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: TwoStepDisableInput) => api.post<TwoStepEnabledDto>('/account/two-step/recovery-codes', input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: twoStepQueryKey }),
+  });
+}

@@ -49,4 +49,25 @@ describe('TwoStepSection', () => {
     expect(await screen.findByText(/Recovery codes left/)).toBeInTheDocument();
     expect(screen.queryByRole('list', { name: 'Recovery codes' })).not.toBeInTheDocument();
   });
+
+  it('gives a new set of recovery codes after the password and a code', async () => {
+    fetchMock.mockImplementation(async (input, init) => {
+      const url = String(input);
+      if (url === '/api/account/two-step') return jsonResponse(200, { enabled: true, enabledAt: '2026-12-02T04:00:00.000Z', recoveryCodesLeft: 1 });
+      if (url === '/api/account/two-step/recovery-codes') {
+        expect(JSON.parse(init?.body as string)).toEqual({ password: 'my passphrase', code: '135790' });
+        return jsonResponse(200, { recoveryCodes: CODES });
+      }
+      throw new Error(`unexpected ${url}`);
+    });
+    renderWithProviders(<TwoStepSection />);
+    expect(await screen.findByText(/Few recovery codes are left/)).toBeInTheDocument();
+    fireEvent.click(screen.getByRole('button', { name: 'Get new recovery codes…' }));
+    const form = screen.getByRole('form', { name: 'Get new recovery codes' });
+    fireEvent.change(within(form).getByLabelText('Password'), { target: { value: 'my passphrase' } });
+    fireEvent.change(within(form).getByLabelText('Code from your app'), { target: { value: '135790' } });
+    fireEvent.click(within(form).getByRole('button', { name: 'Get new codes' }));
+    const list = await screen.findByRole('list', { name: 'Recovery codes' });
+    expect(within(list).getAllByRole('listitem')).toHaveLength(10);
+  });
 });

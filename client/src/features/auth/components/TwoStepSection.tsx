@@ -11,7 +11,7 @@ import { CopyField } from '../../../components/ui/CopyField';
 import { TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading, Panel } from '../../../components/ui/Panel';
-import { useDisableTwoStep, useEnableTwoStep, useStartTwoStepSetup, useTwoStepStatus } from '../api/two-step';
+import { useDisableTwoStep, useEnableTwoStep, useRenewRecoveryCodes, useStartTwoStepSetup, useTwoStepStatus } from '../api/two-step';
 
 /**
  * "Two-step sign-in" on the account page: after the password, a 6-digit code from an authenticator
@@ -36,10 +36,13 @@ export function TwoStepSection() {
         </p>
         {status.data.recoveryCodesLeft <= 2 && (
           <Notice tone="caution">
-            <p>Few recovery codes are left. Turn two-step sign-in off and on again to get a new set.</p>
+            <p>Few recovery codes are left. Get a new set below; the old ones then stop working.</p>
           </Notice>
         )}
-        <DisableForm />
+        <div className="flex flex-wrap items-start gap-3">
+          <RenewCodesForm onRenewed={setRecoveryCodes} />
+          <DisableForm />
+        </div>
       </div>
     );
   } else if (setup) {
@@ -126,7 +129,7 @@ function SetupSteps({ setup, onEnabled, onCancel }: { setup: TwoStepSetupDto; on
 function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void }) {
   return (
     <div className="space-y-3">
-      <Notice tone="done" role="status" title="Two-step sign-in is on">
+      <Notice tone="done" role="status" title="Save your recovery codes">
         <p>
           Keep these recovery codes somewhere safe, away from your phone. Each one lets you sign in once if your phone is lost.
           This is the only time they are shown.
@@ -145,40 +148,92 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
   );
 }
 
-type DisableInput = z.input<typeof TwoStepDisableSchema>;
-type DisableOutput = z.output<typeof TwoStepDisableSchema>;
+type ConfirmInput = z.input<typeof TwoStepDisableSchema>;
+type ConfirmOutput = z.output<typeof TwoStepDisableSchema>;
 
 function DisableForm() {
   const disable = useDisableTwoStep();
+  return (
+    <ConfirmItIsYou
+      opener="Turn two-step sign-in off…"
+      label="Turn two-step sign-in off"
+      intro="To turn it off, confirm it is you: your password and a code from your app (or a recovery code)."
+      submit="Turn off"
+      cancel="Keep it on"
+      mutation={disable}
+      onConfirmed={() => undefined}
+    />
+  );
+}
+
+function RenewCodesForm({ onRenewed }: { onRenewed: (codes: string[]) => void }) {
+  const renew = useRenewRecoveryCodes();
+  return (
+    <ConfirmItIsYou
+      opener="Get new recovery codes…"
+      label="Get new recovery codes"
+      intro="Confirm it is you: your password and a code from your app. Your old recovery codes then stop working."
+      submit="Get new codes"
+      cancel="Not now"
+      mutation={renew}
+      onConfirmed={(dto) => onRenewed(dto.recoveryCodes)}
+    />
+  );
+}
+
+/** A change to two-step sign-in itself: behind a button, then the password and a code again. */
+function ConfirmItIsYou<T>({
+  opener,
+  label,
+  intro,
+  submit,
+  cancel,
+  mutation,
+  onConfirmed,
+}: {
+  opener: string;
+  label: string;
+  intro: string;
+  submit: string;
+  cancel: string;
+  mutation: { mutate: (v: ConfirmOutput, o: { onSuccess: (r: T) => void; onError: (e: unknown) => void }) => void; isPending: boolean; error: unknown };
+  onConfirmed: (result: T) => void;
+}) {
   const [open, setOpen] = useState(false);
   const {
     register,
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<DisableInput, unknown, DisableOutput>({ resolver: zodResolver(TwoStepDisableSchema), defaultValues: { password: '', code: '' } });
+  } = useForm<ConfirmInput, unknown, ConfirmOutput>({ resolver: zodResolver(TwoStepDisableSchema), defaultValues: { password: '', code: '' } });
   if (!open) {
     return (
       <Button variant="secondary" onClick={() => setOpen(true)}>
-        Turn two-step sign-in off…
+        {opener}
       </Button>
     );
   }
   const onSubmit = handleSubmit((values) =>
-    disable.mutate(values, { onError: (error) => applyServerFieldErrors(error, setError, ['password', 'code']) }),
+    mutation.mutate(values, {
+      onSuccess: (result) => {
+        setOpen(false);
+        onConfirmed(result);
+      },
+      onError: (error) => applyServerFieldErrors(error, setError, ['password', 'code']),
+    }),
   );
   return (
-    <form onSubmit={onSubmit} noValidate className="max-w-sm space-y-3" aria-label="Turn two-step sign-in off">
-      <p className="text-sm text-ink-2">To turn it off, confirm it is you: your password and a code from your app (or a recovery code).</p>
-      {!errors.password && !errors.code && <ErrorNotice error={disable.error} />}
+    <form onSubmit={onSubmit} noValidate className="w-full max-w-sm space-y-3" aria-label={label}>
+      <p className="text-sm text-ink-2">{intro}</p>
+      {!errors.password && !errors.code && <ErrorNotice error={mutation.error} />}
       <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
       <TextField label="Code from your app" autoComplete="one-time-code" error={errors.code?.message} {...register('code')} />
       <div className="flex flex-wrap gap-3">
-        <Button type="submit" busy={disable.isPending}>
-          Turn off
+        <Button type="submit" busy={mutation.isPending}>
+          {submit}
         </Button>
         <Button variant="secondary" onClick={() => setOpen(false)}>
-          Keep it on
+          {cancel}
         </Button>
       </div>
     </form>
