@@ -80,19 +80,31 @@ export async function rosterRows(ds: DataSource, ability: AppAbility, organizati
          FROM athletes a JOIN programs p ON p.athlete_ids @> ARRAY[a.id]
          JOIN program_sessions s ON s.program_id = p.id AND s.status = 'published' AND s.date >= :date
         ORDER BY a.id, s.date, s.created_at
+     ), plans AS (
+       SELECT p.athlete_id, json_agg(json_build_object('planId', p.id, 'caseId', p.case_id, 'version', p.version, 'stages', v.stages)) AS plans
+         FROM restriction_plans p
+         JOIN cases c ON c.id = p.case_id AND (c.closed_on IS NULL OR c.closed_on > :date)
+         JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version
+        WHERE p.organization_id = :org AND p.athlete_id IN (SELECT id FROM athletes)
+        GROUP BY p.athlete_id
+     ), holds AS (
+       SELECT h.athlete_id, count(*)::int AS n FROM session_holds h JOIN program_sessions s ON s.id = h.session_id
+        WHERE h.athlete_id IN (SELECT id FROM athletes) AND s.date >= :date GROUP BY h.athlete_id
+     ), pending AS (
+       SELECT e.athlete_id, count(*)::int AS n FROM program_exceptions e
+        WHERE e.athlete_id IN (SELECT id FROM athletes) AND e.status = 'pending' GROUP BY e.athlete_id
+     ), case_statuses AS (
+       SELECT oc.athlete_id, array_agg(st.status::text) AS statuses FROM open_cases oc JOIN statuses st ON st.case_id = oc.id GROUP BY oc.athlete_id
      )
-     SELECT a.id AS athlete_id, a.name AS athlete_name,
-       ARRAY(SELECT st.status::text FROM open_cases oc JOIN statuses st ON st.case_id = oc.id WHERE oc.athlete_id = a.id) AS statuses,
-       (SELECT json_agg(json_build_object('planId', p.id, 'caseId', p.case_id, 'version', p.version, 'stages', v.stages))
-          FROM restriction_plans p
-          JOIN cases c ON c.id = p.case_id AND (c.closed_on IS NULL OR c.closed_on > :date)
-          JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version
-         WHERE p.organization_id = :org AND p.athlete_id = a.id) AS plans,
-       (SELECT count(*)::int FROM session_holds h JOIN program_sessions s ON s.id = h.session_id
-         WHERE h.athlete_id = a.id AND s.date >= :date) AS sessions_on_hold,
-       (SELECT count(*)::int FROM program_exceptions e WHERE e.athlete_id = a.id AND e.status = 'pending') AS pending_exceptions,
+     SELECT a.id AS athlete_id, a.name AS athlete_name, COALESCE(cs.statuses, '{}') AS statuses, pl.plans,
+       COALESCE(ho.n, 0) AS sessions_on_hold, COALESCE(pe.n, 0) AS pending_exceptions,
        n.id AS next_id, n.date AS next_date, n.title AS next_title
-     FROM athletes a LEFT JOIN next_sessions n ON n.athlete_id = a.id
+     FROM athletes a
+     LEFT JOIN case_statuses cs ON cs.athlete_id = a.id
+     LEFT JOIN plans pl ON pl.athlete_id = a.id
+     LEFT JOIN holds ho ON ho.athlete_id = a.id
+     LEFT JOIN pending pe ON pe.athlete_id = a.id
+     LEFT JOIN next_sessions n ON n.athlete_id = a.id
      ORDER BY a.name, a.id`,
     { ...acl.params, org: organizationId, date },
   );
