@@ -1,18 +1,16 @@
-import { useRef, useState, type FormEvent } from 'react';
+import type { FormEvent } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import type { ClipDto, TrainingLogDto } from '../../../../../policies/dto';
 import { ClipFieldsSchema } from '../../../../../policies/schemas';
-import { Button } from '../../../components/ui/Button';
-import { SelectField, TextAreaField, TextField } from '../../../components/ui/Field';
+import { SelectField, TextAreaField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
-import { UploadProgressBar } from '../../../components/ui/UploadProgressBar';
-import { isApiError } from '../../../lib/api-client';
+import { FileField, UploadFormFooter, UploadOutcome } from '../../../components/ui/UploadFormParts';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { formatDate } from '../../../lib/format';
-import { isAbort, type UploadProgress } from '../../../lib/upload';
+import { useFileUpload } from '../../../lib/use-file-upload';
 import { CLIP_SESSION_DAYS, sessionExercises, useLoggedSessions } from '../api/get-logged-sessions';
 import { useUploadClip } from '../api/upload-clip';
 
@@ -87,11 +85,6 @@ function ClipFields({
   onDone: (clip: ClipDto) => void;
   onCancel?: () => void;
 }) {
-  const upload = useUploadClip(orgId);
-  const [file, setFile] = useState<File | null>(null);
-  const [fileError, setFileError] = useState<string | undefined>();
-  const [progress, setProgress] = useState<UploadProgress | null>(null);
-  const controller = useRef<AbortController | null>(null);
   const {
     register,
     handleSubmit,
@@ -103,49 +96,22 @@ function ClipFields({
     resolver: zodResolver(ClipFieldsSchema),
     defaultValues: { athleteId, trainingLogId: initial.trainingLogId, exercise: initial.exercise, caption: '' },
   });
+  const upload = useFileUpload(useUploadClip(orgId), {
+    missingFile: 'Choose the video to upload.',
+    onDone,
+    onFieldErrors: (error) => applyServerFieldErrors(error, setError, ['trainingLogId', 'exercise', 'caption']),
+  });
   const chosenId = useWatch({ control, name: 'trainingLogId' });
   const chosenLog = sessions.find((l) => l.id === chosenId) ?? sessions[0];
   const exercises = sessionExercises(chosenLog);
-  const busy = upload.isPending;
+  const busy = upload.busy;
 
-  function send(fields: Output) {
-    if (!file) {
-      setFileError('Choose the video to upload.');
-      return;
-    }
-    const abort = new AbortController();
-    controller.current = abort;
-    setProgress({ loaded: 0, total: file.size, percent: 0 });
-    upload.mutate(
-      { fields, file, options: { signal: abort.signal, onProgress: setProgress } },
-      {
-        onSuccess: onDone,
-        onError: (error) => {
-          applyServerFieldErrors(error, setError, ['trainingLogId', 'exercise', 'caption']);
-          if (isApiError(error) && error.fields.file) setFileError(error.fields.file.join(' '));
-        },
-        onSettled: () => {
-          setProgress(null);
-          controller.current = null;
-        },
-      },
-    );
-  }
   // Built at submit time, not during render: the handler reaches the abort controller's ref.
-  const onSubmit = (e: FormEvent<HTMLFormElement>) =>
-    void handleSubmit(send, () => {
-      if (!file) setFileError('Choose the video to upload.');
-    })(e);
+  const onSubmit = (e: FormEvent<HTMLFormElement>) => void handleSubmit(upload.send, upload.requireFile)(e);
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a clip" className="space-y-3">
-      {isAbort(upload.error) ? (
-        <Notice tone="info" role="status" title="Upload cancelled">
-          <p>Nothing was saved. The form is as you left it.</p>
-        </Notice>
-      ) : (
-        <ErrorNotice error={upload.error} title="The clip was not saved" />
-      )}
+      <UploadOutcome error={upload.error} failedTitle="The clip was not saved" />
       <div className="grid gap-3 sm:grid-cols-2">
         <SelectField
           label="Session"
@@ -182,34 +148,22 @@ function ClipFields({
           className="sm:col-span-2"
           {...register('caption')}
         />
-        <TextField
+        <FileField
           label="Video"
-          type="file"
-          // The shared field frame styles text boxes; a file picker also needs room above and below its button.
-          style={{ paddingBlock: '0.5rem' }}
           hint="A short MP4, WebM or MOV video of the set, straight from the phone."
           accept={CLIP_ACCEPT}
           large={large}
-          disabled={busy}
-          error={fileError}
           className="sm:col-span-2"
-          onChange={(e) => {
-            setFile(e.currentTarget.files?.[0] ?? null);
-            setFileError(undefined);
-          }}
+          {...upload.fileField}
         />
       </div>
-      {progress && <UploadProgressBar label="Uploading the clip" {...progress} onCancel={() => controller.current?.abort()} />}
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" busy={busy} size={large ? 'lg' : 'md'}>
-          Upload clip
-        </Button>
-        {onCancel && (
-          <Button variant="secondary" size={large ? 'lg' : 'md'} disabled={busy} onClick={onCancel}>
-            Close
-          </Button>
-        )}
-      </div>
+      <UploadFormFooter
+        upload={upload}
+        progressLabel="Uploading the clip"
+        submitLabel="Upload clip"
+        large={large}
+        onClose={onCancel}
+      />
     </form>
   );
 }

@@ -1,14 +1,11 @@
-import { useRef, useState, type FormEvent } from 'react';
+import type { FormEvent } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { CaseDocumentFieldsSchema, type CaseDocumentFieldsInput } from '../../../../../policies/schemas';
-import { Button } from '../../../components/ui/Button';
 import { TextField } from '../../../components/ui/Field';
-import { ErrorNotice, Notice } from '../../../components/ui/Notice';
-import { UploadProgressBar } from '../../../components/ui/UploadProgressBar';
-import { isApiError } from '../../../lib/api-client';
+import { FileField, UploadFormFooter, UploadOutcome } from '../../../components/ui/UploadFormParts';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
-import { isAbort, type UploadProgress } from '../../../lib/upload';
+import { useFileUpload } from '../../../lib/use-file-upload';
 import { useUploadCaseDocument } from '../api/upload-case-document';
 import { DOCUMENT_ACCEPT } from './document-words';
 
@@ -33,11 +30,6 @@ export function AttachDocumentForm({
   onDone: () => void;
   onCancel: () => void;
 }) {
-  const upload = useUploadCaseDocument(orgId, caseId);
-  const [file, setFile] = useState<File | null>(null);
-  const [fileError, setFileError] = useState<string | undefined>();
-  const [progress, setProgress] = useState<UploadProgress | null>(null);
-  const controller = useRef<AbortController | null>(null);
   const {
     register,
     handleSubmit,
@@ -47,46 +39,19 @@ export function AttachDocumentForm({
     resolver: zodResolver(CaseDocumentFieldsSchema),
     defaultValues: { title: '', documentDate: '', issuedBy: '' },
   });
+  const upload = useFileUpload(useUploadCaseDocument(orgId, caseId), {
+    missingFile: 'Choose the file to attach.',
+    onDone,
+    onFieldErrors: (error) => applyServerFieldErrors(error, setError, TEXT_FIELDS),
+  });
 
-  function send(fields: CaseDocumentFieldsInput) {
-    if (!file) {
-      setFileError('Choose the file to attach.');
-      return;
-    }
-    const abort = new AbortController();
-    controller.current = abort;
-    setProgress({ loaded: 0, total: file.size, percent: 0 });
-    upload.mutate(
-      { fields, file, options: { signal: abort.signal, onProgress: setProgress } },
-      {
-        onSuccess: onDone,
-        onError: (error) => {
-          applyServerFieldErrors(error, setError, TEXT_FIELDS);
-          if (isApiError(error) && error.fields.file) setFileError(error.fields.file.join(' '));
-        },
-        onSettled: () => {
-          setProgress(null);
-          controller.current = null;
-        },
-      },
-    );
-  }
   // Built at submit time, not during render: the handler reaches the abort controller's ref.
-  const onSubmit = (e: FormEvent<HTMLFormElement>) =>
-    void handleSubmit(send, () => {
-      if (!file) setFileError('Choose the file to attach.');
-    })(e);
+  const onSubmit = (e: FormEvent<HTMLFormElement>) => void handleSubmit(upload.send, upload.requireFile)(e);
 
-  const busy = upload.isPending;
+  const busy = upload.busy;
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Attach a document" className="space-y-3">
-      {isAbort(upload.error) ? (
-        <Notice tone="info" role="status" title="Upload cancelled">
-          <p>Nothing was saved. The form is as you left it.</p>
-        </Notice>
-      ) : (
-        <ErrorNotice error={upload.error} title="The document was not saved" />
-      )}
+      <UploadOutcome error={upload.error} failedTitle="The document was not saved" />
       <div className="grid gap-3 sm:grid-cols-2">
         <TextField
           label="Title"
@@ -106,38 +71,22 @@ export function AttachDocumentForm({
           error={errors.issuedBy?.message}
           {...register('issuedBy')}
         />
-        <TextField
+        <FileField
           label="File"
-          type="file"
-          // The shared field frame styles text boxes; a file picker also needs room above and below its button.
-          style={{ paddingBlock: '0.5rem' }}
           hint="PDF, or a photo or scan as JPEG, PNG or HEIC."
           accept={DOCUMENT_ACCEPT}
           large={large}
-          disabled={busy}
-          error={fileError}
           className="sm:col-span-2"
-          onChange={(e) => {
-            setFile(e.currentTarget.files?.[0] ?? null);
-            setFileError(undefined);
-          }}
+          {...upload.fileField}
         />
       </div>
-      {progress && (
-        <UploadProgressBar
-          label="Uploading the document"
-          {...progress}
-          onCancel={() => controller.current?.abort()}
-        />
-      )}
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" busy={busy} size={large ? 'lg' : 'md'}>
-          Attach document
-        </Button>
-        <Button variant="secondary" size={large ? 'lg' : 'md'} disabled={busy} onClick={onCancel}>
-          Close
-        </Button>
-      </div>
+      <UploadFormFooter
+        upload={upload}
+        progressLabel="Uploading the document"
+        submitLabel="Attach document"
+        large={large}
+        onClose={onCancel}
+      />
     </form>
   );
 }
