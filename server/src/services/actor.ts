@@ -16,22 +16,21 @@ export interface ActorRow {
 /**
  * One query for everything the rules need about a user in each active membership. Care-team and
  * guardian links only count while the person still holds the matching role, and only for athletes
- * still active, so removing a role or a member takes effect on the very next request.
+ * still active, so removing a role or a member takes effect on the very next request. Each linked
+ * athlete's membership is looked up by its key (a join made PostgreSQL hash every membership of the
+ * database on each request).
  */
 const actorSql = (userId: string) => `
   SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, o.guardians_see_clips, m.roles,
     CASE WHEN 'coach' = ANY(m.roles) THEN COALESCE((
       SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
-      JOIN memberships a ON a.id = c.athlete_id AND a.active
-      WHERE c.member_id = m.id AND c.role = 'coach'), '{}') ELSE '{}' END AS coach_of,
+      WHERE c.member_id = m.id AND c.role = 'coach' AND (SELECT a.active FROM memberships a WHERE a.id = c.athlete_id)), '{}') ELSE '{}' END AS coach_of,
     CASE WHEN 'clinician' = ANY(m.roles) THEN COALESCE((
       SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
-      JOIN memberships a ON a.id = c.athlete_id AND a.active
-      WHERE c.member_id = m.id AND c.role = 'clinician'), '{}') ELSE '{}' END AS clinician_of,
+      WHERE c.member_id = m.id AND c.role = 'clinician' AND (SELECT a.active FROM memberships a WHERE a.id = c.athlete_id)), '{}') ELSE '{}' END AS clinician_of,
     CASE WHEN 'guardian' = ANY(m.roles) THEN COALESCE((
       SELECT array_agg(g.athlete_id ORDER BY g.athlete_id) FROM guardian_links g
-      JOIN memberships a ON a.id = g.athlete_id AND a.active
-      WHERE g.guardian_id = m.id), '{}') ELSE '{}' END AS guardian_of
+      WHERE g.guardian_id = m.id AND (SELECT a.active FROM memberships a WHERE a.id = g.athlete_id)), '{}') ELSE '{}' END AS guardian_of
   FROM memberships m JOIN organizations o ON o.id = m.organization_id
   WHERE m.user_id = ${userId} AND m.active`;
 const ACTOR_SQL = actorSql('$1');
