@@ -76,10 +76,12 @@ export async function rosterRows(ds: DataSource, ability: AppAbility, organizati
         WHERE s.case_id IN (SELECT id FROM open_cases)
         ORDER BY ${statusOnOrder(':date')}
      ), next_sessions AS (
-       SELECT DISTINCT ON (a.id) a.id AS athlete_id, s.id, s.date, s.title
-         FROM athletes a JOIN programs p ON p.athlete_ids @> ARRAY[a.id]
+       -- One pass over the programs holding any of these athletes (the GIN index finds them).
+       SELECT DISTINCT ON (pa.athlete_id) pa.athlete_id, s.id, s.date, s.title
+         FROM programs p CROSS JOIN LATERAL unnest(p.athlete_ids) AS pa(athlete_id)
          JOIN program_sessions s ON s.program_id = p.id AND s.status = 'published' AND s.date >= :date
-        ORDER BY a.id, s.date, s.created_at
+        WHERE p.athlete_ids && ARRAY(SELECT id FROM athletes) AND pa.athlete_id IN (SELECT id FROM athletes)
+        ORDER BY pa.athlete_id, s.date, s.created_at
      ), plans AS (
        SELECT p.athlete_id, json_agg(json_build_object('planId', p.id, 'caseId', p.case_id, 'version', p.version, 'stages', v.stages)) AS plans
          FROM restriction_plans p
