@@ -8,6 +8,7 @@ import { newCsrfToken, signInLimits } from '../http/security';
 import { appendAudit } from './audit';
 import { loadActors } from './actor';
 import { sessionDto } from './session-dto';
+import { useSecondStepCode } from './two-step';
 
 export function authenticateLocal(deps: Deps, req: Request, res: Response): Promise<User | false> {
   return new Promise((resolve, reject) => {
@@ -71,6 +72,16 @@ export async function auditAccount(m: EntityManager, e: { requestId: string; act
       requestId: e.requestId,
     });
   }
+}
+
+/**
+ * A second-step code (app code or recovery code) checked in the caller's transaction; a recovery
+ * code that worked is used up and audited. Answers which kind worked, or null.
+ */
+export async function useAuditedSecondStepCode(m: EntityManager, key: Buffer, userId: string, code: string, requestId: string) {
+  const kind = await useSecondStepCode(m, key, userId, code);
+  if (kind === 'recovery_code') await auditAccount(m, { requestId, action: 'auth.recovery_code_used', userId });
+  return kind;
 }
 
 /**

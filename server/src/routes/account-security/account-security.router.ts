@@ -10,10 +10,10 @@ import { AppError } from '../../http/errors';
 import { publicRoute, type RouteDef } from '../../http/route';
 import { signInLimits } from '../../http/security';
 import { confirmPasswordReset, requestPasswordReset, RESET_REQUESTED } from '../../services/password-reset';
-import { accountLimits, auditAccount } from '../../services/sign-in';
+import { accountLimits, auditAccount, useAuditedSecondStepCode } from '../../services/sign-in';
 import {
   acceptedStep, decryptSecret, encryptSecret, lockTotp, newAuthenticatorSecret, newRecoveryCodes, normaliseCode, recoveryCodeHash,
-  recoveryCodesLeft, twoStepKey, useSecondStepCode,
+  recoveryCodesLeft, twoStepKey,
 } from '../../services/two-step';
 
 /**
@@ -52,9 +52,47 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
   async function useCodeOrRefuse(m: EntityManager, userId: string, code: string, requestId: string, outcome: string) {
     const row = await lockTotp(m, userId);
     if (!row?.enabledAt) throw new AppError('conflict', 'Two-step sign-in is not on.');
-    const used = await useSecondStepCode(m, twoStepKey(deps.config), userId, code);
+    const used = await useAuditedSecondStepCode(m, twoStepKey(deps.config), userId, code, requestId);
     if (!used) throw new AppError('invalid_credentials', `That code did not work, ${outcome}.`, { code: ['is not a current code or an unused recovery code'] });
-    if (used === 'recovery_code') await auditAccount(m, { requestId, action: 'auth.recovery_code_used', userId });
+  }
+
+  /** Any old recovery codes go and a new set is stored (hashed) and audited; the codes are answered this once. */
+  async function replaceRecoveryCodes(m: EntityManager, userId: string, requestId: string, action: string): Promise<TwoStepEnabledDto> {
+    const key = twoStepKey(deps.config);
+    await m.delete(TotpRecoveryCode, { userId });
+    const recoveryCodes = newRecoveryCodes();
+    await m.insert(TotpRecoveryCode, recoveryCodes.map((c) => ({ userId, codeHash: recoveryCodeHash(key, normaliseCode(c)), usedAt: null })));
+    await auditAccount(m, { requestId, action, userId, after: { recoveryCodes: recoveryCodes.length } });
+    return { recoveryCodes };
+  }
+
+  /**
+   * A change to two-step sign-in that is on, behind the account limiter: the password again, then in
+   * one transaction a current code (or an unused recovery code), then the change. `outcome` ends the
+   * refusals' sentences ("That password is not right, so two-step sign-in stays on.").
+   */
+  function passwordAndCodeRoute<T>(def: {
+    path: string;
+    summary: string;
+    outcome: string;
+    change: (m: EntityManager, userId: string, requestId: string) => Promise<T>;
+  }): RouteDef {
+    return publicRoute({
+      method: 'post',
+      path: def.path,
+      summary: def.summary,
+      access: { kind: 'signedIn' },
+      before: limits,
+      body: TwoStepDisableSchema,
+      async handler({ ds, user, body, requestId }) {
+        const me = user!;
+        await assertPassword(ds, me.id, body.password, def.outcome);
+        return ds.transaction(async (m) => {
+          await useCodeOrRefuse(m, me.id, body.code, requestId, def.outcome);
+          return def.change(m, me.id, requestId);
+        });
+      },
+    });
   }
 
   return [
@@ -138,55 +176,26 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
           const step = acceptedStep(decryptSecret(key, me.id, row.secretEnc), body.code, row.lastUsedStep);
           if (step === null) throw fieldError('code', 'is not the code your app shows now; check that the app was set up with this page’s code, then try the newest code');
           await m.update(UserTotp, { userId: me.id }, { enabledAt: new Date(), lastUsedStep: String(step) });
-          await m.delete(TotpRecoveryCode, { userId: me.id });
-          const recoveryCodes = newRecoveryCodes();
-          await m.insert(TotpRecoveryCode, recoveryCodes.map((c) => ({ userId: me.id, codeHash: recoveryCodeHash(key, normaliseCode(c)), usedAt: null })));
-          await auditAccount(m, { requestId, action: 'auth.two_step_enabled', userId: me.id, after: { recoveryCodes: recoveryCodes.length } });
-          const dto: TwoStepEnabledDto = { recoveryCodes };
-          return dto;
+          return replaceRecoveryCodes(m, me.id, requestId, 'auth.two_step_enabled');
         });
       },
     }),
-    publicRoute({
-      method: 'post',
+    passwordAndCodeRoute({
       path: '/account/two-step/disable',
       summary: 'Turn two-step sign-in off: needs the password and a current code (or a recovery code)',
-      access: { kind: 'signedIn' },
-      before: limits,
-      body: TwoStepDisableSchema,
-      async handler({ ds, user, body, requestId }) {
-        const me = user!;
-        await assertPassword(ds, me.id, body.password, 'so two-step sign-in stays on');
-        await ds.transaction(async (m) => {
-          await useCodeOrRefuse(m, me.id, body.code, requestId, 'so two-step sign-in stays on');
-          await m.delete(TotpRecoveryCode, { userId: me.id });
-          await m.delete(UserTotp, { userId: me.id });
-          await auditAccount(m, { requestId, action: 'auth.two_step_disabled', userId: me.id });
-        });
+      outcome: 'so two-step sign-in stays on',
+      async change(m, userId, requestId) {
+        await m.delete(TotpRecoveryCode, { userId });
+        await m.delete(UserTotp, { userId });
+        await auditAccount(m, { requestId, action: 'auth.two_step_disabled', userId });
         return undefined;
       },
     }),
-    publicRoute({
-      method: 'post',
+    passwordAndCodeRoute({
       path: '/account/two-step/recovery-codes',
       summary: 'Replace the recovery codes (password and a current code needed); answers the new ones, once',
-      access: { kind: 'signedIn' },
-      before: limits,
-      body: TwoStepDisableSchema,
-      async handler({ ds, user, body, requestId }) {
-        const me = user!;
-        await assertPassword(ds, me.id, body.password, 'so your recovery codes stay as they were');
-        const key = twoStepKey(deps.config);
-        return ds.transaction(async (m) => {
-          await useCodeOrRefuse(m, me.id, body.code, requestId, 'so your recovery codes stay as they were');
-          await m.delete(TotpRecoveryCode, { userId: me.id });
-          const recoveryCodes = newRecoveryCodes();
-          await m.insert(TotpRecoveryCode, recoveryCodes.map((c) => ({ userId: me.id, codeHash: recoveryCodeHash(key, normaliseCode(c)), usedAt: null })));
-          await auditAccount(m, { requestId, action: 'auth.recovery_codes_replaced', userId: me.id, after: { recoveryCodes: recoveryCodes.length } });
-          const dto: TwoStepEnabledDto = { recoveryCodes };
-          return dto;
-        });
-      },
+      outcome: 'so your recovery codes stay as they were',
+      change: (m, userId, requestId) => replaceRecoveryCodes(m, userId, requestId, 'auth.recovery_codes_replaced'),
     }),
   ];
 }

@@ -6,9 +6,10 @@ import { SESSION_COOKIE } from '../../http/security';
 import { AppError } from '../../http/errors';
 import { sessionDto, toUserDto } from '../../services/session-dto';
 import {
-  accountLimits, auditAccount, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, sessionWithStep, startSession,
+  accountLimits, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, sessionWithStep, startSession,
+  useAuditedSecondStepCode,
 } from '../../services/sign-in';
-import { isTwoStepOn, twoStepKey, useSecondStepCode } from '../../services/two-step';
+import { isTwoStepOn, twoStepKey } from '../../services/two-step';
 import { authorize } from '../../http/authorize';
 import { User } from '../../entities';
 
@@ -61,13 +62,7 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
         const pending = pendingSecondStep(req);
         if (!pending) throw stepTimedOut();
         const key = twoStepKey(deps.config);
-        const used = await ds.transaction(async (m) => {
-          const kind = await useSecondStepCode(m, key, pending.userId, body.code);
-          if (kind === 'recovery_code') {
-            await auditAccount(m, { requestId, action: 'auth.recovery_code_used', userId: pending.userId });
-          }
-          return kind;
-        });
+        const used = await ds.transaction((m) => useAuditedSecondStepCode(m, key, pending.userId, body.code, requestId));
         const user = used ? await ds.getRepository(User).findOne({ where: { id: pending.userId } }) : null;
         if (!user) {
           await auditSignIn(deps, requestId, 'auth.sign_in_failed', null, pending.email, { step: 'second' }).catch(() => undefined);
