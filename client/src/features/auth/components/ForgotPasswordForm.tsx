@@ -2,11 +2,10 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { PasswordResetRequestSchema } from '../../../../../policies/schemas';
-import { isApiError } from '../../../lib/api-client';
 import { Button } from '../../../components/ui/Button';
-import { TextField } from '../../../components/ui/Field';
-import { ErrorNotice, Notice } from '../../../components/ui/Notice';
+import { Notice } from '../../../components/ui/Notice';
 import { useRequestPasswordReset } from '../api/password-reset';
+import { AccountFailureNotice, EmailField } from './account-form-parts';
 
 type Input = z.input<typeof PasswordResetRequestSchema>;
 type Output = z.output<typeof PasswordResetRequestSchema>;
@@ -33,27 +32,10 @@ export function ForgotPasswordForm() {
     );
   }
 
-  const failure = request.error;
   return (
     <form onSubmit={handleSubmit((values) => request.mutate(values))} noValidate className="space-y-4" aria-label="Ask for a password link">
-      {failure &&
-        (isApiError(failure) && failure.code === 'rate_limited' ? (
-          <Notice tone="problem" role="alert" title="Too many requests">
-            <p>{failure.message}</p>
-          </Notice>
-        ) : (
-          <ErrorNotice error={failure} />
-        ))}
-      <TextField
-        label="E-mail"
-        type="email"
-        hint="The address you sign in with."
-        autoComplete="username"
-        inputMode="email"
-        large
-        error={errors.email?.message}
-        {...register('email')}
-      />
+      <AccountFailureNotice error={request.error} limitedTitle="Too many requests" />
+      <EmailField hint="The address you sign in with." error={errors.email?.message} {...register('email')} />
       <Button type="submit" size="lg" busy={request.isPending}>
         Send me a link
       </Button>

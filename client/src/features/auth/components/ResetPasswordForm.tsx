@@ -6,9 +6,9 @@ import { PasswordResetConfirmSchema } from '../../../../../policies/schemas';
 import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { Button } from '../../../components/ui/Button';
-import { TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { useConfirmPasswordReset } from '../api/password-reset';
+import { PasswordField } from './account-form-parts';
 
 type Input = z.input<typeof PasswordResetConfirmSchema>;
 type Output = z.output<typeof PasswordResetConfirmSchema>;
@@ -63,12 +63,10 @@ export function ResetPasswordForm({ hash, onDone }: { hash: string; onDone: () =
         <ErrorNotice error={failure} />
       )}
       <input type="hidden" {...register('token')} />
-      <TextField
+      <PasswordField
         label="New password"
-        type="password"
         hint="At least 8 characters; a longer phrase of 15 or more is better. Other devices signed in to your account are signed out."
         autoComplete="new-password"
-        large
         error={errors.password?.message}
         {...register('password')}
       />

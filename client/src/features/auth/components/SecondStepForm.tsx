@@ -3,12 +3,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { SecondStepSchema } from '../../../../../policies/schemas';
 import type { SessionDto } from '../../../../../policies/dto';
-import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { Button } from '../../../components/ui/Button';
 import { TextField } from '../../../components/ui/Field';
-import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { useSecondStep } from '../api/second-step';
+import { AccountFailureNotice } from './account-form-parts';
 
 type Input = z.input<typeof SecondStepSchema>;
 type Output = z.output<typeof SecondStepSchema>;
@@ -37,14 +36,7 @@ export function SecondStepForm({ onSignedIn, onStartOver }: { onSignedIn: (sessi
         Your password is right. Open the authenticator app you linked to Loadline and enter the 6-digit code it shows
         for Loadline now. Without your phone, enter one of the recovery codes you saved instead.
       </p>
-      {failure &&
-        (isApiError(failure) && failure.code === 'rate_limited' ? (
-          <Notice tone="problem" role="alert" title="Too many attempts">
-            <p>{failure.message}</p>
-          </Notice>
-        ) : (
-          <ErrorNotice error={failure} />
-        ))}
+      <AccountFailureNotice error={failure} limitedTitle="Too many attempts" />
       <TextField
         label="Sign-in code"
         hint="6 digits from the app, or a recovery code like abcde-12345."

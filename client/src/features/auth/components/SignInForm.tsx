@@ -6,9 +6,9 @@ import type { SessionDto } from '../../../../../policies/dto';
 import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { Button } from '../../../components/ui/Button';
-import { TextField } from '../../../components/ui/Field';
-import { ErrorNotice, Notice } from '../../../components/ui/Notice';
+import { Notice } from '../../../components/ui/Notice';
 import { useSignIn } from '../api/sign-in';
+import { AccountFailureNotice, EmailField, PasswordField } from './account-form-parts';
 
 type SignInFormInput = z.input<typeof SignInSchema>;
 type SignInFormOutput = z.output<typeof SignInSchema>;
@@ -43,30 +43,11 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (session: SessionDto) =
           <Notice tone="problem" role="alert">
             <p>{WRONG_CREDENTIALS}</p>
           </Notice>
-        ) : isApiError(failure) && failure.code === 'rate_limited' ? (
-          <Notice tone="problem" role="alert" title="Too many attempts">
-            <p>{failure.message}</p>
-          </Notice>
         ) : (
-          <ErrorNotice error={failure} />
+          <AccountFailureNotice error={failure} limitedTitle="Too many attempts" />
         ))}
-      <TextField
-        label="E-mail"
-        type="email"
-        autoComplete="username"
-        inputMode="email"
-        large
-        error={errors.email?.message}
-        {...register('email')}
-      />
-      <TextField
-        label="Password"
-        type="password"
-        autoComplete="current-password"
-        large
-        error={errors.password?.message}
-        {...register('password')}
-      />
+      <EmailField error={errors.email?.message} {...register('email')} />
+      <PasswordField label="Password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
       <Button type="submit" size="lg" busy={signIn.isPending}>
         {signIn.isPending ? 'Signing in…' : 'Sign in'}
       </Button>
