@@ -79,23 +79,20 @@ export function useVideoClock(ref: RefObject<HTMLVideoElement | null>): VideoClo
       if (!probing.current) setTime(video.currentTime);
     };
 
-    video.addEventListener('loadedmetadata', onMetadata);
-    video.addEventListener('durationchange', onDurationChange);
-    video.addEventListener('timeupdate', onTime);
-    video.addEventListener('seeked', onTime);
-    video.addEventListener('play', onPlay);
-    video.addEventListener('pause', onPause);
-    video.addEventListener('ended', onPause);
+    const listeners: [keyof HTMLMediaElementEventMap, (event: Event) => void][] = [
+      ['loadedmetadata', onMetadata],
+      ['durationchange', onDurationChange],
+      ['timeupdate', onTime],
+      ['seeked', onTime],
+      ['play', onPlay],
+      ['pause', onPause],
+      ['ended', onPause],
+    ];
+    for (const [type, listener] of listeners) video.addEventListener(type, listener);
     // The metadata may have arrived before this effect ran.
     if (video.readyState >= HTMLMediaElement.HAVE_METADATA) onMetadata();
     return () => {
-      video.removeEventListener('loadedmetadata', onMetadata);
-      video.removeEventListener('durationchange', onDurationChange);
-      video.removeEventListener('timeupdate', onTime);
-      video.removeEventListener('seeked', onTime);
-      video.removeEventListener('play', onPlay);
-      video.removeEventListener('pause', onPause);
-      video.removeEventListener('ended', onPause);
+      for (const [type, listener] of listeners) video.removeEventListener(type, listener);
     };
   }, [ref]);
 
