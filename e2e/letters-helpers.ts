@@ -67,6 +67,6 @@ export async function downloadHead(download: Download, bytes = 4): Promise<strin
 }
 
 /** The public check page's answer for a code (its heading is Valid, Superseded or Not found). */
-export function checkAnswer(page: Page, heading: 'Valid' | 'Superseded' | 'Not found'): Locator {
+export function checkAnswer(page: Page, heading: 'Valid' | 'Not yet in force' | 'Superseded' | 'Not found'): Locator {
   return page.getByRole('region', { name: heading, exact: true });
 }

@@ -1,4 +1,5 @@
 import { expect, test, type BrowserContext, type Page } from '@playwright/test';
+import pg from 'pg';
 import { describeDate } from '../policies/load/describe';
 import { DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
 import {
@@ -15,7 +16,8 @@ import { contextOptions, isoDay, pageText, recordApiBodies } from './plan-helper
  * Clearance letters end to end, against the demo scenario, the job queue and the fake SMTP server:
  * Priya (clinician) writes, previews and signs a letter for Maya and watches it go out; Elena, her
  * guardian, downloads and acknowledges it; anyone holding the code checks it signed out, and sees
- * only initials, dates and the organization; a second letter supersedes the first; Dana (admin) finds
+ * only initials, dates and the organization; a second letter from tomorrow leaves the first in force
+ * until its start date, then supersedes it (the date moved in the database); Dana (admin) finds
  * the e-mails with their PDFs in the Outbox.
  *
  * The steps build on each other (the codes, the first letter), so they run in order and stop at the
@@ -35,6 +37,20 @@ const SIGNATURE = 'Priya Raman';
 const MADE_UP_CODE = 'AAAA-AAAA-AAAA-AAAA-AAAA';
 /** From clinician.spec: the working diagnosis of Maya's case, which no letter or check may show. */
 const CLINICAL_WORD = 'Lumbar';
+
+/** Time passing, for one letter: its start date moves a day earlier in the database scripts/test.ts points us at. */
+async function startOneDayEarlier(letterId: string) {
+  const url = process.env.E2E_DATABASE_URL;
+  if (!url) throw new Error('E2E_DATABASE_URL is not set: run the browser tests through scripts/test.ts');
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    const { rowCount } = await client.query(`UPDATE clearance_letters SET effective_from = effective_from - 1 WHERE id = $1`, [letterId]);
+    expect(rowCount).toBe(1);
+  } finally {
+    await client.end();
+  }
+}
 
 test.describe.serial('a clinician signs a clearance letter; the family, the public and the admin see their share', () => {
   let priyaContext: BrowserContext;
@@ -164,8 +180,8 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     }
   });
 
-  test('a second letter from tomorrow supersedes the first, and the first code then checks as Superseded', async ({ browser }, testInfo) => {
-    test.setTimeout(45_000);
+  test('a second letter from tomorrow leaves the first in force until tomorrow, then supersedes it', async ({ browser }, testInfo) => {
+    test.setTimeout(60_000);
     expect(athleteUrl, 'Maya’s page from the first step').not.toBe('');
     await priya.goto(athleteUrl);
     await expectHome(priya, DEMO.maya.name);
@@ -182,16 +198,39 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     const secondCode = await signDraftLetter(priya, draft, SIGNATURE);
     expect(secondCode).not.toBe(firstCode);
 
-    const current = section.getByRole('article').filter({ has: priya.getByRole('img', { name: /^Letter status: Signed/ }) });
-    await expect(current).toHaveCount(1);
-    await expect(current.getByRole('heading')).toContainText(`from ${describeDate(isoDay(1))}`);
-    await expect(section.getByText('Earlier letters, superseded (1)')).toBeVisible();
+    // Signed and sent, but not in force before its start date: the first letter still is.
+    const inForce = () => section.getByRole('article').filter({ has: priya.getByRole('img', { name: /^Letter status: Signed — / }) });
+    const next = section.getByRole('article').filter({ has: priya.getByRole('img', { name: /^Letter status: Signed, not yet in force/ }) });
+    await expect(next).toHaveCount(1);
+    await expect(next.getByRole('heading')).toContainText(`from ${describeDate(isoDay(1))}`);
+    await expect(next).toContainText(`Signed, takes effect on ${describeDate(isoDay(1))}`);
+    await expect(inForce()).toHaveCount(1);
+    await expect(inForce().getByRole('heading')).toContainText(`from ${describeDate(isoDay(0))}`);
+    await expect(section.getByText(/Earlier letters, superseded/)).toHaveCount(0);
     // Wait for this letter's e-mail too, so the Outbox step finds both.
-    await expect(current.getByRole('listitem').filter({ hasText: DEMO.elena.email })).toContainText('Sent', { timeout: 30_000 });
+    await expect(next.getByRole('listitem').filter({ hasText: DEMO.elena.email })).toContainText('Sent', { timeout: 30_000 });
+    const secondId = (await next.getByRole('link', { name: 'Download the letter (PDF)' }).getAttribute('href'))?.match(/letters\/([0-9a-f-]{36})\/pdf$/)?.[1];
+    expect(secondId, 'the second letter’s id from its PDF link').toBeTruthy();
 
     const context = await browser.newContext(contextOptions(testInfo));
     try {
       const page = await context.newPage();
+      await page.goto(`/check/${firstCode}`);
+      await expect(checkAnswer(page, 'Valid')).toBeVisible();
+      await page.goto(`/check/${secondCode}`);
+      const scheduled = checkAnswer(page, 'Not yet in force');
+      await expect(scheduled).toBeVisible();
+      await expect(scheduled).toContainText(`Signed, takes effect on ${describeDate(isoDay(1))}`);
+
+      // A day on: the second letter has started, so it is in force and the first is superseded.
+      await startOneDayEarlier(secondId!);
+      await priya.reload();
+      await expectHome(priya, DEMO.maya.name);
+      await expect(inForce()).toHaveCount(1);
+      await expect(inForce().getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', new RegExp(`/letters/${secondId}/pdf$`));
+      await expect(next).toHaveCount(0);
+      await expect(section.getByText('Earlier letters, superseded (1)')).toBeVisible();
+
       await page.goto(`/check/${firstCode}`);
       const answer = checkAnswer(page, 'Superseded');
       await expect(answer).toBeVisible();

@@ -438,7 +438,12 @@ export interface LetterDto {
   familyNote: string;
   signature: string | null;
   signedAt: string | null;
-  status: 'draft' | 'signed' | 'superseded';
+  /**
+   * As of today (UTC): 'signed' is the letter in force, 'scheduled' a signed letter whose start date is still
+   * ahead, 'superseded' one a later-signed letter has replaced from that letter's start date.
+   */
+  status: 'draft' | 'scheduled' | 'signed' | 'superseded';
+  /** The letter that took over from this one; null until that letter's start date has come. */
   supersededBy: string | null;
   pdfSha256: string | null;
   version: number;
@@ -451,7 +456,8 @@ export interface LetterDto {
 }
 
 export interface LetterCheckDto {
-  status: 'valid' | 'superseded' | 'unknown';
+  /** 'scheduled': genuine and signed, but its start date is still ahead (the earlier letter is in force). */
+  status: 'valid' | 'scheduled' | 'superseded' | 'unknown';
   athleteInitials?: string;
   decision?: string;
   effectiveFrom?: string;

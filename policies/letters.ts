@@ -6,3 +6,37 @@ export function nameWithCredential(name: string, credential: string): string {
   const has = name.split(',').map((p) => p.trim().toLowerCase()).includes(credential.trim().toLowerCase());
   return has || !credential.trim() ? name : `${name}, ${credential}`;
 }
+
+/** A signed letter as the standing rule needs it: when it starts and when it was signed (an ISO instant). */
+export interface SignedLetterDates {
+  id: string;
+  effectiveFrom: string;
+  signedAt: string;
+}
+
+export type LetterStanding =
+  | { status: 'signed'; supersededBy: null }
+  | { status: 'scheduled'; supersededBy: null }
+  | { status: 'superseded'; supersededBy: string };
+
+const signedBefore = (a: SignedLetterDates, b: SignedLetterDates) =>
+  a.signedAt < b.signedAt || (a.signedAt === b.signedAt && a.id < b.id);
+
+/**
+ * Where a signed letter stands on `today` (YYYY-MM-DD), among all the athlete's signed letters.
+ * A letter signed later replaces every earlier-signed one from the later letter's start date, not from
+ * the moment of signing: until then the earlier letter stays in force and the later one is scheduled.
+ * So on any day the letter in force is the latest-signed one that has started, and at most one is.
+ * A letter replaced before its own start date (a later-signed letter starts sooner) is superseded
+ * without ever having been in force. `supersededBy` names the letter that took over from it: the first
+ * to start (of two starting the same day, the later-signed one, which is the one in force).
+ */
+export function letterStanding(letter: SignedLetterDates, athleteLetters: readonly SignedLetterDates[], today: string): LetterStanding {
+  let by: SignedLetterDates | null = null;
+  for (const other of athleteLetters) {
+    if (other.id === letter.id || !signedBefore(letter, other) || other.effectiveFrom > today) continue;
+    if (!by || other.effectiveFrom < by.effectiveFrom || (other.effectiveFrom === by.effectiveFrom && signedBefore(by, other))) by = other;
+  }
+  if (by) return { status: 'superseded', supersededBy: by.id };
+  return letter.effectiveFrom > today ? { status: 'scheduled', supersededBy: null } : { status: 'signed', supersededBy: null };
+}

@@ -49,6 +49,11 @@ export class ClearanceLetter {
   @Column('char', { name: 'code_hash', length: 64, nullable: true })
   codeHash: string | null;
 
+  /**
+   * The record of signing: 'superseded' once a later letter has been signed, with superseded_by naming
+   * it. Whether that letter has taken over yet depends on its start date, so what readers are shown
+   * is worked out from the dates (`standingToday` in services/letters.ts), not read from here.
+   */
   @Column('varchar', { length: 12, default: 'draft' })
   status: 'draft' | 'signed' | 'superseded';
 

@@ -81,6 +81,17 @@ describe('public letter check', () => {
     expect(screen.queryByText('X. Y.')).not.toBeInTheDocument();
   });
 
+  it('says a signed letter whose start date is ahead is not yet in force, and when it takes effect', async () => {
+    fetchMock.mockResolvedValue(
+      jsonResponse(200, { status: 'scheduled', athleteInitials: 'M. T.', decision: 'Full participation from 9 December 2026', effectiveFrom: '2026-12-09', validUntil: null, organizationName: 'Harbor Point Performance', issuedOn: '2026-12-01' }),
+    );
+    const { container } = renderCheck(`/check/${CODE}`);
+    expect(await screen.findByRole('heading', { name: 'Not yet in force' })).toBeInTheDocument();
+    expect(screen.getByText(/^Signed, takes effect on 9 December 2026\./)).toBeInTheDocument();
+    expect(container.querySelector('svg[data-shape="scheduled"]')).not.toBeNull();
+    expect(screen.queryByRole('heading', { name: 'Valid' })).not.toBeInTheDocument();
+  });
+
   it('explains a code that cannot be right without sending it', async () => {
     renderCheck('/check');
     expect(screen.getByRole('heading', { name: 'Check a clearance letter' })).toBeInTheDocument();

@@ -14,7 +14,7 @@ import type { Deps } from '../../http/context';
 import { orgRoute, publicRoute, type RouteDef } from '../../http/route';
 import { enqueueEmail } from '../../mail/deliveries';
 import { athleteCircle } from '../../services/notify';
-import { hashCode, initials, limitsInForce, listLetters, newVerificationCode } from '../../services/letters';
+import { hashCode, initials, limitsInForce, listLetters, newVerificationCode, signedLetterDates, standingToday } from '../../services/letters';
 import { updateVersioned } from '../../services/versioned';
 
 function sendPdf(res: import('express').Response, pdf: Buffer, filename: string) {
@@ -129,7 +129,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
           await updateVersioned(m, ClearanceLetter, l.id, body.version, {
             status: 'signed', signature: body.signature, signedAt, codeHash: hashCode(code), pdf, pdfSha256: sha, clinicianName: user.displayName, updatedAt: () => 'now()',
           }, 'letter');
-          // A later letter supersedes every earlier signed one for the athlete.
+          // Records that this letter replaces every earlier signed one for the athlete. It takes over only on
+          // its start date: until then the earlier letter is still the one in force (see standingToday).
           const superseded = await m.createQueryBuilder().update(ClearanceLetter).set({ status: 'superseded', supersededBy: l.id } as never)
             .where(`athlete_id = :a AND status = 'signed' AND id <> :id`, { a: l.athleteId, id: l.id }).returning('id').execute();
           await audit({ action: 'letter.signed', subjectType: 'Letter', subjectId: l.id, athleteId: l.athleteId, after: { decision: l.decision, effectiveFrom: l.effectiveFrom, validUntil: l.validUntil, pdfSha256: sha, supersedes: (superseded.raw as { id: string }[]).map((r) => r.id) } });
@@ -186,13 +187,13 @@ export function letterRoutes(deps: Deps): RouteDef[] {
     publicRoute({
       method: 'post',
       path: '/check',
-      summary: 'Public letter check: valid, superseded or unknown, with dates and decision only (rate-limited)',
+      summary: 'Public letter check: valid, scheduled, superseded or unknown, with dates and decision only (rate-limited)',
       access: { kind: 'public' },
       before: [checkLimit],
       body: CheckCodeSchema,
       async handler({ ds, body }) {
-        const rows: { status: string; decision: 'full' | 'limited'; effective_from: string; valid_until: string | null; signed_at: Date; org: string; name: string }[] = await ds.query(
-          `SELECT l.status, l.decision, l.effective_from, l.valid_until, l.signed_at, o.name AS org, u.display_name AS name
+        const rows: { id: string; athlete_id: string; decision: 'full' | 'limited'; effective_from: string; valid_until: string | null; signed_at: Date; org: string; name: string }[] = await ds.query(
+          `SELECT l.id, l.athlete_id, l.decision, l.effective_from, l.valid_until, l.signed_at, o.name AS org, u.display_name AS name
              FROM clearance_letters l JOIN organizations o ON o.id = l.organization_id
              JOIN memberships m ON m.id = l.athlete_id JOIN users u ON u.id = m.user_id
             WHERE l.code_hash = $1 AND l.status <> 'draft'`,
@@ -200,8 +201,9 @@ export function letterRoutes(deps: Deps): RouteDef[] {
         );
         const r = rows[0];
         if (!r) return { status: 'unknown' } satisfies LetterCheckDto;
+        const standing = standingToday({ id: r.id, athleteId: r.athlete_id }, await signedLetterDates(ds, [r.athlete_id]));
         const dto: LetterCheckDto = {
-          status: r.status === 'signed' ? 'valid' : 'superseded',
+          status: standing.status === 'signed' ? 'valid' : standing.status,
           athleteInitials: initials(r.name),
           decision: decisionWords({ decision: r.decision, effectiveFrom: r.effective_from }),
           effectiveFrom: r.effective_from,

@@ -346,6 +346,56 @@ describe('drafts, edits and signing', () => {
   });
 });
 
+/** `days` after (or before) a YYYY-MM-DD date, in UTC like the server's "today". */
+const plusDays = (iso: string, days: number) => new Date(Date.parse(`${iso}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
+
+describe('a letter signed to start later', () => {
+  it('leaves the earlier letter in force until its start date, then takes over (list and public check)', async () => {
+    const w = await world();
+    const athlete = await freshAthlete(w);
+    const today = todayIso();
+    const a = await signedLetter(w, athlete.membershipId, { effectiveFrom: today, validUntil: null });
+    const b = await signedLetter(w, athlete.membershipId, { effectiveFrom: plusDays(today, 7), validUntil: null });
+    const standings = async () => {
+      const list = await (await w.as('guardian')).get(`${w.base}/letters?athleteId=${athlete.membershipId}`);
+      expect(list.status).toBe(200);
+      return Object.fromEntries(list.body.map((l: { id: string; status: string; supersededBy: string | null }) => [l.id, { status: l.status, supersededBy: l.supersededBy }]));
+    };
+
+    // B is signed and sent but has not started: A is still the letter in force.
+    expect(b.status).toBe('scheduled');
+    expect(await standings()).toEqual({ [a.id]: { status: 'signed', supersededBy: null }, [b.id]: { status: 'scheduled', supersededBy: null } });
+    expect((await check(a.verificationCode)).body.status).toBe('valid');
+    expect((await check(b.verificationCode)).body).toMatchObject({ status: 'scheduled', effectiveFrom: plusDays(today, 7) });
+    // Signing still records who replaces whom, in the row and in the audit entry.
+    const [row] = await h.ds.query(`SELECT superseded_by FROM clearance_letters WHERE id = $1`, [a.id]);
+    expect(row.superseded_by).toBe(b.id);
+    expect((await auditActions(b.id)).find((e) => e.action === 'letter.signed')?.after).toMatchObject({ supersedes: [a.id] });
+
+    // A week on (both start dates moved back instead): B has started, so A is superseded.
+    await h.ds.query(`UPDATE clearance_letters SET effective_from = effective_from - 8 WHERE id = ANY($1)`, [[a.id, b.id]]);
+    expect(await standings()).toEqual({ [a.id]: { status: 'superseded', supersededBy: b.id }, [b.id]: { status: 'signed', supersededBy: null } });
+    expect((await check(a.verificationCode)).body.status).toBe('superseded');
+    expect((await check(b.verificationCode)).body.status).toBe('valid');
+  });
+
+  it('a letter signed afterwards that starts sooner replaces the scheduled one; the latest-signed letter that has started is in force', async () => {
+    const w = await world();
+    const athlete = await freshAthlete(w);
+    const today = todayIso();
+    const a = await signedLetter(w, athlete.membershipId, { effectiveFrom: plusDays(today, -30), validUntil: null });
+    const b = await signedLetter(w, athlete.membershipId, { effectiveFrom: plusDays(today, 10), validUntil: null });
+    const c = await signedLetter(w, athlete.membershipId, { effectiveFrom: today, validUntil: null });
+    const list = await (await w.as('clinician')).get(`${w.base}/letters?athleteId=${athlete.membershipId}`);
+    const byId = Object.fromEntries(list.body.map((l: { id: string }) => [l.id, l]));
+    expect(byId[a.id]).toMatchObject({ status: 'superseded', supersededBy: c.id });
+    expect(byId[b.id]).toMatchObject({ status: 'superseded', supersededBy: c.id });
+    expect(byId[c.id]).toMatchObject({ status: 'signed', supersededBy: null });
+    expect((await check(b.verificationCode)).body.status).toBe('superseded');
+    expect((await check(c.verificationCode)).body.status).toBe('valid');
+  });
+});
+
 describe('who may do what with a letter', () => {
   let w: World;
   let athlete: MemberRef;

@@ -23,9 +23,17 @@ export function useLetters(orgId: string, athleteId: string | null, options: { f
   });
 }
 
-/** The letter in force: at most one is signed at a time, since signing supersedes the others. */
+/** The letter in force: the server marks at most one 'signed' per athlete (the latest-signed that has started). */
 export function currentLetter(letters: LetterDto[]): LetterDto | null {
   return letters.find((l) => l.status === 'signed') ?? null;
+}
+
+/**
+ * Signed letters not yet in force, the next to start first. Of two starting the same day the
+ * later-signed one wins, and the list comes newest first, so a stable sort keeps it ahead.
+ */
+export function scheduledLetters(letters: LetterDto[]): LetterDto[] {
+  return letters.filter((l) => l.status === 'scheduled').sort((a, b) => a.effectiveFrom.localeCompare(b.effectiveFrom));
 }
 
 /** Links rather than fetches: the server answers with an attachment, which the browser saves. */

@@ -70,21 +70,27 @@ export function CheckLetter({ code, onCheck }: { code: string | null; onCheck: (
   );
 }
 
-const ANSWERS: Record<LetterCheckDto['status'], { heading: string; shape: SealShape; text: string }> = {
+const ANSWERS: Record<LetterCheckDto['status'], { heading: string; shape: SealShape; text: (r: LetterCheckDto) => string }> = {
   valid: {
     heading: 'Valid',
     shape: 'signed',
-    text: 'This letter was signed by the athlete’s clinician and is the one in force now.',
+    text: () => 'This letter was signed by the athlete’s clinician and is the one in force now.',
+  },
+  scheduled: {
+    heading: 'Not yet in force',
+    shape: 'scheduled',
+    text: (r) =>
+      `Signed, takes effect on ${r.effectiveFrom ? describeDate(r.effectiveFrom) : 'its start date'}. The letter is genuine; until that date the athlete’s earlier letter, if there is one, stays in force.`,
   },
   superseded: {
     heading: 'Superseded',
     shape: 'superseded',
-    text: 'This letter was genuine, but a later letter has replaced it. Ask for the latest letter.',
+    text: () => 'This letter was genuine, but a later letter has replaced it. Ask for the latest letter.',
   },
   unknown: {
     heading: 'Not found',
     shape: 'unknown',
-    text: 'No signed letter has this code. Check it for typing mistakes; a letter that was never signed has no code.',
+    text: () => 'No signed letter has this code. Check it for typing mistakes; a letter that was never signed has no code.',
   },
 };
 
@@ -102,7 +108,7 @@ export function CheckResult({ result }: { result: LetterCheckDto }) {
           {answer.heading}
         </h2>
       </div>
-      <p className="mt-3 text-base">{answer.text}</p>
+      <p className="mt-3 text-base">{answer.text(result)}</p>
       {result.status !== 'unknown' && (
         <div className="mt-4">
           <Facts

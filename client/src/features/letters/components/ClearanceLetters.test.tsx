@@ -134,4 +134,21 @@ describe('ClearanceLetters', () => {
     fireEvent.click(screen.getByRole('button', { name: 'I have noted the code' }));
     expect(screen.queryByText('7K3M-Q9TX-2HBD-VR4P-N8CW')).not.toBeInTheDocument();
   });
+
+  it('shows a letter signed to start later as not yet in force, above the letter still in force', async () => {
+    const inForce: LetterDto = { ...draft, id: 'l-a', decision: 'full', limits: [], status: 'signed', signature: 'Priya Raman', signedAt: '2026-11-20T10:00:00.000Z', effectiveFrom: '2026-11-20', validUntil: null, version: 2 };
+    const next: LetterDto = { ...inForce, id: 'l-b', signedAt: '2026-12-01T10:00:00.000Z', effectiveFrom: '2026-12-09', status: 'scheduled' };
+    fetchMock.mockResolvedValue(jsonResponse(200, [next, inForce]));
+    renderSection();
+
+    const scheduledMark = await screen.findByRole('img', { name: 'Letter status: Signed, not yet in force — signed and sent; takes effect on its start date' });
+    const scheduledRecord = scheduledMark.closest('article')!;
+    expect(within(scheduledRecord).getByText('Signed, takes effect on 9 December 2026. Until then, any earlier letter stays in force.')).toBeInTheDocument();
+    expect(scheduledRecord.querySelector('svg[data-shape="scheduled"]')).not.toBeNull();
+    const inForceRecord = screen.getByRole('img', { name: 'Letter status: Signed — signed, sent and in force' }).closest('article')!;
+    expect(within(inForceRecord).getByRole('heading')).toHaveTextContent('from 20 November 2026');
+    // Nothing is superseded yet, and the next letter comes first.
+    expect(screen.queryByText(/Earlier letters, superseded/)).not.toBeInTheDocument();
+    expect(scheduledRecord.compareDocumentPosition(inForceRecord) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
+  });
 });

@@ -6,7 +6,7 @@ import { useCurrentMembership } from '../../../lib/membership-context';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading, Panel } from '../../../components/ui/Panel';
-import { currentLetter, useLetters } from '../api/get-letters';
+import { currentLetter, scheduledLetters, useLetters } from '../api/get-letters';
 import { DraftLetter } from './DraftLetter';
 import { LetterCaution } from './LetterCaution';
 import { LetterRecord } from './LetterRecord';
@@ -15,7 +15,8 @@ import { WriteLetterForm } from './WriteLetterForm';
 
 /**
  * The clinician's "Clearance letters" section for one athlete: drafts (editable, previewable,
- * signable), the letter in force with its deliveries and acknowledgements, and earlier letters.
+ * signable), letters signed to start later, the letter in force with its deliveries and
+ * acknowledgements, and earlier letters.
  */
 export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: string; athleteId: string; athleteName: string }) {
   const { user } = useCurrentMembership();
@@ -31,6 +32,7 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
   const all = letters.data ?? [];
   const drafts = all.filter((l) => l.status === 'draft');
   const current = currentLetter(all);
+  const upcoming = scheduledLetters(all);
   const earlier = all.filter((l) => l.status === 'superseded');
   const mine = all.find((l) => l.clinicianName === user.displayName);
   const byId = new Map(all.map((l) => [l.id, l]));
@@ -89,6 +91,9 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
                 <LetterRecord key={draft.id} orgId={orgId} letter={draft} />
               ),
             )}
+            {upcoming.map((l) => (
+              <LetterRecord key={l.id} orgId={orgId} letter={l} />
+            ))}
             {current && <LetterRecord orgId={orgId} letter={current} />}
             {earlier.length > 0 && (
               <details className="rounded-md border border-rule">

@@ -4,14 +4,17 @@ import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { isApiError } from '../../../lib/api-client';
-import { currentLetter, letterPdfHref, useLetters } from '../api/get-letters';
+import { currentLetter, letterPdfHref, scheduledLetters, useLetters } from '../api/get-letters';
 import { LimitsList } from './LetterRecord';
-import { dayOf, letterDates } from './letter-words';
+import { dayOf, letterDates, takesEffect } from './letter-words';
 import { nameWithCredential } from '../../../../../policies/letters';
+import { describeDate } from '../../../../../policies/load/describe';
 
 /**
  * The letter in force, for the athlete (their own) and the coach (a care-team athlete): decision,
- * dates, limits and the PDF. Drafts never show here; the section stays out for a reader refused the letters.
+ * dates, limits and the PDF. A letter signed to start later is named beneath it (or shown on its own,
+ * said so, when none is in force yet). Drafts never show here; the section stays out for a reader
+ * refused the letters.
  */
 export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; athleteId: string; audience: 'athlete' | 'coach' }) {
   const letters = useLetters(orgId, athleteId);
@@ -22,6 +25,8 @@ export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; a
     );
   }
   const current = currentLetter(letters.data);
+  const next = scheduledLetters(letters.data)[0];
+  if (!current && next) return <LetterSummary orgId={orgId} letter={next} audience={audience} />;
   if (!current) {
     return (
       <p className="text-sm text-ink-2">
@@ -31,7 +36,16 @@ export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; a
       </p>
     );
   }
-  return <LetterSummary orgId={orgId} letter={current} audience={audience} />;
+  return (
+    <div className="space-y-3">
+      <LetterSummary orgId={orgId} letter={current} audience={audience} />
+      {next && (
+        <p className={audience === 'athlete' ? 'text-base font-semibold' : 'text-sm font-semibold'}>
+          A new letter is signed and takes effect on {describeDate(next.effectiveFrom)}; this one stays in force until then.
+        </p>
+      )}
+    </div>
+  );
 }
 
 function LetterSummary({ orgId, letter, audience }: { orgId: string; letter: LetterDto; audience: 'athlete' | 'coach' }) {
@@ -39,6 +53,9 @@ function LetterSummary({ orgId, letter, audience }: { orgId: string; letter: Let
     <div className="space-y-3">
       <StatusMark status={letter.decision} size={audience === 'athlete' ? 'lg' : 'sm'} explain />
       <p className={audience === 'athlete' ? 'text-base' : 'text-sm'}>{letterDates(letter)}.</p>
+      {letter.status === 'scheduled' && (
+        <p className={audience === 'athlete' ? 'text-base font-semibold' : 'text-sm font-semibold'}>{takesEffect(letter)}.</p>
+      )}
       {letter.decision === 'limited' && <LimitsList limits={letter.limits} large={audience === 'athlete'} />}
       {audience === 'athlete' && letter.familyNote && (
         <div className="text-base">

@@ -73,4 +73,20 @@ describe('FamilyLetters', () => {
     expect(await screen.findByRole('button', { name: 'I have read this letter' })).toBeInTheDocument();
     expect(screen.queryByText(/Acknowledged on/)).not.toBeInTheDocument();
   });
+
+  it('shows a letter signed to start later beneath the one in force, saying when it takes effect', async () => {
+    const next = letter({ id: 'l-3', status: 'scheduled', decision: 'full', limits: [], effectiveFrom: '2026-12-09', validUntil: null, signedAt: '2026-12-01T10:00:00.000Z' });
+    fetchMock.mockResolvedValue(jsonResponse(200, [next, letter()]));
+    renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
+
+    const current = await screen.findByRole('article', { name: 'Clearance letter for Maya' });
+    expect(within(current).getByRole('img', { name: /Letter status: Signed — signed, sent and in force/ })).toBeInTheDocument();
+    expect(within(current).queryByText(/takes effect/)).not.toBeInTheDocument();
+    const upcoming = screen.getByRole('article', { name: 'Next clearance letter for Maya' });
+    expect(within(upcoming).getByText('Signed, takes effect on 9 December 2026. Until then, the letter above stays in force.')).toBeInTheDocument();
+    expect(within(upcoming).getByRole('img', { name: /Letter status: Signed, not yet in force/ })).toBeInTheDocument();
+    expect(within(upcoming).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', '/api/orgs/org-1/letters/l-3/pdf');
+    expect(screen.queryByText(/Earlier letters/)).not.toBeInTheDocument();
+  });
 });
+

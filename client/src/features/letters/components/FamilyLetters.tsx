@@ -6,16 +6,17 @@ import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { useAcknowledgeLetter } from '../api/acknowledge-letter';
-import { letterPdfHref, useLetters } from '../api/get-letters';
+import { currentLetter, letterPdfHref, scheduledLetters, useLetters } from '../api/get-letters';
 import { LetterCaution } from './LetterCaution';
 import { LetterStatusMark } from './LetterMarks';
 import { LimitsList } from './LetterRecord';
-import { DECISION_WORDS, dayOf, letterDates } from './letter-words';
+import { DECISION_WORDS, dayOf, letterDates, takesEffect } from './letter-words';
 import { nameWithCredential } from '../../../../../policies/letters';
 
 /**
- * "Letters" on the guardian's phone: the signed letter of each linked athlete, large and plain,
- * with the PDF and "I have read this letter". Earlier, superseded letters fold away beneath.
+ * "Letters" on the guardian's phone: the letter in force for each linked athlete, large and plain,
+ * with the PDF and "I have read this letter", then any letter signed to start later (said so on it).
+ * Earlier, superseded letters fold away beneath.
  */
 export function FamilyLetters({
   orgId,
@@ -45,7 +46,8 @@ export function FamilyLetters({
         ) : (
           athletes.map((athlete) => {
             const theirs = letters.data.filter((l) => l.athleteId === athlete.id && l.status !== 'draft');
-            const current = theirs.find((l) => l.status === 'signed');
+            const current = currentLetter(theirs);
+            const upcoming = scheduledLetters(theirs);
             const earlier = theirs.filter((l) => l.status === 'superseded');
             return (
               <div key={athlete.id} className="space-y-3">
@@ -57,6 +59,9 @@ export function FamilyLetters({
                 ) : (
                   <>
                     {current && <FamilyLetter orgId={orgId} letter={current} guardianId={guardianId} name={athlete.name} />}
+                    {upcoming.map((l) => (
+                      <FamilyLetter key={l.id} orgId={orgId} letter={l} guardianId={guardianId} name={athlete.name} afterCurrent={!!current} />
+                    ))}
                     {earlier.length > 0 && (
                       <details className="rounded-md border border-rule">
                         <summary className="flex min-h-11 cursor-pointer items-center px-3 text-sm font-semibold">
@@ -89,12 +94,28 @@ export function FamilyLetters({
   );
 }
 
-function FamilyLetter({ orgId, letter, guardianId, name }: { orgId: string; letter: LetterDto; guardianId: string; name: string }) {
+function FamilyLetter({
+  orgId,
+  letter,
+  guardianId,
+  name,
+  afterCurrent = false,
+}: {
+  orgId: string;
+  letter: LetterDto;
+  guardianId: string;
+  name: string;
+  /** A scheduled letter shown under the one in force, which it leaves in force until it starts. */
+  afterCurrent?: boolean;
+}) {
   const acknowledge = useAcknowledgeLetter(orgId);
   const mine = letter.acknowledgements.find((a) => a.guardianId === guardianId);
 
   return (
-    <article aria-label={`Clearance letter for ${name}`} className="space-y-3 rounded-md border border-ink p-3 sm:p-4">
+    <article
+      aria-label={letter.status === 'scheduled' ? `Next clearance letter for ${name}` : `Clearance letter for ${name}`}
+      className="space-y-3 rounded-md border border-ink p-3 sm:p-4"
+    >
       <div className="flex flex-wrap items-center justify-between gap-2">
         <StatusMark status={letter.decision} size="lg" />
         <LetterStatusMark status={letter.status} />
@@ -103,6 +124,11 @@ function FamilyLetter({ orgId, letter, guardianId, name }: { orgId: string; lett
         {name}: {DECISION_WORDS[letter.decision].toLowerCase()}
       </p>
       <p className="text-base tabular-nums">{letterDates(letter)}.</p>
+      {letter.status === 'scheduled' && (
+        <p className="text-base font-semibold">
+          {takesEffect(letter)}.{afterCurrent && ' Until then, the letter above stays in force.'}
+        </p>
+      )}
       {letter.decision === 'limited' && <LimitsList limits={letter.limits} large />}
       {letter.familyNote && (
         <div className="text-base">

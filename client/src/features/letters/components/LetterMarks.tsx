@@ -1,12 +1,13 @@
 import { cx } from '../../../components/ui/cx';
 import { LETTER_STATUS_MEANING, LETTER_STATUS_WORDS, type LetterStatus } from './letter-words';
 
-export type SealShape = 'signed' | 'draft' | 'superseded' | 'unknown';
+export type SealShape = 'signed' | 'scheduled' | 'draft' | 'superseded' | 'unknown';
 
 /**
  * A letter's standing as a round seal, so it never reads as a participation status (those are
- * squares): solid with a tick when signed, dashed when a draft, struck through when superseded,
- * and open with a question mark when no letter matches.
+ * squares): solid with a tick when signed and in force, open with a tick when signed but not yet in
+ * force, dashed when a draft, struck through when superseded, and open with a question mark when no
+ * letter matches.
  */
 export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) {
   return (
@@ -15,6 +16,11 @@ export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) 
         <>
           <circle cx="12" cy="12" r="10.5" fill="currentColor" />
           <path d="M7 12.5 L10.5 16 L17 8.5" fill="none" stroke="var(--color-sheet)" strokeWidth="2.6" strokeLinecap="round" strokeLinejoin="round" />
+        </>
+      ) : shape === 'scheduled' ? (
+        <>
+          <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" />
+          <path d="M7.5 12.5 L10.5 15.5 L16.5 8.8" fill="none" stroke="currentColor" strokeWidth="2.4" strokeLinecap="round" strokeLinejoin="round" />
         </>
       ) : shape === 'draft' ? (
         <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" strokeDasharray="3.2 2.6" />
@@ -34,7 +40,7 @@ export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) 
   );
 }
 
-/** Draft, Signed or Superseded: a word plus a seal, never colour alone. */
+/** Draft, Signed (not yet in force), Signed or Superseded: a word plus a seal, never colour alone. */
 export function LetterStatusMark({ status, className }: { status: LetterStatus; className?: string }) {
   const word = LETTER_STATUS_WORDS[status];
   return (

@@ -6,13 +6,13 @@ import { cx } from '../../../components/ui/cx';
 import { Facts } from '../../../components/ui/Panel';
 import { letterPdfHref } from '../api/get-letters';
 import { LetterStatusMark } from './LetterMarks';
-import { DECISION_WORDS, dayOf, deliveryWords, type Delivery } from './letter-words';
+import { DECISION_WORDS, dayOf, deliveryWords, takesEffect, type Delivery } from './letter-words';
 
-/** A signed or superseded letter as the care team's record: contents, who it went to, who has read it. */
+/** A signed, scheduled or superseded letter as the care team's record: contents, who it went to, who has read it. */
 export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; letter: LetterDto; supersededBy?: LetterDto | null }) {
   const headingId = useId();
   return (
-    <article aria-labelledby={headingId} className={cx('rounded-md border p-3 sm:p-4', letter.status === 'signed' ? 'border-ink' : 'border-rule')}>
+    <article aria-labelledby={headingId} className={cx('rounded-md border p-3 sm:p-4', letter.status === 'signed' || letter.status === 'scheduled' ? 'border-ink' : 'border-rule')}>
       <header className="mb-3 flex flex-wrap items-center justify-between gap-2">
         <h3 id={headingId} className="text-base font-bold">
           {DECISION_WORDS[letter.decision]}{' '}
@@ -20,6 +20,9 @@ export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; l
         </h3>
         <LetterStatusMark status={letter.status} />
       </header>
+      {letter.status === 'scheduled' && (
+        <p className="mb-3 text-sm text-ink-2">{takesEffect(letter)}. Until then, any earlier letter stays in force.</p>
+      )}
       {letter.status === 'superseded' && (
         <p className="mb-3 text-sm text-ink-2">
           Replaced by {supersededBy?.signedAt ? `the letter signed on ${dayOf(supersededBy.signedAt)}` : 'a later letter'}.

@@ -12,7 +12,7 @@ import { dayOf } from './letter-words';
 
 /**
  * Signing with a typed full name. What signing does is said before the field, in full: the letter
- * freezes and goes out by e-mail; a letter in force is superseded.
+ * freezes and goes out by e-mail; the letter in force is superseded from this one's start date.
  */
 export function SignLetterForm({
   orgId,
@@ -57,7 +57,7 @@ export function SignLetterForm({
           Once signed, the letter cannot be changed. Loadline makes the PDF with its verification code and e-mails it to the
           athlete’s guardian(s), the athlete and the coach(es) on the care team.
           {replaces?.signedAt &&
-            ` It supersedes the letter signed on ${dayOf(replaces.signedAt)}, which then shows as superseded.`}
+            ` It supersedes the letter signed on ${dayOf(replaces.signedAt)} from this letter’s start date; until then that letter stays in force.`}
         </p>
       </div>
       {stale ? (

@@ -18,12 +18,14 @@ export const DECISION_HINTS: Record<LetterDto['decision'], string> = {
 
 export const LETTER_STATUS_WORDS: Record<LetterStatus, string> = {
   draft: 'Draft',
+  scheduled: 'Signed, not yet in force',
   signed: 'Signed',
   superseded: 'Superseded',
 };
 
 export const LETTER_STATUS_MEANING: Record<LetterStatus, string> = {
   draft: 'not signed, not sent, can still change',
+  scheduled: 'signed and sent; takes effect on its start date',
   signed: 'signed, sent and in force',
   superseded: 'replaced by a later letter',
 };
@@ -33,6 +35,11 @@ export function letterDates(letter: Pick<LetterDto, 'effectiveFrom' | 'validUnti
   return letter.validUntil
     ? `From ${describeDate(letter.effectiveFrom)} until ${describeDate(letter.validUntil)}`
     : `From ${describeDate(letter.effectiveFrom)}, with no end date set`;
+}
+
+/** "Signed, takes effect on 9 December 2026": a signed letter whose start date is still ahead. */
+export function takesEffect(letter: Pick<LetterDto, 'effectiveFrom'>): string {
+  return `Signed, takes effect on ${describeDate(letter.effectiveFrom)}`;
 }
 
 /** A recipient's delivery in words: sent, waiting, or failed with the reason. */
