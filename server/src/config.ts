@@ -13,6 +13,11 @@ const ConfigSchema = z.object({
   SIGNIN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
   SIGNIN_MAX_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).default(10),
   SIGNIN_MAX_PER_IP: z.coerce.number().int().min(1).default(50),
+  /**
+   * Rate-limit counters live in PostgreSQL, so every app process on the database counts against the
+   * same limits. Processes with the same namespace share counters (tests give each app its own).
+   */
+  RATE_LIMIT_NAMESPACE: z.string().min(1).max(100).default('loadline'),
   SESSION_IDLE_MINUTES: z.coerce.number().min(1).max(30).default(30),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).max(12).default(12),
   INVITATION_TTL_HOURS: z.coerce.number().min(1).max(24 * 14).default(72),

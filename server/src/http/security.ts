@@ -7,6 +7,7 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import bcrypt from 'bcryptjs';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import { PgRateLimitStore } from './rate-limit-store';
 import type { Deps } from './context';
 import { User } from '../entities';
 import { actorsFromJson, actorsJsonSql, type ActorRow, type ActorWithOrg } from '../services/actor';
@@ -234,6 +235,11 @@ export function csrfProtection(): RequestHandler {
   };
 }
 
+/** A counter store shared by every app process on the database (see PgRateLimitStore). */
+export function limitStore(deps: Pick<Deps, 'ds' | 'config'>, name: string): PgRateLimitStore {
+  return new PgRateLimitStore(deps.ds, `${deps.config.RATE_LIMIT_NAMESPACE}:${name}`);
+}
+
 const rateLimited = new AppError('rate_limited', 'Too many sign-in attempts. Wait a few minutes and try again.');
 
 /**
@@ -248,6 +254,7 @@ export function signInLimits(
   const windowMs = deps.config.SIGNIN_WINDOW_SECONDS * 1000;
   const byIp = rateLimit({
     windowMs,
+    store: limitStore(deps, 'signin-ip'),
     limit: deps.config.SIGNIN_MAX_PER_IP,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
@@ -256,6 +263,7 @@ export function signInLimits(
   });
   const byAccount = rateLimit({
     windowMs,
+    store: limitStore(deps, 'signin-account'),
     limit: deps.config.SIGNIN_MAX_FAILURES_PER_ACCOUNT,
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',

@@ -6,6 +6,7 @@ import { AddAthleteIndexes1765000000000 } from './1765000000000-add-athlete-inde
 import { CreateLettersAndMail1765100000000 } from './1765100000000-create-letters-and-mail';
 import { CreateUploads1765200000000 } from './1765200000000-create-uploads';
 import { AddAccountSecurity1765300000000 } from './1765300000000-add-account-security';
+import { AddRateLimits1765400000000 } from './1765400000000-add-rate-limits';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -17,4 +18,5 @@ export const MIGRATIONS = [
   CreateLettersAndMail1765100000000,
   CreateUploads1765200000000,
   AddAccountSecurity1765300000000,
+  AddRateLimits1765400000000,
 ];

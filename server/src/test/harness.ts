@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -38,7 +39,7 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
     const logger = pino({ level: 'silent' });
     if (opts.mail) h.smtp = await startFakeSmtp(url, 0);
     h.storageDir = await mkdtemp(path.join(os.tmpdir(), 'loadline-test-uploads-'));
-    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', STORAGE_DIR: h.storageDir, ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}), ...overrides });
+    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', STORAGE_DIR: h.storageDir, RATE_LIMIT_NAMESPACE: `test-${randomUUID()}`, ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}), ...overrides });
     h.ds = createDataSource(url, 5);
     await h.ds.initialize();
     if (opts.mail) {

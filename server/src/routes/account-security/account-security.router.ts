@@ -8,7 +8,7 @@ import { TotpRecoveryCode, User, UserTotp } from '../../entities';
 import type { Deps } from '../../http/context';
 import { AppError } from '../../http/errors';
 import { publicRoute, type RouteDef } from '../../http/route';
-import { signInLimits } from '../../http/security';
+import { limitStore, signInLimits } from '../../http/security';
 import { confirmPasswordReset, requestPasswordReset, RESET_REQUESTED } from '../../services/password-reset';
 import { accountLimits, auditAccount, useAuditedSecondStepCode } from '../../services/sign-in';
 import {
@@ -25,9 +25,10 @@ function resetRequestLimits(deps: Deps): RequestHandler[] {
   const refused = new AppError('rate_limited', 'Too many password reset requests. Wait a few minutes and try again.');
   const common = { windowMs, standardHeaders: 'draft-8' as const, legacyHeaders: false, handler: (_req: unknown, _res: unknown, next: (e: unknown) => void) => next(refused) };
   return [
-    rateLimit({ ...common, limit: deps.config.RESET_MAX_PER_IP, keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}` }),
+    rateLimit({ ...common, store: limitStore(deps, 'reset-ip'), limit: deps.config.RESET_MAX_PER_IP, keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}` }),
     rateLimit({
       ...common,
+      store: limitStore(deps, 'reset-account'),
       limit: deps.config.RESET_MAX_PER_ACCOUNT,
       keyGenerator: (req) => `reset:${typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : ''}`,
     }),
