@@ -5,6 +5,7 @@ import {
   CheckCodeSchema, LetterCreateSchema, LetterSignSchema, LetterUpdateSchema, OrgItemParamsSchema, OrgParamsSchema, UuidSchema,
 } from '../../../../policies/schemas';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import { limitStore } from '../../http/security';
 import { ClearanceLetter, LetterAcknowledgement, Organization } from '../../entities';
 import { renderLetterPdf, decisionWords, type LetterData } from '../../../../templates/letter/clearance-letter';
 import { emails } from '../../../../templates/email/messages';
@@ -31,6 +32,7 @@ async function athleteName(db: { query: (q: string, p: unknown[]) => Promise<{ n
 export function letterRoutes(deps: Deps): RouteDef[] {
   const checkLimit = rateLimit({
     windowMs: 60_000,
+    store: limitStore(deps, 'letter-check'),
     limit: 30,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
