@@ -440,9 +440,10 @@ export interface LetterDto {
   signedAt: string | null;
   /**
    * As of today (UTC): 'signed' is the letter in force, 'scheduled' a signed letter whose start date is still
-   * ahead, 'superseded' one a later-signed letter has replaced from that letter's start date.
+   * ahead, 'superseded' one a later-signed letter has replaced from that letter's start date, 'expired' the
+   * latest letter once its valid-until day has passed (nothing is in force until a new one is signed).
    */
-  status: 'draft' | 'scheduled' | 'signed' | 'superseded';
+  status: 'draft' | 'scheduled' | 'signed' | 'expired' | 'superseded';
   /** The letter that took over from this one; null until that letter's start date has come. */
   supersededBy: string | null;
   pdfSha256: string | null;
@@ -456,8 +457,11 @@ export interface LetterDto {
 }
 
 export interface LetterCheckDto {
-  /** 'scheduled': genuine and signed, but its start date is still ahead (the earlier letter is in force). */
-  status: 'valid' | 'scheduled' | 'superseded' | 'unknown';
+  /**
+   * 'scheduled': genuine and signed, but its start date is still ahead (the earlier letter is in force).
+   * 'expired': genuine and not replaced, but its valid-until day has passed.
+   */
+  status: 'valid' | 'scheduled' | 'expired' | 'superseded' | 'unknown';
   athleteInitials?: string;
   decision?: string;
   effectiveFrom?: string;

@@ -11,8 +11,8 @@ describe('nameWithCredential', () => {
 
 describe('letterStanding', () => {
   // A signed on 1 March to start that day; B signed on 5 March to start on 12 March.
-  const a = { id: 'a', effectiveFrom: '2026-03-01', signedAt: '2026-03-01T09:00:00.000Z' };
-  const b = { id: 'b', effectiveFrom: '2026-03-12', signedAt: '2026-03-05T09:00:00.000Z' };
+  const a = { id: 'a', effectiveFrom: '2026-03-01', signedAt: '2026-03-01T09:00:00.000Z', validUntil: null };
+  const b = { id: 'b', effectiveFrom: '2026-03-12', signedAt: '2026-03-05T09:00:00.000Z', validUntil: null };
   const both = [a, b];
 
   it('keeps the earlier letter in force until the later one starts, which is scheduled meanwhile', () => {
@@ -28,7 +28,7 @@ describe('letterStanding', () => {
 
   it('lets a later-signed letter that starts sooner replace a scheduled one before it ever starts', () => {
     // C signed on 6 March to start on 8 March: it replaces A on the 8th and B never comes into force.
-    const c = { id: 'c', effectiveFrom: '2026-03-08', signedAt: '2026-03-06T09:00:00.000Z' };
+    const c = { id: 'c', effectiveFrom: '2026-03-08', signedAt: '2026-03-06T09:00:00.000Z', validUntil: null };
     const all = [a, b, c];
     expect(letterStanding(a, all, '2026-03-07').status).toBe('signed');
     expect(letterStanding(b, all, '2026-03-07').status).toBe('scheduled');
@@ -40,7 +40,7 @@ describe('letterStanding', () => {
   });
 
   it('lets signing order decide, not start dates: a later-signed letter that starts sooner wins', () => {
-    const later = { id: 'later', effectiveFrom: '2026-03-03', signedAt: '2026-03-06T09:00:00.000Z' };
+    const later = { id: 'later', effectiveFrom: '2026-03-03', signedAt: '2026-03-06T09:00:00.000Z', validUntil: null };
     expect(letterStanding(b, [b, later], '2026-03-12')).toEqual({ status: 'superseded', supersededBy: 'later' });
     expect(letterStanding(later, [b, later], '2026-03-12').status).toBe('signed');
   });
@@ -48,5 +48,29 @@ describe('letterStanding', () => {
   it('puts a letter alone in force from its start date, not before', () => {
     expect(letterStanding(a, [a], '2026-02-28').status).toBe('scheduled');
     expect(letterStanding(a, [a], '2026-03-01').status).toBe('signed');
+  });
+
+  describe('valid until', () => {
+    // R signed on 1 March to start that day, valid until (its review on) 31 March.
+    const r = { id: 'r', effectiveFrom: '2026-03-01', signedAt: '2026-03-01T09:00:00.000Z', validUntil: '2026-03-31' };
+
+    it('keeps the letter in force on its valid-until day and expires it the day after', () => {
+      expect(letterStanding(r, [r], '2026-03-31')).toEqual({ status: 'signed', supersededBy: null });
+      expect(letterStanding(r, [r], '2026-04-01')).toEqual({ status: 'expired', supersededBy: null });
+    });
+
+    it('leaves a superseded letter superseded after its valid-until day', () => {
+      const next = { id: 'next', effectiveFrom: '2026-03-20', signedAt: '2026-03-15T09:00:00.000Z', validUntil: null };
+      expect(letterStanding(r, [r, next], '2026-04-01')).toEqual({ status: 'superseded', supersededBy: 'next' });
+      expect(letterStanding(next, [r, next], '2026-04-01').status).toBe('signed');
+    });
+
+    it('leaves a scheduled letter scheduled, and an expired later letter still replaces the earlier one', () => {
+      const odd = { id: 'odd', effectiveFrom: '2026-05-01', signedAt: '2026-03-02T09:00:00.000Z', validUntil: '2026-03-10' };
+      expect(letterStanding(odd, [r, odd], '2026-04-01').status).toBe('scheduled');
+      const short = { id: 'short', effectiveFrom: '2026-03-05', signedAt: '2026-03-04T09:00:00.000Z', validUntil: '2026-03-10' };
+      expect(letterStanding(short, [r, short], '2026-03-11').status).toBe('expired');
+      expect(letterStanding(r, [r, short], '2026-03-11')).toEqual({ status: 'superseded', supersededBy: 'short' });
+    });
   });
 });

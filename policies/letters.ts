@@ -7,16 +7,21 @@ export function nameWithCredential(name: string, credential: string): string {
   return has || !credential.trim() ? name : `${name}, ${credential}`;
 }
 
-/** A signed letter as the standing rule needs it: when it starts and when it was signed (an ISO instant). */
+/**
+ * A signed letter as the standing rule needs it: when it starts, when it was signed (an ISO instant) and
+ * the last day it is valid (its next review; null when the clinician set none).
+ */
 export interface SignedLetterDates {
   id: string;
   effectiveFrom: string;
   signedAt: string;
+  validUntil: string | null;
 }
 
 export type LetterStanding =
   | { status: 'signed'; supersededBy: null }
   | { status: 'scheduled'; supersededBy: null }
+  | { status: 'expired'; supersededBy: null }
   | { status: 'superseded'; supersededBy: string };
 
 const signedBefore = (a: SignedLetterDates, b: SignedLetterDates) =>
@@ -30,6 +35,9 @@ const signedBefore = (a: SignedLetterDates, b: SignedLetterDates) =>
  * A letter replaced before its own start date (a later-signed letter starts sooner) is superseded
  * without ever having been in force. `supersededBy` names the letter that took over from it: the first
  * to start (of two starting the same day, the later-signed one, which is the one in force).
+ * A letter that would be in force but whose valid-until day has passed is expired: it is still the latest
+ * letter, so it keeps any earlier one replaced, but nothing is in force until a new letter is signed.
+ * The valid-until day itself is still covered.
  */
 export function letterStanding(letter: SignedLetterDates, athleteLetters: readonly SignedLetterDates[], today: string): LetterStanding {
   let by: SignedLetterDates | null = null;
@@ -38,5 +46,7 @@ export function letterStanding(letter: SignedLetterDates, athleteLetters: readon
     if (!by || other.effectiveFrom < by.effectiveFrom || (other.effectiveFrom === by.effectiveFrom && signedBefore(by, other))) by = other;
   }
   if (by) return { status: 'superseded', supersededBy: by.id };
-  return letter.effectiveFrom > today ? { status: 'scheduled', supersededBy: null } : { status: 'signed', supersededBy: null };
+  if (letter.effectiveFrom > today) return { status: 'scheduled', supersededBy: null };
+  if (letter.validUntil !== null && letter.validUntil < today) return { status: 'expired', supersededBy: null };
+  return { status: 'signed', supersededBy: null };
 }

@@ -44,16 +44,16 @@ export function initials(name: string): string {
   return name.split(/\s+/).filter(Boolean).map((w) => `${w[0].toUpperCase()}.`).join(' ');
 }
 
-/** Every signed letter of these athletes with its start date and signing instant, by athlete. */
+/** Every signed letter of these athletes with its start date, signing instant and valid-until day, by athlete. */
 export async function signedLetterDates(db: DataSource | EntityManager, athleteIds: string[]): Promise<Map<string, SignedLetterDates[]>> {
-  const rows: { id: string; athlete_id: string; effective_from: string; signed_at: Date }[] = await db.query(
-    `SELECT id, athlete_id, effective_from, signed_at FROM clearance_letters WHERE athlete_id = ANY($1) AND status <> 'draft'`,
+  const rows: { id: string; athlete_id: string; effective_from: string; signed_at: Date; valid_until: string | null }[] = await db.query(
+    `SELECT id, athlete_id, effective_from, signed_at, valid_until FROM clearance_letters WHERE athlete_id = ANY($1) AND status <> 'draft'`,
     [athleteIds],
   );
   const by = new Map<string, SignedLetterDates[]>();
   for (const r of rows) {
     const list = by.get(r.athlete_id) ?? [];
-    list.push({ id: r.id, effectiveFrom: r.effective_from, signedAt: new Date(r.signed_at).toISOString() });
+    list.push({ id: r.id, effectiveFrom: r.effective_from, signedAt: new Date(r.signed_at).toISOString(), validUntil: r.valid_until });
     by.set(r.athlete_id, list);
   }
   return by;

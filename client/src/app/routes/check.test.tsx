@@ -92,6 +92,17 @@ describe('public letter check', () => {
     expect(screen.queryByRole('heading', { name: 'Valid' })).not.toBeInTheDocument();
   });
 
+  it('says a letter past its valid-until date has expired, with its own shape, and what to do', async () => {
+    fetchMock.mockResolvedValue(
+      jsonResponse(200, { status: 'expired', athleteInitials: 'M. T.', decision: 'Full participation from 1 April 2026', effectiveFrom: '2026-04-01', validUntil: '2026-06-30', organizationName: 'Harbor Point Performance', issuedOn: '2026-03-30' }),
+    );
+    const { container } = renderCheck(`/check/${CODE}`);
+    expect(await screen.findByRole('heading', { name: 'Expired' })).toBeInTheDocument();
+    expect(screen.getByText('This letter was valid until 30 June 2026. Ask the athlete’s clinician for a current letter.')).toBeInTheDocument();
+    expect(container.querySelector('svg[data-shape="expired"]')).not.toBeNull();
+    expect(screen.queryByRole('heading', { name: 'Valid' })).not.toBeInTheDocument();
+  });
+
   it('explains a code that cannot be right without sending it', async () => {
     renderCheck('/check');
     expect(screen.getByRole('heading', { name: 'Check a clearance letter' })).toBeInTheDocument();

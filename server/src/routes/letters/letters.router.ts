@@ -189,7 +189,7 @@ export function letterRoutes(deps: Deps): RouteDef[] {
     publicRoute({
       method: 'post',
       path: '/check',
-      summary: 'Public letter check: valid, scheduled, superseded or unknown, with dates and decision only (rate-limited)',
+      summary: 'Public letter check: valid, scheduled, expired, superseded or unknown, with dates and decision only (rate-limited)',
       access: { kind: 'public' },
       before: [checkLimit],
       body: CheckCodeSchema,

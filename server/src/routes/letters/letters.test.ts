@@ -257,7 +257,7 @@ describe('drafts, edits and signing', () => {
     const w = await world();
     const athlete = await freshAthlete(w);
     const clin = await w.as('clinician');
-    const draft = await draftLetter(w, athlete.membershipId);
+    const draft = await draftLetter(w, athlete.membershipId, { validUntil: null });
     const edited = await clin.patch(`${w.base}/letters/${draft.id}`, { familyNote: 'Edited note.', version: draft.version });
     expect(edited.status, JSON.stringify(edited.body)).toBe(200);
     expect(edited.body).toMatchObject({ familyNote: 'Edited note.', status: 'draft' });
@@ -314,7 +314,7 @@ describe('drafts, edits and signing', () => {
   it('a draft is the clinicians\' working copy: the athlete, guardian and coach do not see it until it is signed', async () => {
     const w = await world();
     const athlete = w.org.athlete;
-    const draft = await draftLetter(w, athlete.membershipId, { effectiveFrom: '2026-03-20' });
+    const draft = await draftLetter(w, athlete.membershipId, { effectiveFrom: '2026-03-20', validUntil: null });
     const viewers: [string, Client][] = [['athlete', await w.as('athlete')], ['guardian', await w.as('guardian')], ['coach', await w.as('coach')]];
     const ids = async (c: Client) => {
       const list = await c.get(`${w.base}/letters?athleteId=${athlete.membershipId}`);
@@ -393,6 +393,30 @@ describe('a letter signed to start later', () => {
     expect(byId[c.id]).toMatchObject({ status: 'signed', supersededBy: null });
     expect((await check(b.verificationCode)).body.status).toBe('superseded');
     expect((await check(c.verificationCode)).body.status).toBe('valid');
+  });
+});
+
+describe('a letter past its valid-until day', () => {
+  it('lists as expired and checks expired; the day itself is still in force; a superseded one stays superseded', async () => {
+    const w = await world();
+    const athlete = await freshAthlete(w);
+    const today = todayIso();
+    const old = await signedLetter(w, athlete.membershipId, { effectiveFrom: plusDays(today, -60), validUntil: plusDays(today, -40) });
+    const a = await signedLetter(w, athlete.membershipId, { effectiveFrom: plusDays(today, -30), validUntil: today });
+    const standings = async () => {
+      const list = await (await w.as('guardian')).get(`${w.base}/letters?athleteId=${athlete.membershipId}`);
+      expect(list.status).toBe(200);
+      return Object.fromEntries(list.body.map((l: { id: string; status: string }) => [l.id, l.status]));
+    };
+
+    // Valid until today: still in force today.
+    expect(await standings()).toEqual({ [old.id]: 'superseded', [a.id]: 'signed' });
+    expect((await check(a.verificationCode)).body.status).toBe('valid');
+
+    await h.ds.query(`UPDATE clearance_letters SET valid_until = $2 WHERE id = $1`, [a.id, plusDays(today, -1)]);
+    expect(await standings()).toEqual({ [old.id]: 'superseded', [a.id]: 'expired' });
+    expect((await check(a.verificationCode)).body).toMatchObject({ status: 'expired', validUntil: plusDays(today, -1) });
+    expect((await check(old.verificationCode)).body.status).toBe('superseded');
   });
 });
 
@@ -546,6 +570,8 @@ describe('the public check page', () => {
   let w: World;
   let athlete: MemberRef;
   let first: Awaited<ReturnType<typeof signLetter>>;
+  // Its review is still ahead, so the letter is in force whenever the test runs.
+  const until = plusDays(todayIso(), 60);
   beforeAll(async () => {
     w = await world();
     athlete = await freshAthlete(w, 'Maya Lindqvist-Ortega');
@@ -553,7 +579,7 @@ describe('the public check page', () => {
       athleteId: athlete.membershipId, bodyRegions: ['lower_leg_left'], onsetDate: '2026-01-10', diagnosis: DIAGNOSIS, clinicalNotes: NOTES, status: 'limited', statusEffectiveFrom: '2026-01-11', statusNote: PAIN,
     });
     expect(c.status, JSON.stringify(c.body)).toBe(201);
-    first = await signedLetter(w, athlete.membershipId, { decision: 'limited', limits: ['Sprint: not allowed for now'], effectiveFrom: '2026-03-09', validUntil: '2026-04-09' });
+    first = await signedLetter(w, athlete.membershipId, { decision: 'limited', limits: ['Sprint: not allowed for now'], effectiveFrom: '2026-03-09', validUntil: until });
   });
 
   it('a signed letter checks valid, with initials, decision, dates, organization and issue date only', async () => {
@@ -567,7 +593,7 @@ describe('the public check page', () => {
       athleteInitials: initials(athlete.name),
       decision: 'Limited participation from 9 March 2026',
       effectiveFrom: '2026-03-09',
-      validUntil: '2026-04-09',
+      validUntil: until,
       organizationName: org.name,
       issuedOn: (signedAt as Date).toISOString().slice(0, 10),
     });
@@ -585,7 +611,7 @@ describe('the public check page', () => {
     expect((await check(typed)).body.status).toBe('valid');
     expect((await check(first.verificationCode.replace(/-/g, ' '))).body.status).toBe('valid');
     // Look-alikes, on a letter whose code is known to hold 0s and 1s.
-    const lookAlike = await signedLetter(w, (await freshAthlete(w)).membershipId);
+    const lookAlike = await signedLetter(w, (await freshAthlete(w)).membershipId, { validUntil: null });
     await h.ds.query(`UPDATE clearance_letters SET code_hash = $2 WHERE id = $1`, [lookAlike.id, hashCode('0A1B-0C1D-00EF-11GH-0101')]);
     expect((await check('oa1b-OcId-ooef-lLgh-oIoL')).body.status).toBe('valid');
     expect((await check('oa1b-OcId-ooef-lLgh-oIoM')).body.status).toBe('unknown');

@@ -3,7 +3,7 @@ import type { LetterCheckDto } from '../../../../../policies/dto';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query-keys';
 
-const STATUSES: readonly LetterCheckDto['status'][] = ['valid', 'scheduled', 'superseded', 'unknown'];
+const STATUSES: readonly LetterCheckDto['status'][] = ['valid', 'scheduled', 'expired', 'superseded', 'unknown'];
 
 const text = (value: unknown): string | undefined => (typeof value === 'string' && value.trim() ? value : undefined);
 
@@ -35,7 +35,7 @@ export function getLetterCheckQueryOptions(code: string) {
   return queryOptions({
     queryKey: queryKeys.letterCheck(code),
     queryFn: () => checkLetter(code),
-    // A letter's standing changes only on a start date or when a later one is signed; a fresh visit asks again.
+    // A letter's standing changes only on a start date, after its valid-until date or when a later one is signed; a fresh visit asks again.
     staleTime: 60_000,
     retry: false,
   });

@@ -23,9 +23,20 @@ export function useLetters(orgId: string, athleteId: string | null, options: { f
   });
 }
 
-/** The letter in force: the server marks at most one 'signed' per athlete (the latest-signed that has started). */
+/**
+ * The letter in force: the server marks at most one 'signed' per athlete (the latest-signed that has
+ * started, while its valid-until date has not passed). An expired letter is not in force.
+ */
 export function currentLetter(letters: LetterDto[]): LetterDto | null {
   return letters.find((l) => l.status === 'signed') ?? null;
+}
+
+/**
+ * The latest-signed letter that has started but is past its valid-until date: the one that would be in
+ * force, so a new letter is needed. The server marks at most one per athlete, and never beside a 'signed' one.
+ */
+export function expiredLetter(letters: LetterDto[]): LetterDto | null {
+  return letters.find((l) => l.status === 'expired') ?? null;
 }
 
 /**

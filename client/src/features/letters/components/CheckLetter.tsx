@@ -82,6 +82,12 @@ const ANSWERS: Record<LetterCheckDto['status'], { heading: string; shape: SealSh
     text: (r) =>
       `Signed, takes effect on ${r.effectiveFrom ? describeDate(r.effectiveFrom) : 'its start date'}. The letter is genuine; until that date the athlete’s earlier letter, if there is one, stays in force.`,
   },
+  expired: {
+    heading: 'Expired',
+    shape: 'expired',
+    text: (r) =>
+      `This letter was valid until ${r.validUntil ? describeDate(r.validUntil) : 'its review date'}. Ask the athlete’s clinician for a current letter.`,
+  },
   superseded: {
     heading: 'Superseded',
     shape: 'superseded',

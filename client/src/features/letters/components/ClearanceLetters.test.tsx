@@ -151,4 +151,19 @@ describe('ClearanceLetters', () => {
     expect(screen.queryByText(/Earlier letters, superseded/)).not.toBeInTheDocument();
     expect(scheduledRecord.compareDocumentPosition(inForceRecord) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
   });
+
+  it('shows a letter past its valid-until date as expired, not in force, and asks for a new letter', async () => {
+    const expired: LetterDto = { ...draft, id: 'l-x', status: 'expired', signature: 'Priya Raman', signedAt: '2026-03-12T15:00:00.000Z', version: 2 };
+    fetchMock.mockResolvedValue(jsonResponse(200, [expired]));
+    const { container } = renderSection();
+
+    const mark = await screen.findByRole('img', { name: 'Letter status: Expired — past its valid-until date; a new letter is needed' });
+    const record = mark.closest('article')!;
+    expect(
+      within(record).getByText('This letter was valid until 13 April 2026 and has expired, so no letter is in force. Write a new letter if Maya Torres is still cleared.'),
+    ).toBeInTheDocument();
+    expect(record.querySelector('svg[data-shape="expired"]')).not.toBeNull();
+    expect(screen.queryByRole('img', { name: /Letter status: Signed/ })).not.toBeInTheDocument();
+    expect(container.querySelectorAll('article')).toHaveLength(1);
+  });
 });

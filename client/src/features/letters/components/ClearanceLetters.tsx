@@ -6,7 +6,7 @@ import { useCurrentMembership } from '../../../lib/membership-context';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading, Panel } from '../../../components/ui/Panel';
-import { currentLetter, scheduledLetters, useLetters } from '../api/get-letters';
+import { currentLetter, expiredLetter, scheduledLetters, useLetters } from '../api/get-letters';
 import { DraftLetter } from './DraftLetter';
 import { LetterCaution } from './LetterCaution';
 import { LetterRecord } from './LetterRecord';
@@ -16,7 +16,7 @@ import { WriteLetterForm } from './WriteLetterForm';
 /**
  * The clinician's "Clearance letters" section for one athlete: drafts (editable, previewable,
  * signable), letters signed to start later, the letter in force with its deliveries and
- * acknowledgements, and earlier letters.
+ * acknowledgements (or the expired one that was, asking for a new letter), and earlier letters.
  */
 export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: string; athleteId: string; athleteName: string }) {
   const { user } = useCurrentMembership();
@@ -32,6 +32,7 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
   const all = letters.data ?? [];
   const drafts = all.filter((l) => l.status === 'draft');
   const current = currentLetter(all);
+  const expired = expiredLetter(all);
   const upcoming = scheduledLetters(all);
   const earlier = all.filter((l) => l.status === 'superseded');
   const mine = all.find((l) => l.clinicianName === user.displayName);
@@ -95,6 +96,7 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
               <LetterRecord key={l.id} orgId={orgId} letter={l} />
             ))}
             {current && <LetterRecord orgId={orgId} letter={current} />}
+            {expired && <LetterRecord orgId={orgId} letter={expired} />}
             {earlier.length > 0 && (
               <details className="rounded-md border border-rule">
                 <summary className="cursor-pointer px-3 py-2 text-sm font-semibold">

@@ -4,15 +4,16 @@ import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { isApiError } from '../../../lib/api-client';
-import { currentLetter, letterPdfHref, scheduledLetters, useLetters } from '../api/get-letters';
+import { currentLetter, expiredLetter, letterPdfHref, scheduledLetters, useLetters } from '../api/get-letters';
+import { LetterStatusMark } from './LetterMarks';
 import { LimitsList } from './LetterRecord';
-import { dayOf, letterDates, takesEffect } from './letter-words';
+import { dayOf, letterDates, takesEffect, validUntilWords } from './letter-words';
 import { nameWithCredential } from '../../../../../policies/letters';
 import { describeDate } from '../../../../../policies/load/describe';
 
 /**
- * The letter in force, for the athlete (their own) and the coach (a care-team athlete): decision,
- * dates, limits and the PDF. A letter signed to start later is named beneath it (or shown on its own,
+ * The letter in force (or the expired one, said so), for the athlete (their own) and the coach
+ * (a care-team athlete): decision, dates, limits and the PDF. A letter signed to start later is named beneath it (or shown on its own,
  * said so, when none is in force yet). Drafts never show here; the section stays out for a reader
  * refused the letters.
  */
@@ -25,9 +26,11 @@ export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; a
     );
   }
   const current = currentLetter(letters.data);
+  // An expired letter is not in force, but it is the latest word: shown, said so, until a new one is signed.
+  const shown = current ?? expiredLetter(letters.data);
   const next = scheduledLetters(letters.data)[0];
-  if (!current && next) return <LetterSummary orgId={orgId} letter={next} audience={audience} />;
-  if (!current) {
+  if (!shown && next) return <LetterSummary orgId={orgId} letter={next} audience={audience} />;
+  if (!shown) {
     return (
       <p className="text-sm text-ink-2">
         {audience === 'athlete'
@@ -38,10 +41,11 @@ export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; a
   }
   return (
     <div className="space-y-3">
-      <LetterSummary orgId={orgId} letter={current} audience={audience} />
+      <LetterSummary orgId={orgId} letter={shown} audience={audience} />
       {next && (
         <p className={audience === 'athlete' ? 'text-base font-semibold' : 'text-sm font-semibold'}>
-          A new letter is signed and takes effect on {describeDate(next.effectiveFrom)}; this one stays in force until then.
+          A new letter is signed and takes effect on {describeDate(next.effectiveFrom)}
+          {current ? '; this one stays in force until then.' : '.'}
         </p>
       )}
     </div>
@@ -55,6 +59,15 @@ function LetterSummary({ orgId, letter, audience }: { orgId: string; letter: Let
       <p className={audience === 'athlete' ? 'text-base' : 'text-sm'}>{letterDates(letter)}.</p>
       {letter.status === 'scheduled' && (
         <p className={audience === 'athlete' ? 'text-base font-semibold' : 'text-sm font-semibold'}>{takesEffect(letter)}.</p>
+      )}
+      {letter.status === 'expired' && (
+        <>
+          <LetterStatusMark status="expired" />
+          <p className={audience === 'athlete' ? 'text-base font-semibold' : 'text-sm font-semibold'}>
+            {validUntilWords(letter)} and has expired.{' '}
+            {audience === 'athlete' ? 'Ask your clinician for a new letter.' : 'No letter is in force until the clinician signs a new one.'}
+          </p>
+        </>
       )}
       {letter.decision === 'limited' && <LimitsList limits={letter.limits} large={audience === 'athlete'} />}
       {audience === 'athlete' && letter.familyNote && (

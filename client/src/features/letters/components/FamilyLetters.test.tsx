@@ -88,5 +88,17 @@ describe('FamilyLetters', () => {
     expect(within(upcoming).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', '/api/orgs/org-1/letters/l-3/pdf');
     expect(screen.queryByText(/Earlier letters/)).not.toBeInTheDocument();
   });
-});
 
+  it('shows a letter past its valid-until date as expired, saying a new letter is needed', async () => {
+    fetchMock.mockResolvedValue(jsonResponse(200, [letter({ status: 'expired' })]));
+    renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
+
+    const card = await screen.findByRole('article', { name: 'Clearance letter for Maya' });
+    expect(within(card).getByRole('img', { name: /^Letter status: Expired — / })).toBeInTheDocument();
+    expect(card.querySelector('svg[data-shape="expired"]')).not.toBeNull();
+    expect(
+      within(card).getByText('This letter was valid until 13 April 2026 and has expired: it no longer clears Maya. The clinician needs to sign a new letter.'),
+    ).toBeInTheDocument();
+    expect(screen.queryByRole('img', { name: /Letter status: Signed/ })).not.toBeInTheDocument();
+  });
+});

@@ -6,17 +6,17 @@ import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { useAcknowledgeLetter } from '../api/acknowledge-letter';
-import { currentLetter, letterPdfHref, scheduledLetters, useLetters } from '../api/get-letters';
+import { currentLetter, expiredLetter, letterPdfHref, scheduledLetters, useLetters } from '../api/get-letters';
 import { LetterCaution } from './LetterCaution';
 import { LetterStatusMark } from './LetterMarks';
 import { LimitsList } from './LetterRecord';
-import { DECISION_WORDS, dayOf, letterDates, takesEffect } from './letter-words';
+import { DECISION_WORDS, dayOf, letterDates, takesEffect, validUntilWords } from './letter-words';
 import { nameWithCredential } from '../../../../../policies/letters';
 
 /**
- * "Letters" on the guardian's phone: the letter in force for each linked athlete, large and plain,
- * with the PDF and "I have read this letter", then any letter signed to start later (said so on it).
- * Earlier, superseded letters fold away beneath.
+ * "Letters" on the guardian's phone: the letter in force (or the expired one, said so) for each linked
+ * athlete, large and plain, with the PDF and "I have read this letter", then any letter signed to start
+ * later (said so on it). Earlier, superseded letters fold away beneath.
  */
 export function FamilyLetters({
   orgId,
@@ -47,6 +47,7 @@ export function FamilyLetters({
           athletes.map((athlete) => {
             const theirs = letters.data.filter((l) => l.athleteId === athlete.id && l.status !== 'draft');
             const current = currentLetter(theirs);
+            const expired = expiredLetter(theirs);
             const upcoming = scheduledLetters(theirs);
             const earlier = theirs.filter((l) => l.status === 'superseded');
             return (
@@ -59,6 +60,7 @@ export function FamilyLetters({
                 ) : (
                   <>
                     {current && <FamilyLetter orgId={orgId} letter={current} guardianId={guardianId} name={athlete.name} />}
+                    {expired && <FamilyLetter orgId={orgId} letter={expired} guardianId={guardianId} name={athlete.name} />}
                     {upcoming.map((l) => (
                       <FamilyLetter key={l.id} orgId={orgId} letter={l} guardianId={guardianId} name={athlete.name} afterCurrent={!!current} />
                     ))}
@@ -124,6 +126,11 @@ function FamilyLetter({
         {name}: {DECISION_WORDS[letter.decision].toLowerCase()}
       </p>
       <p className="text-base tabular-nums">{letterDates(letter)}.</p>
+      {letter.status === 'expired' && (
+        <p className="text-base font-semibold">
+          {validUntilWords(letter)} and has expired: it no longer clears {name}. The clinician needs to sign a new letter.
+        </p>
+      )}
       {letter.status === 'scheduled' && (
         <p className="text-base font-semibold">
           {takesEffect(letter)}.{afterCurrent && ' Until then, the letter above stays in force.'}

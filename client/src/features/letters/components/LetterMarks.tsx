@@ -1,13 +1,13 @@
 import { cx } from '../../../components/ui/cx';
 import { LETTER_STATUS_MEANING, LETTER_STATUS_WORDS, type LetterStatus } from './letter-words';
 
-export type SealShape = 'signed' | 'scheduled' | 'draft' | 'superseded' | 'unknown';
+export type SealShape = 'signed' | 'scheduled' | 'draft' | 'expired' | 'superseded' | 'unknown';
 
 /**
  * A letter's standing as a round seal, so it never reads as a participation status (those are
  * squares): solid with a tick when signed and in force, open with a tick when signed but not yet in
- * force, dashed when a draft, struck through when superseded, and open with a question mark when no
- * letter matches.
+ * force, dashed when a draft, open with clock hands when past its valid-until date, struck through when
+ * superseded, and open with a question mark when no letter matches.
  */
 export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) {
   return (
@@ -24,6 +24,11 @@ export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) 
         </>
       ) : shape === 'draft' ? (
         <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" strokeDasharray="3.2 2.6" />
+      ) : shape === 'expired' ? (
+        <>
+          <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" />
+          <path d="M12 6.5 V12 L16 14.5" fill="none" stroke="currentColor" strokeWidth="2.4" strokeLinecap="round" strokeLinejoin="round" />
+        </>
       ) : shape === 'superseded' ? (
         <>
           <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" />
@@ -40,7 +45,7 @@ export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) 
   );
 }
 
-/** Draft, Signed (not yet in force), Signed or Superseded: a word plus a seal, never colour alone. */
+/** Draft, Signed (not yet in force), Signed, Expired or Superseded: a word plus a seal, never colour alone. */
 export function LetterStatusMark({ status, className }: { status: LetterStatus; className?: string }) {
   const word = LETTER_STATUS_WORDS[status];
   return (

@@ -6,9 +6,9 @@ import { cx } from '../../../components/ui/cx';
 import { Facts } from '../../../components/ui/Panel';
 import { letterPdfHref } from '../api/get-letters';
 import { LetterStatusMark } from './LetterMarks';
-import { DECISION_WORDS, dayOf, deliveryWords, takesEffect, type Delivery } from './letter-words';
+import { DECISION_WORDS, dayOf, deliveryWords, takesEffect, validUntilWords, type Delivery } from './letter-words';
 
-/** A signed, scheduled or superseded letter as the care team's record: contents, who it went to, who has read it. */
+/** A signed, scheduled, expired or superseded letter as the care team's record: contents, who it went to, who has read it. */
 export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; letter: LetterDto; supersededBy?: LetterDto | null }) {
   const headingId = useId();
   return (
@@ -22,6 +22,12 @@ export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; l
       </header>
       {letter.status === 'scheduled' && (
         <p className="mb-3 text-sm text-ink-2">{takesEffect(letter)}. Until then, any earlier letter stays in force.</p>
+      )}
+      {letter.status === 'expired' && (
+        <p className="mb-3 text-sm font-semibold">
+          {validUntilWords(letter)} and has expired, so no letter is in force. Write a new letter if {letter.athleteName || 'the athlete'} is
+          still cleared.
+        </p>
       )}
       {letter.status === 'superseded' && (
         <p className="mb-3 text-sm text-ink-2">

@@ -20,6 +20,7 @@ export const LETTER_STATUS_WORDS: Record<LetterStatus, string> = {
   draft: 'Draft',
   scheduled: 'Signed, not yet in force',
   signed: 'Signed',
+  expired: 'Expired',
   superseded: 'Superseded',
 };
 
@@ -27,6 +28,7 @@ export const LETTER_STATUS_MEANING: Record<LetterStatus, string> = {
   draft: 'not signed, not sent, can still change',
   scheduled: 'signed and sent; takes effect on its start date',
   signed: 'signed, sent and in force',
+  expired: 'past its valid-until date; a new letter is needed',
   superseded: 'replaced by a later letter',
 };
 
@@ -40,6 +42,11 @@ export function letterDates(letter: Pick<LetterDto, 'effectiveFrom' | 'validUnti
 /** "Signed, takes effect on 9 December 2026": a signed letter whose start date is still ahead. */
 export function takesEffect(letter: Pick<LetterDto, 'effectiveFrom'>): string {
   return `Signed, takes effect on ${describeDate(letter.effectiveFrom)}`;
+}
+
+/** "This letter was valid until 30 June 2026": said on an expired letter, before what to do next. */
+export function validUntilWords(letter: Pick<LetterDto, 'validUntil'>): string {
+  return `This letter was valid until ${letter.validUntil ? describeDate(letter.validUntil) : 'its review date'}`;
 }
 
 /** A recipient's delivery in words: sent, waiting, or failed with the reason. */
