@@ -49,10 +49,10 @@ export function ExerciseBlock({
     <li className="rounded-lg border border-rule bg-sheet p-3">
       <div className="mb-2 flex flex-wrap items-start justify-between gap-2">
         <div className="min-w-0">
-          <h4 className="font-bold">
+          <h3 className="font-bold">
             <span className="mr-1.5 text-muted tabular-nums">{index + 1}.</span>
             {name}
-          </h4>
+          </h3>
           <p className="text-xs text-muted">
             {exercise ? patternWords(exercise) : 'not in the library'}
             {exercise?.ballistic && ' · impact'}

@@ -25,7 +25,7 @@ export function WeeksView({
     <ol aria-label="Weeks" className="space-y-3">
       {weeks.map((week) => (
         <li key={week.monday}>
-          <h3 className="text-sm font-bold tabular-nums">{weekLabel(week.monday)}</h3>
+          <h2 className="text-sm font-bold tabular-nums">{weekLabel(week.monday)}</h2>
           <ul className="mt-1 divide-y divide-rule rounded-md border border-rule bg-sheet">
             {week.items.map((s) => {
               const over = s.status === 'draft' ? overCap(s) : 0;
