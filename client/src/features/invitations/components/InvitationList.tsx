@@ -38,7 +38,8 @@ export function InvitationList({ orgId, show }: { orgId: string; show: 'pending'
       <div
         role="region"
         tabIndex={0}
-        aria-label={show === 'pending' ? 'Pending invitations' : 'Earlier invitations'}
+        // Named apart from the panel around it, which carries the plain title: two landmarks, two names.
+        aria-label={show === 'pending' ? 'Table of pending invitations' : 'Table of earlier invitations'}
         className="overflow-x-auto rounded-lg border border-rule bg-sheet"
       >
         <table className="w-full min-w-[40rem] border-collapse text-left text-sm">
