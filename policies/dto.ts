@@ -17,6 +17,8 @@ export interface MembershipSummaryDto {
   id: string;
   organizationId: string;
   organizationName: string;
+  /** The organization's IANA time zone: "today" on every screen is its local day (policies/today.ts). */
+  timeZone: string;
   roles: Role[];
   /** What the client needs to build the same CASL ability the server uses. */
   actor: Actor;

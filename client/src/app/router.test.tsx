@@ -31,6 +31,7 @@ function sessionFor(roles: Role[], actor: Partial<Actor> = {}): SessionDto {
         id: 'm-theo',
         organizationId: ORG,
         organizationName: 'Harbor Point Performance',
+        timeZone: 'UTC',
         roles,
         actor: {
           userId: 'u1',

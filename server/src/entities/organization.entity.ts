@@ -16,6 +16,10 @@ export class Organization {
   @Column('boolean', { name: 'guardians_see_clips', default: false })
   guardiansSeeClips: boolean;
 
+  /** IANA zone whose calendar day is "today" for everyone in the organization (policies/today.ts). */
+  @Column('varchar', { name: 'time_zone', length: 64, default: 'UTC' })
+  timeZone: string;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 

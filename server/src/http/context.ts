@@ -1,29 +1,17 @@
 import type { Request, Response } from 'express';
-import type { DataSource, EntityManager } from 'typeorm';
-import type { Logger } from 'pino';
 import type { buildPassport as buildPassportType } from './security';
-import type { JobQueue } from '../jobs/queue';
 import type { AppAbility } from '../../../policies/access';
-import type { Config } from '../config';
 import type { User } from '../entities';
 import type { ActorWithOrg } from '../services/actor';
-import type { ObjectStorage } from '../storage';
-import { appendAudit, type AuditInput } from '../services/audit';
+import type { AnyCommand, Command, CommandCtx, CoreDeps, OrgCommandCtx, Query } from '../core/command';
+import type { TxFn } from '../core/tx';
+import type { DataSource } from 'typeorm';
+export { makeTx, type AuditFn, type TxFn } from '../core/tx';
 
-export interface Deps {
-  ds: DataSource;
-  config: Config;
-  logger: Logger;
+/** The core's dependencies plus what only the HTTP layer uses (passport). */
+export interface Deps extends CoreDeps {
   passport: ReturnType<typeof buildPassportType>;
-  /** The job queue, when e-mail is configured. */
-  jobs: JobQueue | null;
-  /** Where uploaded files live (local disk or the S3 API). */
-  storage: ObjectStorage;
 }
-
-/** Writes an audit entry in the surrounding transaction; actor, organization and request id are filled in. */
-export type AuditFn = (entry: Omit<AuditInput, 'requestId' | 'actorUserId' | 'organizationId'> & Partial<AuditInput>) => Promise<void>;
-export type TxFn = <T>(work: (m: EntityManager, audit: AuditFn) => Promise<T>) => Promise<T>;
 
 export interface BaseCtx<P, Q, B> {
   req: Request;
@@ -37,15 +25,18 @@ export interface BaseCtx<P, Q, B> {
   body: B;
   /** Runs `work` in one transaction; entries written through its `audit` commit or roll back with it. */
   tx: TxFn;
+  /** Runs a command that needs no membership (sign-in, reset…) in a transaction of its own. */
+  run<I, O>(cmd: Command<I, O, CommandCtx>, input: I, organizationId?: string | null): Promise<O>;
 }
 
-export interface OrgCtx<P, Q, B> extends BaseCtx<P, Q, B> {
+export interface OrgCtx<P, Q, B> extends Omit<BaseCtx<P, Q, B>, 'run'> {
   user: User;
   actor: ActorWithOrg;
   ability: AppAbility;
+  /** Runs one of the route's declared commands as this member, in a transaction of its own. */
+  run<I, O>(cmd: Command<I, O, OrgCommandCtx>, input: I): Promise<O>;
+  /** Runs a read as this member (their ability filters it; their organization's today). */
+  read<I, O>(q: Query<I, O>, input: I): Promise<O>;
 }
 
-export function makeTx(ds: DataSource, requestId: string, actorUserId: string | null, organizationId: string | null): TxFn {
-  return (work) =>
-    ds.transaction((m) => work(m, (entry) => appendAudit(m, { organizationId, actorUserId, requestId, ...entry })));
-}
+export type { AnyCommand };

@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ErrorBody } from '../../../policies/dto';
 import type { Deps } from './context';
-import { AppError } from './errors';
+import { AppError } from '../core/errors';
 import { appendAudit } from '../services/audit';
 import type { ActorWithOrg } from '../services/actor';
 

@@ -4,9 +4,11 @@ import { defineAbilityFor, type Action, type SubjectName } from '../../../polici
 import { OrgParamsSchema } from '../../../policies/schemas';
 import type { User } from '../entities';
 import { loadActor } from '../services/actor';
-import { AppError, fromZod } from './errors';
+import { AppError, fromZod } from '../core/errors';
+import { refusalMessage } from '../core/authorize';
 import { loadedActor } from './security';
-import { makeTx, type BaseCtx, type Deps, type OrgCtx } from './context';
+import { makeTx, type AnyCommand, type BaseCtx, type Deps, type OrgCtx } from './context';
+import { runOrgCommand, runOrgQuery, runPublicCommand } from '../commands/run';
 
 /**
  * Every route says who may call it. There is no default: a route without `access` does not compile.
@@ -34,6 +36,11 @@ interface RouteBase<P, Q, B> {
   body?: B;
   /** Runs before the session check, e.g. sign-in rate limits. */
   before?: RequestHandler[];
+  /**
+   * The commands this route may run (server/src/commands). A write route must name at least one:
+   * every write goes through a command, and the route table shows which ones change limits.
+   */
+  command?: AnyCommand | AnyCommand[];
   status?: number;
 }
 
@@ -64,6 +71,8 @@ export interface RouteTableRow {
   method: string;
   path: string;
   access: string;
+  /** The commands the route runs, by name; `!` marks one that changes limits (commands/limits.ts). */
+  commands: string[];
 }
 
 /** Route → required access, for review: the snapshot test makes any change to it visible. */
@@ -85,8 +94,12 @@ const OrgIdOnly = OrgParamsSchema.partial().passthrough();
 export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void {
   for (const def of defs) {
     const fullPath = `/api${def.path}`;
+    const declared = def.command === undefined ? [] : Array.isArray(def.command) ? def.command : [def.command];
+    const mayRun = (name: string) => {
+      if (!declared.some((c) => c.name === name)) throw new Error(`${def.method.toUpperCase()} ${fullPath} runs ${name} without declaring it`);
+    };
     if (!ROUTE_TABLE.some((r) => r.method === def.method.toUpperCase() && r.path === fullPath)) {
-      ROUTE_TABLE.push({ method: def.method.toUpperCase(), path: fullPath, access: accessLabel(def.access) });
+      ROUTE_TABLE.push({ method: def.method.toUpperCase(), path: fullPath, access: accessLabel(def.access), commands: declared.map((c) => (c.changesLimits ? `${c.name}!` : c.name)) });
     }
     const handler = asyncHandler(async (req, res) => {
       const requestId = String(req.id);
@@ -121,7 +134,23 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
       const query = parse(def.query, req.query, 'query');
       const body = parse(def.body, req.body, 'body');
       const organizationId = orgCtx?.actor.organizationId ?? null;
+      const caller = { deps, requestId, userId: user?.id ?? null };
+      const run = orgCtx
+        ? (cmd: AnyCommand, input: unknown) => {
+            mayRun(cmd.name);
+            return runOrgCommand(cmd, { ...caller, userId: user!.id, actor: orgCtx.actor, ability: orgCtx.ability }, input);
+          }
+        : (cmd: AnyCommand, input: unknown, org: string | null = null) => {
+            mayRun(cmd.name);
+            return runPublicCommand(cmd, caller, input, org);
+          };
+      const read = orgCtx
+        ? (q: Parameters<typeof runOrgQuery>[0], input: unknown) =>
+            runOrgQuery(q, { ...caller, userId: user!.id, actor: orgCtx.actor, ability: orgCtx.ability }, input)
+        : undefined;
       const ctx = {
+        run,
+        read,
         req,
         res,
         deps,
@@ -142,39 +171,3 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
     router[def.method](def.path, ...(def.before ?? []), handler);
   }
 }
-
-const SUBJECT_WORDS: Record<SubjectName, string> = {
-  Organization: 'organization settings',
-  User: 'accounts',
-  Membership: 'people and roles',
-  Athlete: 'athlete profiles',
-  Invitation: 'invitations',
-  CareTeamAssignment: 'care teams',
-  GuardianLink: 'guardian links',
-  AuditEntry: 'the audit trail',
-  AuditChain: 'the audit chain check',
-  Case: 'cases',
-  ParticipationStatus: 'participation status',
-  RestrictionPlan: 'restriction plans',
-  PainReport: 'pain reports',
-  CheckIn: 'check-ins',
-  TrainingLog: 'training logs',
-  Flag: 'flags',
-  Notification: 'notices',
-  Exercise: 'the exercise library',
-  Baseline: 'baselines',
-  Program: 'programs',
-  ProgramException: 'exceptions',
-  Letter: 'clearance letters',
-  LetterAcknowledgement: 'letter acknowledgements',
-  Outbox: 'the test outbox',
-  CaseDocument: 'case documents',
-  Clip: 'technique clips',
-  ClipNote: 'notes on clips',
-};
-
-export function refusalMessage(action: Action, subject: SubjectName): string {
-  const verb = action === 'read' ? 'see' : action === 'create' ? 'add to' : action === 'delete' ? 'remove from' : 'change';
-  return `Your role does not allow you to ${verb} ${SUBJECT_WORDS[subject]}. Ask an admin of your organization if you need this.`;
-}
-

@@ -11,7 +11,7 @@ import { PgRateLimitStore } from './rate-limit-store';
 import type { Deps } from './context';
 import { User } from '../entities';
 import { actorsFromJson, actorsJsonSql, type ActorRow, type ActorWithOrg } from '../services/actor';
-import { AppError } from './errors';
+import { AppError } from '../core/errors';
 
 declare module 'express-session' {
   interface SessionData {

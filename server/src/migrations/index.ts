@@ -7,6 +7,7 @@ import { CreateLettersAndMail1765100000000 } from './1765100000000-create-letter
 import { CreateUploads1765200000000 } from './1765200000000-create-uploads';
 import { AddAccountSecurity1765300000000 } from './1765300000000-add-account-security';
 import { AddRateLimits1765400000000 } from './1765400000000-add-rate-limits';
+import { AddOrganizationTimeZone1765500000000 } from './1765500000000-add-organization-time-zone';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -19,4 +20,5 @@ export const MIGRATIONS = [
   CreateUploads1765200000000,
   AddAccountSecurity1765300000000,
   AddRateLimits1765400000000,
+  AddOrganizationTimeZone1765500000000,
 ];

@@ -7,6 +7,7 @@ export interface ActorRow {
   organization_id: string;
   organization_name: string;
   guardians_see_clips: boolean;
+  time_zone: string;
   roles: Role[];
   coach_of: string[];
   clinician_of: string[];
@@ -21,7 +22,7 @@ export interface ActorRow {
  * database on each request).
  */
 const actorSql = (userId: string) => `
-  SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, o.guardians_see_clips, m.roles,
+  SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, o.guardians_see_clips, o.time_zone, m.roles,
     CASE WHEN 'coach' = ANY(m.roles) THEN COALESCE((
       SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
       WHERE c.member_id = m.id AND c.role = 'coach' AND (SELECT a.active FROM memberships a WHERE a.id = c.athlete_id)), '{}') ELSE '{}' END AS coach_of,
@@ -47,6 +48,8 @@ export function actorsFromJson(userId: string, rows: ActorRow[]): ActorWithOrg[]
 
 export interface ActorWithOrg extends Actor {
   organizationName: string;
+  /** The organization's IANA time zone: its calendar day is everyone's "today" (policies/today.ts). */
+  timeZone: string;
 }
 
 function toActor(userId: string, row: ActorRow): ActorWithOrg {
@@ -54,6 +57,7 @@ function toActor(userId: string, row: ActorRow): ActorWithOrg {
     userId,
     organizationId: row.organization_id,
     organizationName: row.organization_name,
+    timeZone: row.time_zone,
     membershipId: row.membership_id,
     roles: row.roles,
     coachOf: row.coach_of,

@@ -4,7 +4,7 @@ import type { CaseDto, CaseloadRowDto, PlanVersionDto, StatusChangeDto } from '.
 import type { PlanInput } from '../../../policies/load/in-force';
 import type { ParticipationStatus } from '../../../policies/load/patterns';
 import { ageOn, isMinor } from '../../../policies/roles';
-import { accessibleWhere } from '../http/accessible';
+import { accessibleWhere } from '../core/accessible';
 import { pickPermitted } from './fields';
 import type { RestrictionPlanVersion } from '../entities';
 

@@ -4,8 +4,8 @@ import bcrypt from 'bcryptjs';
 import type { InvitationDto, InvitationStatus } from '../../../policies/dto';
 import type { InvitationAcceptInput } from '../../../policies/schemas';
 import { AthleteProfile, Invitation, Membership, User } from '../entities';
-import { AppError } from '../http/errors';
-import type { AuditFn } from '../http/context';
+import { AppError } from '../core/errors';
+import type { AuditFn } from '../core/tx';
 import { assertAcceptablePassword, hashPassword } from './passwords';
 
 /** 256 random bits, URL-safe. Only its SHA-256 is stored, so a database leak reveals no live link. */

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Role } from '../../../policies/roles';
 import { Membership } from '../entities';
-import { AppError } from '../http/errors';
+import { AppError } from '../core/errors';
 
 /**
  * Loads an active member of this organization who holds `role`, or refuses with a message naming

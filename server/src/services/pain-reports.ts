@@ -3,9 +3,9 @@ import { BODY_REGION_LABELS } from '../../../policies/body-regions';
 import type { PainReportCreateInput } from '../../../policies/schemas';
 import { flaggedItems, routeReport, type ReportRoute } from '../../../policies/red-flags';
 import { CaseRecord, Flag, PainReport, ParticipationStatusChange } from '../entities';
-import type { AuditFn } from '../http/context';
+import type { AuditFn } from '../core/tx';
 import { athleteCircle, notify } from './notify';
-import { recheckAthlete } from './programs';
+import { recheckAthlete } from '../commands/limits';
 
 export interface PainReportOutcome {
   report: PainReport;
@@ -95,7 +95,7 @@ export async function createPainReport(
     report.caseId = await setOut(m, report, ctx.userId, ctx.today, audit);
     report = await m.save(report);
     statusSetToOut = true;
-    await recheckAthlete(m, ctx.organizationId, input.athleteId, 'The athlete reported an emergency warning sign and is Out.');
+    await recheckAthlete(m, ctx.organizationId, input.athleteId, 'The athlete reported an emergency warning sign and is Out.', ctx.today);
     const items = flaggedItems(input.redFlags).filter((i) => i.tier === 'emergency').map((i) => i.question);
     const message = `${ctx.athleteName} answered yes to an emergency warning sign (${where}). They were told to stop and get urgent medical care now, and are set to Out.`;
     // Coaches read flags but never the red-flag answers (PAIN_REPORT_FIELDS): the answers go only in the clinicians' notice.

@@ -1,8 +1,8 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { IsNull, Not } from 'typeorm';
 import { Membership, PasswordResetToken, User } from '../entities';
-import type { Deps } from '../http/context';
-import { AppError } from '../http/errors';
+import type { CoreDeps as Deps } from '../core/command';
+import { AppError } from '../core/errors';
 import { enqueueEmail } from '../mail/deliveries';
 import { emails } from '../../../templates/email/messages';
 import { hashToken, newInvitationToken } from './invitations';

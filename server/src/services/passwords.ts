@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import { dictionary } from '@zxcvbn-ts/language-common';
-import { AppError } from '../http/errors';
+import { AppError } from '../core/errors';
 
 /** zxcvbn-ts's list of ~49,000 common passwords (from breach corpora), loaded once. */
 let common: Set<string> | null = null;

@@ -2,7 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { AppAbility } from '../../../policies/access';
 import type { AthleteProfileDto, CareTeamAssignmentDto, GuardianLinkDto, PersonDto } from '../../../policies/dto';
 import { ageOn, isMinor, todayIso, type CareTeamRole, type Role } from '../../../policies/roles';
-import { accessibleWhere } from '../http/accessible';
+import { accessibleWhere } from '../core/accessible';
 
 type Db = DataSource | EntityManager;
 

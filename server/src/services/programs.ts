@@ -2,16 +2,14 @@ import { createHash } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { AppAbility } from '../../../policies/access';
 import type { PlanInput } from '../../../policies/load/in-force';
-import { checkSets, weekOf, type Breach, type EngineContext, type EngineExercise, type EngineSet } from '../../../policies/load/compliance';
+import { checkSets, type Breach, type EngineContext, type EngineExercise, type EngineSet } from '../../../policies/load/compliance';
 import type { ParticipationStatus } from '../../../policies/load/patterns';
 import type { Unit } from '../../../policies/schemas/common';
 import type { PlannedSetInput, SessionContent } from '../../../policies/schemas/programs';
-import { todayIso } from '../../../policies/roles';
-import { Exercise, ProgramSession, SessionHold } from '../entities';
-import { accessibleWhere } from '../http/accessible';
+import { Exercise, ProgramSession, type SessionHold } from '../entities';
+import { accessibleWhere } from '../core/accessible';
 import { activePlans, mostRestrictive, statusOnOrder } from './cases';
 import { statusOnDate } from '../../../policies/load/status-on';
-import { athleteCircle, notify } from './notify';
 
 /** A set's content, hashed: a granted exception covers the set only while it stays as granted. */
 export function setFingerprint(exerciseId: string, set: PlannedSetInput, date: string): string {
@@ -198,14 +196,21 @@ async function waivedSets(m: EntityManager, athleteId: string, sessions: Pick<Pr
   return out;
 }
 
-export async function engineContext(m: EntityManager, organizationId: string, athleteId: string, sessions: Pick<ProgramSession, 'id' | 'date' | 'content'>[], unit: Unit): Promise<EngineContext> {
-  const [exercises, baselines, plans, statusOn, waived] = await Promise.all([
-    m.find(Exercise, { where: { organizationId } }),
-    currentBaselines(m, athleteId),
-    activePlans(m, [athleteId], todayIso()),
-    statusLookup(m, athleteId),
-    waivedSets(m, athleteId, sessions),
-  ]);
+export async function engineContext(
+  m: EntityManager,
+  organizationId: string,
+  athleteId: string,
+  sessions: Pick<ProgramSession, 'id' | 'date' | 'content'>[],
+  unit: Unit,
+  today: string,
+): Promise<EngineContext> {
+  // One after another: these share the transaction's single connection, and pg refuses (from 9.0)
+  // a query started while another is running on the same client.
+  const exercises = await m.find(Exercise, { where: { organizationId } });
+  const baselines = await currentBaselines(m, athleteId);
+  const plans = await activePlans(m, [athleteId], today);
+  const statusOn = await statusLookup(m, athleteId);
+  const waived = await waivedSets(m, athleteId, sessions);
   return {
     plans: plans.get(athleteId) ?? [],
     exercises: Object.fromEntries(exercises.map((e) => [e.id, toEngineExercise(e)])),
@@ -233,65 +238,19 @@ async function publishedInWeeks(m: EntityManager, athleteId: string, dates: stri
  * Breaches of `sessions` for one athlete: each set on its own date, counting the athlete's other
  * published sessions of the same weeks toward the weekly hard-set limits.
  */
-export async function breachesFor(m: EntityManager, organizationId: string, athleteId: string, sessions: Pick<ProgramSession, 'id' | 'date' | 'content'>[], unit: Unit): Promise<Breach[]> {
+export async function breachesFor(
+  m: EntityManager,
+  organizationId: string,
+  athleteId: string,
+  sessions: Pick<ProgramSession, 'id' | 'date' | 'content'>[],
+  unit: Unit,
+  today: string,
+): Promise<Breach[]> {
   const others = await publishedInWeeks(m, athleteId, sessions.map((s) => s.date), sessions.map((s) => s.id));
   const all = [...sessions, ...others];
-  const ctx = await engineContext(m, organizationId, athleteId, all, unit);
+  const ctx = await engineContext(m, organizationId, athleteId, all, unit, today);
   const ids = new Set(sessions.map((s) => s.id));
   return checkSets(all.flatMap(engineSets), ctx).filter((b) => ids.has(b.sessionId));
-}
-
-/**
- * After a plan, status or exception changes: re-check every published session of the athlete from
- * today on. Sessions that now breach go on hold for the athlete (and the coaches are told);
- * sessions that fit again come off hold. Runs in the caller's transaction.
- */
-export async function recheckAthlete(m: EntityManager, organizationId: string, athleteId: string, reason: string): Promise<{ held: string[]; released: string[] }> {
-  const today = todayIso();
-  // From the Monday of this week, so this week's earlier sessions count toward the weekly limits (as
-  // on publish); only sessions from today on are held or released.
-  const thisWeek = await m
-    .createQueryBuilder(ProgramSession, 's')
-    .innerJoin('programs', 'p', 'p.id = s.program_id')
-    .where(':athlete = ANY(p.athlete_ids)', { athlete: athleteId })
-    .andWhere(`s.status = 'published'`)
-    .andWhere('s.date >= :from', { from: weekOf(today) })
-    .orderBy('s.date')
-    .getMany();
-  const sessions = thisWeek.filter((s) => s.date >= today);
-  const ctx = await engineContext(m, organizationId, athleteId, thisWeek, 'kg');
-  const breaches = checkSets(thisWeek.flatMap(engineSets), ctx).filter((b) => !b.waived);
-  const bySession = new Map<string, Breach[]>();
-  for (const b of breaches) bySession.set(b.sessionId, [...(bySession.get(b.sessionId) ?? []), b]);
-  const existing = await m.find(SessionHold, { where: { athleteId } });
-  const wasHeld = new Set(existing.map((h) => h.sessionId));
-  const held: string[] = [];
-  const released: string[] = [];
-  for (const s of sessions) {
-    const list = bySession.get(s.id);
-    if (list) {
-      await m.createQueryBuilder().insert().into(SessionHold).values({ sessionId: s.id, athleteId, organizationId, breaches: list as never })
-        .orUpdate(['breaches'], ['session_id', 'athlete_id']).execute();
-      if (!wasHeld.has(s.id)) held.push(s.id);
-    } else if (wasHeld.has(s.id)) {
-      await m.delete(SessionHold, { sessionId: s.id, athleteId });
-      released.push(s.id);
-    }
-  }
-  if (held.length) {
-    const circle = await athleteCircle(m, athleteId);
-    const names: { name: string }[] = await m.query(`SELECT u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = $1`, [athleteId]);
-    const dates = sessions.filter((s) => held.includes(s.id)).map((s) => s.date).join(', ');
-    await notify(m, circle.coaches, {
-      organizationId,
-      athleteId,
-      kind: 'sessions_on_hold',
-      severity: 'urgent',
-      title: `${names[0]?.name ?? 'An athlete'}: ${held.length} session${held.length > 1 ? 's' : ''} on hold`,
-      body: `${reason} These published sessions now go past a cap and are on hold until you update them: ${dates}.`,
-    });
-  }
-  return { held, released };
 }
 
 export function emptyContent(): SessionContent {

@@ -17,10 +17,11 @@ export async function sessionDto(ds: DataSource, req: Request): Promise<SessionD
   return {
     user: toUserDto(user),
     csrfToken,
-    memberships: actors.map(({ organizationName, ...actor }) => ({
+    memberships: actors.map(({ organizationName, timeZone, ...actor }) => ({
       id: actor.membershipId,
       organizationId: actor.organizationId,
       organizationName,
+      timeZone,
       roles: actor.roles,
       actor,
     })),

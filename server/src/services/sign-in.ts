@@ -3,7 +3,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { SessionDto } from '../../../policies/dto';
 import type { Deps } from '../http/context';
 import type { User } from '../entities';
-import { AppError } from '../http/errors';
+import { AppError } from '../core/errors';
 import { newCsrfToken, signInLimits } from '../http/security';
 import { appendAudit } from './audit';
 import { loadActors } from './actor';

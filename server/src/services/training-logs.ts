@@ -5,7 +5,7 @@ import { inForceOn } from '../../../policies/load/in-force';
 import type { TrainingLogCreateInput } from '../../../policies/schemas';
 import { Baseline, Flag, TrainingLog } from '../entities';
 import { estimateOneRm } from '../../../policies/load/one-rm';
-import type { AuditFn } from '../http/context';
+import type { AuditFn } from '../core/tx';
 import { activePlans } from './cases';
 import { athleteCircle, notify } from './notify';
 

@@ -1,5 +1,5 @@
 import type { EntityManager, EntityTarget, ObjectLiteral } from 'typeorm';
-import { versionConflict } from '../http/errors';
+import { versionConflict } from '../core/errors';
 
 /**
  * An update that only applies to the version the editor saw. TypeORM's save() does not check the

@@ -9,7 +9,7 @@ import type { Request } from 'express';
 import busboy from 'busboy';
 import { fileTypeFromBuffer } from 'file-type';
 import type { z } from 'zod';
-import { AppError, fromZod } from '../http/errors';
+import { AppError, fromZod } from '../core/errors';
 
 /** What one kind of upload accepts. */
 export interface UploadRules {

@@ -6,7 +6,7 @@ import type { TwoStepEnabledDto, TwoStepSetupDto, TwoStepStatusDto } from '../..
 import { PasswordResetConfirmSchema, PasswordResetRequestSchema, TwoStepDisableSchema, TwoStepEnableSchema } from '../../../../policies/schemas';
 import { TotpRecoveryCode, User, UserTotp } from '../../entities';
 import type { Deps } from '../../http/context';
-import { AppError } from '../../http/errors';
+import { AppError } from '../../core/errors';
 import { publicRoute, type RouteDef } from '../../http/route';
 import { limitStore, signInLimits } from '../../http/security';
 import { confirmPasswordReset, requestPasswordReset, RESET_REQUESTED } from '../../services/password-reset';

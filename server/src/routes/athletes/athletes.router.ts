@@ -1,6 +1,6 @@
 import { AthleteProfileUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { AthleteProfile } from '../../entities';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { listAthletes } from '../../services/people';
 import { updateVersioned } from '../../services/versioned';

@@ -4,7 +4,7 @@ import type { AppAbility } from '../../../../policies/access';
 import { AuditQuerySchema, OrgParamsSchema, type AuditQueryInput } from '../../../../policies/schemas';
 import type { DataSource } from 'typeorm';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { accessibleWhere } from '../../http/accessible';
+import { accessibleWhere } from '../../core/accessible';
 import { verifyChain } from '../../services/audit';
 
 /** One query for both the screen and the CSV export: the reader's rules are part of the WHERE. */

@@ -1,7 +1,7 @@
 import { CareTeamAssignmentCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { CareTeamAssignment } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { AppError } from '../../http/errors';
+import { authorize } from '../../core/authorize';
+import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { careTeamsFor } from '../../services/people';
 import { isUniqueViolation, requireMemberWithRole } from '../../services/org-members';

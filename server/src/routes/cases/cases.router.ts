@@ -7,14 +7,15 @@ import {
 import { todayIso } from '../../../../policies/roles';
 import type { CaseDetailDto } from '../../../../policies/dto';
 import { CaseRecord, PainReport, ParticipationStatusChange } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { AppError } from '../../http/errors';
+import { authorize } from '../../core/authorize';
+import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { redact } from '../../services/audit';
 import { caseload, listCases, statusHistory } from '../../services/cases';
 import { requireMemberWithRole } from '../../services/org-members';
 import { updateVersioned } from '../../services/versioned';
-import { recheckAthlete } from '../../services/programs';
+import { recheckAthlete } from '../../commands/limits';
+import { orgToday } from '../../../../policies/today';
 
 const CaseListQuerySchema = z.strictObject({
   athleteId: UuidSchema.optional(),
@@ -171,7 +172,7 @@ export const caseRoutes: RouteDef[] = [
           before: previous ? { status: previous.status, effectiveFrom: previous.effectiveFrom } : null,
           after: { caseId: c.id, status: body.status, effectiveFrom: body.effectiveFrom, note: body.note ?? null },
         });
-        await recheckAthlete(m, c.organizationId, c.athleteId, `The clinician set the status to ${body.status} from ${body.effectiveFrom}.`);
+        await recheckAthlete(m, c.organizationId, c.athleteId, `The clinician set the status to ${body.status} from ${body.effectiveFrom}.`, orgToday(actor.timeZone));
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);
       return { ...dto, statusHistory: await statusHistory(ds, params.id) } satisfies CaseDetailDto;
@@ -198,7 +199,7 @@ export const caseRoutes: RouteDef[] = [
         }
         await updateVersioned(m, CaseRecord, c.id, body.version, { closedOn: body.closedOn, closingNote: body.closingNote ?? null, updatedAt: () => 'now()' }, 'case');
         await audit({ action: 'case.closed', subjectType: 'Case', subjectId: c.id, athleteId: c.athleteId, before: { closedOn: null }, after: body });
-        await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician closed a case.');
+        await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician closed a case.', orgToday(actor.timeZone));
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);
       return dto;

@@ -1,8 +1,8 @@
 import type { FlagDto } from '../../../../policies/dto';
 import { FlagListQuerySchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { Flag } from '../../entities';
-import { accessibleWhere } from '../../http/accessible';
-import { authorize } from '../../http/authorize';
+import { accessibleWhere } from '../../core/accessible';
+import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
 
 export const flagRoutes: RouteDef[] = [

@@ -1,7 +1,7 @@
 import { GuardianLinkCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { GuardianLink } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { AppError } from '../../http/errors';
+import { authorize } from '../../core/authorize';
+import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { guardianLinksFor } from '../../services/people';
 import { isUniqueViolation, requireMemberWithRole } from '../../services/org-members';

@@ -3,7 +3,7 @@ import type { InvitationPreviewDto } from '../../../../policies/dto';
 import { InvitationAcceptSchema, InvitationCreateSchema, InvitationTokenSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { Invitation, Organization, User } from '../../entities';
 import type { Deps } from '../../http/context';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import { orgRoute, publicRoute, type RouteDef } from '../../http/route';
 import { signInLimits } from '../../http/security';
 import { acceptInvitation, findUsableInvitation, newInvitationToken, toInvitationDto } from '../../services/invitations';

@@ -2,7 +2,7 @@ import { IsNull } from 'typeorm';
 import type { NotificationDto } from '../../../../policies/dto';
 import { OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { Notification } from '../../entities';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
 
 const toDto = (n: Notification): NotificationDto => ({

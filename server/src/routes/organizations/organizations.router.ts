@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { OrganizationDto, OrganizationSettingsDto } from '../../../../policies/dto';
 import { OrganizationSettingsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { Organization } from '../../entities';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { updateVersioned } from '../../services/versioned';
 

@@ -4,8 +4,8 @@ import { OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../..
 import { todayIso } from '../../../../policies/roles';
 import type { AppAbility } from '../../../../policies/access';
 import { Organization } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { accessibleWhere } from '../../http/accessible';
+import { authorize } from '../../core/authorize';
+import { accessibleWhere } from '../../core/accessible';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { pickPermitted } from '../../services/fields';
 import { createPainReport } from '../../services/pain-reports';

@@ -1,7 +1,7 @@
 import { MembershipUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { AthleteProfile, Membership } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { AppError } from '../../http/errors';
+import { authorize } from '../../core/authorize';
+import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { listPeople } from '../../services/people';
 import { endSessionsOf, updateVersioned } from '../../services/versioned';

@@ -7,12 +7,13 @@ import {
 import { todayIso } from '../../../../policies/roles';
 import { asSubject, type AppAbility } from '../../../../policies/access';
 import { CaseRecord, RestrictionPlan, RestrictionPlanVersion } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { AppError, versionConflict } from '../../http/errors';
+import { authorize } from '../../core/authorize';
+import { AppError, versionConflict } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { activePlans, athleteStatuses, planVersions } from '../../services/cases';
 import { isUniqueViolation } from '../../services/org-members';
-import { recheckAthlete } from '../../services/programs';
+import { recheckAthlete } from '../../commands/limits';
+import { orgToday } from '../../../../policies/today';
 
 async function planDto(db: EntityManager, ability: AppAbility, plan: RestrictionPlan): Promise<PlanDto> {
   const [current] = await planVersions(db, plan.id, plan.version);
@@ -51,7 +52,7 @@ export const planRoutes: RouteDef[] = [
         }
         await m.save(m.create(RestrictionPlanVersion, { planId: saved.id, version: 1, stages: body.stages, guidance: body.guidance, changeNote: body.changeNote ?? null, createdBy: user.id }));
         await audit({ action: 'plan.created', subjectType: 'RestrictionPlan', subjectId: saved.id, athleteId: c.athleteId, after: { version: 1, stages: body.stages, guidance: body.guidance } });
-        await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician wrote a restriction plan.');
+        await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician wrote a restriction plan.', orgToday(actor.timeZone));
         return saved;
       });
       return planDto(ds.manager, ability, plan);
@@ -100,7 +101,7 @@ export const planRoutes: RouteDef[] = [
           before: { version: body.version, stages: before.stages, guidance: before.guidance },
           after: { version: next, stages: body.stages, guidance: body.guidance, changeNote: body.changeNote ?? null },
         });
-        await recheckAthlete(m, p.organizationId, p.athleteId, 'The clinician changed the restriction plan.');
+        await recheckAthlete(m, p.organizationId, p.athleteId, 'The clinician changed the restriction plan.', orgToday(actor.timeZone));
         return { ...p, version: next };
       });
       return planDto(ds.manager, ability, plan);

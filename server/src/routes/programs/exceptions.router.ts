@@ -4,12 +4,14 @@ import type { ExceptionDto } from '../../../../policies/dto';
 import type { AppAbility } from '../../../../policies/access';
 import { ExceptionCreateSchema, ExceptionDecisionSchema, OrgParamsSchema, ProgramItemParamsSchema, UuidSchema } from '../../../../policies/schemas';
 import { Program, ProgramException, ProgramSession } from '../../entities';
-import { accessibleWhere } from '../../http/accessible';
-import { authorize } from '../../http/authorize';
-import { AppError } from '../../http/errors';
+import { accessibleWhere } from '../../core/accessible';
+import { authorize } from '../../core/authorize';
+import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { athleteCircle, notify } from '../../services/notify';
-import { recheckAthlete, setFingerprint } from '../../services/programs';
+import { recheckAthlete } from '../../commands/limits';
+import { orgToday } from '../../../../policies/today';
+import { setFingerprint } from '../../services/programs';
 import { authorizeProgram } from './program-access';
 
 async function listExceptions(ds: DataSource, ability: AppAbility, organizationId: string, where: { id?: string; athleteId?: string; state?: string }): Promise<ExceptionDto[]> {
@@ -98,7 +100,7 @@ export const exceptionRoutes: RouteDef[] = [
         x.decisionNote = body.note;
         await m.save(x);
         await audit({ action: `exception.${x.status}`, subjectType: 'ProgramException', subjectId: x.id, athleteId: x.athleteId, before: { status: 'pending', setIds: x.setIds }, after: { status: x.status, grantedSetIds: granted, note: body.note } });
-        if (x.status === 'granted') await recheckAthlete(m, actor.organizationId, x.athleteId, 'An exception was granted.');
+        if (x.status === 'granted') await recheckAthlete(m, actor.organizationId, x.athleteId, 'An exception was granted.', orgToday(actor.timeZone));
         if (x.requestedBy) {
           const requester: { id: string }[] = await m.query(`SELECT id FROM memberships WHERE user_id = $1 AND organization_id = $2`, [x.requestedBy, actor.organizationId]);
           await notify(m, requester.map((r) => r.id), { organizationId: actor.organizationId, athleteId: x.athleteId, kind: `exception_${x.status}`, severity: 'routine',

@@ -3,11 +3,12 @@ import { estimateOneRm } from '../../../../policies/load/one-rm';
 import { BaselineCreateSchema, ExerciseCreateSchema, ExerciseUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import type { DataSource, EntityManager } from 'typeorm';
 import { Baseline, Exercise } from '../../entities';
-import { authorize } from '../../http/authorize';
-import { AppError } from '../../http/errors';
+import { authorize } from '../../core/authorize';
+import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { isUniqueViolation } from '../../services/org-members';
-import { recheckAthlete } from '../../services/programs';
+import { recheckAthlete } from '../../commands/limits';
+import { orgToday } from '../../../../policies/today';
 import { updateVersioned } from '../../services/versioned';
 
 export const toExerciseDto = (e: Exercise): ExerciseDto => ({
@@ -123,7 +124,7 @@ export const exerciseRoutes: RouteDef[] = [
         }));
         await audit({ action: 'baseline.recorded', subjectType: 'Baseline', subjectId: saved.id, athleteId: params.id, after: { exercise: ex.name, ...body, e1rmKg: saved.e1rmKg } });
         // A new max changes every %-of-1RM cap: published sessions are checked again.
-        await recheckAthlete(m, actor.organizationId, params.id, `A new baseline for ${ex.name} was recorded.`);
+        await recheckAthlete(m, actor.organizationId, params.id, `A new baseline for ${ex.name} was recorded.`, orgToday(actor.timeZone));
       });
       return (await baselineList(ds, params.id))[0];
     },

@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { Action, AppAbility } from '../../../../policies/access';
 import type { ProgramDto, ProgramSessionDto } from '../../../../policies/dto';
 import { Program, ProgramSession, SessionHold } from '../../entities';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import type { ActorWithOrg } from '../../services/actor';
 
 /**

@@ -8,10 +8,11 @@ import {
   ShiftDatesSchema, UuidSchema, VersionSchema, type SessionContent,
 } from '../../../../policies/schemas';
 import { Program, ProgramSession, SessionHold } from '../../entities';
-import { AppError, versionConflict } from '../../http/errors';
+import { AppError, versionConflict } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import type { ActorWithOrg } from '../../services/actor';
 import { breachesFor } from '../../services/programs';
+import { orgToday } from '../../../../policies/today';
 import { requireMemberWithRole } from '../../services/org-members';
 import { shiftDate } from '../../services/training-logs';
 import { updateVersioned } from '../../services/versioned';
@@ -30,9 +31,9 @@ async function loadSessionWithProgram(m: EntityManager, ability: AppAbility, act
 }
 
 /** Every athlete of the program, checked on the session's date. */
-async function checkForAthletes(m: EntityManager, program: Program, sessions: ProgramSession[], unit: Unit) {
+async function checkForAthletes(m: EntityManager, program: Program, sessions: ProgramSession[], unit: Unit, today: string) {
   const out: { athleteId: string; breaches: Breach[] }[] = [];
-  for (const athleteId of program.athleteIds) out.push({ athleteId, breaches: await breachesFor(m, program.organizationId, athleteId, sessions, unit) });
+  for (const athleteId of program.athleteIds) out.push({ athleteId, breaches: await breachesFor(m, program.organizationId, athleteId, sessions, unit, today) });
   return out;
 }
 
@@ -173,7 +174,7 @@ export const programRoutes: RouteDef[] = [
         const { session, program } = await loadSessionWithProgram(m, ability, actor, params.id, 'update');
         if (session.version !== body.version) throw versionConflict('session');
         const next = { ...session, date: body.date ?? session.date, title: body.title ?? session.title, content: body.content ?? session.content } as ProgramSession;
-        if (session.status === 'published') refuseBreaches(await checkForAthletes(m, program, [next], user.unitPref), 'changed while published');
+        if (session.status === 'published') refuseBreaches(await checkForAthletes(m, program, [next], user.unitPref, orgToday(actor.timeZone)), 'changed while published');
         await updateVersioned(m, ProgramSession, session.id, body.version, { date: next.date, title: next.title, content: next.content as never, updatedAt: () => 'now()' }, 'session');
         // A published session that fits again comes off hold.
         if (session.status === 'published') await m.delete(SessionHold, { sessionId: session.id });
@@ -205,7 +206,7 @@ export const programRoutes: RouteDef[] = [
     params: ProgramItemParamsSchema,
     async handler({ ds, ability, actor, user, params }) {
       const { session, program } = await loadSessionWithProgram(ds.manager, ability, actor, params.id, 'read');
-      return { results: await checkForAthletes(ds.manager, program, [session], user.unitPref) };
+      return { results: await checkForAthletes(ds.manager, program, [session], user.unitPref, orgToday(actor.timeZone)) };
     },
   }),
   orgRoute({
@@ -220,7 +221,7 @@ export const programRoutes: RouteDef[] = [
         const { session, program } = await loadSessionWithProgram(m, ability, actor, params.id, 'update');
         if (session.version !== body.version) throw versionConflict('session');
         if (session.content.exercises.length === 0) throw new AppError('unprocessable', 'An empty session cannot be published: add at least one exercise.');
-        const results = await checkForAthletes(m, program, [session], user.unitPref);
+        const results = await checkForAthletes(m, program, [session], user.unitPref, orgToday(actor.timeZone));
         refuseBreaches(results, 'published');
         await updateVersioned(m, ProgramSession, session.id, body.version, { status: 'published', publishedAt: () => 'now()', updatedAt: () => 'now()' }, 'session');
         await m.delete(SessionHold, { sessionId: session.id });

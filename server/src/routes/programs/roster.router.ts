@@ -6,7 +6,7 @@ import { MOVEMENT_PATTERNS } from '../../../../policies/load/patterns';
 import { plannedKg } from '../../../../policies/load/compliance';
 import { OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { todayIso } from '../../../../policies/roles';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { rosterRows, todaySessions } from '../../services/programs';
 import { toSessionDto } from './program-access';

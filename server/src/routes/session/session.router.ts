@@ -3,14 +3,14 @@ import { defineAbilityFor, type Actor } from '../../../../policies/access';
 import { publicRoute, type RouteDef } from '../../http/route';
 import type { Deps } from '../../http/context';
 import { SESSION_COOKIE } from '../../http/security';
-import { AppError } from '../../http/errors';
+import { AppError } from '../../core/errors';
 import { sessionDto, toUserDto } from '../../services/session-dto';
 import {
   accountLimits, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, sessionWithStep, startSession,
   useAuditedSecondStepCode,
 } from '../../services/sign-in';
 import { isTwoStepOn, twoStepKey } from '../../services/two-step';
-import { authorize } from '../../http/authorize';
+import { authorize } from '../../core/authorize';
 import { User } from '../../entities';
 
 const wrongCode = () => new AppError('invalid_credentials', 'That code did not work. Enter the code your app shows now, or one of your unused recovery codes.');

@@ -8,9 +8,9 @@ import {
 import { todayIso } from '../../../../policies/roles';
 import { z } from 'zod';
 import { CheckIn, TrainingLog } from '../../entities';
-import { accessibleWhere } from '../../http/accessible';
-import { authorize } from '../../http/authorize';
-import { AppError, versionConflict } from '../../http/errors';
+import { accessibleWhere } from '../../core/accessible';
+import { authorize } from '../../core/authorize';
+import { AppError, versionConflict } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { requireMemberWithRole } from '../../services/org-members';
 import { createTrainingLog, recordNextMorning, shiftDate } from '../../services/training-logs';

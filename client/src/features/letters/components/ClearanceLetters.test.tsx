@@ -25,7 +25,7 @@ function renderSection() {
         value={{
           orgId: ORG,
           user: { id: 'u-priya', email: 'priya@x.test', displayName: 'Priya Raman', unitPref: 'kg' },
-          membership: { id: 'm-priya', organizationId: ORG, organizationName: 'Harbor Point Performance', roles: ['clinician'], actor },
+          membership: { id: 'm-priya', organizationId: ORG, organizationName: 'Harbor Point Performance', timeZone: 'UTC', roles: ['clinician'], actor },
         }}
       >
         <ClearanceLetters orgId={ORG} athleteId={MAYA} athleteName="Maya Torres" />

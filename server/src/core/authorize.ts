@@ -1,7 +1,6 @@
 import { subject as tagSubject } from '@casl/ability';
 import type { Action, AppAbility, SubjectName, SubjectShapes } from '../../../policies/access';
 import { AppError } from './errors';
-import { refusalMessage } from './route';
 
 const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Organization: 'organization',
@@ -54,3 +53,39 @@ export function authorize<K extends SubjectName>(
     throw new AppError('forbidden', refusalMessage(action, type));
   }
 }
+
+const SUBJECT_WORDS: Record<SubjectName, string> = {
+  Organization: 'organization settings',
+  User: 'accounts',
+  Membership: 'people and roles',
+  Athlete: 'athlete profiles',
+  Invitation: 'invitations',
+  CareTeamAssignment: 'care teams',
+  GuardianLink: 'guardian links',
+  AuditEntry: 'the audit trail',
+  AuditChain: 'the audit chain check',
+  Case: 'cases',
+  ParticipationStatus: 'participation status',
+  RestrictionPlan: 'restriction plans',
+  PainReport: 'pain reports',
+  CheckIn: 'check-ins',
+  TrainingLog: 'training logs',
+  Flag: 'flags',
+  Notification: 'notices',
+  Exercise: 'the exercise library',
+  Baseline: 'baselines',
+  Program: 'programs',
+  ProgramException: 'exceptions',
+  Letter: 'clearance letters',
+  LetterAcknowledgement: 'letter acknowledgements',
+  Outbox: 'the test outbox',
+  CaseDocument: 'case documents',
+  Clip: 'technique clips',
+  ClipNote: 'notes on clips',
+};
+
+export function refusalMessage(action: Action, subject: SubjectName): string {
+  const verb = action === 'read' ? 'see' : action === 'create' ? 'add to' : action === 'delete' ? 'remove from' : 'change';
+  return `Your role does not allow you to ${verb} ${SUBJECT_WORDS[subject]}. Ask an admin of your organization if you need this.`;
+}
+
