@@ -29,28 +29,53 @@ export default tseslint.config(
   {
     files: ['policies/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [
-        { group: ['**/server/**', '**/client/**'], message: 'policies/ imports neither server nor client.' },
-        { group: ['node:*', 'pg', 'typeorm', 'express'], message: 'policies/ is free of I/O.' },
-      ] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ['**/server/**', '**/client/**'], message: 'policies/ imports neither server nor client.' },
+            { group: ['node:*', 'pg', 'typeorm', 'express'], message: 'policies/ is free of I/O.' },
+          ],
+        },
+      ],
     },
   },
   {
     files: ['server/src/core/**/*.ts', 'server/src/commands/**/*.ts', 'server/src/queries/**/*.ts', 'server/src/services/**/*.ts'],
     ignores: ['**/*.test.ts'],
     rules: {
-      'no-restricted-imports': ['warn', { patterns: [
-        { group: ['express', 'express-*', 'passport', 'passport-*', 'supertest'], message: 'The core (commands, queries, services) is framework-free: no express, no request.' },
-        { group: ['**/http/**', '**/http', '**/routes/**'], message: 'The core never imports the HTTP layer; move what it needs into server/src/core.' },
-      ] }],
+      'no-restricted-imports': [
+        'warn',
+        {
+          patterns: [
+            {
+              group: ['express', 'express-*', 'passport', 'passport-*', 'supertest'],
+              message: 'The core (commands, queries, services) is framework-free: no express, no request.',
+            },
+            {
+              group: ['**/http/**', '**/http', '**/routes/**'],
+              message: 'The core never imports the HTTP layer; move what it needs into server/src/core.',
+            },
+          ],
+        },
+      ],
     },
   },
   {
     files: ['server/src/routes/**/*.router.ts'],
     rules: {
-      'no-restricted-imports': ['warn', { patterns: [
-        { group: ['typeorm', '**/entities', '**/entities/**'], message: 'Routers parse, call one command or query, and shape the response: data access lives in server/src/commands and server/src/queries.' },
-      ] }],
+      'no-restricted-imports': [
+        'warn',
+        {
+          patterns: [
+            {
+              group: ['typeorm', '**/entities', '**/entities/**'],
+              message:
+                'Routers parse, call one command or query, and shape the response: data access lives in server/src/commands and server/src/queries.',
+            },
+          ],
+        },
+      ],
     },
   },
 );

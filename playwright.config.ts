@@ -7,8 +7,16 @@ import { defineConfig, devices } from '@playwright/test';
 const chromium = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 const launchOptions = {
   executablePath: chromium,
-  args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run',
-    '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-dev-shm-usage',
+    '--disable-quic',
+    '--no-first-run',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+  ],
 };
 
 export default defineConfig({

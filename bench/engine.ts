@@ -8,7 +8,10 @@ import type { PlanStage } from '../policies/load/in-force';
 import { MOVEMENT_PATTERNS } from '../policies/load/patterns';
 
 const exercises: EngineExercise[] = MOVEMENT_PATTERNS.map((p, i) => ({
-  id: `ex${i}`, name: `Exercise ${i}`, patterns: [p, MOVEMENT_PATTERNS[(i + 3) % MOVEMENT_PATTERNS.length]], ballistic: i % 4 === 0,
+  id: `ex${i}`,
+  name: `Exercise ${i}`,
+  patterns: [p, MOVEMENT_PATTERNS[(i + 3) % MOVEMENT_PATTERNS.length]],
+  ballistic: i % 4 === 0,
   steps: { kind: 'increment', step: 2.5, unit: 'kg' },
 }));
 const start = new Date('2027-01-04T00:00:00Z');
@@ -17,10 +20,31 @@ const day = (n: number) => new Date(start.getTime() + n * 86_400_000).toISOStrin
 export type Variant = 'strict' | 'typical';
 function stagesFor(variant: Variant): PlanStage[] {
   return [0, 1, 2, 3].map((k) => ({
-    id: randomUUID(), startDate: day(k * 28), endDate: day(k * 28 + 27), painCeiling: 5,
-    patterns: Object.fromEntries(MOVEMENT_PATTERNS.map((p, i) => [p, variant === 'strict'
-      ? (i % 5 === 0 ? { mode: 'blocked' } : { mode: 'capped', caps: { maxPercent1RM: 60 + k * 10, maxRpe: 7 + k * 0.5, maxSetsPerSession: 6, maxHardSetsPerWeek: 12, impactAllowed: k > 1 } })
-      : (i === 12 && k === 0 ? { mode: 'blocked' } : { mode: 'capped', caps: { maxPercent1RM: 95, maxLoadKg: 200, maxRpe: 10, maxSetsPerSession: 40, maxHardSetsPerWeek: 200 } })])),
+    id: randomUUID(),
+    startDate: day(k * 28),
+    endDate: day(k * 28 + 27),
+    painCeiling: 5,
+    patterns: Object.fromEntries(
+      MOVEMENT_PATTERNS.map((p, i) => [
+        p,
+        variant === 'strict'
+          ? i % 5 === 0
+            ? { mode: 'blocked' }
+            : {
+                mode: 'capped',
+                caps: {
+                  maxPercent1RM: 60 + k * 10,
+                  maxRpe: 7 + k * 0.5,
+                  maxSetsPerSession: 6,
+                  maxHardSetsPerWeek: 12,
+                  impactAllowed: k > 1,
+                },
+              }
+          : i === 12 && k === 0
+            ? { mode: 'blocked' }
+            : { mode: 'capped', caps: { maxPercent1RM: 95, maxLoadKg: 200, maxRpe: 10, maxSetsPerSession: 40, maxHardSetsPerWeek: 200 } },
+      ]),
+    ),
   }));
 }
 const ctxFor = (variant: Variant): EngineContext => ({
@@ -36,15 +60,27 @@ export function program(weeks: number): EngineSet[] {
     for (const d of [0, 1, 3, 4]) {
       const sessionId = `w${w}d${d}`;
       for (let k = 0; k < 31; k++) {
-        sets.push({ id: `${sessionId}s${k}`, sessionId, date: day(w * 7 + d), exerciseId: `ex${k % exercises.length}`, reps: 3 + (k % 8),
-          load: k % 3 === 0 ? { kind: 'percent', value: 55 + (k % 30) } : { kind: 'kg', value: 40 + (k % 20) * 5 }, targetRpe: k % 2 ? 6 + (k % 4) : null, order: k });
+        sets.push({
+          id: `${sessionId}s${k}`,
+          sessionId,
+          date: day(w * 7 + d),
+          exerciseId: `ex${k % exercises.length}`,
+          reps: 3 + (k % 8),
+          load: k % 3 === 0 ? { kind: 'percent', value: 55 + (k % 30) } : { kind: 'kg', value: 40 + (k % 20) * 5 },
+          targetRpe: k % 2 ? 6 + (k % 4) : null,
+          order: k,
+        });
       }
     }
   }
   return sets;
 }
 
-export function timeEngine(weeks: number, variant: Variant = 'typical', runs = 60): { sets: number; breaches: number; medianMs: number; p95Ms: number } {
+export function timeEngine(
+  weeks: number,
+  variant: Variant = 'typical',
+  runs = 60,
+): { sets: number; breaches: number; medianMs: number; p95Ms: number } {
   const sets = program(weeks);
   const ctx = ctxFor(variant);
   let breaches = 0;
@@ -62,8 +98,11 @@ export function timeEngine(weeks: number, variant: Variant = 'typical', runs = 6
 if (import.meta.url === `file://${process.argv[1]}`) {
   // Warm the JIT on the largest case first, so the small sizes are not measured cold.
   for (const variant of ['typical', 'strict'] as const) timeEngine(64, variant, 30);
-  for (const variant of ['typical', 'strict'] as const) for (const weeks of [4, 8, 16, 32, 64]) {
-    const r = timeEngine(weeks, variant);
-    console.log(`${variant.padEnd(8)} ${String(weeks).padStart(3)} weeks  ${String(r.sets).padStart(6)} sets  ${r.breaches} breaches  median ${r.medianMs.toFixed(2)} ms  p95 ${r.p95Ms.toFixed(2)} ms  (${((r.medianMs / r.sets) * 1000).toFixed(2)} µs/set)`);
-  }
+  for (const variant of ['typical', 'strict'] as const)
+    for (const weeks of [4, 8, 16, 32, 64]) {
+      const r = timeEngine(weeks, variant);
+      console.log(
+        `${variant.padEnd(8)} ${String(weeks).padStart(3)} weeks  ${String(r.sets).padStart(6)} sets  ${r.breaches} breaches  median ${r.medianMs.toFixed(2)} ms  p95 ${r.p95Ms.toFixed(2)} ms  (${((r.medianMs / r.sets) * 1000).toFixed(2)} µs/set)`,
+      );
+    }
 }

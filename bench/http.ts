@@ -29,41 +29,100 @@ export async function generate(url: string) {
   await ds.query(`INSERT INTO organizations (id, name) VALUES ($1, 'Bench Organization')`, [org]);
   await seedExerciseLibrary(ds.manager, org);
   // Users, memberships and profiles for 1,000 athletes, one coach and one clinician, in set-based SQL.
-  await ds.query(`INSERT INTO users (id, email, password_hash, display_name, version)
-                  SELECT gen_random_uuid(), 'athlete' || g || '@bench.example', $1, 'Athlete ' || g, 1 FROM generate_series(1, $2) g`, [hash, ATHLETES]);
-  await ds.query(`INSERT INTO users (id, email, password_hash, display_name, version) VALUES
-                  (gen_random_uuid(), 'coach@bench.example', $1, 'Bench Coach', 1), (gen_random_uuid(), 'clinician@bench.example', $1, 'Bench Clinician', 1)`, [hash]);
-  await ds.query(`INSERT INTO memberships (organization_id, user_id, roles, version)
+  await ds.query(
+    `INSERT INTO users (id, email, password_hash, display_name, version)
+                  SELECT gen_random_uuid(), 'athlete' || g || '@bench.example', $1, 'Athlete ' || g, 1 FROM generate_series(1, $2) g`,
+    [hash, ATHLETES],
+  );
+  await ds.query(
+    `INSERT INTO users (id, email, password_hash, display_name, version) VALUES
+                  (gen_random_uuid(), 'coach@bench.example', $1, 'Bench Coach', 1), (gen_random_uuid(), 'clinician@bench.example', $1, 'Bench Clinician', 1)`,
+    [hash],
+  );
+  await ds.query(
+    `INSERT INTO memberships (organization_id, user_id, roles, version)
                   SELECT $1, id, CASE WHEN email LIKE 'athlete%' THEN ARRAY['athlete'] WHEN email LIKE 'coach%' THEN ARRAY['coach'] ELSE ARRAY['clinician'] END, 1
-                    FROM users WHERE email LIKE '%@bench.example'`, [org]);
-  await ds.query(`INSERT INTO athlete_profiles (membership_id, organization_id, date_of_birth, sport, version)
-                  SELECT m.id, $1, DATE '2000-01-01' + (random() * 3000)::int, 'Bench sport', 1 FROM memberships m WHERE m.organization_id = $1 AND 'athlete' = ANY(m.roles)`, [org]);
+                    FROM users WHERE email LIKE '%@bench.example'`,
+    [org],
+  );
+  await ds.query(
+    `INSERT INTO athlete_profiles (membership_id, organization_id, date_of_birth, sport, version)
+                  SELECT m.id, $1, DATE '2000-01-01' + (random() * 3000)::int, 'Bench sport', 1 FROM memberships m WHERE m.organization_id = $1 AND 'athlete' = ANY(m.roles)`,
+    [org],
+  );
   const athletes: { id: string; email: string }[] = await ds.query(
-    `SELECT m.id, u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.organization_id = $1 AND 'athlete' = ANY(m.roles) ORDER BY u.email`, [org]);
+    `SELECT m.id, u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.organization_id = $1 AND 'athlete' = ANY(m.roles) ORDER BY u.email`,
+    [org],
+  );
   const [coach] = await ds.query(`SELECT m.id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = 'coach@bench.example'`);
-  const [clin] = await ds.query(`SELECT m.id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = 'clinician@bench.example'`);
+  const [clin] = await ds.query(
+    `SELECT m.id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = 'clinician@bench.example'`,
+  );
   const roster = athletes.slice(0, ROSTER).map((a) => a.id);
-  await ds.query(`INSERT INTO care_team_assignments (organization_id, athlete_id, member_id, role) SELECT $1, a, $2, 'coach' FROM unnest($3::uuid[]) a`, [org, coach.id, roster]);
-  await ds.query(`INSERT INTO care_team_assignments (organization_id, athlete_id, member_id, role) SELECT $1, a, $2, 'clinician' FROM unnest($3::uuid[]) a`, [org, clin.id, roster]);
+  await ds.query(
+    `INSERT INTO care_team_assignments (organization_id, athlete_id, member_id, role) SELECT $1, a, $2, 'coach' FROM unnest($3::uuid[]) a`,
+    [org, coach.id, roster],
+  );
+  await ds.query(
+    `INSERT INTO care_team_assignments (organization_id, athlete_id, member_id, role) SELECT $1, a, $2, 'clinician' FROM unnest($3::uuid[]) a`,
+    [org, clin.id, roster],
+  );
   // A year of logs: ~4 sessions a week for every athlete (≈ 200,000 rows).
-  await ds.query(`INSERT INTO training_logs (organization_id, athlete_id, date, duration_minutes, session_rpe, pain_before, pain_during, pain_ceiling, sets, version)
+  await ds.query(
+    `INSERT INTO training_logs (organization_id, athlete_id, date, duration_minutes, session_rpe, pain_before, pain_during, pain_ceiling, sets, version)
                   SELECT $1, a.id, CURRENT_DATE - d, 45 + (d % 40), 3 + (d % 6), d % 3, (d % 5), 5,
                          '[{"exercise":"Back squat","loadKg":80,"reps":5,"rpe":7}]'::jsonb, 1
-                    FROM unnest($2::uuid[]) AS a(id), generate_series(1, 365) d WHERE d % 7 IN (1, 2, 4, 5)`, [org, athletes.map((a) => a.id)]);
+                    FROM unnest($2::uuid[]) AS a(id), generate_series(1, 365) d WHERE d % 7 IN (1, 2, 4, 5)`,
+    [org, athletes.map((a) => a.id)],
+  );
   // Cases with a plan for a fifth of the roster, and a published program for each roster athlete today.
   const [dl] = await ds.query(`SELECT id FROM exercises WHERE organization_id = $1 AND name = 'Deadlift'`, [org]);
   for (const [i, a] of roster.entries()) {
     if (i % 5 === 0) {
-      const [c] = await ds.query(`INSERT INTO cases (organization_id, athlete_id, body_regions, onset_date, version) VALUES ($1, $2, '{lower_back}', CURRENT_DATE - 10, 1) RETURNING id`, [org, a]);
-      await ds.query(`INSERT INTO participation_status_changes (organization_id, athlete_id, case_id, status, effective_from) VALUES ($1, $2, $3, 'limited', CURRENT_DATE - 10)`, [org, a, c.id]);
-      const [p] = await ds.query(`INSERT INTO restriction_plans (organization_id, athlete_id, case_id, version) VALUES ($1, $2, $3, 1) RETURNING id`, [org, a, c.id]);
-      const stages = [{ id: randomUUID(), startDate: '2020-01-01', endDate: '2099-12-31', painCeiling: 4, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 70 } }, jump: { mode: 'blocked' } } }];
-      await ds.query(`INSERT INTO restriction_plan_versions (plan_id, version, stages, guidance) VALUES ($1, 1, $2, 'Bench plan')`, [p.id, JSON.stringify(stages)]);
+      const [c] = await ds.query(
+        `INSERT INTO cases (organization_id, athlete_id, body_regions, onset_date, version) VALUES ($1, $2, '{lower_back}', CURRENT_DATE - 10, 1) RETURNING id`,
+        [org, a],
+      );
+      await ds.query(
+        `INSERT INTO participation_status_changes (organization_id, athlete_id, case_id, status, effective_from) VALUES ($1, $2, $3, 'limited', CURRENT_DATE - 10)`,
+        [org, a, c.id],
+      );
+      const [p] = await ds.query(
+        `INSERT INTO restriction_plans (organization_id, athlete_id, case_id, version) VALUES ($1, $2, $3, 1) RETURNING id`,
+        [org, a, c.id],
+      );
+      const stages = [
+        {
+          id: randomUUID(),
+          startDate: '2020-01-01',
+          endDate: '2099-12-31',
+          painCeiling: 4,
+          patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 70 } }, jump: { mode: 'blocked' } },
+        },
+      ];
+      await ds.query(`INSERT INTO restriction_plan_versions (plan_id, version, stages, guidance) VALUES ($1, 1, $2, 'Bench plan')`, [
+        p.id,
+        JSON.stringify(stages),
+      ]);
     }
-    const [prog] = await ds.query(`INSERT INTO programs (organization_id, name, athlete_ids, version) VALUES ($1, 'Bench program', ARRAY[$2::uuid], 1) RETURNING id`, [org, a]);
-    const content = { exercises: [{ id: randomUUID(), exerciseId: dl.id, sets: [1, 2, 3].map(() => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 6 })) }] };
-    await ds.query(`INSERT INTO program_sessions (organization_id, program_id, date, title, content, status, published_at, version)
-                    VALUES ($1, $2, CURRENT_DATE, 'Bench day', $3, 'published', now(), 1)`, [org, prog.id, JSON.stringify(content)]);
+    const [prog] = await ds.query(
+      `INSERT INTO programs (organization_id, name, athlete_ids, version) VALUES ($1, 'Bench program', ARRAY[$2::uuid], 1) RETURNING id`,
+      [org, a],
+    );
+    const content = {
+      exercises: [
+        {
+          id: randomUUID(),
+          exerciseId: dl.id,
+          sets: [1, 2, 3].map(() => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 6 })),
+        },
+      ],
+    };
+    await ds.query(
+      `INSERT INTO program_sessions (organization_id, program_id, date, title, content, status, published_at, version)
+                    VALUES ($1, $2, CURRENT_DATE, 'Bench day', $3, 'published', now(), 1)`,
+      [org, prog.id, JSON.stringify(content)],
+    );
   }
   await ds.query('ANALYZE');
   await ds.destroy();
@@ -74,16 +133,36 @@ export async function signIn(base: string, email: string): Promise<string> {
   const s = await fetch(`${base}/api/session`);
   const cookie = s.headers.get('set-cookie')!.split(';')[0];
   const { csrfToken } = (await s.json()) as { csrfToken: string };
-  const res = await fetch(`${base}/api/session`, { method: 'POST', headers: { cookie, 'content-type': 'application/json', 'x-csrf-token': csrfToken }, body: JSON.stringify({ email, password: PASSWORD }) });
+  const res = await fetch(`${base}/api/session`, {
+    method: 'POST',
+    headers: { cookie, 'content-type': 'application/json', 'x-csrf-token': csrfToken },
+    body: JSON.stringify({ email, password: PASSWORD }),
+  });
   if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${res.status}`);
   return res.headers.get('set-cookie')!.split(';')[0];
 }
 
-interface Result { name: string; rps: number; p99: number; p50: number; errors: number; non2xx: number }
+interface Result {
+  name: string;
+  rps: number;
+  p99: number;
+  p50: number;
+  errors: number;
+  non2xx: number;
+}
 
 /** autocannon in a process of its own (async: this process serves the requests meanwhile). */
 async function autocannon(name: string, url: string, cookie?: string): Promise<Result> {
-  const args = ['autocannon', '-c', '50', '-d', process.env.BENCH_SECONDS ?? '10', '-j', ...(cookie ? ['-H', `cookie=${cookie}`] : []), url];
+  const args = [
+    'autocannon',
+    '-c',
+    '50',
+    '-d',
+    process.env.BENCH_SECONDS ?? '10',
+    '-j',
+    ...(cookie ? ['-H', `cookie=${cookie}`] : []),
+    url,
+  ];
   const stdout = await new Promise<string>((resolve, reject) => {
     let buf = '';
     const child = spawn('npx', args, { stdio: ['ignore', 'pipe', 'ignore'] });
@@ -102,15 +181,26 @@ async function main() {
     await migrate(db.url);
     console.log('[bench] generating 1,000 athletes with a year of logs…');
     const gen = await generate(db.url);
-    const config = loadConfig({ DATABASE_URL: db.url, SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-42', PORT: '0', LOG_LEVEL: 'silent', SIGNIN_MAX_PER_IP: '1000' });
+    const config = loadConfig({
+      DATABASE_URL: db.url,
+      SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-42',
+      PORT: '0',
+      LOG_LEVEL: 'silent',
+      SIGNIN_MAX_PER_IP: '1000',
+    });
     const app = await startServer(config, createLogger('silent'));
     const pool = new pg.Pool({ connectionString: db.url, max: 20 });
     const bare = express();
     bare.get('/bare/:athleteId', async (req, res) => {
-      const { rows } = await pool.query('SELECT id, date, session_rpe, duration_minutes FROM training_logs WHERE athlete_id = $1 ORDER BY date DESC LIMIT 20', [req.params.athleteId]);
+      const { rows } = await pool.query(
+        'SELECT id, date, session_rpe, duration_minutes FROM training_logs WHERE athlete_id = $1 ORDER BY date DESC LIMIT 20',
+        [req.params.athleteId],
+      );
       res.json(rows);
     });
-    const bareServer: Server = await new Promise((resolve) => { const s = bare.listen(0, '127.0.0.1', () => resolve(s)); });
+    const bareServer: Server = await new Promise((resolve) => {
+      const s = bare.listen(0, '127.0.0.1', () => resolve(s));
+    });
     const barePort = (bareServer.address() as { port: number }).port;
     const coachCookie = await signIn(app.url, 'coach@bench.example');
     const athleteCookie = await signIn(app.url, gen.athleteEmail);
@@ -121,7 +211,10 @@ async function main() {
     ];
     const bareRps = results[0].rps;
     console.log('\n| route | requests/s | p50 ms | p99 ms | ratio to bare | errors / non-2xx |\n| --- | --- | --- | --- | --- | --- |');
-    for (const r of results) console.log(`| ${r.name} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${(r.rps / bareRps).toFixed(2)} | ${r.errors} / ${r.non2xx} |`);
+    for (const r of results)
+      console.log(
+        `| ${r.name} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${(r.rps / bareRps).toFixed(2)} | ${r.errors} / ${r.non2xx} |`,
+      );
     await app.stop();
     await new Promise((r) => bareServer.close(r));
     await pool.end();

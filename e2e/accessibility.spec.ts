@@ -35,7 +35,10 @@ async function audit(page: Page, testInfo: TestInfo, label: string): Promise<str
   const { violations } = await new AxeBuilder({ page }).withTags([...TAGS, 'best-practice']).analyze();
   const isWcag = (v: (typeof violations)[number]) => v.tags.some((t) => TAGS.includes(t));
   const describe = (v: (typeof violations)[number]) =>
-    `${label}: ${v.id} (${v.impact ?? 'no impact'}) ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`;
+    `${label}: ${v.id} (${v.impact ?? 'no impact'}) ${v.help} — ${v.nodes
+      .slice(0, 3)
+      .map((n) => n.target.join(' '))
+      .join(', ')}`;
   const blocking = violations.filter((v) => isWcag(v) && BLOCKING.has(v.impact ?? ''));
   for (const v of violations.filter((x) => !blocking.includes(x))) {
     testInfo.annotations.push({ type: 'a11y', description: describe(v) });
@@ -121,7 +124,9 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
     ]);
     await page.goto('/coach');
     const athlete = await follow(page, DEMO.jordan.name, DEMO.jordan.name);
-    await sweep(page, testInfo, [{ path: athlete, heading: DEMO.jordan.name, then: open('Record a 1RM or a set', 'Record a 1RM or a set') }]);
+    await sweep(page, testInfo, [
+      { path: athlete, heading: DEMO.jordan.name, then: open('Record a 1RM or a set', 'Record a 1RM or a set') },
+    ]);
 
     // The program builder, on the one draft program this spec keeps for Jordan.
     const existing = page.getByRole('link', { name: A11Y_PROGRAM, exact: true });
@@ -141,7 +146,11 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
     const program = new URL(page.url()).pathname;
     // The session editor is the densest form in the app: one draft session, a month ahead, kept too.
     const editor = page.getByRole('region', { name: new RegExp(`^${A11Y_SESSION} ·`) });
-    const listed = (p: Page) => p.getByRole('list', { name: 'Weeks' }).getByRole('link', { name: new RegExp(`^${A11Y_SESSION}`) }).first();
+    const listed = (p: Page) =>
+      p
+        .getByRole('list', { name: 'Weeks' })
+        .getByRole('link', { name: new RegExp(`^${A11Y_SESSION}`) })
+        .first();
     if ((await listed(page).count()) === 0) {
       const addSession = page.getByRole('form', { name: 'New session' });
       await addSession.getByLabel('Session date').fill(new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10));
@@ -149,18 +158,23 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
       await addSession.getByRole('button', { name: 'Add session' }).click();
       await expect(editor).toBeVisible();
     }
-    await sweep(page, testInfo, [{
-      path: program,
-      heading: A11Y_PROGRAM,
-      then: {
-        label: 'session editor with the exercise picker open',
-        act: async (p) => {
-          await listed(p).click();
-          await p.getByRole('region', { name: new RegExp(`^${A11Y_SESSION} ·`) }).getByRole('button', { name: 'Add exercise', exact: true }).click();
-          await expect(p.getByRole('searchbox', { name: 'Find an exercise' })).toBeVisible();
+    await sweep(page, testInfo, [
+      {
+        path: program,
+        heading: A11Y_PROGRAM,
+        then: {
+          label: 'session editor with the exercise picker open',
+          act: async (p) => {
+            await listed(p).click();
+            await p
+              .getByRole('region', { name: new RegExp(`^${A11Y_SESSION} ·`) })
+              .getByRole('button', { name: 'Add exercise', exact: true })
+              .click();
+            await expect(p.getByRole('searchbox', { name: 'Find an exercise' })).toBeVisible();
+          },
         },
       },
-    }]);
+    ]);
   });
 
   test('clinician', async ({ page }, testInfo) => {
@@ -189,10 +203,16 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
     await expectHome(page, HOME_HEADING.athlete);
     await sweep(page, testInfo, [
       { path: '/athlete', heading: HOME_HEADING.athlete },
-      { path: '/athlete/report', then: { label: 'errors shown', act: async (p) => {
-        await p.getByRole('button', { name: 'Next: warning signs' }).click();
-        await expect(p.getByText('Some answers are missing')).toBeVisible();
-      } } },
+      {
+        path: '/athlete/report',
+        then: {
+          label: 'errors shown',
+          act: async (p) => {
+            await p.getByRole('button', { name: 'Next: warning signs' }).click();
+            await expect(p.getByText('Some answers are missing')).toBeVisible();
+          },
+        },
+      },
       { path: '/athlete/check-in' },
       { path: '/athlete/log' },
       { path: '/athlete/week' },
@@ -205,10 +225,6 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
   test('guardian', async ({ page }, testInfo) => {
     await signIn(page, DEMO.elena.email);
     await expectHome(page, HOME_HEADING.guardian);
-    await sweep(page, testInfo, [
-      { path: '/guardian', heading: HOME_HEADING.guardian },
-      { path: '/notices' },
-      { path: '/account' },
-    ]);
+    await sweep(page, testInfo, [{ path: '/guardian', heading: HOME_HEADING.guardian }, { path: '/notices' }, { path: '/account' }]);
   });
 });

@@ -1,7 +1,17 @@
 import { expect, test, type Page } from '@playwright/test';
 import pg from 'pg';
 import { Secret, TOTP } from 'otpauth';
-import { DEMO, NEW_PASSWORD, SLOW_HASH_MS, acceptInvitation, createInvitation, expectHome, keepScreenshot, signIn, uniqueEmail } from './helpers';
+import {
+  DEMO,
+  NEW_PASSWORD,
+  SLOW_HASH_MS,
+  acceptInvitation,
+  createInvitation,
+  expectHome,
+  keepScreenshot,
+  signIn,
+  uniqueEmail,
+} from './helpers';
 
 /**
  * Account security in the browser: a forgotten password reset through the e-mailed link (read from
@@ -40,7 +50,10 @@ async function signOut(page: Page) {
   await expect(page.getByRole('heading', { name: 'Sign in to Loadline' })).toBeVisible();
 }
 
-test('a person who forgot their password asks for a link, sets a new password from the e-mail and signs in with it', async ({ page, browser }, testInfo) => {
+test('a person who forgot their password asks for a link, sets a new password from the e-mail and signs in with it', async ({
+  page,
+  browser,
+}, testInfo) => {
   const email = uniqueEmail(testInfo, 'reset');
   await signIn(page, DEMO.admin.email);
   const invite = await createInvitation(page, { email, name: 'Reset Person', roles: ['Coach'] });

@@ -8,7 +8,13 @@ import { RED_FLAG_ITEMS } from '../policies/red-flags';
 export async function newDesktopPage(browser: Browser, testInfo: TestInfo): Promise<Page> {
   const { viewport, userAgent, deviceScaleFactor, isMobile, hasTouch } = devices['Desktop Chrome'];
   const context = await browser.newContext({
-    viewport, userAgent, deviceScaleFactor, isMobile, hasTouch, baseURL: testInfo.project.use.baseURL, timezoneId: 'UTC',
+    viewport,
+    userAgent,
+    deviceScaleFactor,
+    isMobile,
+    hasTouch,
+    baseURL: testInfo.project.use.baseURL,
+    timezoneId: 'UTC',
   });
   return context.newPage();
 }
@@ -20,7 +26,10 @@ export async function newDesktopPage(browser: Browser, testInfo: TestInfo): Prom
 async function press(page: Page, scope: Page | Locator, name: string): Promise<void> {
   const radio = scope.getByRole('radio', { name, exact: true });
   // `has` is matched inside each label, so it names the radio from the label, not from the page.
-  await scope.locator('label').filter({ has: page.getByRole('radio', { name, exact: true }) }).click();
+  await scope
+    .locator('label')
+    .filter({ has: page.getByRole('radio', { name, exact: true }) })
+    .click();
   await expect(radio).toBeChecked();
 }
 

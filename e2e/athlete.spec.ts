@@ -129,7 +129,10 @@ test.describe.serial('an athlete reports pain and logs a session on a phone; the
     await expect(heading).toBeFocused();
     // It covers the screen: whatever sits at the top and the middle of the phone's screen is the dialog.
     const covered = await page.evaluate(() =>
-      [[187, 40], [187, 370]].every(([x, y]) => document.elementFromPoint(x, y)?.closest('[role="dialog"]') !== null),
+      [
+        [187, 40],
+        [187, 370],
+      ].every(([x, y]) => document.elementFromPoint(x, y)?.closest('[role="dialog"]') !== null),
     );
     expect(covered, 'the emergency screen covers the page').toBe(true);
     // The first control after the heading is the call to the organization's number (911 in the demo).
@@ -160,7 +163,9 @@ test.describe.serial('an athlete reports pain and logs a session on a phone; the
 
       await priya.getByRole('link', { name: 'Notices' }).click();
       await expectHome(priya, 'Notices');
-      const notice = priya.getByRole('listitem').filter({ has: priya.getByRole('heading', { name: `Emergency warning sign: ${DEMO.ava.name}` }) });
+      const notice = priya
+        .getByRole('listitem')
+        .filter({ has: priya.getByRole('heading', { name: `Emergency warning sign: ${DEMO.ava.name}` }) });
       await expect(notice).toBeVisible();
       // The clinician's notice carries the answer itself.
       await expect(notice).toContainText(redFlagQuestion(EMERGENCY_ITEM));

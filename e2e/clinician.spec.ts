@@ -1,15 +1,6 @@
 import { expect, test, type BrowserContext, type Page } from '@playwright/test';
 import { DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
-import {
-  contextOptions,
-  fillStageDates,
-  isoDay,
-  newPhonePage,
-  pageText,
-  recordApiBodies,
-  setPattern,
-  stageFieldset,
-} from './plan-helpers';
+import { contextOptions, fillStageDates, isoDay, newPhonePage, pageText, recordApiBodies, setPattern, stageFieldset } from './plan-helpers';
 
 /**
  * Cases and restriction plans end to end, against the demo scenario: Priya (clinician) opens a case

@@ -108,7 +108,8 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     const writes: string[] = [];
     const recordWrite = (r: Request) => {
       const { pathname } = new URL(r.url());
-      if ((r.method() === 'PUT' && /\/sessions\/[0-9a-f-]{36}$/.test(pathname)) || pathname.endsWith('/publish')) writes.push(`${r.method()} ${pathname}`);
+      if ((r.method() === 'PUT' && /\/sessions\/[0-9a-f-]{36}$/.test(pathname)) || pathname.endsWith('/publish'))
+        writes.push(`${r.method()} ${pathname}`);
     };
     rosa.on('request', recordWrite);
 

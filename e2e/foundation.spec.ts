@@ -166,9 +166,7 @@ test.describe('desktop only', () => {
       await careTeam.getByLabel('Care-team role').selectOption({ label: 'Coach' });
       await careTeam.getByLabel('Person').selectOption({ label: coachName });
       await careTeam.getByRole('button', { name: 'Add to care team' }).click();
-      await expect(
-        page.getByRole('button', { name: `Remove ${coachName} (coach) from the care team` }),
-      ).toBeVisible();
+      await expect(page.getByRole('button', { name: `Remove ${coachName} (coach) from the care team` })).toBeVisible();
       if (isPhone(page)) await expectNoSidewaysScroll(page);
 
       // The server reads care teams on every request, so a reload is enough.

@@ -91,12 +91,7 @@ export async function createInvitation(
  * Opens an invitation link in a fresh browser context (no cookies, like the invitee's own phone),
  * accepts it, and returns the now signed-in page. The caller closes page.context().
  */
-export async function acceptInvitation(
-  browser: Browser,
-  testInfo: TestInfo,
-  link: string,
-  name: string,
-): Promise<Page> {
+export async function acceptInvitation(browser: Browser, testInfo: TestInfo, link: string, name: string): Promise<Page> {
   const { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL } = testInfo.project.use;
   const context = await browser.newContext({ viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL });
   const page = await context.newPage();

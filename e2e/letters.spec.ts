@@ -2,14 +2,7 @@ import { expect, test, type BrowserContext, type Page } from '@playwright/test';
 import pg from 'pg';
 import { describeDate } from '../policies/load/describe';
 import { DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
-import {
-  checkAnswer,
-  downloadFrom,
-  downloadHead,
-  lettersSection,
-  signDraftLetter,
-  writeDraftLetter,
-} from './letters-helpers';
+import { checkAnswer, downloadFrom, downloadHead, lettersSection, signDraftLetter, writeDraftLetter } from './letters-helpers';
 import { contextOptions, isoDay, pageText, recordApiBodies } from './plan-helpers';
 
 /**
@@ -106,7 +99,9 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     // Shown once: the server keeps only a fingerprint, so a fresh load cannot show it again.
     expect(await pageText(priya)).not.toContain(code);
 
-    const letter = lettersSection(priya).getByRole('article').filter({ has: priya.getByRole('img', { name: /^Letter status: Signed/ }) });
+    const letter = lettersSection(priya)
+      .getByRole('article')
+      .filter({ has: priya.getByRole('img', { name: /^Letter status: Signed/ }) });
     await expect(letter).toHaveCount(1);
     await expect(letter).toContainText(FAMILY_NOTE);
     await expect(letter).toContainText('ATC · licence AT-12345');
@@ -140,7 +135,9 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     await expect(letters.getByRole('article', { name: 'Clearance letter for Maya' }).getByRole('status')).toContainText('Acknowledged on');
   });
 
-  test('signed out, the code checks as Valid with initials and the organization only; a made-up code is Not found', async ({ browser }, testInfo) => {
+  test('signed out, the code checks as Valid with initials and the organization only; a made-up code is Not found', async ({
+    browser,
+  }, testInfo) => {
     expect(firstCode, 'the code from the first step').not.toBe('');
     const context = await browser.newContext(contextOptions(testInfo));
     try {
@@ -209,7 +206,9 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     await expect(section.getByText(/Earlier letters, superseded/)).toHaveCount(0);
     // Wait for this letter's e-mail too, so the Outbox step finds both.
     await expect(next.getByRole('listitem').filter({ hasText: DEMO.elena.email })).toContainText('Sent', { timeout: 30_000 });
-    const secondId = (await next.getByRole('link', { name: 'Download the letter (PDF)' }).getAttribute('href'))?.match(/letters\/([0-9a-f-]{36})\/pdf$/)?.[1];
+    const secondId = (await next.getByRole('link', { name: 'Download the letter (PDF)' }).getAttribute('href'))?.match(
+      /letters\/([0-9a-f-]{36})\/pdf$/,
+    )?.[1];
     expect(secondId, 'the second letter’s id from its PDF link').toBeTruthy();
 
     const context = await browser.newContext(contextOptions(testInfo));
@@ -227,7 +226,10 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
       await priya.reload();
       await expectHome(priya, DEMO.maya.name);
       await expect(inForce()).toHaveCount(1);
-      await expect(inForce().getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', new RegExp(`/letters/${secondId}/pdf$`));
+      await expect(inForce().getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute(
+        'href',
+        new RegExp(`/letters/${secondId}/pdf$`),
+      );
       await expect(next).toHaveCount(0);
       await expect(section.getByText('Earlier letters, superseded (1)')).toBeVisible();
 

@@ -44,7 +44,10 @@ export function stageFieldset(page: Page, number: number): Locator {
 export async function setPattern(stage: Locator, pattern: string, mode: Mode, caps: Caps = {}): Promise<void> {
   const group = stage.getByRole('group', { name: `${pattern} mode`, exact: true });
   // The radios are drawn as a segmented control (the inputs are visually hidden): press the segment.
-  await group.locator('label').filter({ hasText: new RegExp(`^${mode}$`) }).click();
+  await group
+    .locator('label')
+    .filter({ hasText: new RegExp(`^${mode}$`) })
+    .click();
   await expect(group.getByRole('radio', { name: mode, exact: true })).toBeChecked();
   for (const [cap, value] of Object.entries(caps)) {
     await stage.getByLabel(`${pattern} ${cap}`, { exact: true }).fill(value);

@@ -44,7 +44,11 @@ async function join(browser: Browser, options: BrowserContextOptions, link: stri
   const context = await browser.newContext(options);
   const page = await context.newPage();
   const token = link.split('#')[1];
-  const session = await apiWrite<SessionDto>(page.request, 'post', '/invitations/accept', { token, displayName: name, password: NEW_PASSWORD });
+  const session = await apiWrite<SessionDto>(page.request, 'post', '/invitations/accept', {
+    token,
+    displayName: name,
+    password: NEW_PASSWORD,
+  });
   return { page, name, membershipId: session.memberships[0].id };
 }
 
@@ -72,10 +76,20 @@ export async function castForUploads(
   const coach = await join(browser, options.desktop, await invite('coach', ['coach']), `Clip Coach ${stamp}`);
   const clinician = await join(browser, options.desktop, await invite('clinician', ['clinician']), `Clip Clinician ${stamp}`);
   const guardian = await join(browser, options.phone, await invite('guardian', ['guardian']), `Clip Guardian ${stamp}`);
-  await apiWrite(admin.request, 'post', `/orgs/${orgId}/guardian-links`, { athleteId: athlete.membershipId, guardianId: guardian.membershipId });
+  await apiWrite(admin.request, 'post', `/orgs/${orgId}/guardian-links`, {
+    athleteId: athlete.membershipId,
+    guardianId: guardian.membershipId,
+  });
 
-  for (const [member, role] of [[coach, 'coach'], [clinician, 'clinician']] as const) {
-    await apiWrite(admin.request, 'post', `/orgs/${orgId}/care-team`, { athleteId: athlete.membershipId, memberId: member.membershipId, role });
+  for (const [member, role] of [
+    [coach, 'coach'],
+    [clinician, 'clinician'],
+  ] as const) {
+    await apiWrite(admin.request, 'post', `/orgs/${orgId}/care-team`, {
+      athleteId: athlete.membershipId,
+      memberId: member.membershipId,
+      role,
+    });
   }
   const logged = await apiWrite<{ log: { id: string } }>(athlete.page.request, 'post', `/orgs/${orgId}/training-logs`, {
     athleteId: athlete.membershipId,

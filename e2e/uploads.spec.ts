@@ -34,7 +34,8 @@ test.describe.serial('clips and case documents', () => {
   });
 
   test.afterAll(async () => {
-    for (const page of [cast?.admin, cast?.athlete.page, cast?.coach.page, cast?.clinician.page, cast?.guardian.page]) await page?.context().close();
+    for (const page of [cast?.admin, cast?.athlete.page, cast?.coach.page, cast?.clinician.page, cast?.guardian.page])
+      await page?.context().close();
   });
 
   test('the athlete records a clip on the phone and uploads it from the logged session, with a progress bar', async () => {
@@ -182,7 +183,10 @@ test.describe.serial('clips and case documents', () => {
     await expect(doc).toContainText('Bayside Imaging');
     await expect(doc).toContainText('PDF');
 
-    const [download] = await Promise.all([clinician.waitForEvent('download'), doc.getByRole('link', { name: `Download ${DOC_TITLE}` }).click()]);
+    const [download] = await Promise.all([
+      clinician.waitForEvent('download'),
+      doc.getByRole('link', { name: `Download ${DOC_TITLE}` }).click(),
+    ]);
     expect(download.suggestedFilename()).toBe(`imaging-report-lumbar-spine-${isoDay(-1)}.pdf`);
     await keepScreenshot(clinician, test.info(), 'case-documents-desktop');
 

@@ -3,7 +3,10 @@
  * name already carries (people often keep it in their display name).
  */
 export function nameWithCredential(name: string, credential: string): string {
-  const has = name.split(',').map((p) => p.trim().toLowerCase()).includes(credential.trim().toLowerCase());
+  const has = name
+    .split(',')
+    .map((p) => p.trim().toLowerCase())
+    .includes(credential.trim().toLowerCase());
   return has || !credential.trim() ? name : `${name}, ${credential}`;
 }
 
@@ -24,8 +27,7 @@ export type LetterStanding =
   | { status: 'expired'; supersededBy: null }
   | { status: 'superseded'; supersededBy: string };
 
-const signedBefore = (a: SignedLetterDates, b: SignedLetterDates) =>
-  a.signedAt < b.signedAt || (a.signedAt === b.signedAt && a.id < b.id);
+const signedBefore = (a: SignedLetterDates, b: SignedLetterDates) => a.signedAt < b.signedAt || (a.signedAt === b.signedAt && a.id < b.id);
 
 /**
  * Where a signed letter stands on `today` (YYYY-MM-DD), among all the athlete's signed letters.

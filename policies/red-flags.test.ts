@@ -15,12 +15,27 @@ describe('the red-flag items (NICE NG59 2016, updated 2020; Finucane et al. 2020
 
   it('every possible cauda equina sign is an emergency item (NICE NG59; Finucane et al. 2020)', () => {
     // Saddle numbness; bladder; bowel; sexual function; both legs; progressive weakness.
-    expect(ids('emergency').sort()).toEqual(['bladder_change', 'both_legs', 'bowel_change', 'leg_weakness_worsening', 'saddle_numbness', 'sexual_change']);
+    expect(ids('emergency').sort()).toEqual([
+      'bladder_change',
+      'both_legs',
+      'bowel_change',
+      'leg_weakness_worsening',
+      'saddle_numbness',
+      'sexual_change',
+    ]);
   });
 
   it('the urgent items cover cancer, weight loss, night pain, fever, immunity/steroids, trauma (NICE NG59; Finucane et al. 2020) and adolescent extension pain (from memory)', () => {
     expect(ids('urgent')).toEqual(
-      expect.arrayContaining(['cancer_history', 'weight_loss', 'night_pain', 'fever_unwell', 'immune_steroids', 'significant_trauma', 'extension_pain_adolescent']),
+      expect.arrayContaining([
+        'cancer_history',
+        'weight_loss',
+        'night_pain',
+        'fever_unwell',
+        'immune_steroids',
+        'significant_trauma',
+        'extension_pain_adolescent',
+      ]),
     );
   });
 
@@ -62,11 +77,15 @@ describe('routing a report (REFERENCES §7 checks)', () => {
 
   it('property: any emergency item → emergency whatever the other answers (REFERENCES §7 check 1)', () => {
     fc.assert(
-      fc.property(fc.constantFrom(...ids('emergency')), fc.array(fc.boolean(), { minLength: RED_FLAG_ITEMS.length, maxLength: RED_FLAG_ITEMS.length }), (id, bits) => {
-        const answers = Object.fromEntries(RED_FLAG_ITEMS.map((i, k) => [i.id, bits[k]]));
-        answers[id] = true;
-        expect(routeReport(answers)).toBe('emergency');
-      }),
+      fc.property(
+        fc.constantFrom(...ids('emergency')),
+        fc.array(fc.boolean(), { minLength: RED_FLAG_ITEMS.length, maxLength: RED_FLAG_ITEMS.length }),
+        (id, bits) => {
+          const answers = Object.fromEntries(RED_FLAG_ITEMS.map((i, k) => [i.id, bits[k]]));
+          answers[id] = true;
+          expect(routeReport(answers)).toBe('emergency');
+        },
+      ),
     );
   });
 

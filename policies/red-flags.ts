@@ -13,19 +13,31 @@ export interface RedFlagItem {
 
 export const RED_FLAG_ITEMS: RedFlagItem[] = [
   // Emergency now — possible cauda equina (NICE NG59; Finucane 2020).
-  { id: 'saddle_numbness', tier: 'emergency', question: 'Is there new numbness or tingling between your legs, around your bottom or private parts, or on your inner thighs?' },
+  {
+    id: 'saddle_numbness',
+    tier: 'emergency',
+    question: 'Is there new numbness or tingling between your legs, around your bottom or private parts, or on your inner thighs?',
+  },
   { id: 'bladder_change', tier: 'emergency', question: 'Is it newly hard to start peeing, to hold it in, or to feel when you need to go?' },
   { id: 'bowel_change', tier: 'emergency', question: 'Have you newly lost control of your bowels (pooing without meaning to)?' },
   { id: 'sexual_change', tier: 'emergency', question: 'Have you noticed new changes in feeling or function in your private parts?' },
   { id: 'both_legs', tier: 'emergency', question: 'Do you have pain, numbness, tingling or weakness in both legs?' },
-  { id: 'leg_weakness_worsening', tier: 'emergency', question: 'Is one or both of your legs getting weaker (tripping, foot slapping, legs giving way)?' },
+  {
+    id: 'leg_weakness_worsening',
+    tier: 'emergency',
+    question: 'Is one or both of your legs getting weaker (tripping, foot slapping, legs giving way)?',
+  },
   // Urgent review today (NICE NG59; Finucane 2020).
   { id: 'fever_unwell', tier: 'urgent', question: 'Do you have a fever, or feel generally unwell, along with the back pain?' },
   { id: 'significant_trauma', tier: 'urgent', question: 'Did the pain start after a hard fall, crash or heavy impact?' },
   { id: 'night_pain', tier: 'urgent', question: 'Is the pain constant, even at night when you are lying still?' },
   { id: 'weight_loss', tier: 'urgent', question: 'Have you lost weight recently without trying?' },
   { id: 'cancer_history', tier: 'urgent', question: 'Have you ever been treated for cancer?' },
-  { id: 'immune_steroids', tier: 'urgent', question: 'Do you take steroid medicine long term, or have a condition or medicine that weakens your immune system?' },
+  {
+    id: 'immune_steroids',
+    tier: 'urgent',
+    question: 'Do you take steroid medicine long term, or have a condition or medicine that weakens your immune system?',
+  },
   // Adolescent athletes with pain on bending backwards: assess for a pars stress fracture (from memory).
   { id: 'extension_pain_adolescent', tier: 'urgent', question: 'Does it hurt more when you bend backwards or arch your back?' },
 ];

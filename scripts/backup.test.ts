@@ -41,8 +41,9 @@ async function query<T>(url: string, sql: string, params: unknown[] = []): Promi
 
 afterAll(async () => {
   // With the copies a replacing restore sets aside (`<name>_restoring_…`, `<name>_before_restore_…`).
-  const names = await query<{ datname: string }>(dbUrl('postgres'), 'SELECT datname FROM pg_database WHERE datname LIKE ANY ($1)',
-    [[...scratch].map((n) => `${n}%`)]);
+  const names = await query<{ datname: string }>(dbUrl('postgres'), 'SELECT datname FROM pg_database WHERE datname LIKE ANY ($1)', [
+    [...scratch].map((n) => `${n}%`),
+  ]);
   for (const { datname } of names) await query(dbUrl('postgres'), `DROP DATABASE IF EXISTS ${pg.escapeIdentifier(datname)} WITH (FORCE)`);
   rmSync(work, { recursive: true, force: true });
 });
@@ -65,8 +66,15 @@ describe('db:backup and db:restore (SECURITY item 36)', () => {
     const clinician = await signedIn(h.app, org.clinician.email, TEST_PASSWORD);
     const base = `/api/orgs/${org.id}`;
     const opened = await clinician.post(`${base}/cases`, {
-      athleteId: org.athlete.membershipId, bodyRegions: ['lower_back'], onsetDate: day(-10), diagnosis: 'Lumbar strain',
-      clinicalNotes: 'Tender L4-L5', status: 'limited', statusEffectiveFrom: day(-9), statusNote: 'Light work only', reviewDate: day(14),
+      athleteId: org.athlete.membershipId,
+      bodyRegions: ['lower_back'],
+      onsetDate: day(-10),
+      diagnosis: 'Lumbar strain',
+      clinicalNotes: 'Tender L4-L5',
+      status: 'limited',
+      statusEffectiveFrom: day(-9),
+      statusNote: 'Light work only',
+      reviewDate: day(14),
     });
     expect(opened.status, JSON.stringify(opened.body)).toBe(201);
     const updated = await clinician.patch(`${base}/cases/${opened.body.id}`, { version: opened.body.version, reviewDate: day(21) });
@@ -75,9 +83,14 @@ describe('db:backup and db:restore (SECURITY item 36)', () => {
     // A second organization whose trail was tampered with before the backup: the restore must report it.
     const other = await createOrg(h.ds);
     const admin = await signedIn(h.app, other.admin.email, TEST_PASSWORD);
-    const invited = await admin.post(`/api/orgs/${other.id}/invitations`, { email: `new-${randomUUID().slice(0, 8)}@test.example`, roles: ['coach'] });
+    const invited = await admin.post(`/api/orgs/${other.id}/invitations`, {
+      email: `new-${randomUUID().slice(0, 8)}@test.example`,
+      roles: ['coach'],
+    });
     expect(invited.status, JSON.stringify(invited.body)).toBe(201);
-    const [entry]: { id: string }[] = await h.ds.query('SELECT id FROM audit_entries WHERE organization_id = $1 ORDER BY id DESC LIMIT 1', [other.id]);
+    const [entry]: { id: string }[] = await h.ds.query('SELECT id FROM audit_entries WHERE organization_id = $1 ORDER BY id DESC LIMIT 1', [
+      other.id,
+    ]);
     // As the audit tests do: the append-only trigger is off only inside this one transaction.
     await h.ds.transaction(async (m) => {
       await m.query('ALTER TABLE audit_entries DISABLE TRIGGER audit_entries_no_update_delete');
@@ -129,7 +142,9 @@ describe('db:backup and db:restore (SECURITY item 36)', () => {
     const entries: { n: string }[] = await h.ds.query('SELECT count(*) AS n FROM audit_entries WHERE organization_id = $1', [org.id]);
     expect(restored.chains.find((r) => r.organizationId === org.id)).toMatchObject({ intact: true, entries: Number(entries[0].n) });
     expect(restored.chains.find((r) => r.organizationId === tampered.org.id)).toMatchObject({
-      intact: false, firstBrokenId: tampered.entryId, reason: 'contents do not match the stored hash',
+      intact: false,
+      firstBrokenId: tampered.entryId,
+      reason: 'contents do not match the stored hash',
     });
     expect(restored.intact).toBe(false);
 
@@ -170,10 +185,14 @@ describe('db:backup and db:restore (SECURITY item 36)', () => {
 
   it('the command line prints the refusal as a sentence and exits 1', async () => {
     const run = await new Promise<{ code: number | null; out: string; err: string }>((resolve, reject) => {
-      const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/db.ts', 'restore', path.join(work, 'nope.dump'), '--into', scratchName()], {
-        cwd: ROOT,
-        env: { ...process.env, DATABASE_URL: inject('databaseUrl') },
-      });
+      const child = spawn(
+        process.execPath,
+        ['--import', 'tsx', 'scripts/db.ts', 'restore', path.join(work, 'nope.dump'), '--into', scratchName()],
+        {
+          cwd: ROOT,
+          env: { ...process.env, DATABASE_URL: inject('databaseUrl') },
+        },
+      );
       let out = '';
       let err = '';
       child.stdout.on('data', (d) => (out += d));

@@ -36,7 +36,10 @@ export async function verifyAllChains(manager: EntityManager): Promise<ChainRepo
 
 /** A UTC timestamp that sorts and is safe in file and database names: 20261202T033612Z. */
 function stamp(at = new Date()): string {
-  return at.toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
+  return at
+    .toISOString()
+    .replace(/[-:]/g, '')
+    .replace(/\.\d+Z$/, 'Z');
 }
 
 function databaseName(url: string): string {
@@ -89,14 +92,19 @@ async function withClient<T>(url: string, fn: (c: pg.Client) => Promise<T>): Pro
 export function pgTool(tool: 'pg_dump' | 'pg_restore', serverMajor?: number): string {
   const base = '/usr/lib/postgresql';
   const versions = existsSync(base)
-    ? readdirSync(base).map(Number).filter((v) => v > 0 && existsSync(path.join(base, String(v), 'bin', tool))).sort((a, b) => a - b)
+    ? readdirSync(base)
+        .map(Number)
+        .filter((v) => v > 0 && existsSync(path.join(base, String(v), 'bin', tool)))
+        .sort((a, b) => a - b)
     : [];
-  const fit = serverMajor === undefined ? versions.at(-1)
-    : versions.includes(serverMajor) ? serverMajor : versions.find((v) => v > serverMajor);
+  const fit =
+    serverMajor === undefined ? versions.at(-1) : versions.includes(serverMajor) ? serverMajor : versions.find((v) => v > serverMajor);
   if (fit === undefined) {
     const found = versions.length ? `only version ${versions.join(', ')} is installed` : 'none is installed';
     const want = serverMajor ?? '';
-    throw new BackupError(`${tool}${want ? ` for PostgreSQL ${want}` : ''} is needed under ${base} but ${found}; install Debian's "postgresql-client${want ? `-${want}` : ''}"`);
+    throw new BackupError(
+      `${tool}${want ? ` for PostgreSQL ${want}` : ''} is needed under ${base} but ${found}; install Debian's "postgresql-client${want ? `-${want}` : ''}"`,
+    );
   }
   return path.join(base, String(fit), 'bin', tool);
 }
@@ -218,7 +226,8 @@ export async function backupDatabase(opts: BackupOptions): Promise<BackupResult>
       // Unfinished uploads (`.partial`) are not files yet; `-C dir .` keeps paths relative to the folder.
       // GNU tar exits 1 when a file was deleted or renamed into place while it read the folder: on a
       // live app that is expected, and the archive is still whole.
-      runTool('tar', ['--create', '--file=-', '--exclude=*.partial', '-C', opts.uploadsDir!, '.'], process.env, fd, [0, 1]));
+      runTool('tar', ['--create', '--file=-', '--exclude=*.partial', '-C', opts.uploadsDir!, '.'], process.env, fd, [0, 1]),
+    );
     uploads = { file: tarFile, bytes: tarBytes };
   }
   return { file, bytes, counts, uploads };
@@ -236,7 +245,9 @@ export async function checkArchive(file: string): Promise<void> {
     closeSync(fd);
   }
   if (head.toString('latin1') !== ARCHIVE_MAGIC) {
-    throw new BackupError(`${file} is not a pg_dump custom-format archive (what npm run db:backup writes); a plain SQL dump is restored with psql`);
+    throw new BackupError(
+      `${file} is not a pg_dump custom-format archive (what npm run db:backup writes); a plain SQL dump is restored with psql`,
+    );
   }
   // The newest pg_restore installed reads archives of every older version.
   await runTool(pgTool('pg_restore'), ['--list', file], process.env).catch((err: Error) => {
@@ -279,8 +290,11 @@ async function restoreInto(file: string, url: string): Promise<Omit<RestoreResul
   const { uri, env } = toolConnection(url);
   // One transaction: a failed restore leaves the database as empty as it was. Owners and grants are
   // those of the restoring role, so a dump moves between servers with different role names.
-  await runTool(pgRestore, ['--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error',
-    '--no-password', `--dbname=${uri}`, file], env);
+  await runTool(
+    pgRestore,
+    ['--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', '--no-password', `--dbname=${uri}`, file],
+    env,
+  );
   const counts = await withClient(url, countTables);
   const ds = createDataSource(url, 2);
   await ds.initialize();
@@ -290,7 +304,8 @@ async function restoreInto(file: string, url: string): Promise<Omit<RestoreResul
   } catch (err) {
     // A backup from before a migration that changed audit_entries is read with today's entity: the
     // restore itself is sound, and the check works once the schema is brought up to date.
-    const unverified = `the audit chains could not be checked on this schema (${(err as Error).message}); ` +
+    const unverified =
+      `the audit chains could not be checked on this schema (${(err as Error).message}); ` +
       'run npm run db:migrate on it, then npm run audit:verify';
     return { database: databaseName(url), counts, chains: [], intact: false, unverified };
   } finally {
@@ -316,13 +331,18 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   await checkArchive(file);
   const name = databaseName(opts.url);
   // The maintenance database is where the creating and renaming happen from; templates seed new ones.
-  if (['postgres', 'template0', 'template1'].includes(name)) throw new BackupError(`will not restore into the "${name}" database; name another with --into`);
+  if (['postgres', 'template0', 'template1'].includes(name))
+    throw new BackupError(`will not restore into the "${name}" database; name another with --into`);
   const admin = withDatabase(opts.url, 'postgres');
   const q = pg.escapeIdentifier;
-  const exists = await withClient(admin, async (c) => (await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name])).rowCount === 1);
-  const create = (db: string) => withClient(admin, (c) => c.query(`CREATE DATABASE ${q(db)}`)).catch((err: Error) => {
-    throw new BackupError(`could not create database "${db}" to restore into: ${err.message}`);
-  });
+  const exists = await withClient(
+    admin,
+    async (c) => (await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name])).rowCount === 1,
+  );
+  const create = (db: string) =>
+    withClient(admin, (c) => c.query(`CREATE DATABASE ${q(db)}`)).catch((err: Error) => {
+      throw new BackupError(`could not create database "${db}" to restore into: ${err.message}`);
+    });
 
   if (!exists) {
     await create(name);
@@ -336,8 +356,10 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   const relations = await relationCount(opts.url);
   if (relations === 0) return { ...(await restoreInto(file, opts.url)), previous: null };
   if (!opts.yes) {
-    throw new BackupError(`database "${name}" already exists and holds ${relations} tables, sequences or views; ` +
-      'pass --yes to replace it (it is kept under another name), or --into <new name> to restore beside it');
+    throw new BackupError(
+      `database "${name}" already exists and holds ${relations} tables, sequences or views; ` +
+        'pass --yes to replace it (it is kept under another name), or --into <new name> to restore beside it',
+    );
   }
 
   const at = stamp().toLowerCase();
@@ -360,7 +382,10 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
         await c.query(`ALTER DATABASE ${q(name)} RENAME TO ${q(previous)}`);
         break;
       } catch (err) {
-        if (attempt >= 5) throw new BackupError(`could not rename "${name}" aside (stop the app and retry): ${(err as Error).message}; the restored copy is in "${incoming}"`);
+        if (attempt >= 5)
+          throw new BackupError(
+            `could not rename "${name}" aside (stop the app and retry): ${(err as Error).message}; the restored copy is in "${incoming}"`,
+          );
         await new Promise((r) => setTimeout(r, 200 * attempt));
       }
     }

@@ -54,7 +54,8 @@ try {
     if (positionals.length !== 1) throw new BackupError('usage: npm run db:restore -- <file> [--into <database>] [--yes]');
     let url = db.url;
     if (values.into !== undefined) {
-      if (!/^[a-z_][a-z0-9_]{0,62}$/.test(values.into)) throw new BackupError(`--into ${values.into}: use lower-case letters, digits and _ (at most 63)`);
+      if (!/^[a-z_][a-z0-9_]{0,62}$/.test(values.into))
+        throw new BackupError(`--into ${values.into}: use lower-case letters, digits and _ (at most 63)`);
       const target = new URL(db.url);
       target.pathname = `/${values.into}`;
       url = target.toString();
@@ -68,7 +69,9 @@ try {
     if (result.unverified) console.log(result.unverified);
     const tar = positionals[0].replace(/\.dump$/, '') + '.uploads.tar';
     if (tar !== positionals[0] && existsSync(tar)) {
-      console.log(`uploads are not restored by this command; their archive is ${tar}: extract it into the uploads folder with tar -xf ${tar} -C <folder>`);
+      console.log(
+        `uploads are not restored by this command; their archive is ${tar}: extract it into the uploads folder with tar -xf ${tar} -C <folder>`,
+      );
     }
   } else {
     console.error('usage: db.ts migrate | revert | audit-verify | backup [file] | restore <file> [--into <database>] [--yes]');

@@ -40,7 +40,7 @@ export function ensureServerBinaries(): string {
   let bin = findBinDir();
   if (bin) return bin;
   if (!isRoot) throw new Error('PostgreSQL server binaries are missing; install Debian\'s "postgresql" package.');
-  log('PostgreSQL server not found: installing Debian\'s postgresql package…');
+  log("PostgreSQL server not found: installing Debian's postgresql package…");
   run('apt-get', ['update', '-qq']);
   execFileSync('apt-get', ['install', '-y', '-qq', 'postgresql'], {
     stdio: 'inherit',
@@ -89,8 +89,11 @@ export function startCluster(): Cluster {
     mkdirSync(data, { recursive: true });
     if (isRoot) run('chown', ['postgres:postgres', data]);
     chmodSync(data, 0o700);
-    run(path.join(bin, 'initdb'), ['-D', data, '-U', 'postgres', '-E', 'UTF8', '--locale=C.UTF-8',
-      '--auth-local=trust', '--auth-host=scram-sha-256'], { asPostgres: true, quiet: true });
+    run(
+      path.join(bin, 'initdb'),
+      ['-D', data, '-U', 'postgres', '-E', 'UTF8', '--locale=C.UTF-8', '--auth-local=trust', '--auth-host=scram-sha-256'],
+      { asPostgres: true, quiet: true },
+    );
     const conf = path.join(data, 'postgresql.conf');
     const extra = [
       "listen_addresses = '127.0.0.1'",
@@ -101,20 +104,27 @@ export function startCluster(): Cluster {
     ].join('\n');
     writeFileSync(conf, `${readFileSync(conf, 'utf8')}\n# Loadline\n${extra}\n`);
   }
-  const status = spawnSync(isRoot ? 'runuser' : path.join(bin, 'pg_ctl'),
-    isRoot ? ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), '-D', data, 'status'] : ['-D', data, 'status']);
+  const status = spawnSync(
+    isRoot ? 'runuser' : path.join(bin, 'pg_ctl'),
+    isRoot ? ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), '-D', data, 'status'] : ['-D', data, 'status'],
+  );
   const startedHere = status.status !== 0;
   if (startedHere) {
     log(`starting PostgreSQL on 127.0.0.1:${PG_PORT}`);
-    run(path.join(bin, 'pg_ctl'), ['-D', data, '-l', path.join(data, 'server.log'), '-w', '-t', '60', 'start'],
-      { asPostgres: true, quiet: true });
+    run(path.join(bin, 'pg_ctl'), ['-D', data, '-l', path.join(data, 'server.log'), '-w', '-t', '60', 'start'], {
+      asPostgres: true,
+      quiet: true,
+    });
   } else {
     log(`PostgreSQL already running on 127.0.0.1:${PG_PORT}`);
   }
   // The app role is created once, over the local socket where the superuser is trusted.
   const psql = (sql: string) =>
-    run(path.join(bin, 'psql'), ['-h', data, '-p', String(PG_PORT), '-U', 'postgres', '-d', 'postgres',
-      '-v', 'ON_ERROR_STOP=1', '-qAtc', sql], { asPostgres: true, quiet: true });
+    run(
+      path.join(bin, 'psql'),
+      ['-h', data, '-p', String(PG_PORT), '-U', 'postgres', '-d', 'postgres', '-v', 'ON_ERROR_STOP=1', '-qAtc', sql],
+      { asPostgres: true, quiet: true },
+    );
   const exists = psql(`SELECT 1 FROM pg_roles WHERE rolname = '${APP_ROLE}'`).trim();
   if (!exists) psql(`CREATE ROLE ${APP_ROLE} LOGIN CREATEDB PASSWORD '${password}'`);
   else psql(`ALTER ROLE ${APP_ROLE} PASSWORD '${password}'`);
@@ -127,9 +137,13 @@ export function startCluster(): Cluster {
       if (!startedHere || stopped) return;
       stopped = true;
       log('stopping PostgreSQL');
-      spawnSync(isRoot ? 'runuser' : path.join(bin, 'pg_ctl'),
-        isRoot ? ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), '-D', data, '-m', 'fast', '-w', 'stop']
-          : ['-D', data, '-m', 'fast', '-w', 'stop'], { stdio: 'ignore' });
+      spawnSync(
+        isRoot ? 'runuser' : path.join(bin, 'pg_ctl'),
+        isRoot
+          ? ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), '-D', data, '-m', 'fast', '-w', 'stop']
+          : ['-D', data, '-m', 'fast', '-w', 'stop'],
+        { stdio: 'ignore' },
+      );
     },
   };
 }

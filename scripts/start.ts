@@ -22,7 +22,11 @@ try {
   const seedDs = createDataSource(db.url, 2);
   await seedDs.initialize();
   // The demo's referral note goes to the same storage the server will use (local folder or S3).
-  const demo = await loadDemo(seedDs, 12, createStorage(loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() })));
+  const demo = await loadDemo(
+    seedDs,
+    12,
+    createStorage(loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() })),
+  );
   await seedDs.destroy();
   console.log(demo.created ? '[demo] demo scenario loaded' : '[demo] demo scenario already present (unchanged)');
   console.log('[client] building…');
@@ -38,7 +42,11 @@ try {
 
   const width = Math.max(...DEMO_PEOPLE.map((p) => p.email.length));
   console.log(`\nLoadline is running at ${config.PUBLIC_URL ?? running.url}`);
-  console.log(fake ? `E-mail goes to the local fake SMTP server on 127.0.0.1:${fake.port} (admins: Outbox page).\n` : `E-mail goes to ${config.SMTP_URL}.\n`);
+  console.log(
+    fake
+      ? `E-mail goes to the local fake SMTP server on 127.0.0.1:${fake.port} (admins: Outbox page).\n`
+      : `E-mail goes to ${config.SMTP_URL}.\n`,
+  );
   console.log(`Demo accounts (password for all: ${DEMO_PASSWORD}):`);
   for (const p of DEMO_PEOPLE) console.log(`  ${p.email.padEnd(width)}  ${p.roles.join(', ').padEnd(9)}  ${p.name}`);
   console.log('\nPress Ctrl-C to stop.\n');

@@ -34,7 +34,7 @@ function run(cmd: string, argv: string[], env: Record<string, string> = {}): Pro
 function ensureChromium() {
   if (existsSync(CHROMIUM)) return;
   if (process.getuid?.() !== 0) throw new Error(`Chromium not found at ${CHROMIUM}; install Debian's "chromium" package.`);
-  console.log('[e2e] installing Debian\'s chromium package…');
+  console.log("[e2e] installing Debian's chromium package…");
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
   const res = spawnSync('apt-get', ['install', '-y', '-qq', 'chromium'], { stdio: 'inherit', env });
@@ -49,6 +49,9 @@ try {
     if ((await run('npx', ['tsc', '--noEmit', '-p', '.'])) !== 0) throw new Error('type-check failed');
     stage('lint');
     if ((await run('npx', ['eslint', '.'])) !== 0) throw new Error('lint failed');
+    stage('format (prettier --check)');
+    if ((await run('npx', ['prettier', '--check', '--log-level', 'warn', '.'])) !== 0)
+      throw new Error('format check failed: run npm run format');
   }
 
   if (only('unit')) {
@@ -89,7 +92,11 @@ try {
     const server = await startServer(config, createLogger(config.LOG_LEVEL));
     try {
       // The database URL lets a browser test read the fake mailbox (e.g. a password reset link).
-      const code = await run('npx', ['playwright', 'test'], { E2E_BASE_URL: server.url, CHROMIUM_PATH: CHROMIUM, E2E_DATABASE_URL: db.url });
+      const code = await run('npx', ['playwright', 'test'], {
+        E2E_BASE_URL: server.url,
+        CHROMIUM_PATH: CHROMIUM,
+        E2E_DATABASE_URL: db.url,
+      });
       if (code !== 0) throw new Error('browser tests failed');
     } finally {
       await server.stop();

@@ -64,7 +64,11 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     CheckIn: { organizationId: org, athleteId },
     TrainingLog: { id: `log-${relation}`, organizationId: org, athleteId },
     Flag: { id: `flag-${relation}`, organizationId: org, athleteId },
-    Notification: { id: `notice-${relation}`, organizationId: org, recipientId: relation === 'self' ? me : relation === 'other-org' ? 'member-in-org-b' : STAFF },
+    Notification: {
+      id: `notice-${relation}`,
+      organizationId: org,
+      recipientId: relation === 'self' ? me : relation === 'other-org' ? 'member-in-org-b' : STAFF,
+    },
     // The library belongs to the organization, not to a person: only 'same-org' and 'other-org' apply.
     Exercise: { id: `exercise-${relation}`, organizationId: org },
     Baseline: { organizationId: org, athleteId },
@@ -89,7 +93,9 @@ describe('the access matrix', () => {
     expect(new Set(ACCESS_MATRIX.map((r) => r.relation))).toEqual(new Set(RELATIONS));
     // Whatever a role may do somewhere, the table also says it may not do it in another organization.
     for (const row of ACCESS_MATRIX.filter((r) => r.allowed)) {
-      const otherOrg = ACCESS_MATRIX.find((r) => r.role === row.role && r.subject === row.subject && r.action === row.action && r.relation === 'other-org');
+      const otherOrg = ACCESS_MATRIX.find(
+        (r) => r.role === row.role && r.subject === row.subject && r.action === row.action && r.relation === 'other-org',
+      );
       expect(otherOrg, `${row.role} ${row.action} ${row.subject} in another organization`).toBeDefined();
     }
   });
@@ -137,7 +143,13 @@ describe('defineAbilityFor, beyond the matrix', () => {
   });
 
   it('nobody, not even an admin with every role, may write or delete an audit entry', () => {
-    const everything: Actor = { ...actorFor('admin'), roles: [...ROLES], coachOf: [LINKED_ATHLETE], clinicianOf: [LINKED_ATHLETE], guardianOf: [LINKED_ATHLETE] };
+    const everything: Actor = {
+      ...actorFor('admin'),
+      roles: [...ROLES],
+      coachOf: [LINKED_ATHLETE],
+      clinicianOf: [LINKED_ATHLETE],
+      guardianOf: [LINKED_ATHLETE],
+    };
     const ability = defineAbilityFor(everything);
     const entry = asSubject('AuditEntry', { organizationId: ORG });
     expect(ability.can('read', entry)).toBe(true);
@@ -147,7 +159,7 @@ describe('defineAbilityFor, beyond the matrix', () => {
     }
   });
 
-  it('an admin may change a membership\'s roles, but not move it to another organization or another user', () => {
+  it("an admin may change a membership's roles, but not move it to another organization or another user", () => {
     const ability = defineAbilityFor(actorFor('admin'));
     const membership = asSubject('Membership', { id: STAFF, organizationId: ORG, userId: 'user-staff' });
     expect(ability.can('update', membership, 'roles')).toBe(true);
@@ -165,19 +177,21 @@ describe('defineAbilityFor, beyond the matrix', () => {
       const mine = asSubject('User', { id: actor.userId });
       expect(ability.can('update', mine, 'displayName'), role).toBe(true);
       expect(ability.can('update', mine, 'unitPref'), role).toBe(true);
-      for (const field of ['email', 'passwordHash', 'id', 'roles']) expect(ability.can('update', mine, field), `${role} ${field}`).toBe(false);
+      for (const field of ['email', 'passwordHash', 'id', 'roles'])
+        expect(ability.can('update', mine, field), `${role} ${field}`).toBe(false);
       expect(ability.can('update', asSubject('User', { id: 'user-staff' }), 'displayName'), role).toBe(false);
     }
   });
 
-  it('an admin may change an athlete\'s date of birth, sport and position, and nothing else', () => {
+  it("an admin may change an athlete's date of birth, sport and position, and nothing else", () => {
     const ability = defineAbilityFor(actorFor('admin'));
     const athlete = asSubject('Athlete', { id: OTHER_ATHLETE, organizationId: ORG });
     for (const field of ['dateOfBirth', 'sport', 'position']) expect(ability.can('update', athlete, field), field).toBe(true);
-    for (const field of ['organizationId', 'id', 'version', 'displayName']) expect(ability.can('update', athlete, field), field).toBe(false);
+    for (const field of ['organizationId', 'id', 'version', 'displayName'])
+      expect(ability.can('update', athlete, field), field).toBe(false);
   });
 
-  it('ids alone never open another organization\'s records', () => {
+  it("ids alone never open another organization's records", () => {
     // The same athlete and link ids the actors are tied to, but in another organization.
     for (const role of ROLES) {
       const actor = actorFor(role);
@@ -199,14 +213,26 @@ describe('defineAbilityFor, beyond the matrix', () => {
         asSubject('Flag', { id: 'f', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
         asSubject('Notification', { id: 'n', organizationId: OTHER_ORG, recipientId: actor.membershipId }),
         asSubject('Exercise', { id: 'e', organizationId: OTHER_ORG }),
-        asSubject('Baseline', { organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
-        asSubject('Program', { id: 'p', organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
+        asSubject('Baseline', {
+          organizationId: OTHER_ORG,
+          athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE,
+        }),
+        asSubject('Program', {
+          id: 'p',
+          organizationId: OTHER_ORG,
+          athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE,
+        }),
         asSubject('ProgramException', { id: 'x', organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
-        asSubject('Letter', { id: 'l', organizationId: OTHER_ORG, athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE }),
+        asSubject('Letter', {
+          id: 'l',
+          organizationId: OTHER_ORG,
+          athleteId: actor.roles.includes('athlete') ? actor.membershipId : LINKED_ATHLETE,
+        }),
         asSubject('LetterAcknowledgement', { organizationId: OTHER_ORG, athleteId: LINKED_ATHLETE }),
         asSubject('Outbox', { organizationId: OTHER_ORG }),
       ];
-      for (const s of cases) for (const action of ACTIONS) expect(ability.can(action, s as never), `${role} ${action} ${JSON.stringify(s)}`).toBe(false);
+      for (const s of cases)
+        for (const action of ACTIONS) expect(ability.can(action, s as never), `${role} ${action} ${JSON.stringify(s)}`).toBe(false);
     }
   });
 
@@ -321,7 +347,7 @@ describe('defineAbilityFor, beyond the matrix', () => {
     expect(guardian.can('create', 'LetterAcknowledgement')).toBe(true);
   });
 
-  it('asSubject does not tag the caller\'s object', () => {
+  it("asSubject does not tag the caller's object", () => {
     const record = { id: LINKED_ATHLETE, organizationId: ORG };
     asSubject('Athlete', record);
     expect(Object.keys(record)).toEqual(['id', 'organizationId']);

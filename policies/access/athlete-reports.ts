@@ -7,10 +7,38 @@ import type { RuleSet } from './builder';
  * necessary); guardians and admins read none of it (guardians are told of emergencies by notice).
  */
 export const PAIN_REPORT_FIELDS = {
-  all: ['id', 'organizationId', 'athleteId', 'athleteName', 'reportedAt', 'bodyRegions', 'painNow', 'painWorst24h', 'onsetDate',
-    'aggravatingPatterns', 'startedInTraining', 'note', 'redFlags', 'route', 'caseId'],
-  coach: ['id', 'organizationId', 'athleteId', 'athleteName', 'reportedAt', 'bodyRegions', 'painNow', 'painWorst24h', 'onsetDate',
-    'aggravatingPatterns', 'startedInTraining', 'route', 'caseId'],
+  all: [
+    'id',
+    'organizationId',
+    'athleteId',
+    'athleteName',
+    'reportedAt',
+    'bodyRegions',
+    'painNow',
+    'painWorst24h',
+    'onsetDate',
+    'aggravatingPatterns',
+    'startedInTraining',
+    'note',
+    'redFlags',
+    'route',
+    'caseId',
+  ],
+  coach: [
+    'id',
+    'organizationId',
+    'athleteId',
+    'athleteName',
+    'reportedAt',
+    'bodyRegions',
+    'painNow',
+    'painWorst24h',
+    'onsetDate',
+    'aggravatingPatterns',
+    'startedInTraining',
+    'route',
+    'caseId',
+  ],
 } as const;
 
 export const athleteReportRules: RuleSet = ({ can }, actor) => {

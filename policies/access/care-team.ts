@@ -8,7 +8,8 @@ export const careTeamRules: RuleSet = ({ can }, actor) => {
     can('read', 'CareTeamAssignment', { organizationId: org, athleteId: actor.membershipId });
   }
   const around = [...actor.coachOf, ...actor.clinicianOf, ...actor.guardianOf];
-  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician') || hasRole(actor, 'guardian')) can('read', 'CareTeamAssignment', { organizationId: org, athleteId: { $in: around } });
+  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician') || hasRole(actor, 'guardian'))
+    can('read', 'CareTeamAssignment', { organizationId: org, athleteId: { $in: around } });
   if (hasRole(actor, 'admin')) {
     can('read', 'CareTeamAssignment', { organizationId: org });
     can('create', 'CareTeamAssignment', { organizationId: org });

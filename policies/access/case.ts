@@ -7,14 +7,77 @@ import type { RuleSet } from './builder';
  * the athlete all but the clinical notes; guardians the status; admins that a case exists.
  */
 export const CASE_FIELDS = {
-  all: ['id', 'organizationId', 'athleteId', 'athleteName', 'bodyRegions', 'onsetDate', 'diagnosis', 'clinicalNotes', 'status',
-    'statusEffectiveFrom', 'statusNote', 'reviewDate', 'openedAt', 'openedByName', 'closedOn', 'closingNote', 'planId', 'version'],
-  coach: ['id', 'organizationId', 'athleteId', 'athleteName', 'bodyRegions', 'onsetDate', 'status', 'statusEffectiveFrom',
-    'statusNote', 'reviewDate', 'openedAt', 'openedByName', 'closedOn', 'closingNote', 'planId', 'version'],
-  athlete: ['id', 'organizationId', 'athleteId', 'athleteName', 'bodyRegions', 'onsetDate', 'diagnosis', 'status', 'statusEffectiveFrom',
-    'statusNote', 'reviewDate', 'openedAt', 'openedByName', 'closedOn', 'closingNote', 'planId', 'version'],
-  guardian: ['id', 'organizationId', 'athleteId', 'athleteName', 'status', 'statusEffectiveFrom', 'statusNote', 'reviewDate',
-    'openedAt', 'closedOn', 'planId', 'version'],
+  all: [
+    'id',
+    'organizationId',
+    'athleteId',
+    'athleteName',
+    'bodyRegions',
+    'onsetDate',
+    'diagnosis',
+    'clinicalNotes',
+    'status',
+    'statusEffectiveFrom',
+    'statusNote',
+    'reviewDate',
+    'openedAt',
+    'openedByName',
+    'closedOn',
+    'closingNote',
+    'planId',
+    'version',
+  ],
+  coach: [
+    'id',
+    'organizationId',
+    'athleteId',
+    'athleteName',
+    'bodyRegions',
+    'onsetDate',
+    'status',
+    'statusEffectiveFrom',
+    'statusNote',
+    'reviewDate',
+    'openedAt',
+    'openedByName',
+    'closedOn',
+    'closingNote',
+    'planId',
+    'version',
+  ],
+  athlete: [
+    'id',
+    'organizationId',
+    'athleteId',
+    'athleteName',
+    'bodyRegions',
+    'onsetDate',
+    'diagnosis',
+    'status',
+    'statusEffectiveFrom',
+    'statusNote',
+    'reviewDate',
+    'openedAt',
+    'openedByName',
+    'closedOn',
+    'closingNote',
+    'planId',
+    'version',
+  ],
+  guardian: [
+    'id',
+    'organizationId',
+    'athleteId',
+    'athleteName',
+    'status',
+    'statusEffectiveFrom',
+    'statusNote',
+    'reviewDate',
+    'openedAt',
+    'closedOn',
+    'planId',
+    'version',
+  ],
   admin: ['id', 'organizationId', 'athleteId', 'athleteName', 'status', 'statusEffectiveFrom', 'openedAt', 'closedOn', 'version'],
 } as const;
 
@@ -35,7 +98,8 @@ export const caseRules: RuleSet = ({ can }, actor) => {
   }
   if (hasRole(actor, 'coach')) can('read', 'Case', [...CASE_FIELDS.coach], { organizationId: org, athleteId: { $in: actor.coachOf } });
   if (hasRole(actor, 'athlete')) can('read', 'Case', [...CASE_FIELDS.athlete], { organizationId: org, athleteId: actor.membershipId });
-  if (hasRole(actor, 'guardian')) can('read', 'Case', [...CASE_FIELDS.guardian], { organizationId: org, athleteId: { $in: actor.guardianOf } });
+  if (hasRole(actor, 'guardian'))
+    can('read', 'Case', [...CASE_FIELDS.guardian], { organizationId: org, athleteId: { $in: actor.guardianOf } });
   if (hasRole(actor, 'admin')) can('read', 'Case', [...CASE_FIELDS.admin], { organizationId: org });
 
   // Everyone around the athlete sees the participation status.

@@ -7,7 +7,8 @@ export const guardianLinkRules: RuleSet = ({ can }, actor) => {
   if (hasRole(actor, 'guardian')) can('read', 'GuardianLink', { organizationId: org, athleteId: { $in: actor.guardianOf } });
   if (hasRole(actor, 'athlete')) can('read', 'GuardianLink', { organizationId: org, athleteId: actor.membershipId });
   const team = [...actor.coachOf, ...actor.clinicianOf];
-  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician')) can('read', 'GuardianLink', { organizationId: org, athleteId: { $in: team } });
+  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician'))
+    can('read', 'GuardianLink', { organizationId: org, athleteId: { $in: team } });
   if (hasRole(actor, 'admin')) {
     can('read', 'GuardianLink', { organizationId: org });
     can('create', 'GuardianLink', { organizationId: org });

@@ -384,7 +384,8 @@ function expand(): MatrixRow[] {
   const rows: MatrixRow[] = [];
   for (const [subject, action, relation, cells] of GRID) {
     const marks = cells.trim().split(/\s+/);
-    if (marks.length !== MATRIX_ROLES.length) throw new Error(`matrix: ${subject} ${action} ${relation} needs ${MATRIX_ROLES.length} cells`);
+    if (marks.length !== MATRIX_ROLES.length)
+      throw new Error(`matrix: ${subject} ${action} ${relation} needs ${MATRIX_ROLES.length} cells`);
     marks.forEach((mark, i) => {
       if (mark === '-') return;
       if (mark !== 'Y' && mark !== 'n') throw new Error(`matrix: unknown cell "${mark}" in ${subject} ${action} ${relation}`);

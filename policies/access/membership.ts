@@ -12,5 +12,6 @@ export const membershipRules: RuleSet = ({ can }, actor) => {
     can('delete', 'Membership', { organizationId: org });
   }
   const myAthletes = [...actor.coachOf, ...actor.clinicianOf, ...actor.guardianOf];
-  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician') || hasRole(actor, 'guardian')) can('read', 'Membership', { organizationId: org, id: { $in: myAthletes } });
+  if (hasRole(actor, 'coach') || hasRole(actor, 'clinician') || hasRole(actor, 'guardian'))
+    can('read', 'Membership', { organizationId: org, id: { $in: myAthletes } });
 };

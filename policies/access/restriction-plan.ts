@@ -12,6 +12,7 @@ export const restrictionPlanRules: RuleSet = ({ can }, actor) => {
     const team = [...actor.coachOf, ...actor.clinicianOf];
     can('read', 'RestrictionPlan', ['current', 'history'], { organizationId: org, athleteId: { $in: team } });
   }
-  if (hasRole(actor, 'guardian')) can('read', 'RestrictionPlan', ['current'], { organizationId: org, athleteId: { $in: actor.guardianOf } });
+  if (hasRole(actor, 'guardian'))
+    can('read', 'RestrictionPlan', ['current'], { organizationId: org, athleteId: { $in: actor.guardianOf } });
   if (hasRole(actor, 'athlete')) can('read', 'RestrictionPlan', ['current'], { organizationId: org, athleteId: actor.membershipId });
 };

@@ -1,7 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
-  blockingBreaches, checkSets, HARD_SET_RPE, plannedKg, suggestSwaps, weekOf, type Breach, type EngineContext, type EngineExercise, type EngineSet,
+  blockingBreaches,
+  checkSets,
+  HARD_SET_RPE,
+  plannedKg,
+  suggestSwaps,
+  weekOf,
+  type Breach,
+  type EngineContext,
+  type EngineExercise,
+  type EngineSet,
 } from './compliance';
 import { inForceOn, type PlanInput, type PlanStage } from './in-force';
 import { MOVEMENT_PATTERNS, type ParticipationStatus } from './patterns';
@@ -9,8 +18,14 @@ import { KETTLEBELL_KG } from './steps';
 
 // Extends compliance.test.ts: one block per check kind, plus order independence and a large input.
 const kg25 = { kind: 'increment' as const, step: 2.5, unit: 'kg' as const };
-const ex = (id: string, name: string, patterns: EngineExercise['patterns'], more: Partial<EngineExercise> = {}): EngineExercise =>
-  ({ id, name, patterns, ballistic: false, steps: kg25, ...more });
+const ex = (id: string, name: string, patterns: EngineExercise['patterns'], more: Partial<EngineExercise> = {}): EngineExercise => ({
+  id,
+  name,
+  patterns,
+  ballistic: false,
+  steps: kg25,
+  ...more,
+});
 const deadlift = ex('dl', 'Deadlift', ['hinge']);
 const rdl = ex('rdl', 'Romanian deadlift', ['hinge'], { referenceId: 'dl' });
 const squat = ex('sq', 'Back squat', ['squat']);
@@ -23,13 +38,32 @@ const kbSwing = ex('kbs', 'Kettlebell swing', ['swing', 'hinge'], { ballistic: t
 const library = [deadlift, rdl, squat, trapBar, sumo, bench, benchLb, boxJump, kbSwing];
 const exercises = Object.fromEntries(library.map((e) => [e.id, e]));
 
-const stage = (patterns: PlanStage['patterns'], startDate = '2026-03-02', endDate = '2026-03-29'): PlanStage =>
-  ({ id: `${startDate}`, startDate, endDate, painCeiling: 5, patterns });
+const stage = (patterns: PlanStage['patterns'], startDate = '2026-03-02', endDate = '2026-03-29'): PlanStage => ({
+  id: `${startDate}`,
+  startDate,
+  endDate,
+  painCeiling: 5,
+  patterns,
+});
 const plan = (...stages: PlanStage[]): PlanInput[] => [{ planId: 'p', caseId: 'c', version: 1, stages }];
 let nextId = 0;
-const set = (over: Partial<EngineSet> = {}): EngineSet =>
-  ({ id: `s${nextId++}`, sessionId: 'mon', date: '2026-03-02', exerciseId: 'dl', reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 6, order: 0, ...over });
-const ctx = (plans: PlanInput[], baselines: Record<string, number> = {}, more: Partial<EngineContext> = {}): EngineContext => ({ plans, exercises, baselines, ...more });
+const set = (over: Partial<EngineSet> = {}): EngineSet => ({
+  id: `s${nextId++}`,
+  sessionId: 'mon',
+  date: '2026-03-02',
+  exerciseId: 'dl',
+  reps: 5,
+  load: { kind: 'kg', value: 60 },
+  targetRpe: 6,
+  order: 0,
+  ...over,
+});
+const ctx = (plans: PlanInput[], baselines: Record<string, number> = {}, more: Partial<EngineContext> = {}): EngineContext => ({
+  plans,
+  exercises,
+  baselines,
+  ...more,
+});
 const rules = (bs: Breach[]) => bs.map((b) => b.rule);
 const hinge60 = plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } }));
 
@@ -39,7 +73,9 @@ describe('status Out', () => {
     const [b, ...rest] = checkSets([set({ reps: 50 })], ctx([], {}, { statusOn }));
     expect(rest).toEqual([]);
     expect(b).toMatchObject({ rule: 'status_out', pattern: null, fits: null, fittingKg: null, planned: 'Deadlift' });
-    expect(b.message).toBe('The athlete is Out on 2026-03-02 and no restriction plan says what they may train. Ask the clinician for a plan or an exception.');
+    expect(b.message).toBe(
+      'The athlete is Out on 2026-03-02 and no restriction plan says what they may train. Ask the clinician for a plan or an exception.',
+    );
   });
 
   it('Out with a stage in force: the stage says what is allowed (a free pattern passes)', () => {
@@ -51,7 +87,10 @@ describe('status Out', () => {
 
   it('is read per date: Out from Wednesday blocks Wednesday, not Monday', () => {
     const statusOn = (d: string): ParticipationStatus => (d >= '2026-03-04' ? 'out' : 'limited');
-    const bs = checkSets([set({ id: 'mon', date: '2026-03-02' }), set({ id: 'wed', sessionId: 'wed', date: '2026-03-04' })], ctx([], {}, { statusOn }));
+    const bs = checkSets(
+      [set({ id: 'mon', date: '2026-03-02' }), set({ id: 'wed', sessionId: 'wed', date: '2026-03-04' })],
+      ctx([], {}, { statusOn }),
+    );
     expect(bs.map((b) => [b.setId, b.rule])).toEqual([['wed', 'status_out']]);
   });
 });
@@ -67,7 +106,12 @@ describe('blocked and impact', () => {
     const plans = plan(stage({ jump: { mode: 'capped', caps: { impactAllowed: false } } }));
     const [b] = checkSets([set({ exerciseId: 'bj', load: { kind: 'bodyweight' } })], ctx(plans));
     expect(b).toMatchObject({ rule: 'impact', pattern: 'jump', limit: 'no impact', planned: 'Box jump (impact)' });
-    expect(checkSets([set({ exerciseId: 'bj', load: { kind: 'bodyweight' } })], ctx(plan(stage({ jump: { mode: 'capped', caps: { impactAllowed: true } } }))))).toEqual([]);
+    expect(
+      checkSets(
+        [set({ exerciseId: 'bj', load: { kind: 'bodyweight' } })],
+        ctx(plan(stage({ jump: { mode: 'capped', caps: { impactAllowed: true } } }))),
+      ),
+    ).toEqual([]);
   });
 
   it('two plans in force: impact is allowed only if both allow it (Shrier 2015, most restrictive)', () => {
@@ -83,7 +127,14 @@ describe('% of 1RM caps', () => {
   it('a % load against a % cap: 65% of 140 kg = 91 kg breaches max 60% = 84 kg; 82.5 kg fits (REFERENCES 9)', () => {
     const [b, ...rest] = checkSets([set({ load: { kind: 'percent', value: 65 } })], ctx(hinge60, { dl: 140 }));
     expect(rest).toEqual([]);
-    expect(b).toMatchObject({ rule: 'percent_1rm', pattern: 'hinge', limit: 'max 60% of 140 kg = 84 kg', planned: '91 kg', fits: '82.5 kg fits on 2.5 kg steps', fittingKg: 82.5 });
+    expect(b).toMatchObject({
+      rule: 'percent_1rm',
+      pattern: 'hinge',
+      limit: 'max 60% of 140 kg = 84 kg',
+      planned: '91 kg',
+      fits: '82.5 kg fits on 2.5 kg steps',
+      fittingKg: 82.5,
+    });
     expect(b.message).toBe('Hinge: max 60% of 140 kg = 84 kg: planned 91 kg; 82.5 kg fits on 2.5 kg steps.');
   });
 
@@ -103,7 +154,7 @@ describe('% of 1RM caps', () => {
     expect(checkSets([set({ load: { kind: 'lb', value: 185 } })], ctx(hinge60, { dl: 140 }))).toEqual([]); // 83.91 kg
   });
 
-  it('an exercise tied to a reference lift is capped from that lift\'s 1RM (RDL → deadlift 140 kg)', () => {
+  it("an exercise tied to a reference lift is capped from that lift's 1RM (RDL → deadlift 140 kg)", () => {
     const [b] = checkSets([set({ exerciseId: 'rdl', load: { kind: 'kg', value: 87.5 } })], ctx(hinge60, { dl: 140, rdl: 200 }));
     expect(b.limit).toBe('max 60% of 140 kg = 84 kg');
     expect(b.message).toContain('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg');
@@ -111,16 +162,26 @@ describe('% of 1RM caps', () => {
 
   it('no baseline: a % cap cannot be checked, and is a breach whatever the load (a bodyweight set too)', () => {
     const bs = checkSets([set({ id: 'kg' }), set({ id: 'bw', order: 1, load: { kind: 'bodyweight' } })], ctx(hinge60));
-    expect(bs.map((b) => [b.setId, b.rule, b.planned])).toEqual([['kg', 'no_baseline', '60 kg'], ['bw', 'no_baseline', 'bodyweight']]);
+    expect(bs.map((b) => [b.setId, b.rule, b.planned])).toEqual([
+      ['kg', 'no_baseline', '60 kg'],
+      ['bw', 'no_baseline', 'bodyweight'],
+    ]);
   });
 });
 
 describe('absolute load caps', () => {
   const cap84 = plan(stage({ horizontal_push: { mode: 'capped', caps: { maxLoadKg: 84 } } }));
 
-  it('a kg load over a kg cap, with the fitting load on the exercise\'s steps', () => {
+  it("a kg load over a kg cap, with the fitting load on the exercise's steps", () => {
     const [b] = checkSets([set({ exerciseId: 'bp', load: { kind: 'kg', value: 85 } })], ctx(cap84));
-    expect(b).toMatchObject({ rule: 'absolute_load', pattern: 'horizontal_push', limit: 'max 84 kg', planned: '85 kg', fits: '82.5 kg fits on 2.5 kg steps', fittingKg: 82.5 });
+    expect(b).toMatchObject({
+      rule: 'absolute_load',
+      pattern: 'horizontal_push',
+      limit: 'max 84 kg',
+      planned: '85 kg',
+      fits: '82.5 kg fits on 2.5 kg steps',
+      fittingKg: 82.5,
+    });
     expect(b.message).toBe('Horizontal push: max 84 kg: planned 85 kg; 82.5 kg fits on 2.5 kg steps.');
   });
 
@@ -139,7 +200,9 @@ describe('absolute load caps', () => {
     expect(b).toMatchObject({ rule: 'no_baseline', limit: 'max 84 kg', planned: '70%' });
     // 70% of 120 kg = 84 kg (at the cap) passes; 75% = 90 kg does not.
     expect(checkSets([pct], ctx(cap84, { bp: 120 }))).toEqual([]);
-    expect(rules(checkSets([set({ exerciseId: 'bp', load: { kind: 'percent', value: 75 } })], ctx(cap84, { bp: 120 })))).toEqual(['absolute_load']);
+    expect(rules(checkSets([set({ exerciseId: 'bp', load: { kind: 'percent', value: 75 } })], ctx(cap84, { bp: 120 })))).toEqual([
+      'absolute_load',
+    ]);
   });
 
   it('on kettlebells, the cap picks a bell: 20 kg cap, 24 kg planned → 20 kg fits', () => {
@@ -192,8 +255,10 @@ describe('sets per session and hard sets per week', () => {
   it('sets per session count per pattern across exercises, within one session only', () => {
     const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxSetsPerSession: 3 } } }));
     const sets = [
-      set({ id: 'dl1', order: 0 }), set({ id: 'dl2', order: 1 }),
-      set({ id: 'kb1', exerciseId: 'kbs', order: 2, load: { kind: 'kg', value: 16 } }), set({ id: 'kb2', exerciseId: 'kbs', order: 3, load: { kind: 'kg', value: 16 } }),
+      set({ id: 'dl1', order: 0 }),
+      set({ id: 'dl2', order: 1 }),
+      set({ id: 'kb1', exerciseId: 'kbs', order: 2, load: { kind: 'kg', value: 16 } }),
+      set({ id: 'kb2', exerciseId: 'kbs', order: 3, load: { kind: 'kg', value: 16 } }),
       set({ id: 'pm1', sessionId: 'mon-pm', order: 0 }),
     ];
     const bs = checkSets(sets, ctx(plans));
@@ -206,17 +271,27 @@ describe('sets per session and hard sets per week', () => {
     const unknown = [set({ id: 'u1', targetRpe: null }), set({ id: 'u2', order: 1, targetRpe: null })];
     expect(checkSets(unknown, ctx(plans)).map((b) => [b.setId, b.rule])).toEqual([['u2', 'hard_sets_per_week']]);
     // 95 kg × 5 of 120 kg: 79.17% allows 8.28 reps → RPE 6.72 → 6.5: easy.
-    const easy = [set({ id: 'e1', load: { kind: 'kg', value: 95 }, targetRpe: null }), set({ id: 'e2', order: 1, load: { kind: 'kg', value: 95 }, targetRpe: null })];
+    const easy = [
+      set({ id: 'e1', load: { kind: 'kg', value: 95 }, targetRpe: null }),
+      set({ id: 'e2', order: 1, load: { kind: 'kg', value: 95 }, targetRpe: null }),
+    ];
     expect(checkSets(easy, ctx(plans, { dl: 120 }))).toEqual([]);
     // A target of exactly 7 is hard.
     const seven = [set({ id: 'h1', targetRpe: 7 }), set({ id: 'h2', order: 1, targetRpe: 7 })];
     const [b] = checkSets(seven, ctx(plans));
-    expect(b).toMatchObject({ setId: 'h2', rule: 'hard_sets_per_week', limit: 'max 1 hard sets per week', planned: 'hard set 2 of the week of 2026-03-02' });
+    expect(b).toMatchObject({
+      setId: 'h2',
+      rule: 'hard_sets_per_week',
+      limit: 'max 1 hard sets per week',
+      planned: 'hard set 2 of the week of 2026-03-02',
+    });
   });
 
   it('a max of 0 hard sets makes every hard set a breach, and easy ones pass', () => {
     const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: 0 } } }));
-    expect(checkSets([set({ id: 'h', targetRpe: 8 }), set({ id: 'e', order: 1, targetRpe: 5 })], ctx(plans)).map((b) => b.setId)).toEqual(['h']);
+    expect(checkSets([set({ id: 'h', targetRpe: 8 }), set({ id: 'e', order: 1, targetRpe: 5 })], ctx(plans)).map((b) => b.setId)).toEqual([
+      'h',
+    ]);
   });
 
   it('weeks are ISO weeks (Monday first), across month and year ends', () => {
@@ -229,10 +304,12 @@ describe('sets per session and hard sets per week', () => {
 
 describe('an exercise with several patterns: the most restrictive rule decides (Shrier 2015, BJSM 49:1311–1315)', () => {
   it('the lowest cap of each kind wins, and names the pattern it comes from', () => {
-    const plans = plan(stage({
-      hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRepsPerSet: 8 } },
-      squat: { mode: 'capped', caps: { maxPercent1RM: 50, maxRepsPerSet: 10 } },
-    }));
+    const plans = plan(
+      stage({
+        hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRepsPerSet: 8 } },
+        squat: { mode: 'capped', caps: { maxPercent1RM: 50, maxRepsPerSet: 10 } },
+      }),
+    );
     const bs = checkSets([set({ exerciseId: 'tb', reps: 9, load: { kind: 'kg', value: 75 } })], ctx(plans, { tb: 140 }));
     expect(bs.map((b) => [b.rule, b.pattern, b.limit])).toEqual([
       ['percent_1rm', 'squat', 'max 50% of 140 kg = 70 kg'],
@@ -245,9 +322,14 @@ describe('an exercise with several patterns: the most restrictive rule decides (
     expect(rules(checkSets([set({ exerciseId: 'tb', load: { kind: 'kg', value: 70 } })], ctx(plans)))).toEqual(['absolute_load']);
   });
 
-  it('a set counts toward each of its patterns\' session limits', () => {
-    const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxSetsPerSession: 1 } }, squat: { mode: 'capped', caps: { maxSetsPerSession: 5 } } }));
-    const bs = checkSets([set({ id: 'sq', exerciseId: 'sq' }), set({ id: 'tb', exerciseId: 'tb', order: 1 }), set({ id: 'dl', order: 2 })], ctx(plans));
+  it("a set counts toward each of its patterns' session limits", () => {
+    const plans = plan(
+      stage({ hinge: { mode: 'capped', caps: { maxSetsPerSession: 1 } }, squat: { mode: 'capped', caps: { maxSetsPerSession: 5 } } }),
+    );
+    const bs = checkSets(
+      [set({ id: 'sq', exerciseId: 'sq' }), set({ id: 'tb', exerciseId: 'tb', order: 1 }), set({ id: 'dl', order: 2 })],
+      ctx(plans),
+    );
     expect(bs.map((b) => [b.setId, b.pattern])).toEqual([['dl', 'hinge']]);
   });
 });
@@ -262,7 +344,10 @@ describe('gap days between stages', () => {
   });
   it('each stage applies from its first day (both ends inclusive)', () => {
     const bs = checkSets([set({ id: 'a', date: '2026-03-08' }), set({ id: 'b', date: '2026-03-16', sessionId: 'x' })], ctx(plans));
-    expect(bs.map((b) => [b.setId, b.rule])).toEqual([['a', 'blocked'], ['b', 'absolute_load']]);
+    expect(bs.map((b) => [b.setId, b.rule])).toEqual([
+      ['a', 'blocked'],
+      ['b', 'absolute_load'],
+    ]);
   });
   it('an athlete who is Out on a gap day, with no stage in force, cannot be programmed that day', () => {
     const statusOn = (): ParticipationStatus => 'out';
@@ -281,13 +366,21 @@ describe('helpers', () => {
 
   it('blockingBreaches keeps exactly the unwaived ones', () => {
     const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxRepsPerSet: 5 } } }));
-    const bs = checkSets([set({ id: 'w', reps: 8 }), set({ id: 'x', order: 1, reps: 8 })], ctx(plans, {}, { waivedSetIds: new Set(['w']) }));
-    expect(bs.map((b) => [b.setId, b.waived])).toEqual([['w', true], ['x', false]]);
+    const bs = checkSets(
+      [set({ id: 'w', reps: 8 }), set({ id: 'x', order: 1, reps: 8 })],
+      ctx(plans, {}, { waivedSetIds: new Set(['w']) }),
+    );
+    expect(bs.map((b) => [b.setId, b.waived])).toEqual([
+      ['w', true],
+      ['x', false],
+    ]);
     expect(blockingBreaches(bs).map((b) => b.setId)).toEqual(['x']);
   });
 
   it('suggestSwaps: shares a pattern, skips blocked and impact work, most shared patterns first, then by name', () => {
-    const plans = plan(stage({ hinge: { mode: 'capped', caps: { impactAllowed: false } }, squat: { mode: 'free' }, horizontal_push: { mode: 'blocked' } }));
+    const plans = plan(
+      stage({ hinge: { mode: 'capped', caps: { impactAllowed: false } }, squat: { mode: 'free' }, horizontal_push: { mode: 'blocked' } }),
+    );
     const day = inForceOn(plans, '2026-03-03');
     expect(suggestSwaps(kbSwing, library, day).map((e) => e.id)).toEqual(['dl', 'rdl', 'sumo']);
     expect(suggestSwaps(kbSwing, library, day, 1).map((e) => e.id)).toEqual(['dl']);
@@ -299,45 +392,86 @@ describe('helpers', () => {
 
 describe('determinism', () => {
   const capsArb = fc.record(
-    { maxPercent1RM: fc.integer({ min: 40, max: 90 }), maxLoadKg: fc.integer({ min: 20, max: 150 }), maxRpe: fc.constantFrom(6, 7, 8, 9), maxSetsPerSession: fc.integer({ min: 1, max: 5 }),
-      maxRepsPerSet: fc.integer({ min: 3, max: 12 }), maxHardSetsPerWeek: fc.integer({ min: 0, max: 8 }), impactAllowed: fc.boolean() },
+    {
+      maxPercent1RM: fc.integer({ min: 40, max: 90 }),
+      maxLoadKg: fc.integer({ min: 20, max: 150 }),
+      maxRpe: fc.constantFrom(6, 7, 8, 9),
+      maxSetsPerSession: fc.integer({ min: 1, max: 5 }),
+      maxRepsPerSet: fc.integer({ min: 3, max: 12 }),
+      maxHardSetsPerWeek: fc.integer({ min: 0, max: 8 }),
+      impactAllowed: fc.boolean(),
+    },
     { requiredKeys: [] },
   );
-  const ruleArb = fc.oneof(fc.constant({ mode: 'blocked' as const }), fc.constant({ mode: 'free' as const }), capsArb.map((caps) => ({ mode: 'capped' as const, caps })));
-  const plansArb = fc.array(fc.tuple(fc.constantFrom(...MOVEMENT_PATTERNS), ruleArb), { maxLength: 5 }).map((entries) => plan(stage(Object.fromEntries(entries), '2026-03-02', '2026-03-22')));
+  const ruleArb = fc.oneof(
+    fc.constant({ mode: 'blocked' as const }),
+    fc.constant({ mode: 'free' as const }),
+    capsArb.map((caps) => ({ mode: 'capped' as const, caps })),
+  );
+  const plansArb = fc
+    .array(fc.tuple(fc.constantFrom(...MOVEMENT_PATTERNS), ruleArb), { maxLength: 5 })
+    .map((entries) => plan(stage(Object.fromEntries(entries), '2026-03-02', '2026-03-22')));
   const loadArb = fc.oneof(
     fc.integer({ min: 0, max: 200 }).map((v) => ({ kind: 'kg' as const, value: v })),
     fc.integer({ min: 0, max: 400 }).map((v) => ({ kind: 'lb' as const, value: v })),
     fc.integer({ min: 30, max: 100 }).map((v) => ({ kind: 'percent' as const, value: v })),
     fc.constant({ kind: 'bodyweight' as const }),
   );
-  const setsArb = fc.array(
-    fc.record({ day: fc.integer({ min: 0, max: 27 }), session: fc.constantFrom('a', 'b'), exerciseId: fc.constantFrom(...library.map((e) => e.id)), reps: fc.integer({ min: 1, max: 15 }),
-      load: loadArb, targetRpe: fc.option(fc.constantFrom(5, 6, 7, 8, 9, 10), { nil: null }) }),
-    { maxLength: 40 },
-  ).map((rows) => rows.map((r, i): EngineSet => {
-    const d = new Date(Date.UTC(2026, 2, 2 + r.day)).toISOString().slice(0, 10);
-    // Positions are unique within a session, as the server numbers them.
-    return { id: `set${i}`, sessionId: `${d}-${r.session}`, date: d, exerciseId: r.exerciseId, reps: r.reps, load: r.load, targetRpe: r.targetRpe, order: i };
-  }));
+  const setsArb = fc
+    .array(
+      fc.record({
+        day: fc.integer({ min: 0, max: 27 }),
+        session: fc.constantFrom('a', 'b'),
+        exerciseId: fc.constantFrom(...library.map((e) => e.id)),
+        reps: fc.integer({ min: 1, max: 15 }),
+        load: loadArb,
+        targetRpe: fc.option(fc.constantFrom(5, 6, 7, 8, 9, 10), { nil: null }),
+      }),
+      { maxLength: 40 },
+    )
+    .map((rows) =>
+      rows.map((r, i): EngineSet => {
+        const d = new Date(Date.UTC(2026, 2, 2 + r.day)).toISOString().slice(0, 10);
+        // Positions are unique within a session, as the server numbers them.
+        return {
+          id: `set${i}`,
+          sessionId: `${d}-${r.session}`,
+          date: d,
+          exerciseId: r.exerciseId,
+          reps: r.reps,
+          load: r.load,
+          targetRpe: r.targetRpe,
+          order: i,
+        };
+      }),
+    );
   const baselinesArb = fc.dictionary(fc.constantFrom(...library.map((e) => e.id)), fc.integer({ min: 40, max: 250 }));
 
   it('the same sets give the same breaches, in any input order (property)', () => {
     fc.assert(
-      fc.property(setsArb, plansArb, baselinesArb, fc.infiniteStream(fc.double({ min: 0, max: 1, noNaN: true })), (sets, plans, baselines, rand) => {
-        const c = ctx(plans, baselines, { statusOn: (d) => (d >= '2026-03-23' ? 'out' : 'limited') });
-        const first = checkSets(sets, c);
-        expect(checkSets(sets, c)).toEqual(first);
-        const shuffled = sets.map((s) => [rand.next().value, s] as const).sort((a, b) => a[0] - b[0]).map(([, s]) => s);
-        expect(checkSets(shuffled, c)).toEqual(first);
-        expect(checkSets([...sets].reverse(), c)).toEqual(first);
-        // Every breach is about a set that was planned, and waived only when told.
-        const ids = new Set(sets.map((s) => s.id));
-        for (const b of first) {
-          expect(ids.has(b.setId)).toBe(true);
-          expect(b.waived).toBe(false);
-        }
-      }),
+      fc.property(
+        setsArb,
+        plansArb,
+        baselinesArb,
+        fc.infiniteStream(fc.double({ min: 0, max: 1, noNaN: true })),
+        (sets, plans, baselines, rand) => {
+          const c = ctx(plans, baselines, { statusOn: (d) => (d >= '2026-03-23' ? 'out' : 'limited') });
+          const first = checkSets(sets, c);
+          expect(checkSets(sets, c)).toEqual(first);
+          const shuffled = sets
+            .map((s) => [rand.next().value, s] as const)
+            .sort((a, b) => a[0] - b[0])
+            .map(([, s]) => s);
+          expect(checkSets(shuffled, c)).toEqual(first);
+          expect(checkSets([...sets].reverse(), c)).toEqual(first);
+          // Every breach is about a set that was planned, and waived only when told.
+          const ids = new Set(sets.map((s) => s.id));
+          for (const b of first) {
+            expect(ids.has(b.setId)).toBe(true);
+            expect(b.waived).toBe(false);
+          }
+        },
+      ),
       { numRuns: 150 },
     );
   });
@@ -345,15 +479,32 @@ describe('determinism', () => {
   it('2,000 sets over 16 weeks against a 4-stage plan are all checked (a size sanity run, no timing)', () => {
     const plans = plan(
       stage({ hinge: { mode: 'blocked' }, jump: { mode: 'capped', caps: { impactAllowed: false } } }, '2026-03-02', '2026-03-29'),
-      stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 50, maxSetsPerSession: 3, maxHardSetsPerWeek: 6 } } }, '2026-03-30', '2026-04-26'),
-      stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 70, maxRpe: 8 } }, squat: { mode: 'capped', caps: { maxLoadKg: 100 } } }, '2026-04-27', '2026-05-24'),
+      stage(
+        { hinge: { mode: 'capped', caps: { maxPercent1RM: 50, maxSetsPerSession: 3, maxHardSetsPerWeek: 6 } } },
+        '2026-03-30',
+        '2026-04-26',
+      ),
+      stage(
+        { hinge: { mode: 'capped', caps: { maxPercent1RM: 70, maxRpe: 8 } }, squat: { mode: 'capped', caps: { maxLoadKg: 100 } } },
+        '2026-04-27',
+        '2026-05-24',
+      ),
       stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 85 } } }, '2026-05-25', '2026-06-21'),
     );
     const ids = library.map((e) => e.id);
     const sets: EngineSet[] = Array.from({ length: 2000 }, (_, i) => {
       const day = i % 112;
       const d = new Date(Date.UTC(2026, 2, 2 + day)).toISOString().slice(0, 10);
-      return { id: `big${i}`, sessionId: `sess-${day}`, date: d, exerciseId: ids[i % ids.length], reps: 3 + (i % 8), load: { kind: 'percent', value: 50 + (i % 40) }, targetRpe: null, order: Math.floor(i / 112) };
+      return {
+        id: `big${i}`,
+        sessionId: `sess-${day}`,
+        date: d,
+        exerciseId: ids[i % ids.length],
+        reps: 3 + (i % 8),
+        load: { kind: 'percent', value: 50 + (i % 40) },
+        targetRpe: null,
+        order: Math.floor(i / 112),
+      };
     });
     const bs = checkSets(sets, ctx(plans, Object.fromEntries(ids.map((id) => [id, 150]))));
     expect(bs.length).toBeGreaterThan(0);
@@ -362,7 +513,15 @@ describe('determinism', () => {
     expect(new Set(keys).size).toBe(keys.length);
     // Stage 1 blocks the hinge: every hinge set of those four weeks is blocked, none after.
     const hingeIds = new Set(library.filter((e) => e.patterns.includes('hinge')).map((e) => e.id));
-    const firstStageHinge = sets.filter((s) => s.date <= '2026-03-29' && hingeIds.has(s.exerciseId)).map((s) => s.id).sort();
-    expect(bs.filter((b) => b.rule === 'blocked').map((b) => b.setId).sort()).toEqual(firstStageHinge);
+    const firstStageHinge = sets
+      .filter((s) => s.date <= '2026-03-29' && hingeIds.has(s.exerciseId))
+      .map((s) => s.id)
+      .sort();
+    expect(
+      bs
+        .filter((b) => b.rule === 'blocked')
+        .map((b) => b.setId)
+        .sort(),
+    ).toEqual(firstStageHinge);
   });
 });

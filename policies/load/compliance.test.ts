@@ -5,17 +5,67 @@ import type { PlanInput, PlanStage } from './in-force';
 import { largestFitting, KETTLEBELL_KG } from './steps';
 import { inForceOn } from './in-force';
 
-const squat: EngineExercise = { id: 'squat', name: 'Back squat', patterns: ['squat'], ballistic: false, steps: { kind: 'increment', step: 2.5, unit: 'kg' } };
-const rdl: EngineExercise = { id: 'rdl', name: 'Romanian deadlift', patterns: ['hinge'], ballistic: false, steps: { kind: 'increment', step: 2.5, unit: 'kg' } };
-const clean: EngineExercise = { id: 'clean', name: 'Power clean', patterns: ['hinge', 'jump'], ballistic: true, steps: { kind: 'increment', step: 2.5, unit: 'kg' } };
-const boxJump: EngineExercise = { id: 'box', name: 'Box jump', patterns: ['jump'], ballistic: true, steps: { kind: 'increment', step: 2.5, unit: 'kg' } };
-const swingKb: EngineExercise = { id: 'kbs', name: 'Kettlebell swing', patterns: ['swing', 'hinge'], ballistic: true, steps: { kind: 'list', valuesKg: KETTLEBELL_KG } };
+const squat: EngineExercise = {
+  id: 'squat',
+  name: 'Back squat',
+  patterns: ['squat'],
+  ballistic: false,
+  steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+};
+const rdl: EngineExercise = {
+  id: 'rdl',
+  name: 'Romanian deadlift',
+  patterns: ['hinge'],
+  ballistic: false,
+  steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+};
+const clean: EngineExercise = {
+  id: 'clean',
+  name: 'Power clean',
+  patterns: ['hinge', 'jump'],
+  ballistic: true,
+  steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+};
+const boxJump: EngineExercise = {
+  id: 'box',
+  name: 'Box jump',
+  patterns: ['jump'],
+  ballistic: true,
+  steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+};
+const swingKb: EngineExercise = {
+  id: 'kbs',
+  name: 'Kettlebell swing',
+  patterns: ['swing', 'hinge'],
+  ballistic: true,
+  steps: { kind: 'list', valuesKg: KETTLEBELL_KG },
+};
 const exercises = Object.fromEntries([squat, rdl, clean, boxJump, swingKb].map((e) => [e.id, e]));
 
-const stage = (patterns: PlanStage['patterns'], startDate = '2026-03-02', endDate = '2026-03-15'): PlanStage => ({ id: startDate, startDate, endDate, painCeiling: 5, patterns });
+const stage = (patterns: PlanStage['patterns'], startDate = '2026-03-02', endDate = '2026-03-15'): PlanStage => ({
+  id: startDate,
+  startDate,
+  endDate,
+  painCeiling: 5,
+  patterns,
+});
 const plan = (...stages: PlanStage[]): PlanInput[] => [{ planId: 'p', caseId: 'c', version: 1, stages }];
-const set = (over: Partial<EngineSet>): EngineSet => ({ id: 's1', sessionId: 'sess', date: '2026-03-03', exerciseId: 'rdl', reps: 5, load: { kind: 'kg', value: 80 }, order: 0, ...over });
-const ctx = (plans: PlanInput[], baselines: Record<string, number> = {}, more: Partial<EngineContext> = {}): EngineContext => ({ plans, exercises, baselines, ...more });
+const set = (over: Partial<EngineSet>): EngineSet => ({
+  id: 's1',
+  sessionId: 'sess',
+  date: '2026-03-03',
+  exerciseId: 'rdl',
+  reps: 5,
+  load: { kind: 'kg', value: 80 },
+  order: 0,
+  ...over,
+});
+const ctx = (plans: PlanInput[], baselines: Record<string, number> = {}, more: Partial<EngineContext> = {}): EngineContext => ({
+  plans,
+  exercises,
+  baselines,
+  ...more,
+});
 
 describe('checkSets', () => {
   it('REFERENCES 9 (common practice rounding): 60% of a 140 kg 1RM = 84 kg; 87.5 kg breaches; 82.5 kg fits on 2.5 kg steps', () => {
@@ -106,7 +156,11 @@ describe('checkSets', () => {
 
 describe('largestFitting (round down under a cap, never to nearest — REFERENCES 9, common practice)', () => {
   const stepsArb = fc.oneof(
-    fc.record({ kind: fc.constant('increment' as const), step: fc.constantFrom(0.5, 1, 1.25, 2.5, 5), unit: fc.constantFrom('kg' as const, 'lb' as const) }),
+    fc.record({
+      kind: fc.constant('increment' as const),
+      step: fc.constantFrom(0.5, 1, 1.25, 2.5, 5),
+      unit: fc.constantFrom('kg' as const, 'lb' as const),
+    }),
     fc.constant({ kind: 'list' as const, valuesKg: KETTLEBELL_KG }),
   );
   it('never exceeds the limit and is the largest step that fits', () => {
@@ -128,13 +182,18 @@ describe('largestFitting (round down under a cap, never to nearest — REFERENCE
 
   it('a suggested fitting load never breaches when planned', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 40, max: 250 }), fc.integer({ min: 30, max: 95 }), fc.double({ min: 20, max: 300, noNaN: true }), (oneRm, pct, planned) => {
-        const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: pct } } }));
-        const [b] = checkSets([set({ load: { kind: 'kg', value: planned }, targetRpe: 5 })], ctx(plans, { rdl: oneRm }));
-        if (!b || b.fittingKg === null) return true;
-        expect(checkSets([set({ load: { kind: 'kg', value: b.fittingKg }, targetRpe: 5 })], ctx(plans, { rdl: oneRm }))).toEqual([]);
-        return true;
-      }),
+      fc.property(
+        fc.integer({ min: 40, max: 250 }),
+        fc.integer({ min: 30, max: 95 }),
+        fc.double({ min: 20, max: 300, noNaN: true }),
+        (oneRm, pct, planned) => {
+          const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: pct } } }));
+          const [b] = checkSets([set({ load: { kind: 'kg', value: planned }, targetRpe: 5 })], ctx(plans, { rdl: oneRm }));
+          if (!b || b.fittingKg === null) return true;
+          expect(checkSets([set({ load: { kind: 'kg', value: b.fittingKg }, targetRpe: 5 })], ctx(plans, { rdl: oneRm }))).toEqual([]);
+          return true;
+        },
+      ),
     );
   });
 });

@@ -21,10 +21,7 @@ export interface EngineExercise {
 }
 
 export type PlannedLoad =
-  | { kind: 'kg'; value: number }
-  | { kind: 'lb'; value: number }
-  | { kind: 'percent'; value: number }
-  | { kind: 'bodyweight' };
+  { kind: 'kg'; value: number } | { kind: 'lb'; value: number } | { kind: 'percent'; value: number } | { kind: 'bodyweight' };
 
 export interface EngineSet {
   id: string;
@@ -142,7 +139,9 @@ interface ExerciseRules {
 function exerciseRules(ex: EngineExercise, day: InForce): ExerciseRules {
   const rules = ex.patterns.map((p) => [p, day.patterns[p]] as [MovementPattern, PatternRule]);
   const capped: ExerciseRules['capped'] = [];
-  for (const [p, r] of rules) if (r.mode === 'capped') capped.push({ pattern: p, index: PATTERN_INDEX.get(p)!, maxSets: r.caps?.maxSetsPerSession, maxHard: r.caps?.maxHardSetsPerWeek });
+  for (const [p, r] of rules)
+    if (r.mode === 'capped')
+      capped.push({ pattern: p, index: PATTERN_INDEX.get(p)!, maxSets: r.caps?.maxSetsPerSession, maxHard: r.caps?.maxHardSetsPerWeek });
   return {
     rules,
     blocked: rules.find(([, r]) => r.mode === 'blocked')?.[0] ?? null,
@@ -213,8 +212,29 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
   let sessionCount!: Int32Array;
   let set: EngineSet = ordered[0];
   let waived = false;
-  const push = (rule: BreachRule, pattern: MovementPattern | null, limit: string, planned: string, fits: string | null, fittingKg: number | null, message: string) =>
-    breaches.push({ setId: set.id, sessionId: set.sessionId, date: set.date, exerciseId: set.exerciseId, waived, rule, pattern, limit, planned, fits, fittingKg, message });
+  const push = (
+    rule: BreachRule,
+    pattern: MovementPattern | null,
+    limit: string,
+    planned: string,
+    fits: string | null,
+    fittingKg: number | null,
+    message: string,
+  ) =>
+    breaches.push({
+      setId: set.id,
+      sessionId: set.sessionId,
+      date: set.date,
+      exerciseId: set.exerciseId,
+      waived,
+      rule,
+      pattern,
+      limit,
+      planned,
+      fits,
+      fittingKg,
+      message,
+    });
 
   for (set of ordered) {
     const ex = ctx.exercises[set.exerciseId];
@@ -233,19 +253,40 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     const name = ex.name;
 
     if (out && day.stages.length === 0) {
-      push('status_out', null, 'Out: no training until a clinician sets what is allowed', `${name}`, null, null,
-        `The athlete is Out on ${set.date} and no restriction plan says what they may train. Ask the clinician for a plan or an exception.`);
+      push(
+        'status_out',
+        null,
+        'Out: no training until a clinician sets what is allowed',
+        `${name}`,
+        null,
+        null,
+        `The athlete is Out on ${set.date} and no restriction plan says what they may train. Ask the clinician for a plan or an exception.`,
+      );
       continue;
     }
     if (r.blocked) {
       const label = PATTERN_LABELS[r.blocked];
-      push('blocked', r.blocked, `${label} is blocked`, name, null, null,
-        `${label} is blocked on ${set.date}: ${name} cannot be programmed. Swap to an exercise that fits.`);
+      push(
+        'blocked',
+        r.blocked,
+        `${label} is blocked`,
+        name,
+        null,
+        null,
+        `${label} is blocked on ${set.date}: ${name} cannot be programmed. Swap to an exercise that fits.`,
+      );
       continue;
     }
     if (r.impactOff && ex.ballistic) {
-      push('impact', r.impactOff, 'no impact', `${name} (impact)`, null, null,
-        `${PATTERN_LABELS[r.impactOff]}: no impact allowed on ${set.date}; ${name} is ballistic. Swap to a non-impact exercise.`);
+      push(
+        'impact',
+        r.impactOff,
+        'no impact',
+        `${name} (impact)`,
+        null,
+        null,
+        `${PATTERN_LABELS[r.impactOff]}: no impact allowed on ${set.date}; ${name} is ballistic. Swap to a non-impact exercise.`,
+      );
     }
 
     const oneRm = ctx.baselines[ex.referenceId ?? ex.id];
@@ -256,8 +297,15 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     const pct = r.pct;
     if (pct) {
       if (oneRm === undefined) {
-        push('no_baseline', pct.pattern, `max ${num(pct.value)}% of 1RM`, set.load.kind === 'percent' ? `${num(set.load.value)}%` : loadKg !== null ? show(loadKg) : 'bodyweight', null, null,
-          `${PATTERN_LABELS[pct.pattern]}: capped at ${num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`);
+        push(
+          'no_baseline',
+          pct.pattern,
+          `max ${num(pct.value)}% of 1RM`,
+          set.load.kind === 'percent' ? `${num(set.load.value)}%` : loadKg !== null ? show(loadKg) : 'bodyweight',
+          null,
+          null,
+          `${PATTERN_LABELS[pct.pattern]}: capped at ${num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`,
+        );
       } else {
         const capKg = (pct.value / 100) * oneRm;
         limitKg = Math.min(limitKg, capKg);
@@ -266,8 +314,15 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           const fits = fit === null ? null : `${show(fit)} fits on ${describeSteps(ex.steps)}`;
           const planned = loadKg !== null ? show(loadKg) : `${num(percent)}%`;
           const limit = `max ${num(pct.value)}% of ${show(oneRm)} = ${showCap(capKg)}`;
-          push('percent_1rm', pct.pattern, limit, planned, fits, fit,
-            `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fits ?? 'no load on this exercise fits — choose a lighter one'}.`);
+          push(
+            'percent_1rm',
+            pct.pattern,
+            limit,
+            planned,
+            fits,
+            fit,
+            `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fits ?? 'no load on this exercise fits — choose a lighter one'}.`,
+          );
         }
       }
     }
@@ -276,13 +331,27 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     if (abs) {
       limitKg = Math.min(limitKg, abs.value);
       if (loadKg === null && set.load.kind === 'percent') {
-        push('no_baseline', abs.pattern, `max ${showCap(abs.value)}`, `${num(set.load.value)}%`, null, null,
-          `${PATTERN_LABELS[abs.pattern]}: capped at ${showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`);
+        push(
+          'no_baseline',
+          abs.pattern,
+          `max ${showCap(abs.value)}`,
+          `${num(set.load.value)}%`,
+          null,
+          null,
+          `${PATTERN_LABELS[abs.pattern]}: capped at ${showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
+        );
       } else if (loadKg !== null && loadKg > abs.value + 1e-9) {
         const fit = largestFitting(abs.value, ex.steps);
         const fits = fit === null ? null : `${show(fit)} fits on ${describeSteps(ex.steps)}`;
-        push('absolute_load', abs.pattern, `max ${showCap(abs.value)}`, show(loadKg), fits, fit,
-          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fits ?? 'no load on this exercise fits — choose a lighter one'}.`);
+        push(
+          'absolute_load',
+          abs.pattern,
+          `max ${showCap(abs.value)}`,
+          show(loadKg),
+          fits,
+          fit,
+          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fits ?? 'no load on this exercise fits — choose a lighter one'}.`,
+        );
       }
     }
 
@@ -291,23 +360,44 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     const rpeCap = r.rpe;
     if (rpeCap) {
       if (rpe === null) {
-        push('rpe', rpeCap.pattern, `max RPE ${num(rpeCap.value)}`, 'no target RPE', `target RPE ${num(rpeCap.value)} or lower`, null,
-          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${num(rpeCap.value)} or lower.`);
+        push(
+          'rpe',
+          rpeCap.pattern,
+          `max RPE ${num(rpeCap.value)}`,
+          'no target RPE',
+          `target RPE ${num(rpeCap.value)} or lower`,
+          null,
+          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${num(rpeCap.value)} or lower.`,
+        );
       } else if (rpe > rpeCap.value + 1e-9) {
         // The heaviest load whose estimated RPE stays at the cap: reps + reps in reserve to failure.
         const rpeLimitKg = oneRm !== undefined ? (percentForReps(set.reps + (10 - rpeCap.value)) / 100) * oneRm : null;
         const fit = rpeLimitKg !== null && estimated !== null ? largestFitting(Math.min(rpeLimitKg, limitKg), ex.steps) : null;
         const plannedWords = estimated !== null ? `RPE ${num(rpe)} (estimated from ${num(percent!)}% × ${set.reps})` : `RPE ${num(rpe)}`;
         const fitWords = fit !== null ? `${show(fit)} × ${set.reps} fits` : `target RPE ${num(rpeCap.value)} or lower`;
-        push('rpe', rpeCap.pattern, `max RPE ${num(rpeCap.value)}`, plannedWords, fitWords, fit,
-          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: planned ${plannedWords}; ${fitWords}.`);
+        push(
+          'rpe',
+          rpeCap.pattern,
+          `max RPE ${num(rpeCap.value)}`,
+          plannedWords,
+          fitWords,
+          fit,
+          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: planned ${plannedWords}; ${fitWords}.`,
+        );
       }
     }
 
     const reps = r.reps;
     if (reps && set.reps > reps.value) {
-      push('reps_per_set', reps.pattern, `max ${num(reps.value)} reps per set`, `${set.reps} reps`, `${num(reps.value)} reps`, null,
-        `${PATTERN_LABELS[reps.pattern]}: max ${num(reps.value)} reps per set: planned ${set.reps}; ${num(reps.value)} reps fits.`);
+      push(
+        'reps_per_set',
+        reps.pattern,
+        `max ${num(reps.value)} reps per set`,
+        `${set.reps} reps`,
+        `${num(reps.value)} reps`,
+        null,
+        `${PATTERN_LABELS[reps.pattern]}: max ${num(reps.value)} reps per set: planned ${set.reps}; ${num(reps.value)} reps fits.`,
+      );
     }
 
     if (r.capped.length === 0) continue;
@@ -320,15 +410,29 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     for (const c of r.capped) {
       const sCount = ++sessionCount[c.index];
       if (c.maxSets !== undefined && sCount > c.maxSets) {
-        push('sets_per_session', c.pattern, `max ${c.maxSets} sets per session`, `set ${sCount}`, `${c.maxSets} sets`, null,
-          `${PATTERN_LABELS[c.pattern]}: max ${c.maxSets} sets per session: this is set ${sCount}; remove it or move it to another day.`);
+        push(
+          'sets_per_session',
+          c.pattern,
+          `max ${c.maxSets} sets per session`,
+          `set ${sCount}`,
+          `${c.maxSets} sets`,
+          null,
+          `${PATTERN_LABELS[c.pattern]}: max ${c.maxSets} sets per session: this is set ${sCount}; remove it or move it to another day.`,
+        );
       }
       if (!hard) continue;
       weekCount ??= countsFor(weekCounts, week);
       const wCount = ++weekCount[c.index];
       if (c.maxHard !== undefined && wCount > c.maxHard) {
-        push('hard_sets_per_week', c.pattern, `max ${c.maxHard} hard sets per week`, `hard set ${wCount} of the week of ${week}`, `${c.maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`, null,
-          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${week}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`);
+        push(
+          'hard_sets_per_week',
+          c.pattern,
+          `max ${c.maxHard} hard sets per week`,
+          `hard set ${wCount} of the week of ${week}`,
+          `${c.maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
+          null,
+          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${week}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
+        );
       }
     }
   }
@@ -336,7 +440,12 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
 }
 
 /** Library exercises that would fit where `exercise` does not: no blocked pattern, no impact if impact is off. */
-export function suggestSwaps(exercise: EngineExercise, library: EngineExercise[], day: Pick<InForce, 'patterns'>, limit = 3): EngineExercise[] {
+export function suggestSwaps(
+  exercise: EngineExercise,
+  library: EngineExercise[],
+  day: Pick<InForce, 'patterns'>,
+  limit = 3,
+): EngineExercise[] {
   const allowed = (e: EngineExercise) => {
     const rules = e.patterns.map((p) => day.patterns[p]);
     if (rules.some((r) => r.mode === 'blocked')) return false;

@@ -9,7 +9,15 @@ describe('describeCaps: caps in plain words for athletes and guardians', () => {
   });
 
   it('every kind of cap, in a fixed order (our wording; common practice)', () => {
-    const caps: Caps = { maxPercent1RM: 60, maxLoadKg: 40, maxRpe: 7, maxSetsPerSession: 4, maxRepsPerSet: 8, maxHardSetsPerWeek: 10, impactAllowed: false };
+    const caps: Caps = {
+      maxPercent1RM: 60,
+      maxLoadKg: 40,
+      maxRpe: 7,
+      maxSetsPerSession: 4,
+      maxRepsPerSet: 8,
+      maxHardSetsPerWeek: 10,
+      impactAllowed: false,
+    };
     expect(describeCaps(caps, 'kg')).toEqual([
       'up to 60% of your best lift',
       'no more than 40 kg',
@@ -21,7 +29,7 @@ describe('describeCaps: caps in plain words for athletes and guardians', () => {
     ]);
   });
 
-  it('a load cap is shown in the reader\'s unit: 20 kg reads 44.09 lb (NIST SP 811; REFERENCES §10)', () => {
+  it("a load cap is shown in the reader's unit: 20 kg reads 44.09 lb (NIST SP 811; REFERENCES §10)", () => {
     expect(describeCaps({ maxLoadKg: 20 }, 'lb')).toEqual(['no more than 44.09 lb']);
   });
 
@@ -31,7 +39,15 @@ describe('describeCaps: caps in plain words for athletes and guardians', () => {
   });
 
   it('plain words: no field names or "1RM" jargon reach the reader (common practice)', () => {
-    const caps: Caps = { maxPercent1RM: 60, maxLoadKg: 40, maxRpe: 7, maxSetsPerSession: 4, maxRepsPerSet: 8, maxHardSetsPerWeek: 10, impactAllowed: false };
+    const caps: Caps = {
+      maxPercent1RM: 60,
+      maxLoadKg: 40,
+      maxRpe: 7,
+      maxSetsPerSession: 4,
+      maxRepsPerSet: 8,
+      maxHardSetsPerWeek: 10,
+      impactAllowed: false,
+    };
     const text = describeCaps(caps, 'lb').join(' ');
     expect(text).not.toMatch(/1RM|undefined|null|NaN/);
     for (const key of CAP_KEYS) expect(text).not.toContain(key);
@@ -39,10 +55,12 @@ describe('describeCaps: caps in plain words for athletes and guardians', () => {
 });
 
 describe('describeRule', () => {
-  it('blocked, free and capped each read as a sentence with the pattern\'s label (our wording; common practice)', () => {
+  it("blocked, free and capped each read as a sentence with the pattern's label (our wording; common practice)", () => {
     expect(describeRule('hinge', { mode: 'blocked' }, 'kg')).toBe('Hinge: not allowed for now');
     expect(describeRule('jump', { mode: 'free' }, 'kg')).toBe('Jump / landing: no limits');
-    expect(describeRule('squat', { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, 'kg')).toBe('Squat: up to 60% of your best lift, effort RPE 7 or easier');
+    expect(describeRule('squat', { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, 'kg')).toBe(
+      'Squat: up to 60% of your best lift, effort RPE 7 or easier',
+    );
   });
 
   it('capped with nothing to show (only impact allowed) still says care is needed (common practice)', () => {

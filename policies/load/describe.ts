@@ -9,7 +9,8 @@ export type Voice = 'athlete' | 'staff';
 export function describeCaps(caps: Caps | undefined, unit: Unit, voice: Voice = 'athlete'): string[] {
   if (!caps) return [];
   const parts: string[] = [];
-  if (caps.maxPercent1RM !== undefined) parts.push(`up to ${caps.maxPercent1RM}% of ${voice === 'staff' ? 'estimated 1RM' : 'your best lift'}`);
+  if (caps.maxPercent1RM !== undefined)
+    parts.push(`up to ${caps.maxPercent1RM}% of ${voice === 'staff' ? 'estimated 1RM' : 'your best lift'}`);
   if (caps.maxLoadKg !== undefined) parts.push(`no more than ${formatLoad(caps.maxLoadKg, unit, 'down')}`);
   if (caps.maxRpe !== undefined) parts.push(`effort RPE ${caps.maxRpe} or easier`);
   if (caps.maxSetsPerSession !== undefined) parts.push(`at most ${caps.maxSetsPerSession} sets a session`);

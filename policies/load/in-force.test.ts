@@ -18,8 +18,10 @@ const day = (n: number) => new Date(Date.UTC(2026, 0, 1 + n)).toISOString().slic
 const RANK = { free: 0, capped: 1, blocked: 2 } as const;
 
 describe('stageIssues: stage dates on their own and against each other', () => {
-  it('an end before the start is refused on that stage\'s endDate (common practice)', () => {
-    expect(stageIssues([stage('2026-02-10', '2026-02-09')])).toEqual([{ path: [0, 'endDate'], message: 'must be on or after the start date' }]);
+  it("an end before the start is refused on that stage's endDate (common practice)", () => {
+    expect(stageIssues([stage('2026-02-10', '2026-02-09')])).toEqual([
+      { path: [0, 'endDate'], message: 'must be on or after the start date' },
+    ]);
   });
 
   it('a one-day stage (start = end) is fine: a date-only end is inclusive (REFERENCES §12, HL7 FHIR R4 [secondary])', () => {
@@ -155,9 +157,14 @@ describe('mergeRules: the most restrictive rule decides (Shrier 2015, BJSM 49:13
 
   it('property: the order of the rules does not matter', () => {
     fc.assert(
-      fc.property(fc.array(ruleArb, { maxLength: 6 }).chain((rules) => fc.tuple(fc.constant(rules), fc.shuffledSubarray(rules, { minLength: rules.length, maxLength: rules.length }))), ([rules, shuffled]) => {
-        expect(mergeRules(shuffled)).toEqual(mergeRules(rules));
-      }),
+      fc.property(
+        fc
+          .array(ruleArb, { maxLength: 6 })
+          .chain((rules) => fc.tuple(fc.constant(rules), fc.shuffledSubarray(rules, { minLength: rules.length, maxLength: rules.length }))),
+        ([rules, shuffled]) => {
+          expect(mergeRules(shuffled)).toEqual(mergeRules(rules));
+        },
+      ),
     );
   });
 
@@ -185,13 +192,19 @@ describe('inForceOn: what is in force across several plans (Shrier 2015, BJSM 49
   const back = plan(
     'back',
     [
-      stage('2026-01-05', '2026-01-18', { painCeiling: 3, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, jump: { mode: 'blocked' } } }),
+      stage('2026-01-05', '2026-01-18', {
+        painCeiling: 3,
+        patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, jump: { mode: 'blocked' } },
+      }),
       stage('2026-01-25', '2026-02-07', { painCeiling: 4, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 80 } } } }),
     ],
     3,
   );
   const knee = plan('knee', [
-    stage('2026-01-10', '2026-01-31', { painCeiling: 5, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 70, maxRpe: 6, impactAllowed: false } }, squat: { mode: 'blocked' } } }),
+    stage('2026-01-10', '2026-01-31', {
+      painCeiling: 5,
+      patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 70, maxRpe: 6, impactAllowed: false } }, squat: { mode: 'blocked' } },
+    }),
   ]);
 
   it('inside one stage of one plan: that stage, with its plan and version (common practice)', () => {
@@ -242,14 +255,18 @@ describe('ruleForPatterns: an exercise that trains several patterns takes the mo
   const f = inForceOn(
     [
       {
-        planId: 'p', caseId: 'c', version: 1,
-        stages: [stage('2026-01-01', '2026-01-31', {
-          patterns: {
-            hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } },
-            squat: { mode: 'capped', caps: { maxPercent1RM: 70, maxRpe: 6 } },
-            jump: { mode: 'blocked' },
-          },
-        })],
+        planId: 'p',
+        caseId: 'c',
+        version: 1,
+        stages: [
+          stage('2026-01-01', '2026-01-31', {
+            patterns: {
+              hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } },
+              squat: { mode: 'capped', caps: { maxPercent1RM: 70, maxRpe: 6 } },
+              jump: { mode: 'blocked' },
+            },
+          }),
+        ],
       },
     ],
     '2026-01-10',

@@ -33,12 +33,17 @@ export function stageIssues(stages: Pick<PlanStage, 'startDate' | 'endDate' | 'r
   stages.forEach((s, i) => {
     if (s.endDate < s.startDate) issues.push({ path: [i, 'endDate'], message: 'must be on or after the start date' });
   });
-  const order = stages.map((s, i) => ({ s, i })).sort((a, b) => (a.s.startDate < b.s.startDate ? -1 : a.s.startDate > b.s.startDate ? 1 : 0));
+  const order = stages
+    .map((s, i) => ({ s, i }))
+    .sort((a, b) => (a.s.startDate < b.s.startDate ? -1 : a.s.startDate > b.s.startDate ? 1 : 0));
   for (let k = 1; k < order.length; k++) {
     const prev = order[k - 1];
     const cur = order[k];
     if (cur.s.startDate <= prev.s.endDate) {
-      issues.push({ path: [cur.i, 'startDate'], message: `overlaps stage ${prev.i + 1} (which ends ${prev.s.endDate}); a day can belong to one stage only` });
+      issues.push({
+        path: [cur.i, 'startDate'],
+        message: `overlaps stage ${prev.i + 1} (which ends ${prev.s.endDate}); a day can belong to one stage only`,
+      });
     }
   }
   return issues;

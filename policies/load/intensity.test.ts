@@ -5,7 +5,19 @@ import { estimateRpe, maxRepsAtPercent, NSCA_PERCENT_BY_REPS, percentForReps } f
 // NSCA %1RM ↔ repetitions, Essentials of Strength Training and Conditioning (Baechle & Earle 2008),
 // REFERENCES 2 [secondary]. An estimate: people vary widely around it (Nuzzo et al. 2024).
 const NSCA_TABLE: [number, number][] = [
-  [1, 100], [2, 95], [3, 93], [4, 90], [5, 87], [6, 85], [7, 83], [8, 80], [9, 77], [10, 75], [11, 70], [12, 67], [15, 65],
+  [1, 100],
+  [2, 95],
+  [3, 93],
+  [4, 90],
+  [5, 87],
+  [6, 85],
+  [7, 83],
+  [8, 80],
+  [9, 77],
+  [10, 75],
+  [11, 70],
+  [12, 67],
+  [15, 65],
 ];
 
 describe('the NSCA %1RM ↔ reps table (Baechle & Earle 2008, secondary)', () => {
@@ -102,14 +114,19 @@ describe('estimateRpe: RPE = 10 − reps in reserve (Zourdos et al. 2016, JSCR 3
 
   it('stays on 1–10 in half steps, and rises with load and with reps (property)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 20, max: 110, noNaN: true }), fc.integer({ min: 1, max: 40 }), fc.integer({ min: 0, max: 10 }), (percent, reps, more) => {
-        const rpe = estimateRpe(percent, reps);
-        expect(rpe).toBeGreaterThanOrEqual(1);
-        expect(rpe).toBeLessThanOrEqual(10);
-        expect(Number.isInteger(rpe * 2)).toBe(true);
-        expect(estimateRpe(percent, reps + more)).toBeGreaterThanOrEqual(rpe);
-        expect(estimateRpe(Math.min(110, percent + more), reps)).toBeGreaterThanOrEqual(rpe);
-      }),
+      fc.property(
+        fc.double({ min: 20, max: 110, noNaN: true }),
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: 0, max: 10 }),
+        (percent, reps, more) => {
+          const rpe = estimateRpe(percent, reps);
+          expect(rpe).toBeGreaterThanOrEqual(1);
+          expect(rpe).toBeLessThanOrEqual(10);
+          expect(Number.isInteger(rpe * 2)).toBe(true);
+          expect(estimateRpe(percent, reps + more)).toBeGreaterThanOrEqual(rpe);
+          expect(estimateRpe(Math.min(110, percent + more), reps)).toBeGreaterThanOrEqual(rpe);
+        },
+      ),
     );
   });
 });

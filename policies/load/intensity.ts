@@ -4,7 +4,19 @@
  * around it (Nuzzo et al. 2024): an estimate, used only when a set has no target RPE.
  */
 export const NSCA_PERCENT_BY_REPS: [reps: number, percent: number][] = [
-  [1, 100], [2, 95], [3, 93], [4, 90], [5, 87], [6, 85], [7, 83], [8, 80], [9, 77], [10, 75], [11, 70], [12, 67], [15, 65],
+  [1, 100],
+  [2, 95],
+  [3, 93],
+  [4, 90],
+  [5, 87],
+  [6, 85],
+  [7, 83],
+  [8, 80],
+  [9, 77],
+  [10, 75],
+  [11, 70],
+  [12, 67],
+  [15, 65],
 ];
 
 /** Reps possible to failure at `percent` of 1RM, interpolated linearly between table rows. */

@@ -73,12 +73,17 @@ describe('estimated 1RM equations (REFERENCES §1)', () => {
 
   it('property: an estimate is never below the load lifted, and more reps never estimate less (Epley and Brzycki formulas)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 1, max: 400, noNaN: true }), fc.integer({ min: 1, max: 35 }), fc.constantFrom('epley' as const, 'brzycki' as const), (w, r, f) => {
-        const a = estimateOneRm(w, r, null, f)!;
-        const b = estimateOneRm(w, r + 1, null, f)!;
-        expect(a.value).toBeGreaterThanOrEqual(w);
-        expect(b.value).toBeGreaterThan(a.value);
-      }),
+      fc.property(
+        fc.double({ min: 1, max: 400, noNaN: true }),
+        fc.integer({ min: 1, max: 35 }),
+        fc.constantFrom('epley' as const, 'brzycki' as const),
+        (w, r, f) => {
+          const a = estimateOneRm(w, r, null, f)!;
+          const b = estimateOneRm(w, r + 1, null, f)!;
+          expect(a.value).toBeGreaterThanOrEqual(w);
+          expect(b.value).toBeGreaterThan(a.value);
+        },
+      ),
     );
   });
 });

@@ -45,7 +45,15 @@ export interface Caps {
   maxHardSetsPerWeek?: number;
   impactAllowed?: boolean;
 }
-export const CAP_KEYS = ['maxPercent1RM', 'maxLoadKg', 'maxRpe', 'maxSetsPerSession', 'maxRepsPerSet', 'maxHardSetsPerWeek', 'impactAllowed'] as const;
+export const CAP_KEYS = [
+  'maxPercent1RM',
+  'maxLoadKg',
+  'maxRpe',
+  'maxSetsPerSession',
+  'maxRepsPerSet',
+  'maxHardSetsPerWeek',
+  'impactAllowed',
+] as const;
 export type CapKey = (typeof CAP_KEYS)[number];
 
 export interface PatternRule {

@@ -26,7 +26,10 @@ describe('diffPlans', () => {
   it('reports added and removed stages, mode changes and dates', () => {
     const before = { stages: [stage('a'), stage('b', { startDate: '2026-03-15', endDate: '2026-03-31' })], guidance: 'x' };
     const after = {
-      stages: [stage('a', { endDate: '2026-03-10', patterns: { hinge: { mode: 'blocked' } } }), stage('c', { startDate: '2026-03-11', endDate: '2026-04-01' })],
+      stages: [
+        stage('a', { endDate: '2026-03-10', patterns: { hinge: { mode: 'blocked' } } }),
+        stage('c', { startDate: '2026-03-11', endDate: '2026-04-01' }),
+      ],
       guidance: 'y',
     };
     const changes = diffPlans(before, after);

@@ -24,7 +24,8 @@ const CAP_WORDS: Record<CapKey, string> = {
   impactAllowed: 'impact allowed',
 };
 
-const show = (v: unknown): string | null => (v === undefined || v === null || v === '' ? null : typeof v === 'boolean' ? (v ? 'yes' : 'no') : String(v));
+const show = (v: unknown): string | null =>
+  v === undefined || v === null || v === '' ? null : typeof v === 'boolean' ? (v ? 'yes' : 'no') : String(v);
 
 function stageName(stage: PlanStage, index: number) {
   return stage.label ? `Stage ${index + 1} (${stage.label})` : `Stage ${index + 1}`;
@@ -40,11 +41,13 @@ function ruleOf(stage: PlanStage, pattern: (typeof MOVEMENT_PATTERNS)[number]): 
  */
 export function diffPlans(before: PlanSnapshot, after: PlanSnapshot): PlanChange[] {
   const changes: PlanChange[] = [];
-  if (before.guidance !== after.guidance) changes.push({ where: 'Plan', what: 'guidance', before: show(before.guidance), after: show(after.guidance) });
+  if (before.guidance !== after.guidance)
+    changes.push({ where: 'Plan', what: 'guidance', before: show(before.guidance), after: show(after.guidance) });
   const oldById = new Map(before.stages.map((s, i) => [s.id, { s, i }]));
   const newIds = new Set(after.stages.map((s) => s.id));
   before.stages.forEach((s, i) => {
-    if (!newIds.has(s.id)) changes.push({ where: stageName(s, i), what: 'stage removed', before: `${s.startDate} – ${s.endDate}`, after: null });
+    if (!newIds.has(s.id))
+      changes.push({ where: stageName(s, i), what: 'stage removed', before: `${s.startDate} – ${s.endDate}`, after: null });
   });
   after.stages.forEach((s, i) => {
     const old = oldById.get(s.id);
@@ -55,7 +58,13 @@ export function diffPlans(before: PlanSnapshot, after: PlanSnapshot): PlanChange
     }
     if (old.i !== i) changes.push({ where, what: 'position', before: String(old.i + 1), after: String(i + 1) });
     for (const key of ['label', 'startDate', 'endDate', 'reviewDate', 'painCeiling'] as const) {
-      if (show(old.s[key]) !== show(s[key])) changes.push({ where, what: key === 'painCeiling' ? 'pain ceiling' : key.replace(/[A-Z]/g, (c) => ` ${c.toLowerCase()}`), before: show(old.s[key]), after: show(s[key]) });
+      if (show(old.s[key]) !== show(s[key]))
+        changes.push({
+          where,
+          what: key === 'painCeiling' ? 'pain ceiling' : key.replace(/[A-Z]/g, (c) => ` ${c.toLowerCase()}`),
+          before: show(old.s[key]),
+          after: show(s[key]),
+        });
     }
     for (const p of MOVEMENT_PATTERNS) {
       const a = ruleOf(old.s, p);

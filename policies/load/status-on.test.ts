@@ -16,7 +16,7 @@ describe('participation status on a date', () => {
     expect(on('2026-12-03')).toBe('out');
   });
 
-  it('uses each date\'s own decision: out now, limited from a future date', () => {
+  it("uses each date's own decision: out now, limited from a future date", () => {
     const on = statusOnDate([
       { caseId: 'a', status: 'out', effectiveFrom: '2026-12-01', createdAt: at('2026-12-01') },
       { caseId: 'a', status: 'limited', effectiveFrom: '2026-12-08', createdAt: at('2026-12-02') },

@@ -94,7 +94,13 @@ describe('platesPerSide', () => {
   });
 
   it('says how much it could not make: 102.6 kg with collars is 102.5 kg, short by 0.1 kg', () => {
-    expect(platesPerSide(102.6, 'kg', { collarsEach: 2.5 })).toEqual({ bar: 20, collarsEach: 2.5, perSide: [25, 10, 2.5, 1.25], total: 102.5, shortBy: 0.1 });
+    expect(platesPerSide(102.6, 'kg', { collarsEach: 2.5 })).toEqual({
+      bar: 20,
+      collarsEach: 2.5,
+      perSide: [25, 10, 2.5, 1.25],
+      total: 102.5,
+      shortBy: 0.1,
+    });
   });
 
   it('a target lighter than the bar gets no plates, and the total shows the bar is heavier', () => {

@@ -4,9 +4,7 @@ import { KG_PER_LB } from './units';
  * The loads an exercise can actually be set to: multiples of an increment (2.5 kg, 5 lb…), or a
  * list of fixed implements (kettlebells 8–48 kg).
  */
-export type LoadSteps =
-  | { kind: 'increment'; step: number; unit: 'kg' | 'lb' }
-  | { kind: 'list'; valuesKg: number[] };
+export type LoadSteps = { kind: 'increment'; step: number; unit: 'kg' | 'lb' } | { kind: 'list'; valuesKg: number[] };
 
 /** Competition kettlebells, 8–32 kg in 4 kg steps, 36–48 kg also made (IWF/IKSFA sizes, secondary). */
 export const KETTLEBELL_KG = [8, 12, 16, 20, 24, 28, 32, 36, 40, 44, 48];

@@ -6,9 +6,7 @@ export const PasswordResetRequestSchema = z.strictObject({ email: EmailSchema })
 export type PasswordResetRequestInput = z.infer<typeof PasswordResetRequestSchema>;
 
 export const PasswordResetConfirmSchema = z.strictObject({
-  token: z
-    .string({ message: 'is required' })
-    .regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'is not a valid reset code' }),
+  token: z.string({ message: 'is required' }).regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'is not a valid reset code' }),
   password: PasswordSchema,
 });
 export type PasswordResetConfirmInput = z.infer<typeof PasswordResetConfirmSchema>;

@@ -1,14 +1,24 @@
 import { describe, expect, it } from 'vitest';
 import { RED_FLAG_ITEMS } from '../red-flags';
 import {
-  CheckInSchema, FlagListQuerySchema, LoggedSetSchema, NextMorningSchema, PainReportCreateSchema, PainScoreSchema, SessionRpeSchema, SetRpeSchema,
+  CheckInSchema,
+  FlagListQuerySchema,
+  LoggedSetSchema,
+  NextMorningSchema,
+  PainReportCreateSchema,
+  PainScoreSchema,
+  SessionRpeSchema,
+  SetRpeSchema,
   TrainingLogCreateSchema,
 } from './athlete';
 
 const ATHLETE = '33333333-3333-4333-8333-333333333333';
 
 /** Issues of a failed parse as { 'joined.path': message }, the way the API names fields. */
-function issues(result: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string; code: string; keys?: string[] }[] } }) {
+function issues(result: {
+  success: boolean;
+  error?: { issues: { path: PropertyKey[]; message: string; code: string; keys?: string[] }[] };
+}) {
   expect(result.success).toBe(false);
   const out: Record<string, string> = {};
   for (const i of result.error!.issues) {
@@ -102,11 +112,16 @@ describe('TrainingLogCreateSchema', () => {
   });
 
   it('pain 4.5 refused naming the field (LOINC 72514-3 integer)', () => {
-    expect(issues(TrainingLogCreateSchema.safeParse(log({ painBefore: 4.5 })))).toEqual({ painBefore: 'must be a whole number from 0 to 10' });
+    expect(issues(TrainingLogCreateSchema.safeParse(log({ painBefore: 4.5 })))).toEqual({
+      painBefore: 'must be a whole number from 0 to 10',
+    });
   });
 
   it('a set RPE of 11 is refused at its path (Zourdos et al. 2016)', () => {
-    const sets = [{ exercise: 'Back squat', loadKg: 100, reps: 5, rpe: 8 }, { exercise: 'Back squat', loadKg: 100, reps: 5, rpe: 11 }];
+    const sets = [
+      { exercise: 'Back squat', loadKg: 100, reps: 5, rpe: 8 },
+      { exercise: 'Back squat', loadKg: 100, reps: 5, rpe: 11 },
+    ];
     expect(issues(TrainingLogCreateSchema.safeParse(log({ sets })))).toEqual({ 'sets.1.rpe': 'must be from 1 to 10' });
   });
 
@@ -136,7 +151,9 @@ describe('PainReportCreateSchema (NICE NG59: every red-flag question asked)', ()
   });
 
   it('an unknown red-flag key or an unknown top-level key is refused (common practice)', () => {
-    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), made_up: true } })))).toEqual({ 'redFlags.made_up': 'unrecognized' });
+    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), made_up: true } })))).toEqual({
+      'redFlags.made_up': 'unrecognized',
+    });
     expect(issues(PainReportCreateSchema.safeParse(report({ route: 'routine' })))).toEqual({ route: 'unrecognized' });
   });
 
@@ -149,16 +166,28 @@ describe('PainReportCreateSchema (NICE NG59: every red-flag question asked)', ()
 
   it('no body region, or one not on the list, refused (common practice)', () => {
     expect(issues(PainReportCreateSchema.safeParse(report({ bodyRegions: [] })))).toEqual({ bodyRegions: 'choose at least one place' });
-    expect(issues(PainReportCreateSchema.safeParse(report({ bodyRegions: ['tail'] })))).toEqual({ 'bodyRegions.0': 'must be a body region from the list' });
+    expect(issues(PainReportCreateSchema.safeParse(report({ bodyRegions: ['tail'] })))).toEqual({
+      'bodyRegions.0': 'must be a body region from the list',
+    });
   });
 
   it('a "yes" string is not a yes: answers must be booleans (common practice)', () => {
-    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), both_legs: 'yes' } })))).toEqual({ 'redFlags.both_legs': 'must be answered yes or no' });
+    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), both_legs: 'yes' } })))).toEqual({
+      'redFlags.both_legs': 'must be answered yes or no',
+    });
   });
 });
 
 describe('CheckInSchema and NextMorningSchema', () => {
-  const checkIn = (over: Record<string, unknown> = {}) => ({ athleteId: ATHLETE, date: '2026-01-05', sleepHours: 7.5, soreness: 2, readiness: 8, painNow: 1, ...over });
+  const checkIn = (over: Record<string, unknown> = {}) => ({
+    athleteId: ATHLETE,
+    date: '2026-01-05',
+    sleepHours: 7.5,
+    soreness: 2,
+    readiness: 8,
+    painNow: 1,
+    ...over,
+  });
 
   it('a check-in passes; sleep in half hours 0–16 (common practice)', () => {
     expect(CheckInSchema.safeParse(checkIn()).success).toBe(true);

@@ -32,7 +32,9 @@ const redFlagShape = Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, z.boole
 
 export const PainReportCreateSchema = z.strictObject({
   athleteId: UuidSchema,
-  bodyRegions: z.array(z.enum(BODY_REGIONS, { message: 'must be a body region from the list' })).min(1, { message: 'choose at least one place' }),
+  bodyRegions: z
+    .array(z.enum(BODY_REGIONS, { message: 'must be a body region from the list' }))
+    .min(1, { message: 'choose at least one place' }),
   painNow: PainScoreSchema,
   painWorst24h: PainScoreSchema,
   onsetDate: IsoDateSchema,
@@ -47,7 +49,11 @@ export type PainReportCreateInput = z.infer<typeof PainReportCreateSchema>;
 export const CheckInSchema = z.strictObject({
   athleteId: UuidSchema,
   date: IsoDateSchema,
-  sleepHours: z.number({ message: 'must be a number' }).min(0, { message: 'must be 0–16' }).max(16, { message: 'must be 0–16' }).multipleOf(0.5, { message: 'must be in half hours' }),
+  sleepHours: z
+    .number({ message: 'must be a number' })
+    .min(0, { message: 'must be 0–16' })
+    .max(16, { message: 'must be 0–16' })
+    .multipleOf(0.5, { message: 'must be in half hours' }),
   soreness: PainScoreSchema,
   readiness: PainScoreSchema,
   painNow: PainScoreSchema,
@@ -57,8 +63,15 @@ export type CheckInInput = z.infer<typeof CheckInSchema>;
 export const LoggedSetSchema = z.strictObject({
   exercise: z.string().trim().min(1, { message: 'is required' }).max(120, { message: 'must be at most 120 characters' }),
   /** Kilograms; the client converts from the athlete's unit. 0 for bodyweight. */
-  loadKg: z.number({ message: 'must be a number' }).min(0, { message: 'must be 0 or more' }).max(1000, { message: 'must be at most 1000 kg' }),
-  reps: z.number({ message: 'must be a number' }).int({ message: 'must be a whole number' }).min(0, { message: 'must be 0 or more' }).max(100, { message: 'must be at most 100' }),
+  loadKg: z
+    .number({ message: 'must be a number' })
+    .min(0, { message: 'must be 0 or more' })
+    .max(1000, { message: 'must be at most 1000 kg' }),
+  reps: z
+    .number({ message: 'must be a number' })
+    .int({ message: 'must be a whole number' })
+    .min(0, { message: 'must be 0 or more' })
+    .max(100, { message: 'must be at most 100' }),
   rpe: SetRpeSchema.nullable().optional(),
 });
 export type LoggedSetInput = z.infer<typeof LoggedSetSchema>;
@@ -66,7 +79,11 @@ export type LoggedSetInput = z.infer<typeof LoggedSetSchema>;
 export const TrainingLogCreateSchema = z.strictObject({
   athleteId: UuidSchema,
   date: IsoDateSchema,
-  durationMinutes: z.number({ message: 'must be a number' }).int({ message: 'must be whole minutes' }).min(1, { message: 'must be at least 1 minute' }).max(600, { message: 'must be at most 600 minutes' }),
+  durationMinutes: z
+    .number({ message: 'must be a number' })
+    .int({ message: 'must be whole minutes' })
+    .min(1, { message: 'must be at least 1 minute' })
+    .max(600, { message: 'must be at most 600 minutes' }),
   sessionRpe: SessionRpeSchema,
   painBefore: PainScoreSchema,
   painDuring: PainScoreSchema,

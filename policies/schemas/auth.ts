@@ -10,9 +10,7 @@ export const SignInSchema = z.strictObject({
 export type SignInInput = z.infer<typeof SignInSchema>;
 
 export const InvitationTokenSchema = z.strictObject({
-  token: z
-    .string({ message: 'is required' })
-    .regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'is not a valid invitation code' }),
+  token: z.string({ message: 'is required' }).regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'is not a valid invitation code' }),
 });
 export type InvitationTokenInput = z.infer<typeof InvitationTokenSchema>;
 

@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
-  CapsSchema, CaseCloseSchema, CaseCreateSchema, CaseUpdateSchema, PlanCreateSchema, PlanStageSchema, PlanUpdateSchema, StatusChangeSchema,
+  CapsSchema,
+  CaseCloseSchema,
+  CaseCreateSchema,
+  CaseUpdateSchema,
+  PlanCreateSchema,
+  PlanStageSchema,
+  PlanUpdateSchema,
+  StatusChangeSchema,
 } from './cases';
 
 const ID1 = '11111111-1111-4111-8111-111111111111';
@@ -46,13 +53,13 @@ describe('PlanCreateSchema', () => {
     else expect(issuePaths(r)).toEqual(['painCeiling']);
   });
 
-  it('overlapping stages are refused on the later stage\'s start, naming the stage it overlaps (both ends inclusive, REFERENCES §12)', () => {
+  it("overlapping stages are refused on the later stage's start, naming the stage it overlaps (both ends inclusive, REFERENCES §12)", () => {
     const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18'), stage(ID2, '2026-01-18', '2026-02-07')] });
     expect(issuePaths(r)).toEqual(['stages.1.startDate']);
     expect(r.error!.issues[0].message).toMatch(/overlaps stage 1/);
   });
 
-  it('an end before the start is refused on that stage\'s endDate (common practice)', () => {
+  it("an end before the start is refused on that stage's endDate (common practice)", () => {
     const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-18', '2026-01-05')] });
     expect(issuePaths(r)).toEqual(['stages.0.endDate']);
   });
@@ -60,18 +67,25 @@ describe('PlanCreateSchema', () => {
   it('a capped pattern with no caps is refused, naming the pattern (common practice)', () => {
     const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { squat: { mode: 'capped' } } })] });
     expect(issuePaths(r)).toEqual(['stages.0.patterns.squat.caps']);
-    const empty = PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { squat: { mode: 'capped', caps: {} } } })] });
+    const empty = PlanCreateSchema.safeParse({
+      stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { squat: { mode: 'capped', caps: {} } } })],
+    });
     expect(issuePaths(empty)).toEqual(['stages.0.patterns.squat.caps']);
   });
 
   it.each(['blocked', 'free'])('caps on a %s pattern are refused: caps only mean something when capped (common practice)', (mode) => {
-    const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { jump: { mode, caps: { maxRpe: 6 } } } })] });
+    const r = PlanCreateSchema.safeParse({
+      stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { jump: { mode, caps: { maxRpe: 6 } } } })],
+    });
     expect(issuePaths(r)).toEqual(['stages.0.patterns.jump.caps']);
     expect(r.error!.issues[0].message).toContain(mode);
   });
 
   it('a pattern not on the list, an unknown key, or no stages at all are refused (SECURITY item 21: unknown keys refused)', () => {
-    expect(PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { deadlift: { mode: 'blocked' } } })] }).success).toBe(false);
+    expect(
+      PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { deadlift: { mode: 'blocked' } } })] })
+        .success,
+    ).toBe(false);
     expect(issuePaths(PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18')], organizationId: ID2 }))).toEqual(['']);
     expect(issuePaths(PlanCreateSchema.safeParse({ stages: [] }))).toEqual(['stages']);
   });
@@ -84,13 +98,19 @@ describe('PlanCreateSchema', () => {
   it('property: any two stages sharing a day are refused, and the issue names a stage index (REFERENCES §12; common practice)', () => {
     const day = (n: number) => new Date(Date.UTC(2026, 0, 1 + n)).toISOString().slice(0, 10);
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 100 }), fc.integer({ min: 0, max: 20 }), fc.integer({ min: 0, max: 20 }), fc.integer({ min: 0, max: 20 }), (a, lenA, offset, lenB) => {
-        // Stage B starts somewhere inside stage A: they share at least that day.
-        const b = a + Math.min(offset, lenA);
-        const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, day(a), day(a + lenA)), stage(ID2, day(b), day(b + lenB))] });
-        const paths = issuePaths(r);
-        expect(paths.every((p) => /^stages\.[01]\.startDate$/.test(p))).toBe(true);
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 100 }),
+        fc.integer({ min: 0, max: 20 }),
+        fc.integer({ min: 0, max: 20 }),
+        fc.integer({ min: 0, max: 20 }),
+        (a, lenA, offset, lenB) => {
+          // Stage B starts somewhere inside stage A: they share at least that day.
+          const b = a + Math.min(offset, lenA);
+          const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, day(a), day(a + lenA)), stage(ID2, day(b), day(b + lenB))] });
+          const paths = issuePaths(r);
+          expect(paths.every((p) => /^stages\.[01]\.startDate$/.test(p))).toBe(true);
+        },
+      ),
     );
   });
 });
@@ -114,7 +134,11 @@ describe('CapsSchema', () => {
 
 describe('case schemas', () => {
   const create = {
-    athleteId: ATHLETE, bodyRegions: ['lower_back'], onsetDate: '2026-01-02', status: 'limited', statusEffectiveFrom: '2026-01-03',
+    athleteId: ATHLETE,
+    bodyRegions: ['lower_back'],
+    onsetDate: '2026-01-02',
+    status: 'limited',
+    statusEffectiveFrom: '2026-01-03',
   };
 
   it('a case needs at least one body region from the list (common practice)', () => {

@@ -53,13 +53,20 @@ export const StatusChangeSchema = z.strictObject({
 export type StatusChangeInput = z.infer<typeof StatusChangeSchema>;
 
 const positive = (max: number, label: string) =>
-  z.number({ message: 'must be a number' }).positive({ message: 'must be above 0' }).max(max, { message: `must be at most ${max}${label}` });
+  z
+    .number({ message: 'must be a number' })
+    .positive({ message: 'must be above 0' })
+    .max(max, { message: `must be at most ${max}${label}` });
 
 export const CapsSchema = z.strictObject({
   maxPercent1RM: positive(100, '%').optional(),
   maxLoadKg: positive(1000, ' kg').optional(),
-  maxRpe: z.number({ message: 'must be a number' }).min(1, { message: 'must be at least 1' }).max(10, { message: 'must be at most 10' })
-    .multipleOf(0.5, { message: 'must be a whole or half step' }).optional(),
+  maxRpe: z
+    .number({ message: 'must be a number' })
+    .min(1, { message: 'must be at least 1' })
+    .max(10, { message: 'must be at most 10' })
+    .multipleOf(0.5, { message: 'must be a whole or half step' })
+    .optional(),
   maxSetsPerSession: z.number().int({ message: 'must be a whole number' }).min(1, { message: 'must be at least 1' }).max(50).optional(),
   maxRepsPerSet: z.number().int({ message: 'must be a whole number' }).min(1, { message: 'must be at least 1' }).max(100).optional(),
   maxHardSetsPerWeek: z.number().int({ message: 'must be a whole number' }).min(0, { message: 'must be 0 or more' }).max(100).optional(),
@@ -87,7 +94,11 @@ export const PlanStageSchema = z.strictObject({
   startDate: IsoDateSchema,
   endDate: IsoDateSchema,
   reviewDate: IsoDateSchema.nullable().optional(),
-  painCeiling: z.number().int({ message: 'must be a whole number' }).min(0, { message: 'must be 0–10' }).max(10, { message: 'must be 0–10' })
+  painCeiling: z
+    .number()
+    .int({ message: 'must be a whole number' })
+    .min(0, { message: 'must be 0–10' })
+    .max(10, { message: 'must be 0–10' })
     .default(DEFAULT_PAIN_CEILING),
   patterns: z.partialRecord(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' }), PatternRuleSchema),
 });

@@ -1,21 +1,28 @@
 import { z } from 'zod';
 import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
 
-const Line = (max: number) => z.string().trim().min(1, { message: 'is required' }).max(max, { message: `must be at most ${max} characters` })
-  .refine((v) => !/[\r\n]/.test(v), { message: 'must be one line' });
+const Line = (max: number) =>
+  z
+    .string()
+    .trim()
+    .min(1, { message: 'is required' })
+    .max(max, { message: `must be at most ${max} characters` })
+    .refine((v) => !/[\r\n]/.test(v), { message: 'must be one line' });
 
-export const LetterCreateSchema = z.strictObject({
-  athleteId: UuidSchema,
-  decision: z.enum(['full', 'limited'], { message: 'must be full or limited' }),
-  effectiveFrom: IsoDateSchema,
-  /** Valid until / next review date. */
-  validUntil: IsoDateSchema.nullable().optional(),
-  /** Plain-words limits; when omitted for a limited decision, the limits in force on the start date are used. */
-  limits: z.array(Line(300)).max(30).optional(),
-  credential: Line(80),
-  licenceNumber: Line(80),
-  familyNote: z.string().trim().max(1500, { message: 'must be at most 1,500 characters' }).default(''),
-}).refine((l) => !l.validUntil || l.validUntil >= l.effectiveFrom, { message: 'must be on or after the start date', path: ['validUntil'] });
+export const LetterCreateSchema = z
+  .strictObject({
+    athleteId: UuidSchema,
+    decision: z.enum(['full', 'limited'], { message: 'must be full or limited' }),
+    effectiveFrom: IsoDateSchema,
+    /** Valid until / next review date. */
+    validUntil: IsoDateSchema.nullable().optional(),
+    /** Plain-words limits; when omitted for a limited decision, the limits in force on the start date are used. */
+    limits: z.array(Line(300)).max(30).optional(),
+    credential: Line(80),
+    licenceNumber: Line(80),
+    familyNote: z.string().trim().max(1500, { message: 'must be at most 1,500 characters' }).default(''),
+  })
+  .refine((l) => !l.validUntil || l.validUntil >= l.effectiveFrom, { message: 'must be on or after the start date', path: ['validUntil'] });
 export type LetterCreateInput = z.infer<typeof LetterCreateSchema>;
 
 export const LetterUpdateSchema = z.strictObject({
@@ -38,5 +45,10 @@ export const LetterSignSchema = z.strictObject({
 
 /** Human-typable: Crockford base32, 20 characters in groups of four (100 random bits). */
 export const CheckCodeSchema = z.strictObject({
-  code: z.string().trim().min(16, { message: 'is too short' }).max(40, { message: 'is too long' }).regex(/^[0-9A-Za-z -]+$/, { message: 'may contain only letters, digits and dashes' }),
+  code: z
+    .string()
+    .trim()
+    .min(16, { message: 'is too short' })
+    .max(40, { message: 'is too long' })
+    .regex(/^[0-9A-Za-z -]+$/, { message: 'may contain only letters, digits and dashes' }),
 });

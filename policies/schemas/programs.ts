@@ -3,24 +3,42 @@ import { MOVEMENT_PATTERNS } from '../load/patterns';
 import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
 import { SetRpeSchema } from './athlete';
 
-export const EQUIPMENT = ['barbell', 'dumbbell', 'kettlebell', 'machine', 'cable', 'bodyweight', 'band', 'sled', 'medicine_ball', 'other'] as const;
+export const EQUIPMENT = [
+  'barbell',
+  'dumbbell',
+  'kettlebell',
+  'machine',
+  'cable',
+  'bodyweight',
+  'band',
+  'sled',
+  'medicine_ball',
+  'other',
+] as const;
 export type Equipment = (typeof EQUIPMENT)[number];
 
-export const LoadStepsSchema = z.discriminatedUnion('kind', [
-  z.strictObject({
-    kind: z.literal('increment'),
-    step: z.number({ message: 'must be a number' }).positive({ message: 'must be above 0' }).max(50, { message: 'must be at most 50' }),
-    unit: z.enum(['kg', 'lb'], { message: 'must be kg or lb' }),
-  }),
-  z.strictObject({
-    kind: z.literal('list'),
-    valuesKg: z.array(z.number().positive().max(500)).min(1, { message: 'must list at least one load' }).max(60),
-  }),
-], { message: 'must be an increment or a list of loads' });
+export const LoadStepsSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.strictObject({
+      kind: z.literal('increment'),
+      step: z.number({ message: 'must be a number' }).positive({ message: 'must be above 0' }).max(50, { message: 'must be at most 50' }),
+      unit: z.enum(['kg', 'lb'], { message: 'must be kg or lb' }),
+    }),
+    z.strictObject({
+      kind: z.literal('list'),
+      valuesKg: z.array(z.number().positive().max(500)).min(1, { message: 'must list at least one load' }).max(60),
+    }),
+  ],
+  { message: 'must be an increment or a list of loads' },
+);
 
 export const ExerciseCreateSchema = z.strictObject({
   name: z.string().trim().min(1, { message: 'is required' }).max(120, { message: 'must be at most 120 characters' }),
-  patterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' })).max(4).default([]),
+  patterns: z
+    .array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' }))
+    .max(4)
+    .default([]),
   equipment: z.enum(EQUIPMENT, { message: 'must be one of the equipment types' }),
   ballistic: z.boolean({ message: 'must be yes or no' }),
   steps: LoadStepsSchema,
@@ -35,24 +53,51 @@ export const BaselineCreateSchema = z
   .strictObject({
     exerciseId: UuidSchema,
     kind: z.enum(['tested', 'estimated'], { message: 'must be tested or estimated' }),
-    loadKg: z.number({ message: 'must be a number' }).positive({ message: 'must be above 0' }).max(1000, { message: 'must be at most 1000 kg' }),
-    reps: z.number({ message: 'must be a number' }).int({ message: 'must be a whole number' }).min(1, { message: 'must be at least 1' }).max(36, { message: 'must be at most 36 (the estimates break down beyond)' }),
+    loadKg: z
+      .number({ message: 'must be a number' })
+      .positive({ message: 'must be above 0' })
+      .max(1000, { message: 'must be at most 1000 kg' }),
+    reps: z
+      .number({ message: 'must be a number' })
+      .int({ message: 'must be a whole number' })
+      .min(1, { message: 'must be at least 1' })
+      .max(36, { message: 'must be at most 36 (the estimates break down beyond)' }),
     rpe: SetRpeSchema.nullable().optional(),
     testedOn: IsoDateSchema,
   })
   .refine((b) => b.kind === 'estimated' || b.reps === 1, { message: 'a tested max is one rep', path: ['reps'] });
 export type BaselineCreateInput = z.infer<typeof BaselineCreateSchema>;
 
-export const PlannedLoadSchema = z.discriminatedUnion('kind', [
-  z.strictObject({ kind: z.literal('kg'), value: z.number({ message: 'must be a number' }).min(0).max(1000, { message: 'must be at most 1000' }) }),
-  z.strictObject({ kind: z.literal('lb'), value: z.number({ message: 'must be a number' }).min(0).max(2200, { message: 'must be at most 2200' }) }),
-  z.strictObject({ kind: z.literal('percent'), value: z.number({ message: 'must be a number' }).positive({ message: 'must be above 0' }).max(110, { message: 'must be at most 110%' }) }),
-  z.strictObject({ kind: z.literal('bodyweight') }),
-], { message: 'must be kg, lb, % of 1RM or bodyweight' });
+export const PlannedLoadSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.strictObject({
+      kind: z.literal('kg'),
+      value: z.number({ message: 'must be a number' }).min(0).max(1000, { message: 'must be at most 1000' }),
+    }),
+    z.strictObject({
+      kind: z.literal('lb'),
+      value: z.number({ message: 'must be a number' }).min(0).max(2200, { message: 'must be at most 2200' }),
+    }),
+    z.strictObject({
+      kind: z.literal('percent'),
+      value: z
+        .number({ message: 'must be a number' })
+        .positive({ message: 'must be above 0' })
+        .max(110, { message: 'must be at most 110%' }),
+    }),
+    z.strictObject({ kind: z.literal('bodyweight') }),
+  ],
+  { message: 'must be kg, lb, % of 1RM or bodyweight' },
+);
 
 export const PlannedSetSchema = z.strictObject({
   id: UuidSchema,
-  reps: z.number({ message: 'must be a number' }).int({ message: 'must be a whole number' }).min(1, { message: 'must be at least 1' }).max(100, { message: 'must be at most 100' }),
+  reps: z
+    .number({ message: 'must be a number' })
+    .int({ message: 'must be a whole number' })
+    .min(1, { message: 'must be at least 1' })
+    .max(100, { message: 'must be at most 100' }),
   load: PlannedLoadSchema,
   targetRpe: SetRpeSchema.nullable().optional(),
   restSeconds: z.number().int().min(0).max(1800, { message: 'must be at most 1800 s' }).nullable().optional(),
@@ -102,7 +147,12 @@ export const CopyWeekSchema = z.strictObject({
 
 export const ShiftDatesSchema = z.strictObject({
   fromDate: IsoDateSchema,
-  days: z.number().int().min(-365).max(365).refine((d) => d !== 0, { message: 'must not be 0' }),
+  days: z
+    .number()
+    .int()
+    .min(-365)
+    .max(365)
+    .refine((d) => d !== 0, { message: 'must not be 0' }),
 });
 
 export const ExceptionCreateSchema = z.strictObject({

@@ -22,7 +22,11 @@ export const ClipFieldsSchema = z.strictObject({
   athleteId: UuidSchema,
   trainingLogId: UuidSchema,
   exercise: line(200),
-  caption: z.string().trim().max(500, { message: 'must be at most 500 characters' }).optional()
+  caption: z
+    .string()
+    .trim()
+    .max(500, { message: 'must be at most 500 characters' })
+    .optional()
     .transform((v) => (v ? v : undefined)),
 });
 export type ClipFieldsInput = z.infer<typeof ClipFieldsSchema>;
@@ -33,16 +37,28 @@ export const ClipListQuerySchema = z.strictObject({
 });
 
 export const ClipNoteCreateSchema = z.strictObject({
-  atMs: z.number({ message: 'is required' }).int({ message: 'must be whole milliseconds' }).min(0, { message: 'cannot be negative' })
+  atMs: z
+    .number({ message: 'is required' })
+    .int({ message: 'must be whole milliseconds' })
+    .min(0, { message: 'cannot be negative' })
     .max(3_600_000, { message: 'must be within the first hour' }),
-  body: z.string({ message: 'is required' }).trim().min(1, { message: 'is required' }).max(1000, { message: 'must be at most 1000 characters' }),
+  body: z
+    .string({ message: 'is required' })
+    .trim()
+    .min(1, { message: 'is required' })
+    .max(1000, { message: 'must be at most 1000 characters' }),
 });
 export type ClipNoteCreateInput = z.infer<typeof ClipNoteCreateSchema>;
 
 export const OrganizationSettingsSchema = z.strictObject({
   name: line(200).optional(),
-  emergencyNumber: z.string().trim().min(1, { message: 'is required' }).max(30, { message: 'must be at most 30 characters' })
-    .regex(/^[0-9+()\- ]+$/, { message: 'may contain digits, spaces, +, - and brackets only' }).optional(),
+  emergencyNumber: z
+    .string()
+    .trim()
+    .min(1, { message: 'is required' })
+    .max(30, { message: 'must be at most 30 characters' })
+    .regex(/^[0-9+()\- ]+$/, { message: 'may contain digits, spaces, +, - and brackets only' })
+    .optional(),
   guardiansSeeClips: z.boolean({ message: 'must be true or false' }).optional(),
   version: z.number({ message: 'is required' }).int().min(1),
 });

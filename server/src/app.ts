@@ -93,7 +93,10 @@ export function buildApp(base: AppDeps) {
   });
   api.use(express.json({ limit: '100kb' }));
   // The health check never needs a session: load balancers call it often and without cookies.
-  const unlessHealth = (mw: express.RequestHandler): express.RequestHandler => (req, res, next) => (req.path === '/health' ? next() : mw(req, res, next));
+  const unlessHealth =
+    (mw: express.RequestHandler): express.RequestHandler =>
+    (req, res, next) =>
+      req.path === '/health' ? next() : mw(req, res, next);
   api.use(unlessHealth(sessionMiddleware));
   api.use(unlessHealth(passport.initialize()));
   api.use(unlessHealth(passport.session()));

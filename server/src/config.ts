@@ -10,7 +10,11 @@ const ConfigSchema = z.object({
   SECURE_COOKIES: z.enum(['true', 'false']).default('false'),
   TRUST_PROXY: z.enum(['true', 'false']).default('false'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  SIGNIN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  SIGNIN_WINDOW_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .default(15 * 60),
   SIGNIN_MAX_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).default(10),
   SIGNIN_MAX_PER_IP: z.coerce.number().int().min(1).default(50),
   /**
@@ -20,10 +24,18 @@ const ConfigSchema = z.object({
   RATE_LIMIT_NAMESPACE: z.string().min(1).max(100).default('loadline'),
   SESSION_IDLE_MINUTES: z.coerce.number().min(1).max(30).default(30),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).max(12).default(12),
-  INVITATION_TTL_HOURS: z.coerce.number().min(1).max(24 * 14).default(72),
+  INVITATION_TTL_HOURS: z.coerce
+    .number()
+    .min(1)
+    .max(24 * 14)
+    .default(72),
   BCRYPT_COST: z.coerce.number().int().min(12).max(15).default(12),
   /** Password reset links work once and for this many minutes. */
-  RESET_TTL_MINUTES: z.coerce.number().min(1).max(24 * 60).default(30),
+  RESET_TTL_MINUTES: z.coerce
+    .number()
+    .min(1)
+    .max(24 * 60)
+    .default(30),
   /** Reset requests per e-mail address and per IP address, over SIGNIN_WINDOW_SECONDS. */
   RESET_MAX_PER_ACCOUNT: z.coerce.number().int().min(1).default(5),
   RESET_MAX_PER_IP: z.coerce.number().int().min(1).default(20),

@@ -19,7 +19,16 @@ export const EMAIL_CAUTION =
 const escape = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 export function renderEmail(c: EmailContent): { subject: string; text: string; html: string } {
-  const text = [c.greeting, '', ...c.paragraphs.flatMap((p) => [p, '']), ...(c.action ? [`${c.action.label}: ${c.action.url}`, ''] : []), '—', 'Loadline', '', EMAIL_CAUTION].join('\n');
+  const text = [
+    c.greeting,
+    '',
+    ...c.paragraphs.flatMap((p) => [p, '']),
+    ...(c.action ? [`${c.action.label}: ${c.action.url}`, ''] : []),
+    '—',
+    'Loadline',
+    '',
+    EMAIL_CAUTION,
+  ].join('\n');
   const html = `<!doctype html><html lang="en"><body style="margin:0;background:#f7f3ec;font-family:'Public Sans',Arial,sans-serif;color:#14202e">
 <table role="presentation" width="100%" cellpadding="0" cellspacing="0"><tr><td align="center" style="padding:24px">
 <table role="presentation" width="560" cellpadding="0" cellspacing="0" style="max-width:560px;background:#fffdf8;border:1px solid #d9d2c5">

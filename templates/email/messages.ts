@@ -2,9 +2,15 @@ import type { EmailContent } from './layout';
 
 /** The e-mails Loadline sends, as content for the layout. Each has default sample data for tests. */
 export const emails = {
-  invitation(d: { organizationName: string; inviterName: string; roles: string; link: string; expiresAt: string } = {
-    organizationName: 'Sample Club', inviterName: 'Sample Admin', roles: 'coach', link: 'http://127.0.0.1:3000/invite#sample', expiresAt: '2026-12-05',
-  }): EmailContent {
+  invitation(
+    d: { organizationName: string; inviterName: string; roles: string; link: string; expiresAt: string } = {
+      organizationName: 'Sample Club',
+      inviterName: 'Sample Admin',
+      roles: 'coach',
+      link: 'http://127.0.0.1:3000/invite#sample',
+      expiresAt: '2026-12-05',
+    },
+  ): EmailContent {
     return {
       subject: `You're invited to ${d.organizationName} on Loadline`,
       greeting: 'Hello,',
@@ -15,7 +21,9 @@ export const emails = {
       action: { label: 'Accept the invitation', url: d.link },
     };
   },
-  passwordReset(d: { name: string; link: string; minutes: number } = { name: 'Sample', link: 'http://127.0.0.1:3000/reset#sample', minutes: 30 }): EmailContent {
+  passwordReset(
+    d: { name: string; link: string; minutes: number } = { name: 'Sample', link: 'http://127.0.0.1:3000/reset#sample', minutes: 30 },
+  ): EmailContent {
     return {
       subject: 'Choose a new Loadline password',
       greeting: `Hello ${d.name},`,
@@ -27,12 +35,30 @@ export const emails = {
       action: { label: 'Choose a new password', url: d.link },
     };
   },
-  notice(d: { name: string; title: string; body: string; url: string } = { name: 'Sample', title: 'Sample notice', body: 'Something needs your attention.', url: 'http://127.0.0.1:3000/notices' }): EmailContent {
-    return { subject: d.title, greeting: `Hello ${d.name},`, paragraphs: [d.body, 'Sign in to Loadline to see the details.'], action: { label: 'Open Loadline', url: d.url } };
+  notice(
+    d: { name: string; title: string; body: string; url: string } = {
+      name: 'Sample',
+      title: 'Sample notice',
+      body: 'Something needs your attention.',
+      url: 'http://127.0.0.1:3000/notices',
+    },
+  ): EmailContent {
+    return {
+      subject: d.title,
+      greeting: `Hello ${d.name},`,
+      paragraphs: [d.body, 'Sign in to Loadline to see the details.'],
+      action: { label: 'Open Loadline', url: d.url },
+    };
   },
-  letter(d: { name: string; athleteName: string; decision: string; organizationName: string; url: string } = {
-    name: 'Sample', athleteName: 'Sample Athlete', decision: 'Full participation from 1 December 2026', organizationName: 'Sample Club', url: 'http://127.0.0.1:3000/',
-  }): EmailContent {
+  letter(
+    d: { name: string; athleteName: string; decision: string; organizationName: string; url: string } = {
+      name: 'Sample',
+      athleteName: 'Sample Athlete',
+      decision: 'Full participation from 1 December 2026',
+      organizationName: 'Sample Club',
+      url: 'http://127.0.0.1:3000/',
+    },
+  ): EmailContent {
     return {
       subject: `Clearance letter for ${d.athleteName}`,
       greeting: `Hello ${d.name},`,

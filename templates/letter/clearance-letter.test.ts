@@ -22,7 +22,13 @@ async function readPdf(bytes: Buffer) {
   }
   const text = lines.join(' ').replace(/\s+/g, ' ').trim();
   await doc.destroy();
-  return { text, pages: doc.numPages, fonts: [...fonts.values()], metadata: meta.metadata as { get(name: string): unknown } | null, info: meta.info as Record<string, unknown> };
+  return {
+    text,
+    pages: doc.numPages,
+    fonts: [...fonts.values()],
+    metadata: meta.metadata as { get(name: string): unknown } | null,
+    info: meta.info as Record<string, unknown>,
+  };
 }
 
 const oneLine = (s: string) => s.replace(/\s+/g, ' ');
@@ -81,7 +87,11 @@ describe('the clearance letter PDF, rendered from its sample data', () => {
     expect(metadata!.get('pdfaid:part')).toBe('2');
     expect(metadata!.get('pdfaid:conformance')).toBe('B');
     expect(metadata!.get('dc:title')).toBe('Clearance letter — Sample Athlete');
-    expect(info).toMatchObject({ Language: 'en', Title: 'Clearance letter — Sample Athlete', Subject: 'Limited participation from 1 December 2026' });
+    expect(info).toMatchObject({
+      Language: 'en',
+      Title: 'Clearance letter — Sample Athlete',
+      Subject: 'Limited participation from 1 December 2026',
+    });
     const raw = pdf.toString('latin1');
     expect(raw).toContain('/OutputIntents');
     expect(raw).toMatch(/\/GTS_PDFA1/);
@@ -133,7 +143,9 @@ describe('decisionWords', () => {
 describe('names outside basic Latin', () => {
   it('prints Polish and Vietnamese names with glyphs from the matching Public Sans files', async () => {
     const latinOnly = await readPdf(await renderLetterPdf(SAMPLE_LETTER));
-    const { text, fonts } = await readPdf(await renderLetterPdf({ ...SAMPLE_LETTER, athleteName: 'Łucja Żółć-Nguyễn', signature: 'Đặng Thu' }));
+    const { text, fonts } = await readPdf(
+      await renderLetterPdf({ ...SAMPLE_LETTER, athleteName: 'Łucja Żółć-Nguyễn', signature: 'Đặng Thu' }),
+    );
     expect(text).toContain('Łucja Żółć-Nguyễn');
     expect(text).toContain('Đặng Thu');
     // The latin-ext and vietnamese files are embedded and drawn with, besides the latin ones.

@@ -68,7 +68,12 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
     tagged: true,
     lang: 'en',
     displayTitle: true,
-    info: { Title: `Clearance letter — ${d.athleteName.normalize('NFC')}`, Author: d.organizationName, Subject: decisionWords(d), Creator: 'Loadline' },
+    info: {
+      Title: `Clearance letter — ${d.athleteName.normalize('NFC')}`,
+      Author: d.organizationName,
+      Subject: decisionWords(d),
+      Creator: 'Loadline',
+    },
   } as PDFKit.PDFDocumentOptions);
   // Public Sans from the installed package (pdfkit reads .woff, not .woff2), one file per script subset.
   for (const f of fontFiles()) doc.registerFont(f.name, f.file);
@@ -80,7 +85,12 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
   const accent = '#c2571a';
   const grey = '#5b6470';
   writeText(doc.fillColor(ink).fontSize(11), 'Bold', d.organizationName.toUpperCase(), { characterSpacing: 1 });
-  doc.moveTo(60, doc.y + 6).lineTo(535, doc.y + 6).lineWidth(2).strokeColor(accent).stroke();
+  doc
+    .moveTo(60, doc.y + 6)
+    .lineTo(535, doc.y + 6)
+    .lineWidth(2)
+    .strokeColor(accent)
+    .stroke();
   doc.moveDown(1.2);
   doc.font('Bold').fontSize(22).text('Clearance letter');
   if (d.draft) doc.font('Bold').fontSize(12).fillColor(accent).text('DRAFT — not signed, not valid').fillColor(ink);
@@ -90,7 +100,10 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
   doc.moveDown(0.6);
   doc.font('Body').fontSize(11).fillColor(grey).text('Decision');
   doc.font('Bold').fontSize(14).fillColor(ink).text(decisionWords(d));
-  doc.font('Body').fontSize(11).text(d.validUntil ? `Valid until ${day(d.validUntil)} (next review).` : 'Valid until a clinician changes it.');
+  doc
+    .font('Body')
+    .fontSize(11)
+    .text(d.validUntil ? `Valid until ${day(d.validUntil)} (next review).` : 'Valid until a clinician changes it.');
   if (d.decision === 'limited' && d.limits.length) {
     doc.moveDown(0.6);
     doc.font('Bold').fontSize(12).text('Limits in force');

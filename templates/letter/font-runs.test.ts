@@ -22,6 +22,10 @@ describe('cutting text into runs by Public Sans subset', () => {
   it('composes decomposed input first, so a Vietnamese letter is one glyph from one file', () => {
     const decomposed = 'Nguye\u0302\u0303n';
     expect(fontRuns(decomposed).map((r) => r.subset)).toEqual(['latin', 'vietnamese', 'latin']);
-    expect(fontRuns(decomposed).map((r) => r.text).join('')).toBe('Nguyễn');
+    expect(
+      fontRuns(decomposed)
+        .map((r) => r.text)
+        .join(''),
+    ).toBe('Nguyễn');
   });
 });

@@ -61,7 +61,13 @@ export function fontName(weight: Weight, subset: Subset): string {
 }
 
 /** Draws `text` like `doc.text`, switching font file per run; the document is left in the weight's latin font. */
-export function writeText(doc: PDFKit.PDFDocument, weight: Weight, text: string, options?: PDFKit.Mixins.TextOptions, x?: number): PDFKit.PDFDocument {
+export function writeText(
+  doc: PDFKit.PDFDocument,
+  weight: Weight,
+  text: string,
+  options?: PDFKit.Mixins.TextOptions,
+  x?: number,
+): PDFKit.PDFDocument {
   const runs = fontRuns(text);
   if (runs.length <= 1) {
     doc.font(fontName(weight, runs[0]?.subset ?? 'latin'));

@@ -64,7 +64,15 @@ function maya(over: Partial<AthleteProfileDto> = {}): AthleteProfileDto {
     position: 'Shortstop',
     version: 1,
     careTeam: [
-      { id: 'c1', organizationId: ORG, athleteId: 'm-maya', athleteName: 'Maya Torres', memberId: 'm-theo', memberName: 'Theo Lindqvist', role: 'coach' },
+      {
+        id: 'c1',
+        organizationId: ORG,
+        athleteId: 'm-maya',
+        athleteName: 'Maya Torres',
+        memberId: 'm-theo',
+        memberName: 'Theo Lindqvist',
+        role: 'coach',
+      },
     ],
     guardians: [],
     ...over,
@@ -91,7 +99,9 @@ function mayaRow(over: Partial<CaseloadRowDto> = {}): CaseloadRowDto {
 /** Answers by path; anything unexpected is a 404 so a stray call shows up in the page. */
 function serve(routesByPath: Record<string, unknown>) {
   fetchMock.mockImplementation(async (input) => {
-    const path = String(input).replace(/^\/api/, '').split('?')[0];
+    const path = String(input)
+      .replace(/^\/api/, '')
+      .split('?')[0];
     if (path in routesByPath) return jsonResponse(200, routesByPath[path]);
     return jsonResponse(404, { error: { code: 'not_found', message: `No ${path}` }, requestId: 'r' });
   });
@@ -180,7 +190,18 @@ describe('app routes', () => {
       '/session': session,
       [`/orgs/${ORG}`]: { id: ORG, name: 'Harbor Point Performance', emergencyNumber: '911' },
       [`/orgs/${ORG}/athletes`]: [
-        maya({ guardians: [{ id: 'g1', organizationId: ORG, athleteId: 'm-maya', athleteName: 'Maya Torres', guardianId: 'm-theo', guardianName: 'Theo Lindqvist' }] }),
+        maya({
+          guardians: [
+            {
+              id: 'g1',
+              organizationId: ORG,
+              athleteId: 'm-maya',
+              athleteName: 'Maya Torres',
+              guardianId: 'm-theo',
+              guardianName: 'Theo Lindqvist',
+            },
+          ],
+        }),
       ],
     });
     renderAt('/');
@@ -193,9 +214,21 @@ describe('app routes', () => {
 
   it("shows an athlete today's limits in plain words, the pain ceiling and the guidance", async () => {
     const patterns: Record<string, PatternRule> = Object.fromEntries(
-      ['hinge', 'squat', 'lunge', 'horizontal_push', 'vertical_push', 'horizontal_pull', 'vertical_pull', 'carry', 'rotation', 'jump', 'sprint', 'throw', 'swing'].map(
-        (p) => [p, { mode: 'free' } as PatternRule],
-      ),
+      [
+        'hinge',
+        'squat',
+        'lunge',
+        'horizontal_push',
+        'vertical_push',
+        'horizontal_pull',
+        'vertical_pull',
+        'carry',
+        'rotation',
+        'jump',
+        'sprint',
+        'throw',
+        'swing',
+      ].map((p) => [p, { mode: 'free' } as PatternRule]),
     );
     patterns.hinge = { mode: 'capped', caps: { maxPercent1RM: 60 } };
     patterns.jump = { mode: 'blocked' };

@@ -4,9 +4,8 @@ import { useId } from 'react';
 export function CareCaution() {
   return (
     <p className="text-xs text-ink-2">
-      Loadline keeps a record of decisions made by the athlete&apos;s licensed clinician. It does not diagnose or
-      treat, and it is no substitute for professional care. Follow local law, your sport&apos;s governing body and
-      your organization&apos;s policies.
+      Loadline keeps a record of decisions made by the athlete&apos;s licensed clinician. It does not diagnose or treat, and it is no
+      substitute for professional care. Follow local law, your sport&apos;s governing body and your organization&apos;s policies.
     </p>
   );
 }
@@ -40,9 +39,7 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
           In an emergency call <span className="tabular-nums">{emergencyNumber}</span>.
         </p>
       )}
-      <p className="mt-2">
-        During a session, stop and tell your clinician if pain climbs past the ceiling your clinician set.
-      </p>
+      <p className="mt-2">During a session, stop and tell your clinician if pain climbs past the ceiling your clinician set.</p>
     </section>
   );
 }
@@ -53,14 +50,12 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
  */
 export function ClinicalRecordCaution({ audience = 'clinician', className }: { audience?: 'clinician' | 'team'; className?: string }) {
   return (
-    <p
-      className={`rounded-md border border-rule border-l-4 border-l-line bg-sheet px-3 py-2 text-sm text-ink-2 ${className ?? ''}`}
-    >
+    <p className={`rounded-md border border-rule border-l-4 border-l-line bg-sheet px-3 py-2 text-sm text-ink-2 ${className ?? ''}`}>
       <span className="font-semibold text-ink">
         {audience === 'clinician' ? 'A record of your decisions, not a diagnosis.' : "The clinician's limits, not a diagnosis."}
       </span>{' '}
-      Loadline records what the athlete&apos;s licensed clinician decides; it does not diagnose, treat or replace
-      professional care. Follow local law, your governing body&apos;s rules and your organization&apos;s policies.
+      Loadline records what the athlete&apos;s licensed clinician decides; it does not diagnose, treat or replace professional care. Follow
+      local law, your governing body&apos;s rules and your organization&apos;s policies.
     </p>
   );
 }

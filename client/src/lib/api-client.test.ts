@@ -93,9 +93,7 @@ describe('apiRequest', () => {
   });
 
   it('throws an ApiError with the server sentence on failure', async () => {
-    fetchMock.mockResolvedValue(
-      jsonResponse(403, { error: { code: 'forbidden', message: 'Only admins may invite.' }, requestId: 'r9' }),
-    );
+    fetchMock.mockResolvedValue(jsonResponse(403, { error: { code: 'forbidden', message: 'Only admins may invite.' }, requestId: 'r9' }));
     await expect(api.post('/orgs/o1/invitations', {})).rejects.toMatchObject({
       status: 403,
       code: 'forbidden',

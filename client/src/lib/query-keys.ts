@@ -25,7 +25,8 @@ export const queryKeys = {
   painReportsAll: (orgId: string) => ['orgs', orgId, 'pain-reports'] as const,
   painReports: (orgId: string, athleteId: string) => ['orgs', orgId, 'pain-reports', athleteId] as const,
   checkInsAll: (orgId: string) => ['orgs', orgId, 'check-ins'] as const,
-  checkIns: (orgId: string, athleteId: string, range: { from: string; to: string }) => ['orgs', orgId, 'check-ins', athleteId, range] as const,
+  checkIns: (orgId: string, athleteId: string, range: { from: string; to: string }) =>
+    ['orgs', orgId, 'check-ins', athleteId, range] as const,
   trainingLogsAll: (orgId: string) => ['orgs', orgId, 'training-logs'] as const,
   trainingLogs: (orgId: string, athleteId: string, range: { from: string; to: string }) =>
     ['orgs', orgId, 'training-logs', athleteId, range] as const,

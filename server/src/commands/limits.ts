@@ -18,8 +18,14 @@ import { athleteCircle, notify } from '../services/notify';
  * Commands never call this directly: they call `ctx.limitsChanged(change)` (commands/run.ts), which
  * also records that they did, so a command declared as changing limits cannot forget it.
  */
-export async function applyLimitsChange(m: EntityManager, organizationId: string, today: string, change: LimitsChange): Promise<RecheckSummary> {
-  const athleteIds = 'athleteIds' in change ? [...new Set(change.athleteIds)] : await athletesUsingExercise(m, organizationId, change.exerciseId, today);
+export async function applyLimitsChange(
+  m: EntityManager,
+  organizationId: string,
+  today: string,
+  change: LimitsChange,
+): Promise<RecheckSummary> {
+  const athleteIds =
+    'athleteIds' in change ? [...new Set(change.athleteIds)] : await athletesUsingExercise(m, organizationId, change.exerciseId, today);
   const summary: RecheckSummary = { held: [], released: [] };
   const heldByAthlete = new Map<string, ProgramSession[]>();
   for (const athleteId of athleteIds.sort()) {
@@ -48,7 +54,12 @@ async function athletesUsingExercise(m: EntityManager, organizationId: string, e
   return rows.map((r) => r.athlete_id);
 }
 
-async function recheckOne(m: EntityManager, organizationId: string, athleteId: string, today: string): Promise<{ held: ProgramSession[]; released: string[] }> {
+async function recheckOne(
+  m: EntityManager,
+  organizationId: string,
+  athleteId: string,
+  today: string,
+): Promise<{ held: ProgramSession[]; released: string[] }> {
   const thisWeek = await m
     .createQueryBuilder(ProgramSession, 's')
     .innerJoin('programs', 'p', 'p.id = s.program_id')
@@ -86,7 +97,12 @@ async function recheckOne(m: EntityManager, organizationId: string, athleteId: s
 }
 
 /** One notice per coach for the change, naming each of their athletes and the held dates. */
-async function tellCoaches(m: EntityManager, organizationId: string, heldByAthlete: Map<string, ProgramSession[]>, reason: string): Promise<void> {
+async function tellCoaches(
+  m: EntityManager,
+  organizationId: string,
+  heldByAthlete: Map<string, ProgramSession[]>,
+  reason: string,
+): Promise<void> {
   const names: { id: string; name: string }[] = await m.query(
     `SELECT m.id, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
     [[...heldByAthlete.keys()]],
@@ -99,7 +115,13 @@ async function tellCoaches(m: EntityManager, organizationId: string, heldByAthle
   }
   for (const [coach, athletes] of byCoach) {
     const count = athletes.reduce((n, a) => n + heldByAthlete.get(a)!.length, 0);
-    const lines = athletes.map((a) => `${nameOf.get(a) ?? 'An athlete'}: ${heldByAthlete.get(a)!.map((s) => s.date).join(', ')}`);
+    const lines = athletes.map(
+      (a) =>
+        `${nameOf.get(a) ?? 'An athlete'}: ${heldByAthlete
+          .get(a)!
+          .map((s) => s.date)
+          .join(', ')}`,
+    );
     const who = athletes.length === 1 ? (nameOf.get(athletes[0]) ?? 'An athlete') : `${athletes.length} athletes`;
     await notify(m, [coach], {
       organizationId,
@@ -113,6 +135,12 @@ async function tellCoaches(m: EntityManager, organizationId: string, heldByAthle
 }
 
 /** Interim for call sites not yet turned into commands (they move to `ctx.limitsChanged`). */
-export async function recheckAthlete(m: EntityManager, organizationId: string, athleteId: string, reason: string, today: string): Promise<RecheckSummary> {
+export async function recheckAthlete(
+  m: EntityManager,
+  organizationId: string,
+  athleteId: string,
+  reason: string,
+  today: string,
+): Promise<RecheckSummary> {
   return applyLimitsChange(m, organizationId, today, { athleteIds: [athleteId], reason });
 }

@@ -69,7 +69,12 @@ export async function runOrgCommand<I, O>(cmd: Command<I, O, OrgCommandCtx>, cal
 }
 
 /** Runs a command that needs no membership, in a transaction of its own. */
-export async function runPublicCommand<I, O>(cmd: Command<I, O, CommandCtx>, caller: Caller, input: I, organizationId: string | null = null): Promise<O> {
+export async function runPublicCommand<I, O>(
+  cmd: Command<I, O, CommandCtx>,
+  caller: Caller,
+  input: I,
+  organizationId: string | null = null,
+): Promise<O> {
   return caller.deps.ds.transaction(async (m) => {
     const tracker: Tracker = { reported: false };
     const out = await cmd.run(baseCtx(m, caller, organizationId, null, tracker), input);
@@ -102,5 +107,16 @@ export async function callWithin<I, O>(ctx: OrgCommandCtx, cmd: Command<I, O, Or
 /** Runs a read with the reader's ability and the organization's today. */
 export async function runOrgQuery<I, O>(q: Query<I, O>, caller: OrgCaller, input: I, db: QueryCtx['db'] = caller.deps.ds): Promise<O> {
   const now = new Date();
-  return q.run({ db, deps: caller.deps, userId: caller.userId, actor: caller.actor, ability: caller.ability, now, today: orgToday(caller.actor.timeZone, now) }, input);
+  return q.run(
+    {
+      db,
+      deps: caller.deps,
+      userId: caller.userId,
+      actor: caller.actor,
+      ability: caller.ability,
+      now,
+      today: orgToday(caller.actor.timeZone, now),
+    },
+    input,
+  );
 }

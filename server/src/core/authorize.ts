@@ -88,4 +88,3 @@ export function refusalMessage(action: Action, subject: SubjectName): string {
   const verb = action === 'read' ? 'see' : action === 'create' ? 'add to' : action === 'delete' ? 'remove from' : 'change';
   return `Your role does not allow you to ${verb} ${SUBJECT_WORDS[subject]}. Ask an admin of your organization if you need this.`;
 }
-

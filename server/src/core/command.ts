@@ -72,8 +72,16 @@ export interface Command<I, O, C extends CommandCtx = OrgCommandCtx> {
 export type AnyCommand = Command<any, any, any>;
 
 /** A write by a member of an organization: plain function of (context, validated input). */
-export function orgCommand<I, O>(def: { name: string; changesLimits?: boolean; run(ctx: OrgCommandCtx, input: I): Promise<O> }): Command<I, O, OrgCommandCtx> {
-  return { kind: 'command', scope: 'org', changesLimits: def.changesLimits ?? false, name: def.name, run: def.run } as Command<I, O, OrgCommandCtx>;
+export function orgCommand<I, O>(def: {
+  name: string;
+  changesLimits?: boolean;
+  run(ctx: OrgCommandCtx, input: I): Promise<O>;
+}): Command<I, O, OrgCommandCtx> {
+  return { kind: 'command', scope: 'org', changesLimits: def.changesLimits ?? false, name: def.name, run: def.run } as Command<
+    I,
+    O,
+    OrgCommandCtx
+  >;
 }
 
 /** A write that needs no organization membership (sign-in, reset, accepting an invitation…). */

@@ -21,7 +21,10 @@ export class AppError extends Error {
 export const notFound = (what = 'record') => new AppError('not_found', `That ${what} was not found.`);
 export const forbidden = (message: string) => new AppError('forbidden', message);
 export const versionConflict = (what: string) =>
-  new AppError('version_conflict', `Someone else changed this ${what} after you opened it. Reload to see the latest, then make your change again.`);
+  new AppError(
+    'version_conflict',
+    `Someone else changed this ${what} after you opened it. Reload to see the latest, then make your change again.`,
+  );
 
 /** Turns zod issues into `{ "field.path": ["message"] }` and one sentence naming each field. */
 export function fromZod(error: z.ZodError, where: 'body' | 'query' | 'params'): AppError {

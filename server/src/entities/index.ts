@@ -31,9 +31,32 @@ import { PasswordResetToken } from './password-reset-token.entity';
 import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
 
 export {
-  Organization, User, Membership, AthleteProfile, CareTeamAssignment, GuardianLink, Invitation, AuditEntry, CaseRecord,
-  ParticipationStatusChange, RestrictionPlan, RestrictionPlanVersion, PainReport, CheckIn, TrainingLog, Flag, Notification,
-  Exercise, Baseline, Program, ProgramSession, SessionHold, ProgramException, ClearanceLetter, EmailDelivery, LetterAcknowledgement,
+  Organization,
+  User,
+  Membership,
+  AthleteProfile,
+  CareTeamAssignment,
+  GuardianLink,
+  Invitation,
+  AuditEntry,
+  CaseRecord,
+  ParticipationStatusChange,
+  RestrictionPlan,
+  RestrictionPlanVersion,
+  PainReport,
+  CheckIn,
+  TrainingLog,
+  Flag,
+  Notification,
+  Exercise,
+  Baseline,
+  Program,
+  ProgramSession,
+  SessionHold,
+  ProgramException,
+  ClearanceLetter,
+  EmailDelivery,
+  LetterAcknowledgement,
 };
 export { CaseDocument, Clip, ClipNote };
 export { PasswordResetToken, UserTotp, TotpRecoveryCode };

@@ -20,7 +20,12 @@ function normalise(err: unknown): AppError {
     return new AppError('unsupported_media_type', 'The request body must be UTF-8 JSON.');
   }
   // The database is away (connection refused, terminated, timeout): say so, rather than "internal".
-  if (e?.code === 'ECONNREFUSED' || e?.code === '57P01' || e?.code === '57P03' || /Connection terminated|timeout exceeded when trying to connect/i.test(String((err as Error)?.message))) {
+  if (
+    e?.code === 'ECONNREFUSED' ||
+    e?.code === '57P01' ||
+    e?.code === '57P03' ||
+    /Connection terminated|timeout exceeded when trying to connect/i.test(String((err as Error)?.message))
+  ) {
     return new AppError('unavailable', 'The service is briefly unavailable. Please try again in a moment.');
   }
   return new AppError('internal', 'Something went wrong on our side. It has been logged; please try again.');
@@ -54,7 +59,12 @@ export function errorHandler(deps: Deps): ErrorRequestHandler {
     }
     if (res.headersSent) return;
     const body: ErrorBody = {
-      error: { code: appErr.code, message: appErr.message, ...(appErr.fields ? { fields: appErr.fields } : {}), ...(appErr.details !== undefined ? { details: appErr.details } : {}) },
+      error: {
+        code: appErr.code,
+        message: appErr.message,
+        ...(appErr.fields ? { fields: appErr.fields } : {}),
+        ...(appErr.details !== undefined ? { details: appErr.details } : {}),
+      },
       requestId,
     };
     res.status(appErr.status).json(body);

@@ -53,7 +53,10 @@ export class PgRateLimitStore implements Store {
   /** Runs after a response (skipped successes); a lost decrement only leaves the limit stricter. */
   async decrement(key: string): Promise<void> {
     if (!this.ds.isInitialized) return;
-    await this.ds.query(`UPDATE rate_limit_counters SET hits = greatest(hits - 1, 0) WHERE key = $1 AND reset_at > $2`, [this.hash(key), new Date()]);
+    await this.ds.query(`UPDATE rate_limit_counters SET hits = greatest(hits - 1, 0) WHERE key = $1 AND reset_at > $2`, [
+      this.hash(key),
+      new Date(),
+    ]);
   }
 
   async resetKey(key: string): Promise<void> {

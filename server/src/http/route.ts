@@ -17,10 +17,7 @@ import { runOrgCommand, runOrgQuery, runPublicCommand } from '../commands/run';
  * - org: a member of the organization in `:orgId` whose rules allow `action` on some `subject`;
  *   the handler then checks the loaded record itself.
  */
-export type Access =
-  | { kind: 'public' }
-  | { kind: 'signedIn' }
-  | { kind: 'org'; action: Action; subject: SubjectName };
+export type Access = { kind: 'public' } | { kind: 'signedIn' } | { kind: 'org'; action: Action; subject: SubjectName };
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 type ZodAny = z.ZodType;
@@ -55,14 +52,28 @@ export type RouteDef =
     });
 
 /** Helpers that keep handler parameter types tied to their schemas. */
-export function publicRoute<P extends ZodAny | undefined = undefined, Q extends ZodAny | undefined = undefined, B extends ZodAny | undefined = undefined>(
-  def: RouteBase<P, Q, B> & { access: { kind: 'public' } | { kind: 'signedIn' }; handler: (ctx: BaseCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown> },
+export function publicRoute<
+  P extends ZodAny | undefined = undefined,
+  Q extends ZodAny | undefined = undefined,
+  B extends ZodAny | undefined = undefined,
+>(
+  def: RouteBase<P, Q, B> & {
+    access: { kind: 'public' } | { kind: 'signedIn' };
+    handler: (ctx: BaseCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown>;
+  },
 ): RouteDef {
   return def as unknown as RouteDef;
 }
 
-export function orgRoute<P extends ZodAny | undefined = undefined, Q extends ZodAny | undefined = undefined, B extends ZodAny | undefined = undefined>(
-  def: RouteBase<P, Q, B> & { access: { kind: 'org'; action: Action; subject: SubjectName }; handler: (ctx: OrgCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown> },
+export function orgRoute<
+  P extends ZodAny | undefined = undefined,
+  Q extends ZodAny | undefined = undefined,
+  B extends ZodAny | undefined = undefined,
+>(
+  def: RouteBase<P, Q, B> & {
+    access: { kind: 'org'; action: Action; subject: SubjectName };
+    handler: (ctx: OrgCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown>;
+  },
 ): RouteDef {
   return def as unknown as RouteDef;
 }
@@ -96,10 +107,16 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
     const fullPath = `/api${def.path}`;
     const declared = def.command === undefined ? [] : Array.isArray(def.command) ? def.command : [def.command];
     const mayRun = (name: string) => {
-      if (!declared.some((c) => c.name === name)) throw new Error(`${def.method.toUpperCase()} ${fullPath} runs ${name} without declaring it`);
+      if (!declared.some((c) => c.name === name))
+        throw new Error(`${def.method.toUpperCase()} ${fullPath} runs ${name} without declaring it`);
     };
     if (!ROUTE_TABLE.some((r) => r.method === def.method.toUpperCase() && r.path === fullPath)) {
-      ROUTE_TABLE.push({ method: def.method.toUpperCase(), path: fullPath, access: accessLabel(def.access), commands: declared.map((c) => (c.changesLimits ? `${c.name}!` : c.name)) });
+      ROUTE_TABLE.push({
+        method: def.method.toUpperCase(),
+        path: fullPath,
+        access: accessLabel(def.access),
+        commands: declared.map((c) => (c.changesLimits ? `${c.name}!` : c.name)),
+      });
     }
     const handler = asyncHandler(async (req, res) => {
       const requestId = String(req.id);

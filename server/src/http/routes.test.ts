@@ -245,9 +245,7 @@ describe('the route table', () => {
   describe('property: arbitrary bodies never cause a 5xx', () => {
     /** Every field name any request schema knows, so generated bodies often look almost right. */
     const knownKeys = [
-      ...new Set(
-        Object.values(schemas).flatMap((s) => (s instanceof z.ZodObject ? Object.keys((s as z.ZodObject).shape) : [])),
-      ),
+      ...new Set(Object.values(schemas).flatMap((s) => (s instanceof z.ZodObject ? Object.keys((s as z.ZodObject).shape) : []))),
     ];
 
     it('knows the request field names', () => {
@@ -332,7 +330,10 @@ describe('the route table', () => {
       }
       // Every caller stayed signed in and passed CSRF, so the bodies were judged on their content.
       for (const [route, seen] of Object.entries(codes)) {
-        expect([...seen].filter((c) => c === 'unauthenticated' || c === 'csrf_failed'), route).toEqual([]);
+        expect(
+          [...seen].filter((c) => c === 'unauthenticated' || c === 'csrf_failed'),
+          route,
+        ).toEqual([]);
       }
     });
   });
@@ -344,9 +345,7 @@ class PgProxy {
   private sockets = new Set<net.Socket>();
   port = 0;
 
-  constructor(
-    private readonly target: { host: string; port: number },
-  ) {}
+  constructor(private readonly target: { host: string; port: number }) {}
 
   async open(port = this.port): Promise<void> {
     const server = net.createServer((client) => {

@@ -54,7 +54,10 @@ export function loadedActor(user: User, organizationId: string): ActorWithOrg | 
 
 /** connect-pg-simple's read (same table, same expiry test), joined with the user and their actors. */
 function sessionReadSql(deps: Deps): string {
-  const columns = deps.ds.getMetadata(User).columns.map((c, i) => `u."${c.databaseName}" AS u${i}`).join(', ');
+  const columns = deps.ds
+    .getMetadata(User)
+    .columns.map((c, i) => `u."${c.databaseName}" AS u${i}`)
+    .join(', ');
   const userId = `s.sess -> 'passport' ->> 'user'`;
   return `SELECT s.sess, u.id AS user_id, ${columns}, CASE WHEN u.id IS NULL THEN NULL ELSE ${actorsJsonSql('u.id')} END AS actors
     FROM "session" s
@@ -79,11 +82,11 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
   const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
   const touchEveryMs = Math.min(60_000, idleMs / 10);
   const store = new PgStore({
-      pool,
-      tableName: 'session',
-      createTableIfMissing: false,
-      pruneSessionInterval: 15 * 60,
-      errorLog: (...args: unknown[]) => deps.logger.warn({ args }, 'session store error'),
+    pool,
+    tableName: 'session',
+    createTableIfMissing: false,
+    pruneSessionInterval: 15 * 60,
+    errorLog: (...args: unknown[]) => deps.logger.warn({ args }, 'session store error'),
   });
   // The session row, its signed-in user and that user's memberships (the actor of each organization)
   // in one query: a signed-in request then costs one round trip before its handler instead of three.
@@ -93,23 +96,26 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
   store.get = (sid: string, cb: (err: unknown, session?: session.SessionData | null) => void) => {
     readSql ??= sessionReadSql(deps);
     // A named (prepared) statement: planning this query cost more than running it.
-    pool.query({ name: 'loadline-session-read', text: readSql, values: [sid, Math.ceil(Date.now() / 1000)] }).then(({ rows: [row] }) => {
-      if (!row) return cb(null, null);
-      let sess: session.SessionData & { passport?: { user?: unknown } };
-      try {
-        sess = typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess;
-      } catch {
-        return store.destroy(sid, (err) => cb(err, null));
-      }
-      const userId = sess.passport?.user;
-      if (typeof userId === 'string') {
-        const user = row.user_id === null ? null : toUser(deps, row);
-        const actors = user ? actorsFromJson(user.id, row.actors as ActorRow[]) : [];
-        // A symbol key: never serialised, so it is never written back into the session row.
-        Object.defineProperty(sess.passport, LOADED, { value: { userId, user, actors } satisfies Loaded, enumerable: false });
-      }
-      cb(null, sess);
-    }, (err: unknown) => cb(err));
+    pool.query({ name: 'loadline-session-read', text: readSql, values: [sid, Math.ceil(Date.now() / 1000)] }).then(
+      ({ rows: [row] }) => {
+        if (!row) return cb(null, null);
+        let sess: session.SessionData & { passport?: { user?: unknown } };
+        try {
+          sess = typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess;
+        } catch {
+          return store.destroy(sid, (err) => cb(err, null));
+        }
+        const userId = sess.passport?.user;
+        if (typeof userId === 'string') {
+          const user = row.user_id === null ? null : toUser(deps, row);
+          const actors = user ? actorsFromJson(user.id, row.actors as ActorRow[]) : [];
+          // A symbol key: never serialised, so it is never written back into the session row.
+          Object.defineProperty(sess.passport, LOADED, { value: { userId, user, actors } satisfies Loaded, enumerable: false });
+        }
+        cb(null, sess);
+      },
+      (err: unknown) => cb(err),
+    );
   };
   // Rolling sessions would write the row's expiry on every request. Touch each session at most once a
   // minute instead: the stored expiry then lags by under a minute, so the server-side idle timeout

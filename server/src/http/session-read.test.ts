@@ -62,9 +62,15 @@ describe('the session read', () => {
   it('a care-team change shows on the next request', async () => {
     const ids = async () => ((await coach.get(`/api/orgs/${org.id}/roster`)).body as { athleteId: string }[]).map((r) => r.athleteId);
     expect(await ids()).toEqual([org.athlete.membershipId]);
-    await h.ds.query(`UPDATE care_team_assignments SET member_id = $1 WHERE member_id = $2 AND role = 'coach'`, [org.otherCoach.membershipId, org.coach.membershipId]);
+    await h.ds.query(`UPDATE care_team_assignments SET member_id = $1 WHERE member_id = $2 AND role = 'coach'`, [
+      org.otherCoach.membershipId,
+      org.coach.membershipId,
+    ]);
     expect(await ids()).toEqual([]);
-    await h.ds.query(`UPDATE care_team_assignments SET member_id = $2 WHERE member_id = $1 AND role = 'coach'`, [org.otherCoach.membershipId, org.coach.membershipId]);
+    await h.ds.query(`UPDATE care_team_assignments SET member_id = $2 WHERE member_id = $1 AND role = 'coach'`, [
+      org.otherCoach.membershipId,
+      org.coach.membershipId,
+    ]);
     expect(await ids()).toEqual([org.athlete.membershipId]);
   });
 
@@ -92,10 +98,15 @@ describe('the session read', () => {
 
   it('a session written while signed in never stores what the read loaded with it', async () => {
     // Without a CSRF token in the row, the next read makes one: express-session then saves the session.
-    await h.ds.query(`UPDATE "session" SET sess = (sess::jsonb - 'csrfToken')::json WHERE (sess -> 'passport' ->> 'user') = $1`, [org.coach.userId]);
+    await h.ds.query(`UPDATE "session" SET sess = (sess::jsonb - 'csrfToken')::json WHERE (sess -> 'passport' ->> 'user') = $1`, [
+      org.coach.userId,
+    ]);
     await coach.refresh();
     expect(coach.csrf).toBeTruthy();
-    const rows: { sess: Record<string, unknown> }[] = await h.ds.query(`SELECT sess FROM "session" WHERE (sess -> 'passport' ->> 'user') = $1`, [org.coach.userId]);
+    const rows: { sess: Record<string, unknown> }[] = await h.ds.query(
+      `SELECT sess FROM "session" WHERE (sess -> 'passport' ->> 'user') = $1`,
+      [org.coach.userId],
+    );
     expect(rows.length).toBeGreaterThan(0);
     for (const r of rows) {
       expect(r.sess.csrfToken).toBe(coach.csrf);

@@ -16,7 +16,10 @@ export class JobQueue {
   readonly boss: PgBoss;
   private started = false;
 
-  constructor(databaseUrl: string, private readonly logger: Logger) {
+  constructor(
+    databaseUrl: string,
+    private readonly logger: Logger,
+  ) {
     this.boss = new PgBoss({ connectionString: databaseUrl, max: 4, application_name: 'loadline-jobs' });
     this.boss.on('error', (err) => this.logger.warn({ err }, 'job queue error'));
   }

@@ -45,8 +45,12 @@ interface MailRow {
   attachments: { filename: string; contentType: string; size: number; sha256: string }[];
 }
 const mailTo = (db: DataSource, addresses: string[]): Promise<MailRow[]> =>
-  db.query(`SELECT envelope_to, subject, message_id, text_body, html_body, attachments FROM fake_mailbox WHERE envelope_to && $1 ORDER BY id`, [addresses]);
-const letterMailTo = async (db: DataSource, addresses: string[]) => (await mailTo(db, addresses)).filter((m) => m.subject?.startsWith('Clearance letter for '));
+  db.query(
+    `SELECT envelope_to, subject, message_id, text_body, html_body, attachments FROM fake_mailbox WHERE envelope_to && $1 ORDER BY id`,
+    [addresses],
+  );
+const letterMailTo = async (db: DataSource, addresses: string[]) =>
+  (await mailTo(db, addresses)).filter((m) => m.subject?.startsWith('Clearance letter for '));
 
 interface DeliveryRow {
   id: string;
@@ -61,15 +65,29 @@ interface DeliveryRow {
   message_id: string | null;
 }
 const deliveriesWhere = (db: DataSource, where: string, params: unknown[]): Promise<DeliveryRow[]> =>
-  db.query(`SELECT id, to_address, kind, status, attempts, last_error, body_text, body_html, sent_at, message_id FROM email_deliveries WHERE ${where} ORDER BY to_address`, params);
+  db.query(
+    `SELECT id, to_address, kind, status, attempts, last_error, body_text, body_html, sent_at, message_id FROM email_deliveries WHERE ${where} ORDER BY to_address`,
+    params,
+  );
 
 const jobsFor = async (db: DataSource, deliveryIds: string[]): Promise<{ state: string; delivery_id: string }[]> =>
-  db.query(`SELECT state, data->>'deliveryId' AS delivery_id FROM pgboss.job WHERE name = $1 AND data->>'deliveryId' = ANY($2)`, [EMAIL_QUEUE, deliveryIds]);
+  db.query(`SELECT state, data->>'deliveryId' AS delivery_id FROM pgboss.job WHERE name = $1 AND data->>'deliveryId' = ANY($2)`, [
+    EMAIL_QUEUE,
+    deliveryIds,
+  ]);
 
 async function signLetter(app: Express, org: TestOrg, athleteId = org.athlete.membershipId, clin?: Client) {
   const c = clin ?? (await signedIn(app, org.clinician.email, TEST_PASSWORD));
   const base = `/api/orgs/${org.id}`;
-  const draft = await c.post(`${base}/letters`, { athleteId, decision: 'full', effectiveFrom: '2026-12-01', validUntil: '2027-03-01', credential: 'ATC', licenceNumber: 'AT-1', familyNote: '' });
+  const draft = await c.post(`${base}/letters`, {
+    athleteId,
+    decision: 'full',
+    effectiveFrom: '2026-12-01',
+    validUntil: '2027-03-01',
+    credential: 'ATC',
+    licenceNumber: 'AT-1',
+    familyNote: '',
+  });
   expect(draft.status, JSON.stringify(draft.body)).toBe(201);
   const signed = await c.post(`${base}/letters/${draft.body.id}/sign`, { signature: org.clinician.name, version: draft.body.version });
   expect(signed.status, JSON.stringify(signed.body)).toBe(200);
@@ -85,7 +103,13 @@ async function closedPort(): Promise<number> {
   return port;
 }
 
-const sample = (to: string, over: Partial<EnqueueInput> = {}): EnqueueInput => ({ organizationId: null, kind: 'test', to, content: emails.notice(), ...over });
+const sample = (to: string, over: Partial<EnqueueInput> = {}): EnqueueInput => ({
+  organizationId: null,
+  kind: 'test',
+  to,
+  content: emails.notice(),
+  ...over,
+});
 
 describe('with the worker running', () => {
   const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' }, { mail: true });
@@ -114,7 +138,14 @@ describe('with the worker running', () => {
       expect(mail.map((m) => m.envelope_to).sort()).toEqual(recipients.map((r) => [r]).sort());
       for (const m of mail) {
         expect(m.subject).toBe(`Clearance letter for ${org.athlete.name}`);
-        expect(m.attachments).toEqual([{ filename: 'clearance-letter-2026-12-01.pdf', contentType: 'application/pdf', size: expect.any(Number), sha256: letter.pdfSha256 }]);
+        expect(m.attachments).toEqual([
+          {
+            filename: 'clearance-letter-2026-12-01.pdf',
+            contentType: 'application/pdf',
+            size: expect.any(Number),
+            sha256: letter.pdfSha256,
+          },
+        ]);
         expect(m.text_body).toContain('Full participation from 1 December 2026');
         expect(m.text_body).toContain(EMAIL_CAUTION);
         expect(m.html_body).toContain(EMAIL_CAUTION);
@@ -127,10 +158,21 @@ describe('with the worker running', () => {
     it("each delivery row ends 'sent' after one attempt, its body cleared, its message id recorded", async () => {
       expect(rows.map((r) => r.to_address).sort()).toEqual([org.guardian.email, org.athlete.email, org.coach.email].sort());
       for (const r of rows) {
-        expect(r).toMatchObject({ kind: 'letter', status: 'sent', attempts: 1, last_error: null, body_text: null, body_html: null, message_id: `<${r.id}@loadline.invalid>` });
+        expect(r).toMatchObject({
+          kind: 'letter',
+          status: 'sent',
+          attempts: 1,
+          last_error: null,
+          body_text: null,
+          body_html: null,
+          message_id: `<${r.id}@loadline.invalid>`,
+        });
         expect(r.sent_at).toBeInstanceOf(Date);
       }
-      const mail = await letterMailTo(h.ds, rows.map((r) => r.to_address));
+      const mail = await letterMailTo(
+        h.ds,
+        rows.map((r) => r.to_address),
+      );
       expect(mail.map((m) => m.message_id).sort()).toEqual(rows.map((r) => `<${r.id}@loadline.invalid>`).sort());
       // The clinician sees the same in the letter's delivery list.
       const list = await letter.clin.get(`/api/orgs/${org.id}/letters?athleteId=${org.athlete.membershipId}`);
@@ -144,8 +186,15 @@ describe('with the worker running', () => {
       const again = await h.jobs!.boss.send(EMAIL_QUEUE, { deliveryId: rows[0].id });
       expect(again).toBeTruthy();
       await waitFor('the repeated job to finish', async () => (await h.jobs!.boss.getJobById(EMAIL_QUEUE, again!))?.state === 'completed');
-      expect(await letterMailTo(h.ds, rows.map((r) => r.to_address))).toHaveLength(3);
-      expect((await deliveriesWhere(h.ds, 'letter_id = $1', [letter.id])).map((r) => [r.status, r.attempts])).toEqual(rows.map(() => ['sent', 1]));
+      expect(
+        await letterMailTo(
+          h.ds,
+          rows.map((r) => r.to_address),
+        ),
+      ).toHaveLength(3);
+      expect((await deliveriesWhere(h.ds, 'letter_id = $1', [letter.id])).map((r) => [r.status, r.attempts])).toEqual(
+        rows.map(() => ['sent', 1]),
+      );
     });
   });
 
@@ -181,7 +230,10 @@ describe('with the worker running', () => {
     expect(await deliveriesWhere(h.ds, 'to_address LIKE $1', [`%${tag}%`])).toEqual([]);
     // Through the API, such an address never gets that far.
     const admin = await signedIn(h.app, org.admin.email, TEST_PASSWORD);
-    const res = await admin.post(`/api/orgs/${org.id}/invitations`, { email: `victim-${tag}@test.example\r\nBcc: attacker-${tag}@test.example`, roles: ['coach'] });
+    const res = await admin.post(`/api/orgs/${org.id}/invitations`, {
+      email: `victim-${tag}@test.example\r\nBcc: attacker-${tag}@test.example`,
+      roles: ['coach'],
+    });
     expect(res.status).toBe(400);
     expect(await deliveriesWhere(h.ds, 'to_address LIKE $1', [`%${tag}%`])).toEqual([]);
   });
@@ -210,7 +262,7 @@ describe('with the worker running', () => {
     expect(row).toMatchObject({ kind: 'invitation', body_text: null, body_html: null });
     const [stored] = await h.ds.query(`SELECT to_jsonb(d) AS r FROM email_deliveries d WHERE id = $1`, [row.id]);
     expect(JSON.stringify(stored.r)).not.toContain(token);
-    expect((await mailTo(h.ds, [email]))).toHaveLength(1);
+    expect(await mailTo(h.ds, [email])).toHaveLength(1);
   });
 
   it("an emergency red-flag report e-mails the athlete's clinicians and guardian (the guardian without the answers or narrative)", async () => {
@@ -218,8 +270,15 @@ describe('with the worker running', () => {
     const NOTE = `Narrative ${randomUUID()}`;
     const saddle = RED_FLAG_ITEMS.find((i) => i.id === 'saddle_numbness')!;
     const res = await athlete.post(`/api/orgs/${org.id}/pain-reports`, {
-      athleteId: org.athlete.membershipId, bodyRegions: ['lower_back'], painNow: 2, painWorst24h: 3, onsetDate: todayIso(), aggravatingPatterns: ['hinge'],
-      startedInTraining: true, note: NOTE, redFlags: { ...Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false])), saddle_numbness: true },
+      athleteId: org.athlete.membershipId,
+      bodyRegions: ['lower_back'],
+      painNow: 2,
+      painWorst24h: 3,
+      onsetDate: todayIso(),
+      aggravatingPatterns: ['hinge'],
+      startedInTraining: true,
+      note: NOTE,
+      redFlags: { ...Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false])), saddle_numbness: true },
     });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.route).toBe('emergency');
@@ -241,7 +300,9 @@ describe('with the worker running', () => {
     }
     // Only the athlete's own circle: the clinician of nobody here gets nothing.
     expect((await mailTo(h.ds, [org.otherClinician.email])).length).toBe(0);
-    const notices = await deliveriesWhere(h.ds, `kind LIKE 'notice:%' AND recipient_id = ANY($1)`, [[org.clinician.membershipId, org.guardian.membershipId]]);
+    const notices = await deliveriesWhere(h.ds, `kind LIKE 'notice:%' AND recipient_id = ANY($1)`, [
+      [org.clinician.membershipId, org.guardian.membershipId],
+    ]);
     expect(notices.map((n) => n.kind).sort()).toEqual(['notice:red_flag_emergency', 'notice:red_flag_emergency_guardian']);
   });
 });
@@ -279,7 +340,14 @@ describe('a crash between commit and send (a database with no worker)', () => {
     // The app's queue sends jobs, but this process never works them: it "dies" before it can.
     crashed = new JobQueue(url, logger);
     await crashed.start();
-    const config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', SMTP_URL: smtp.url, FAKE_MAIL: 'true', SIGNIN_MAX_PER_IP: '1000' });
+    const config = loadConfig({
+      DATABASE_URL: url,
+      SESSION_SECRET: TEST_SECRET,
+      LOG_LEVEL: 'silent',
+      SMTP_URL: smtp.url,
+      FAKE_MAIL: 'true',
+      SIGNIN_MAX_PER_IP: '1000',
+    });
     const built = buildApp({ ds, config, logger, jobs: crashed });
     app = built.app;
     closeApp = built.close;
@@ -323,8 +391,13 @@ describe('a crash between commit and send (a database with no worker)', () => {
     const letter = await signLetter(app, org);
     // Committed: one delivery row and one job per recipient, nothing sent.
     const rows = await deliveriesWhere(ds, 'letter_id = $1', [letter.id]);
-    expect(rows.map((r) => [r.to_address, r.status])).toEqual([org.guardian.email, org.athlete.email, org.coach.email].sort().map((e) => [e, 'queued']));
-    const jobs = await jobsFor(ds, rows.map((r) => r.id));
+    expect(rows.map((r) => [r.to_address, r.status])).toEqual(
+      [org.guardian.email, org.athlete.email, org.coach.email].sort().map((e) => [e, 'queued']),
+    );
+    const jobs = await jobsFor(
+      ds,
+      rows.map((r) => r.id),
+    );
     expect(jobs.map((j) => j.state)).toEqual(['created', 'created', 'created']);
     expect(new Set(jobs.map((j) => j.delivery_id))).toEqual(new Set(rows.map((r) => r.id)));
     await new Promise((r) => setTimeout(r, 1000));
@@ -343,10 +416,14 @@ describe('a crash between commit and send (a database with no worker)', () => {
     const mail = await mailTo(ds, [org.guardian.email, org.athlete.email, org.coach.email]);
     expect(mail.map((m) => m.envelope_to[0]).sort()).toEqual([org.guardian.email, org.athlete.email, org.coach.email].sort());
     expect(mail.every((m) => m.attachments.length === 1 && m.attachments[0].sha256 === letter.pdfSha256)).toBe(true);
-    expect((await deliveriesWhere(ds, 'letter_id = $1', [letter.id])).map((r) => [r.status, r.attempts])).toEqual([['sent', 1], ['sent', 1], ['sent', 1]]);
+    expect((await deliveriesWhere(ds, 'letter_id = $1', [letter.id])).map((r) => [r.status, r.attempts])).toEqual([
+      ['sent', 1],
+      ['sent', 1],
+      ['sent', 1],
+    ]);
 
     // The deliveries that failed for good are not retried by their late jobs: still only the letter's three messages.
-    await waitFor('the failed deliveries\' jobs done', async () => {
+    await waitFor("the failed deliveries' jobs done", async () => {
       const j: { state: string }[] = await ds.query(`SELECT state FROM pgboss.job WHERE name = $1`, [EMAIL_QUEUE]);
       return j.length === 5 && j.every((x) => x.state === 'completed');
     });

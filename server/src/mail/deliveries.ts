@@ -58,7 +58,11 @@ export function createTransport(smtpUrl: string): Transporter {
  */
 export async function deliver(ds: DataSource, transport: Transporter, logger: Logger, deliveryId: string, maxAttempts = 6): Promise<void> {
   const claimed = await ds.transaction(async (m) => {
-    const row = await m.createQueryBuilder(EmailDelivery, 'd').setLock('pessimistic_write').where('d.id = :id', { id: deliveryId }).getOne();
+    const row = await m
+      .createQueryBuilder(EmailDelivery, 'd')
+      .setLock('pessimistic_write')
+      .where('d.id = :id', { id: deliveryId })
+      .getOne();
     if (!row || row.status === 'sent' || row.status === 'failed') return null;
     await m.update(EmailDelivery, { id: row.id }, { status: 'sending', attempts: row.attempts + 1 });
     return { ...row, attempts: row.attempts + 1 };
@@ -67,8 +71,14 @@ export async function deliver(ds: DataSource, transport: Transporter, logger: Lo
   try {
     const attachments = [];
     if (claimed.letterId) {
-      const letter = await ds.getRepository(ClearanceLetter).createQueryBuilder('l').addSelect('l.pdf').where('l.id = :id', { id: claimed.letterId }).getOne();
-      if (letter?.pdf) attachments.push({ filename: `clearance-letter-${letter.effectiveFrom}.pdf`, content: letter.pdf, contentType: 'application/pdf' });
+      const letter = await ds
+        .getRepository(ClearanceLetter)
+        .createQueryBuilder('l')
+        .addSelect('l.pdf')
+        .where('l.id = :id', { id: claimed.letterId })
+        .getOne();
+      if (letter?.pdf)
+        attachments.push({ filename: `clearance-letter-${letter.effectiveFrom}.pdf`, content: letter.pdf, contentType: 'application/pdf' });
     }
     const info = await transport.sendMail({
       from: MAIL_FROM,
@@ -80,7 +90,12 @@ export async function deliver(ds: DataSource, transport: Transporter, logger: Lo
       messageId: `<${claimed.id}@loadline.invalid>`,
     });
     // Sent: the body (which may hold a one-time link) is not kept any longer than needed.
-    await ds.getRepository(EmailDelivery).update({ id: claimed.id }, { status: 'sent', sentAt: new Date(), messageId: info.messageId, bodyText: null, bodyHtml: null, lastError: null });
+    await ds
+      .getRepository(EmailDelivery)
+      .update(
+        { id: claimed.id },
+        { status: 'sent', sentAt: new Date(), messageId: info.messageId, bodyText: null, bodyHtml: null, lastError: null },
+      );
   } catch (err) {
     const message = (err as Error).message?.slice(0, 500) ?? 'unknown error';
     const finalFailure = claimed.attempts >= maxAttempts;

@@ -39,12 +39,22 @@ export async function startFakeSmtp(databaseUrl: string, port = 0): Promise<Fake
                 mail.messageId ?? null,
                 mail.text ?? null,
                 typeof mail.html === 'string' ? mail.html : null,
-                JSON.stringify(mail.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, size: a.size, sha256: createHash('sha256').update(a.content).digest('hex') }))),
+                JSON.stringify(
+                  mail.attachments.map((a) => ({
+                    filename: a.filename,
+                    contentType: a.contentType,
+                    size: a.size,
+                    sha256: createHash('sha256').update(a.content).digest('hex'),
+                  })),
+                ),
                 raw,
               ],
             ),
           )
-          .then(() => callback(), (err) => callback(err));
+          .then(
+            () => callback(),
+            (err) => callback(err),
+          );
       });
     },
   });

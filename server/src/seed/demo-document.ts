@@ -7,15 +7,25 @@ import type { ObjectStorage } from '../storage';
 
 /** A one-page invented referral note, made here so the demo ships no binary files. */
 export async function demoReferralPdf(athleteName: string, date: string): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margins: { top: 64, bottom: 64, left: 64, right: 64 }, info: { Title: 'Referral note (demo)' } });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: { top: 64, bottom: 64, left: 64, right: 64 },
+    info: { Title: 'Referral note (demo)' },
+  });
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
   doc.font('Helvetica-Bold').fontSize(16).text('Bayside Sports Medicine Clinic (invented, demo only)');
   doc.moveDown().font('Helvetica').fontSize(11).text(`Date: ${date}`);
   doc.text(`Re: ${athleteName}`);
-  doc.moveDown().text('Referral note — DEMO DOCUMENT. Every name and finding on this page is invented for the Loadline demo; it describes no real person.');
-  doc.moveDown().text('Seen after an inversion injury of the right ankle. Please progress loading as symptoms allow and review in one week.');
+  doc
+    .moveDown()
+    .text(
+      'Referral note — DEMO DOCUMENT. Every name and finding on this page is invented for the Loadline demo; it describes no real person.',
+    );
+  doc
+    .moveDown()
+    .text('Seen after an inversion injury of the right ankle. Please progress loading as symptoms allow and review in one week.');
   doc.end();
   return done;
 }
@@ -24,7 +34,15 @@ export async function demoReferralPdf(athleteName: string, date: string): Promis
 export async function attachDemoDocument(
   m: EntityManager,
   storage: ObjectStorage,
-  input: { organizationId: string; athleteId: string; caseId: string; athleteName: string; date: string; uploadedByUserId: string; uploadedByName: string },
+  input: {
+    organizationId: string;
+    athleteId: string;
+    caseId: string;
+    athleteName: string;
+    date: string;
+    uploadedByUserId: string;
+    uploadedByName: string;
+  },
 ): Promise<void> {
   const bytes = await demoReferralPdf(input.athleteName, input.date);
   const key = `${input.organizationId}/documents/${randomUUID()}`;

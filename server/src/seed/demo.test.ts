@@ -6,7 +6,7 @@ import { DEMO_PASSWORD, loadDemo } from './demo';
 describe('the demo scenario', () => {
   const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 
-  it('loads once, with a referral note on Sam\'s case that his clinician can download and his coach cannot see', async () => {
+  it("loads once, with a referral note on Sam's case that his clinician can download and his coach cannot see", async () => {
     const storage = createStorage(h.config);
     const first = await loadDemo(h.ds, 4, storage);
     expect(first.created).toBe(true);

@@ -4,8 +4,16 @@ import type { Role } from '../../../policies/roles';
 import { randomUUID } from 'node:crypto';
 import { addDays, formatISO } from 'date-fns';
 import {
-  AthleteProfile, CareTeamAssignment, CaseRecord, GuardianLink, Membership, Organization, ParticipationStatusChange, RestrictionPlan,
-  RestrictionPlanVersion, User,
+  AthleteProfile,
+  CareTeamAssignment,
+  CaseRecord,
+  GuardianLink,
+  Membership,
+  Organization,
+  ParticipationStatusChange,
+  RestrictionPlan,
+  RestrictionPlanVersion,
+  User,
 } from '../entities';
 import { appendAudit } from '../services/audit';
 import { seedExerciseLibrary } from '../services/exercise-library';
@@ -30,16 +38,41 @@ export const DEMO_PEOPLE: DemoPerson[] = [
   { key: 'coachRosa', email: 'rosa.delgado@harborpoint.example', name: 'Rosa Delgado', roles: ['coach'] },
   { key: 'clinicianPriya', email: 'priya.raman@harborpoint.example', name: 'Priya Raman, ATC', roles: ['clinician'] },
   { key: 'clinicianMarcus', email: 'marcus.bell@harborpoint.example', name: 'Marcus Bell, DPT', roles: ['clinician'] },
-  { key: 'maya', email: 'maya.torres@harborpoint.example', name: 'Maya Torres', roles: ['athlete'],
-    athlete: { dateOfBirth: '2010-03-14', sport: 'Softball', position: 'Shortstop' } },
-  { key: 'jordan', email: 'jordan.pike@harborpoint.example', name: 'Jordan Pike', roles: ['athlete'],
-    athlete: { dateOfBirth: '2007-01-22', sport: 'Rowing', position: 'Stroke seat' } },
-  { key: 'sam', email: 'sam.whitfield@harborpoint.example', name: 'Sam Whitfield', roles: ['athlete'],
-    athlete: { dateOfBirth: '2004-08-30', sport: 'Basketball', position: 'Guard' } },
-  { key: 'ava', email: 'ava.chen@harborpoint.example', name: 'Ava Chen', roles: ['athlete'],
-    athlete: { dateOfBirth: '2009-05-05', sport: 'Volleyball', position: 'Libero' } },
-  { key: 'luis', email: 'luis.romero@harborpoint.example', name: 'Luis Romero', roles: ['athlete'],
-    athlete: { dateOfBirth: '2002-11-09', sport: 'Weightlifting', position: null } },
+  {
+    key: 'maya',
+    email: 'maya.torres@harborpoint.example',
+    name: 'Maya Torres',
+    roles: ['athlete'],
+    athlete: { dateOfBirth: '2010-03-14', sport: 'Softball', position: 'Shortstop' },
+  },
+  {
+    key: 'jordan',
+    email: 'jordan.pike@harborpoint.example',
+    name: 'Jordan Pike',
+    roles: ['athlete'],
+    athlete: { dateOfBirth: '2007-01-22', sport: 'Rowing', position: 'Stroke seat' },
+  },
+  {
+    key: 'sam',
+    email: 'sam.whitfield@harborpoint.example',
+    name: 'Sam Whitfield',
+    roles: ['athlete'],
+    athlete: { dateOfBirth: '2004-08-30', sport: 'Basketball', position: 'Guard' },
+  },
+  {
+    key: 'ava',
+    email: 'ava.chen@harborpoint.example',
+    name: 'Ava Chen',
+    roles: ['athlete'],
+    athlete: { dateOfBirth: '2009-05-05', sport: 'Volleyball', position: 'Libero' },
+  },
+  {
+    key: 'luis',
+    email: 'luis.romero@harborpoint.example',
+    name: 'Luis Romero',
+    roles: ['athlete'],
+    athlete: { dateOfBirth: '2002-11-09', sport: 'Weightlifting', position: null },
+  },
   { key: 'elena', email: 'elena.torres@harborpoint.example', name: 'Elena Torres', roles: ['guardian'] },
   { key: 'wei', email: 'wei.chen@harborpoint.example', name: 'Wei Chen', roles: ['guardian'] },
 ];
@@ -66,7 +99,11 @@ const GUARDIANS: [athlete: string, guardian: string][] = [
  * Loads the demo scenario once. Idempotent: when the organization exists nothing changes, so a
  * second `npm start` leaves the data (and the audit trail) as it was.
  */
-export async function loadDemo(ds: DataSource, bcryptCost = 12, storage?: ObjectStorage): Promise<{ created: boolean; organizationId: string }> {
+export async function loadDemo(
+  ds: DataSource,
+  bcryptCost = 12,
+  storage?: ObjectStorage,
+): Promise<{ created: boolean; organizationId: string }> {
   const existing = await ds.getRepository(Organization).findOneBy({ name: DEMO_ORG_NAME });
   if (existing) return { created: false, organizationId: existing.id };
   const hash = await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
@@ -79,7 +116,9 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12, storage?: Object
     const ids: Record<string, string> = {};
     const userIds: Record<string, string> = {};
     for (const p of DEMO_PEOPLE) {
-      const user = await m.save(m.create(User, { email: p.email, displayName: p.name, passwordHash: hash, unitPref: p.key === 'maya' ? 'lb' : 'kg' }));
+      const user = await m.save(
+        m.create(User, { email: p.email, displayName: p.name, passwordHash: hash, unitPref: p.key === 'maya' ? 'lb' : 'kg' }),
+      );
       const membership = await m.save(m.create(Membership, { organizationId: org.id, userId: user.id, roles: p.roles, active: true }));
       ids[p.key] = membership.id;
       userIds[p.key] = user.id;
@@ -97,8 +136,13 @@ export async function loadDemo(ds: DataSource, bcryptCost = 12, storage?: Object
     const caseId = await loadDemoCase(m, org.id, ids, userIds);
     if (storage) {
       await attachDemoDocument(m, storage, {
-        organizationId: org.id, athleteId: ids.sam, caseId, athleteName: 'Sam Whitfield', date: day(-8),
-        uploadedByUserId: userIds.clinicianMarcus, uploadedByName: 'Marcus Bell, DPT',
+        organizationId: org.id,
+        athleteId: ids.sam,
+        caseId,
+        athleteName: 'Sam Whitfield',
+        date: day(-8),
+        uploadedByUserId: userIds.clinicianMarcus,
+        uploadedByName: 'Marcus Bell, DPT',
       });
     }
     await appendAudit(m, {
@@ -120,7 +164,12 @@ const day = (offset: number) => formatISO(addDays(new Date(), offset), { represe
  * One case already under way, so coaches and the admin see a limited athlete from the first start:
  * Sam's right ankle, a two-stage plan dated around the day the demo was loaded.
  */
-async function loadDemoCase(m: EntityManager, organizationId: string, ids: Record<string, string>, userIds: Record<string, string>): Promise<string> {
+async function loadDemoCase(
+  m: EntityManager,
+  organizationId: string,
+  ids: Record<string, string>,
+  userIds: Record<string, string>,
+): Promise<string> {
   const c = await m.save(
     m.create(CaseRecord, {
       organizationId,
@@ -133,21 +182,52 @@ async function loadDemoCase(m: EntityManager, organizationId: string, ids: Recor
       openedBy: userIds.clinicianMarcus,
     }),
   );
-  await m.save(m.create(ParticipationStatusChange, { organizationId, athleteId: ids.sam, caseId: c.id, status: 'out', effectiveFrom: day(-9), note: 'Rest the ankle for a few days.', setBy: userIds.clinicianMarcus }));
-  await m.save(m.create(ParticipationStatusChange, { organizationId, athleteId: ids.sam, caseId: c.id, status: 'limited', effectiveFrom: day(-5), note: 'Upper body and careful lower body work only.', setBy: userIds.clinicianMarcus }));
+  await m.save(
+    m.create(ParticipationStatusChange, {
+      organizationId,
+      athleteId: ids.sam,
+      caseId: c.id,
+      status: 'out',
+      effectiveFrom: day(-9),
+      note: 'Rest the ankle for a few days.',
+      setBy: userIds.clinicianMarcus,
+    }),
+  );
+  await m.save(
+    m.create(ParticipationStatusChange, {
+      organizationId,
+      athleteId: ids.sam,
+      caseId: c.id,
+      status: 'limited',
+      effectiveFrom: day(-5),
+      note: 'Upper body and careful lower body work only.',
+      setBy: userIds.clinicianMarcus,
+    }),
+  );
   const plan = await m.save(m.create(RestrictionPlan, { organizationId, athleteId: ids.sam, caseId: c.id, version: 1 }));
   const stages = [
     {
-      id: randomUUID(), label: 'Protect', startDate: day(-5), endDate: day(6), reviewDate: day(6), painCeiling: 3,
+      id: randomUUID(),
+      label: 'Protect',
+      startDate: day(-5),
+      endDate: day(6),
+      reviewDate: day(6),
+      painCeiling: 3,
       patterns: {
-        jump: { mode: 'blocked' as const }, sprint: { mode: 'blocked' as const },
+        jump: { mode: 'blocked' as const },
+        sprint: { mode: 'blocked' as const },
         squat: { mode: 'capped' as const, caps: { maxPercent1RM: 50, maxRpe: 6, maxSetsPerSession: 3, impactAllowed: false } },
         lunge: { mode: 'blocked' as const },
         hinge: { mode: 'capped' as const, caps: { maxPercent1RM: 60, maxRpe: 7 } },
       },
     },
     {
-      id: randomUUID(), label: 'Rebuild', startDate: day(7), endDate: day(27), reviewDate: day(27), painCeiling: 4,
+      id: randomUUID(),
+      label: 'Rebuild',
+      startDate: day(7),
+      endDate: day(27),
+      reviewDate: day(27),
+      painCeiling: 4,
       patterns: {
         jump: { mode: 'capped' as const, caps: { maxSetsPerSession: 3, maxRepsPerSet: 5 } },
         sprint: { mode: 'capped' as const, caps: { maxRpe: 6 } },
@@ -156,6 +236,15 @@ async function loadDemoCase(m: EntityManager, organizationId: string, ids: Recor
       },
     },
   ];
-  await m.save(m.create(RestrictionPlanVersion, { planId: plan.id, version: 1, stages, guidance: 'Keep the ankle quiet this week: no jumping or sprinting. Upper body as normal.', changeNote: 'Demo plan', createdBy: userIds.clinicianMarcus }));
+  await m.save(
+    m.create(RestrictionPlanVersion, {
+      planId: plan.id,
+      version: 1,
+      stages,
+      guidance: 'Keep the ankle quiet this week: no jumping or sprinting. Upper body as normal.',
+      changeNote: 'Demo plan',
+      createdBy: userIds.clinicianMarcus,
+    }),
+  );
   return c.id;
 }

@@ -40,7 +40,8 @@ const ACTOR_SQL = actorSql('$1');
  * The rows of loadActors as one JSON array, for a query that reads them together with the session
  * (http/security.ts), so a signed-in request costs one round trip before its handler, not three.
  */
-export const actorsJsonSql = (userId: string) => `(SELECT COALESCE(json_agg(a ORDER BY a.organization_name), '[]') FROM (${actorSql(userId)}) a)`;
+export const actorsJsonSql = (userId: string) =>
+  `(SELECT COALESCE(json_agg(a ORDER BY a.organization_name), '[]') FROM (${actorSql(userId)}) a)`;
 
 export function actorsFromJson(userId: string, rows: ActorRow[]): ActorWithOrg[] {
   return rows.map((r) => toActor(userId, r));

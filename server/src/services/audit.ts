@@ -18,7 +18,10 @@ export interface AuditInput {
   requestId?: string | null;
 }
 
-type Hashable = Pick<AuditEntry, 'organizationId' | 'occurredAt' | 'actorUserId' | 'action' | 'subjectType' | 'subjectId' | 'before' | 'after' | 'requestId'> &
+type Hashable = Pick<
+  AuditEntry,
+  'organizationId' | 'occurredAt' | 'actorUserId' | 'action' | 'subjectType' | 'subjectId' | 'before' | 'after' | 'requestId'
+> &
   Partial<Pick<AuditEntry, 'athleteId'>>;
 
 export function entryHash(prevHash: string, e: Hashable): string {
@@ -95,7 +98,13 @@ export async function verifyChain(manager: EntityManager, organizationId: string
     for (const row of rows) {
       count += 1;
       if (row.prevHash !== prev) {
-        return { organizationId, entries: count, intact: false, firstBrokenId: row.id, reason: 'link to the previous entry does not match' };
+        return {
+          organizationId,
+          entries: count,
+          intact: false,
+          firstBrokenId: row.id,
+          reason: 'link to the previous entry does not match',
+        };
       }
       if (entryHash(row.prevHash, row) !== row.hash) {
         return { organizationId, entries: count, intact: false, firstBrokenId: row.id, reason: 'contents do not match the stored hash' };

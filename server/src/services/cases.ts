@@ -68,15 +68,34 @@ export interface CaseQuery {
 }
 
 /** Cases this ability may read, with each reader's fields only; clinical notes only when asked. */
-export async function listCases(db: Db, ability: AppAbility, organizationId: string, q: CaseQuery, today: string, withNotes = false): Promise<CaseDto[]> {
+export async function listCases(
+  db: Db,
+  ability: AppAbility,
+  organizationId: string,
+  q: CaseQuery,
+  today: string,
+  withNotes = false,
+): Promise<CaseDto[]> {
   const acl = accessibleWhere(ability, 'read', 'Case', { organizationId: 'c.organization_id', athleteId: 'c.athlete_id', id: 'c.id' });
   const qb = db
     .createQueryBuilder()
-    .select(['c.id AS id', 'c.organization_id AS organization_id', 'c.athlete_id AS athlete_id', 'au.display_name AS athlete_name',
-      'c.body_regions AS body_regions', 'c.onset_date AS onset_date', 'c.diagnosis AS diagnosis',
+    .select([
+      'c.id AS id',
+      'c.organization_id AS organization_id',
+      'c.athlete_id AS athlete_id',
+      'au.display_name AS athlete_name',
+      'c.body_regions AS body_regions',
+      'c.onset_date AS onset_date',
+      'c.diagnosis AS diagnosis',
       withNotes ? 'c.clinical_notes AS clinical_notes' : 'NULL AS clinical_notes',
-      'c.review_date AS review_date', 'c.opened_at AS opened_at', 'ou.display_name AS opened_by_name', 'c.closed_on AS closed_on',
-      'c.closing_note AS closing_note', 'p.id AS plan_id', 'c.version AS version'])
+      'c.review_date AS review_date',
+      'c.opened_at AS opened_at',
+      'ou.display_name AS opened_by_name',
+      'c.closed_on AS closed_on',
+      'c.closing_note AS closing_note',
+      'p.id AS plan_id',
+      'c.version AS version',
+    ])
     .from('cases', 'c')
     .innerJoin('memberships', 'am', 'am.id = c.athlete_id')
     .innerJoin('users', 'au', 'au.id = am.user_id')
@@ -90,7 +109,11 @@ export async function listCases(db: Db, ability: AppAbility, organizationId: str
   if (q.state === 'open') qb.andWhere('c.closed_on IS NULL');
   if (q.state === 'closed') qb.andWhere('c.closed_on IS NOT NULL');
   const rows = await qb.getRawMany<CaseRow>();
-  const statuses = await statusesOn(db, rows.map((r) => r.id), today);
+  const statuses = await statusesOn(
+    db,
+    rows.map((r) => r.id),
+    today,
+  );
   return rows.map((r) => {
     const st = statuses.get(r.id);
     const full: Required<CaseDto> = {
@@ -119,14 +142,27 @@ export async function listCases(db: Db, ability: AppAbility, organizationId: str
 }
 
 export async function statusHistory(db: Db, caseId: string): Promise<StatusChangeDto[]> {
-  const rows: { id: string; status: ParticipationStatus; effective_from: string; note: string | null; set_by_name: string | null; created_at: Date }[] =
-    await db.query(
-      `SELECT s.id, s.status, s.effective_from, s.note, u.display_name AS set_by_name, s.created_at
+  const rows: {
+    id: string;
+    status: ParticipationStatus;
+    effective_from: string;
+    note: string | null;
+    set_by_name: string | null;
+    created_at: Date;
+  }[] = await db.query(
+    `SELECT s.id, s.status, s.effective_from, s.note, u.display_name AS set_by_name, s.created_at
          FROM participation_status_changes s LEFT JOIN users u ON u.id = s.set_by
         WHERE s.case_id = $1 ORDER BY s.effective_from DESC, s.created_at DESC`,
-      [caseId],
-    );
-  return rows.map((r) => ({ id: r.id, status: r.status, effectiveFrom: r.effective_from, note: r.note, setByName: r.set_by_name, createdAt: new Date(r.created_at).toISOString() }));
+    [caseId],
+  );
+  return rows.map((r) => ({
+    id: r.id,
+    status: r.status,
+    effectiveFrom: r.effective_from,
+    note: r.note,
+    setByName: r.set_by_name,
+    createdAt: new Date(r.created_at).toISOString(),
+  }));
 }
 
 export function toPlanVersionDto(v: RestrictionPlanVersion, createdByName: string | null): PlanVersionDto {
@@ -159,14 +195,15 @@ export async function planVersions(db: Db, planId: string, version?: number): Pr
 export async function activePlans(db: Db, athleteIds: string[], date: string): Promise<Map<string, (PlanInput & { guidance: string })[]>> {
   const out = new Map<string, (PlanInput & { guidance: string })[]>();
   if (athleteIds.length === 0) return out;
-  const rows: { athlete_id: string; plan_id: string; case_id: string; version: number; stages: PlanInput['stages']; guidance: string }[] = await db.query(
-    `SELECT p.athlete_id, p.id AS plan_id, p.case_id, p.version, v.stages, v.guidance
+  const rows: { athlete_id: string; plan_id: string; case_id: string; version: number; stages: PlanInput['stages']; guidance: string }[] =
+    await db.query(
+      `SELECT p.athlete_id, p.id AS plan_id, p.case_id, p.version, v.stages, v.guidance
        FROM restriction_plans p
        JOIN cases c ON c.id = p.case_id AND (c.closed_on IS NULL OR c.closed_on > $2)
        JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version
       WHERE p.athlete_id = ANY($1)`,
-    [athleteIds, date],
-  );
+      [athleteIds, date],
+    );
   for (const r of rows) {
     const list = out.get(r.athlete_id) ?? [];
     list.push({ planId: r.plan_id, caseId: r.case_id, version: r.version, stages: r.stages, guidance: r.guidance });
@@ -176,20 +213,33 @@ export async function activePlans(db: Db, athleteIds: string[], date: string): P
 }
 
 /** Each athlete's participation status on `date`: the most restrictive of their open cases, else Full. */
-export async function athleteStatuses(db: Db, athleteIds: string[], date: string): Promise<Map<string, { status: ParticipationStatus; since: string | null; openCaseIds: string[]; nextReview: string | null }>> {
+export async function athleteStatuses(
+  db: Db,
+  athleteIds: string[],
+  date: string,
+): Promise<Map<string, { status: ParticipationStatus; since: string | null; openCaseIds: string[]; nextReview: string | null }>> {
   const out = new Map<string, { status: ParticipationStatus; since: string | null; openCaseIds: string[]; nextReview: string | null }>();
   if (athleteIds.length === 0) return out;
   const cases: { id: string; athlete_id: string; review_date: string | null }[] = await db.query(
     `SELECT id, athlete_id, review_date FROM cases WHERE athlete_id = ANY($1) AND (closed_on IS NULL OR closed_on > $2) ORDER BY opened_at DESC`,
     [athleteIds, date],
   );
-  const statuses = await statusesOn(db, cases.map((c) => c.id), date);
+  const statuses = await statusesOn(
+    db,
+    cases.map((c) => c.id),
+    date,
+  );
   const plans = await activePlans(db, athleteIds, date);
   for (const id of athleteIds) {
     const mine = cases.filter((c) => c.athlete_id === id);
     const rows = mine.map((c) => statuses.get(c.id)).filter((s): s is StatusRow => !!s);
     const status = mostRestrictive(rows.map((r) => r.status));
-    const since = rows.filter((r) => r.status === status).map((r) => r.effective_from).sort().pop() ?? null;
+    const since =
+      rows
+        .filter((r) => r.status === status)
+        .map((r) => r.effective_from)
+        .sort()
+        .pop() ?? null;
     const reviewDates = [
       ...mine.map((c) => c.review_date),
       ...(plans.get(id) ?? []).flatMap((p) => p.stages.map((s) => s.reviewDate ?? null)),

@@ -25,7 +25,7 @@ export const DEFAULT_LIBRARY: Entry[] = [
   ['Walking lunge', ['lunge'], 'dumbbell', false, kg(2)],
   ['Step-up', ['lunge'], 'dumbbell', false, kg(2)],
   ['Bench press', ['horizontal_push'], 'barbell', false, kg(2.5)],
-  ['Dumbbell bench press', ['horizontal_push'], 'dumbbell', false, kg(2), ],
+  ['Dumbbell bench press', ['horizontal_push'], 'dumbbell', false, kg(2)],
   ['Push-up', ['horizontal_push'], 'bodyweight', false, kg(2.5)],
   ['Overhead press', ['vertical_push'], 'barbell', false, kg(2.5)],
   ['Landmine press', ['vertical_push', 'rotation'], 'barbell', false, kg(2.5)],
@@ -51,7 +51,18 @@ export async function seedExerciseLibrary(m: EntityManager, organizationId: stri
     .createQueryBuilder()
     .insert()
     .into(Exercise)
-    .values(DEFAULT_LIBRARY.map(([name, patterns, equipment, ballistic, steps]) => ({ organizationId, name, patterns, equipment, ballistic, steps, referenceId: null, version: 1 })))
+    .values(
+      DEFAULT_LIBRARY.map(([name, patterns, equipment, ballistic, steps]) => ({
+        organizationId,
+        name,
+        patterns,
+        equipment,
+        ballistic,
+        steps,
+        referenceId: null,
+        version: 1,
+      })),
+    )
     .orIgnore()
     .execute();
   for (const [name, , , , , reference] of DEFAULT_LIBRARY) {

@@ -42,7 +42,10 @@ export function toInvitationDto(inv: Invitation, invitedByName: string | null, l
 
 /** One message for every unusable link, so a token holder learns nothing about why. */
 export const invitationInvalid = () =>
-  new AppError('invitation_invalid', 'This invitation link is not valid: it may have been used already, expired or been withdrawn. Ask your admin for a new one.');
+  new AppError(
+    'invitation_invalid',
+    'This invitation link is not valid: it may have been used already, expired or been withdrawn. Ask your admin for a new one.',
+  );
 
 export async function findUsableInvitation(m: EntityManager, token: string, lock: boolean): Promise<Invitation> {
   const qb = m.createQueryBuilder(Invitation, 'i').where('i.token_hash = :h', { h: hashToken(token) });
@@ -62,16 +65,32 @@ export async function acceptInvitation(m: EntityManager, input: InvitationAccept
   let user = await m.findOne(User, { where: { email: inv.email } });
   if (user) {
     if (!(await bcrypt.compare(input.password, user.passwordHash))) {
-      throw new AppError('invalid_credentials', 'That password does not match your existing Loadline account. Use the password you sign in with.', {
-        password: ['does not match your existing account'],
-      });
+      throw new AppError(
+        'invalid_credentials',
+        'That password does not match your existing Loadline account. Use the password you sign in with.',
+        {
+          password: ['does not match your existing account'],
+        },
+      );
     }
   } else {
     assertAcceptablePassword(input.password);
     user = await m.save(
-      m.create(User, { email: inv.email, displayName: input.displayName, passwordHash: await hashPassword(input.password, bcryptCost), unitPref: 'kg' }),
+      m.create(User, {
+        email: inv.email,
+        displayName: input.displayName,
+        passwordHash: await hashPassword(input.password, bcryptCost),
+        unitPref: 'kg',
+      }),
     );
-    await audit({ organizationId: inv.organizationId, actorUserId: user.id, action: 'user.created', subjectType: 'User', subjectId: user.id, after: { email: user.email, displayName: user.displayName } });
+    await audit({
+      organizationId: inv.organizationId,
+      actorUserId: user.id,
+      action: 'user.created',
+      subjectType: 'User',
+      subjectId: user.id,
+      after: { email: user.email, displayName: user.displayName },
+    });
   }
   let membership = await m.findOne(Membership, { where: { organizationId: inv.organizationId, userId: user.id } });
   const before = membership ? { roles: membership.roles, active: membership.active } : null;
@@ -80,7 +99,9 @@ export async function acceptInvitation(m: EntityManager, input: InvitationAccept
     membership.active = true;
     membership = await m.save(membership);
   } else {
-    membership = await m.save(m.create(Membership, { organizationId: inv.organizationId, userId: user.id, roles: inv.roles, active: true }));
+    membership = await m.save(
+      m.create(Membership, { organizationId: inv.organizationId, userId: user.id, roles: inv.roles, active: true }),
+    );
   }
   await audit({
     organizationId: inv.organizationId,
@@ -107,6 +128,12 @@ export async function acceptInvitation(m: EntityManager, input: InvitationAccept
   }
   inv.acceptedAt = new Date();
   await m.save(inv);
-  await audit({ organizationId: inv.organizationId, actorUserId: user.id, action: 'invitation.accepted', subjectType: 'Invitation', subjectId: inv.id });
+  await audit({
+    organizationId: inv.organizationId,
+    actorUserId: user.id,
+    action: 'invitation.accepted',
+    subjectType: 'Invitation',
+    subjectId: inv.id,
+  });
   return user;
 }

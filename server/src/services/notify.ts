@@ -5,7 +5,16 @@ import { enqueueEmail } from '../mail/deliveries';
 import { emails } from '../../../templates/email/messages';
 
 /** Notices that also go out by e-mail: the ones someone must act on, not routine news. */
-const EMAILED_KINDS = new Set(['red_flag_emergency', 'red_flag_emergency_guardian', 'red_flag_urgent', 'status_out', 'sessions_on_hold', 'exception_requested', 'exception_granted', 'exception_refused']);
+const EMAILED_KINDS = new Set([
+  'red_flag_emergency',
+  'red_flag_emergency_guardian',
+  'red_flag_urgent',
+  'status_out',
+  'sessions_on_hold',
+  'exception_requested',
+  'exception_granted',
+  'exception_refused',
+]);
 
 export interface AthleteCircle {
   clinicians: string[];

@@ -37,9 +37,20 @@ async function setOut(m: EntityManager, report: PainReport, userId: string, toda
         openedBy: null,
       }),
     );
-    await audit({ action: 'case.opened', subjectType: 'Case', subjectId: c.id, athleteId: report.athleteId, after: { reason: 'emergency red-flag answer', painReportId: report.id } });
+    await audit({
+      action: 'case.opened',
+      subjectType: 'Case',
+      subjectId: c.id,
+      athleteId: report.athleteId,
+      after: { reason: 'emergency red-flag answer', painReportId: report.id },
+    });
   } else {
-    await m.createQueryBuilder().update(CaseRecord).set({ version: () => 'version + 1', updatedAt: () => 'now()' } as never).where('id = :id', { id: c.id }).execute();
+    await m
+      .createQueryBuilder()
+      .update(CaseRecord)
+      .set({ version: () => 'version + 1', updatedAt: () => 'now()' } as never)
+      .where('id = :id', { id: c.id })
+      .execute();
   }
   const change = await m.save(
     m.create(ParticipationStatusChange, {
@@ -52,7 +63,13 @@ async function setOut(m: EntityManager, report: PainReport, userId: string, toda
       setBy: userId,
     }),
   );
-  await audit({ action: 'status.changed', subjectType: 'ParticipationStatus', subjectId: change.id, athleteId: report.athleteId, after: { caseId: c.id, status: 'out', effectiveFrom: today, reason: 'emergency red-flag answer' } });
+  await audit({
+    action: 'status.changed',
+    subjectType: 'ParticipationStatus',
+    subjectId: change.id,
+    athleteId: report.athleteId,
+    after: { caseId: c.id, status: 'out', effectiveFrom: today, reason: 'emergency red-flag answer' },
+  });
   return c.id;
 }
 
@@ -86,7 +103,13 @@ export async function createPainReport(
     subjectType: 'PainReport',
     subjectId: report.id,
     athleteId: input.athleteId,
-    after: { route, painNow: input.painNow, painWorst24h: input.painWorst24h, bodyRegions: input.bodyRegions, redFlags: flaggedItems(input.redFlags).map((i) => i.id) },
+    after: {
+      route,
+      painNow: input.painNow,
+      painWorst24h: input.painWorst24h,
+      bodyRegions: input.bodyRegions,
+      redFlags: flaggedItems(input.redFlags).map((i) => i.id),
+    },
   });
   const circle = await athleteCircle(m, input.athleteId);
   const where = input.bodyRegions.map((r) => BODY_REGION_LABELS[r].toLowerCase()).join(', ');
@@ -96,12 +119,37 @@ export async function createPainReport(
     report = await m.save(report);
     statusSetToOut = true;
     await recheckAthlete(m, ctx.organizationId, input.athleteId, 'The athlete reported an emergency warning sign and is Out.', ctx.today);
-    const items = flaggedItems(input.redFlags).filter((i) => i.tier === 'emergency').map((i) => i.question);
+    const items = flaggedItems(input.redFlags)
+      .filter((i) => i.tier === 'emergency')
+      .map((i) => i.question);
     const message = `${ctx.athleteName} answered yes to an emergency warning sign (${where}). They were told to stop and get urgent medical care now, and are set to Out.`;
     // Coaches read flags but never the red-flag answers (PAIN_REPORT_FIELDS): the answers go only in the clinicians' notice.
-    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_emergency', severity: 'emergency', message, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
-    await notify(m, circle.clinicians, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_emergency', severity: 'emergency', title: `Emergency warning sign: ${ctx.athleteName}`, body: `${message} Answers: ${items.join(' / ')}` });
-    await notify(m, circle.coaches, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'status_out', severity: 'emergency', title: `${ctx.athleteName} is Out`, body: `${ctx.athleteName} has been set to Out after a pain report and must not train until a clinician clears it.` });
+    await m.insert(Flag, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'red_flag_emergency',
+      severity: 'emergency',
+      message,
+      suggestedAction: null,
+      sourceType: 'PainReport',
+      sourceId: report.id,
+    });
+    await notify(m, circle.clinicians, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'red_flag_emergency',
+      severity: 'emergency',
+      title: `Emergency warning sign: ${ctx.athleteName}`,
+      body: `${message} Answers: ${items.join(' / ')}`,
+    });
+    await notify(m, circle.coaches, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'status_out',
+      severity: 'emergency',
+      title: `${ctx.athleteName} is Out`,
+      body: `${ctx.athleteName} has been set to Out after a pain report and must not train until a clinician clears it.`,
+    });
     // Guardians of a minor are told; they never see the answers or the narrative.
     await notify(m, circle.guardians, {
       organizationId: ctx.organizationId,
@@ -114,12 +162,44 @@ export async function createPainReport(
   } else if (route === 'urgent') {
     const items = flaggedItems(input.redFlags).map((i) => i.question);
     const message = `${ctx.athleteName} reported pain (${where}, ${input.painNow}/10 now) with a warning sign that needs review today.`;
-    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_urgent', severity: 'urgent', message, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
-    await notify(m, circle.clinicians, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'red_flag_urgent', severity: 'urgent', title: `Review today: ${ctx.athleteName}`, body: `${message} Answers: ${items.join(' / ')}` });
+    await m.insert(Flag, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'red_flag_urgent',
+      severity: 'urgent',
+      message,
+      suggestedAction: null,
+      sourceType: 'PainReport',
+      sourceId: report.id,
+    });
+    await notify(m, circle.clinicians, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'red_flag_urgent',
+      severity: 'urgent',
+      title: `Review today: ${ctx.athleteName}`,
+      body: `${message} Answers: ${items.join(' / ')}`,
+    });
   } else {
     const message = `${ctx.athleteName} reported pain: ${where}, ${input.painNow}/10 now, ${input.painWorst24h}/10 at worst in the last 24 hours. No warning signs.`;
-    await m.insert(Flag, { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'pain_report', severity: 'routine', message, suggestedAction: null, sourceType: 'PainReport', sourceId: report.id });
-    await notify(m, [...circle.clinicians, ...circle.coaches], { organizationId: ctx.organizationId, athleteId: input.athleteId, kind: 'pain_report', severity: 'routine', title: `New pain report: ${ctx.athleteName}`, body: message });
+    await m.insert(Flag, {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'pain_report',
+      severity: 'routine',
+      message,
+      suggestedAction: null,
+      sourceType: 'PainReport',
+      sourceId: report.id,
+    });
+    await notify(m, [...circle.clinicians, ...circle.coaches], {
+      organizationId: ctx.organizationId,
+      athleteId: input.athleteId,
+      kind: 'pain_report',
+      severity: 'routine',
+      title: `New pain report: ${ctx.athleteName}`,
+      body: message,
+    });
   }
   return { report, route, statusSetToOut };
 }

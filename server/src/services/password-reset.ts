@@ -11,7 +11,8 @@ import { auditAccount } from './sign-in';
 
 /** The one answer to every reset request, whether or not the address has an account. */
 export const RESET_REQUESTED = {
-  message: 'If that address belongs to a Loadline account, a link to choose a new password is on its way. Check your inbox (and spam folder).',
+  message:
+    'If that address belongs to a Loadline account, a link to choose a new password is on its way. Check your inbox (and spam folder).',
 } as const;
 
 /** One message for every unusable link, so its holder learns nothing about why. */
@@ -43,7 +44,13 @@ export async function requestPasswordReset(deps: Deps, input: { email: string; b
       to: user.email,
       content: emails.passwordReset({ name: user.displayName, link, minutes }),
     });
-    await auditAccount(m, { requestId: input.requestId, action: 'auth.password_reset_requested', userId: user.id, actorUserId: null, after: { expiresAt } });
+    await auditAccount(m, {
+      requestId: input.requestId,
+      action: 'auth.password_reset_requested',
+      userId: user.id,
+      actorUserId: null,
+      after: { expiresAt },
+    });
   });
 }
 
@@ -60,8 +67,14 @@ async function usableToken(m: EntityManager | DataSource, token: string, lock: b
  * JSON, indexed) and ones waiting for a second-step code.
  */
 export async function endSessionsOf(m: EntityManager, userId: string, keepSid: string | null): Promise<number> {
-  const signedIn: [unknown, number] = await m.query(`DELETE FROM "session" WHERE (sess -> 'passport' ->> 'user') = $1 AND sid IS DISTINCT FROM $2`, [userId, keepSid]);
-  const pending: [unknown, number] = await m.query(`DELETE FROM "session" WHERE (sess -> 'pendingSignIn' ->> 'userId') = $1 AND sid IS DISTINCT FROM $2`, [userId, keepSid]);
+  const signedIn: [unknown, number] = await m.query(
+    `DELETE FROM "session" WHERE (sess -> 'passport' ->> 'user') = $1 AND sid IS DISTINCT FROM $2`,
+    [userId, keepSid],
+  );
+  const pending: [unknown, number] = await m.query(
+    `DELETE FROM "session" WHERE (sess -> 'pendingSignIn' ->> 'userId') = $1 AND sid IS DISTINCT FROM $2`,
+    [userId, keepSid],
+  );
   return signedIn[1] + pending[1];
 }
 
@@ -71,7 +84,10 @@ export async function endSessionsOf(m: EntityManager, userId: string, keepSid: s
  * other unused link of the person stop working, every other session of the person ends, and the
  * change is audited — all in one commit.
  */
-export async function confirmPasswordReset(deps: Deps, input: { token: string; password: string; requestId: string; currentSid: string | null }): Promise<void> {
+export async function confirmPasswordReset(
+  deps: Deps,
+  input: { token: string; password: string; requestId: string; currentSid: string | null },
+): Promise<void> {
   await usableToken(deps.ds.manager, input.token, false);
   assertAcceptablePassword(input.password);
   const passwordHash = await hashPassword(input.password, deps.config.BCRYPT_COST);
@@ -81,6 +97,11 @@ export async function confirmPasswordReset(deps: Deps, input: { token: string; p
     await m.update(PasswordResetToken, { id: row.id }, { usedAt: new Date() });
     await m.delete(PasswordResetToken, { userId: row.userId, id: Not(row.id), usedAt: IsNull() });
     const ended = await endSessionsOf(m, row.userId, input.currentSid);
-    await auditAccount(m, { requestId: input.requestId, action: 'auth.password_reset', userId: row.userId, after: { sessionsEnded: ended } });
+    await auditAccount(m, {
+      requestId: input.requestId,
+      action: 'auth.password_reset',
+      userId: row.userId,
+      after: { sessionsEnded: ended },
+    });
   });
 }

@@ -20,16 +20,23 @@ const ATHLETE_COLUMNS = { id: 'm.id', organizationId: 'm.organization_id' };
 
 export async function careTeamsFor(db: Db, athleteIds: string[]): Promise<CareTeamAssignmentDto[]> {
   if (athleteIds.length === 0) return [];
-  const rows: { id: string; organization_id: string; athlete_id: string; athlete_name: string; member_id: string; member_name: string; role: CareTeamRole }[] =
-    await db.query(
-      `SELECT c.id, c.organization_id, c.athlete_id, au.display_name AS athlete_name, c.member_id,
+  const rows: {
+    id: string;
+    organization_id: string;
+    athlete_id: string;
+    athlete_name: string;
+    member_id: string;
+    member_name: string;
+    role: CareTeamRole;
+  }[] = await db.query(
+    `SELECT c.id, c.organization_id, c.athlete_id, au.display_name AS athlete_name, c.member_id,
               mu.display_name AS member_name, c.role
          FROM care_team_assignments c
          JOIN memberships am ON am.id = c.athlete_id JOIN users au ON au.id = am.user_id
          JOIN memberships mm ON mm.id = c.member_id AND mm.active AND c.role = ANY(mm.roles) JOIN users mu ON mu.id = mm.user_id
         WHERE c.athlete_id = ANY($1) ORDER BY c.role, mu.display_name`,
-      [athleteIds],
-    );
+    [athleteIds],
+  );
   return rows.map((r) => ({
     id: r.id,
     organizationId: r.organization_id,
@@ -45,16 +52,22 @@ export async function guardianLinksFor(db: Db, where: { athleteIds?: string[]; g
   const ids = where.athleteIds ?? where.guardianIds ?? [];
   if (ids.length === 0) return [];
   const column = where.athleteIds ? 'g.athlete_id' : 'g.guardian_id';
-  const rows: { id: string; organization_id: string; athlete_id: string; athlete_name: string; guardian_id: string; guardian_name: string }[] =
-    await db.query(
-      `SELECT g.id, g.organization_id, g.athlete_id, au.display_name AS athlete_name, g.guardian_id,
+  const rows: {
+    id: string;
+    organization_id: string;
+    athlete_id: string;
+    athlete_name: string;
+    guardian_id: string;
+    guardian_name: string;
+  }[] = await db.query(
+    `SELECT g.id, g.organization_id, g.athlete_id, au.display_name AS athlete_name, g.guardian_id,
               gu.display_name AS guardian_name
          FROM guardian_links g
          JOIN memberships am ON am.id = g.athlete_id JOIN users au ON au.id = am.user_id
          JOIN memberships gm ON gm.id = g.guardian_id AND gm.active AND 'guardian' = ANY(gm.roles) JOIN users gu ON gu.id = gm.user_id
         WHERE ${column} = ANY($1) ORDER BY gu.display_name`,
-      [ids],
-    );
+    [ids],
+  );
   return rows.map((r) => ({
     id: r.id,
     organizationId: r.organization_id,
@@ -89,8 +102,15 @@ export async function listAthletes(db: Db, ability: AppAbility, organizationId: 
   const acl = accessibleWhere(ability, 'read', 'Athlete', ATHLETE_COLUMNS);
   const qb = db
     .createQueryBuilder()
-    .select(['m.id AS id', 'm.organization_id AS organization_id', 'u.display_name AS display_name',
-      'p.date_of_birth AS date_of_birth', 'p.sport AS sport', 'p.position AS position', 'p.version AS version'])
+    .select([
+      'm.id AS id',
+      'm.organization_id AS organization_id',
+      'u.display_name AS display_name',
+      'p.date_of_birth AS date_of_birth',
+      'p.sport AS sport',
+      'p.position AS position',
+      'p.version AS version',
+    ])
     .from('memberships', 'm')
     .innerJoin('users', 'u', 'u.id = m.user_id')
     .innerJoin('athlete_profiles', 'p', 'p.membership_id = m.id')
@@ -125,8 +145,16 @@ export async function listPeople(db: Db, ability: AppAbility, organizationId: st
   const acl = accessibleWhere(ability, 'read', 'Membership', PERSON_COLUMNS);
   const qb = db
     .createQueryBuilder()
-    .select(['m.id AS id', 'm.organization_id AS organization_id', 'm.user_id AS user_id', 'u.email AS email',
-      'u.display_name AS display_name', 'm.roles AS roles', 'm.version AS version', 'm.created_at AS created_at'])
+    .select([
+      'm.id AS id',
+      'm.organization_id AS organization_id',
+      'm.user_id AS user_id',
+      'u.email AS email',
+      'u.display_name AS display_name',
+      'm.roles AS roles',
+      'm.version AS version',
+      'm.created_at AS created_at',
+    ])
     .from('memberships', 'm')
     .innerJoin('users', 'u', 'u.id = m.user_id')
     .where('m.organization_id = :org', { org: organizationId })

@@ -13,7 +13,10 @@ import { statusOnDate } from '../../../policies/load/status-on';
 
 /** A set's content, hashed: a granted exception covers the set only while it stays as granted. */
 export function setFingerprint(exerciseId: string, set: PlannedSetInput, date: string): string {
-  return createHash('sha256').update(JSON.stringify([exerciseId, date, set.reps, set.load, set.targetRpe ?? null])).digest('hex').slice(0, 32);
+  return createHash('sha256')
+    .update(JSON.stringify([exerciseId, date, set.reps, set.load, set.targetRpe ?? null]))
+    .digest('hex')
+    .slice(0, 32);
 }
 
 export function toEngineExercise(e: Exercise): EngineExercise {
@@ -25,7 +28,16 @@ export function engineSets(session: Pick<ProgramSession, 'id' | 'date' | 'conten
   let order = 0;
   for (const ex of session.content.exercises) {
     for (const s of ex.sets) {
-      out.push({ id: s.id, sessionId: session.id, date: session.date, exerciseId: ex.exerciseId, reps: s.reps, load: s.load, targetRpe: s.targetRpe ?? null, order: order++ });
+      out.push({
+        id: s.id,
+        sessionId: session.id,
+        date: session.date,
+        exerciseId: ex.exerciseId,
+        reps: s.reps,
+        load: s.load,
+        targetRpe: s.targetRpe ?? null,
+        order: order++,
+      });
     }
   }
   return out;
@@ -108,8 +120,17 @@ export async function rosterRows(ds: DataSource, ability: AppAbility, organizati
      ORDER BY a.name, a.id`,
     { ...acl.params, org: organizationId, date },
   );
-  const rows: { athlete_id: string; athlete_name: string; statuses: ParticipationStatus[]; plans: PlanInput[] | null; sessions_on_hold: number; pending_exceptions: number;
-    next_id: string | null; next_date: string; next_title: string }[] = await preparedRead(ds, sql, params);
+  const rows: {
+    athlete_id: string;
+    athlete_name: string;
+    statuses: ParticipationStatus[];
+    plans: PlanInput[] | null;
+    sessions_on_hold: number;
+    pending_exceptions: number;
+    next_id: string | null;
+    next_date: string;
+    next_title: string;
+  }[] = await preparedRead(ds, sql, params);
   return rows.map((r) => ({
     athleteId: r.athlete_id,
     athleteName: r.athlete_name,
@@ -137,8 +158,21 @@ export interface TodaySessionRow {
  * they name and the athlete's baselines (the today view; six round trips before).
  */
 export async function todaySessions(ds: DataSource, organizationId: string, athleteId: string, date: string): Promise<TodaySessionRow[]> {
-  const rows: { id: string; program_id: string; program_name: string; date: string; title: string; content: SessionContent; status: ProgramSession['status'];
-    published_at: Date | null; version: number; holds: TodaySessionRow['holds']; exercises: TodaySessionRow['exercises']; baselines: TodaySessionRow['baselines'] }[] = await preparedRead(ds, 
+  const rows: {
+    id: string;
+    program_id: string;
+    program_name: string;
+    date: string;
+    title: string;
+    content: SessionContent;
+    status: ProgramSession['status'];
+    published_at: Date | null;
+    version: number;
+    holds: TodaySessionRow['holds'];
+    exercises: TodaySessionRow['exercises'];
+    baselines: TodaySessionRow['baselines'];
+  }[] = await preparedRead(
+    ds,
     `SELECT s.id, s.program_id, p.name AS program_name, s.date, s.title, s.content, s.status, s.published_at, s.version,
        COALESCE((SELECT json_agg(json_build_object('athleteId', h.athlete_id, 'breaches', h.breaches))
                    FROM session_holds h WHERE h.session_id = s.id AND h.athlete_id = $2), '[]') AS holds,
@@ -152,7 +186,16 @@ export async function todaySessions(ds: DataSource, organizationId: string, athl
     [organizationId, athleteId, date],
   );
   return rows.map((r) => ({
-    session: { id: r.id, programId: r.program_id, date: r.date, title: r.title, content: r.content, status: r.status, publishedAt: r.published_at, version: r.version },
+    session: {
+      id: r.id,
+      programId: r.program_id,
+      date: r.date,
+      title: r.title,
+      content: r.content,
+      status: r.status,
+      publishedAt: r.published_at,
+      version: r.version,
+    },
     programName: r.program_name,
     holds: r.holds,
     exercises: r.exercises,
@@ -178,11 +221,22 @@ async function statusLookup(m: EntityManager, athleteId: string): Promise<(date:
       WHERE s.athlete_id = $1`,
     [athleteId],
   );
-  return statusOnDate(rows.map((r) => ({ caseId: r.case_id, status: r.status, effectiveFrom: r.effective_from, createdAt: new Date(r.created_at).toISOString() })));
+  return statusOnDate(
+    rows.map((r) => ({
+      caseId: r.case_id,
+      status: r.status,
+      effectiveFrom: r.effective_from,
+      createdAt: new Date(r.created_at).toISOString(),
+    })),
+  );
 }
 
 /** Set ids of this athlete covered by granted exceptions whose sets are unchanged since the grant. */
-async function waivedSets(m: EntityManager, athleteId: string, sessions: Pick<ProgramSession, 'id' | 'date' | 'content'>[]): Promise<Set<string>> {
+async function waivedSets(
+  m: EntityManager,
+  athleteId: string,
+  sessions: Pick<ProgramSession, 'id' | 'date' | 'content'>[],
+): Promise<Set<string>> {
   if (sessions.length === 0) return new Set();
   const rows: { session_id: string; granted_set_ids: string[]; set_fingerprints: Record<string, string> }[] = await m.query(
     `SELECT session_id, granted_set_ids, set_fingerprints FROM program_exceptions
@@ -190,9 +244,11 @@ async function waivedSets(m: EntityManager, athleteId: string, sessions: Pick<Pr
     [athleteId, sessions.map((s) => s.id)],
   );
   const current = new Map<string, string>();
-  for (const s of sessions) for (const ex of s.content.exercises) for (const set of ex.sets) current.set(set.id, setFingerprint(ex.exerciseId, set, s.date));
+  for (const s of sessions)
+    for (const ex of s.content.exercises) for (const set of ex.sets) current.set(set.id, setFingerprint(ex.exerciseId, set, s.date));
   const out = new Set<string>();
-  for (const r of rows) for (const id of r.granted_set_ids) if (r.set_fingerprints[id] && r.set_fingerprints[id] === current.get(id)) out.add(id);
+  for (const r of rows)
+    for (const id of r.granted_set_ids) if (r.set_fingerprints[id] && r.set_fingerprints[id] === current.get(id)) out.add(id);
   return out;
 }
 
@@ -246,7 +302,12 @@ export async function breachesFor(
   unit: Unit,
   today: string,
 ): Promise<Breach[]> {
-  const others = await publishedInWeeks(m, athleteId, sessions.map((s) => s.date), sessions.map((s) => s.id));
+  const others = await publishedInWeeks(
+    m,
+    athleteId,
+    sessions.map((s) => s.date),
+    sessions.map((s) => s.id),
+  );
   const all = [...sessions, ...others];
   const ctx = await engineContext(m, organizationId, athleteId, all, unit, today);
   const ids = new Set(sessions.map((s) => s.id));

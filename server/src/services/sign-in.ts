@@ -58,7 +58,10 @@ export async function auditSignIn(
  * An event about a person's own account (sign-in, password reset, two-step sign-in), written into
  * the trail of each organization they belong to, or the global trail when they belong to none.
  */
-export async function auditAccount(m: EntityManager, e: { requestId: string; action: string; userId: string | null; actorUserId?: string | null; after?: unknown }) {
+export async function auditAccount(
+  m: EntityManager,
+  e: { requestId: string; action: string; userId: string | null; actorUserId?: string | null; after?: unknown },
+) {
   const actors = e.userId ? await loadActors(m, e.userId) : [];
   const orgs: (string | null)[] = actors.length ? actors.map((a) => a.organizationId) : [null];
   for (const organizationId of orgs) {

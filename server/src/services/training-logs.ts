@@ -32,7 +32,16 @@ async function weeklyPainMeans(m: EntityManager, athleteId: string, date: string
 async function raiseFlags(m: EntityManager, log: TrainingLog, result: PainRuleResult, athleteName: string) {
   if (result.action !== 'reduce') return;
   const message = `${athleteName}, session of ${log.date}: ${result.flags.map((f) => f.message).join(' ')} Suggested: reduce the next session.`;
-  await m.insert(Flag, { organizationId: log.organizationId, athleteId: log.athleteId, kind: 'pain_rule', severity: 'routine', message, suggestedAction: 'reduce', sourceType: 'TrainingLog', sourceId: log.id });
+  await m.insert(Flag, {
+    organizationId: log.organizationId,
+    athleteId: log.athleteId,
+    kind: 'pain_rule',
+    severity: 'routine',
+    message,
+    suggestedAction: 'reduce',
+    sourceType: 'TrainingLog',
+    sourceId: log.id,
+  });
   const circle = await athleteCircle(m, log.athleteId);
   await notify(m, [...circle.clinicians, ...circle.coaches], {
     organizationId: log.organizationId,
@@ -67,14 +76,27 @@ export async function createTrainingLog(
     }),
   );
   await recordLoggedBaselines(m, log);
-  const painRule = evaluatePain({ ceiling: painCeiling, during: input.painDuring, before: input.painBefore, nextMorning: null, weeklyMeans: await weeklyPainMeans(m, input.athleteId, input.date) });
+  const painRule = evaluatePain({
+    ceiling: painCeiling,
+    during: input.painDuring,
+    before: input.painBefore,
+    nextMorning: null,
+    weeklyMeans: await weeklyPainMeans(m, input.athleteId, input.date),
+  });
   await raiseFlags(m, log, painRule, ctx.athleteName);
   await audit({
     action: 'training_log.created',
     subjectType: 'TrainingLog',
     subjectId: log.id,
     athleteId: input.athleteId,
-    after: { date: input.date, durationMinutes: input.durationMinutes, sessionRpe: input.sessionRpe, painDuring: input.painDuring, sets: input.sets.length, painRule: painRule.action },
+    after: {
+      date: input.date,
+      durationMinutes: input.durationMinutes,
+      sessionRpe: input.sessionRpe,
+      painDuring: input.painDuring,
+      sets: input.sets.length,
+      painRule: painRule.action,
+    },
   });
   return { log, painRule };
 }
@@ -89,7 +111,14 @@ export async function recordNextMorning(
   log.painNextMorning = painNextMorning;
   const painRule = evaluatePain({ ceiling: log.painCeiling, during: null, before: log.painBefore, nextMorning: painNextMorning });
   await raiseFlags(m, log, painRule, athleteName);
-  await audit({ action: 'training_log.next_morning', subjectType: 'TrainingLog', subjectId: log.id, athleteId: log.athleteId, before: { painNextMorning: null }, after: { painNextMorning, painRule: painRule.action } });
+  await audit({
+    action: 'training_log.next_morning',
+    subjectType: 'TrainingLog',
+    subjectId: log.id,
+    athleteId: log.athleteId,
+    before: { painNextMorning: null },
+    after: { painNextMorning, painRule: painRule.action },
+  });
   return painRule;
 }
 
@@ -110,8 +139,22 @@ async function recordLoggedBaselines(m: EntityManager, log: TrainingLog): Promis
     const exerciseId = byName.get(s.exercise.trim().toLowerCase());
     const est = exerciseId && s.loadKg > 0 ? estimateOneRm(s.loadKg, s.reps, s.rpe ?? null) : null;
     if (!exerciseId || !est) return [];
-    return [{ organizationId: log.organizationId, athleteId: log.athleteId, exerciseId, kind: 'logged' as const, loadKg: s.loadKg, reps: s.reps, rpe: s.rpe ?? null,
-      e1rmKg: Math.round(est.value * 100) / 100, formula: 'epley' as const, lowReliability: est.lowReliability, testedOn: log.date, createdBy: null }];
+    return [
+      {
+        organizationId: log.organizationId,
+        athleteId: log.athleteId,
+        exerciseId,
+        kind: 'logged' as const,
+        loadKg: s.loadKg,
+        reps: s.reps,
+        rpe: s.rpe ?? null,
+        e1rmKg: Math.round(est.value * 100) / 100,
+        formula: 'epley' as const,
+        lowReliability: est.lowReliability,
+        testedOn: log.date,
+        createdBy: null,
+      },
+    ];
   });
   if (rows.length) await m.insert(Baseline, rows);
 }

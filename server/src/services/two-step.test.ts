@@ -1,7 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import { Secret, TOTP } from 'otpauth';
 import { loadConfig } from '../config';
-import { acceptedStep, decryptSecret, encryptSecret, newRecoveryCodes, normaliseCode, parseTotpKey, recoveryCodeHash, twoStepKey, TOTP_PERIOD } from './two-step';
+import {
+  acceptedStep,
+  decryptSecret,
+  encryptSecret,
+  newRecoveryCodes,
+  normaliseCode,
+  parseTotpKey,
+  recoveryCodeHash,
+  twoStepKey,
+  TOTP_PERIOD,
+} from './two-step';
 
 const SECRET = new Secret({ size: 20 }).base32;
 const app = new TOTP({ algorithm: 'SHA1', digits: 6, period: TOTP_PERIOD, secret: Secret.fromBase32(SECRET) });

@@ -61,14 +61,26 @@ export function decryptSecret(key: Buffer, userId: string, stored: string): stri
 }
 
 export function totpFor(secretBase32: string, label: string): TOTP {
-  return new TOTP({ issuer: 'Loadline', label, algorithm: 'SHA1', digits: 6, period: TOTP_PERIOD, secret: Secret.fromBase32(secretBase32) });
+  return new TOTP({
+    issuer: 'Loadline',
+    label,
+    algorithm: 'SHA1',
+    digits: 6,
+    period: TOTP_PERIOD,
+    secret: Secret.fromBase32(secretBase32),
+  });
 }
 
 /** A new 160-bit secret, its otpauth:// address and that address as a QR code image. */
 export async function newAuthenticatorSecret(label: string): Promise<{ secret: string; otpauthUri: string; qrDataUrl: string }> {
   const secret = new Secret({ size: 20 }).base32;
   const otpauthUri = totpFor(secret, label).toString();
-  const qrDataUrl = await QRCode.toDataURL(otpauthUri, { errorCorrectionLevel: 'M', margin: 2, width: 240, color: { dark: '#14202e', light: '#fffdf8' } });
+  const qrDataUrl = await QRCode.toDataURL(otpauthUri, {
+    errorCorrectionLevel: 'M',
+    margin: 2,
+    width: 240,
+    color: { dark: '#14202e', light: '#fffdf8' },
+  });
   return { secret, otpauthUri, qrDataUrl };
 }
 
@@ -113,7 +125,12 @@ export async function isTwoStepOn(m: EntityManager, userId: string): Promise<boo
  * caller's transaction: an app code moves last_used_step forward, a recovery code is used up.
  * Answers which kind worked, or null.
  */
-export async function useSecondStepCode(m: EntityManager, key: Buffer, userId: string, code: string): Promise<'app' | 'recovery_code' | null> {
+export async function useSecondStepCode(
+  m: EntityManager,
+  key: Buffer,
+  userId: string,
+  code: string,
+): Promise<'app' | 'recovery_code' | null> {
   const row = await lockTotp(m, userId);
   if (!row?.enabledAt) return null;
   const normalised = normaliseCode(code);

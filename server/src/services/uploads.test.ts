@@ -21,7 +21,14 @@ describe('storeThenRecord', () => {
     await writeFile(tempPath, 'hello');
     let cleaned = false;
     return {
-      r: { fields: {}, file: { tempPath, size: 5, sha256: 'x', mediaType: 'application/pdf' }, cleanup: async () => { cleaned = true; await rm(tempPath, { force: true }); } },
+      r: {
+        fields: {},
+        file: { tempPath, size: 5, sha256: 'x', mediaType: 'application/pdf' },
+        cleanup: async () => {
+          cleaned = true;
+          await rm(tempPath, { force: true });
+        },
+      },
       cleaned: () => cleaned,
     };
   }
@@ -29,7 +36,11 @@ describe('storeThenRecord', () => {
   it('removes the stored object again when the database write fails, and always the temporary file', async () => {
     const storage = new LocalStorage(path.join(dir, 'store'));
     const { r, cleaned } = await received('a');
-    await expect(storeThenRecord(storage, pino({ level: 'silent' }), 'org/documents/a', r, async () => { throw new Error('insert failed'); })).rejects.toThrow('insert failed');
+    await expect(
+      storeThenRecord(storage, pino({ level: 'silent' }), 'org/documents/a', r, async () => {
+        throw new Error('insert failed');
+      }),
+    ).rejects.toThrow('insert failed');
     expect(await storage.exists('org/documents/a')).toBe(false);
     expect(cleaned()).toBe(true);
     expect(existsSync(r.file.tempPath)).toBe(false);

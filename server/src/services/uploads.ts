@@ -59,7 +59,9 @@ export async function storeThenRecord<T>(
     try {
       return await record();
     } catch (err) {
-      await storage.delete(key).catch((deleteErr) => logger.error({ err: deleteErr, key }, 'could not remove an upload whose row was not written'));
+      await storage
+        .delete(key)
+        .catch((deleteErr) => logger.error({ err: deleteErr, key }, 'could not remove an upload whose row was not written'));
       throw err;
     }
   } finally {
@@ -77,7 +79,13 @@ export async function removeStored(storage: ObjectStorage, logger: Logger, key: 
  * `headers` sets anything, so a missing object still answers a plain JSON error, not an "attachment".
  * A viewer who seeks or closes the tab ends the response early; for video that is normal, not an error.
  */
-export async function streamStored(storage: ObjectStorage, res: Response, key: string, range: ByteRange | undefined, headers: () => void): Promise<void> {
+export async function streamStored(
+  storage: ObjectStorage,
+  res: Response,
+  key: string,
+  range: ByteRange | undefined,
+  headers: () => void,
+): Promise<void> {
   const body = await storage.get(key, range);
   headers();
   try {

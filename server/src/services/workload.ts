@@ -48,7 +48,13 @@ export async function workload(db: Db, athleteId: string, to: string, days: numb
   }
 
   const inRange = logs.filter((l) => l.date >= from);
-  const pain = inRange.map((l) => ({ date: l.date, during: l.pain_during, nextMorning: l.pain_next_morning, ceiling: l.pain_ceiling, load: sessionLoad(l.session_rpe, l.duration_minutes) }));
+  const pain = inRange.map((l) => ({
+    date: l.date,
+    during: l.pain_during,
+    nextMorning: l.pain_next_morning,
+    ceiling: l.pain_ceiling,
+    load: sessionLoad(l.session_rpe, l.duration_minutes),
+  }));
   const best = new Map<string, WorkloadDto['e1rm'][number]>();
   for (const l of inRange) {
     for (const set of l.sets) {
@@ -56,7 +62,8 @@ export async function workload(db: Db, athleteId: string, to: string, days: numb
       if (!est) continue;
       const key = `${set.exercise.toLowerCase()}|${l.date}`;
       const prev = best.get(key);
-      if (!prev || est.value > prev.value) best.set(key, { exercise: set.exercise, date: l.date, value: Math.round(est.value * 10) / 10, lowReliability: est.lowReliability });
+      if (!prev || est.value > prev.value)
+        best.set(key, { exercise: set.exercise, date: l.date, value: Math.round(est.value * 10) / 10, lowReliability: est.lowReliability });
     }
   }
   const planRows: { stages: PlanStage[] }[] = await db.query(

@@ -66,7 +66,10 @@ export async function receiveUpload<S extends z.ZodType>(
   beforeFile: (fields: z.infer<S>) => Promise<void> = async () => undefined,
 ): Promise<Received<z.infer<S>>> {
   if (!req.is('multipart/form-data')) {
-    throw new AppError('unsupported_media_type', 'Send the file as a multipart form (multipart/form-data), the text fields first and the file last.');
+    throw new AppError(
+      'unsupported_media_type',
+      'Send the file as a multipart form (multipart/form-data), the text fields first and the file last.',
+    );
   }
   const declared = Number(req.headers['content-length']);
   if (Number.isFinite(declared) && declared > rules.maxBytes + ENVELOPE_BYTES) throw tooLarge(rules);
@@ -129,7 +132,9 @@ function parse<S extends z.ZodType>(
     bb.on('file', (name, stream) => {
       if (name !== 'file') {
         stream.resume();
-        return fail(badForm(name, 'is not an accepted field', `Please check the form: ${name} is not an accepted field; send the file as "file".`));
+        return fail(
+          badForm(name, 'is not an accepted field', `Please check the form: ${name} is not an accepted field; send the file as "file".`),
+        );
       }
       fileStream = stream;
       filework = (async () => {
@@ -142,7 +147,11 @@ function parse<S extends z.ZodType>(
     bb.on('filesLimit', () => fail(badForm('file', 'must be a single file', 'Please check the form: send one file at a time.')));
     bb.on('fieldsLimit', () => fail(new AppError('validation_failed', 'Please check the form: it has too many fields.')));
     bb.on('partsLimit', () => fail(new AppError('validation_failed', 'Please check the form: it has too many parts.')));
-    bb.on('error', () => fail(new AppError('validation_failed', 'The upload could not be read (the form data is malformed or was cut off). Please try again.')));
+    bb.on('error', () =>
+      fail(
+        new AppError('validation_failed', 'The upload could not be read (the form data is malformed or was cut off). Please try again.'),
+      ),
+    );
     bb.on('close', () => {
       if (settled) return;
       if (!filework) {
@@ -172,7 +181,11 @@ function parse<S extends z.ZodType>(
 async function spool(stream: Readable, rules: UploadRules, tempPath: string): Promise<ReceivedFile> {
   const hash = createHash('sha256');
   const state: { out: WriteStream | null; mediaType: string | null; head: Buffer[]; headLength: number; size: number } = {
-    out: null, mediaType: null, head: [], headLength: 0, size: 0,
+    out: null,
+    mediaType: null,
+    head: [],
+    headLength: 0,
+    size: 0,
   };
   const write = async (out: WriteStream, chunk: Buffer) => {
     if (!out.write(chunk)) await once(out, 'drain');

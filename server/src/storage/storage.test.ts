@@ -31,7 +31,9 @@ function contract(name: string, make: () => ObjectStorage) {
     it('refuses keys with .. or an absolute path', async () => {
       const s = make();
       for (const key of ['../x', 'a/../../x', '/etc/passwd', 'a//b', 'a/b.pdf']) {
-        await expect(s.put(key, Readable.from([Buffer.from('x')]), { size: 1, contentType: 'text/plain' }), key).rejects.toThrow(/Refusing/);
+        await expect(s.put(key, Readable.from([Buffer.from('x')]), { size: 1, contentType: 'text/plain' }), key).rejects.toThrow(
+          /Refusing/,
+        );
         await expect(s.get(key), key).rejects.toThrow(/Refusing/);
       }
     });
@@ -63,7 +65,9 @@ contract('local', () => new LocalStorage(localRoot));
 describe('local disk specifics', () => {
   it('writes no .partial file that outlives a failed write', async () => {
     const s = new LocalStorage(localRoot);
-    await expect(s.put('org2/documents/short', Readable.from([Buffer.from('abc')]), { size: 10, contentType: 'text/plain' })).rejects.toThrow();
+    await expect(
+      s.put('org2/documents/short', Readable.from([Buffer.from('abc')]), { size: 10, contentType: 'text/plain' }),
+    ).rejects.toThrow();
     expect(await readdir(path.join(localRoot, 'org2', 'documents'))).toEqual([]);
   });
 });

@@ -39,7 +39,15 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
     const logger = pino({ level: 'silent' });
     if (opts.mail) h.smtp = await startFakeSmtp(url, 0);
     h.storageDir = await mkdtemp(path.join(os.tmpdir(), 'loadline-test-uploads-'));
-    h.config = loadConfig({ DATABASE_URL: url, SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', STORAGE_DIR: h.storageDir, RATE_LIMIT_NAMESPACE: `test-${randomUUID()}`, ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}), ...overrides });
+    h.config = loadConfig({
+      DATABASE_URL: url,
+      SESSION_SECRET: TEST_SECRET,
+      LOG_LEVEL: 'silent',
+      STORAGE_DIR: h.storageDir,
+      RATE_LIMIT_NAMESPACE: `test-${randomUUID()}`,
+      ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}),
+      ...overrides,
+    });
     h.ds = createDataSource(url, 5);
     await h.ds.initialize();
     if (opts.mail) {
@@ -85,10 +93,16 @@ export class Client {
     return this.agent.get(path);
   }
   post(path: string, body?: object) {
-    return this.agent.post(path).set('x-csrf-token', this.csrf).send(body ?? {});
+    return this.agent
+      .post(path)
+      .set('x-csrf-token', this.csrf)
+      .send(body ?? {});
   }
   patch(path: string, body?: object) {
-    return this.agent.patch(path).set('x-csrf-token', this.csrf).send(body ?? {});
+    return this.agent
+      .patch(path)
+      .set('x-csrf-token', this.csrf)
+      .send(body ?? {});
   }
   delete(path: string) {
     return this.agent.delete(path).set('x-csrf-token', this.csrf);

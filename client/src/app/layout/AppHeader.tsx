@@ -78,12 +78,7 @@ export function AppHeader({
             >
               Account
             </NavLink>
-            <Button
-              variant="secondary"
-              size="sm"
-              busy={signOut.isPending}
-              onClick={() => signOut.mutate()}
-            >
+            <Button variant="secondary" size="sm" busy={signOut.isPending} onClick={() => signOut.mutate()}>
               Sign out
             </Button>
           </div>
@@ -122,8 +117,8 @@ export function AppHeader({
 export function Unaffiliated() {
   return (
     <p className="text-sm">
-      You are signed in, but you are not part of any organization right now. If you expected to be, ask your
-      organization&apos;s administrator for an invitation. <Link to="/account">Your account</Link> is still available.
+      You are signed in, but you are not part of any organization right now. If you expected to be, ask your organization&apos;s
+      administrator for an invitation. <Link to="/account">Your account</Link> is still available.
     </p>
   );
 }

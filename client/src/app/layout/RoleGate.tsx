@@ -21,8 +21,8 @@ export function RoleGate({ role, children }: { role: Role; children: ReactNode }
     return (
       <Notice tone="problem" role="alert" title="You can't do that">
         <p>
-          You can&apos;t do that: this page is for people with the {ROLE_LABELS[role].toLowerCase()} role in{' '}
-          {membership.organizationName}, and you don&apos;t hold it.
+          You can&apos;t do that: this page is for people with the {ROLE_LABELS[role].toLowerCase()} role in {membership.organizationName},
+          and you don&apos;t hold it.
         </p>
         <p>
           <Link to="/">Go to your home page</Link>

@@ -23,9 +23,7 @@ export function SignedInLayout() {
 
   if (!data.user) {
     const leaving = signOut.isPending || signOut.isSuccess;
-    return (
-      <Navigate to="/sign-in" replace state={leaving ? null : { from: `${location.pathname}${location.search}` }} />
-    );
+    return <Navigate to="/sign-in" replace state={leaving ? null : { from: `${location.pathname}${location.search}` }} />;
   }
   return <Member user={data.user} memberships={data.memberships} signOut={signOut} />;
 }
@@ -41,10 +39,7 @@ function Member({
 }) {
   const { membership, choose } = useActiveOrg(memberships);
   const ability = useMemo(() => defineAbilityFor(membership?.actor ?? null), [membership]);
-  const current = useMemo(
-    () => (membership ? { user, membership, orgId: membership.organizationId } : null),
-    [user, membership],
-  );
+  const current = useMemo(() => (membership ? { user, membership, orgId: membership.organizationId } : null), [user, membership]);
 
   return (
     <AbilityProvider value={ability}>

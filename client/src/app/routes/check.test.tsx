@@ -66,7 +66,15 @@ describe('public letter check', () => {
 
   it('says Superseded and Not found in big plain words, each with its own shape', async () => {
     fetchMock.mockResolvedValueOnce(
-      jsonResponse(200, { status: 'superseded', athleteInitials: 'M. T.', decision: 'Full participation from 1 April 2026', effectiveFrom: '2026-04-01', validUntil: null, organizationName: 'Harbor Point Performance', issuedOn: '2026-03-30' }),
+      jsonResponse(200, {
+        status: 'superseded',
+        athleteInitials: 'M. T.',
+        decision: 'Full participation from 1 April 2026',
+        effectiveFrom: '2026-04-01',
+        validUntil: null,
+        organizationName: 'Harbor Point Performance',
+        issuedOn: '2026-03-30',
+      }),
     );
     const { container } = renderCheck(`/check/${CODE}`);
     expect(await screen.findByRole('heading', { name: 'Superseded' })).toBeInTheDocument();
@@ -83,7 +91,15 @@ describe('public letter check', () => {
 
   it('says a signed letter whose start date is ahead is not yet in force, and when it takes effect', async () => {
     fetchMock.mockResolvedValue(
-      jsonResponse(200, { status: 'scheduled', athleteInitials: 'M. T.', decision: 'Full participation from 9 December 2026', effectiveFrom: '2026-12-09', validUntil: null, organizationName: 'Harbor Point Performance', issuedOn: '2026-12-01' }),
+      jsonResponse(200, {
+        status: 'scheduled',
+        athleteInitials: 'M. T.',
+        decision: 'Full participation from 9 December 2026',
+        effectiveFrom: '2026-12-09',
+        validUntil: null,
+        organizationName: 'Harbor Point Performance',
+        issuedOn: '2026-12-01',
+      }),
     );
     const { container } = renderCheck(`/check/${CODE}`);
     expect(await screen.findByRole('heading', { name: 'Not yet in force' })).toBeInTheDocument();
@@ -94,11 +110,21 @@ describe('public letter check', () => {
 
   it('says a letter past its valid-until date has expired, with its own shape, and what to do', async () => {
     fetchMock.mockResolvedValue(
-      jsonResponse(200, { status: 'expired', athleteInitials: 'M. T.', decision: 'Full participation from 1 April 2026', effectiveFrom: '2026-04-01', validUntil: '2026-06-30', organizationName: 'Harbor Point Performance', issuedOn: '2026-03-30' }),
+      jsonResponse(200, {
+        status: 'expired',
+        athleteInitials: 'M. T.',
+        decision: 'Full participation from 1 April 2026',
+        effectiveFrom: '2026-04-01',
+        validUntil: '2026-06-30',
+        organizationName: 'Harbor Point Performance',
+        issuedOn: '2026-03-30',
+      }),
     );
     const { container } = renderCheck(`/check/${CODE}`);
     expect(await screen.findByRole('heading', { name: 'Expired' })).toBeInTheDocument();
-    expect(screen.getByText('This letter was valid until 30 June 2026. Ask the athlete’s clinician for a current letter.')).toBeInTheDocument();
+    expect(
+      screen.getByText('This letter was valid until 30 June 2026. Ask the athlete’s clinician for a current letter.'),
+    ).toBeInTheDocument();
     expect(container.querySelector('svg[data-shape="expired"]')).not.toBeNull();
     expect(screen.queryByRole('heading', { name: 'Valid' })).not.toBeInTheDocument();
   });

@@ -25,9 +25,7 @@ export function ClipPage() {
 
   if (clip.isPending) return <Loading what="the clip" />;
   if (clip.isError) {
-    return (
-      <ErrorNotice error={clip.error} wording={{ notFound: 'This clip does not exist, was removed, or is not one you may watch.' }} />
-    );
+    return <ErrorNotice error={clip.error} wording={{ notFound: 'This clip does not exist, was removed, or is not one you may watch.' }} />;
   }
   return <ClipScreen clip={clip.data} />;
 }
@@ -80,7 +78,11 @@ function ClipScreen({ clip }: { clip: ClipDto }) {
               <ErrorNotice error={remove.error} />
               <p>Remove this clip and its notes? The video is deleted; the audit trail keeps that it was here.</p>
               <div className="flex flex-wrap gap-2">
-                <Button variant="danger" busy={remove.isPending} onClick={() => remove.mutate(clip.id, { onSuccess: () => navigate(back.to) })}>
+                <Button
+                  variant="danger"
+                  busy={remove.isPending}
+                  onClick={() => remove.mutate(clip.id, { onSuccess: () => navigate(back.to) })}
+                >
                   Yes, remove the clip
                 </Button>
                 <Button variant="secondary" onClick={() => setConfirming(false)} autoFocus>

@@ -40,8 +40,8 @@ function CoachRoster() {
           </>
         }
       >
-        Athletes whose care team you are on as their coach: who is limited today, which sessions are on hold, and what
-        waits for a clinician. Open an athlete for their limits, programs and 1RMs.
+        Athletes whose care team you are on as their coach: who is limited today, which sessions are on hold, and what waits for a
+        clinician. Open an athlete for their limits, programs and 1RMs.
       </PageHeader>
       <NewProgram orgId={orgId} athletes={mine.map((r) => ({ id: r.athleteId, name: r.athleteName }))} />
       {roster.isPending ? (

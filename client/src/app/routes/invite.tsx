@@ -18,9 +18,7 @@ export function InvitePage() {
       <p className="mt-1 mb-6 text-sm text-ink-2">Join your organization&apos;s care team on Loadline.</p>
       {signedInAs && (
         <Notice tone="info" className="mb-4">
-          <p>
-            You are signed in as {signedInAs.email}. Accepting signs you in as the invited person instead.
-          </p>
+          <p>You are signed in as {signedInAs.email}. Accepting signs you in as the invited person instead.</p>
         </Notice>
       )}
       {/* Leaving with replace drops the token-bearing address from the history. */}

@@ -21,14 +21,7 @@ export function MarksLegend() {
       </div>
       <div>
         <p className="text-sm font-semibold">A cap is a line the bar must stay under</p>
-        <LineBar
-          className="mt-2"
-          label="Example: a planned 70 kg against a 60 kg cap"
-          value={70}
-          limit={60}
-          max={90}
-          unit="kg"
-        />
+        <LineBar className="mt-2" label="Example: a planned 70 kg against a 60 kg cap" value={70} limit={60} max={90} unit="kg" />
       </div>
     </div>
   );

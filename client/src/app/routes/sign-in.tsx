@@ -11,9 +11,7 @@ import { CenteredShell } from '../layout/RootLayout';
 /** Only same-site paths are followed after sign-in, never a full address from the outside. */
 function safeReturnPath(state: unknown): string {
   const from = (state as { from?: unknown } | null)?.from;
-  return typeof from === 'string' && from.startsWith('/') && !from.startsWith('//') && from !== '/sign-in'
-    ? from
-    : '/';
+  return typeof from === 'string' && from.startsWith('/') && !from.startsWith('//') && from !== '/sign-in' ? from : '/';
 }
 
 export function SignInPage() {
@@ -46,9 +44,7 @@ export function SignInPage() {
   return (
     <CenteredShell>
       <h1 className="text-2xl font-bold">Sign in to Loadline</h1>
-      <p className="mt-1 mb-6 text-sm text-ink-2">
-        For athletes, guardians, coaches, clinicians and administrators of your organization.
-      </p>
+      <p className="mt-1 mb-6 text-sm text-ink-2">For athletes, guardians, coaches, clinicians and administrators of your organization.</p>
       {(location.state as { passwordChanged?: boolean } | null)?.passwordChanged && (
         <Notice tone="done" role="status" className="mb-4">
           <p>Your new password is saved, and any other device signed in to your account was signed out. Sign in with the new password.</p>

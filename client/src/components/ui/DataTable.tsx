@@ -99,12 +99,7 @@ export function DataTable<T>({
           </p>
         </div>
       )}
-      <div
-        role="region"
-        aria-label={caption}
-        tabIndex={0}
-        className="overflow-x-auto rounded-lg border border-rule bg-sheet"
-      >
+      <div role="region" aria-label={caption} tabIndex={0} className="overflow-x-auto rounded-lg border border-rule bg-sheet">
         <table className={cx('w-full border-collapse text-left text-sm', minWidthClass)}>
           <caption className={cx('px-3 pt-3 text-left font-semibold', hideCaption && 'sr-only')}>{caption}</caption>
           <thead>

@@ -37,7 +37,14 @@ interface ControlA11y {
 }
 
 /** Label, hint and error around one control, with the ids that tie them together for screen readers. */
-function FieldFrame({ label, hint, error, className, id, children }: FieldFrameProps & { className?: string; id?: string; children: (a11y: ControlA11y) => ReactNode }) {
+function FieldFrame({
+  label,
+  hint,
+  error,
+  className,
+  id,
+  children,
+}: FieldFrameProps & { className?: string; id?: string; children: (a11y: ControlA11y) => ReactNode }) {
   const autoId = useId();
   const controlId = id ?? autoId;
   const hintId = `${controlId}-hint`;
@@ -52,7 +59,11 @@ function FieldFrame({ label, hint, error, className, id, children }: FieldFrameP
           {hint}
         </p>
       )}
-      {children({ id: controlId, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy(hint && hintId, error && errorId) })}
+      {children({
+        id: controlId,
+        'aria-invalid': error ? true : undefined,
+        'aria-describedby': describedBy(hint && hintId, error && errorId),
+      })}
       <FieldMessage id={errorId} label={label} error={error} />
     </div>
   );
@@ -63,7 +74,9 @@ export type TextFieldProps = ComponentProps<'input'> & FieldFrameProps;
 export function TextField({ label, hint, error, large, className, id, ...input }: TextFieldProps) {
   return (
     <FieldFrame label={label} hint={hint} error={error} className={className} id={id}>
-      {(a11y) => <input {...a11y} className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm', 'tabular-nums')} {...input} />}
+      {(a11y) => (
+        <input {...a11y} className={cx(CONTROL, 'mt-1', large ? 'min-h-12 text-base' : 'min-h-10 text-sm', 'tabular-nums')} {...input} />
+      )}
     </FieldFrame>
   );
 }
@@ -125,10 +138,7 @@ function ChoiceFrame({
 }) {
   const id = useId();
   return (
-    <fieldset
-      className={cx('min-w-0', className)}
-      aria-describedby={describedBy(hint && `${id}-hint`, error && `${id}-error`)}
-    >
+    <fieldset className={cx('min-w-0', className)} aria-describedby={describedBy(hint && `${id}-hint`, error && `${id}-error`)}>
       <legend className="text-sm font-semibold">{legend}</legend>
       {hint && (
         <p id={`${id}-hint`} className="text-sm text-muted">

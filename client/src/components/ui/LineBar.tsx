@@ -27,9 +27,7 @@ export function LineBar({ label, value, limit, max, unit, format = plain, showLa
   const withUnit = (n: number) => (unit ? `${format(n)} ${unit}` : format(n));
   const over = value - limit;
   const breach = over > 0;
-  const words = breach
-    ? `over the line by ${withUnit(over)} (limit ${withUnit(limit)})`
-    : `limit ${withUnit(limit)}`;
+  const words = breach ? `over the line by ${withUnit(over)} (limit ${withUnit(limit)})` : `limit ${withUnit(limit)}`;
 
   return (
     <div className={cx('text-sm', className)}>

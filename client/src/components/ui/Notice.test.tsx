@@ -9,7 +9,7 @@ describe('describeError', () => {
     expect(describeError(error)).toBe("You can't do that: Only admins may remove people.");
   });
 
-  it('uses the caller\'s wording for a stale edit', () => {
+  it("uses the caller's wording for a stale edit", () => {
     const error = new ApiError({ status: 409, code: 'version_conflict', message: 'Version mismatch.' });
     expect(describeError(error, { versionConflict: 'Someone else changed this person; reload to see the latest.' })).toBe(
       'Someone else changed this person; reload to see the latest.',

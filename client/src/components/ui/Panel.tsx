@@ -15,10 +15,7 @@ export function Panel({ title, level = 2, actions, children, className }: PanelP
   const id = useId();
   const Heading = level === 2 ? 'h2' : 'h3';
   return (
-    <section
-      aria-labelledby={title ? id : undefined}
-      className={cx('rounded-lg border border-rule bg-sheet p-4 sm:p-5', className)}
-    >
+    <section aria-labelledby={title ? id : undefined} className={cx('rounded-lg border border-rule bg-sheet p-4 sm:p-5', className)}>
       {(title || actions) && (
         <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
           {title && (

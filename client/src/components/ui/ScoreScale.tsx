@@ -88,7 +88,10 @@ export function ScoreScale({ label, value, onChange, onBlur, low, high, hint, er
       </p>
       {limit !== undefined && (
         <p className="text-sm text-ink-2">
-          <span aria-hidden="true" className="mr-1 inline-block h-3 w-4 border border-rule-strong bg-[repeating-linear-gradient(135deg,var(--color-shade)_0_3px,var(--color-sheet)_3px_6px)] align-middle" />
+          <span
+            aria-hidden="true"
+            className="mr-1 inline-block h-3 w-4 border border-rule-strong bg-[repeating-linear-gradient(135deg,var(--color-shade)_0_3px,var(--color-sheet)_3px_6px)] align-middle"
+          />
           Past your clinician&apos;s ceiling of {limit}/10.
         </p>
       )}

@@ -64,7 +64,13 @@ export function Tabs<K extends string>({
           );
         })}
       </div>
-      <div role="tabpanel" id={`${base}-panel`} aria-labelledby={`${base}-tab-${current.key}`} tabIndex={0} className="pt-4 focus:outline-none focus-visible:outline-3">
+      <div
+        role="tabpanel"
+        id={`${base}-panel`}
+        aria-labelledby={`${base}-tab-${current.key}`}
+        tabIndex={0}
+        className="pt-4 focus:outline-none focus-visible:outline-3"
+      >
         {current.panel}
       </div>
     </div>

@@ -3,7 +3,12 @@ import type { RequestHandler } from 'express';
 import bcrypt from 'bcryptjs';
 import type { EntityManager } from 'typeorm';
 import type { TwoStepEnabledDto, TwoStepSetupDto, TwoStepStatusDto } from '../../../../policies/dto';
-import { PasswordResetConfirmSchema, PasswordResetRequestSchema, TwoStepDisableSchema, TwoStepEnableSchema } from '../../../../policies/schemas';
+import {
+  PasswordResetConfirmSchema,
+  PasswordResetRequestSchema,
+  TwoStepDisableSchema,
+  TwoStepEnableSchema,
+} from '../../../../policies/schemas';
 import { TotpRecoveryCode, User, UserTotp } from '../../entities';
 import type { Deps } from '../../http/context';
 import { AppError } from '../../core/errors';
@@ -12,8 +17,16 @@ import { limitStore, signInLimits } from '../../http/security';
 import { confirmPasswordReset, requestPasswordReset, RESET_REQUESTED } from '../../services/password-reset';
 import { accountLimits, auditAccount, useAuditedSecondStepCode } from '../../services/sign-in';
 import {
-  acceptedStep, decryptSecret, encryptSecret, lockTotp, newAuthenticatorSecret, newRecoveryCodes, normaliseCode, recoveryCodeHash,
-  recoveryCodesLeft, twoStepKey,
+  acceptedStep,
+  decryptSecret,
+  encryptSecret,
+  lockTotp,
+  newAuthenticatorSecret,
+  newRecoveryCodes,
+  normaliseCode,
+  recoveryCodeHash,
+  recoveryCodesLeft,
+  twoStepKey,
 } from '../../services/two-step';
 
 /**
@@ -23,9 +36,19 @@ import {
 function resetRequestLimits(deps: Deps): RequestHandler[] {
   const windowMs = deps.config.SIGNIN_WINDOW_SECONDS * 1000;
   const refused = new AppError('rate_limited', 'Too many password reset requests. Wait a few minutes and try again.');
-  const common = { windowMs, standardHeaders: 'draft-8' as const, legacyHeaders: false, handler: (_req: unknown, _res: unknown, next: (e: unknown) => void) => next(refused) };
+  const common = {
+    windowMs,
+    standardHeaders: 'draft-8' as const,
+    legacyHeaders: false,
+    handler: (_req: unknown, _res: unknown, next: (e: unknown) => void) => next(refused),
+  };
   return [
-    rateLimit({ ...common, store: limitStore(deps, 'reset-ip'), limit: deps.config.RESET_MAX_PER_IP, keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}` }),
+    rateLimit({
+      ...common,
+      store: limitStore(deps, 'reset-ip'),
+      limit: deps.config.RESET_MAX_PER_IP,
+      keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}`,
+    }),
     rateLimit({
       ...common,
       store: limitStore(deps, 'reset-account'),
@@ -54,7 +77,10 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
     const row = await lockTotp(m, userId);
     if (!row?.enabledAt) throw new AppError('conflict', 'Two-step sign-in is not on.');
     const used = await useAuditedSecondStepCode(m, twoStepKey(deps.config), userId, code, requestId);
-    if (!used) throw new AppError('invalid_credentials', `That code did not work, ${outcome}.`, { code: ['is not a current code or an unused recovery code'] });
+    if (!used)
+      throw new AppError('invalid_credentials', `That code did not work, ${outcome}.`, {
+        code: ['is not a current code or an unused recovery code'],
+      });
   }
 
   /** Any old recovery codes go and a new set is stored (hashed) and audited; the codes are answered this once. */
@@ -62,7 +88,10 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
     const key = twoStepKey(deps.config);
     await m.delete(TotpRecoveryCode, { userId });
     const recoveryCodes = newRecoveryCodes();
-    await m.insert(TotpRecoveryCode, recoveryCodes.map((c) => ({ userId, codeHash: recoveryCodeHash(key, normaliseCode(c)), usedAt: null })));
+    await m.insert(
+      TotpRecoveryCode,
+      recoveryCodes.map((c) => ({ userId, codeHash: recoveryCodeHash(key, normaliseCode(c)), usedAt: null })),
+    );
     await auditAccount(m, { requestId, action, userId, after: { recoveryCodes: recoveryCodes.length } });
     return { recoveryCodes };
   }
@@ -152,7 +181,8 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
         const key = twoStepKey(deps.config);
         await ds.transaction(async (m) => {
           const row = await lockTotp(m, me.id);
-          if (row?.enabledAt) throw new AppError('conflict', 'Two-step sign-in is already on. Turn it off first if you want to move it to another app.');
+          if (row?.enabledAt)
+            throw new AppError('conflict', 'Two-step sign-in is already on. Turn it off first if you want to move it to another app.');
           const secretEnc = encryptSecret(key, me.id, fresh.secret);
           if (row) await m.update(UserTotp, { userId: me.id }, { secretEnc, lastUsedStep: null });
           else await m.insert(UserTotp, { userId: me.id, secretEnc, enabledAt: null, lastUsedStep: null });
@@ -175,7 +205,11 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
           if (!row) throw new AppError('conflict', 'Start the set-up first: it gives you the code to scan.');
           if (row.enabledAt) throw new AppError('conflict', 'Two-step sign-in is already on.');
           const step = acceptedStep(decryptSecret(key, me.id, row.secretEnc), body.code, row.lastUsedStep);
-          if (step === null) throw fieldError('code', 'is not the code your app shows now; check that the app was set up with this page’s code, then try the newest code');
+          if (step === null)
+            throw fieldError(
+              'code',
+              'is not the code your app shows now; check that the app was set up with this page’s code, then try the newest code',
+            );
           await m.update(UserTotp, { userId: me.id }, { enabledAt: new Date(), lastUsedStep: String(step) });
           return replaceRecoveryCodes(m, me.id, requestId, 'auth.two_step_enabled');
         });

@@ -69,8 +69,14 @@ describe('password reset', () => {
     expect(unknown.status).toBe(known.status);
     expect(unknown.body).toEqual(known.body);
     expect(known.body).toEqual(RESET_REQUESTED);
-    expect(Object.keys(unknown.headers).filter((k) => k !== 'x-request-id' && k !== 'date' && k !== 'etag').sort()).toEqual(
-      Object.keys(known.headers).filter((k) => k !== 'x-request-id' && k !== 'date' && k !== 'etag').sort(),
+    expect(
+      Object.keys(unknown.headers)
+        .filter((k) => k !== 'x-request-id' && k !== 'date' && k !== 'etag')
+        .sort(),
+    ).toEqual(
+      Object.keys(known.headers)
+        .filter((k) => k !== 'x-request-id' && k !== 'date' && k !== 'etag')
+        .sort(),
     );
     await waitFor('the known address’s e-mail', async () => (await resetMails(h.ds, org.coach.email)).length === 1);
     expect(await resetMails(h.ds, unknownEmail)).toEqual([]);
@@ -117,7 +123,9 @@ describe('password reset', () => {
   it('refuses an expired link and changes nothing', async () => {
     const org = await createOrg(h.ds);
     const token = await requestResetToken(h.app, h.ds, org.clinician.email);
-    await h.ds.query(`UPDATE password_reset_tokens SET expires_at = now() - interval '1 second' WHERE user_id = $1`, [org.clinician.userId]);
+    await h.ds.query(`UPDATE password_reset_tokens SET expires_at = now() - interval '1 second' WHERE user_id = $1`, [
+      org.clinician.userId,
+    ]);
     const res = await (await Client.anonymous(h.app)).post('/api/password-reset/confirm', { token, password: NEW_PASSWORD });
     expect(res.status).toBe(404);
     expect(res.body.error.code).toBe('reset_invalid');
@@ -161,7 +169,9 @@ describe('password reset', () => {
     const old = await replay(h.app, cookie, orgPath);
     expect(old.status).toBe(401);
     expect(old.body.error.code).toBe('unauthenticated');
-    const rows: { n: number }[] = await h.ds.query(`SELECT count(*)::int AS n FROM "session" WHERE sess -> 'passport' ->> 'user' = $1`, [org.admin.userId]);
+    const rows: { n: number }[] = await h.ds.query(`SELECT count(*)::int AS n FROM "session" WHERE sess -> 'passport' ->> 'user' = $1`, [
+      org.admin.userId,
+    ]);
     expect(rows[0].n).toBe(0);
     expect((await bystander.get(orgPath)).status).toBe(200);
   });
@@ -196,7 +206,9 @@ describe('password reset', () => {
     // A request for an active person made after it is delivered; by then the first would have been too.
     await requestResetToken(h.app, h.ds, org.otherAthlete.email);
     expect(await resetMails(h.ds, org.otherGuardian.email)).toEqual([]);
-    const tokens: { n: number }[] = await h.ds.query(`SELECT count(*)::int AS n FROM password_reset_tokens WHERE user_id = $1`, [org.otherGuardian.userId]);
+    const tokens: { n: number }[] = await h.ds.query(`SELECT count(*)::int AS n FROM password_reset_tokens WHERE user_id = $1`, [
+      org.otherGuardian.userId,
+    ]);
     expect(tokens[0].n).toBe(0);
   });
 });
@@ -268,7 +280,9 @@ describe('two-step sign-in', () => {
     const [row]: { secret_enc: string }[] = await h.ds.query(`SELECT secret_enc FROM user_totp WHERE user_id = $1`, [org.clinician.userId]);
     expect(row.secret_enc).not.toContain(secret);
     expect(row.secret_enc).toMatch(/^v1\./);
-    const codes: { row: string }[] = await h.ds.query(`SELECT row_to_json(r)::text AS row FROM totp_recovery_codes r WHERE user_id = $1`, [org.clinician.userId]);
+    const codes: { row: string }[] = await h.ds.query(`SELECT row_to_json(r)::text AS row FROM totp_recovery_codes r WHERE user_id = $1`, [
+      org.clinician.userId,
+    ]);
     expect(codes).toHaveLength(10);
     for (const code of on.body.recoveryCodes as string[]) {
       expect(codes.map((r) => r.row).join()).not.toContain(code.replace('-', ''));
@@ -342,7 +356,10 @@ describe('two-step sign-in', () => {
     const noPassword = await c.post('/api/account/two-step/disable', { password: 'not my passphrase at all', code });
     expect(noPassword.status).toBe(401);
     expect(noPassword.body.error.fields).toHaveProperty('password');
-    const wrongCode = await c.post('/api/account/two-step/disable', { password: TEST_PASSWORD, code: code === '000000' ? '111111' : '000000' });
+    const wrongCode = await c.post('/api/account/two-step/disable', {
+      password: TEST_PASSWORD,
+      code: code === '000000' ? '111111' : '000000',
+    });
     expect(wrongCode.status).toBe(401);
     expect(wrongCode.body.error.fields).toHaveProperty('code');
     const missingCode = await c.post('/api/account/two-step/disable', { password: TEST_PASSWORD });
@@ -449,7 +466,9 @@ describe('wrong second-step codes count toward the account’s sign-in limit (3 
     statuses.push((await c.post('/api/session/second-step', { code: right })).status);
     expect(statuses).toEqual([401, 401, 401, 429]);
     // The password step of the same account is limited too.
-    expect((await (await Client.anonymous(h.app)).post('/api/session', { email: org.clinician.email, password: TEST_PASSWORD })).status).toBe(429);
+    expect(
+      (await (await Client.anonymous(h.app)).post('/api/session', { email: org.clinician.email, password: TEST_PASSWORD })).status,
+    ).toBe(429);
     expect((await (await Client.anonymous(h.app)).signIn(org.coach.email, TEST_PASSWORD)).status).toBe(200);
   });
 });

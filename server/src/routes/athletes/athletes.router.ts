@@ -41,9 +41,24 @@ export const athleteRoutes: RouteDef[] = [
         const profile = await m.findOne(AthleteProfile, { where: { id: params.id, organizationId: actor.organizationId } });
         for (const field of Object.keys(changes)) authorize(ability, 'update', 'Athlete', profile, field);
         authorize(ability, 'update', 'Athlete', profile);
-        await updateVersioned(m, AthleteProfile, profile.id, version, { ...changes, updatedAt: () => 'now()' }, 'athlete profile', 'membership_id');
+        await updateVersioned(
+          m,
+          AthleteProfile,
+          profile.id,
+          version,
+          { ...changes, updatedAt: () => 'now()' },
+          'athlete profile',
+          'membership_id',
+        );
         const before = Object.fromEntries(Object.keys(changes).map((k) => [k, profile[k as keyof typeof changes]]));
-        await audit({ action: 'athlete.updated', subjectType: 'Athlete', subjectId: profile.id, athleteId: profile.id, before, after: changes });
+        await audit({
+          action: 'athlete.updated',
+          subjectType: 'Athlete',
+          subjectId: profile.id,
+          athleteId: profile.id,
+          before,
+          after: changes,
+        });
       });
       const [athlete] = await listAthletes(ds, ability, actor.organizationId, params.id);
       return athlete;

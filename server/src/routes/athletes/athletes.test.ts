@@ -63,38 +63,44 @@ describe('athletes, role by role as the access matrix says', () => {
     }
   });
 
-  it.each(MATRIX_ROLES)('PATCH /athletes/:id as %s answers each athlete as the matrix says and changes only what it allows', async (role) => {
-    for (const which of WHICH) {
-      const id = org[which].membershipId;
-      const before = await profile(id);
-      const outcome = expectedOutcome(role, 'Athlete', 'update', relationTo(role, which));
-      const res = await as[role].patch(`/api/orgs/${org.id}/athletes/${id}`, { sport: `Rowing by ${role}`, version: before.version });
-      expect(STATUS[outcome], `${role} changing ${which}: ${JSON.stringify(res.body)}`).toContain(res.status);
-      const after = await profile(id);
-      if (outcome === 'allowed') {
-        expect(res.body.sport).toBe(`Rowing by ${role}`);
-        expect(after.sport).toBe(`Rowing by ${role}`);
-        expect(after.version).toBe(before.version + 1);
-      } else {
-        expect(res.body.error.code).toBe(outcome);
-        if (outcome === 'forbidden') expect(res.body.error.message).toMatch(/does not allow you to change athlete profiles/);
-        expect(after.sport).toBe(before.sport);
-        expect(after.version).toBe(before.version);
+  it.each(MATRIX_ROLES)(
+    'PATCH /athletes/:id as %s answers each athlete as the matrix says and changes only what it allows',
+    async (role) => {
+      for (const which of WHICH) {
+        const id = org[which].membershipId;
+        const before = await profile(id);
+        const outcome = expectedOutcome(role, 'Athlete', 'update', relationTo(role, which));
+        const res = await as[role].patch(`/api/orgs/${org.id}/athletes/${id}`, { sport: `Rowing by ${role}`, version: before.version });
+        expect(STATUS[outcome], `${role} changing ${which}: ${JSON.stringify(res.body)}`).toContain(res.status);
+        const after = await profile(id);
+        if (outcome === 'allowed') {
+          expect(res.body.sport).toBe(`Rowing by ${role}`);
+          expect(after.sport).toBe(`Rowing by ${role}`);
+          expect(after.version).toBe(before.version + 1);
+        } else {
+          expect(res.body.error.code).toBe(outcome);
+          if (outcome === 'forbidden') expect(res.body.error.message).toMatch(/does not allow you to change athlete profiles/);
+          expect(after.sport).toBe(before.sport);
+          expect(after.version).toBe(before.version);
+        }
       }
-    }
-  });
+    },
+  );
 
-  it.each(MATRIX_ROLES)('the care team and guardians inside an athlete, as %s, are only records the matrix lets them read', async (role) => {
-    const res = await as[role].get(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}`);
-    expect(res.status).toBe(200);
-    const athlete = res.body as AthleteProfileDto;
-    const relation = relationTo(role, 'athlete');
-    expect(athlete.careTeam.map((c) => c.memberId).sort()).toEqual([org.coach.membershipId, org.clinician.membershipId].sort());
-    expect(allows(role, 'CareTeamAssignment', 'read', relation)).toBe(true);
-    expect(athlete.guardians.map((g) => g.guardianId)).toEqual([org.guardian.membershipId]);
-    const linkRelation: Relation = role === 'guardian' || role === 'athlete' ? 'self' : relation;
-    expect(allows(role, 'GuardianLink', 'read', linkRelation)).toBe(true);
-  });
+  it.each(MATRIX_ROLES)(
+    'the care team and guardians inside an athlete, as %s, are only records the matrix lets them read',
+    async (role) => {
+      const res = await as[role].get(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}`);
+      expect(res.status).toBe(200);
+      const athlete = res.body as AthleteProfileDto;
+      const relation = relationTo(role, 'athlete');
+      expect(athlete.careTeam.map((c) => c.memberId).sort()).toEqual([org.coach.membershipId, org.clinician.membershipId].sort());
+      expect(allows(role, 'CareTeamAssignment', 'read', relation)).toBe(true);
+      expect(athlete.guardians.map((g) => g.guardianId)).toEqual([org.guardian.membershipId]);
+      const linkRelation: Relation = role === 'guardian' || role === 'athlete' ? 'self' : relation;
+      expect(allows(role, 'GuardianLink', 'read', linkRelation)).toBe(true);
+    },
+  );
 
   it('the fields of an athlete, as each role receives them, are pinned: a clinical field leaking to a role shows up here', async () => {
     const shapes: Record<string, { athlete: string; careTeam: string; guardians: string }> = {};
@@ -136,7 +142,7 @@ describe('athletes, role by role as the access matrix says', () => {
     `);
   });
 
-  it('a coach with no athlete yet gets an empty list, and another team\'s athlete answers 404, not 403', async () => {
+  it("a coach with no athlete yet gets an empty list, and another team's athlete answers 404, not 403", async () => {
     const otherCoach = await signedIn(h.app, org.otherCoach.email, TEST_PASSWORD);
     const list = await otherCoach.get(`/api/orgs/${org.id}/athletes`);
     expect(list.status).toBe(200);
@@ -147,7 +153,7 @@ describe('athletes, role by role as the access matrix says', () => {
   });
 
   describe('another organization', () => {
-    it('an admin of another organization gets 404 for this organization\'s athletes, list, record and change alike', async () => {
+    it("an admin of another organization gets 404 for this organization's athletes, list, record and change alike", async () => {
       const id = org.otherAthlete.membershipId;
       const before = await profile(id);
       const list = await adminB.get(`/api/orgs/${org.id}/athletes`);
@@ -159,7 +165,7 @@ describe('athletes, role by role as the access matrix says', () => {
       expect(await profile(id)).toEqual(before);
     });
 
-    it('an admin asking through their own organization for another organization\'s athlete gets 404', async () => {
+    it("an admin asking through their own organization for another organization's athlete gets 404", async () => {
       const id = orgB.otherAthlete.membershipId;
       const before = await profile(id);
       expect((await as.admin.get(`/api/orgs/${org.id}/athletes/${id}`)).status).toBe(404);
@@ -168,7 +174,7 @@ describe('athletes, role by role as the access matrix says', () => {
       expect(await profile(id)).toEqual(before);
     });
 
-    it('a list never holds another organization\'s athletes', async () => {
+    it("a list never holds another organization's athletes", async () => {
       const mine = (await as.admin.get(`/api/orgs/${org.id}/athletes`)).body as AthleteProfileDto[];
       const theirs = (await adminB.get(`/api/orgs/${orgB.id}/athletes`)).body as AthleteProfileDto[];
       expect(mine.map((a) => a.id).sort()).toEqual([org.athlete.membershipId, org.otherAthlete.membershipId].sort());

@@ -20,17 +20,27 @@ function parseCsv(text: string): string[][] {
   for (let i = 0; i < text.length; i++) {
     const ch = text[i];
     if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') { field += '"'; i++; }
-      else if (ch === '"') quoted = false;
+      if (ch === '"' && text[i + 1] === '"') {
+        field += '"';
+        i++;
+      } else if (ch === '"') quoted = false;
       else field += ch;
     } else if (ch === '"') quoted = true;
-    else if (ch === ',') { row.push(field); field = ''; }
-    else if (ch === '\n' || ch === '\r') {
+    else if (ch === ',') {
+      row.push(field);
+      field = '';
+    } else if (ch === '\n' || ch === '\r') {
       if (ch === '\r' && text[i + 1] === '\n') i++;
-      row.push(field); rows.push(row); row = []; field = '';
+      row.push(field);
+      rows.push(row);
+      row = [];
+      field = '';
     } else field += ch;
   }
-  if (field || row.length) { row.push(field); rows.push(row); }
+  if (field || row.length) {
+    row.push(field);
+    rows.push(row);
+  }
   return rows;
 }
 
@@ -50,7 +60,10 @@ interface World {
 async function makeWorld(): Promise<World> {
   const org = await createOrg(h.ds);
   await h.ds.getRepository(CareTeamAssignment).save({
-    organizationId: org.id, athleteId: org.otherAthlete.membershipId, memberId: org.otherClinician.membershipId, role: 'clinician',
+    organizationId: org.id,
+    athleteId: org.otherAthlete.membershipId,
+    memberId: org.otherClinician.membershipId,
+    role: 'clinician',
   });
   const base = `/api/orgs/${org.id}`;
   const [clinician, otherClinician] = await Promise.all([
@@ -59,7 +72,12 @@ async function makeWorld(): Promise<World> {
   ]);
   const open = async (c: Client, athleteId: string, diagnosis: string) => {
     const res = await c.post(`${base}/cases`, {
-      athleteId, bodyRegions: ['lower_back'], onsetDate: '2026-01-02', diagnosis, status: 'limited', statusEffectiveFrom: '2026-01-03',
+      athleteId,
+      bodyRegions: ['lower_back'],
+      onsetDate: '2026-01-02',
+      diagnosis,
+      status: 'limited',
+      statusEffectiveFrom: '2026-01-03',
     });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     return res.body.id as string;
@@ -71,7 +89,7 @@ async function makeWorld(): Promise<World> {
   return { org, base, clinician, otherClinician, caseId, otherCaseId };
 }
 
-describe("a clinician reads the audit entries of their own athletes only (SECURITY items 15, 27; policies/access/audit.ts)", () => {
+describe('a clinician reads the audit entries of their own athletes only (SECURITY items 15, 27; policies/access/audit.ts)', () => {
   let w: World;
   beforeAll(async () => {
     w = await makeWorld();
@@ -97,7 +115,11 @@ describe("a clinician reads the audit entries of their own athletes only (SECURI
   });
 
   it('filters cannot reach past the rules: asking for the other athlete, their case or their clinician gives nothing', async () => {
-    for (const q of [`athleteId=${w.org.otherAthlete.membershipId}`, `subjectId=${w.otherCaseId}`, `actorId=${w.org.otherClinician.userId}`]) {
+    for (const q of [
+      `athleteId=${w.org.otherAthlete.membershipId}`,
+      `subjectId=${w.otherCaseId}`,
+      `actorId=${w.org.otherClinician.userId}`,
+    ]) {
       const res = await w.clinician.get(`${w.base}/audit?${q}`);
       expect(res.status, q).toBe(200);
       expect(res.body.entries, q).toEqual([]);
@@ -123,26 +145,57 @@ describe("a clinician reads the audit entries of their own athletes only (SECURI
 
   it("CSV export: text/csv attachment, a header row, the filtered rows only, and written down as 'audit.exported' (SECURITY items 25, 27)", async () => {
     const rid = `test-export-${Date.now()}`;
-    const res = await w.clinician.get(`${w.base}/audit/export?action=case.opened`).set('x-request-id', rid).buffer(true).parse((r, cb) => {
-      let data = '';
-      r.setEncoding('utf8');
-      r.on('data', (chunk: string) => (data += chunk));
-      r.on('end', () => cb(null, data));
-    });
+    const res = await w.clinician
+      .get(`${w.base}/audit/export?action=case.opened`)
+      .set('x-request-id', rid)
+      .buffer(true)
+      .parse((r, cb) => {
+        let data = '';
+        r.setEncoding('utf8');
+        r.on('data', (chunk: string) => (data += chunk));
+        r.on('end', () => cb(null, data));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="loadline-audit-\d{4}-\d{2}-\d{2}\.csv"$/);
     const [header, ...rows] = parseCsv(res.body as string).filter((r) => r.length > 1);
-    expect(header).toEqual(['id', 'occurred_at_utc', 'actor', 'actor_id', 'action', 'subject_type', 'subject_id', 'athlete', 'before', 'after', 'request_id']);
+    expect(header).toEqual([
+      'id',
+      'occurred_at_utc',
+      'actor',
+      'actor_id',
+      'action',
+      'subject_type',
+      'subject_id',
+      'athlete',
+      'before',
+      'after',
+      'request_id',
+    ]);
     expect(rows).toHaveLength(1);
     const row = Object.fromEntries(header.map((k, i) => [k, rows[0][i]]));
-    expect(row).toMatchObject({ action: 'case.opened', subject_id: w.caseId, actor: w.org.clinician.name, actor_id: w.org.clinician.userId, athlete: w.org.athlete.name });
-    expect(JSON.parse(row.after)).toMatchObject({ athleteId: w.org.athlete.membershipId, status: 'limited', diagnosis: expect.stringMatching(/^\[redacted/) });
+    expect(row).toMatchObject({
+      action: 'case.opened',
+      subject_id: w.caseId,
+      actor: w.org.clinician.name,
+      actor_id: w.org.clinician.userId,
+      athlete: w.org.athlete.name,
+    });
+    expect(JSON.parse(row.after)).toMatchObject({
+      athleteId: w.org.athlete.membershipId,
+      status: 'limited',
+      diagnosis: expect.stringMatching(/^\[redacted/),
+    });
     expect(res.body).not.toContain(w.otherCaseId);
 
     const logged = await h.ds.query(`SELECT action, actor_user_id, organization_id, after FROM audit_entries WHERE request_id = $1`, [rid]);
     expect(logged).toEqual([
-      { action: 'audit.exported', actor_user_id: w.org.clinician.userId, organization_id: w.org.id, after: { filters: expect.objectContaining({ action: 'case.opened' }), rows: 1 } },
+      {
+        action: 'audit.exported',
+        actor_user_id: w.org.clinician.userId,
+        organization_id: w.org.id,
+        after: { filters: expect.objectContaining({ action: 'case.opened' }), rows: 1 },
+      },
     ]);
   });
 });
@@ -171,8 +224,15 @@ describe('a tampered entry is named by the chain check (SECURITY items 29–30)'
     for (const n of [1, 2, 3]) {
       await h.ds.transaction((m) =>
         appendAudit(m, {
-          organizationId: org.id, actorUserId: org.clinician.userId, action: 'case.updated', subjectType: 'Case', subjectId: randomUUID(),
-          athleteId: org.athlete.membershipId, before: { reviewDate: null }, after: { reviewDate: `2026-02-0${n}` }, requestId: `test-chain-${n}`,
+          organizationId: org.id,
+          actorUserId: org.clinician.userId,
+          action: 'case.updated',
+          subjectType: 'Case',
+          subjectId: randomUUID(),
+          athleteId: org.athlete.membershipId,
+          before: { reviewDate: null },
+          after: { reviewDate: `2026-02-0${n}` },
+          requestId: `test-chain-${n}`,
         }),
       );
     }
@@ -196,6 +256,11 @@ describe('a tampered entry is named by the chain check (SECURITY items 29–30)'
 
     const res = await admin.get(`/api/orgs/${org.id}/audit/verify`);
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ organizationId: org.id, intact: false, firstBrokenId: id, reason: 'contents do not match the stored hash' });
+    expect(res.body).toMatchObject({
+      organizationId: org.id,
+      intact: false,
+      firstBrokenId: id,
+      reason: 'contents do not match the stored hash',
+    });
   });
 });

@@ -12,9 +12,20 @@ async function findEntries(ds: DataSource, ability: AppAbility, organizationId: 
   const acl = accessibleWhere(ability, 'read', 'AuditEntry', { organizationId: 'a.organization_id', athleteId: 'a.athlete_id' });
   const qb = ds
     .createQueryBuilder()
-    .select(['a.id AS id', 'a.occurred_at AS occurred_at', 'a.actor_user_id AS actor_user_id', 'u.display_name AS actor_name',
-      'a.action AS action', 'a.subject_type AS subject_type', 'a.subject_id AS subject_id', 'a.athlete_id AS athlete_id',
-      'au.display_name AS athlete_name', 'a.before AS before', 'a.after AS after', 'a.request_id AS request_id'])
+    .select([
+      'a.id AS id',
+      'a.occurred_at AS occurred_at',
+      'a.actor_user_id AS actor_user_id',
+      'u.display_name AS actor_name',
+      'a.action AS action',
+      'a.subject_type AS subject_type',
+      'a.subject_id AS subject_id',
+      'a.athlete_id AS athlete_id',
+      'au.display_name AS athlete_name',
+      'a.before AS before',
+      'a.after AS after',
+      'a.request_id AS request_id',
+    ])
     .from('audit_entries', 'a')
     .leftJoin('users', 'u', 'u.id = a.actor_user_id')
     .leftJoin('memberships', 'am', 'am.id = a.athlete_id')
@@ -31,22 +42,20 @@ async function findEntries(ds: DataSource, ability: AppAbility, organizationId: 
   if (query.to) qb.andWhere('a.occurred_at < CAST(:to AS date) + 1', { to: query.to });
   if (query.before) qb.andWhere('a.id < :before', { before: query.before });
   const rows = await qb.getRawMany();
-  return rows.map(
-    (r): AuditEntryDto => ({
-      id: String(r.id),
-      occurredAt: new Date(r.occurred_at).toISOString(),
-      actorUserId: r.actor_user_id,
-      actorName: r.actor_name,
-      action: r.action,
-      subjectType: r.subject_type,
-      subjectId: r.subject_id,
-      athleteId: r.athlete_id,
-      athleteName: r.athlete_name,
-      before: r.before,
-      after: r.after,
-      requestId: r.request_id,
-    }),
-  );
+  return rows.map((r): AuditEntryDto => ({
+    id: String(r.id),
+    occurredAt: new Date(r.occurred_at).toISOString(),
+    actorUserId: r.actor_user_id,
+    actorName: r.actor_name,
+    action: r.action,
+    subjectType: r.subject_type,
+    subjectId: r.subject_id,
+    athleteId: r.athlete_id,
+    athleteName: r.athlete_name,
+    before: r.before,
+    after: r.after,
+    requestId: r.request_id,
+  }));
 }
 
 export const auditRoutes: RouteDef[] = [
@@ -74,9 +83,36 @@ export const auditRoutes: RouteDef[] = [
       const rows = await findEntries(ds, ability, actor.organizationId, query, 50_000);
       await tx((_m, audit) => audit({ action: 'audit.exported', subjectType: 'AuditEntry', after: { filters: query, rows: rows.length } }));
       const csv = stringify(
-        rows.map((e) => [e.id, e.occurredAt, e.actorName ?? '', e.actorUserId ?? '', e.action, e.subjectType, e.subjectId ?? '',
-          e.athleteName ?? '', JSON.stringify(e.before ?? null), JSON.stringify(e.after ?? null), e.requestId ?? '']),
-        { header: true, escape_formulas: true, columns: ['id', 'occurred_at_utc', 'actor', 'actor_id', 'action', 'subject_type', 'subject_id', 'athlete', 'before', 'after', 'request_id'] },
+        rows.map((e) => [
+          e.id,
+          e.occurredAt,
+          e.actorName ?? '',
+          e.actorUserId ?? '',
+          e.action,
+          e.subjectType,
+          e.subjectId ?? '',
+          e.athleteName ?? '',
+          JSON.stringify(e.before ?? null),
+          JSON.stringify(e.after ?? null),
+          e.requestId ?? '',
+        ]),
+        {
+          header: true,
+          escape_formulas: true,
+          columns: [
+            'id',
+            'occurred_at_utc',
+            'actor',
+            'actor_id',
+            'action',
+            'subject_type',
+            'subject_id',
+            'athlete',
+            'before',
+            'after',
+            'request_id',
+          ],
+        },
       );
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
       res.setHeader('Content-Disposition', `attachment; filename="loadline-audit-${new Date().toISOString().slice(0, 10)}.csv"`);

@@ -27,12 +27,21 @@ const newRequestId = () => `test-${randomUUID()}`;
 const entriesFor = (requestId: string): Promise<EntryRow[]> =>
   h.ds.query('SELECT * FROM audit_entries WHERE request_id = $1 ORDER BY id', [requestId]);
 const orgEntryIds = async (orgId: string): Promise<string[]> =>
-  (await h.ds.query('SELECT id FROM audit_entries WHERE organization_id = $1 ORDER BY id DESC', [orgId])).map((r: { id: string }) => String(r.id));
+  (await h.ds.query('SELECT id FROM audit_entries WHERE organization_id = $1 ORDER BY id DESC', [orgId])).map((r: { id: string }) =>
+    String(r.id),
+  );
 
 /** Appends one entry in a transaction of its own, as a route would. */
 const append = (orgId: string, input: Partial<AuditInput> = {}) =>
   h.ds.transaction((m) =>
-    appendAudit(m, { organizationId: orgId, actorUserId: null, action: 'test.entry', subjectType: 'Test', requestId: newRequestId(), ...input }),
+    appendAudit(m, {
+      organizationId: orgId,
+      actorUserId: null,
+      action: 'test.entry',
+      subjectType: 'Test',
+      requestId: newRequestId(),
+      ...input,
+    }),
   );
 
 /** Polls for something written after the response was sent (refusals are audited off the request path). */
@@ -62,12 +71,19 @@ describe('every change writes an audit entry: actor, organization, before/after,
 
   const byAdmin = { organization_id: () => org.id, actor_user_id: () => org.admin.userId };
   const expectEntry = (row: EntryRow, requestId: string, expected: Partial<EntryRow>) =>
-    expect(row).toMatchObject({ organization_id: byAdmin.organization_id(), actor_user_id: byAdmin.actor_user_id(), request_id: requestId, ...expected });
+    expect(row).toMatchObject({
+      organization_id: byAdmin.organization_id(),
+      actor_user_id: byAdmin.actor_user_id(),
+      request_id: requestId,
+      ...expected,
+    });
 
   it('a role change', async () => {
     const rid = newRequestId();
     const { version } = await h.ds.getRepository(Membership).findOneByOrFail({ id: org.otherCoach.membershipId });
-    const res = await admin.patch(`/api/orgs/${org.id}/people/${org.otherCoach.membershipId}`, { roles: ['coach', 'clinician'], version }).set('x-request-id', rid);
+    const res = await admin
+      .patch(`/api/orgs/${org.id}/people/${org.otherCoach.membershipId}`, { roles: ['coach', 'clinician'], version })
+      .set('x-request-id', rid);
     expect(res.status).toBe(200);
     expect(res.headers['x-request-id']).toBe(rid);
     const [entry, ...more] = await entriesFor(rid);
@@ -100,12 +116,22 @@ describe('every change writes an audit entry: actor, organization, before/after,
     const res = await admin.post(`/api/orgs/${org.id}/care-team`, body).set('x-request-id', rid);
     expect(res.status).toBe(201);
     const [assigned] = await entriesFor(rid);
-    expectEntry(assigned, rid, { action: 'care_team.assigned', subject_type: 'CareTeamAssignment', subject_id: res.body.id, before: null, after: body });
+    expectEntry(assigned, rid, {
+      action: 'care_team.assigned',
+      subject_type: 'CareTeamAssignment',
+      subject_id: res.body.id,
+      before: null,
+      after: body,
+    });
 
     const rid2 = newRequestId();
     expect((await admin.delete(`/api/orgs/${org.id}/care-team/${res.body.id}`).set('x-request-id', rid2)).status).toBe(204);
     const [removed] = await entriesFor(rid2);
-    expectEntry(removed, rid2, { action: 'care_team.unassigned', subject_id: res.body.id, before: { athleteId: body.athleteId, memberId: body.memberId, role: 'coach' } });
+    expectEntry(removed, rid2, {
+      action: 'care_team.unassigned',
+      subject_id: res.body.id,
+      before: { athleteId: body.athleteId, memberId: body.memberId, role: 'coach' },
+    });
   });
 
   it('a guardian link and its removal', async () => {
@@ -130,7 +156,12 @@ describe('every change writes an audit entry: actor, organization, before/after,
     const token = String(res.body.link).split('#')[1];
     expect(token.length).toBeGreaterThanOrEqual(22);
     const [created] = await entriesFor(rid);
-    expectEntry(created, rid, { action: 'invitation.created', subject_type: 'Invitation', subject_id: res.body.id, after: expect.objectContaining({ email, roles: ['coach'] }) });
+    expectEntry(created, rid, {
+      action: 'invitation.created',
+      subject_type: 'Invitation',
+      subject_id: res.body.id,
+      after: expect.objectContaining({ email, roles: ['coach'] }),
+    });
     expect(JSON.stringify(created)).not.toContain(token);
 
     const rid2 = newRequestId();
@@ -142,15 +173,24 @@ describe('every change writes an audit entry: actor, organization, before/after,
   it('an athlete profile change, with the old and new values', async () => {
     const rid = newRequestId();
     const { version } = (await admin.get(`/api/orgs/${org.id}/athletes/${org.otherAthlete.membershipId}`)).body;
-    const res = await admin.patch(`/api/orgs/${org.id}/athletes/${org.otherAthlete.membershipId}`, { sport: 'Judo', version }).set('x-request-id', rid);
+    const res = await admin
+      .patch(`/api/orgs/${org.id}/athletes/${org.otherAthlete.membershipId}`, { sport: 'Judo', version })
+      .set('x-request-id', rid);
     expect(res.status).toBe(200);
     const [entry] = await entriesFor(rid);
-    expectEntry(entry, rid, { action: 'athlete.updated', subject_id: org.otherAthlete.membershipId, before: { sport: 'Test sport' }, after: { sport: 'Judo' } });
+    expectEntry(entry, rid, {
+      action: 'athlete.updated',
+      subject_id: org.otherAthlete.membershipId,
+      before: { sport: 'Test sport' },
+      after: { sport: 'Judo' },
+    });
   });
 
   it('a refused action writes access.refused with who, what and the request id; the refused change writes nothing else', async () => {
     const rid = newRequestId();
-    const res = await coach.patch(`/api/orgs/${org.id}/people/${org.coach.membershipId}`, { roles: ['admin'], version: 1 }).set('x-request-id', rid);
+    const res = await coach
+      .patch(`/api/orgs/${org.id}/people/${org.coach.membershipId}`, { roles: ['admin'], version: 1 })
+      .set('x-request-id', rid);
     expect(res.status).toBe(403);
     const entries = await eventually(async () => {
       const rows = await entriesFor(rid);
@@ -168,23 +208,32 @@ describe('every change writes an audit entry: actor, organization, before/after,
 
   it('a failed change writes no entry (a stale version answers 409 and the trail stays as it was)', async () => {
     const rid = newRequestId();
-    const res = await admin.patch(`/api/orgs/${org.id}/people/${org.otherGuardian.membershipId}`, { roles: ['guardian', 'coach'], version: 999 }).set('x-request-id', rid);
+    const res = await admin
+      .patch(`/api/orgs/${org.id}/people/${org.otherGuardian.membershipId}`, { roles: ['guardian', 'coach'], version: 999 })
+      .set('x-request-id', rid);
     expect(res.status).toBe(409);
     expect(await entriesFor(rid)).toEqual([]);
   });
 
-  it('the admin reads these entries through GET /audit, newest first, with the actor\'s name and only this organization\'s rows', async () => {
+  it("the admin reads these entries through GET /audit, newest first, with the actor's name and only this organization's rows", async () => {
     const res = await admin.get(`/api/orgs/${org.id}/audit?limit=500`);
     expect(res.status).toBe(200);
     const entries = res.body.entries as AuditEntryDto[];
     expect(entries.map((e) => e.id)).toEqual(await orgEntryIds(org.id));
     const change = entries.find((e) => e.action === 'membership.roles_changed')!;
-    expect(change).toMatchObject({ actorUserId: org.admin.userId, actorName: org.admin.name, subjectType: 'Membership', after: { roles: ['coach', 'clinician'] } });
-    expect(Object.keys(change).sort().join(' ')).toMatchInlineSnapshot(`"action actorName actorUserId after athleteId athleteName before id occurredAt requestId subjectId subjectType"`);
+    expect(change).toMatchObject({
+      actorUserId: org.admin.userId,
+      actorName: org.admin.name,
+      subjectType: 'Membership',
+      after: { roles: ['coach', 'clinician'] },
+    });
+    expect(Object.keys(change).sort().join(' ')).toMatchInlineSnapshot(
+      `"action actorName actorUserId after athleteId athleteName before id occurredAt requestId subjectId subjectType"`,
+    );
     expect(res.body.nextBefore).toBeNull();
   });
 
-  it('the organization\'s chain is intact after all of this', async () => {
+  it("the organization's chain is intact after all of this", async () => {
     const res = await admin.get(`/api/orgs/${org.id}/audit/verify`);
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ organizationId: org.id, intact: true, firstBrokenId: null });
@@ -218,7 +267,9 @@ describe('who may read the audit trail, as the matrix says', () => {
     const res = await as[role].get(`/api/orgs/${org.id}/audit?limit=500`);
     if (!roleMay(role, 'AuditEntry', 'read')) {
       expect(res.status).toBe(403);
-      expect(res.body.error.message).toBe('Your role does not allow you to see the audit trail. Ask an admin of your organization if you need this.');
+      expect(res.body.error.message).toBe(
+        'Your role does not allow you to see the audit trail. Ask an admin of your organization if you need this.',
+      );
       return;
     }
     expect(res.status).toBe(200);
@@ -244,7 +295,9 @@ describe('who may read the audit trail, as the matrix says', () => {
     expect(csv.status).toBe(200);
     expect(csv.headers['content-disposition']).toMatch(/^attachment;/);
     const keys = (Object.keys(markers) as (keyof typeof markers)[]).filter((k) => csv.text.includes(`test.marker_${k}`));
-    expect(keys).toEqual((Object.keys(markers) as (keyof typeof markers)[]).filter((k) => allows(role, 'AuditEntry', 'read', relationOf(role, k))));
+    expect(keys).toEqual(
+      (Object.keys(markers) as (keyof typeof markers)[]).filter((k) => allows(role, 'AuditEntry', 'read', relationOf(role, k))),
+    );
   });
 
   it('an admin of another organization gets 404 on list, export and verify; signed out gets 401', async () => {
@@ -265,7 +318,7 @@ describe('who may read the audit trail, as the matrix says', () => {
 
 describe('the audit table is append-only', () => {
   /** Runs one statement in a transaction that is always rolled back, and returns its error, if any. */
-  async function attempt(sql: string, params: unknown[] = []): Promise<Error & { code?: string } | null> {
+  async function attempt(sql: string, params: unknown[] = []): Promise<(Error & { code?: string }) | null> {
     const qr = h.ds.createQueryRunner();
     await qr.connect();
     await qr.startTransaction();
@@ -303,7 +356,10 @@ describe('the audit table is append-only', () => {
     for (const n of [1, 2, 3]) await append(org.id, { action: `test.entry_${n}`, after: { roles: ['coach'], n } });
     const healthy = await admin.get(`/api/orgs/${org.id}/audit/verify`);
     expect(healthy.body).toMatchObject({ intact: true, firstBrokenId: null });
-    const [target]: { id: string }[] = await h.ds.query(`SELECT id FROM audit_entries WHERE organization_id = $1 AND action = 'test.entry_2'`, [org.id]);
+    const [target]: { id: string }[] = await h.ds.query(
+      `SELECT id FROM audit_entries WHERE organization_id = $1 AND action = 'test.entry_2'`,
+      [org.id],
+    );
 
     // As the table's owner, with the trigger off only inside this transaction (ALTER TABLE holds its lock to the end).
     await h.ds.transaction(async (m) => {
@@ -314,7 +370,12 @@ describe('the audit table is append-only', () => {
 
     const res = await admin.get(`/api/orgs/${org.id}/audit/verify`);
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ organizationId: org.id, intact: false, firstBrokenId: String(target.id), reason: 'contents do not match the stored hash' });
+    expect(res.body).toMatchObject({
+      organizationId: org.id,
+      intact: false,
+      firstBrokenId: String(target.id),
+      reason: 'contents do not match the stored hash',
+    });
     // The trigger is back on.
     expect(await attempt(`UPDATE audit_entries SET action = 'x' WHERE id = $1`, [target.id])).not.toBeNull();
   });
@@ -328,7 +389,16 @@ describe('the change and its audit entry commit or roll back together', () => {
     await expect(
       h.ds.transaction(async (m) => {
         await m.update(Membership, { id }, { roles: ['coach', 'admin'] });
-        await appendAudit(m, { organizationId: org.id, actorUserId: org.admin.userId, action: 'membership.roles_changed', subjectType: 'Membership', subjectId: id, before: { roles: ['coach'] }, after: { roles: ['coach', 'admin'] }, requestId: rid });
+        await appendAudit(m, {
+          organizationId: org.id,
+          actorUserId: org.admin.userId,
+          action: 'membership.roles_changed',
+          subjectType: 'Membership',
+          subjectId: id,
+          before: { roles: ['coach'] },
+          after: { roles: ['coach', 'admin'] },
+          requestId: rid,
+        });
         expect(await entriesFor(rid)).toEqual([]); // not visible outside the transaction yet
         throw new Error('crash after the audit entry');
       }),
@@ -345,7 +415,14 @@ describe('the change and its audit entry commit or roll back together', () => {
       h.ds.transaction(async (m) => {
         await m.update(Membership, { id }, { roles: ['coach', 'admin'] });
         // action is varchar(80): the insert fails inside the same transaction.
-        await appendAudit(m, { organizationId: org.id, actorUserId: org.admin.userId, action: 'x'.repeat(81), subjectType: 'Membership', subjectId: id, requestId: rid });
+        await appendAudit(m, {
+          organizationId: org.id,
+          actorUserId: org.admin.userId,
+          action: 'x'.repeat(81),
+          subjectType: 'Membership',
+          subjectId: id,
+          requestId: rid,
+        });
       }),
     ).rejects.toThrow(/too long/);
     expect((await h.ds.getRepository(Membership).findOneByOrFail({ id })).roles).toEqual(['coach']);
@@ -355,7 +432,9 @@ describe('the change and its audit entry commit or roll back together', () => {
 
   it('appendAudit refuses to run outside a transaction', async () => {
     const org = await createOrg(h.ds);
-    await expect(appendAudit(h.ds.manager, { organizationId: org.id, actorUserId: null, action: 'test.entry', subjectType: 'Test' })).rejects.toThrow(/inside a transaction/);
+    await expect(
+      appendAudit(h.ds.manager, { organizationId: org.id, actorUserId: null, action: 'test.entry', subjectType: 'Test' }),
+    ).rejects.toThrow(/inside a transaction/);
     expect(await orgEntryIds(org.id)).toEqual([]);
   });
 });
@@ -369,7 +448,9 @@ describe('the hash chain under concurrency', () => {
     await Promise.all(Array.from({ length: 10 }, (_, n) => append(org.id, { action: `test.parallel_${n}` })));
     const after = await verifyChain(h.ds.manager, org.id);
     expect(after).toMatchObject({ intact: true, entries: 11, firstBrokenId: null });
-    const [{ links }] = await h.ds.query('SELECT count(DISTINCT prev_hash)::int AS links FROM audit_entries WHERE organization_id = $1', [org.id]);
+    const [{ links }] = await h.ds.query('SELECT count(DISTINCT prev_hash)::int AS links FROM audit_entries WHERE organization_id = $1', [
+      org.id,
+    ]);
     expect(links).toBe(11);
   });
 });
@@ -378,14 +459,23 @@ describe('GET /audit filters and pages', () => {
   let org: TestOrg;
   let admin: Client;
   let days: { today: string; tomorrow: string; yesterday: string };
-  const ACTIONS = ['care_team.assigned', 'guardian.linked', 'careXteam.lookalike', 'care_team.unassigned', 'membership.roles_changed', 'care_team.assigned'];
+  const ACTIONS = [
+    'care_team.assigned',
+    'guardian.linked',
+    'careXteam.lookalike',
+    'care_team.unassigned',
+    'membership.roles_changed',
+    'care_team.assigned',
+  ];
 
   beforeAll(async () => {
     org = await createOrg(h.ds);
     admin = await signedIn(h.app, org.admin.email, TEST_PASSWORD);
     for (const action of ACTIONS) await append(org.id, { action, actorUserId: org.admin.userId });
     // The database's own calendar, the one the filters compare in.
-    [days] = await h.ds.query(`SELECT current_date::text AS today, (current_date + 1)::text AS tomorrow, (current_date - 1)::text AS yesterday`);
+    [days] = await h.ds.query(
+      `SELECT current_date::text AS today, (current_date + 1)::text AS tomorrow, (current_date - 1)::text AS yesterday`,
+    );
   });
 
   const list = async (query: string) => {
@@ -395,7 +485,11 @@ describe('GET /audit filters and pages', () => {
   };
 
   it('action is a prefix, and its _ and % are matched literally', async () => {
-    expect((await list('action=care_team.')).entries.map((e) => e.action)).toEqual(['care_team.assigned', 'care_team.unassigned', 'care_team.assigned']);
+    expect((await list('action=care_team.')).entries.map((e) => e.action)).toEqual([
+      'care_team.assigned',
+      'care_team.unassigned',
+      'care_team.assigned',
+    ]);
     expect((await list('action=care_')).entries.map((e) => e.action)).not.toContain('careXteam.lookalike');
     expect((await list('action=care%25')).entries).toEqual([]);
     expect((await list('action=membership.')).entries.map((e) => e.action)).toEqual(['membership.roles_changed']);

@@ -23,7 +23,13 @@ export const careTeamRoutes: RouteDef[] = [
         authorize(ability, 'create', 'CareTeamAssignment', { id: '', organizationId: org, athleteId: body.athleteId });
         try {
           const saved = await m.save(m.create(CareTeamAssignment, { organizationId: org, ...body }));
-          await audit({ action: 'care_team.assigned', subjectType: 'CareTeamAssignment', subjectId: saved.id, athleteId: body.athleteId, after: body });
+          await audit({
+            action: 'care_team.assigned',
+            subjectType: 'CareTeamAssignment',
+            subjectId: saved.id,
+            athleteId: body.athleteId,
+            after: body,
+          });
           return saved.id;
         } catch (err) {
           if (isUniqueViolation(err)) throw new AppError('conflict', `That person is already on this athlete's care team as ${body.role}.`);
@@ -45,7 +51,13 @@ export const careTeamRoutes: RouteDef[] = [
         const row = await m.findOne(CareTeamAssignment, { where: { id: params.id, organizationId: actor.organizationId } });
         authorize(ability, 'delete', 'CareTeamAssignment', row);
         await m.delete(CareTeamAssignment, { id: row.id });
-        await audit({ action: 'care_team.unassigned', subjectType: 'CareTeamAssignment', subjectId: row.id, athleteId: row.athleteId, before: { athleteId: row.athleteId, memberId: row.memberId, role: row.role } });
+        await audit({
+          action: 'care_team.unassigned',
+          subjectType: 'CareTeamAssignment',
+          subjectId: row.id,
+          athleteId: row.athleteId,
+          before: { athleteId: row.athleteId, memberId: row.memberId, role: row.role },
+        });
       });
       return undefined;
     },

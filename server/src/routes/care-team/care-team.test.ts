@@ -13,8 +13,7 @@ const playerOf = (org: TestOrg, role: Role): MemberRef =>
 /** How the factory's linked athlete stands to each role. */
 const linkedRelation = (role: Role): Relation => (role === 'athlete' ? 'self' : role === 'admin' ? 'other-athlete' : 'own-care-team');
 
-const assignments = (athleteId: string) =>
-  h.ds.getRepository(CareTeamAssignment).find({ where: { athleteId }, order: { role: 'ASC' } });
+const assignments = (athleteId: string) => h.ds.getRepository(CareTeamAssignment).find({ where: { athleteId }, order: { role: 'ASC' } });
 
 describe('care-team assignments, role by role as the access matrix says', () => {
   let org: TestOrg;
@@ -38,13 +37,23 @@ describe('care-team assignments, role by role as the access matrix says', () => 
     expect(refusedRoles('delete')).toEqual(['athlete', 'coach', 'clinician', 'guardian']);
   });
 
-  it.each(refusedRoles('create'))('POST /care-team as %s (even adding themselves to their own athlete) → 403 with a reason; nothing is added', async (role) => {
-    const before = await assignments(org.athlete.membershipId);
-    const res = await as[role].post(`/api/orgs/${org.id}/care-team`, { athleteId: org.athlete.membershipId, memberId: org.otherCoach.membershipId, role: 'coach' });
-    expect(res.status).toBe(403);
-    expect(res.body.error).toEqual({ code: 'forbidden', message: 'Your role does not allow you to add to care teams. Ask an admin of your organization if you need this.' });
-    expect(await assignments(org.athlete.membershipId)).toEqual(before);
-  });
+  it.each(refusedRoles('create'))(
+    'POST /care-team as %s (even adding themselves to their own athlete) → 403 with a reason; nothing is added',
+    async (role) => {
+      const before = await assignments(org.athlete.membershipId);
+      const res = await as[role].post(`/api/orgs/${org.id}/care-team`, {
+        athleteId: org.athlete.membershipId,
+        memberId: org.otherCoach.membershipId,
+        role: 'coach',
+      });
+      expect(res.status).toBe(403);
+      expect(res.body.error).toEqual({
+        code: 'forbidden',
+        message: 'Your role does not allow you to add to care teams. Ask an admin of your organization if you need this.',
+      });
+      expect(await assignments(org.athlete.membershipId)).toEqual(before);
+    },
+  );
 
   it.each(refusedRoles('delete'))('DELETE /care-team/:id as %s → 403; the assignment stays', async (role) => {
     const before = await assignments(org.athlete.membershipId);
@@ -107,7 +116,11 @@ describe('care-team assignments, role by role as the access matrix says', () => 
   describe('another organization', () => {
     it('an admin of another organization gets 404 assigning or unassigning here, and nothing changes', async () => {
       const before = await assignments(org.athlete.membershipId);
-      const post = await adminB.post(`/api/orgs/${org.id}/care-team`, { athleteId: org.otherAthlete.membershipId, memberId: org.otherCoach.membershipId, role: 'coach' });
+      const post = await adminB.post(`/api/orgs/${org.id}/care-team`, {
+        athleteId: org.otherAthlete.membershipId,
+        memberId: org.otherCoach.membershipId,
+        role: 'coach',
+      });
       expect(post.status).toBe(404);
       const del = await adminB.delete(`/api/orgs/${org.id}/care-team/${before[0].id}`);
       expect(del.status).toBe(404);
@@ -121,7 +134,11 @@ describe('care-team assignments, role by role as the access matrix says', () => 
 
   it('signed out: 401', async () => {
     const anonymous = await Client.anonymous(h.app);
-    const res = await anonymous.post(`/api/orgs/${org.id}/care-team`, { athleteId: org.otherAthlete.membershipId, memberId: org.otherCoach.membershipId, role: 'coach' });
+    const res = await anonymous.post(`/api/orgs/${org.id}/care-team`, {
+      athleteId: org.otherAthlete.membershipId,
+      memberId: org.otherCoach.membershipId,
+      role: 'coach',
+    });
     expect(res.status).toBe(401);
     expect(await assignments(org.otherAthlete.membershipId)).toEqual([]);
   });
@@ -141,11 +158,23 @@ describe('care-team changes take effect at once', () => {
     const path = `/api/orgs/${org.id}/athletes/${org.otherAthlete.membershipId}`;
     expect((await coach.get(path)).status).toBe(404);
 
-    const assigned = await admin.post(`/api/orgs/${org.id}/care-team`, { athleteId: org.otherAthlete.membershipId, memberId: org.otherCoach.membershipId, role: 'coach' });
+    const assigned = await admin.post(`/api/orgs/${org.id}/care-team`, {
+      athleteId: org.otherAthlete.membershipId,
+      memberId: org.otherCoach.membershipId,
+      role: 'coach',
+    });
     expect(assigned.status).toBe(201);
-    expect(assigned.body).toMatchObject({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, memberId: org.otherCoach.membershipId, memberName: org.otherCoach.name, role: 'coach' });
+    expect(assigned.body).toMatchObject({
+      organizationId: org.id,
+      athleteId: org.otherAthlete.membershipId,
+      memberId: org.otherCoach.membershipId,
+      memberName: org.otherCoach.name,
+      role: 'coach',
+    });
     expect((await coach.get(path)).status).toBe(200);
-    expect((await coach.get(`/api/orgs/${org.id}/athletes`)).body.map((a: { id: string }) => a.id)).toEqual([org.otherAthlete.membershipId]);
+    expect((await coach.get(`/api/orgs/${org.id}/athletes`)).body.map((a: { id: string }) => a.id)).toEqual([
+      org.otherAthlete.membershipId,
+    ]);
 
     expect((await admin.delete(`/api/orgs/${org.id}/care-team/${assigned.body.id}`)).status).toBe(204);
     const after = await coach.get(path);
@@ -155,7 +184,7 @@ describe('care-team changes take effect at once', () => {
     expect(await assignments(org.otherAthlete.membershipId)).toEqual([]);
   });
 
-  it('taking the athlete\'s own coach off the care team ends their access on the next request, while the clinician keeps theirs', async () => {
+  it("taking the athlete's own coach off the care team ends their access on the next request, while the clinician keeps theirs", async () => {
     const coach = await signedIn(h.app, org.coach.email, TEST_PASSWORD);
     const path = `/api/orgs/${org.id}/athletes/${org.athlete.membershipId}`;
     expect((await coach.get(path)).status).toBe(200);
@@ -173,7 +202,9 @@ describe('care-team changes take effect at once', () => {
     // A person who is both coach and clinician, assigned as clinician, then stripped of the clinician role.
     const org = await createOrg(h.ds);
     const both = await createMember(h.ds, org.id, ['coach', 'clinician']);
-    await h.ds.getRepository(CareTeamAssignment).save({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, memberId: both.membershipId, role: 'clinician' });
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, memberId: both.membershipId, role: 'clinician' });
     const client = await signedIn(h.app, both.email, TEST_PASSWORD);
     expect((await client.get(`/api/orgs/${org.id}/athletes/${org.otherAthlete.membershipId}`)).status).toBe(200);
     await h.ds.query(`UPDATE memberships SET roles = '{coach}' WHERE id = $1`, [both.membershipId]);

@@ -2,7 +2,13 @@ import type { EntityManager } from 'typeorm';
 import { z } from 'zod';
 import { CLINICAL_FIELDS } from '../../../../policies/access/case';
 import {
-  CaseCloseSchema, CaseCreateSchema, CaseItemParamsSchema, CaseUpdateSchema, OrgParamsSchema, StatusChangeSchema, UuidSchema,
+  CaseCloseSchema,
+  CaseCreateSchema,
+  CaseItemParamsSchema,
+  CaseUpdateSchema,
+  OrgParamsSchema,
+  StatusChangeSchema,
+  UuidSchema,
 } from '../../../../policies/schemas';
 import { todayIso } from '../../../../policies/roles';
 import type { CaseDetailDto } from '../../../../policies/dto';
@@ -85,12 +91,24 @@ export const caseRoutes: RouteDef[] = [
           }),
         );
         if (body.painReportId) {
-          const linked = await m.update(PainReport, { id: body.painReportId, athleteId: body.athleteId, organizationId: org }, { caseId: saved.id });
+          const linked = await m.update(
+            PainReport,
+            { id: body.painReportId, athleteId: body.athleteId, organizationId: org },
+            { caseId: saved.id },
+          );
           if (linked.affected !== 1) {
-            throw new AppError('validation_failed', "Please check the form: painReportId must be one of this athlete's pain reports.", { painReportId: ["must be one of this athlete's pain reports"] });
+            throw new AppError('validation_failed', "Please check the form: painReportId must be one of this athlete's pain reports.", {
+              painReportId: ["must be one of this athlete's pain reports"],
+            });
           }
         }
-        await audit({ action: 'case.opened', subjectType: 'Case', subjectId: saved.id, athleteId: body.athleteId, after: redact(body, CLINICAL_FIELDS) });
+        await audit({
+          action: 'case.opened',
+          subjectType: 'Case',
+          subjectId: saved.id,
+          athleteId: body.athleteId,
+          after: redact(body, CLINICAL_FIELDS),
+        });
         return saved.id;
       });
       const [dto] = await listCases(ds, ability, org, { caseId: id }, todayIso(), true);
@@ -130,7 +148,14 @@ export const caseRoutes: RouteDef[] = [
         if (c.closedOn) throw new AppError('conflict', 'This case is closed. Open a new case for a new episode.');
         await updateVersioned(m, CaseRecord, c.id, version, { ...changes, updatedAt: () => 'now()' }, 'case');
         const before = Object.fromEntries(Object.keys(changes).map((k) => [k, c[k as keyof typeof changes]]));
-        await audit({ action: 'case.updated', subjectType: 'Case', subjectId: c.id, athleteId: c.athleteId, before: redact(before, CLINICAL_FIELDS), after: redact(changes, CLINICAL_FIELDS) });
+        await audit({
+          action: 'case.updated',
+          subjectType: 'Case',
+          subjectId: c.id,
+          athleteId: c.athleteId,
+          before: redact(before, CLINICAL_FIELDS),
+          after: redact(changes, CLINICAL_FIELDS),
+        });
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);
       return dto;
@@ -152,7 +177,10 @@ export const caseRoutes: RouteDef[] = [
         if (c.closedOn) throw new AppError('conflict', 'This case is closed; its status can no longer change.');
         // The case version guards the status too, so two clinicians cannot set it at once unseen.
         await updateVersioned(m, CaseRecord, c.id, body.version, { updatedAt: () => 'now()' }, 'case');
-        const previous = await m.findOne(ParticipationStatusChange, { where: { caseId: c.id }, order: { effectiveFrom: 'DESC', createdAt: 'DESC' } });
+        const previous = await m.findOne(ParticipationStatusChange, {
+          where: { caseId: c.id },
+          order: { effectiveFrom: 'DESC', createdAt: 'DESC' },
+        });
         const saved = await m.save(
           m.create(ParticipationStatusChange, {
             organizationId: c.organizationId,
@@ -172,7 +200,13 @@ export const caseRoutes: RouteDef[] = [
           before: previous ? { status: previous.status, effectiveFrom: previous.effectiveFrom } : null,
           after: { caseId: c.id, status: body.status, effectiveFrom: body.effectiveFrom, note: body.note ?? null },
         });
-        await recheckAthlete(m, c.organizationId, c.athleteId, `The clinician set the status to ${body.status} from ${body.effectiveFrom}.`, orgToday(actor.timeZone));
+        await recheckAthlete(
+          m,
+          c.organizationId,
+          c.athleteId,
+          `The clinician set the status to ${body.status} from ${body.effectiveFrom}.`,
+          orgToday(actor.timeZone),
+        );
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);
       return { ...dto, statusHistory: await statusHistory(ds, params.id) } satisfies CaseDetailDto;
@@ -192,13 +226,33 @@ export const caseRoutes: RouteDef[] = [
         if (c.closedOn) throw new AppError('conflict', 'This case is already closed.');
         if (body.closedOn > todayIso()) {
           // Closing lifts the case's restrictions, so it cannot be dated ahead: set Full from a date instead.
-          throw new AppError('validation_failed', 'Please check the form: closedOn cannot be in the future; to lift limits from a later date, set the status to Full from that date.', { closedOn: ['cannot be in the future'] });
+          throw new AppError(
+            'validation_failed',
+            'Please check the form: closedOn cannot be in the future; to lift limits from a later date, set the status to Full from that date.',
+            { closedOn: ['cannot be in the future'] },
+          );
         }
         if (body.closedOn < c.onsetDate) {
-          throw new AppError('validation_failed', 'Please check the form: closedOn must be on or after the onset date.', { closedOn: ['must be on or after the onset date'] });
+          throw new AppError('validation_failed', 'Please check the form: closedOn must be on or after the onset date.', {
+            closedOn: ['must be on or after the onset date'],
+          });
         }
-        await updateVersioned(m, CaseRecord, c.id, body.version, { closedOn: body.closedOn, closingNote: body.closingNote ?? null, updatedAt: () => 'now()' }, 'case');
-        await audit({ action: 'case.closed', subjectType: 'Case', subjectId: c.id, athleteId: c.athleteId, before: { closedOn: null }, after: body });
+        await updateVersioned(
+          m,
+          CaseRecord,
+          c.id,
+          body.version,
+          { closedOn: body.closedOn, closingNote: body.closingNote ?? null, updatedAt: () => 'now()' },
+          'case',
+        );
+        await audit({
+          action: 'case.closed',
+          subjectType: 'Case',
+          subjectId: c.id,
+          athleteId: c.athleteId,
+          before: { closedOn: null },
+          after: body,
+        });
         await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician closed a case.', orgToday(actor.timeZone));
       });
       const [dto] = await listCases(ds, ability, actor.organizationId, { caseId: params.id }, todayIso(), true);

@@ -80,7 +80,12 @@ async function openCase(c: Client, w: World, over: Record<string, unknown> = {})
 }
 
 const caseRow = async (id: string) =>
-  (await h.ds.query('SELECT organization_id, athlete_id, diagnosis, clinical_notes, review_date::text, closed_on::text, version FROM cases WHERE id = $1', [id]))[0];
+  (
+    await h.ds.query(
+      'SELECT organization_id, athlete_id, diagnosis, clinical_notes, review_date::text, closed_on::text, version FROM cases WHERE id = $1',
+      [id],
+    )
+  )[0];
 const casesOf = async (athleteId: string): Promise<number> =>
   Number((await h.ds.query('SELECT count(*) FROM cases WHERE athlete_id = $1', [athleteId]))[0].count);
 const statusRows = async (caseId: string): Promise<number> =>
@@ -102,11 +107,16 @@ describe('who may do what with a case (SECURITY items 13–15; CONVENTIONS pract
   type Action = 'create' | 'read' | 'update' | 'status' | 'close';
   const call = (c: Client, base: string, action: Action, athleteId: string) => {
     switch (action) {
-      case 'create': return c.post(`${base}/cases`, caseBody(athleteId));
-      case 'read': return c.get(`${base}/cases/${caseId}`);
-      case 'update': return c.patch(`${base}/cases/${caseId}`, { reviewDate: fromToday(30), version: 1 });
-      case 'status': return c.post(`${base}/cases/${caseId}/status`, { status: 'full', effectiveFrom: fromToday(0), version: 1 });
-      case 'close': return c.post(`${base}/cases/${caseId}/close`, { closedOn: fromToday(0), version: 1 });
+      case 'create':
+        return c.post(`${base}/cases`, caseBody(athleteId));
+      case 'read':
+        return c.get(`${base}/cases/${caseId}`);
+      case 'update':
+        return c.patch(`${base}/cases/${caseId}`, { reviewDate: fromToday(30), version: 1 });
+      case 'status':
+        return c.post(`${base}/cases/${caseId}/status`, { status: 'full', effectiveFrom: fromToday(0), version: 1 });
+      case 'close':
+        return c.post(`${base}/cases/${caseId}/close`, { closedOn: fromToday(0), version: 1 });
     }
   };
 
@@ -200,14 +210,81 @@ describe('what each role sees of a case (SECURITY item 16; 45 CFR 164.502(b) min
 
   // The exact response shape of GET /cases/:id per role, sorted: a change here is a permission change.
   const SHAPES: Record<'clinician' | 'coach' | 'athlete' | 'guardian' | 'admin', string[]> = {
-    clinician: ['athleteId', 'athleteName', 'bodyRegions', 'clinicalNotes', 'closedOn', 'closingNote', 'diagnosis', 'id', 'onsetDate', 'openedAt',
-      'openedByName', 'organizationId', 'planId', 'reviewDate', 'status', 'statusEffectiveFrom', 'statusHistory', 'statusNote', 'version'],
-    coach: ['athleteId', 'athleteName', 'bodyRegions', 'closedOn', 'closingNote', 'id', 'onsetDate', 'openedAt',
-      'openedByName', 'organizationId', 'planId', 'reviewDate', 'status', 'statusEffectiveFrom', 'statusHistory', 'statusNote', 'version'],
-    athlete: ['athleteId', 'athleteName', 'bodyRegions', 'closedOn', 'closingNote', 'diagnosis', 'id', 'onsetDate', 'openedAt',
-      'openedByName', 'organizationId', 'planId', 'reviewDate', 'status', 'statusEffectiveFrom', 'statusHistory', 'statusNote', 'version'],
-    guardian: ['athleteId', 'athleteName', 'closedOn', 'id', 'openedAt', 'organizationId', 'planId', 'reviewDate', 'status', 'statusEffectiveFrom',
-      'statusHistory', 'statusNote', 'version'],
+    clinician: [
+      'athleteId',
+      'athleteName',
+      'bodyRegions',
+      'clinicalNotes',
+      'closedOn',
+      'closingNote',
+      'diagnosis',
+      'id',
+      'onsetDate',
+      'openedAt',
+      'openedByName',
+      'organizationId',
+      'planId',
+      'reviewDate',
+      'status',
+      'statusEffectiveFrom',
+      'statusHistory',
+      'statusNote',
+      'version',
+    ],
+    coach: [
+      'athleteId',
+      'athleteName',
+      'bodyRegions',
+      'closedOn',
+      'closingNote',
+      'id',
+      'onsetDate',
+      'openedAt',
+      'openedByName',
+      'organizationId',
+      'planId',
+      'reviewDate',
+      'status',
+      'statusEffectiveFrom',
+      'statusHistory',
+      'statusNote',
+      'version',
+    ],
+    athlete: [
+      'athleteId',
+      'athleteName',
+      'bodyRegions',
+      'closedOn',
+      'closingNote',
+      'diagnosis',
+      'id',
+      'onsetDate',
+      'openedAt',
+      'openedByName',
+      'organizationId',
+      'planId',
+      'reviewDate',
+      'status',
+      'statusEffectiveFrom',
+      'statusHistory',
+      'statusNote',
+      'version',
+    ],
+    guardian: [
+      'athleteId',
+      'athleteName',
+      'closedOn',
+      'id',
+      'openedAt',
+      'organizationId',
+      'planId',
+      'reviewDate',
+      'status',
+      'statusEffectiveFrom',
+      'statusHistory',
+      'statusNote',
+      'version',
+    ],
     admin: ['athleteId', 'athleteName', 'closedOn', 'id', 'openedAt', 'organizationId', 'status', 'statusEffectiveFrom', 'version'],
   };
 
@@ -251,9 +328,18 @@ describe('what each role sees of a case (SECURITY item 16; 45 CFR 164.502(b) min
     const rid = `test-${randomUUID()}`;
     const res = await (await w.as('clinician')).get(`${w.base}/cases/${caseId}`).set('x-request-id', rid);
     expect(res.status).toBe(200);
-    const rows = await h.ds.query('SELECT action, subject_id, athlete_id, actor_user_id, organization_id FROM audit_entries WHERE request_id = $1', [rid]);
+    const rows = await h.ds.query(
+      'SELECT action, subject_id, athlete_id, actor_user_id, organization_id FROM audit_entries WHERE request_id = $1',
+      [rid],
+    );
     expect(rows).toEqual([
-      { action: 'case.viewed', subject_id: caseId, athlete_id: w.org.athlete.membershipId, actor_user_id: w.org.clinician.userId, organization_id: w.org.id },
+      {
+        action: 'case.viewed',
+        subject_id: caseId,
+        athlete_id: w.org.athlete.membershipId,
+        actor_user_id: w.org.clinician.userId,
+        organization_id: w.org.id,
+      },
     ]);
   });
 });
@@ -284,7 +370,12 @@ describe('editing a case', () => {
       expect(Object.keys(res.body.error.fields)).toEqual(Object.keys(extra));
     }
     expect(await caseRow(id)).toEqual(before);
-    expect(before).toMatchObject({ organization_id: w.org.id, athlete_id: w.org.athlete.membershipId, diagnosis: 'Lumbar strain', version: 1 });
+    expect(before).toMatchObject({
+      organization_id: w.org.id,
+      athlete_id: w.org.athlete.membershipId,
+      diagnosis: 'Lumbar strain',
+      version: 1,
+    });
   });
 
   it('a coach trying to write a diagnosis → 403 and nothing changes (SECURITY item 16)', async () => {
@@ -302,11 +393,23 @@ describe('participation status over time (Ardern et al. 2016, BJSM 50:853–864:
     const athleteId = await freshAthlete(w);
     const clin = await w.as('clinician');
     const { id } = await openCase(clin, w, { athleteId, status: 'out', statusEffectiveFrom: fromToday(-10), statusNote: 'Rest' });
-    const limited = await clin.post(`${w.base}/cases/${id}/status`, { status: 'limited', effectiveFrom: fromToday(-5), note: 'Light work', version: 1 });
+    const limited = await clin.post(`${w.base}/cases/${id}/status`, {
+      status: 'limited',
+      effectiveFrom: fromToday(-5),
+      note: 'Light work',
+      version: 1,
+    });
     expect(limited.status, JSON.stringify(limited.body)).toBe(201);
-    const full = await clin.post(`${w.base}/cases/${id}/status`, { status: 'full', effectiveFrom: fromToday(5), note: 'Back to all training', version: 2 });
+    const full = await clin.post(`${w.base}/cases/${id}/status`, {
+      status: 'full',
+      effectiveFrom: fromToday(5),
+      note: 'Back to all training',
+      version: 2,
+    });
     expect(full.status, JSON.stringify(full.body)).toBe(201);
-    expect(full.body.statusHistory.map((s: { status: string; effectiveFrom: string; note: string }) => [s.status, s.effectiveFrom, s.note])).toEqual([
+    expect(
+      full.body.statusHistory.map((s: { status: string; effectiveFrom: string; note: string }) => [s.status, s.effectiveFrom, s.note]),
+    ).toEqual([
       ['full', fromToday(5), 'Back to all training'],
       ['limited', fromToday(-5), 'Light work'],
       ['out', fromToday(-10), 'Rest'],
@@ -345,11 +448,15 @@ describe('participation status over time (Ardern et al. 2016, BJSM 50:853–864:
     };
     expect(await row()).toMatchObject({ status: 'out', statusEffectiveFrom: fromToday(-1), openCaseCount: 2, isMinor: true });
 
-    expect((await clin.post(`${w.base}/cases/${b.id}/status`, { status: 'full', effectiveFrom: fromToday(0), version: 1 })).status).toBe(201);
+    expect((await clin.post(`${w.base}/cases/${b.id}/status`, { status: 'full', effectiveFrom: fromToday(0), version: 1 })).status).toBe(
+      201,
+    );
     expect(await row()).toMatchObject({ status: 'limited', statusEffectiveFrom: fromToday(-3), openCaseCount: 2 });
 
     // A change that starts tomorrow does not count today.
-    expect((await clin.post(`${w.base}/cases/${a.id}/status`, { status: 'out', effectiveFrom: fromToday(1), version: 1 })).status).toBe(201);
+    expect((await clin.post(`${w.base}/cases/${a.id}/status`, { status: 'out', effectiveFrom: fromToday(1), version: 1 })).status).toBe(
+      201,
+    );
     expect((await row()).status).toBe('limited');
 
     expect((await clin.post(`${w.base}/cases/${a.id}/close`, { closedOn: fromToday(0), version: 2 })).status).toBe(200);
@@ -404,8 +511,13 @@ describe('the audit trail of a case (SECURITY item 27)', () => {
     const NOTES2 = `MRI ordered ${randomUUID()}`;
     const { id } = await openCase(clin, w, { athleteId, diagnosis: DIAGNOSIS, clinicalNotes: NOTES });
     expect((await clin.patch(`${w.base}/cases/${id}`, { diagnosis: DIAGNOSIS2, clinicalNotes: NOTES2, version: 1 })).status).toBe(200);
-    expect((await clin.post(`${w.base}/cases/${id}/status`, { status: 'out', effectiveFrom: fromToday(0), note: 'Rest this week', version: 2 })).status).toBe(201);
-    expect((await clin.post(`${w.base}/cases/${id}/close`, { closedOn: fromToday(0), closingNote: 'Resolved', version: 3 })).status).toBe(200);
+    expect(
+      (await clin.post(`${w.base}/cases/${id}/status`, { status: 'out', effectiveFrom: fromToday(0), note: 'Rest this week', version: 2 }))
+        .status,
+    ).toBe(201);
+    expect((await clin.post(`${w.base}/cases/${id}/close`, { closedOn: fromToday(0), closingNote: 'Resolved', version: 3 })).status).toBe(
+      200,
+    );
 
     const rows: { action: string; athlete_id: string; actor_user_id: string; before: unknown; after: unknown }[] = await h.ds.query(
       'SELECT action, athlete_id, actor_user_id, before, after FROM audit_entries WHERE organization_id = $1 AND athlete_id = $2 ORDER BY id',
@@ -414,12 +526,18 @@ describe('the audit trail of a case (SECURITY item 27)', () => {
     expect(rows.map((r) => r.action)).toEqual(['case.opened', 'case.updated', 'status.changed', 'case.closed']);
     for (const r of rows) expect(r).toMatchObject({ athlete_id: athleteId, actor_user_id: w.org.clinician.userId });
     // Nothing about this case was written without the athlete: every entry naming the case is above.
-    const bySubject = await h.ds.query('SELECT count(*) FROM audit_entries WHERE subject_id = $1 AND athlete_id IS DISTINCT FROM $2', [id, athleteId]);
+    const bySubject = await h.ds.query('SELECT count(*) FROM audit_entries WHERE subject_id = $1 AND athlete_id IS DISTINCT FROM $2', [
+      id,
+      athleteId,
+    ]);
     expect(Number(bySubject[0].count)).toBe(0);
     const text = JSON.stringify(rows);
     for (const secret of [DIAGNOSIS, NOTES, DIAGNOSIS2, NOTES2]) expect(text).not.toContain(secret);
     // That the text changed is still recorded, with its length only.
-    expect(rows[1].before).toMatchObject({ diagnosis: `[redacted: ${DIAGNOSIS.length} characters]`, clinicalNotes: `[redacted: ${NOTES.length} characters]` });
+    expect(rows[1].before).toMatchObject({
+      diagnosis: `[redacted: ${DIAGNOSIS.length} characters]`,
+      clinicalNotes: `[redacted: ${NOTES.length} characters]`,
+    });
     expect(rows[1].after).toMatchObject({ clinicalNotes: `[redacted: ${NOTES2.length} characters]` });
     expect(rows[2].before).toMatchObject({ status: 'limited' });
     expect(rows[2].after).toMatchObject({ caseId: id, status: 'out', effectiveFrom: fromToday(0) });
@@ -427,7 +545,12 @@ describe('the audit trail of a case (SECURITY item 27)', () => {
     // The same through the API the clinician browses.
     const api = await clin.get(`${w.base}/audit?athleteId=${athleteId}`);
     expect(api.status).toBe(200);
-    expect(api.body.entries.map((e: { action: string }) => e.action)).toEqual(['case.closed', 'status.changed', 'case.updated', 'case.opened']);
+    expect(api.body.entries.map((e: { action: string }) => e.action)).toEqual([
+      'case.closed',
+      'status.changed',
+      'case.updated',
+      'case.opened',
+    ]);
     for (const secret of [DIAGNOSIS, NOTES, DIAGNOSIS2, NOTES2]) expect(JSON.stringify(api.body)).not.toContain(secret);
   });
 });

@@ -17,9 +17,18 @@ export const flagRoutes: RouteDef[] = [
       const acl = accessibleWhere(ability, 'read', 'Flag', { organizationId: 'f.organization_id', athleteId: 'f.athlete_id', id: 'f.id' });
       const qb = ds
         .createQueryBuilder()
-        .select(['f.id AS id', 'f.athlete_id AS "athleteId"', 'au.display_name AS "athleteName"', 'f.kind AS kind', 'f.severity AS severity',
-          'f.message AS message', 'f.suggested_action AS "suggestedAction"', 'f.created_at AS "createdAt"', 'f.acknowledged_at AS "acknowledgedAt"',
-          'ku.display_name AS "acknowledgedByName"'])
+        .select([
+          'f.id AS id',
+          'f.athlete_id AS "athleteId"',
+          'au.display_name AS "athleteName"',
+          'f.kind AS kind',
+          'f.severity AS severity',
+          'f.message AS message',
+          'f.suggested_action AS "suggestedAction"',
+          'f.created_at AS "createdAt"',
+          'f.acknowledged_at AS "acknowledgedAt"',
+          'ku.display_name AS "acknowledgedByName"',
+        ])
         .from('flags', 'f')
         .innerJoin('memberships', 'am', 'am.id = f.athlete_id')
         .innerJoin('users', 'au', 'au.id = am.user_id')
@@ -32,7 +41,11 @@ export const flagRoutes: RouteDef[] = [
       if (query.state === 'open') qb.andWhere('f.acknowledged_at IS NULL');
       if (query.state === 'acknowledged') qb.andWhere('f.acknowledged_at IS NOT NULL');
       const rows = await qb.getRawMany();
-      return rows.map((r): FlagDto => ({ ...r, createdAt: new Date(r.createdAt).toISOString(), acknowledgedAt: r.acknowledgedAt ? new Date(r.acknowledgedAt).toISOString() : null }));
+      return rows.map((r): FlagDto => ({
+        ...r,
+        createdAt: new Date(r.createdAt).toISOString(),
+        acknowledgedAt: r.acknowledgedAt ? new Date(r.acknowledgedAt).toISOString() : null,
+      }));
     },
   }),
   orgRoute({
@@ -47,7 +60,13 @@ export const flagRoutes: RouteDef[] = [
         authorize(ability, 'update', 'Flag', flag);
         if (flag.acknowledgedAt) return;
         await m.update(Flag, { id: flag.id }, { acknowledgedAt: new Date(), acknowledgedBy: user.id });
-        await audit({ action: 'flag.acknowledged', subjectType: 'Flag', subjectId: flag.id, athleteId: flag.athleteId, after: { kind: flag.kind } });
+        await audit({
+          action: 'flag.acknowledged',
+          subjectType: 'Flag',
+          subjectId: flag.id,
+          athleteId: flag.athleteId,
+          after: { kind: flag.kind },
+        });
       });
       return undefined;
     },

@@ -39,18 +39,38 @@ async function makeWorld(): Promise<World> {
   };
   const base = `/api/orgs/${org.id}`;
   // Pain 7 during, over the default ceiling of 5 (Silbernagel et al. 2007, AJSM 35:897–906).
-  const painful = (athleteId: string) => ({ athleteId, date: '2026-01-05', durationMinutes: 45, sessionRpe: 6, painBefore: 1, painDuring: 7 });
+  const painful = (athleteId: string) => ({
+    athleteId,
+    date: '2026-01-05',
+    durationMinutes: 45,
+    sessionRpe: 6,
+    painBefore: 1,
+    painDuring: 7,
+  });
   const log = await (await as('athlete')).post(`${base}/training-logs`, painful(org.athlete.membershipId));
   const otherLog = await (await as('otherAthlete')).post(`${base}/training-logs`, painful(org.otherAthlete.membershipId));
-  const report = await (await as('athlete')).post(`${base}/pain-reports`, {
-    athleteId: org.athlete.membershipId, bodyRegions: ['lower_back'], painNow: 3, painWorst24h: 5, onsetDate: '2026-01-04', startedInTraining: false,
+  const report = await (
+    await as('athlete')
+  ).post(`${base}/pain-reports`, {
+    athleteId: org.athlete.membershipId,
+    bodyRegions: ['lower_back'],
+    painNow: 3,
+    painWorst24h: 5,
+    onsetDate: '2026-01-04',
+    startedInTraining: false,
     redFlags: { ...allNo(), cancer_history: true },
   });
   for (const r of [log, otherLog, report]) expect(r.status, JSON.stringify(r.body)).toBe(201);
   const flagOf = async (sourceId: string) => (await h.ds.query('SELECT id FROM flags WHERE source_id = $1', [sourceId]))[0].id as string;
   return {
-    org, base, as,
-    flags: { painRule: await flagOf(log.body.log.id), urgent: await flagOf(report.body.report.id), otherPainRule: await flagOf(otherLog.body.log.id) },
+    org,
+    base,
+    as,
+    flags: {
+      painRule: await flagOf(log.body.log.id),
+      urgent: await flagOf(report.body.report.id),
+      otherPainRule: await flagOf(otherLog.body.log.id),
+    },
   };
 }
 let worldOnce: Promise<World> | null = null;
@@ -75,7 +95,10 @@ describe('listing flags (policies/access/athlete-reports.ts: the care team reads
     }
     for (const who of ['otherCoach', 'otherClinician'] as const) {
       const res = await (await w.as(who)).get(`${w.base}/flags?state=all`);
-      expect(res.body.map((f: { id: string }) => f.id), who).toEqual([w.flags.otherPainRule]);
+      expect(
+        res.body.map((f: { id: string }) => f.id),
+        who,
+      ).toEqual([w.flags.otherPainRule]);
     }
   });
 
@@ -88,7 +111,12 @@ describe('listing flags (policies/access/athlete-reports.ts: the care team reads
   it('a flag names its kind, severity and suggestion (Silbernagel et al. 2007: reduce the next session)', async () => {
     const res = await (await w.as('clinician')).get(`${w.base}/flags?state=all&athleteId=${w.org.athlete.membershipId}`);
     const byId = new Map(res.body.map((f: { id: string }) => [f.id, f]));
-    expect(byId.get(w.flags.painRule)).toMatchObject({ kind: 'pain_rule', severity: 'routine', suggestedAction: 'reduce', athleteName: w.org.athlete.name });
+    expect(byId.get(w.flags.painRule)).toMatchObject({
+      kind: 'pain_rule',
+      severity: 'routine',
+      suggestedAction: 'reduce',
+      athleteName: w.org.athlete.name,
+    });
     expect(byId.get(w.flags.urgent)).toMatchObject({ kind: 'red_flag_urgent', severity: 'urgent', suggestedAction: null });
   });
 
@@ -148,13 +176,23 @@ describe('acknowledging a flag', () => {
     expect(row.acknowledged_at).toBeInstanceOf(Date);
     expect(row.acknowledged_by).toBe(w.org.clinician.userId);
     const audit = await h.ds.query('SELECT action, subject_id, athlete_id, actor_user_id FROM audit_entries WHERE request_id = $1', [rid]);
-    expect(audit).toEqual([{ action: 'flag.acknowledged', subject_id: w.flags.painRule, athlete_id: w.org.athlete.membershipId, actor_user_id: w.org.clinician.userId }]);
+    expect(audit).toEqual([
+      {
+        action: 'flag.acknowledged',
+        subject_id: w.flags.painRule,
+        athlete_id: w.org.athlete.membershipId,
+        actor_user_id: w.org.clinician.userId,
+      },
+    ]);
 
     // A second acknowledgement changes nothing and writes no second entry.
     const again = await (await w.as('coach')).post(`${w.base}/flags/${w.flags.painRule}/acknowledge`);
     expect(again.status).toBe(204);
     expect(await flagRow(w.flags.painRule)).toEqual(row);
-    const entries = await h.ds.query(`SELECT count(*)::int AS n FROM audit_entries WHERE action = 'flag.acknowledged' AND subject_id = $1`, [w.flags.painRule]);
+    const entries = await h.ds.query(
+      `SELECT count(*)::int AS n FROM audit_entries WHERE action = 'flag.acknowledged' AND subject_id = $1`,
+      [w.flags.painRule],
+    );
     expect(entries[0].n).toBe(1);
   });
 
@@ -175,9 +213,12 @@ describe('acknowledging a flag', () => {
 
 describe('notifications (everyone reads and clears only their own)', () => {
   let w: World;
-  const idsOf = async (who: Who) => (await (await w.as(who)).get(`${w.base}/notifications`)).body.map((n: { id: string }) => n.id) as string[];
+  const idsOf = async (who: Who) =>
+    (await (await w.as(who)).get(`${w.base}/notifications`)).body.map((n: { id: string }) => n.id) as string[];
   const dbIdsOf = async (m: MemberRef) =>
-    (await h.ds.query('SELECT id FROM notifications WHERE recipient_id = $1', [m.membershipId])).map((r: { id: string }) => r.id) as string[];
+    (await h.ds.query('SELECT id FROM notifications WHERE recipient_id = $1', [m.membershipId])).map(
+      (r: { id: string }) => r.id,
+    ) as string[];
   const readAt = async (id: string) => (await h.ds.query('SELECT read_at FROM notifications WHERE id = $1', [id]))[0].read_at;
 
   beforeAll(async () => {
@@ -191,7 +232,9 @@ describe('notifications (everyone reads and clears only their own)', () => {
     expect((await idsOf('coach')).sort()).toEqual((await dbIdsOf(w.org.coach)).sort());
     const clin = (await (await w.as('clinician')).get(`${w.base}/notifications`)).body;
     expect(clin.map((n: { kind: string }) => n.kind).sort()).toEqual(['pain_rule', 'red_flag_urgent']);
-    expect(clin.every((n: { athleteId: string; readAt: null }) => n.athleteId === w.org.athlete.membershipId && n.readAt === null)).toBe(true);
+    expect(clin.every((n: { athleteId: string; readAt: null }) => n.athleteId === w.org.athlete.membershipId && n.readAt === null)).toBe(
+      true,
+    );
     expect((await idsOf('clinician')).sort()).toEqual((await dbIdsOf(w.org.clinician)).sort());
     expect(await idsOf('otherClinician')).toEqual(await dbIdsOf(w.org.otherClinician));
     expect(await idsOf('otherClinician')).not.toContain(clin[0].id);

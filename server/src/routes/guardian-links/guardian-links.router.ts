@@ -23,7 +23,13 @@ export const guardianLinkRoutes: RouteDef[] = [
         authorize(ability, 'create', 'GuardianLink', { id: '', organizationId: org, ...body });
         try {
           const saved = await m.save(m.create(GuardianLink, { organizationId: org, ...body }));
-          await audit({ action: 'guardian.linked', subjectType: 'GuardianLink', subjectId: saved.id, athleteId: body.athleteId, after: body });
+          await audit({
+            action: 'guardian.linked',
+            subjectType: 'GuardianLink',
+            subjectId: saved.id,
+            athleteId: body.athleteId,
+            after: body,
+          });
           return saved.id;
         } catch (err) {
           if (isUniqueViolation(err)) throw new AppError('conflict', 'That guardian is already linked to this athlete.');
@@ -45,7 +51,13 @@ export const guardianLinkRoutes: RouteDef[] = [
         const row = await m.findOne(GuardianLink, { where: { id: params.id, organizationId: actor.organizationId } });
         authorize(ability, 'delete', 'GuardianLink', row);
         await m.delete(GuardianLink, { id: row.id });
-        await audit({ action: 'guardian.unlinked', subjectType: 'GuardianLink', subjectId: row.id, athleteId: row.athleteId, before: { athleteId: row.athleteId, guardianId: row.guardianId } });
+        await audit({
+          action: 'guardian.unlinked',
+          subjectType: 'GuardianLink',
+          subjectId: row.id,
+          athleteId: row.athleteId,
+          before: { athleteId: row.athleteId, guardianId: row.guardianId },
+        });
       });
       return undefined;
     },

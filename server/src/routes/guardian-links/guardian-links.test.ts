@@ -38,12 +38,21 @@ describe('guardian links, role by role as the access matrix says', () => {
     expect(refusedRoles('delete')).toEqual(['athlete', 'coach', 'clinician', 'guardian']);
   });
 
-  it.each(refusedRoles('create'))('POST /guardian-links as %s (e.g. a guardian linking themselves to another child) → 403 with a reason; nothing is linked', async (role) => {
-    const res = await as[role].post(`/api/orgs/${org.id}/guardian-links`, { athleteId: org.otherAthlete.membershipId, guardianId: org.guardian.membershipId });
-    expect(res.status).toBe(403);
-    expect(res.body.error).toEqual({ code: 'forbidden', message: 'Your role does not allow you to add to guardian links. Ask an admin of your organization if you need this.' });
-    expect(await links(org.otherAthlete.membershipId)).toEqual([]);
-  });
+  it.each(refusedRoles('create'))(
+    'POST /guardian-links as %s (e.g. a guardian linking themselves to another child) → 403 with a reason; nothing is linked',
+    async (role) => {
+      const res = await as[role].post(`/api/orgs/${org.id}/guardian-links`, {
+        athleteId: org.otherAthlete.membershipId,
+        guardianId: org.guardian.membershipId,
+      });
+      expect(res.status).toBe(403);
+      expect(res.body.error).toEqual({
+        code: 'forbidden',
+        message: 'Your role does not allow you to add to guardian links. Ask an admin of your organization if you need this.',
+      });
+      expect(await links(org.otherAthlete.membershipId)).toEqual([]);
+    },
+  );
 
   it.each(refusedRoles('delete'))('DELETE /guardian-links/:id as %s → 403; the link stays', async (role) => {
     const before = await links(org.athlete.membershipId);
@@ -76,7 +85,11 @@ describe('guardian links, role by role as the access matrix says', () => {
     });
 
     it('unknown fields and malformed ids are refused', async () => {
-      const extra = await post({ athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId, organizationId: orgB.id });
+      const extra = await post({
+        athleteId: org.otherAthlete.membershipId,
+        guardianId: org.otherGuardian.membershipId,
+        organizationId: orgB.id,
+      });
       expect(extra.status).toBe(400);
       expect(extra.body.error.fields).toEqual({ organizationId: ['is not an accepted field'] });
       const malformed = await post({ athleteId: 'not-an-id', guardianId: org.otherGuardian.membershipId });
@@ -96,7 +109,10 @@ describe('guardian links, role by role as the access matrix says', () => {
 
   it('an admin of another organization gets 404 linking or unlinking here, and nothing changes', async () => {
     const before = await links(org.athlete.membershipId);
-    const post = await adminB.post(`/api/orgs/${org.id}/guardian-links`, { athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId });
+    const post = await adminB.post(`/api/orgs/${org.id}/guardian-links`, {
+      athleteId: org.otherAthlete.membershipId,
+      guardianId: org.otherGuardian.membershipId,
+    });
     expect(post.status).toBe(404);
     expect((await adminB.delete(`/api/orgs/${org.id}/guardian-links/${before[0].id}`)).status).toBe(404);
     expect((await adminB.delete(`/api/orgs/${orgB.id}/guardian-links/${before[0].id}`)).status).toBe(404);
@@ -106,7 +122,10 @@ describe('guardian links, role by role as the access matrix says', () => {
 
   it('signed out: 401', async () => {
     const anonymous = await Client.anonymous(h.app);
-    const res = await anonymous.post(`/api/orgs/${org.id}/guardian-links`, { athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId });
+    const res = await anonymous.post(`/api/orgs/${org.id}/guardian-links`, {
+      athleteId: org.otherAthlete.membershipId,
+      guardianId: org.otherGuardian.membershipId,
+    });
     expect(res.status).toBe(401);
     expect(await links(org.otherAthlete.membershipId)).toEqual([]);
   });
@@ -127,9 +146,17 @@ describe('guardian-link changes take effect at once', () => {
     expect((await guardian.get(path)).status).toBe(404);
     expect((await guardian.get(`/api/orgs/${org.id}/athletes`)).body).toEqual([]);
 
-    const linked = await admin.post(`/api/orgs/${org.id}/guardian-links`, { athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId });
+    const linked = await admin.post(`/api/orgs/${org.id}/guardian-links`, {
+      athleteId: org.otherAthlete.membershipId,
+      guardianId: org.otherGuardian.membershipId,
+    });
     expect(linked.status).toBe(201);
-    expect(linked.body).toMatchObject({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId, guardianName: org.otherGuardian.name });
+    expect(linked.body).toMatchObject({
+      organizationId: org.id,
+      athleteId: org.otherAthlete.membershipId,
+      guardianId: org.otherGuardian.membershipId,
+      guardianName: org.otherGuardian.name,
+    });
     expect((await guardian.get(path)).status).toBe(200);
     expect((await guardian.get(`/api/orgs/${org.id}/people/${org.otherAthlete.membershipId}`)).status).toBe(200);
 
@@ -141,7 +168,7 @@ describe('guardian-link changes take effect at once', () => {
     expect(await links(org.otherAthlete.membershipId)).toEqual([]);
   });
 
-  it('unlinking a minor\'s only guardian flags the athlete as needing one', async () => {
+  it("unlinking a minor's only guardian flags the athlete as needing one", async () => {
     const path = `/api/orgs/${org.id}/athletes/${org.athlete.membershipId}`;
     const before = (await admin.get(path)).body;
     expect(before).toMatchObject({ isMinor: true, needsGuardian: false });

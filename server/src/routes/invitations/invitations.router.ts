@@ -1,6 +1,12 @@
 import { IsNull } from 'typeorm';
 import type { InvitationPreviewDto } from '../../../../policies/dto';
-import { InvitationAcceptSchema, InvitationCreateSchema, InvitationTokenSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import {
+  InvitationAcceptSchema,
+  InvitationCreateSchema,
+  InvitationTokenSchema,
+  OrgItemParamsSchema,
+  OrgParamsSchema,
+} from '../../../../policies/schemas';
 import { Invitation, Organization, User } from '../../entities';
 import type { Deps } from '../../http/context';
 import { authorize } from '../../core/authorize';
@@ -102,12 +108,23 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
               invitedBy: user.id,
             }),
           );
-          await audit({ action: 'invitation.created', subjectType: 'Invitation', subjectId: saved.id, after: { email: saved.email, roles: saved.roles, expiresAt } });
+          await audit({
+            action: 'invitation.created',
+            subjectType: 'Invitation',
+            subjectId: saved.id,
+            after: { email: saved.email, roles: saved.roles, expiresAt },
+          });
           await enqueueEmail(m, deps.jobs, {
             organizationId: actor.organizationId,
             kind: 'invitation',
             to: saved.email,
-            content: emails.invitation({ organizationName: actor.organizationName, inviterName: user.displayName, roles: saved.roles.map((r) => ROLE_LABELS[r].toLowerCase()).join(' and '), link, expiresAt: expiresAt.toISOString().slice(0, 10) }),
+            content: emails.invitation({
+              organizationName: actor.organizationName,
+              inviterName: user.displayName,
+              roles: saved.roles.map((r) => ROLE_LABELS[r].toLowerCase()).join(' and '),
+              link,
+              expiresAt: expiresAt.toISOString().slice(0, 10),
+            }),
           });
           return saved;
         });

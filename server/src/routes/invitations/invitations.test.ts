@@ -269,7 +269,9 @@ describe('invitations', () => {
     );
     // Neither the password nor the name of an existing account is changed by an invitation.
     expect(after).toEqual(before);
-    const memberships: { n: number }[] = await h.ds.query('SELECT count(*)::int AS n FROM memberships WHERE user_id = $1', [org.coach.userId]);
+    const memberships: { n: number }[] = await h.ds.query('SELECT count(*)::int AS n FROM memberships WHERE user_id = $1', [
+      org.coach.userId,
+    ]);
     expect(memberships[0].n).toBe(1);
   });
 
@@ -289,7 +291,13 @@ describe('invitations', () => {
     const admin = await adminOf(org);
     const email = uniqueEmail('guardian');
     const inv = await invite(admin, org.id, { email, roles: ['guardian'] });
-    const { res } = await accept({ token: inv.token, displayName: 'Greedy', password: NEW_PASSWORD, roles: ['admin'], organizationId: org.id });
+    const { res } = await accept({
+      token: inv.token,
+      displayName: 'Greedy',
+      password: NEW_PASSWORD,
+      roles: ['admin'],
+      organizationId: org.id,
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('roles');
     expect(res.body.error.fields).toHaveProperty('organizationId');
@@ -388,7 +396,9 @@ describe('invitation rate limits are per link, not one bucket for everyone', () 
     const tries = h.config.SIGNIN_MAX_FAILURES_PER_ACCOUNT + 2;
     for (let i = 0; i < tries; i++) {
       expect((await stranger.post('/api/invitations/preview', { token: unknownToken() })).status).toBe(404);
-      expect((await stranger.post('/api/invitations/accept', { token: unknownToken(), displayName: 'X', password: NEW_PASSWORD })).status).toBe(404);
+      expect(
+        (await stranger.post('/api/invitations/accept', { token: unknownToken(), displayName: 'X', password: NEW_PASSWORD })).status,
+      ).toBe(404);
     }
 
     const newcomer = await Client.anonymous(h.app);

@@ -17,7 +17,12 @@ describe('GET /api/orgs/:orgId/deliveries', () => {
     const res = await admin.get(`/api/orgs/${a.id}/deliveries`);
     expect(res.status).toBe(200);
     expect(res.body).toHaveLength(1);
-    expect(res.body[0]).toMatchObject({ to: 'x@test.example', status: 'failed', attempts: 6, lastError: 'connect ECONNREFUSED 127.0.0.1:1' });
+    expect(res.body[0]).toMatchObject({
+      to: 'x@test.example',
+      status: 'failed',
+      attempts: 6,
+      lastError: 'connect ECONNREFUSED 127.0.0.1:1',
+    });
     const coach = await signedIn(h.app, a.coach.email, TEST_PASSWORD);
     expect((await coach.get(`/api/orgs/${a.id}/deliveries`)).status).toBe(403);
     expect((await admin.get(`/api/orgs/${b.id}/deliveries`)).status).toBe(404);

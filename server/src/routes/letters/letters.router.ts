@@ -2,7 +2,13 @@ import { createHash } from 'node:crypto';
 import { z } from 'zod';
 import type { DeliveryDto, LetterCheckDto, OutboxMessageDto } from '../../../../policies/dto';
 import {
-  CheckCodeSchema, LetterCreateSchema, LetterSignSchema, LetterUpdateSchema, OrgItemParamsSchema, OrgParamsSchema, UuidSchema,
+  CheckCodeSchema,
+  LetterCreateSchema,
+  LetterSignSchema,
+  LetterUpdateSchema,
+  OrgItemParamsSchema,
+  OrgParamsSchema,
+  UuidSchema,
 } from '../../../../policies/schemas';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import { limitStore } from '../../http/security';
@@ -15,7 +21,15 @@ import type { Deps } from '../../http/context';
 import { orgRoute, publicRoute, type RouteDef } from '../../http/route';
 import { enqueueEmail } from '../../mail/deliveries';
 import { athleteCircle } from '../../services/notify';
-import { hashCode, initials, limitsInForce, listLetters, newVerificationCode, signedLetterDates, standingToday } from '../../services/letters';
+import {
+  hashCode,
+  initials,
+  limitsInForce,
+  listLetters,
+  newVerificationCode,
+  signedLetterDates,
+  standingToday,
+} from '../../services/letters';
 import { updateVersioned } from '../../services/versioned';
 
 function sendPdf(res: import('express').Response, pdf: Buffer, filename: string) {
@@ -26,7 +40,10 @@ function sendPdf(res: import('express').Response, pdf: Buffer, filename: string)
 }
 
 async function athleteName(db: { query: (q: string, p: unknown[]) => Promise<{ name: string }[]> }, id: string) {
-  return (await db.query(`SELECT u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = $1`, [id]))[0]?.name ?? '';
+  return (
+    (await db.query(`SELECT u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = $1`, [id]))[0]?.name ??
+    ''
+  );
 }
 
 export function letterRoutes(deps: Deps): RouteDef[] {
@@ -63,12 +80,30 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       async handler({ ds, ability, actor, user, body, tx }) {
         authorize(ability, 'create', 'Letter', { id: '', organizationId: actor.organizationId, athleteId: body.athleteId });
         const id = await tx(async (m, audit) => {
-          const limits = body.decision === 'full' ? [] : body.limits ?? (await limitsInForce(m, body.athleteId, body.effectiveFrom));
-          const saved = await m.save(m.create(ClearanceLetter, {
-            organizationId: actor.organizationId, athleteId: body.athleteId, decision: body.decision, effectiveFrom: body.effectiveFrom, validUntil: body.validUntil ?? null,
-            limits, clinicianName: user.displayName, credential: body.credential, licenceNumber: body.licenceNumber, familyNote: body.familyNote, status: 'draft', createdBy: user.id,
-          }));
-          await audit({ action: 'letter.drafted', subjectType: 'Letter', subjectId: saved.id, athleteId: body.athleteId, after: { ...body, limits } });
+          const limits = body.decision === 'full' ? [] : (body.limits ?? (await limitsInForce(m, body.athleteId, body.effectiveFrom)));
+          const saved = await m.save(
+            m.create(ClearanceLetter, {
+              organizationId: actor.organizationId,
+              athleteId: body.athleteId,
+              decision: body.decision,
+              effectiveFrom: body.effectiveFrom,
+              validUntil: body.validUntil ?? null,
+              limits,
+              clinicianName: user.displayName,
+              credential: body.credential,
+              licenceNumber: body.licenceNumber,
+              familyNote: body.familyNote,
+              status: 'draft',
+              createdBy: user.id,
+            }),
+          );
+          await audit({
+            action: 'letter.drafted',
+            subjectType: 'Letter',
+            subjectId: saved.id,
+            athleteId: body.athleteId,
+            after: { ...body, limits },
+          });
           return saved.id;
         });
         return (await listLetters(ds, ability, actor.organizationId, { id }))[0];
@@ -86,7 +121,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
         await tx(async (m, audit) => {
           const l = await m.findOne(ClearanceLetter, { where: { id: params.id, organizationId: actor.organizationId } });
           authorize(ability, 'update', 'Letter', l);
-          if (l.status !== 'draft') throw new AppError('conflict', 'This letter is signed and frozen. Issue a new letter instead; it will supersede this one.');
+          if (l.status !== 'draft')
+            throw new AppError('conflict', 'This letter is signed and frozen. Issue a new letter instead; it will supersede this one.');
           await updateVersioned(m, ClearanceLetter, l.id, version, { ...changes, updatedAt: () => 'now()' }, 'letter');
           await audit({ action: 'letter.edited', subjectType: 'Letter', subjectId: l.id, athleteId: l.athleteId, after: changes });
         });
@@ -103,7 +139,14 @@ export function letterRoutes(deps: Deps): RouteDef[] {
         const l = await ds.getRepository(ClearanceLetter).findOne({ where: { id: params.id, organizationId: actor.organizationId } });
         authorize(ability, 'update', 'Letter', l);
         const org = await ds.getRepository(Organization).findOneByOrFail({ id: actor.organizationId });
-        const pdf = await renderLetterPdf({ ...letterData(l, org.name, await athleteName(ds, l.athleteId)), draft: true, verificationCode: '', checkUrl: '', signature: '', signedAt: new Date().toISOString() });
+        const pdf = await renderLetterPdf({
+          ...letterData(l, org.name, await athleteName(ds, l.athleteId)),
+          draft: true,
+          verificationCode: '',
+          checkUrl: '',
+          signature: '',
+          signedAt: new Date().toISOString(),
+        });
         sendPdf(res, pdf, `draft-letter-${l.effectiveFrom}.pdf`);
         return pdf;
       },
@@ -121,21 +164,59 @@ export function letterRoutes(deps: Deps): RouteDef[] {
           const l = await m.findOne(ClearanceLetter, { where: { id: params.id, organizationId: actor.organizationId } });
           authorize(ability, 'update', 'Letter', l);
           if (l.status !== 'draft') throw new AppError('conflict', 'This letter is already signed.');
-          if (l.version !== body.version) throw new AppError('version_conflict', 'Someone changed this letter after you opened it. Reload it, check it, then sign.');
+          if (l.version !== body.version)
+            throw new AppError('version_conflict', 'Someone changed this letter after you opened it. Reload it, check it, then sign.');
           const org = await m.findOneByOrFail(Organization, { id: actor.organizationId });
           const name = await athleteName(m, l.athleteId);
           const signedAt = new Date();
           const checkUrl = `${publicBase(req)}/check/${code}`;
-          const pdf = await renderLetterPdf({ ...letterData(l, org.name, name), signature: body.signature, signedAt: signedAt.toISOString(), verificationCode: code, checkUrl });
+          const pdf = await renderLetterPdf({
+            ...letterData(l, org.name, name),
+            signature: body.signature,
+            signedAt: signedAt.toISOString(),
+            verificationCode: code,
+            checkUrl,
+          });
           const sha = createHash('sha256').update(pdf).digest('hex');
-          await updateVersioned(m, ClearanceLetter, l.id, body.version, {
-            status: 'signed', signature: body.signature, signedAt, codeHash: hashCode(code), pdf, pdfSha256: sha, clinicianName: user.displayName, updatedAt: () => 'now()',
-          }, 'letter');
+          await updateVersioned(
+            m,
+            ClearanceLetter,
+            l.id,
+            body.version,
+            {
+              status: 'signed',
+              signature: body.signature,
+              signedAt,
+              codeHash: hashCode(code),
+              pdf,
+              pdfSha256: sha,
+              clinicianName: user.displayName,
+              updatedAt: () => 'now()',
+            },
+            'letter',
+          );
           // Records that this letter replaces every earlier signed one for the athlete. It takes over only on
           // its start date: until then the earlier letter is still the one in force (see standingToday).
-          const superseded = await m.createQueryBuilder().update(ClearanceLetter).set({ status: 'superseded', supersededBy: l.id } as never)
-            .where(`athlete_id = :a AND status = 'signed' AND id <> :id`, { a: l.athleteId, id: l.id }).returning('id').execute();
-          await audit({ action: 'letter.signed', subjectType: 'Letter', subjectId: l.id, athleteId: l.athleteId, after: { decision: l.decision, effectiveFrom: l.effectiveFrom, validUntil: l.validUntil, pdfSha256: sha, supersedes: (superseded.raw as { id: string }[]).map((r) => r.id) } });
+          const superseded = await m
+            .createQueryBuilder()
+            .update(ClearanceLetter)
+            .set({ status: 'superseded', supersededBy: l.id } as never)
+            .where(`athlete_id = :a AND status = 'signed' AND id <> :id`, { a: l.athleteId, id: l.id })
+            .returning('id')
+            .execute();
+          await audit({
+            action: 'letter.signed',
+            subjectType: 'Letter',
+            subjectId: l.id,
+            athleteId: l.athleteId,
+            after: {
+              decision: l.decision,
+              effectiveFrom: l.effectiveFrom,
+              validUntil: l.validUntil,
+              pdfSha256: sha,
+              supersedes: (superseded.raw as { id: string }[]).map((r) => r.id),
+            },
+          });
           const circle = await athleteCircle(m, l.athleteId);
           const recipients: { id: string; email: string; name: string }[] = await m.query(
             `SELECT m.id, u.email, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
@@ -143,8 +224,18 @@ export function letterRoutes(deps: Deps): RouteDef[] {
           );
           for (const r of recipients) {
             await enqueueEmail(m, deps.jobs, {
-              organizationId: actor.organizationId, kind: 'letter', to: r.email, recipientId: r.id, letterId: l.id,
-              content: emails.letter({ name: r.name, athleteName: name, decision: decisionWords(l), organizationName: org.name, url: `${publicBase(req)}/` }),
+              organizationId: actor.organizationId,
+              kind: 'letter',
+              to: r.email,
+              recipientId: r.id,
+              letterId: l.id,
+              content: emails.letter({
+                name: r.name,
+                athleteName: name,
+                decision: decisionWords(l),
+                organizationName: org.name,
+                url: `${publicBase(req)}/`,
+              }),
             });
           }
           return { athleteId: l.athleteId };
@@ -160,7 +251,12 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       access: { kind: 'org', action: 'read', subject: 'Letter' },
       params: OrgItemParamsSchema,
       async handler({ ds, ability, actor, params, res, tx }) {
-        const l = await ds.getRepository(ClearanceLetter).createQueryBuilder('l').addSelect('l.pdf').where('l.id = :id AND l.organization_id = :org', { id: params.id, org: actor.organizationId }).getOne();
+        const l = await ds
+          .getRepository(ClearanceLetter)
+          .createQueryBuilder('l')
+          .addSelect('l.pdf')
+          .where('l.id = :id AND l.organization_id = :org', { id: params.id, org: actor.organizationId })
+          .getOne();
         authorize(ability, 'read', 'Letter', l, 'content');
         if (!l.pdf) throw new AppError('not_found', 'This letter is not signed yet, so it has no PDF. Use the preview.');
         await tx((_m, audit) => audit({ action: 'letter.downloaded', subjectType: 'Letter', subjectId: l.id, athleteId: l.athleteId }));
@@ -180,8 +276,15 @@ export function letterRoutes(deps: Deps): RouteDef[] {
           authorize(ability, 'read', 'Letter', l, 'content');
           authorize(ability, 'create', 'LetterAcknowledgement', { organizationId: l.organizationId, athleteId: l.athleteId });
           if (l.status === 'draft') throw new AppError('not_found', 'That letter was not found.');
-          const inserted = await m.createQueryBuilder().insert().into(LetterAcknowledgement).values({ letterId: l.id, guardianId: actor.membershipId }).orIgnore().execute();
-          if ((inserted.raw as unknown[]).length) await audit({ action: 'letter.acknowledged', subjectType: 'Letter', subjectId: l.id, athleteId: l.athleteId });
+          const inserted = await m
+            .createQueryBuilder()
+            .insert()
+            .into(LetterAcknowledgement)
+            .values({ letterId: l.id, guardianId: actor.membershipId })
+            .orIgnore()
+            .execute();
+          if ((inserted.raw as unknown[]).length)
+            await audit({ action: 'letter.acknowledged', subjectType: 'Letter', subjectId: l.id, athleteId: l.athleteId });
         });
         return (await listLetters(ds, ability, actor.organizationId, { id: params.id }))[0];
       },
@@ -194,7 +297,16 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       before: [checkLimit],
       body: CheckCodeSchema,
       async handler({ ds, body }) {
-        const rows: { id: string; athlete_id: string; decision: 'full' | 'limited'; effective_from: string; valid_until: string | null; signed_at: Date; org: string; name: string }[] = await ds.query(
+        const rows: {
+          id: string;
+          athlete_id: string;
+          decision: 'full' | 'limited';
+          effective_from: string;
+          valid_until: string | null;
+          signed_at: Date;
+          org: string;
+          name: string;
+        }[] = await ds.query(
           `SELECT l.id, l.athlete_id, l.decision, l.effective_from, l.valid_until, l.signed_at, o.name AS org, u.display_name AS name
              FROM clearance_letters l JOIN organizations o ON o.id = l.organization_id
              JOIN memberships m ON m.id = l.athlete_id JOIN users u ON u.id = m.user_id
@@ -223,17 +335,31 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       access: { kind: 'org', action: 'read', subject: 'Outbox' },
       params: OrgParamsSchema,
       async handler({ ds, actor }) {
-        if (deps.config.FAKE_MAIL !== 'true') throw new AppError('not_found', 'The outbox exists only while the local fake mail server is in use.');
+        if (deps.config.FAKE_MAIL !== 'true')
+          throw new AppError('not_found', 'The outbox exists only while the local fake mail server is in use.');
         // The mailbox is shared by every organization: only messages of this organization's deliveries
         // (matched by the Message-ID deliver() sets) are listed (SECURITY item 15).
-        const rows: { id: string; received_at: Date; envelope_to: string[]; subject: string | null; text_body: string | null; attachments: OutboxMessageDto['attachments'] }[] =
-          await ds.query(
-            `SELECT f.id, f.received_at, f.envelope_to, f.subject, f.text_body, f.attachments FROM fake_mailbox f
+        const rows: {
+          id: string;
+          received_at: Date;
+          envelope_to: string[];
+          subject: string | null;
+          text_body: string | null;
+          attachments: OutboxMessageDto['attachments'];
+        }[] = await ds.query(
+          `SELECT f.id, f.received_at, f.envelope_to, f.subject, f.text_body, f.attachments FROM fake_mailbox f
               WHERE EXISTS (SELECT 1 FROM email_deliveries d WHERE d.organization_id = $1 AND f.message_id = '<' || d.id || '@loadline.invalid>')
               ORDER BY f.id DESC LIMIT 200`,
-            [actor.organizationId],
-          );
-        return rows.map((r): OutboxMessageDto => ({ id: String(r.id), receivedAt: new Date(r.received_at).toISOString(), to: r.envelope_to, subject: r.subject, text: r.text_body, attachments: r.attachments }));
+          [actor.organizationId],
+        );
+        return rows.map((r): OutboxMessageDto => ({
+          id: String(r.id),
+          receivedAt: new Date(r.received_at).toISOString(),
+          to: r.envelope_to,
+          subject: r.subject,
+          text: r.text_body,
+          attachments: r.attachments,
+        }));
       },
     }),
     orgRoute({
@@ -243,24 +369,52 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       access: { kind: 'org', action: 'read', subject: 'Outbox' },
       params: OrgParamsSchema,
       async handler({ ds, actor }) {
-        const rows: { id: string; kind: string; to_address: string; subject: string; status: DeliveryDto['status']; attempts: number; last_error: string | null; created_at: Date; sent_at: Date | null }[] =
-          await ds.query(
-            `SELECT id, kind, to_address, subject, status, attempts, last_error, created_at, sent_at FROM email_deliveries
+        const rows: {
+          id: string;
+          kind: string;
+          to_address: string;
+          subject: string;
+          status: DeliveryDto['status'];
+          attempts: number;
+          last_error: string | null;
+          created_at: Date;
+          sent_at: Date | null;
+        }[] = await ds.query(
+          `SELECT id, kind, to_address, subject, status, attempts, last_error, created_at, sent_at FROM email_deliveries
               WHERE organization_id = $1 ORDER BY created_at DESC LIMIT 300`,
-            [actor.organizationId],
-          );
+          [actor.organizationId],
+        );
         return rows.map((r): DeliveryDto => ({
-          id: r.id, kind: r.kind, to: r.to_address, subject: r.subject, status: r.status, attempts: r.attempts, lastError: r.last_error,
-          createdAt: new Date(r.created_at).toISOString(), sentAt: r.sent_at ? new Date(r.sent_at).toISOString() : null,
+          id: r.id,
+          kind: r.kind,
+          to: r.to_address,
+          subject: r.subject,
+          status: r.status,
+          attempts: r.attempts,
+          lastError: r.last_error,
+          createdAt: new Date(r.created_at).toISOString(),
+          sentAt: r.sent_at ? new Date(r.sent_at).toISOString() : null,
         }));
       },
     }),
   ];
 }
 
-function letterData(l: ClearanceLetter, organizationName: string, athleteName: string): Omit<LetterData, 'signature' | 'signedAt' | 'verificationCode' | 'checkUrl'> {
+function letterData(
+  l: ClearanceLetter,
+  organizationName: string,
+  athleteName: string,
+): Omit<LetterData, 'signature' | 'signedAt' | 'verificationCode' | 'checkUrl'> {
   return {
-    organizationName, athleteName, decision: l.decision, effectiveFrom: l.effectiveFrom, validUntil: l.validUntil, limits: l.limits,
-    clinicianName: l.clinicianName, credential: l.credential, licenceNumber: l.licenceNumber, familyNote: l.familyNote,
+    organizationName,
+    athleteName,
+    decision: l.decision,
+    effectiveFrom: l.effectiveFrom,
+    validUntil: l.validUntil,
+    limits: l.limits,
+    clinicianName: l.clinicianName,
+    credential: l.credential,
+    licenceNumber: l.licenceNumber,
+    familyNote: l.familyNote,
   };
 }

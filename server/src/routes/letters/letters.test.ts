@@ -32,8 +32,17 @@ interface World {
  */
 async function makeWorld(): Promise<World> {
   const org = await createOrg(h.ds);
-  await h.ds.getRepository(CareTeamAssignment).save({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, memberId: org.otherClinician.membershipId, role: 'clinician' });
-  await h.ds.getRepository(GuardianLink).save({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId });
+  await h.ds
+    .getRepository(CareTeamAssignment)
+    .save({
+      organizationId: org.id,
+      athleteId: org.otherAthlete.membershipId,
+      memberId: org.otherClinician.membershipId,
+      role: 'clinician',
+    });
+  await h.ds
+    .getRepository(GuardianLink)
+    .save({ organizationId: org.id, athleteId: org.otherAthlete.membershipId, guardianId: org.otherGuardian.membershipId });
   const clients = new Map<Who, Promise<Client>>();
   const as = (who: Who) => {
     if (!clients.has(who)) clients.set(who, signedIn(h.app, (org[who] as MemberRef).email, TEST_PASSWORD));
@@ -54,7 +63,9 @@ async function freshAthlete(w: World, name?: string): Promise<MemberRef> {
     { organizationId: w.org.id, athleteId: a.membershipId, memberId: w.org.coach.membershipId, role: 'coach' },
     { organizationId: w.org.id, athleteId: a.membershipId, memberId: w.org.clinician.membershipId, role: 'clinician' },
   ]);
-  await h.ds.getRepository(GuardianLink).save({ organizationId: w.org.id, athleteId: a.membershipId, guardianId: w.org.guardian.membershipId });
+  await h.ds
+    .getRepository(GuardianLink)
+    .save({ organizationId: w.org.id, athleteId: a.membershipId, guardianId: w.org.guardian.membershipId });
   return a;
 }
 
@@ -76,7 +87,9 @@ async function draftLetter(w: World, athleteId: string, over: Record<string, unk
 }
 
 async function signLetter(w: World, letter: { id: string; version: number }) {
-  const res = await (await w.as('clinician')).post(`${w.base}/letters/${letter.id}/sign`, { signature: w.org.clinician.name, version: letter.version });
+  const res = await (
+    await w.as('clinician')
+  ).post(`${w.base}/letters/${letter.id}/sign`, { signature: w.org.clinician.name, version: letter.version });
   expect(res.status, JSON.stringify(res.body)).toBe(200);
   return res.body as { id: string; verificationCode: string; pdfSha256: string; status: string; version: number };
 }
@@ -106,8 +119,13 @@ async function pdfText(bytes: Buffer): Promise<string> {
 
 const oneLine = (s: string) => s.replace(/\s+/g, ' ');
 
-async function auditActions(subjectId: string): Promise<{ action: string; actor_user_id: string | null; organization_id: string; after: Record<string, unknown> | null }[]> {
-  return h.ds.query(`SELECT action, actor_user_id, organization_id, after FROM audit_entries WHERE subject_type = 'Letter' AND subject_id = $1 ORDER BY id`, [subjectId]);
+async function auditActions(
+  subjectId: string,
+): Promise<{ action: string; actor_user_id: string | null; organization_id: string; after: Record<string, unknown> | null }[]> {
+  return h.ds.query(
+    `SELECT action, actor_user_id, organization_id, after FROM audit_entries WHERE subject_type = 'Letter' AND subject_id = $1 ORDER BY id`,
+    [subjectId],
+  );
 }
 
 const check = async (code: string) => (await Client.anonymous(h.app)).post('/api/check', { code });
@@ -128,14 +146,31 @@ describe('the signed letter PDF', () => {
     athlete = w.org.athlete;
     // The athlete's file holds a case with a diagnosis and notes, and a pain report with a narrative:
     // none of it belongs on a letter that coaches, schools and the public check page see.
-    const c = await (await w.as('clinician')).post(`${w.base}/cases`, {
-      athleteId: athlete.membershipId, bodyRegions: ['knee_left'], onsetDate: '2026-01-10', diagnosis: DIAGNOSIS, clinicalNotes: NOTES,
-      status: 'limited', statusEffectiveFrom: '2026-01-11', statusNote: STATUS_NOTE,
+    const c = await (
+      await w.as('clinician')
+    ).post(`${w.base}/cases`, {
+      athleteId: athlete.membershipId,
+      bodyRegions: ['knee_left'],
+      onsetDate: '2026-01-10',
+      diagnosis: DIAGNOSIS,
+      clinicalNotes: NOTES,
+      status: 'limited',
+      statusEffectiveFrom: '2026-01-11',
+      statusNote: STATUS_NOTE,
     });
     expect(c.status, JSON.stringify(c.body)).toBe(201);
-    const pain = await (await w.as('athlete')).post(`${w.base}/pain-reports`, {
-      athleteId: athlete.membershipId, bodyRegions: ['knee_left'], painNow: 3, painWorst24h: 5, onsetDate: todayIso(), aggravatingPatterns: ['squat'],
-      startedInTraining: true, note: PAIN_NOTE, redFlags: Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false])),
+    const pain = await (
+      await w.as('athlete')
+    ).post(`${w.base}/pain-reports`, {
+      athleteId: athlete.membershipId,
+      bodyRegions: ['knee_left'],
+      painNow: 3,
+      painWorst24h: 5,
+      onsetDate: todayIso(),
+      aggravatingPatterns: ['squat'],
+      startedInTraining: true,
+      note: PAIN_NOTE,
+      redFlags: Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false])),
     });
     expect(pain.status, JSON.stringify(pain.body)).toBe(201);
     signed = await signedLetter(w, athlete.membershipId);
@@ -179,14 +214,22 @@ describe('the signed letter PDF', () => {
     expect(Buffer.compare(row.pdf, pdf)).toBe(0);
     // Downloaded again by someone else: the same frozen bytes, never re-rendered.
     const again = await binary((await w.as('guardian')).get(`${w.base}/letters/${signed.id}/pdf`));
-    expect(createHash('sha256').update(again.body as Buffer).digest('hex')).toBe(sha);
+    expect(
+      createHash('sha256')
+        .update(again.body as Buffer)
+        .digest('hex'),
+    ).toBe(sha);
   });
 
   it('the athlete downloads their own letter (and may not acknowledge it); another athlete gets 404', async () => {
     const me = await w.as('athlete');
     const mine = await binary(me.get(`${w.base}/letters/${signed.id}/pdf`));
     expect(mine.status).toBe(200);
-    expect(createHash('sha256').update(mine.body as Buffer).digest('hex')).toBe(signed.pdfSha256);
+    expect(
+      createHash('sha256')
+        .update(mine.body as Buffer)
+        .digest('hex'),
+    ).toBe(signed.pdfSha256);
     expect((await me.post(`${w.base}/letters/${signed.id}/acknowledge`)).status).toBe(403);
     const other = await w.as('otherAthlete');
     expect((await other.get(`${w.base}/letters/${signed.id}/pdf`)).status).toBe(404);
@@ -220,18 +263,41 @@ describe('a limited letter', () => {
     const w = await world();
     const athlete = await freshAthlete(w);
     const clin = await w.as('clinician');
-    const c = await clin.post(`${w.base}/cases`, { athleteId: athlete.membershipId, bodyRegions: ['lower_back'], onsetDate: '2026-02-20', status: 'limited', statusEffectiveFrom: '2026-02-21' });
+    const c = await clin.post(`${w.base}/cases`, {
+      athleteId: athlete.membershipId,
+      bodyRegions: ['lower_back'],
+      onsetDate: '2026-02-20',
+      status: 'limited',
+      statusEffectiveFrom: '2026-02-21',
+    });
     expect(c.status, JSON.stringify(c.body)).toBe(201);
     const plan = await clin.post(`${w.base}/cases/${c.body.id}/plan`, {
       guidance: 'Easy does it',
       stages: [
-        { id: randomUUID(), label: 'Protect', startDate: '2026-03-01', endDate: '2026-03-20', painCeiling: 3, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, jump: { mode: 'blocked' } } },
-        { id: randomUUID(), label: 'Build', startDate: '2026-03-21', endDate: '2026-04-10', patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 80 } } } },
+        {
+          id: randomUUID(),
+          label: 'Protect',
+          startDate: '2026-03-01',
+          endDate: '2026-03-20',
+          painCeiling: 3,
+          patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, jump: { mode: 'blocked' } },
+        },
+        {
+          id: randomUUID(),
+          label: 'Build',
+          startDate: '2026-03-21',
+          endDate: '2026-04-10',
+          patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 80 } } },
+        },
       ],
     });
     expect(plan.status, JSON.stringify(plan.body)).toBe(201);
 
-    const draft = await draftLetter(w, athlete.membershipId, { decision: 'limited', effectiveFrom: '2026-03-05', validUntil: '2026-03-20' });
+    const draft = await draftLetter(w, athlete.membershipId, {
+      decision: 'limited',
+      effectiveFrom: '2026-03-05',
+      validUntil: '2026-03-20',
+    });
     const expected = ['Hinge: up to 60% of your best lift, effort RPE 7 or easier', 'Jump / landing: not allowed for now'];
     expect(draft.limits).toEqual(expected);
     const signed = await signLetter(w, draft);
@@ -311,11 +377,15 @@ describe('drafts, edits and signing', () => {
     expect((await (await w.as('clinician')).get(`${w.base}/letters/${draft.id}/pdf`)).status).toBe(404);
   });
 
-  it('a draft is the clinicians\' working copy: the athlete, guardian and coach do not see it until it is signed', async () => {
+  it("a draft is the clinicians' working copy: the athlete, guardian and coach do not see it until it is signed", async () => {
     const w = await world();
     const athlete = w.org.athlete;
     const draft = await draftLetter(w, athlete.membershipId, { effectiveFrom: '2026-03-20', validUntil: null });
-    const viewers: [string, Client][] = [['athlete', await w.as('athlete')], ['guardian', await w.as('guardian')], ['coach', await w.as('coach')]];
+    const viewers: [string, Client][] = [
+      ['athlete', await w.as('athlete')],
+      ['guardian', await w.as('guardian')],
+      ['coach', await w.as('coach')],
+    ];
     const ids = async (c: Client) => {
       const list = await c.get(`${w.base}/letters?athleteId=${athlete.membershipId}`);
       expect(list.status).toBe(200);
@@ -327,7 +397,7 @@ describe('drafts, edits and signing', () => {
     for (const [who, c] of viewers) expect(await ids(c), who).toContain(`${draft.id} signed`);
   });
 
-  it('a new letter supersedes the athlete\'s earlier signed letter', async () => {
+  it("a new letter supersedes the athlete's earlier signed letter", async () => {
     const w = await world();
     const athlete = await freshAthlete(w);
     const other = await freshAthlete(w);
@@ -359,12 +429,20 @@ describe('a letter signed to start later', () => {
     const standings = async () => {
       const list = await (await w.as('guardian')).get(`${w.base}/letters?athleteId=${athlete.membershipId}`);
       expect(list.status).toBe(200);
-      return Object.fromEntries(list.body.map((l: { id: string; status: string; supersededBy: string | null }) => [l.id, { status: l.status, supersededBy: l.supersededBy }]));
+      return Object.fromEntries(
+        list.body.map((l: { id: string; status: string; supersededBy: string | null }) => [
+          l.id,
+          { status: l.status, supersededBy: l.supersededBy },
+        ]),
+      );
     };
 
     // B is signed and sent but has not started: A is still the letter in force.
     expect(b.status).toBe('scheduled');
-    expect(await standings()).toEqual({ [a.id]: { status: 'signed', supersededBy: null }, [b.id]: { status: 'scheduled', supersededBy: null } });
+    expect(await standings()).toEqual({
+      [a.id]: { status: 'signed', supersededBy: null },
+      [b.id]: { status: 'scheduled', supersededBy: null },
+    });
     expect((await check(a.verificationCode)).body.status).toBe('valid');
     expect((await check(b.verificationCode)).body).toMatchObject({ status: 'scheduled', effectiveFrom: plusDays(today, 7) });
     // Signing still records who replaces whom, in the row and in the audit entry.
@@ -374,7 +452,10 @@ describe('a letter signed to start later', () => {
 
     // A week on (both start dates moved back instead): B has started, so A is superseded.
     await h.ds.query(`UPDATE clearance_letters SET effective_from = effective_from - 8 WHERE id = ANY($1)`, [[a.id, b.id]]);
-    expect(await standings()).toEqual({ [a.id]: { status: 'superseded', supersededBy: b.id }, [b.id]: { status: 'signed', supersededBy: null } });
+    expect(await standings()).toEqual({
+      [a.id]: { status: 'superseded', supersededBy: b.id },
+      [b.id]: { status: 'signed', supersededBy: null },
+    });
     expect((await check(a.verificationCode)).body.status).toBe('superseded');
     expect((await check(b.verificationCode)).body.status).toBe('valid');
   });
@@ -448,10 +529,14 @@ describe('who may do what with a letter', () => {
     const draft = await draftLetter(w, athlete.membershipId);
     expect((await c.patch(`${w.base}/letters/${draft.id}`, { familyNote: 'x', version: draft.version })).status).toBe(404);
     expect((await c.post(`${w.base}/letters/${draft.id}/sign`, { signature: 'x', version: draft.version })).status).toBe(404);
-    const before = Number((await h.ds.query(`SELECT count(*) FROM clearance_letters WHERE athlete_id = $1`, [athlete.membershipId]))[0].count);
+    const before = Number(
+      (await h.ds.query(`SELECT count(*) FROM clearance_letters WHERE athlete_id = $1`, [athlete.membershipId]))[0].count,
+    );
     const created = await c.post(`${w.base}/letters`, letterBody(athlete.membershipId));
     expect([403, 404]).toContain(created.status);
-    expect(Number((await h.ds.query(`SELECT count(*) FROM clearance_letters WHERE athlete_id = $1`, [athlete.membershipId]))[0].count)).toBe(before);
+    expect(
+      Number((await h.ds.query(`SELECT count(*) FROM clearance_letters WHERE athlete_id = $1`, [athlete.membershipId]))[0].count),
+    ).toBe(before);
   });
 
   it('the coach reads the letter (without who it was sent to) but cannot draft, edit or sign (403)', async () => {
@@ -543,8 +628,20 @@ describe('acknowledgement and the audit trail', () => {
     await (await w.as('coach')).get(`${w.base}/letters/${letter.id}/pdf`);
     await (await w.as('guardian')).post(`${w.base}/letters/${letter.id}/acknowledge`);
     const trail = await auditActions(letter.id);
-    expect(trail.map((a) => a.action)).toEqual(['letter.drafted', 'letter.signed', 'letter.downloaded', 'letter.downloaded', 'letter.acknowledged']);
-    expect(trail.map((a) => a.actor_user_id)).toEqual([w.org.clinician.userId, w.org.clinician.userId, w.org.guardian.userId, w.org.coach.userId, w.org.guardian.userId]);
+    expect(trail.map((a) => a.action)).toEqual([
+      'letter.drafted',
+      'letter.signed',
+      'letter.downloaded',
+      'letter.downloaded',
+      'letter.acknowledged',
+    ]);
+    expect(trail.map((a) => a.actor_user_id)).toEqual([
+      w.org.clinician.userId,
+      w.org.clinician.userId,
+      w.org.guardian.userId,
+      w.org.coach.userId,
+      w.org.guardian.userId,
+    ]);
     expect(new Set(trail.map((a) => a.organization_id))).toEqual(new Set([w.org.id]));
     // A refused download is not recorded as one.
     await (await w.as('otherGuardian')).get(`${w.base}/letters/${letter.id}/pdf`);
@@ -575,11 +672,25 @@ describe('the public check page', () => {
   beforeAll(async () => {
     w = await world();
     athlete = await freshAthlete(w, 'Maya Lindqvist-Ortega');
-    const c = await (await w.as('clinician')).post(`${w.base}/cases`, {
-      athleteId: athlete.membershipId, bodyRegions: ['lower_leg_left'], onsetDate: '2026-01-10', diagnosis: DIAGNOSIS, clinicalNotes: NOTES, status: 'limited', statusEffectiveFrom: '2026-01-11', statusNote: PAIN,
+    const c = await (
+      await w.as('clinician')
+    ).post(`${w.base}/cases`, {
+      athleteId: athlete.membershipId,
+      bodyRegions: ['lower_leg_left'],
+      onsetDate: '2026-01-10',
+      diagnosis: DIAGNOSIS,
+      clinicalNotes: NOTES,
+      status: 'limited',
+      statusEffectiveFrom: '2026-01-11',
+      statusNote: PAIN,
     });
     expect(c.status, JSON.stringify(c.body)).toBe(201);
-    first = await signedLetter(w, athlete.membershipId, { decision: 'limited', limits: ['Sprint: not allowed for now'], effectiveFrom: '2026-03-09', validUntil: until });
+    first = await signedLetter(w, athlete.membershipId, {
+      decision: 'limited',
+      limits: ['Sprint: not allowed for now'],
+      effectiveFrom: '2026-03-09',
+      validUntil: until,
+    });
   });
 
   it('a signed letter checks valid, with initials, decision, dates, organization and issue date only', async () => {
@@ -603,7 +714,8 @@ describe('the public check page', () => {
   it("never holds the athlete's name, notes, diagnosis, pain data or limits", async () => {
     const body = JSON.stringify((await check(first.verificationCode)).body);
     for (const word of athlete.name.split(' ')) expect(body).not.toContain(word);
-    for (const secret of [NOTES, DIAGNOSIS, PAIN, 'lower_leg', 'Lower leg', 'Sprint', w.org.clinician.name, athlete.membershipId, first.id]) expect(body).not.toContain(secret);
+    for (const secret of [NOTES, DIAGNOSIS, PAIN, 'lower_leg', 'Lower leg', 'Sprint', w.org.clinician.name, athlete.membershipId, first.id])
+      expect(body).not.toContain(secret);
   });
 
   it('takes the code as people type it: lower case, without dashes, with spaces, O for 0 and I or L for 1', async () => {
@@ -619,8 +731,15 @@ describe('the public check page', () => {
 
   it('after a second letter, the first checks superseded and the second valid', async () => {
     const second = await signedLetter(w, athlete.membershipId, { decision: 'full', effectiveFrom: '2026-04-10', validUntil: null });
-    expect((await check(first.verificationCode)).body).toMatchObject({ status: 'superseded', decision: 'Limited participation from 9 March 2026' });
-    expect((await check(second.verificationCode)).body).toMatchObject({ status: 'valid', decision: 'Full participation from 10 April 2026', validUntil: null });
+    expect((await check(first.verificationCode)).body).toMatchObject({
+      status: 'superseded',
+      decision: 'Limited participation from 9 March 2026',
+    });
+    expect((await check(second.verificationCode)).body).toMatchObject({
+      status: 'valid',
+      decision: 'Full participation from 10 April 2026',
+      validUntil: null,
+    });
   });
 
   it('a code never issued is unknown, with nothing else; a malformed one is refused (400)', async () => {
@@ -670,7 +789,11 @@ describe('the check endpoint is rate-limited per address', () => {
     expect(over.status).toBe(429);
     expect(over.body.error.code).toBe('rate_limited');
     const fresh = await Client.anonymous(rl.app);
-    const forged = await fresh.agent.post('/api/check').set('x-csrf-token', fresh.csrf).set('x-forwarded-for', '203.0.113.9').send({ code: newVerificationCode() });
+    const forged = await fresh.agent
+      .post('/api/check')
+      .set('x-csrf-token', fresh.csrf)
+      .set('x-forwarded-for', '203.0.113.9')
+      .send({ code: newVerificationCode() });
     expect(forged.status).toBe(429);
   });
 });

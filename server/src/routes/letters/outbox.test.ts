@@ -31,10 +31,13 @@ describe('the outbox, with the local fake mail server (FAKE_MAIL=true)', () => {
     const first = `outbox-1-${randomUUID()}@test.example`;
     const second = `outbox-2-${randomUUID()}@test.example`;
     const theirs = `outbox-b-${randomUUID()}@test.example`;
-    for (const email of [first, second]) expect((await admin.post(`/api/orgs/${org.id}/invitations`, { email, roles: ['coach'] })).status).toBe(201);
+    for (const email of [first, second])
+      expect((await admin.post(`/api/orgs/${org.id}/invitations`, { email, roles: ['coach'] })).status).toBe(201);
     expect((await adminB.post(`/api/orgs/${orgB.id}/invitations`, { email: theirs, roles: ['coach'] })).status).toBe(201);
     await waitFor('the three invitations delivered', async () => {
-      const rows: { n: string }[] = await h.ds.query(`SELECT count(*) AS n FROM fake_mailbox WHERE envelope_to && $1`, [[first, second, theirs]]);
+      const rows: { n: string }[] = await h.ds.query(`SELECT count(*) AS n FROM fake_mailbox WHERE envelope_to && $1`, [
+        [first, second, theirs],
+      ]);
       return Number(rows[0].n) === 3;
     });
 

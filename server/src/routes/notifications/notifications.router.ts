@@ -24,7 +24,13 @@ export const notificationRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'read', subject: 'Notification' },
     params: OrgParamsSchema,
     async handler({ ds, actor }) {
-      const rows = await ds.getRepository(Notification).find({ where: { organizationId: actor.organizationId, recipientId: actor.membershipId }, order: { createdAt: 'DESC' }, take: 100 });
+      const rows = await ds
+        .getRepository(Notification)
+        .find({
+          where: { organizationId: actor.organizationId, recipientId: actor.membershipId },
+          order: { createdAt: 'DESC' },
+          take: 100,
+        });
       return rows.map(toDto);
     },
   }),
@@ -48,7 +54,9 @@ export const notificationRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'update', subject: 'Notification' },
     params: OrgParamsSchema,
     async handler({ ds, actor }) {
-      await ds.getRepository(Notification).update({ organizationId: actor.organizationId, recipientId: actor.membershipId, readAt: IsNull() }, { readAt: new Date() });
+      await ds
+        .getRepository(Notification)
+        .update({ organizationId: actor.organizationId, recipientId: actor.membershipId, readAt: IsNull() }, { readAt: new Date() });
       return undefined;
     },
   }),

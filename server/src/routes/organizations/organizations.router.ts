@@ -7,7 +7,13 @@ import { orgRoute, type RouteDef } from '../../http/route';
 import { updateVersioned } from '../../services/versioned';
 
 function toSettingsDto(org: Organization): OrganizationSettingsDto {
-  return { id: org.id, name: org.name, emergencyNumber: org.emergencyNumber, guardiansSeeClips: org.guardiansSeeClips, version: org.version };
+  return {
+    id: org.id,
+    name: org.name,
+    emergencyNumber: org.emergencyNumber,
+    guardiansSeeClips: org.guardiansSeeClips,
+    version: org.version,
+  };
 }
 
 async function loadOrg(m: EntityManager, id: string) {
@@ -54,7 +60,13 @@ export const organizationRoutes: RouteDef[] = [
         authorize(ability, 'update', 'Organization', org);
         await updateVersioned(m, Organization, org.id, version, changes, 'organization settings');
         const before = { name: org.name, emergencyNumber: org.emergencyNumber, guardiansSeeClips: org.guardiansSeeClips };
-        await audit({ action: 'organization.settings_changed', subjectType: 'Organization', subjectId: org.id, before, after: { ...before, ...changes } });
+        await audit({
+          action: 'organization.settings_changed',
+          subjectType: 'Organization',
+          subjectId: org.id,
+          before,
+          after: { ...before, ...changes },
+        });
       });
       return toSettingsDto((await loadOrg(ds.manager, actor.organizationId))!);
     },

@@ -7,18 +7,34 @@ const noFlags = Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false]));
 
 describe('opening a case from a pain report', () => {
   const h = useHarness();
-  it('links the report to the new case, and refuses another athlete\'s report', async () => {
+  it("links the report to the new case, and refuses another athlete's report", async () => {
     const org = await createOrg(h.ds);
     const base = `/api/orgs/${org.id}`;
     const athlete = await signedIn(h.app, org.athlete.email, TEST_PASSWORD);
     const report = await athlete.post(`${base}/pain-reports`, {
-      athleteId: org.athlete.membershipId, bodyRegions: ['lower_back'], painNow: 4, painWorst24h: 6, onsetDate: '2026-11-28',
-      aggravatingPatterns: ['hinge'], startedInTraining: true, redFlags: noFlags,
+      athleteId: org.athlete.membershipId,
+      bodyRegions: ['lower_back'],
+      painNow: 4,
+      painWorst24h: 6,
+      onsetDate: '2026-11-28',
+      aggravatingPatterns: ['hinge'],
+      startedInTraining: true,
+      redFlags: noFlags,
     });
     expect(report.status).toBe(201);
     const clin = await signedIn(h.app, org.clinician.email, TEST_PASSWORD);
-    const payload = { athleteId: org.athlete.membershipId, bodyRegions: ['lower_back'], onsetDate: '2026-11-28', status: 'limited', statusEffectiveFrom: '2026-11-29' };
-    const wrong = await clin.post(`${base}/cases`, { ...payload, athleteId: org.athlete.membershipId, painReportId: '00000000-0000-4000-8000-000000000000' });
+    const payload = {
+      athleteId: org.athlete.membershipId,
+      bodyRegions: ['lower_back'],
+      onsetDate: '2026-11-28',
+      status: 'limited',
+      statusEffectiveFrom: '2026-11-29',
+    };
+    const wrong = await clin.post(`${base}/cases`, {
+      ...payload,
+      athleteId: org.athlete.membershipId,
+      painReportId: '00000000-0000-4000-8000-000000000000',
+    });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.fields.painReportId).toBeDefined();
     const created = await clin.post(`${base}/cases`, { ...payload, painReportId: report.body.report.id });

@@ -15,18 +15,42 @@ import type { DataSource } from 'typeorm';
 const MESSAGES = {
   emergency: (num: string) =>
     `Stop training now and get urgent medical care: call ${num} or go to an emergency department. Your answers can be a sign of a serious problem that needs a doctor today. Your clinician has been alerted and you are set to Out.`,
-  urgent: () => 'Please contact your clinician today. One of your answers needs a clinician to look at it soon. Do not train the painful area until they have.',
-  routine: () => 'Thanks — your care team has been told. Your clinician will review your report and may adjust what you can do. If anything gets worse, or a warning sign appears, stop and get care.',
+  urgent: () =>
+    'Please contact your clinician today. One of your answers needs a clinician to look at it soon. Do not train the painful area until they have.',
+  routine: () =>
+    'Thanks — your care team has been told. Your clinician will review your report and may adjust what you can do. If anything gets worse, or a warning sign appears, stop and get care.',
 };
 
-async function listReports(ds: DataSource, ability: AppAbility, organizationId: string, where: { athleteId?: string; id?: string }): Promise<PainReportDto[]> {
-  const acl = accessibleWhere(ability, 'read', 'PainReport', { organizationId: 'r.organization_id', athleteId: 'r.athlete_id', id: 'r.id' });
+async function listReports(
+  ds: DataSource,
+  ability: AppAbility,
+  organizationId: string,
+  where: { athleteId?: string; id?: string },
+): Promise<PainReportDto[]> {
+  const acl = accessibleWhere(ability, 'read', 'PainReport', {
+    organizationId: 'r.organization_id',
+    athleteId: 'r.athlete_id',
+    id: 'r.id',
+  });
   const qb = ds
     .createQueryBuilder()
-    .select(['r.id AS id', 'r.organization_id AS "organizationId"', 'r.athlete_id AS "athleteId"', 'u.display_name AS "athleteName"',
-      'r.reported_at AS "reportedAt"', 'r.body_regions AS "bodyRegions"', 'r.pain_now AS "painNow"', 'r.pain_worst_24h AS "painWorst24h"',
-      'r.onset_date AS "onsetDate"', 'r.aggravating_patterns AS "aggravatingPatterns"', 'r.started_in_training AS "startedInTraining"',
-      'r.note AS note', 'r.red_flags AS "redFlags"', 'r.route AS route', 'r.case_id AS "caseId"'])
+    .select([
+      'r.id AS id',
+      'r.organization_id AS "organizationId"',
+      'r.athlete_id AS "athleteId"',
+      'u.display_name AS "athleteName"',
+      'r.reported_at AS "reportedAt"',
+      'r.body_regions AS "bodyRegions"',
+      'r.pain_now AS "painNow"',
+      'r.pain_worst_24h AS "painWorst24h"',
+      'r.onset_date AS "onsetDate"',
+      'r.aggravating_patterns AS "aggravatingPatterns"',
+      'r.started_in_training AS "startedInTraining"',
+      'r.note AS note',
+      'r.red_flags AS "redFlags"',
+      'r.route AS route',
+      'r.case_id AS "caseId"',
+    ])
     .from('pain_reports', 'r')
     .innerJoin('memberships', 'm', 'm.id = r.athlete_id')
     .innerJoin('users', 'u', 'u.id = m.user_id')
@@ -54,7 +78,12 @@ export const painReportRoutes: RouteDef[] = [
       const today = todayIso();
       const outcome = await tx(async (m, audit) => {
         await requireMemberWithRole(m, actor.organizationId, body.athleteId, 'athlete', 'athleteId');
-        return createPainReport(m, body, { organizationId: actor.organizationId, userId: user.id, athleteName: user.displayName, today }, audit);
+        return createPainReport(
+          m,
+          body,
+          { organizationId: actor.organizationId, userId: user.id, athleteName: user.displayName, today },
+          audit,
+        );
       });
       const org = await ds.getRepository(Organization).findOneByOrFail({ id: actor.organizationId });
       const [report] = await listReports(ds, ability, actor.organizationId, { id: outcome.report.id });

@@ -28,7 +28,10 @@ interface World {
 async function makeWorld(): Promise<World> {
   const base = await createOrg(h.ds);
   await h.ds.getRepository(Organization).update({ id: base.id }, { emergencyNumber: EMERGENCY_NUMBER });
-  const [clinician2, inactiveClinician] = await Promise.all([createMember(h.ds, base.id, ['clinician']), createMember(h.ds, base.id, ['clinician'])]);
+  const [clinician2, inactiveClinician] = await Promise.all([
+    createMember(h.ds, base.id, ['clinician']),
+    createMember(h.ds, base.id, ['clinician']),
+  ]);
   await h.ds.getRepository(Membership).update({ id: inactiveClinician.membershipId }, { active: false });
   await h.ds.getRepository(CareTeamAssignment).save([
     { organizationId: base.id, athleteId: base.athlete.membershipId, memberId: clinician2.membershipId, role: 'clinician' },
@@ -54,10 +57,15 @@ async function freshAthlete(w: World): Promise<{ ref: MemberRef; client: Client 
   const ref = await createMember(h.ds, w.org.id, ['athlete'], { dateOfBirth: '2010-03-14' });
   await h.ds.getRepository(CareTeamAssignment).save(
     [w.org.coach, w.org.clinician, w.org.clinician2, w.org.inactiveClinician].map((m, i) => ({
-      organizationId: w.org.id, athleteId: ref.membershipId, memberId: m.membershipId, role: i === 0 ? ('coach' as const) : ('clinician' as const),
+      organizationId: w.org.id,
+      athleteId: ref.membershipId,
+      memberId: m.membershipId,
+      role: i === 0 ? ('coach' as const) : ('clinician' as const),
     })),
   );
-  await h.ds.getRepository(GuardianLink).save({ organizationId: w.org.id, athleteId: ref.membershipId, guardianId: w.org.guardian.membershipId });
+  await h.ds
+    .getRepository(GuardianLink)
+    .save({ organizationId: w.org.id, athleteId: ref.membershipId, guardianId: w.org.guardian.membershipId });
   return { ref, client: await signedIn(h.app, ref.email, TEST_PASSWORD) };
 }
 
@@ -106,7 +114,14 @@ describe('a routine report (no red flag) — NICE NG59: no flags → reassure, c
     const res = await client.post(`${w.base}/pain-reports`, reportBody(ref.membershipId, { painNow: 8, painWorst24h: 9 }));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ route: 'routine', statusSetToOut: false, emergencyNumber: EMERGENCY_NUMBER });
-    expect(res.body.report).toMatchObject({ athleteId: ref.membershipId, athleteName: ref.name, painNow: 8, painWorst24h: 9, route: 'routine', caseId: null });
+    expect(res.body.report).toMatchObject({
+      athleteId: ref.membershipId,
+      athleteName: ref.name,
+      painNow: 8,
+      painWorst24h: 9,
+      route: 'routine',
+      caseId: null,
+    });
     expect(res.body.message).not.toMatch(/emergency|call 112/i);
 
     expect(await noticesAbout(ref.membershipId)).toEqual({
@@ -114,7 +129,9 @@ describe('a routine report (no red flag) — NICE NG59: no flags → reassure, c
       [w.org.clinician2.membershipId]: ['pain_report'],
       [w.org.coach.membershipId]: ['pain_report'],
     });
-    expect(await flagsAbout(ref.membershipId)).toEqual([expect.objectContaining({ kind: 'pain_report', severity: 'routine', source_id: res.body.report.id })]);
+    expect(await flagsAbout(ref.membershipId)).toEqual([
+      expect.objectContaining({ kind: 'pain_report', severity: 'routine', source_id: res.body.report.id }),
+    ]);
     expect(await casesOf(ref.membershipId)).toEqual([]);
     const inForce = await (await w.as('clinician')).get(`${w.base}/athletes/${ref.membershipId}/in-force`);
     expect(inForce.body.status).toBe('full');
@@ -154,13 +171,18 @@ describe('an emergency answer (possible cauda equina: NICE NG59; Finucane et al.
     const clin = await w.as('clinician');
     const list = await clin.get(`${w.base}/cases?athleteId=${athlete.membershipId}`);
     expect(list.status).toBe(200);
-    expect(list.body).toEqual([expect.objectContaining({ id: res.body.report.caseId, openedByName: null, status: 'out', statusEffectiveFrom: todayIso() })]);
+    expect(list.body).toEqual([
+      expect.objectContaining({ id: res.body.report.caseId, openedByName: null, status: 'out', statusEffectiveFrom: todayIso() }),
+    ]);
   });
 
   it("the athlete's status today is Out, on the caseload and in force", async () => {
     const clin = await w.as('clinician');
     const caseload = await clin.get(`${w.base}/caseload`);
-    expect(caseload.body.find((r: { athleteId: string }) => r.athleteId === athlete.membershipId)).toMatchObject({ status: 'out', openCaseCount: 1 });
+    expect(caseload.body.find((r: { athleteId: string }) => r.athleteId === athlete.membershipId)).toMatchObject({
+      status: 'out',
+      openCaseCount: 1,
+    });
     const inForce = await clin.get(`${w.base}/athletes/${athlete.membershipId}/in-force`);
     expect(inForce.body).toMatchObject({ status: 'out', statusEffectiveFrom: todayIso() });
   });
@@ -185,10 +207,10 @@ describe('an emergency answer (possible cauda equina: NICE NG59; Finucane et al.
   });
 
   it("the clinicians' notices name the emergency answer, never the narrative", async () => {
-    const rows: { body: string }[] = await h.ds.query(
-      'SELECT body FROM notifications WHERE athlete_id = $1 AND recipient_id = ANY($2)',
-      [athlete.membershipId, [w.org.clinician.membershipId, w.org.clinician2.membershipId]],
-    );
+    const rows: { body: string }[] = await h.ds.query('SELECT body FROM notifications WHERE athlete_id = $1 AND recipient_id = ANY($2)', [
+      athlete.membershipId,
+      [w.org.clinician.membershipId, w.org.clinician2.membershipId],
+    ]);
     expect(rows).toHaveLength(2);
     for (const r of rows) {
       expect(r.body).toContain(question('saddle_numbness'));
@@ -223,11 +245,17 @@ describe('an emergency answer with a case already open', () => {
     const { ref, client } = await freshAthlete(w);
     const clin = await w.as('clinician');
     const opened = await clin.post(`${w.base}/cases`, {
-      athleteId: ref.membershipId, bodyRegions: ['lower_back'], onsetDate: fromToday(-10), status: 'limited', statusEffectiveFrom: fromToday(-9),
+      athleteId: ref.membershipId,
+      bodyRegions: ['lower_back'],
+      onsetDate: fromToday(-10),
+      status: 'limited',
+      statusEffectiveFrom: fromToday(-9),
     });
     expect(opened.status, JSON.stringify(opened.body)).toBe(201);
     const rid = `test-${randomUUID()}`;
-    const res = await client.post(`${w.base}/pain-reports`, reportBody(ref.membershipId, {}, ['bladder_change', 'night_pain'])).set('x-request-id', rid);
+    const res = await client
+      .post(`${w.base}/pain-reports`, reportBody(ref.membershipId, {}, ['bladder_change', 'night_pain']))
+      .set('x-request-id', rid);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ route: 'emergency', statusSetToOut: true, report: { caseId: opened.body.id } });
 
@@ -235,7 +263,9 @@ describe('an emergency answer with a case already open', () => {
     const detail = await clin.get(`${w.base}/cases/${opened.body.id}`);
     expect(detail.body).toMatchObject({ status: 'out', statusEffectiveFrom: todayIso(), version: 2 });
     expect(detail.body.statusHistory.map((s: { status: string }) => s.status)).toEqual(['out', 'limited']);
-    const actions = (await h.ds.query('SELECT action FROM audit_entries WHERE request_id = $1 ORDER BY id', [rid])).map((r: { action: string }) => r.action);
+    const actions = (await h.ds.query('SELECT action FROM audit_entries WHERE request_id = $1 ORDER BY id', [rid])).map(
+      (r: { action: string }) => r.action,
+    );
     expect(actions).toEqual(['pain_report.created', 'status.changed']);
     // Emergency beats urgent: one emergency flag, no urgent one (REFERENCES §7).
     expect((await flagsAbout(ref.membershipId)).map((f) => f.kind)).toEqual(['red_flag_emergency']);
@@ -250,7 +280,9 @@ describe('an urgent answer (NICE NG59; Finucane et al. 2020: review today)', () 
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ route: 'urgent', statusSetToOut: false, report: { route: 'urgent', caseId: null } });
     expect(res.body.message).toMatch(/contact your clinician today/i);
-    expect(await flagsAbout(ref.membershipId)).toEqual([expect.objectContaining({ kind: 'red_flag_urgent', severity: 'urgent', source_id: res.body.report.id })]);
+    expect(await flagsAbout(ref.membershipId)).toEqual([
+      expect.objectContaining({ kind: 'red_flag_urgent', severity: 'urgent', source_id: res.body.report.id }),
+    ]);
     expect(await noticesAbout(ref.membershipId)).toEqual({
       [w.org.clinician.membershipId]: ['red_flag_urgent'],
       [w.org.clinician2.membershipId]: ['red_flag_urgent'],
@@ -268,7 +300,9 @@ describe('an urgent answer (NICE NG59; Finucane et al. 2020: review today)', () 
 describe('who may report, and a report must answer every question', () => {
   it('an athlete cannot report for another athlete → 404; nothing stored (SECURITY item 14)', async () => {
     const w = await world();
-    const res = await (await w.as('athlete')).post(`${w.base}/pain-reports`, reportBody(w.org.otherAthlete.membershipId, {}, ['both_legs']));
+    const res = await (
+      await w.as('athlete')
+    ).post(`${w.base}/pain-reports`, reportBody(w.org.otherAthlete.membershipId, {}, ['both_legs']));
     expect(res.status).toBe(404);
     expect(res.body.error.code).toBe('not_found');
     expect(await reportsOf(w.org.otherAthlete.membershipId)).toBe(0);
@@ -317,7 +351,9 @@ describe('reading reports (minimum necessary, policies/access/athlete-reports.ts
 
   beforeAll(async () => {
     w = await world();
-    const res = await (await w.as('athlete')).post(`${w.base}/pain-reports`, reportBody(w.org.athlete.membershipId, { note: NOTE }, ['night_pain']));
+    const res = await (
+      await w.as('athlete')
+    ).post(`${w.base}/pain-reports`, reportBody(w.org.athlete.membershipId, { note: NOTE }, ['night_pain']));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     reportId = res.body.report.id;
   });
@@ -326,7 +362,12 @@ describe('reading reports (minimum necessary, policies/access/athlete-reports.ts
     const res = await (await w.as('clinician')).get(`${w.base}/pain-reports?athleteId=${w.org.athlete.membershipId}`);
     expect(res.status).toBe(200);
     const mine = res.body.find((r: { id: string }) => r.id === reportId);
-    expect(mine).toMatchObject({ note: NOTE, redFlags: expect.objectContaining({ night_pain: true, both_legs: false }), painNow: 4, route: 'urgent' });
+    expect(mine).toMatchObject({
+      note: NOTE,
+      redFlags: expect.objectContaining({ night_pain: true, both_legs: false }),
+      painNow: 4,
+      route: 'urgent',
+    });
   });
 
   it('the coach sees scores and places but no `note` and no `redFlags` keys', async () => {

@@ -41,16 +41,34 @@ export const peopleRoutes: RouteDef[] = [
         const membership = await m.findOne(Membership, { where: { id: params.id, organizationId: actor.organizationId, active: true } });
         authorize(ability, 'update', 'Membership', membership, 'roles');
         if (membership.id === actor.membershipId && !body.roles.includes('admin')) {
-          throw new AppError('conflict', 'You cannot remove your own admin role. Ask another admin to do it, so the organization always has one.');
+          throw new AppError(
+            'conflict',
+            'You cannot remove your own admin role. Ask another admin to do it, so the organization always has one.',
+          );
         }
         await updateVersioned(m, Membership, membership.id, body.version, { roles: body.roles, updatedAt: () => 'now()' }, 'person');
         if (body.roles.includes('athlete')) {
           const profile = await m.findOne(AthleteProfile, { where: { id: membership.id } });
-          if (!profile) await m.save(m.create(AthleteProfile, { id: membership.id, organizationId: actor.organizationId, dateOfBirth: null, sport: null, position: null }));
+          if (!profile)
+            await m.save(
+              m.create(AthleteProfile, {
+                id: membership.id,
+                organizationId: actor.organizationId,
+                dateOfBirth: null,
+                sport: null,
+                position: null,
+              }),
+            );
         }
         // A role change ends the person's other sessions: they sign in again under a new session id.
         await endSessionsOf(m, membership.userId, req.sessionID);
-        await audit({ action: 'membership.roles_changed', subjectType: 'Membership', subjectId: membership.id, before: { roles: membership.roles }, after: { roles: body.roles } });
+        await audit({
+          action: 'membership.roles_changed',
+          subjectType: 'Membership',
+          subjectId: membership.id,
+          before: { roles: membership.roles },
+          after: { roles: body.roles },
+        });
       });
       const [person] = await listPeople(ds, ability, actor.organizationId, params.id);
       return person;
@@ -71,7 +89,13 @@ export const peopleRoutes: RouteDef[] = [
         }
         await m.update(Membership, { id: membership.id }, { active: false });
         await endSessionsOf(m, membership.userId);
-        await audit({ action: 'membership.removed', subjectType: 'Membership', subjectId: membership.id, before: { roles: membership.roles, active: true }, after: { active: false } });
+        await audit({
+          action: 'membership.removed',
+          subjectType: 'Membership',
+          subjectId: membership.id,
+          before: { roles: membership.roles, active: true },
+          after: { active: false },
+        });
       });
       return undefined;
     },

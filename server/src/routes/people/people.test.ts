@@ -10,11 +10,27 @@ import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../te
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 
 const STATUS: Record<Outcome, number> = { allowed: 200, forbidden: 403, not_found: 404 };
-const MEMBERS = ['admin', 'coach', 'clinician', 'athlete', 'guardian', 'otherAthlete', 'otherCoach', 'otherClinician', 'otherGuardian'] as const;
+const MEMBERS = [
+  'admin',
+  'coach',
+  'clinician',
+  'athlete',
+  'guardian',
+  'otherAthlete',
+  'otherCoach',
+  'otherClinician',
+  'otherGuardian',
+] as const;
 type MemberKey = (typeof MEMBERS)[number];
 
 /** The factory person who plays each role: the athlete's own coach, clinician and guardian. */
-const PLAYER: Record<Role, MemberKey> = { athlete: 'athlete', coach: 'coach', clinician: 'clinician', guardian: 'guardian', admin: 'admin' };
+const PLAYER: Record<Role, MemberKey> = {
+  athlete: 'athlete',
+  coach: 'coach',
+  clinician: 'clinician',
+  guardian: 'guardian',
+  admin: 'admin',
+};
 
 /** How each member of the factory organization stands to the person playing `role`. */
 function relationTo(role: Role, member: MemberKey): Relation {
@@ -69,30 +85,38 @@ describe('people, role by role as the access matrix says', () => {
       ([role, m]) => expectedOutcome(role, 'Membership', action, relationTo(role, m)) !== 'allowed',
     );
 
-  it.each(MATRIX_ROLES.filter((r) => r !== 'admin'))('PATCH /people/:id as %s (even to make themselves admin) is refused as the matrix says; nothing changes', async (role) => {
-    const cases = refusals('update').filter(([r]) => r === role);
-    expect(cases).toHaveLength(MEMBERS.length);
-    for (const [, m] of cases) {
-      const before = await membership(org[m].membershipId);
-      const outcome = expectedOutcome(role, 'Membership', 'update', relationTo(role, m));
-      const res = await as[role].patch(`/api/orgs/${org.id}/people/${before.id}`, { roles: ['admin'], version: before.version });
-      expect(res.status, `${role} changing ${m}`).toBe(STATUS[outcome]);
-      expect(res.body.error.code).toBe(outcome);
-      if (outcome === 'forbidden') {
-        expect(res.body.error.message).toBe('Your role does not allow you to change people and roles. Ask an admin of your organization if you need this.');
+  it.each(MATRIX_ROLES.filter((r) => r !== 'admin'))(
+    'PATCH /people/:id as %s (even to make themselves admin) is refused as the matrix says; nothing changes',
+    async (role) => {
+      const cases = refusals('update').filter(([r]) => r === role);
+      expect(cases).toHaveLength(MEMBERS.length);
+      for (const [, m] of cases) {
+        const before = await membership(org[m].membershipId);
+        const outcome = expectedOutcome(role, 'Membership', 'update', relationTo(role, m));
+        const res = await as[role].patch(`/api/orgs/${org.id}/people/${before.id}`, { roles: ['admin'], version: before.version });
+        expect(res.status, `${role} changing ${m}`).toBe(STATUS[outcome]);
+        expect(res.body.error.code).toBe(outcome);
+        if (outcome === 'forbidden') {
+          expect(res.body.error.message).toBe(
+            'Your role does not allow you to change people and roles. Ask an admin of your organization if you need this.',
+          );
+        }
+        expect(await membership(before.id)).toEqual(before);
       }
-      expect(await membership(before.id)).toEqual(before);
-    }
-  });
+    },
+  );
 
-  it.each(MATRIX_ROLES.filter((r) => r !== 'admin'))('DELETE /people/:id as %s is refused as the matrix says; nobody is removed', async (role) => {
-    for (const [, m] of refusals('delete').filter(([r]) => r === role)) {
-      const outcome = expectedOutcome(role, 'Membership', 'delete', relationTo(role, m));
-      const res = await as[role].delete(`/api/orgs/${org.id}/people/${org[m].membershipId}`);
-      expect(res.status, `${role} removing ${m}`).toBe(STATUS[outcome]);
-      expect((await membership(org[m].membershipId)).active).toBe(true);
-    }
-  });
+  it.each(MATRIX_ROLES.filter((r) => r !== 'admin'))(
+    'DELETE /people/:id as %s is refused as the matrix says; nobody is removed',
+    async (role) => {
+      for (const [, m] of refusals('delete').filter(([r]) => r === role)) {
+        const outcome = expectedOutcome(role, 'Membership', 'delete', relationTo(role, m));
+        const res = await as[role].delete(`/api/orgs/${org.id}/people/${org[m].membershipId}`);
+        expect(res.status, `${role} removing ${m}`).toBe(STATUS[outcome]);
+        expect((await membership(org[m].membershipId)).active).toBe(true);
+      }
+    },
+  );
 
   it('the fields of a person, as each role receives them, are pinned: a field leaking to a role shows up here', async () => {
     const shapes: Record<string, { person: string; athlete: string | null }> = {};
@@ -130,7 +154,7 @@ describe('people, role by role as the access matrix says', () => {
   });
 
   describe('another organization', () => {
-    it('an admin of another organization gets 404 for this organization\'s people: list, record, change and removal', async () => {
+    it("an admin of another organization gets 404 for this organization's people: list, record, change and removal", async () => {
       const target = org.otherCoach.membershipId;
       const before = await membership(target);
       for (const res of [
@@ -145,11 +169,13 @@ describe('people, role by role as the access matrix says', () => {
       expect(await membership(target)).toEqual(before);
     });
 
-    it('an admin reaching through their own organization for another organization\'s person gets 404', async () => {
+    it("an admin reaching through their own organization for another organization's person gets 404", async () => {
       const target = orgB.otherCoach.membershipId;
       const before = await membership(target);
       expect((await as.admin.get(`/api/orgs/${org.id}/people/${target}`)).status).toBe(404);
-      expect((await as.admin.patch(`/api/orgs/${org.id}/people/${target}`, { roles: ['admin'], version: before.version })).status).toBe(404);
+      expect((await as.admin.patch(`/api/orgs/${org.id}/people/${target}`, { roles: ['admin'], version: before.version })).status).toBe(
+        404,
+      );
       expect((await as.admin.delete(`/api/orgs/${org.id}/people/${target}`)).status).toBe(404);
       expect(await membership(target)).toEqual(before);
     });
@@ -158,7 +184,11 @@ describe('people, role by role as the access matrix says', () => {
   it('a PATCH carrying organizationId or an unknown field is refused (400, naming it) and changes nothing', async () => {
     const before = await membership(org.otherClinician.membershipId);
     for (const extra of [{ organizationId: orgB.id }, { userId: org.admin.userId }, { active: false }, { isOwner: true }]) {
-      const res = await as.admin.patch(`/api/orgs/${org.id}/people/${before.id}`, { roles: ['clinician', 'admin'], version: before.version, ...extra });
+      const res = await as.admin.patch(`/api/orgs/${org.id}/people/${before.id}`, {
+        roles: ['clinician', 'admin'],
+        version: before.version,
+        ...extra,
+      });
       expect(res.status).toBe(400);
       expect(res.body.error.code).toBe('validation_failed');
       expect(res.body.error.fields).toEqual({ [Object.keys(extra)[0]]: ['is not an accepted field'] });
@@ -196,7 +226,10 @@ describe('changing and removing people', () => {
   it('an admin changes roles with the current version; an old version then answers 409 and changes nothing', async () => {
     const { org, admin } = await freshOrg();
     const { version } = await membership(org.otherCoach.membershipId);
-    const first = await admin.patch(`/api/orgs/${org.id}/people/${org.otherCoach.membershipId}`, { roles: ['coach', 'clinician'], version });
+    const first = await admin.patch(`/api/orgs/${org.id}/people/${org.otherCoach.membershipId}`, {
+      roles: ['coach', 'clinician'],
+      version,
+    });
     expect(first.status).toBe(200);
     expect(first.body.roles).toEqual(['coach', 'clinician']);
     expect(first.body.version).toBe(version + 1);
@@ -209,7 +242,7 @@ describe('changing and removing people', () => {
     expect(after.version).toBe(version + 1);
   });
 
-  it('a role change takes effect at once: the former coach\'s sessions end, and signed in again they get 404 on the athlete', async () => {
+  it("a role change takes effect at once: the former coach's sessions end, and signed in again they get 404 on the athlete", async () => {
     const { org, admin } = await freshOrg();
     const laptop = await signedIn(h.app, org.coach.email, TEST_PASSWORD);
     const phone = await signedIn(h.app, org.coach.email, TEST_PASSWORD);
@@ -231,7 +264,7 @@ describe('changing and removing people', () => {
     expect(list.body).toEqual([]);
   });
 
-  it('a removed member\'s sessions end, the organization answers them 404, and they leave every list', async () => {
+  it("a removed member's sessions end, the organization answers them 404, and they leave every list", async () => {
     const { org, admin } = await freshOrg();
     const coach = await signedIn(h.app, org.coach.email, TEST_PASSWORD);
     expect((await coach.get(athletePath(org))).status).toBe(200);
@@ -254,7 +287,7 @@ describe('changing and removing people', () => {
     expect(athlete.careTeam.map((c: { memberId: string }) => c.memberId)).toEqual([org.clinician.membershipId]);
   });
 
-  it('removing an athlete ends their care team\'s and guardian\'s access to them at once', async () => {
+  it("removing an athlete ends their care team's and guardian's access to them at once", async () => {
     const { org, admin } = await freshOrg();
     const guardian = await signedIn(h.app, org.guardian.email, TEST_PASSWORD);
     expect((await guardian.get(athletePath(org))).status).toBe(200);

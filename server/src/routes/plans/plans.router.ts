@@ -2,7 +2,12 @@ import type { EntityManager } from 'typeorm';
 import type { InForceDto, PlanDto } from '../../../../policies/dto';
 import { inForceOn } from '../../../../policies/load/in-force';
 import {
-  CaseItemParamsSchema, InForceQuerySchema, OrgItemParamsSchema, PlanCreateSchema, PlanUpdateSchema, PlanVersionParamsSchema,
+  CaseItemParamsSchema,
+  InForceQuerySchema,
+  OrgItemParamsSchema,
+  PlanCreateSchema,
+  PlanUpdateSchema,
+  PlanVersionParamsSchema,
 } from '../../../../policies/schemas';
 import { todayIso } from '../../../../policies/roles';
 import { asSubject, type AppAbility } from '../../../../policies/access';
@@ -24,7 +29,11 @@ async function planDto(db: EntityManager, ability: AppAbility, plan: Restriction
     athleteId: plan.athleteId,
     version: plan.version,
     current,
-    canSeeHistory: ability.can('read', asSubject('RestrictionPlan', { id: plan.id, organizationId: plan.organizationId, athleteId: plan.athleteId }), 'history'),
+    canSeeHistory: ability.can(
+      'read',
+      asSubject('RestrictionPlan', { id: plan.id, organizationId: plan.organizationId, athleteId: plan.athleteId }),
+      'history',
+    ),
   };
 }
 
@@ -45,13 +54,31 @@ export const planRoutes: RouteDef[] = [
         if (c.closedOn) throw new AppError('conflict', 'This case is closed; open a new case to write a new plan.');
         let saved: RestrictionPlan;
         try {
-          saved = await m.save(m.create(RestrictionPlan, { organizationId: c.organizationId, athleteId: c.athleteId, caseId: c.id, version: 1 }));
+          saved = await m.save(
+            m.create(RestrictionPlan, { organizationId: c.organizationId, athleteId: c.athleteId, caseId: c.id, version: 1 }),
+          );
         } catch (err) {
-          if (isUniqueViolation(err)) throw new AppError('conflict', 'This case already has a plan: edit it instead (every save keeps the earlier version).');
+          if (isUniqueViolation(err))
+            throw new AppError('conflict', 'This case already has a plan: edit it instead (every save keeps the earlier version).');
           throw err;
         }
-        await m.save(m.create(RestrictionPlanVersion, { planId: saved.id, version: 1, stages: body.stages, guidance: body.guidance, changeNote: body.changeNote ?? null, createdBy: user.id }));
-        await audit({ action: 'plan.created', subjectType: 'RestrictionPlan', subjectId: saved.id, athleteId: c.athleteId, after: { version: 1, stages: body.stages, guidance: body.guidance } });
+        await m.save(
+          m.create(RestrictionPlanVersion, {
+            planId: saved.id,
+            version: 1,
+            stages: body.stages,
+            guidance: body.guidance,
+            changeNote: body.changeNote ?? null,
+            createdBy: user.id,
+          }),
+        );
+        await audit({
+          action: 'plan.created',
+          subjectType: 'RestrictionPlan',
+          subjectId: saved.id,
+          athleteId: c.athleteId,
+          after: { version: 1, stages: body.stages, guidance: body.guidance },
+        });
         await recheckAthlete(m, c.organizationId, c.athleteId, 'The clinician wrote a restriction plan.', orgToday(actor.timeZone));
         return saved;
       });
@@ -92,7 +119,16 @@ export const planRoutes: RouteDef[] = [
           .execute();
         if (result.affected !== 1) throw versionConflict('plan');
         const [before] = await planVersions(m, p.id, body.version);
-        await m.save(m.create(RestrictionPlanVersion, { planId: p.id, version: next, stages: body.stages, guidance: body.guidance, changeNote: body.changeNote ?? null, createdBy: user.id }));
+        await m.save(
+          m.create(RestrictionPlanVersion, {
+            planId: p.id,
+            version: next,
+            stages: body.stages,
+            guidance: body.guidance,
+            changeNote: body.changeNote ?? null,
+            createdBy: user.id,
+          }),
+        );
         await audit({
           action: 'plan.revised',
           subjectType: 'RestrictionPlan',

@@ -43,7 +43,9 @@ const world = () => (worldOnce ??= makeWorld());
 /** An athlete of their own for a test that reads the athlete's whole picture (in-force). */
 async function freshAthlete(w: World): Promise<string> {
   const a = await createMember(h.ds, w.org.id, ['athlete'], { dateOfBirth: '2009-05-01' });
-  await h.ds.getRepository(CareTeamAssignment).save({ organizationId: w.org.id, athleteId: a.membershipId, memberId: w.org.clinician.membershipId, role: 'clinician' });
+  await h.ds
+    .getRepository(CareTeamAssignment)
+    .save({ organizationId: w.org.id, athleteId: a.membershipId, memberId: w.org.clinician.membershipId, role: 'clinician' });
   return a.membershipId;
 }
 
@@ -52,18 +54,35 @@ const put = (c: Client, path: string, body: object) => c.agent.put(path).set('x-
 /** Stage 1: 5–18 January 2026, stage 2: 25 January–7 February; a gap of six days between. */
 const twoStages = () => [
   {
-    id: randomUUID(), label: 'Protect', startDate: '2026-01-05', endDate: '2026-01-18', painCeiling: 3,
+    id: randomUUID(),
+    label: 'Protect',
+    startDate: '2026-01-05',
+    endDate: '2026-01-18',
+    painCeiling: 3,
     patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } }, jump: { mode: 'blocked' } },
   },
   {
-    id: randomUUID(), label: 'Build', startDate: '2026-01-25', endDate: '2026-02-07',
-    patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 80 } }, jump: { mode: 'capped', caps: { impactAllowed: false, maxSetsPerSession: 3 } } },
+    id: randomUUID(),
+    label: 'Build',
+    startDate: '2026-01-25',
+    endDate: '2026-02-07',
+    patterns: {
+      hinge: { mode: 'capped', caps: { maxPercent1RM: 80 } },
+      jump: { mode: 'capped', caps: { impactAllowed: false, maxSetsPerSession: 3 } },
+    },
   },
 ];
 
 async function openCase(w: World, athleteId = w.org.athlete.membershipId): Promise<string> {
-  const res = await (await w.as('clinician')).post(`${w.base}/cases`, {
-    athleteId, bodyRegions: ['lower_back'], onsetDate: '2026-01-02', diagnosis: 'Lumbar strain', status: 'limited', statusEffectiveFrom: '2026-01-03',
+  const res = await (
+    await w.as('clinician')
+  ).post(`${w.base}/cases`, {
+    athleteId,
+    bodyRegions: ['lower_back'],
+    onsetDate: '2026-01-02',
+    diagnosis: 'Lumbar strain',
+    status: 'limited',
+    statusEffectiveFrom: '2026-01-03',
   });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return res.body.id;
@@ -76,15 +95,29 @@ async function newPlan(w: World, caseId: string, stages = twoStages(), guidance 
 }
 
 const versionRows = async (planId: string): Promise<number[]> =>
-  (await h.ds.query('SELECT version FROM restriction_plan_versions WHERE plan_id = $1 ORDER BY version', [planId])).map((r: { version: number }) => r.version);
+  (await h.ds.query('SELECT version FROM restriction_plan_versions WHERE plan_id = $1 ORDER BY version', [planId])).map(
+    (r: { version: number }) => r.version,
+  );
 
 describe('writing a plan', () => {
   it('a two-stage plan is version 1, with the default pain ceiling filled in (Silbernagel et al. 2007, AJSM 35:897–906: 5)', async () => {
     const w = await world();
     const caseId = await openCase(w);
     const { id, stages, body } = await newPlan(w, caseId);
-    expect(body).toMatchObject({ caseId, athleteId: w.org.athlete.membershipId, organizationId: w.org.id, version: 1, canSeeHistory: true });
-    expect(body.current).toMatchObject({ planId: id, version: 1, guidance: 'Keep the back happy', createdByName: w.org.clinician.name, changeNote: null });
+    expect(body).toMatchObject({
+      caseId,
+      athleteId: w.org.athlete.membershipId,
+      organizationId: w.org.id,
+      version: 1,
+      canSeeHistory: true,
+    });
+    expect(body.current).toMatchObject({
+      planId: id,
+      version: 1,
+      guidance: 'Keep the back happy',
+      createdByName: w.org.clinician.name,
+      changeNote: null,
+    });
     expect(body.current.stages).toEqual([stages[0], { ...stages[1], painCeiling: 5 }]);
     expect((await (await w.as('clinician')).get(`${w.base}/cases/${caseId}`)).body.planId).toBe(id);
   });
@@ -136,9 +169,11 @@ describe('what is in force on a date', () => {
     return res.body;
   };
 
-  it('inside stage 1: its caps, its pain ceiling and the plan\'s guidance', async () => {
+  it("inside stage 1: its caps, its pain ceiling and the plan's guidance", async () => {
     const f = await inForce('2026-01-10');
-    expect(f.stages.map((s: { planId: string; planVersion: number; stage: { label: string } }) => [s.planId, s.planVersion, s.stage.label])).toEqual([[planId, 1, 'Protect']]);
+    expect(
+      f.stages.map((s: { planId: string; planVersion: number; stage: { label: string } }) => [s.planId, s.planVersion, s.stage.label]),
+    ).toEqual([[planId, 1, 'Protect']]);
     expect(f.patterns.hinge).toEqual({ mode: 'capped', caps: { maxPercent1RM: 60, maxRpe: 7 } });
     expect(f.patterns.jump).toEqual({ mode: 'blocked' });
     expect(f.patterns.squat).toEqual({ mode: 'free' });
@@ -188,17 +223,33 @@ describe('versions and optimistic locking (SECURITY item 32)', () => {
     v2[0].painCeiling = 2;
     v3 = twoStages();
     v3[1].endDate = '2026-02-21';
-    const a = await put(await w.as('clinician'), `${w.base}/plans/${planId}`, { version: 1, stages: v2, guidance: 'Lower ceiling', changeNote: 'Flare-up' });
+    const a = await put(await w.as('clinician'), `${w.base}/plans/${planId}`, {
+      version: 1,
+      stages: v2,
+      guidance: 'Lower ceiling',
+      changeNote: 'Flare-up',
+    });
     expect(a.status, JSON.stringify(a.body)).toBe(200);
     expect(a.body.version).toBe(2);
-    const b = await put(await w.as('clinician2'), `${w.base}/plans/${planId}`, { version: 2, stages: v3, guidance: 'Longer build', changeNote: 'Slow progress' });
+    const b = await put(await w.as('clinician2'), `${w.base}/plans/${planId}`, {
+      version: 2,
+      stages: v3,
+      guidance: 'Longer build',
+      changeNote: 'Slow progress',
+    });
     expect(b.status, JSON.stringify(b.body)).toBe(200);
   });
 
   it('the versions list is newest first, with who saved each (SECURITY item 27: who changed what)', async () => {
     const res = await (await w.as('clinician')).get(`${w.base}/plans/${planId}/versions`);
     expect(res.status).toBe(200);
-    expect(res.body.map((v: { version: number; createdByName: string; changeNote: string | null }) => [v.version, v.createdByName, v.changeNote])).toEqual([
+    expect(
+      res.body.map((v: { version: number; createdByName: string; changeNote: string | null }) => [
+        v.version,
+        v.createdByName,
+        v.changeNote,
+      ]),
+    ).toEqual([
       [3, w.org.clinician2.name, 'Slow progress'],
       [2, w.org.clinician.name, 'Flare-up'],
       [1, w.org.clinician.name, null],
@@ -231,8 +282,15 @@ describe('versions and optimistic locking (SECURITY item 32)', () => {
   });
 
   it("'plan.revised' holds the plan before and after, and names the athlete (SECURITY item 27)", async () => {
-    const rows: { before: { version: number; stages: unknown; guidance: string }; after: Record<string, unknown>; athlete_id: string; actor_user_id: string }[] =
-      await h.ds.query(`SELECT before, after, athlete_id, actor_user_id FROM audit_entries WHERE subject_id = $1 AND action = 'plan.revised' ORDER BY id`, [planId]);
+    const rows: {
+      before: { version: number; stages: unknown; guidance: string };
+      after: Record<string, unknown>;
+      athlete_id: string;
+      actor_user_id: string;
+    }[] = await h.ds.query(
+      `SELECT before, after, athlete_id, actor_user_id FROM audit_entries WHERE subject_id = $1 AND action = 'plan.revised' ORDER BY id`,
+      [planId],
+    );
     expect(rows).toHaveLength(2);
     expect(rows[0]).toMatchObject({ athlete_id: w.org.athlete.membershipId, actor_user_id: w.org.clinician.userId });
     expect(rows[0].before).toEqual({ version: 1, stages: [v1[0], { ...v1[1], painCeiling: 5 }], guidance: 'Keep the back happy' });
@@ -285,15 +343,23 @@ describe('who may see a plan (policies/access/restriction-plan.ts; SECURITY item
     }
   });
 
-  it.each(['otherCoach', 'otherClinician'] as const)('%s of another care team: 404 on the plan, its versions and what is in force; may not save', async (who) => {
-    const c = await w.as(who);
-    for (const path of [`${w.base}/plans/${planId}`, `${w.base}/plans/${planId}/versions`, `${w.base}/plans/${planId}/versions/1`, athletePath()]) {
-      expect((await c.get(path)).status, path).toBe(404);
-    }
-    const save = await put(c, `${w.base}/plans/${planId}`, { version: 1, stages: twoStages(), guidance: 'Not mine' });
-    expect([403, 404]).toContain(save.status);
-    expect(await versionRows(planId)).toEqual([1]);
-  });
+  it.each(['otherCoach', 'otherClinician'] as const)(
+    '%s of another care team: 404 on the plan, its versions and what is in force; may not save',
+    async (who) => {
+      const c = await w.as(who);
+      for (const path of [
+        `${w.base}/plans/${planId}`,
+        `${w.base}/plans/${planId}/versions`,
+        `${w.base}/plans/${planId}/versions/1`,
+        athletePath(),
+      ]) {
+        expect((await c.get(path)).status, path).toBe(404);
+      }
+      const save = await put(c, `${w.base}/plans/${planId}`, { version: 1, stages: twoStages(), guidance: 'Not mine' });
+      expect([403, 404]).toContain(save.status);
+      expect(await versionRows(planId)).toEqual([1]);
+    },
+  );
 
   it("another organization's clinician: 404 through their own organization", async () => {
     const other = await createOrg(h.ds);
@@ -310,10 +376,24 @@ describe('a change and its audit entry commit or roll back together (SECURITY it
     const rid = `test-${randomUUID()}`;
     const failure = h.ds.transaction(async (m) => {
       await m.update(RestrictionPlan, { id: planId }, { version: 2 });
-      await m.save(m.create(RestrictionPlanVersion, { planId, version: 2, stages: twoStages() as never, guidance: 'never saved', createdBy: w.org.clinician.userId }));
+      await m.save(
+        m.create(RestrictionPlanVersion, {
+          planId,
+          version: 2,
+          stages: twoStages() as never,
+          guidance: 'never saved',
+          createdBy: w.org.clinician.userId,
+        }),
+      );
       await appendAudit(m, {
-        organizationId: w.org.id, actorUserId: w.org.clinician.userId, action: 'plan.revised', subjectType: 'RestrictionPlan',
-        subjectId: planId, athleteId: w.org.athlete.membershipId, after: { version: 2 }, requestId: rid,
+        organizationId: w.org.id,
+        actorUserId: w.org.clinician.userId,
+        action: 'plan.revised',
+        subjectType: 'RestrictionPlan',
+        subjectId: planId,
+        athleteId: w.org.athlete.membershipId,
+        after: { version: 2 },
+        requestId: rid,
       });
       // Both writes are really there inside the transaction...
       expect((await m.query('SELECT count(*) FROM audit_entries WHERE request_id = $1', [rid]))[0].count).toBe('1');

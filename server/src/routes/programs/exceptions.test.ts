@@ -11,7 +11,9 @@ import { createOrg as createFullOrg, TEST_PASSWORD, type MemberRef, type TestOrg
 let cheap: Promise<string> | null = null;
 async function createOrg(ds: DataSource): Promise<TestOrg> {
   const org = await createFullOrg(ds);
-  const ids = Object.values(org).filter((v): v is MemberRef => typeof v === 'object').map((m) => m.userId);
+  const ids = Object.values(org)
+    .filter((v): v is MemberRef => typeof v === 'object')
+    .map((m) => m.userId);
   await ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), ids]);
   return org;
 }
@@ -21,7 +23,7 @@ const TODAY = todayIso();
 const DATE = addDays(TODAY, 10);
 const put = (c: Client, path: string, body: object) => c.agent.put(path).set('x-csrf-token', c.csrf).send(body);
 
-describe('exceptions: going past a cap on named sets, decided by the athlete\'s clinician', () => {
+describe("exceptions: going past a cap on named sets, decided by the athlete's clinician", () => {
   const h = useHarness();
   const as = (m: { email: string }) => signedIn(h.app, m.email, TEST_PASSWORD);
 
@@ -36,37 +38,108 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     const athlete = org.athlete.membershipId;
     const dl = ((await coach.get(`${base}/exercises`)).body as { id: string; name: string }[]).find((e) => e.name === 'Deadlift')!.id;
     await coach.post(`${base}/athletes/${athlete}/baselines`, { exerciseId: dl, kind: 'tested', loadKg: 140, reps: 1, testedOn: TODAY });
-    const c = await clinician.post(`${base}/cases`, { athleteId: athlete, bodyRegions: ['lower_back'], onsetDate: addDays(TODAY, -30), status: 'limited', statusEffectiveFrom: addDays(TODAY, -30) });
-    const stages = (pct: number) => [{ id: randomUUID(), startDate: addDays(TODAY, -30), endDate: addDays(TODAY, 120), painCeiling: 5, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: pct } } } }];
+    const c = await clinician.post(`${base}/cases`, {
+      athleteId: athlete,
+      bodyRegions: ['lower_back'],
+      onsetDate: addDays(TODAY, -30),
+      status: 'limited',
+      statusEffectiveFrom: addDays(TODAY, -30),
+    });
+    const stages = (pct: number) => [
+      {
+        id: randomUUID(),
+        startDate: addDays(TODAY, -30),
+        endDate: addDays(TODAY, 120),
+        painCeiling: 5,
+        patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: pct } } },
+      },
+    ];
     const plan = await clinician.post(`${base}/cases/${c.body.id}/plan`, { stages: stages(60), guidance: '' });
     expect(plan.status).toBe(201);
     const prog = await coach.post(`${base}/programs`, { name: 'Block', athleteIds: [athlete] });
     const [A, B, C] = [randomUUID(), randomUUID(), randomUUID()];
-    const content = (kgs: [number, number, number]) =>
-      ({ exercises: [{ id: randomUUID(), exerciseId: dl, sets: [A, B, C].map((id, i) => ({ id, reps: 5, load: { kind: 'kg', value: kgs[i] }, targetRpe: 6 })) }] });
-    const s = await coach.post(`${base}/programs/${prog.body.id}/sessions`, { date: DATE, title: 'Heavy day', content: content([87.5, 90, 80]) });
+    const content = (kgs: [number, number, number]) => ({
+      exercises: [
+        {
+          id: randomUUID(),
+          exerciseId: dl,
+          sets: [A, B, C].map((id, i) => ({ id, reps: 5, load: { kind: 'kg', value: kgs[i] }, targetRpe: 6 })),
+        },
+      ],
+    });
+    const s = await coach.post(`${base}/programs/${prog.body.id}/sessions`, {
+      date: DATE,
+      title: 'Heavy day',
+      content: content([87.5, 90, 80]),
+    });
     expect(s.status).toBe(201);
-    const request = (setIds: string[], who: Client = coach) => who.post(`${base}/sessions/${s.body.id}/exceptions`, { athleteId: athlete, setIds, reason: 'Test day agreed with the physio' });
+    const request = (setIds: string[], who: Client = coach) =>
+      who.post(`${base}/sessions/${s.body.id}/exceptions`, { athleteId: athlete, setIds, reason: 'Test day agreed with the physio' });
     const decide = (id: string, body: object, who: Client = clinician) => who.post(`${base}/exceptions/${id}/decide`, body);
-    const version = async () => ((await coach.get(`${base}/programs/${prog.body.id}`)).body.sessions[0].version) as number;
+    const version = async () => (await coach.get(`${base}/programs/${prog.body.id}`)).body.sessions[0].version as number;
     const publish = async () => coach.post(`${base}/sessions/${s.body.id}/publish`, { version: await version() });
-    const blocking = (res: { body: { error: { details: { breaches: { breaches: { setId: string }[] }[] } } } }) => res.body.error.details.breaches.flatMap((r) => r.breaches.map((b) => b.setId));
+    const blocking = (res: { body: { error: { details: { breaches: { breaches: { setId: string }[] }[] } } } }) =>
+      res.body.error.details.breaches.flatMap((r) => r.breaches.map((b) => b.setId));
     const audit = async (action: string) =>
-      (await h.ds.query(`SELECT subject_id, athlete_id, before, after FROM audit_entries WHERE organization_id = $1 AND action = $2 ORDER BY id`, [org.id, action])) as
-        { subject_id: string; athlete_id: string; before: Record<string, unknown> | null; after: Record<string, unknown> }[];
+      (await h.ds.query(
+        `SELECT subject_id, athlete_id, before, after FROM audit_entries WHERE organization_id = $1 AND action = $2 ORDER BY id`,
+        [org.id, action],
+      )) as { subject_id: string; athlete_id: string; before: Record<string, unknown> | null; after: Record<string, unknown> }[];
     const notices = async (kind: string) =>
-      ((await h.ds.query(`SELECT recipient_id FROM notifications WHERE organization_id = $1 AND kind = $2`, [org.id, kind])) as { recipient_id: string }[]).map((r) => r.recipient_id);
-    return { org, coach, clinician, base, athlete, dl, session: s.body.id as string, planId: plan.body.id as string, stages, A, B, C, content, request, decide, version, publish, blocking, audit, notices };
+      (
+        (await h.ds.query(`SELECT recipient_id FROM notifications WHERE organization_id = $1 AND kind = $2`, [org.id, kind])) as {
+          recipient_id: string;
+        }[]
+      ).map((r) => r.recipient_id);
+    return {
+      org,
+      coach,
+      clinician,
+      base,
+      athlete,
+      dl,
+      session: s.body.id as string,
+      planId: plan.body.id as string,
+      stages,
+      A,
+      B,
+      C,
+      content,
+      request,
+      decide,
+      version,
+      publish,
+      blocking,
+      audit,
+      notices,
+    };
   }
 
-  it('the coach asks for named sets; the request is pending, audited, and the athlete\'s clinicians are told', async () => {
+  it("the coach asks for named sets; the request is pending, audited, and the athlete's clinicians are told", async () => {
     const w = await world();
     const res = await w.request([w.A, w.B]);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ sessionId: w.session, sessionDate: DATE, sessionTitle: 'Heavy day', athleteId: w.athlete, athleteName: w.org.athlete.name,
-      setIds: [w.A, w.B], reason: 'Test day agreed with the physio', requestedByName: w.org.coach.name, status: 'pending', grantedSetIds: [], decidedByName: null });
-    expect(await w.audit('exception.requested')).toEqual([{ subject_id: res.body.id, athlete_id: w.athlete, before: null,
-      after: { sessionId: w.session, setIds: [w.A, w.B], reason: 'Test day agreed with the physio' } }]);
+    expect(res.body).toMatchObject({
+      sessionId: w.session,
+      sessionDate: DATE,
+      sessionTitle: 'Heavy day',
+      athleteId: w.athlete,
+      athleteName: w.org.athlete.name,
+      setIds: [w.A, w.B],
+      reason: 'Test day agreed with the physio',
+      requestedByName: w.org.coach.name,
+      status: 'pending',
+      grantedSetIds: [],
+      decidedByName: null,
+    });
+    expect(await w.audit('exception.requested')).toEqual([
+      {
+        subject_id: res.body.id,
+        athlete_id: w.athlete,
+        before: null,
+        after: { sessionId: w.session, setIds: [w.A, w.B], reason: 'Test day agreed with the physio' },
+      },
+    ]);
     expect(await w.notices('exception_requested')).toEqual([w.org.clinician.membershipId]);
     // Listed for the care team, pending; not for a clinician of another team.
     const pending = (await w.clinician.get(`${w.base}/exceptions?state=pending`)).body;
@@ -74,12 +147,16 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     expect((await (await as(w.org.otherClinician)).get(`${w.base}/exceptions`)).body).toEqual([]);
   });
 
-  it('a request must name sets of that session, for an athlete of that program, from the athlete\'s own coach', async () => {
+  it("a request must name sets of that session, for an athlete of that program, from the athlete's own coach", async () => {
     const w = await world();
     const unknown = await w.request([w.A, randomUUID()]);
     expect(unknown.status).toBe(400);
     expect(Object.keys(unknown.body.error.fields)).toEqual(['setIds']);
-    const notInProgram = await w.coach.post(`${w.base}/sessions/${w.session}/exceptions`, { athleteId: w.org.otherAthlete.membershipId, setIds: [w.A], reason: 'Not their program' });
+    const notInProgram = await w.coach.post(`${w.base}/sessions/${w.session}/exceptions`, {
+      athleteId: w.org.otherAthlete.membershipId,
+      setIds: [w.A],
+      reason: 'Not their program',
+    });
     expect(notInProgram.status).toBe(400);
     expect(Object.keys(notInProgram.body.error.fields)).toEqual(['athleteId']);
     expect((await w.request([w.A], await as(w.org.otherCoach))).status).toBe(404);
@@ -88,7 +165,7 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     expect((await h.ds.query(`SELECT count(*)::int AS n FROM program_exceptions WHERE organization_id = $1`, [w.org.id]))[0].n).toBe(0);
   });
 
-  it('only a clinician on the athlete\'s care team decides: coach 403, athlete 403, guardian 403, other clinician 404, other organization 404', async () => {
+  it("only a clinician on the athlete's care team decides: coach 403, athlete 403, guardian 403, other clinician 404, other organization 404", async () => {
     const w = await world();
     const x = (await w.request([w.A])).body.id as string;
     const body = { decision: 'grant', note: 'Fine by me' };
@@ -114,17 +191,35 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     expect(Object.keys(outside.body.error.fields)).toEqual(['setIds']);
     const granted = await w.decide(x, { decision: 'grant', setIds: [w.A], note: 'One heavier set only' });
     expect(granted.status, JSON.stringify(granted.body)).toBe(200);
-    expect(granted.body).toMatchObject({ status: 'granted', setIds: [w.A, w.B], grantedSetIds: [w.A], decidedByName: w.org.clinician.name, decisionNote: 'One heavier set only' });
-    expect(await w.audit('exception.granted')).toEqual([{ subject_id: x, athlete_id: w.athlete, before: { status: 'pending', setIds: [w.A, w.B] },
-      after: { status: 'granted', grantedSetIds: [w.A], note: 'One heavier set only' } }]);
+    expect(granted.body).toMatchObject({
+      status: 'granted',
+      setIds: [w.A, w.B],
+      grantedSetIds: [w.A],
+      decidedByName: w.org.clinician.name,
+      decisionNote: 'One heavier set only',
+    });
+    expect(await w.audit('exception.granted')).toEqual([
+      {
+        subject_id: x,
+        athlete_id: w.athlete,
+        before: { status: 'pending', setIds: [w.A, w.B] },
+        after: { status: 'granted', grantedSetIds: [w.A], note: 'One heavier set only' },
+      },
+    ]);
     expect(await w.notices('exception_granted')).toEqual([w.org.coach.membershipId]);
     // The dry-run check shows A as waived, B as blocking.
     const check = (await w.coach.post(`${w.base}/sessions/${w.session}/check`)).body.results[0].breaches;
-    expect(check.map((b: { setId: string; waived: boolean }) => [b.setId, b.waived])).toEqual([[w.A, true], [w.B, false]]);
+    expect(check.map((b: { setId: string; waived: boolean }) => [b.setId, b.waived])).toEqual([
+      [w.A, true],
+      [w.B, false],
+    ]);
     const refused = await w.publish();
     expect(refused.status).toBe(422);
     expect(w.blocking(refused)).toEqual([w.B]);
-    const fixed = await put(w.coach, `${w.base}/sessions/${w.session}`, { version: await w.version(), content: w.content([87.5, 82.5, 80]) });
+    const fixed = await put(w.coach, `${w.base}/sessions/${w.session}`, {
+      version: await w.version(),
+      content: w.content([87.5, 82.5, 80]),
+    });
     expect(fixed.status).toBe(200);
     const pub = await w.publish();
     expect(pub.status, JSON.stringify(pub.body)).toBe(200);
@@ -146,7 +241,11 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     const moved = await put(w.coach, `${w.base}/sessions/${w.session}`, { version: await w.version(), date: addDays(DATE, 1) });
     expect(moved.status).toBe(422);
     expect(w.blocking(moved).sort()).toEqual([w.A, w.B].sort());
-    const now = (await w.coach.get(`${w.base}/programs/${(await h.ds.query(`SELECT program_id FROM program_sessions WHERE id = $1`, [w.session]))[0].program_id}`)).body.sessions[0];
+    const now = (
+      await w.coach.get(
+        `${w.base}/programs/${(await h.ds.query(`SELECT program_id FROM program_sessions WHERE id = $1`, [w.session]))[0].program_id}`,
+      )
+    ).body.sessions[0];
     expect(now).toMatchObject({ date: DATE, title: 'Heavy day (moved gym)', status: 'published' });
     expect(now.content.exercises[0].sets.map((s: { load: { value: number } }) => s.load.value)).toEqual([87.5, 90, 80]);
   });
@@ -158,8 +257,14 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     expect(refused.status).toBe(200);
     expect(refused.body).toMatchObject({ status: 'refused', grantedSetIds: [], decisionNote: 'Not this week' });
     expect(await w.notices('exception_refused')).toEqual([w.org.coach.membershipId]);
-    expect(await w.audit('exception.refused')).toEqual([{ subject_id: x, athlete_id: w.athlete, before: { status: 'pending', setIds: [w.A, w.B] },
-      after: { status: 'refused', grantedSetIds: [], note: 'Not this week' } }]);
+    expect(await w.audit('exception.refused')).toEqual([
+      {
+        subject_id: x,
+        athlete_id: w.athlete,
+        before: { status: 'pending', setIds: [w.A, w.B] },
+        after: { status: 'refused', grantedSetIds: [], note: 'Not this week' },
+      },
+    ]);
     const pub = await w.publish();
     expect(pub.status).toBe(422);
     expect(w.blocking(pub)).toEqual([w.A, w.B]);
@@ -183,7 +288,8 @@ describe('exceptions: going past a cap on named sets, decided by the athlete\'s 
     expect((await w.publish()).status).toBe(200);
     // 55% of 140 kg = 77 kg: all three sets now go past the cap.
     expect((await put(w.clinician, `${w.base}/plans/${w.planId}`, { version: 1, stages: w.stages(55), guidance: '' })).status).toBe(200);
-    const onHold = async () => (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete).sessionsOnHold as number;
+    const onHold = async () =>
+      (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete).sessionsOnHold as number;
     expect(await onHold()).toBe(1);
     const partial = (await w.request([w.A, w.B])).body.id as string;
     await w.decide(partial, { decision: 'grant', note: 'Two of three' });

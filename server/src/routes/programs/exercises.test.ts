@@ -12,7 +12,9 @@ import { createOrg as createFullOrg, TEST_PASSWORD, type TestOrg } from '../../t
 let cheap: Promise<string> | null = null;
 async function createOrg(ds: DataSource): Promise<TestOrg> {
   const org = await createFullOrg(ds);
-  const ids = Object.values(org).filter((v): v is TestOrg['coach'] => typeof v === 'object').map((m) => m.userId);
+  const ids = Object.values(org)
+    .filter((v): v is TestOrg['coach'] => typeof v === 'object')
+    .map((m) => m.userId);
   await ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), ids]);
   return org;
 }
@@ -22,8 +24,21 @@ const STATUS = { allowed: [200, 201], forbidden: [403], not_found: [404] } as co
 describe('the exercise library', () => {
   const h = useHarness();
   const as = (m: { email: string }) => signedIn(h.app, m.email, TEST_PASSWORD);
-  const lib = async (c: Client, org: TestOrg) => (await c.get(`/api/orgs/${org.id}/exercises`)).body as { id: string; name: string; referenceId: string | null; version: number; patterns: string[] }[];
-  const newExercise = (name = `Pin squat ${randomUUID().slice(0, 6)}`) => ({ name, patterns: ['squat'], equipment: 'barbell', ballistic: false, steps: { kind: 'increment', step: 2.5, unit: 'kg' } });
+  const lib = async (c: Client, org: TestOrg) =>
+    (await c.get(`/api/orgs/${org.id}/exercises`)).body as {
+      id: string;
+      name: string;
+      referenceId: string | null;
+      version: number;
+      patterns: string[];
+    }[];
+  const newExercise = (name = `Pin squat ${randomUUID().slice(0, 6)}`) => ({
+    name,
+    patterns: ['squat'],
+    equipment: 'barbell',
+    ballistic: false,
+    steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+  });
 
   it('is seeded for each organization: at least 30 exercises, names unique, reference lifts resolved', async () => {
     const org = await createOrg(h.ds);
@@ -42,7 +57,7 @@ describe('the exercise library', () => {
     expect(list.filter((e) => otherIds.has(e.id))).toEqual([]);
   });
 
-  it('every member may read it; another organization\'s member may not (404)', async () => {
+  it("every member may read it; another organization's member may not (404)", async () => {
     const org = await createOrg(h.ds);
     const other = await createOrg(h.ds);
     for (const m of [org.athlete, org.guardian, org.clinician, org.admin]) {
@@ -65,7 +80,10 @@ describe('the exercise library', () => {
     expect(stale.body.error.code).toBe('version_conflict');
     const after = (await lib(coach, org)).find((e) => e.id === created.body.id)!;
     expect(after).toMatchObject({ name: 'Pin squat (low)', version: 2 });
-    const audit = await h.ds.query(`SELECT action FROM audit_entries WHERE organization_id = $1 AND subject_id = $2 ORDER BY id`, [org.id, created.body.id]);
+    const audit = await h.ds.query(`SELECT action FROM audit_entries WHERE organization_id = $1 AND subject_id = $2 ORDER BY id`, [
+      org.id,
+      created.body.id,
+    ]);
     expect(audit.map((a: { action: string }) => a.action)).toEqual(['exercise.created', 'exercise.updated']);
   });
 
@@ -84,7 +102,13 @@ describe('the exercise library', () => {
 
   it('who may add to the library, as the access matrix says; nothing is added by those refused', async () => {
     const org = await createOrg(h.ds);
-    const cases = [['athlete', org.athlete], ['guardian', org.guardian], ['clinician', org.clinician], ['admin', org.admin], ['coach', org.coach]] as const;
+    const cases = [
+      ['athlete', org.athlete],
+      ['guardian', org.guardian],
+      ['clinician', org.clinician],
+      ['admin', org.admin],
+      ['coach', org.coach],
+    ] as const;
     for (const [role, member] of cases) {
       const name = `By ${role}`;
       const res = await (await as(member)).post(`/api/orgs/${org.id}/exercises`, newExercise(name));
@@ -98,12 +122,14 @@ describe('the exercise library', () => {
     expect(expectedOutcome('guardian', 'Exercise', 'create', 'same-org')).toBe('forbidden');
   });
 
-  it('another organization\'s exercise cannot be edited or used as a reference (404 / 400)', async () => {
+  it("another organization's exercise cannot be edited or used as a reference (404 / 400)", async () => {
     const org = await createOrg(h.ds);
     const other = await createOrg(h.ds);
     const theirs = (await lib(await as(other.coach), other))[0];
     const coach = await as(org.coach);
-    expect((await coach.patch(`/api/orgs/${org.id}/exercises/${theirs.id}`, { name: 'Hijacked', version: theirs.version })).status).toBe(404);
+    expect((await coach.patch(`/api/orgs/${org.id}/exercises/${theirs.id}`, { name: 'Hijacked', version: theirs.version })).status).toBe(
+      404,
+    );
     const ref = await coach.post(`/api/orgs/${org.id}/exercises`, { ...newExercise(), referenceId: theirs.id });
     expect(ref.status).toBe(400);
     expect(Object.keys(ref.body.error.fields)).toEqual(['referenceId']);
@@ -121,11 +147,23 @@ describe('baselines', () => {
     const org = await createOrg(h.ds);
     const coach = await as(org.coach);
     const dl = await exerciseId(coach, org, 'Deadlift');
-    const res = await coach.post(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}/baselines`, { exerciseId: dl, kind: 'tested', loadKg: 140, reps: 5, testedOn: '2026-11-01' });
+    const res = await coach.post(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}/baselines`, {
+      exerciseId: dl,
+      kind: 'tested',
+      loadKg: 140,
+      reps: 5,
+      testedOn: '2026-11-01',
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({ reps: ['a tested max is one rep'] });
     expect((await coach.get(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}/baselines`)).body).toEqual([]);
-    const ok = await coach.post(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}/baselines`, { exerciseId: dl, kind: 'tested', loadKg: 140, reps: 1, testedOn: '2026-11-01' });
+    const ok = await coach.post(`/api/orgs/${org.id}/athletes/${org.athlete.membershipId}/baselines`, {
+      exerciseId: dl,
+      kind: 'tested',
+      loadKg: 140,
+      reps: 1,
+      testedOn: '2026-11-01',
+    });
     expect(ok.status).toBe(201);
     // r = 1 → 1RM = w (REFERENCES 1: defined so; Epley read literally would give 143.33).
     expect(ok.body).toMatchObject({ kind: 'tested', e1rmKg: 140, formula: 'tested', lowReliability: false });
@@ -138,14 +176,27 @@ describe('baselines', () => {
     const url = `/api/orgs/${org.id}/athletes/${org.athlete.membershipId}/baselines`;
     const plain = await coach.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 100, reps: 5, testedOn: '2026-11-01' });
     expect(plain.status, JSON.stringify(plain.body)).toBe(201);
-    expect(plain.body).toMatchObject({ kind: 'estimated', loadKg: 100, reps: 5, rpe: null, e1rmKg: 116.67, formula: 'epley', lowReliability: false, exerciseName: 'Back squat' });
+    expect(plain.body).toMatchObject({
+      kind: 'estimated',
+      loadKg: 100,
+      reps: 5,
+      rpe: null,
+      e1rmKg: 116.67,
+      formula: 'epley',
+      lowReliability: false,
+      exerciseName: 'Back squat',
+    });
     const rir = await coach.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 100, reps: 5, rpe: 8, testedOn: '2026-11-02' });
     expect(rir.body).toMatchObject({ rpe: 8, e1rmKg: 123.33, lowReliability: false });
     // 10 reps is still reliable (REFERENCES 1: r ≤ 10); 100 kg × 10 → 133.33 (Epley, from memory).
     const ten = await coach.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 100, reps: 10, testedOn: '2026-11-03' });
     expect(ten.body).toMatchObject({ e1rmKg: 133.33, lowReliability: false });
     const list = (await coach.get(url)).body as { e1rmKg: number; testedOn: string }[];
-    expect(list.map((b) => [b.testedOn, b.e1rmKg])).toEqual([['2026-11-03', 133.33], ['2026-11-02', 123.33], ['2026-11-01', 116.67]]);
+    expect(list.map((b) => [b.testedOn, b.e1rmKg])).toEqual([
+      ['2026-11-03', 133.33],
+      ['2026-11-02', 123.33],
+      ['2026-11-01', 116.67],
+    ]);
   });
 
   it('more than 10 reps is flagged low reliability (Reynolds et al. 2006, JSCR 20:584–592): 60 kg × 12 → 84 kg', async () => {
@@ -157,7 +208,10 @@ describe('baselines', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ e1rmKg: 84, lowReliability: true });
     // 9 reps at RPE 8 is 11 possible: low reliability too.
-    expect((await clinician.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 60, reps: 9, rpe: 8, testedOn: '2026-11-02' })).body.lowReliability).toBe(true);
+    expect(
+      (await clinician.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 60, reps: 9, rpe: 8, testedOn: '2026-11-02' })).body
+        .lowReliability,
+    ).toBe(true);
   });
 
   it('reps past where the estimates break down are refused (REFERENCES 1: reject r ≥ 37), counting reps in reserve', async () => {
@@ -174,7 +228,7 @@ describe('baselines', () => {
     expect((await coach.get(url)).body).toEqual([]);
   });
 
-  it('another care team\'s athlete or another organization\'s athlete answers 404, and nothing is recorded', async () => {
+  it("another care team's athlete or another organization's athlete answers 404, and nothing is recorded", async () => {
     const org = await createOrg(h.ds);
     const other = await createOrg(h.ds);
     const coach = await as(org.coach);
@@ -184,7 +238,9 @@ describe('baselines', () => {
       expect((await coach.post(`/api/orgs/${org.id}/athletes/${athleteId}/baselines`, body)).status).toBe(404);
       expect((await coach.get(`/api/orgs/${org.id}/athletes/${athleteId}/baselines`)).status).toBe(404);
     }
-    const rows = await h.ds.query(`SELECT count(*)::int AS n FROM baselines WHERE athlete_id = ANY($1)`, [[org.otherAthlete.membershipId, other.athlete.membershipId]]);
+    const rows = await h.ds.query(`SELECT count(*)::int AS n FROM baselines WHERE athlete_id = ANY($1)`, [
+      [org.otherAthlete.membershipId, other.athlete.membershipId],
+    ]);
     expect(rows[0].n).toBe(0);
   });
 
@@ -198,7 +254,10 @@ describe('baselines', () => {
     expect((await athlete.get(url)).body).toHaveLength(1);
     expect(expectedOutcome('athlete', 'Baseline', 'create', 'self')).toBe('forbidden');
     expect((await athlete.post(url, { exerciseId: dl, kind: 'tested', loadKg: 200, reps: 1, testedOn: '2026-11-02' })).status).toBe(403);
-    for (const [role, m] of [['guardian', org.guardian], ['admin', org.admin]] as const) {
+    for (const [role, m] of [
+      ['guardian', org.guardian],
+      ['admin', org.admin],
+    ] as const) {
       const res = await (await as(m)).get(url);
       expect(STATUS[expectedOutcome(role, 'Baseline', 'read', role === 'admin' ? 'other-athlete' : 'own-care-team')]).toContain(res.status);
       expect(res.status, role).toBe(403);

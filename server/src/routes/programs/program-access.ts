@@ -10,7 +10,12 @@ import type { ActorWithOrg } from '../../services/actor';
  * (a coach cannot touch a group program that includes someone else's athlete); an athlete may read a
  * program they are part of, and then only its published sessions.
  */
-export function authorizeProgram(ability: AppAbility, actor: ActorWithOrg, action: Action, program: Program | null): asserts program is Program {
+export function authorizeProgram(
+  ability: AppAbility,
+  actor: ActorWithOrg,
+  action: Action,
+  program: Program | null,
+): asserts program is Program {
   const rec = (athleteId: string) => ({ id: program?.id ?? '', organizationId: actor.organizationId, athleteId });
   if (program && action === 'read' && actor.roles.includes('athlete') && program.athleteIds.includes(actor.membershipId)) {
     authorize(ability, 'read', 'Program', rec(actor.membershipId));
@@ -21,7 +26,10 @@ export function authorizeProgram(ability: AppAbility, actor: ActorWithOrg, actio
 }
 
 export function onlyPublished(actor: ActorWithOrg, program: Program): boolean {
-  return !(actor.roles.includes('coach') || actor.roles.includes('clinician')) || !program.athleteIds.some((a) => actor.coachOf.includes(a) || actor.clinicianOf.includes(a));
+  return (
+    !(actor.roles.includes('coach') || actor.roles.includes('clinician')) ||
+    !program.athleteIds.some((a) => actor.coachOf.includes(a) || actor.clinicianOf.includes(a))
+  );
 }
 
 /**
@@ -29,7 +37,10 @@ export function onlyPublished(actor: ActorWithOrg, program: Program): boolean {
  * teammate's breaches, which spell out the teammate's caps and 1RM (as the today view filters them).
  */
 export async function programDto(m: EntityManager, program: Program, publishedOnly: boolean, holdsOf?: string): Promise<ProgramDto> {
-  const sessions = await m.find(ProgramSession, { where: { programId: program.id, ...(publishedOnly ? { status: 'published' as const } : {}) }, order: { date: 'ASC', createdAt: 'ASC' } });
+  const sessions = await m.find(ProgramSession, {
+    where: { programId: program.id, ...(publishedOnly ? { status: 'published' as const } : {}) },
+    order: { date: 'ASC', createdAt: 'ASC' },
+  });
   const names: { id: string; name: string }[] = await m.query(
     `SELECT m.id, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
     [program.athleteIds],
@@ -42,13 +53,30 @@ export async function programDto(m: EntityManager, program: Program, publishedOn
     athleteNames: program.athleteIds.map((id) => byId.get(id) ?? 'Unknown athlete'),
     version: program.version,
     createdAt: program.createdAt.toISOString(),
-    sessions: (await sessionDtos(m, sessions, program.name)).map((s) => (holdsOf === undefined ? s : { ...s, holds: s.holds.filter((h) => h.athleteId === holdsOf) })),
+    sessions: (await sessionDtos(m, sessions, program.name)).map((s) =>
+      holdsOf === undefined ? s : { ...s, holds: s.holds.filter((h) => h.athleteId === holdsOf) },
+    ),
   };
 }
 
-export async function sessionDtos(m: EntityManager, sessions: ProgramSession[], programName: string | Map<string, string>): Promise<ProgramSessionDto[]> {
-  const holds = sessions.length ? await m.createQueryBuilder(SessionHold, 'h').where('h.session_id IN (:...ids)', { ids: sessions.map((s) => s.id) }).getMany() : [];
-  return sessions.map((s) => toSessionDto(s, typeof programName === 'string' ? programName : programName.get(s.programId) ?? '', holds.filter((h) => h.sessionId === s.id)));
+export async function sessionDtos(
+  m: EntityManager,
+  sessions: ProgramSession[],
+  programName: string | Map<string, string>,
+): Promise<ProgramSessionDto[]> {
+  const holds = sessions.length
+    ? await m
+        .createQueryBuilder(SessionHold, 'h')
+        .where('h.session_id IN (:...ids)', { ids: sessions.map((s) => s.id) })
+        .getMany()
+    : [];
+  return sessions.map((s) =>
+    toSessionDto(
+      s,
+      typeof programName === 'string' ? programName : (programName.get(s.programId) ?? ''),
+      holds.filter((h) => h.sessionId === s.id),
+    ),
+  );
 }
 
 export function toSessionDto(

@@ -14,18 +14,39 @@ const cheapen = async (ds: DataSource, userIds: string[]) =>
   ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), userIds]);
 async function createOrg(ds: DataSource): Promise<TestOrg> {
   const org = await createFullOrg(ds);
-  await cheapen(ds, Object.values(org).filter((v): v is MemberRef => typeof v === 'object').map((m) => m.userId));
+  await cheapen(
+    ds,
+    Object.values(org)
+      .filter((v): v is MemberRef => typeof v === 'object')
+      .map((m) => m.userId),
+  );
   return org;
 }
 
 const addDays = (date: string, days: number) => new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
 const TODAY = todayIso();
 /** A Monday two weeks ahead, so the sessions below are in the future and inside the plan's stage. */
-const MONDAY = (() => { const d = addDays(TODAY, 14); const dow = (new Date(`${d}T00:00:00Z`).getUTCDay() + 6) % 7; return addDays(d, -dow); })();
+const MONDAY = (() => {
+  const d = addDays(TODAY, 14);
+  const dow = (new Date(`${d}T00:00:00Z`).getUTCDay() + 6) % 7;
+  return addDays(d, -dow);
+})();
 
-interface SetSpec { kg: number; reps?: number; rpe?: number }
+interface SetSpec {
+  kg: number;
+  reps?: number;
+  rpe?: number;
+}
 function content(exerciseId: string, sets: SetSpec[]) {
-  return { exercises: [{ id: randomUUID(), exerciseId, sets: sets.map((s) => ({ id: randomUUID(), reps: s.reps ?? 5, load: { kind: 'kg', value: s.kg }, targetRpe: s.rpe ?? 6 })) }] };
+  return {
+    exercises: [
+      {
+        id: randomUUID(),
+        exerciseId,
+        sets: sets.map((s) => ({ id: randomUUID(), reps: s.reps ?? 5, load: { kind: 'kg', value: s.kg }, targetRpe: s.rpe ?? 6 })),
+      },
+    ],
+  };
 }
 type Content = ReturnType<typeof content>;
 const setIds = (c: Content) => c.exercises.flatMap((e) => e.sets.map((s) => s.id));
@@ -47,12 +68,36 @@ describe('programs and sessions', () => {
     const ex = (name: string) => lib.find((e) => e.name === name)!.id;
     const athlete = org.athlete.membershipId;
     const baseline = async (athleteId: string, kg: number) =>
-      expect((await coach.post(`${base}/athletes/${athleteId}/baselines`, { exerciseId: ex('Deadlift'), kind: 'tested', loadKg: kg, reps: 1, testedOn: TODAY })).status).toBe(201);
+      expect(
+        (
+          await coach.post(`${base}/athletes/${athleteId}/baselines`, {
+            exerciseId: ex('Deadlift'),
+            kind: 'tested',
+            loadKg: kg,
+            reps: 1,
+            testedOn: TODAY,
+          })
+        ).status,
+      ).toBe(201);
     await baseline(athlete, 140);
     const plan = async (athleteId: string, pct: number) => {
-      const c = await clinician.post(`${base}/cases`, { athleteId, bodyRegions: ['lower_back'], onsetDate: addDays(TODAY, -30), status: 'limited', statusEffectiveFrom: addDays(TODAY, -30) });
+      const c = await clinician.post(`${base}/cases`, {
+        athleteId,
+        bodyRegions: ['lower_back'],
+        onsetDate: addDays(TODAY, -30),
+        status: 'limited',
+        statusEffectiveFrom: addDays(TODAY, -30),
+      });
       expect(c.status, JSON.stringify(c.body)).toBe(201);
-      const stages = [{ id: randomUUID(), startDate: addDays(TODAY, -30), endDate: addDays(TODAY, 120), painCeiling: 5, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: pct } } } }];
+      const stages = [
+        {
+          id: randomUUID(),
+          startDate: addDays(TODAY, -30),
+          endDate: addDays(TODAY, 120),
+          painCeiling: 5,
+          patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: pct } } },
+        },
+      ];
       const p = await clinician.post(`${base}/cases/${c.body.id}/plan`, { stages, guidance: '' });
       expect(p.status, JSON.stringify(p.body)).toBe(201);
     };
@@ -69,8 +114,10 @@ describe('programs and sessions', () => {
     };
     const publish = (id: string, version: number) => coach.post(`${base}/sessions/${id}/publish`, { version });
     const audit = async (action: string, subjectId: string) =>
-      (await h.ds.query(`SELECT before, after, athlete_id FROM audit_entries WHERE organization_id = $1 AND action = $2 AND subject_id = $3 ORDER BY id`, [org.id, action, subjectId])) as
-        { before: Record<string, unknown> | null; after: Record<string, unknown> | null; athlete_id: string | null }[];
+      (await h.ds.query(
+        `SELECT before, after, athlete_id FROM audit_entries WHERE organization_id = $1 AND action = $2 AND subject_id = $3 ORDER BY id`,
+        [org.id, action, subjectId],
+      )) as { before: Record<string, unknown> | null; after: Record<string, unknown> | null; athlete_id: string | null }[];
     return { org, coach, clinician, base, ex, athlete, baseline, plan, program, session, publish, audit };
   }
 
@@ -82,15 +129,30 @@ describe('programs and sessions', () => {
     const res = await w.publish(s.id, s.version);
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('unprocessable');
-    expect(res.body.error.message).toBe('This session cannot be published: 1 planned set goes past a cap. Each breach below says which cap, by how much, and what would fit.');
-    expect(res.body.error.details.breaches).toEqual([{
-      athleteId: w.athlete,
-      breaches: [{
-        setId: setIds(c)[0], sessionId: s.id, date: MONDAY, exerciseId: w.ex('Deadlift'), rule: 'percent_1rm', pattern: 'hinge',
-        limit: 'max 60% of 140 kg = 84 kg', planned: '87.5 kg', fits: '82.5 kg fits on 2.5 kg steps', fittingKg: 82.5, waived: false,
-        message: 'Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps.',
-      }],
-    }]);
+    expect(res.body.error.message).toBe(
+      'This session cannot be published: 1 planned set goes past a cap. Each breach below says which cap, by how much, and what would fit.',
+    );
+    expect(res.body.error.details.breaches).toEqual([
+      {
+        athleteId: w.athlete,
+        breaches: [
+          {
+            setId: setIds(c)[0],
+            sessionId: s.id,
+            date: MONDAY,
+            exerciseId: w.ex('Deadlift'),
+            rule: 'percent_1rm',
+            pattern: 'hinge',
+            limit: 'max 60% of 140 kg = 84 kg',
+            planned: '87.5 kg',
+            fits: '82.5 kg fits on 2.5 kg steps',
+            fittingKg: 82.5,
+            waived: false,
+            message: 'Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps.',
+          },
+        ],
+      },
+    ]);
     // The dry-run check says the same, and neither publishes.
     const check = await w.coach.post(`${w.base}/sessions/${s.id}/check`);
     expect(check.status).toBe(200);
@@ -138,12 +200,18 @@ describe('programs and sessions', () => {
     const refused = await put(w.coach, `${w.base}/sessions/${s.id}`, { version: pub.body.version, content: heavier });
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toMatch(/^This session cannot be changed while published: 1 planned set goes past a cap\./);
-    expect(refused.body.error.details.breaches[0].breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([['percent_1rm', '90 kg']]);
+    expect(refused.body.error.details.breaches[0].breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([
+      ['percent_1rm', '90 kg'],
+    ]);
     const now = (await w.coach.get(`${w.base}/programs/${p.id}`)).body.sessions[0];
     expect(now).toMatchObject({ status: 'published', version: pub.body.version, content: c });
     expect(await w.audit('session.updated', s.id)).toEqual([]);
     // Moving it is checked too: the same content on a day with no cap in force is fine.
-    const moved = await put(w.coach, `${w.base}/sessions/${s.id}`, { version: pub.body.version, date: addDays(TODAY, 200), content: heavier });
+    const moved = await put(w.coach, `${w.base}/sessions/${s.id}`, {
+      version: pub.body.version,
+      date: addDays(TODAY, 200),
+      content: heavier,
+    });
     expect(moved.status, JSON.stringify(moved.body)).toBe(200);
     expect(moved.body).toMatchObject({ status: 'published', date: addDays(TODAY, 200) });
   });
@@ -164,8 +232,12 @@ describe('programs and sessions', () => {
     const res = await w.publish(s.id, s.version);
     expect(res.status).toBe(422);
     // 100 kg is 71% of 140 kg (over 84 kg) but 50% of 200 kg (under 120 kg).
-    expect(res.body.error.details.breaches.map((r: { athleteId: string; breaches: { limit: string }[] }) => [r.athleteId, r.breaches.map((b) => b.limit)]))
-      .toEqual([[w.athlete, ['max 60% of 140 kg = 84 kg']]]);
+    expect(
+      res.body.error.details.breaches.map((r: { athleteId: string; breaches: { limit: string }[] }) => [
+        r.athleteId,
+        r.breaches.map((b) => b.limit),
+      ]),
+    ).toEqual([[w.athlete, ['max 60% of 140 kg = 84 kg']]]);
     // The other way round: 80 kg fits the first athlete, and a new 120 kg max makes it 67% for the second.
     const light = structuredClone(c);
     light.exercises[0].sets[0].load.value = 80;
@@ -182,7 +254,10 @@ describe('programs and sessions', () => {
     const c = content(w.ex('Deadlift'), [{ kg: 80 }]);
     const s = await w.session(p.id, MONDAY, c);
     const other = await createOrg(h.ds);
-    for (const [who, client, base] of [['other coach', await as(w.org.otherCoach), w.base], ['other org', await as(other.coach), `/api/orgs/${other.id}`]] as const) {
+    for (const [who, client, base] of [
+      ['other coach', await as(w.org.otherCoach), w.base],
+      ['other org', await as(other.coach), `/api/orgs/${other.id}`],
+    ] as const) {
       const answers = [
         (await client.get(`${base}/programs/${p.id}`)).status,
         (await client.patch(`${base}/programs/${p.id}`, { name: 'Mine now', version: 1 })).status,
@@ -199,20 +274,26 @@ describe('programs and sessions', () => {
     }
     const now = (await w.coach.get(`${w.base}/programs/${p.id}`)).body;
     expect(now).toMatchObject({ name: 'Return block', version: 1 });
-    expect(now.sessions.map((x: { title: string; status: string; version: number }) => [x.title, x.status, x.version])).toEqual([['Day', 'draft', s.version]]);
+    expect(now.sessions.map((x: { title: string; status: string; version: number }) => [x.title, x.status, x.version])).toEqual([
+      ['Day', 'draft', s.version],
+    ]);
   });
 
   it('a coach cannot build a program including an athlete not on their care team, nor add one later; nothing is created', async () => {
     const w = await world();
     const other = await createOrg(h.ds);
-    const count = async () => (await h.ds.query(`SELECT count(*)::int AS n FROM programs WHERE organization_id = $1`, [w.org.id]))[0].n as number;
+    const count = async () =>
+      (await h.ds.query(`SELECT count(*)::int AS n FROM programs WHERE organization_id = $1`, [w.org.id]))[0].n as number;
     const mixed = await w.coach.post(`${w.base}/programs`, { name: 'Group', athleteIds: [w.athlete, w.org.otherAthlete.membershipId] });
     expect([403, 404]).toContain(mixed.status);
     const foreign = await w.coach.post(`${w.base}/programs`, { name: 'Group', athleteIds: [w.athlete, other.athlete.membershipId] });
     expect([400, 403, 404]).toContain(foreign.status);
     expect(await count()).toBe(0);
     const p = await w.program();
-    const widen = await w.coach.patch(`${w.base}/programs/${p.id}`, { athleteIds: [w.athlete, w.org.otherAthlete.membershipId], version: 1 });
+    const widen = await w.coach.patch(`${w.base}/programs/${p.id}`, {
+      athleteIds: [w.athlete, w.org.otherAthlete.membershipId],
+      version: 1,
+    });
     expect([403, 404]).toContain(widen.status);
     expect((await w.coach.get(`${w.base}/programs/${p.id}`)).body).toMatchObject({ athleteIds: [w.athlete], version: 1 });
     // Clinicians read programs but do not build them (the matrix: Program create, clinician n).
@@ -247,10 +328,20 @@ describe('programs and sessions', () => {
     expect((await me.post(`${w.base}/sessions/${draft.id}/check`)).status).toBe(404);
     expect((await me.post(`${w.base}/sessions/${randomUUID()}/check`)).status).toBe(404);
     // Editing is refused to the role outright (403 for any id, known or not), so that reveals nothing either.
-    for (const id of [draft.id, published.id, randomUUID()]) expect((await put(me, `${w.base}/sessions/${id}`, { version: 1, title: 'x' })).status).toBe(403);
+    for (const id of [draft.id, published.id, randomUUID()])
+      expect((await put(me, `${w.base}/sessions/${id}`, { version: 1, title: 'x' })).status).toBe(403);
     // Another athlete's program: 404, and the guardian or admin are refused programs outright.
-    await h.ds.getRepository(CareTeamAssignment).save({ organizationId: w.org.id, athleteId: w.org.otherAthlete.membershipId, memberId: w.org.otherCoach.membershipId, role: 'coach' });
-    const otherProgram = await (await as(w.org.otherCoach)).post(`${w.base}/programs`, { name: 'Other', athleteIds: [w.org.otherAthlete.membershipId] });
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({
+        organizationId: w.org.id,
+        athleteId: w.org.otherAthlete.membershipId,
+        memberId: w.org.otherCoach.membershipId,
+        role: 'coach',
+      });
+    const otherProgram = await (
+      await as(w.org.otherCoach)
+    ).post(`${w.base}/programs`, { name: 'Other', athleteIds: [w.org.otherAthlete.membershipId] });
     expect(otherProgram.status).toBe(201);
     expect((await me.get(`${w.base}/programs/${otherProgram.body.id}`)).status).toBe(404);
     expect((await me.get(`${w.base}/programs`)).body.map((x: { id: string }) => x.id)).toEqual([p.id]);
@@ -267,7 +358,10 @@ describe('programs and sessions', () => {
     const stale = await put(w.coach, `${w.base}/sessions/${s.id}`, { version: s.version, title: 'Lost' });
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('version_conflict');
-    expect((await w.coach.get(`${w.base}/programs/${p.id}`)).body.sessions[0]).toMatchObject({ title: 'Second', version: first.body.version });
+    expect((await w.coach.get(`${w.base}/programs/${p.id}`)).body.sessions[0]).toMatchObject({
+      title: 'Second',
+      version: first.body.version,
+    });
     // An empty session has nothing to check and cannot be published.
     const empty = await w.session(p.id, MONDAY, { exercises: [] }, 'Empty');
     const refused = await w.publish(empty.id, empty.version);
@@ -275,7 +369,7 @@ describe('programs and sessions', () => {
     expect(refused.body.error.message).toBe('An empty session cannot be published: add at least one exercise.');
   });
 
-  it('copy-week copies one week\'s sessions as drafts a week on, with new exercise and set ids', async () => {
+  it("copy-week copies one week's sessions as drafts a week on, with new exercise and set ids", async () => {
     const w = await world();
     const p = await w.program();
     const dl = w.ex('Deadlift');
@@ -299,7 +393,9 @@ describe('programs and sessions', () => {
     expect(new Set(newIds).size).toBe(newIds.length);
     const all = (await w.coach.get(`${w.base}/programs/${p.id}`)).body.sessions;
     expect(all).toHaveLength(5);
-    expect(await w.audit('program.week_copied', p.id)).toEqual([{ before: null, after: { fromWeekStart: MONDAY, toWeekStart: addDays(MONDAY, 14), sessions: 2 }, athlete_id: null }]);
+    expect(await w.audit('program.week_copied', p.id)).toEqual([
+      { before: null, after: { fromWeekStart: MONDAY, toWeekStart: addDays(MONDAY, 14), sessions: 2 }, athlete_id: null },
+    ]);
   });
 
   it('shift moves the drafts from a date on, never a published session or an earlier draft', async () => {
@@ -313,7 +409,12 @@ describe('programs and sessions', () => {
     const res = await w.coach.post(`${w.base}/programs/${p.id}/shift`, { fromDate: MONDAY, days: 3 });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.moved).toBe(1);
-    const byTitle = Object.fromEntries((await w.coach.get(`${w.base}/programs/${p.id}`)).body.sessions.map((x: { title: string; date: string; version: number }) => [x.title, [x.date, x.version]]));
+    const byTitle = Object.fromEntries(
+      (await w.coach.get(`${w.base}/programs/${p.id}`)).body.sessions.map((x: { title: string; date: string; version: number }) => [
+        x.title,
+        [x.date, x.version],
+      ]),
+    );
     expect(byTitle).toEqual({
       'Early draft': [addDays(MONDAY, -1), early.version],
       Published: [MONDAY, pub.version + 1],

@@ -15,15 +15,21 @@ const cheapen = async (ds: DataSource, userIds: string[]) =>
   ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), userIds]);
 async function createOrg(ds: DataSource): Promise<TestOrg> {
   const org = await createFullOrg(ds);
-  await cheapen(ds, Object.values(org).filter((v): v is MemberRef => typeof v === 'object').map((m) => m.userId));
+  await cheapen(
+    ds,
+    Object.values(org)
+      .filter((v): v is MemberRef => typeof v === 'object')
+      .map((m) => m.userId),
+  );
   return org;
 }
 
 const addDays = (date: string, days: number) => new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
 const TODAY = todayIso();
 const put = (c: Client, path: string, body: object) => c.agent.put(path).set('x-csrf-token', c.csrf).send(body);
-const oneSet = (exerciseId: string, kg: number) =>
-  ({ exercises: [{ id: randomUUID(), exerciseId, sets: [{ id: randomUUID(), reps: 5, load: { kind: 'kg', value: kg }, targetRpe: 6 }] }] });
+const oneSet = (exerciseId: string, kg: number) => ({
+  exercises: [{ id: randomUUID(), exerciseId, sets: [{ id: randomUUID(), reps: 5, load: { kind: 'kg', value: kg }, targetRpe: 6 }] }],
+});
 
 describe('published sessions are checked again when what they depend on changes', () => {
   const h = useHarness();
@@ -37,11 +43,35 @@ describe('published sessions are checked again when what they depend on changes'
     const athlete = org.athlete.membershipId;
     const dl = ((await coach.get(`${base}/exercises`)).body as { id: string; name: string }[]).find((e) => e.name === 'Deadlift')!.id;
     const baseline = async (kg: number) =>
-      expect((await coach.post(`${base}/athletes/${athlete}/baselines`, { exerciseId: dl, kind: 'tested', loadKg: kg, reps: 1, testedOn: TODAY })).status).toBe(201);
+      expect(
+        (
+          await coach.post(`${base}/athletes/${athlete}/baselines`, {
+            exerciseId: dl,
+            kind: 'tested',
+            loadKg: kg,
+            reps: 1,
+            testedOn: TODAY,
+          })
+        ).status,
+      ).toBe(201);
     await baseline(140);
-    const c = await clinician.post(`${base}/cases`, { athleteId: athlete, bodyRegions: ['lower_back'], onsetDate: addDays(TODAY, -30), status: 'limited', statusEffectiveFrom: addDays(TODAY, -30) });
+    const c = await clinician.post(`${base}/cases`, {
+      athleteId: athlete,
+      bodyRegions: ['lower_back'],
+      onsetDate: addDays(TODAY, -30),
+      status: 'limited',
+      statusEffectiveFrom: addDays(TODAY, -30),
+    });
     expect(c.status).toBe(201);
-    const stages = (p: number) => [{ id: randomUUID(), startDate: addDays(TODAY, -30), endDate: addDays(TODAY, 120), painCeiling: 5, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: p } } } }];
+    const stages = (p: number) => [
+      {
+        id: randomUUID(),
+        startDate: addDays(TODAY, -30),
+        endDate: addDays(TODAY, 120),
+        painCeiling: 5,
+        patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: p } } },
+      },
+    ];
     let planId = '';
     let planVersion = 0;
     if (pct !== null) {
@@ -66,11 +96,32 @@ describe('published sessions are checked again when what they depend on changes'
       return s.body.id as string;
     };
     const held = async () =>
-      ((await h.ds.query(`SELECT session_id FROM session_holds WHERE athlete_id = $1 ORDER BY session_id`, [athlete])) as { session_id: string }[]).map((r) => r.session_id);
+      (
+        (await h.ds.query(`SELECT session_id FROM session_holds WHERE athlete_id = $1 ORDER BY session_id`, [athlete])) as {
+          session_id: string;
+        }[]
+      ).map((r) => r.session_id);
     const notices = async (kind = 'sessions_on_hold') =>
-      (await h.ds.query(`SELECT recipient_id, athlete_id, severity, title, body FROM notifications WHERE organization_id = $1 AND kind = $2 ORDER BY created_at`, [org.id, kind])) as
-        { recipient_id: string; athlete_id: string; severity: string; title: string; body: string }[];
-    return { org, coach, clinician, base, athlete, dl, baseline, caseId: c.body.id as string, caseVersion: c.body.version as number, revisePlan, program: prog.body.id as string, session, held, notices };
+      (await h.ds.query(
+        `SELECT recipient_id, athlete_id, severity, title, body FROM notifications WHERE organization_id = $1 AND kind = $2 ORDER BY created_at`,
+        [org.id, kind],
+      )) as { recipient_id: string; athlete_id: string; severity: string; title: string; body: string }[];
+    return {
+      org,
+      coach,
+      clinician,
+      base,
+      athlete,
+      dl,
+      baseline,
+      caseId: c.body.id as string,
+      caseVersion: c.body.version as number,
+      revisePlan,
+      program: prog.body.id as string,
+      session,
+      held,
+      notices,
+    };
   }
 
   it('a tighter plan holds exactly the published sessions from today on that now breach; past and draft sessions are untouched', async () => {
@@ -85,11 +136,22 @@ describe('published sessions are checked again when what they depend on changes'
     expect(await w.held()).toEqual([today, breaching].sort());
     const program = (await w.coach.get(`${w.base}/programs/${w.program}`)).body;
     const holdsOf = (id: string) => program.sessions.find((s: { id: string }) => s.id === id).holds;
-    expect(holdsOf(breaching)).toEqual([{ athleteId: w.athlete, breaches: [expect.objectContaining({ rule: 'percent_1rm', limit: 'max 60% of 140 kg = 84 kg', planned: '90 kg', fittingKg: 82.5 })] }]);
+    expect(holdsOf(breaching)).toEqual([
+      {
+        athleteId: w.athlete,
+        breaches: [expect.objectContaining({ rule: 'percent_1rm', limit: 'max 60% of 140 kg = 84 kg', planned: '90 kg', fittingKg: 82.5 })],
+      },
+    ]);
     for (const id of [past, fitting, draft]) expect(holdsOf(id), id).toEqual([]);
     // Nothing was unpublished or edited by the re-check: holding is not changing the session.
     expect(program.sessions.map((s: { id: string; status: string }) => [s.id, s.status]).sort()).toEqual(
-      [[past, 'published'], [today, 'published'], [breaching, 'published'], [fitting, 'published'], [draft, 'draft']].sort(),
+      [
+        [past, 'published'],
+        [today, 'published'],
+        [breaching, 'published'],
+        [fitting, 'published'],
+        [draft, 'draft'],
+      ].sort(),
     );
     const roster = (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete);
     expect(roster.sessionsOnHold).toBe(2);
@@ -99,7 +161,9 @@ describe('published sessions are checked again when what they depend on changes'
     const w = await world(70);
     // A second coach on the athlete's care team.
     const second = await createMember(h.ds, w.org.id, ['coach']);
-    await h.ds.getRepository(CareTeamAssignment).save({ organizationId: w.org.id, athleteId: w.athlete, memberId: second.membershipId, role: 'coach' });
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: w.org.id, athleteId: w.athlete, memberId: second.membershipId, role: 'coach' });
     const d1 = addDays(TODAY, 7);
     const d2 = addDays(TODAY, 10);
     await w.session(d1, 90);
@@ -109,13 +173,17 @@ describe('published sessions are checked again when what they depend on changes'
     expect(notices.map((n) => n.recipient_id).sort()).toEqual([w.org.coach.membershipId, second.membershipId].sort());
     for (const n of notices) {
       expect(n).toMatchObject({ athlete_id: w.athlete, severity: 'urgent', title: `${w.org.athlete.name}: 2 sessions on hold` });
-      expect(n.body).toBe(`The clinician changed the restriction plan. These published sessions now go past a cap and are on hold until you update them: ${d1}, ${d2}.`);
+      expect(n.body).toBe(
+        `The clinician changed the restriction plan. These published sessions now go past a cap and are on hold until you update them: ${d1}, ${d2}.`,
+      );
     }
     // What the coach reads through the API.
     const mine = (await w.coach.get(`${w.base}/notifications`)).body.filter((n: { kind: string }) => n.kind === 'sessions_on_hold');
     expect(mine).toHaveLength(1);
     for (const m of [w.org.clinician, w.org.athlete, w.org.guardian, w.org.otherCoach]) {
-      const theirs = (await (await as(m)).get(`${w.base}/notifications`)).body.filter((n: { kind: string }) => n.kind === 'sessions_on_hold');
+      const theirs = (await (await as(m)).get(`${w.base}/notifications`)).body.filter(
+        (n: { kind: string }) => n.kind === 'sessions_on_hold',
+      );
       expect(theirs, m.email).toEqual([]);
     }
     // A further change that holds nothing new tells nobody again.
@@ -123,7 +191,7 @@ describe('published sessions are checked again when what they depend on changes'
     expect(await w.notices()).toHaveLength(2);
   });
 
-  it('loosening the plan releases the holds; the session is back in the athlete\'s day', async () => {
+  it("loosening the plan releases the holds; the session is back in the athlete's day", async () => {
     const w = await world(70);
     const date = addDays(TODAY, 7);
     const s = await w.session(date, 90);
@@ -136,8 +204,12 @@ describe('published sessions are checked again when what they depend on changes'
     await w.revisePlan(70);
     expect(await w.held()).toEqual([]);
     const free = (await athlete.get(`${w.base}/athletes/${w.athlete}/today?date=${date}`)).body;
-    expect(free.sessions.map((x: { id: string; onHold: boolean; holds: unknown[] }) => [x.id, x.onHold, x.holds])).toEqual([[s, false, []]]);
-    expect((await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete).sessionsOnHold).toBe(0);
+    expect(free.sessions.map((x: { id: string; onHold: boolean; holds: unknown[] }) => [x.id, x.onHold, x.holds])).toEqual([
+      [s, false, []],
+    ]);
+    expect((await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete).sessionsOnHold).toBe(
+      0,
+    );
     // Only the tightening told the coach.
     expect(await w.notices()).toHaveLength(1);
   });
@@ -148,7 +220,11 @@ describe('published sessions are checked again when what they depend on changes'
     const onTheDay = await w.session(addDays(TODAY, 5), 60);
     const after = await w.session(addDays(TODAY, 12), 60);
     expect(await w.held()).toEqual([]);
-    const out = await w.clinician.post(`${w.base}/cases/${w.caseId}/status`, { status: 'out', effectiveFrom: addDays(TODAY, 5), version: w.caseVersion });
+    const out = await w.clinician.post(`${w.base}/cases/${w.caseId}/status`, {
+      status: 'out',
+      effectiveFrom: addDays(TODAY, 5),
+      version: w.caseVersion,
+    });
     expect(out.status, JSON.stringify(out.body)).toBe(201);
     expect(await w.held()).toEqual([onTheDay, after].sort());
     expect(await w.held()).not.toContain(before);
@@ -175,7 +251,9 @@ describe('published sessions are checked again when what they depend on changes'
     const w = await world(60);
     const teammate = await createMember(h.ds, w.org.id, ['athlete']);
     await cheapen(h.ds, [teammate.userId]);
-    await h.ds.getRepository(CareTeamAssignment).save({ organizationId: w.org.id, athleteId: teammate.membershipId, memberId: w.org.coach.membershipId, role: 'coach' });
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: w.org.id, athleteId: teammate.membershipId, memberId: w.org.coach.membershipId, role: 'coach' });
     const group = await w.coach.post(`${w.base}/programs`, { name: 'Group', athleteIds: [w.athlete, teammate.membershipId] });
     const date = addDays(TODAY, 7);
     const s = await w.coach.post(`${w.base}/programs/${group.body.id}/sessions`, { date, title: 'Team lift', content: oneSet(w.dl, 80) });
@@ -188,7 +266,10 @@ describe('published sessions are checked again when what they depend on changes'
     expect(theirs).toMatchObject({ id: s.body.id, onHold: false, holds: [] });
     // The program itself, as the teammate reads it, does not carry the first athlete's breaches either
     // (they name that athlete's caps and 1RM).
-    for (const program of [(await teammateClient.get(`${w.base}/programs/${group.body.id}`)).body, ...(await teammateClient.get(`${w.base}/programs`)).body]) {
+    for (const program of [
+      (await teammateClient.get(`${w.base}/programs/${group.body.id}`)).body,
+      ...(await teammateClient.get(`${w.base}/programs`)).body,
+    ]) {
       expect(program.sessions.map((x: { holds: unknown[] }) => x.holds)).toEqual([[]]);
     }
     // The coach still sees the hold, and whose it is.
@@ -199,26 +280,47 @@ describe('published sessions are checked again when what they depend on changes'
   });
 
   // Needs a day of the current ISO week before today, which a Monday does not have.
-  it.skipIf(weekOf(TODAY) === TODAY)('weekly hard-set limits count this week\'s earlier published sessions too, as publishing does', async () => {
-    const w = await world(null);
-    const c = await w.clinician.get(`${w.base}/cases/${w.caseId}`);
-    expect(c.status).toBe(200);
-    const stages = (maxHard: number) => [{ id: randomUUID(), startDate: addDays(TODAY, -30), endDate: addDays(TODAY, 120), painCeiling: 5, patterns: { hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: maxHard } } } }];
-    const plan = await w.clinician.post(`${w.base}/cases/${w.caseId}/plan`, { stages: stages(10), guidance: '' });
-    expect(plan.status).toBe(201);
-    const hard = (n: number) => ({ exercises: [{ id: randomUUID(), exerciseId: w.dl, sets: Array.from({ length: n }, () => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 8 })) }] });
-    const publish = async (date: string, n: number) => {
-      const s = await w.coach.post(`${w.base}/programs/${w.program}/sessions`, { date, title: date, content: hard(n) });
-      expect((await w.coach.post(`${w.base}/sessions/${s.body.id}/publish`, { version: s.body.version })).status).toBe(200);
-      return s.body.id as string;
-    };
-    await publish(weekOf(TODAY), 3); // earlier this week: 3 hard sets (RPE 8 ≥ 7, common practice)
-    const todays = await publish(TODAY, 2);
-    // A cap of 4: today's second set is the week's fifth hard set.
-    const revised = await put(w.clinician, `${w.base}/plans/${plan.body.id}`, { version: 1, stages: stages(4), guidance: '' });
-    expect(revised.status).toBe(200);
-    expect(await w.held()).toEqual([todays]);
-    const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [todays]);
-    expect(hold.breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([['hard_sets_per_week', `hard set 5 of the week of ${weekOf(TODAY)}`]]);
-  });
+  it.skipIf(weekOf(TODAY) === TODAY)(
+    "weekly hard-set limits count this week's earlier published sessions too, as publishing does",
+    async () => {
+      const w = await world(null);
+      const c = await w.clinician.get(`${w.base}/cases/${w.caseId}`);
+      expect(c.status).toBe(200);
+      const stages = (maxHard: number) => [
+        {
+          id: randomUUID(),
+          startDate: addDays(TODAY, -30),
+          endDate: addDays(TODAY, 120),
+          painCeiling: 5,
+          patterns: { hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: maxHard } } },
+        },
+      ];
+      const plan = await w.clinician.post(`${w.base}/cases/${w.caseId}/plan`, { stages: stages(10), guidance: '' });
+      expect(plan.status).toBe(201);
+      const hard = (n: number) => ({
+        exercises: [
+          {
+            id: randomUUID(),
+            exerciseId: w.dl,
+            sets: Array.from({ length: n }, () => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 8 })),
+          },
+        ],
+      });
+      const publish = async (date: string, n: number) => {
+        const s = await w.coach.post(`${w.base}/programs/${w.program}/sessions`, { date, title: date, content: hard(n) });
+        expect((await w.coach.post(`${w.base}/sessions/${s.body.id}/publish`, { version: s.body.version })).status).toBe(200);
+        return s.body.id as string;
+      };
+      await publish(weekOf(TODAY), 3); // earlier this week: 3 hard sets (RPE 8 ≥ 7, common practice)
+      const todays = await publish(TODAY, 2);
+      // A cap of 4: today's second set is the week's fifth hard set.
+      const revised = await put(w.clinician, `${w.base}/plans/${plan.body.id}`, { version: 1, stages: stages(4), guidance: '' });
+      expect(revised.status).toBe(200);
+      expect(await w.held()).toEqual([todays]);
+      const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [todays]);
+      expect(hold.breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([
+        ['hard_sets_per_week', `hard set 5 of the week of ${weekOf(TODAY)}`],
+      ]);
+    },
+  );
 });

@@ -28,7 +28,11 @@ export const rosterRoutes: RouteDef[] = [
           athleteId: r.athleteId,
           athleteName: r.athleteName,
           status: r.status,
-          limitsToday: inForce ? MOVEMENT_PATTERNS.filter((p) => inForce.patterns[p].mode !== 'free').map((p) => describeRule(p, inForce.patterns[p], user.unitPref, 'staff')) : [],
+          limitsToday: inForce
+            ? MOVEMENT_PATTERNS.filter((p) => inForce.patterns[p].mode !== 'free').map((p) =>
+                describeRule(p, inForce.patterns[p], user.unitPref, 'staff'),
+              )
+            : [],
           sessionsOnHold: r.sessionsOnHold,
           pendingExceptions: r.pendingExceptions,
           nextSession: r.nextSession,

@@ -6,15 +6,24 @@ import { SESSION_COOKIE } from '../../http/security';
 import { AppError } from '../../core/errors';
 import { sessionDto, toUserDto } from '../../services/session-dto';
 import {
-  accountLimits, auditSignIn, authenticateLocal, beginSecondStep, invalidCredentials, pendingSecondStep, sessionWithStep, startSession,
+  accountLimits,
+  auditSignIn,
+  authenticateLocal,
+  beginSecondStep,
+  invalidCredentials,
+  pendingSecondStep,
+  sessionWithStep,
+  startSession,
   useAuditedSecondStepCode,
 } from '../../services/sign-in';
 import { isTwoStepOn, twoStepKey } from '../../services/two-step';
 import { authorize } from '../../core/authorize';
 import { User } from '../../entities';
 
-const wrongCode = () => new AppError('invalid_credentials', 'That code did not work. Enter the code your app shows now, or one of your unused recovery codes.');
-const stepTimedOut = () => new AppError('unauthenticated', 'Your sign-in timed out before a code was entered. Please enter your e-mail and password again.');
+const wrongCode = () =>
+  new AppError('invalid_credentials', 'That code did not work. Enter the code your app shows now, or one of your unused recovery codes.');
+const stepTimedOut = () =>
+  new AppError('unauthenticated', 'Your sign-in timed out before a code was entered. Please enter your e-mail and password again.');
 
 export function sessionRoutes(deps: Deps): RouteDef[] {
   const limits = accountLimits(deps);
@@ -95,7 +104,15 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       body: ProfileUpdateSchema,
       async handler({ user, body, tx }) {
         const me = user!;
-        const selfOnly: Actor = { userId: me.id, organizationId: '', membershipId: '', roles: [], coachOf: [], clinicianOf: [], guardianOf: [] };
+        const selfOnly: Actor = {
+          userId: me.id,
+          organizationId: '',
+          membershipId: '',
+          roles: [],
+          coachOf: [],
+          clinicianOf: [],
+          guardianOf: [],
+        };
         const ability = defineAbilityFor(selfOnly);
         for (const field of Object.keys(body)) authorize(ability, 'update', 'User', { id: me.id }, field);
         return tx(async (m, audit) => {

@@ -160,8 +160,7 @@ describe('sessions (default settings)', () => {
     expect(rows[0].remaining).toBeGreaterThan(30 * 60 - 60);
 
     const maxAge = cookie.attrs.get('max-age');
-    const lifetime =
-      typeof maxAge === 'string' ? Number(maxAge) : (Date.parse(String(cookie.attrs.get('expires'))) - Date.now()) / 1000;
+    const lifetime = typeof maxAge === 'string' ? Number(maxAge) : (Date.parse(String(cookie.attrs.get('expires'))) - Date.now()) / 1000;
     expect(Number.isFinite(lifetime)).toBe(true);
     expect(lifetime).toBeLessThanOrEqual(30 * 60 + 1);
     expect(lifetime).toBeGreaterThan(30 * 60 - 60);
@@ -279,7 +278,11 @@ describe('sessions (default settings)', () => {
       [org.guardian.userId],
     );
     expect(signedInRows).toHaveLength(1);
-    expect(signedInRows[0]).toEqual({ organization_id: org.id, actor_user_id: org.guardian.userId, request_id: ok.headers['x-request-id'] });
+    expect(signedInRows[0]).toEqual({
+      organization_id: org.id,
+      actor_user_id: org.guardian.userId,
+      request_id: ok.headers['x-request-id'],
+    });
 
     const badPassword = 'wrong-guess-for-audit-test';
     const anon = await Client.anonymous(h.app);
@@ -350,9 +353,7 @@ describe('sessions (default settings)', () => {
         const res = await (await Client.anonymous(h.app)).post('/api/invitations/accept', { token, displayName: label, password });
         outcomes.push({ label, status: res.status, fields: Object.keys(res.body.error?.fields ?? {}) });
       }
-      expect(outcomes).toEqual(
-        cases.map(({ label, ok }) => ({ label, status: ok ? 200 : 400, fields: ok ? [] : ['password'] })),
-      );
+      expect(outcomes).toEqual(cases.map(({ label, ok }) => ({ label, status: ok ? 200 : 400, fields: ok ? [] : ['password'] })));
     });
   });
 });

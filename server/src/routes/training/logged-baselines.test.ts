@@ -9,8 +9,16 @@ describe('logged sets feed the strength history', () => {
     const base = `/api/orgs/${org.id}`;
     const me = await signedIn(h.app, org.athlete.email, TEST_PASSWORD);
     const logged = await me.post(`${base}/training-logs`, {
-      athleteId: org.athlete.membershipId, date: '2026-11-30', durationMinutes: 45, sessionRpe: 5, painBefore: 1, painDuring: 2,
-      sets: [{ exercise: 'back squat', loadKg: 100, reps: 5 }, { exercise: 'Something not in the library', loadKg: 50, reps: 5 }],
+      athleteId: org.athlete.membershipId,
+      date: '2026-11-30',
+      durationMinutes: 45,
+      sessionRpe: 5,
+      painBefore: 1,
+      painDuring: 2,
+      sets: [
+        { exercise: 'back squat', loadKg: 100, reps: 5 },
+        { exercise: 'Something not in the library', loadKg: 50, reps: 5 },
+      ],
     });
     expect(logged.status).toBe(201);
     const coach = await signedIn(h.app, org.coach.email, TEST_PASSWORD);

@@ -3,7 +3,13 @@ import type { CheckInDto, TrainingLogDto, TrainingLogOutcomeDto } from '../../..
 import type { AppAbility } from '../../../../policies/access';
 import { sessionLoad } from '../../../../policies/load/workload';
 import {
-  AthleteRangeQuerySchema, CheckInSchema, NextMorningSchema, OrgItemParamsSchema, OrgParamsSchema, TrainingLogCreateSchema, UuidSchema,
+  AthleteRangeQuerySchema,
+  CheckInSchema,
+  NextMorningSchema,
+  OrgItemParamsSchema,
+  OrgParamsSchema,
+  TrainingLogCreateSchema,
+  UuidSchema,
 } from '../../../../policies/schemas';
 import { todayIso } from '../../../../policies/roles';
 import { z } from 'zod';
@@ -37,8 +43,16 @@ export function toLogDto(l: TrainingLog): TrainingLogDto {
 }
 
 async function listLogs(ds: DataSource, ability: AppAbility, organizationId: string, q: z.infer<typeof RangeQuery>) {
-  const acl = accessibleWhere(ability, 'read', 'TrainingLog', { organizationId: 'l.organization_id', athleteId: 'l.athlete_id', id: 'l.id' });
-  const qb = ds.getRepository(TrainingLog).createQueryBuilder('l').where('l.organization_id = :org', { org: organizationId }).andWhere(acl.sql, acl.params);
+  const acl = accessibleWhere(ability, 'read', 'TrainingLog', {
+    organizationId: 'l.organization_id',
+    athleteId: 'l.athlete_id',
+    id: 'l.id',
+  });
+  const qb = ds
+    .getRepository(TrainingLog)
+    .createQueryBuilder('l')
+    .where('l.organization_id = :org', { org: organizationId })
+    .andWhere(acl.sql, acl.params);
   if (q.athleteId) qb.andWhere('l.athlete_id = :a', { a: q.athleteId });
   qb.andWhere('l.date >= :from', { from: q.from ?? shiftDate(todayIso(), -27) });
   if (q.to) qb.andWhere('l.date <= :to', { to: q.to });
@@ -46,7 +60,10 @@ async function listLogs(ds: DataSource, ability: AppAbility, organizationId: str
 }
 
 async function athleteName(ds: DataSource, athleteId: string): Promise<string> {
-  const rows: { name: string }[] = await ds.query(`SELECT u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = $1`, [athleteId]);
+  const rows: { name: string }[] = await ds.query(
+    `SELECT u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = $1`,
+    [athleteId],
+  );
   return rows[0]?.name ?? 'The athlete';
 }
 
@@ -62,7 +79,9 @@ export const trainingRoutes: RouteDef[] = [
     async handler({ ds, ability, actor, body, tx }) {
       authorize(ability, 'create', 'TrainingLog', { id: '', organizationId: actor.organizationId, athleteId: body.athleteId });
       if (body.date > todayIso()) {
-        throw new AppError('validation_failed', 'Please check the form: date cannot be in the future.', { date: ['cannot be in the future'] });
+        throw new AppError('validation_failed', 'Please check the form: date cannot be in the future.', {
+          date: ['cannot be in the future'],
+        });
       }
       const name = await athleteName(ds, body.athleteId);
       const { log, painRule } = await tx(async (m, audit) => {
@@ -115,14 +134,29 @@ export const trainingRoutes: RouteDef[] = [
     async handler({ ability, actor, body, tx }) {
       authorize(ability, 'create', 'CheckIn', { organizationId: actor.organizationId, athleteId: body.athleteId });
       if (body.date > todayIso()) {
-        throw new AppError('validation_failed', 'Please check the form: date cannot be in the future.', { date: ['cannot be in the future'] });
+        throw new AppError('validation_failed', 'Please check the form: date cannot be in the future.', {
+          date: ['cannot be in the future'],
+        });
       }
       return tx(async (m, audit) => {
-        await m.createQueryBuilder().insert().into(CheckIn).values({ organizationId: actor.organizationId, ...body })
-          .orUpdate(['sleep_hours', 'soreness', 'readiness', 'pain_now'], ['athlete_id', 'date']).execute();
+        await m
+          .createQueryBuilder()
+          .insert()
+          .into(CheckIn)
+          .values({ organizationId: actor.organizationId, ...body })
+          .orUpdate(['sleep_hours', 'soreness', 'readiness', 'pain_now'], ['athlete_id', 'date'])
+          .execute();
         const saved = await m.findOneByOrFail(CheckIn, { athleteId: body.athleteId, date: body.date });
         await audit({ action: 'check_in.recorded', subjectType: 'CheckIn', subjectId: saved.id, athleteId: body.athleteId, after: body });
-        const dto: CheckInDto = { id: saved.id, athleteId: saved.athleteId, date: saved.date, sleepHours: saved.sleepHours, soreness: saved.soreness, readiness: saved.readiness, painNow: saved.painNow };
+        const dto: CheckInDto = {
+          id: saved.id,
+          athleteId: saved.athleteId,
+          date: saved.date,
+          sleepHours: saved.sleepHours,
+          soreness: saved.soreness,
+          readiness: saved.readiness,
+          painNow: saved.painNow,
+        };
         return dto;
       });
     },
@@ -136,12 +170,24 @@ export const trainingRoutes: RouteDef[] = [
     query: RangeQuery,
     async handler({ ds, ability, actor, query }) {
       const acl = accessibleWhere(ability, 'read', 'CheckIn', { organizationId: 'c.organization_id', athleteId: 'c.athlete_id' });
-      const qb = ds.getRepository(CheckIn).createQueryBuilder('c').where('c.organization_id = :org', { org: actor.organizationId }).andWhere(acl.sql, acl.params);
+      const qb = ds
+        .getRepository(CheckIn)
+        .createQueryBuilder('c')
+        .where('c.organization_id = :org', { org: actor.organizationId })
+        .andWhere(acl.sql, acl.params);
       if (query.athleteId) qb.andWhere('c.athlete_id = :a', { a: query.athleteId });
       qb.andWhere('c.date >= :from', { from: query.from ?? shiftDate(todayIso(), -27) });
       if (query.to) qb.andWhere('c.date <= :to', { to: query.to });
       const rows = await qb.orderBy('c.date', 'DESC').limit(500).getMany();
-      return rows.map((c): CheckInDto => ({ id: c.id, athleteId: c.athleteId, date: c.date, sleepHours: c.sleepHours, soreness: c.soreness, readiness: c.readiness, painNow: c.painNow }));
+      return rows.map((c): CheckInDto => ({
+        id: c.id,
+        athleteId: c.athleteId,
+        date: c.date,
+        sleepHours: c.sleepHours,
+        soreness: c.soreness,
+        readiness: c.readiness,
+        painNow: c.painNow,
+      }));
     },
   }),
   orgRoute({
@@ -150,7 +196,10 @@ export const trainingRoutes: RouteDef[] = [
     summary: 'Daily and weekly load, monotony, strain, acute:chronic (described), pain against load, e1RM',
     access: { kind: 'org', action: 'read', subject: 'TrainingLog' },
     params: OrgItemParamsSchema,
-    query: z.strictObject({ to: z.iso.date({ message: 'must be a date (YYYY-MM-DD)' }).optional(), days: z.coerce.number().int().min(7).max(365).default(56) }),
+    query: z.strictObject({
+      to: z.iso.date({ message: 'must be a date (YYYY-MM-DD)' }).optional(),
+      days: z.coerce.number().int().min(7).max(365).default(56),
+    }),
     async handler({ ds, ability, actor, params, query }) {
       authorize(ability, 'read', 'TrainingLog', { id: '', organizationId: actor.organizationId, athleteId: params.id });
       return workload(ds, params.id, query.to ?? todayIso(), query.days);

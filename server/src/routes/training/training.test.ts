@@ -40,7 +40,9 @@ async function freshAthlete(w: World): Promise<{ ref: MemberRef; client: Client 
     { organizationId: w.org.id, athleteId: ref.membershipId, memberId: w.org.coach.membershipId, role: 'coach' },
     { organizationId: w.org.id, athleteId: ref.membershipId, memberId: w.org.clinician.membershipId, role: 'clinician' },
   ]);
-  await h.ds.getRepository(GuardianLink).save({ organizationId: w.org.id, athleteId: ref.membershipId, guardianId: w.org.guardian.membershipId });
+  await h.ds
+    .getRepository(GuardianLink)
+    .save({ organizationId: w.org.id, athleteId: ref.membershipId, guardianId: w.org.guardian.membershipId });
   return { ref, client: await signedIn(h.app, ref.email, TEST_PASSWORD) };
 }
 
@@ -63,11 +65,17 @@ const logBody = (athleteId: string, over: Record<string, unknown> = {}) => ({
 async function logSession(c: Client, w: World, body: Record<string, unknown>) {
   const res = await c.post(`${w.base}/training-logs`, body);
   expect(res.status, JSON.stringify(res.body)).toBe(201);
-  return res.body as { log: { id: string; version: number; painCeiling: number; sessionLoad: number }; painRule: { action: string; flags: { kind: string }[]; athleteMessage: string } };
+  return res.body as {
+    log: { id: string; version: number; painCeiling: number; sessionLoad: number };
+    painRule: { action: string; flags: { kind: string }[]; athleteMessage: string };
+  };
 }
 
 async function noticesAbout(athleteId: string): Promise<Record<string, string[]>> {
-  const rows: { recipient_id: string; kind: string }[] = await h.ds.query('SELECT recipient_id, kind FROM notifications WHERE athlete_id = $1 ORDER BY kind', [athleteId]);
+  const rows: { recipient_id: string; kind: string }[] = await h.ds.query(
+    'SELECT recipient_id, kind FROM notifications WHERE athlete_id = $1 ORDER BY kind',
+    [athleteId],
+  );
   const out: Record<string, string[]> = {};
   for (const r of rows) (out[r.recipient_id] ??= []).push(r.kind);
   return out;
@@ -81,12 +89,25 @@ describe('logging a session', () => {
   it('→ 201 with session load = RPE × minutes (Foster et al. 2001, JSCR 15:109–115: 6 × 75 = 450 AU); pain 3 ≤ 5 → keep; audited', async () => {
     const w = await world();
     const rid = `test-${randomUUID()}`;
-    const res = await (await w.as('athlete'))
-      .post(`${w.base}/training-logs`, logBody(w.org.athlete.membershipId, { date: '2025-11-03', sessionRpe: 6, durationMinutes: 75, painDuring: 3, notes: 'Felt fine' }))
+    const res = await (
+      await w.as('athlete')
+    )
+      .post(
+        `${w.base}/training-logs`,
+        logBody(w.org.athlete.membershipId, { date: '2025-11-03', sessionRpe: 6, durationMinutes: 75, painDuring: 3, notes: 'Felt fine' }),
+      )
       .set('x-request-id', rid);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.log).toMatchObject({
-      athleteId: w.org.athlete.membershipId, date: '2025-11-03', sessionRpe: 6, durationMinutes: 75, sessionLoad: 450, painCeiling: 5, painNextMorning: null, version: 1, sets: [],
+      athleteId: w.org.athlete.membershipId,
+      date: '2025-11-03',
+      sessionRpe: 6,
+      durationMinutes: 75,
+      sessionLoad: 450,
+      painCeiling: 5,
+      painNextMorning: null,
+      version: 1,
+      sets: [],
     });
     expect(res.body.painRule).toMatchObject({ action: 'keep', flags: [] });
     expect(await flagsFrom(res.body.log.id)).toEqual([]);
@@ -126,11 +147,23 @@ describe('logging a session', () => {
     const { ref, client } = await freshAthlete(w);
     const clin = await w.as('clinician');
     const opened = await clin.post(`${w.base}/cases`, {
-      athleteId: ref.membershipId, bodyRegions: ['lower_back'], onsetDate: '2026-02-20', status: 'limited', statusEffectiveFrom: '2026-02-20',
+      athleteId: ref.membershipId,
+      bodyRegions: ['lower_back'],
+      onsetDate: '2026-02-20',
+      status: 'limited',
+      statusEffectiveFrom: '2026-02-20',
     });
     expect(opened.status, JSON.stringify(opened.body)).toBe(201);
     const plan = await clin.post(`${w.base}/cases/${opened.body.id}/plan`, {
-      stages: [{ id: randomUUID(), startDate: '2026-03-01', endDate: '2026-03-31', painCeiling: 7, patterns: { hinge: { mode: 'capped', caps: { maxRpe: 7 } } } }],
+      stages: [
+        {
+          id: randomUUID(),
+          startDate: '2026-03-01',
+          endDate: '2026-03-31',
+          painCeiling: 7,
+          patterns: { hinge: { mode: 'capped', caps: { maxRpe: 7 } } },
+        },
+      ],
     });
     expect(plan.status, JSON.stringify(plan.body)).toBe(201);
 
@@ -156,7 +189,11 @@ describe('next-morning pain (Silbernagel et al. 2007: settled by next morning, n
   beforeAll(async () => {
     w = await world();
     // Pain 3 during (fine), 1 before; next morning 3 = 2 above baseline (REFERENCES §6 check 3).
-    const body = await logSession(await w.as('athlete'), w, logBody(w.org.athlete.membershipId, { date: '2025-10-06', painBefore: 1, painDuring: 3 }));
+    const body = await logSession(
+      await w.as('athlete'),
+      w,
+      logBody(w.org.athlete.membershipId, { date: '2025-10-06', painBefore: 1, painDuring: 3 }),
+    );
     expect(body.painRule.action).toBe('keep');
     logId = body.log.id;
     first = await (await w.as('athlete')).post(`${w.base}/training-logs/${logId}/next-morning`, { painNextMorning: 3, version: 1 });
@@ -257,22 +294,52 @@ describe('daily check-in', () => {
     const w = await world();
     const athlete = await w.as('athlete');
     const date = fromToday(0);
-    const a = await athlete.post(`${w.base}/check-ins`, { athleteId: w.org.athlete.membershipId, date, sleepHours: 6, soreness: 5, readiness: 4, painNow: 3 });
+    const a = await athlete.post(`${w.base}/check-ins`, {
+      athleteId: w.org.athlete.membershipId,
+      date,
+      sleepHours: 6,
+      soreness: 5,
+      readiness: 4,
+      painNow: 3,
+    });
     expect(a.status, JSON.stringify(a.body)).toBe(200);
-    const b = await athlete.post(`${w.base}/check-ins`, { athleteId: w.org.athlete.membershipId, date, sleepHours: 8.5, soreness: 2, readiness: 8, painNow: 1 });
+    const b = await athlete.post(`${w.base}/check-ins`, {
+      athleteId: w.org.athlete.membershipId,
+      date,
+      sleepHours: 8.5,
+      soreness: 2,
+      readiness: 8,
+      painNow: 1,
+    });
     expect(b.status, JSON.stringify(b.body)).toBe(200);
     expect(b.body).toMatchObject({ id: a.body.id, date, sleepHours: 8.5, soreness: 2, readiness: 8, painNow: 1 });
-    const rows = await h.ds.query('SELECT sleep_hours::float AS sleep, soreness, readiness, pain_now FROM check_ins WHERE athlete_id = $1 AND date = $2', [w.org.athlete.membershipId, date]);
+    const rows = await h.ds.query(
+      'SELECT sleep_hours::float AS sleep, soreness, readiness, pain_now FROM check_ins WHERE athlete_id = $1 AND date = $2',
+      [w.org.athlete.membershipId, date],
+    );
     expect(rows).toEqual([{ sleep: 8.5, soreness: 2, readiness: 8, pain_now: 1 }]);
-    const audits = await h.ds.query(`SELECT count(*)::int AS n FROM audit_entries WHERE action = 'check_in.recorded' AND subject_id = $1`, [a.body.id]);
+    const audits = await h.ds.query(`SELECT count(*)::int AS n FROM audit_entries WHERE action = 'check_in.recorded' AND subject_id = $1`, [
+      a.body.id,
+    ]);
     expect(audits[0].n).toBe(2);
     const list = await (await w.as('coach')).get(`${w.base}/check-ins?athleteId=${w.org.athlete.membershipId}`);
-    expect(list.body.filter((c: { date: string }) => c.date === date)).toEqual([expect.objectContaining({ sleepHours: 8.5, readiness: 8 })]);
+    expect(list.body.filter((c: { date: string }) => c.date === date)).toEqual([
+      expect.objectContaining({ sleepHours: 8.5, readiness: 8 }),
+    ]);
   });
 
   it('a future check-in → 400 naming `date`; the guardian and another care team read none (403 / empty)', async () => {
     const w = await world();
-    const res = await (await w.as('athlete')).post(`${w.base}/check-ins`, { athleteId: w.org.athlete.membershipId, date: fromToday(1), sleepHours: 7, soreness: 1, readiness: 9, painNow: 0 });
+    const res = await (
+      await w.as('athlete')
+    ).post(`${w.base}/check-ins`, {
+      athleteId: w.org.athlete.membershipId,
+      date: fromToday(1),
+      sleepHours: 7,
+      soreness: 1,
+      readiness: 9,
+      painNow: 0,
+    });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields)).toEqual(['date']);
     const q = `${w.base}/check-ins?athleteId=${w.org.athlete.membershipId}`;
@@ -294,7 +361,16 @@ describe("workload from Foster's week (Foster 1998, MSSE 30:1164–1168; Foster 
     athlete = fresh.client;
     // Monday 5 January 2026 to Sunday 11 January: Wednesday and Sunday are rest days (not logged).
     const week: [string, number, number, object[]][] = [
-      ['2026-01-05', 5, 60, [{ exercise: 'Back squat', loadKg: 90, reps: 5 }, { exercise: 'Back squat', loadKg: 100, reps: 5 }, { exercise: 'Deadlift', loadKg: 60, reps: 15 }]],
+      [
+        '2026-01-05',
+        5,
+        60,
+        [
+          { exercise: 'Back squat', loadKg: 90, reps: 5 },
+          { exercise: 'Back squat', loadKg: 100, reps: 5 },
+          { exercise: 'Deadlift', loadKg: 60, reps: 15 },
+        ],
+      ],
       ['2026-01-06', 6, 75, [{ exercise: 'Bench press', loadKg: 100, reps: 5, rpe: 8 }]],
       ['2026-01-08', 5, 80, []],
       ['2026-01-09', 7, 50, []],
@@ -346,7 +422,11 @@ describe("workload from Foster's week (Foster 1998, MSSE 30:1164–1168; Foster 
   it('pain against load lists each session with its ceiling (Silbernagel et al. 2007)', async () => {
     const { pain } = (await athlete.get(path('to=2026-01-11&days=14'))).body;
     expect(pain.map((p: { date: string; load: number; ceiling: number }) => [p.date, p.load, p.ceiling])).toEqual([
-      ['2026-01-05', 300, 5], ['2026-01-06', 450, 5], ['2026-01-08', 400, 5], ['2026-01-09', 350, 5], ['2026-01-10', 600, 5],
+      ['2026-01-05', 300, 5],
+      ['2026-01-06', 450, 5],
+      ['2026-01-08', 400, 5],
+      ['2026-01-09', 350, 5],
+      ['2026-01-10', 600, 5],
     ]);
   });
 

@@ -54,20 +54,51 @@ function toClipDto(r: ClipRow): ClipDto {
 }
 
 function toNoteDto(n: ClipNote): ClipNoteDto {
-  return { id: n.id, clipId: n.clipId, atMs: n.atMs, body: n.body, authorName: n.authorName, authorUserId: n.authorUserId, authorRole: n.authorRole, createdAt: n.createdAt.toISOString() };
+  return {
+    id: n.id,
+    clipId: n.clipId,
+    atMs: n.atMs,
+    body: n.body,
+    authorName: n.authorName,
+    authorUserId: n.authorUserId,
+    authorRole: n.authorRole,
+    createdAt: n.createdAt.toISOString(),
+  };
 }
 
-const CLIP_COLUMNS = { id: 'c.id', organizationId: 'c.organization_id', athleteId: 'c.athlete_id', uploadedByUserId: 'c.uploaded_by_user_id' };
+const CLIP_COLUMNS = {
+  id: 'c.id',
+  organizationId: 'c.organization_id',
+  athleteId: 'c.athlete_id',
+  uploadedByUserId: 'c.uploaded_by_user_id',
+};
 
 /** Clips the caller may watch, newest first, with what the list shows (athlete, session date, note count). */
-async function listClips(ds: DataSource | EntityManager, ability: AppAbility, organizationId: string, filter: { athleteId?: string; trainingLogId?: string; id?: string }) {
+async function listClips(
+  ds: DataSource | EntityManager,
+  ability: AppAbility,
+  organizationId: string,
+  filter: { athleteId?: string; trainingLogId?: string; id?: string },
+) {
   const acl = accessibleWhere(ability, 'read', 'Clip', CLIP_COLUMNS);
-  const qb = ds.createQueryBuilder()
-    .select(['c.id AS id', 'c.organization_id AS organization_id', 'c.athlete_id AS athlete_id', 'u.display_name AS athlete_name',
-      'c.training_log_id AS training_log_id', 'l.date AS session_date', 'c.exercise AS exercise', 'c.caption AS caption',
-      'c.media_type AS media_type', 'c.size_bytes AS size_bytes', 'c.uploaded_by_name AS uploaded_by_name',
-      'c.uploaded_by_user_id AS uploaded_by_user_id', 'c.created_at AS created_at',
-      '(SELECT count(*)::int FROM clip_notes n WHERE n.clip_id = c.id) AS note_count'])
+  const qb = ds
+    .createQueryBuilder()
+    .select([
+      'c.id AS id',
+      'c.organization_id AS organization_id',
+      'c.athlete_id AS athlete_id',
+      'u.display_name AS athlete_name',
+      'c.training_log_id AS training_log_id',
+      'l.date AS session_date',
+      'c.exercise AS exercise',
+      'c.caption AS caption',
+      'c.media_type AS media_type',
+      'c.size_bytes AS size_bytes',
+      'c.uploaded_by_name AS uploaded_by_name',
+      'c.uploaded_by_user_id AS uploaded_by_user_id',
+      'c.created_at AS created_at',
+      '(SELECT count(*)::int FROM clip_notes n WHERE n.clip_id = c.id) AS note_count',
+    ])
     .from(Clip, 'c')
     .innerJoin(TrainingLog, 'l', 'l.id = c.training_log_id')
     .innerJoin('memberships', 'm', 'm.id = c.athlete_id')
@@ -88,7 +119,13 @@ async function readableClip(db: DataSource | EntityManager, ability: AppAbility,
 }
 
 /** The logged session must be this athlete's, and the exercise one of its sets (as the athlete spelled it). */
-async function loggedExercise(m: EntityManager, organizationId: string, athleteId: string, trainingLogId: string, exercise: string): Promise<string> {
+async function loggedExercise(
+  m: EntityManager,
+  organizationId: string,
+  athleteId: string,
+  trainingLogId: string,
+  exercise: string,
+): Promise<string> {
   const log = await m.findOne(TrainingLog, { where: { id: trainingLogId, organizationId, athleteId } });
   if (!log) {
     throw new AppError('validation_failed', "Please check the form: trainingLogId must be one of this athlete's logged sessions.", {
@@ -143,12 +180,26 @@ export const clipRoutes: RouteDef[] = [
       const id = await storeThenRecord(deps.storage, deps.logger, key, received, () =>
         tx(async (m, audit) => {
           const { fields, file } = received;
-          const clip = await m.save(m.create(Clip, {
-            organizationId: org, athleteId: fields.athleteId, trainingLogId: fields.trainingLogId, exercise, caption: fields.caption ?? null,
-            mediaType: file.mediaType, sizeBytes: String(file.size), sha256: file.sha256, storageKey: key, uploadedByUserId: user.id, uploadedByName: user.displayName,
-          }));
+          const clip = await m.save(
+            m.create(Clip, {
+              organizationId: org,
+              athleteId: fields.athleteId,
+              trainingLogId: fields.trainingLogId,
+              exercise,
+              caption: fields.caption ?? null,
+              mediaType: file.mediaType,
+              sizeBytes: String(file.size),
+              sha256: file.sha256,
+              storageKey: key,
+              uploadedByUserId: user.id,
+              uploadedByName: user.displayName,
+            }),
+          );
           await audit({
-            action: 'clip.uploaded', subjectType: 'Clip', subjectId: clip.id, athleteId: fields.athleteId,
+            action: 'clip.uploaded',
+            subjectType: 'Clip',
+            subjectId: clip.id,
+            athleteId: fields.athleteId,
             after: { trainingLogId: fields.trainingLogId, exercise, mediaType: file.mediaType, sizeBytes: file.size, sha256: file.sha256 },
           });
           return clip.id;
@@ -167,10 +218,20 @@ export const clipRoutes: RouteDef[] = [
       await readableClip(ds, ability, actor.organizationId, params.id);
       const [dto] = await listClips(ds, ability, actor.organizationId, { id: params.id });
       if (!dto) throw new AppError('not_found', 'That clip was not found.');
-      const acl = accessibleWhere(ability, 'read', 'ClipNote', { id: 'n.id', organizationId: 'n.organization_id', athleteId: 'n.athlete_id', authorUserId: 'n.author_user_id' });
-      const notes = await ds.getRepository(ClipNote).createQueryBuilder('n')
-        .where('n.clip_id = :clip', { clip: params.id }).andWhere(acl.sql, acl.params)
-        .orderBy('n.at_ms', 'ASC').addOrderBy('n.created_at', 'ASC').getMany();
+      const acl = accessibleWhere(ability, 'read', 'ClipNote', {
+        id: 'n.id',
+        organizationId: 'n.organization_id',
+        athleteId: 'n.athlete_id',
+        authorUserId: 'n.author_user_id',
+      });
+      const notes = await ds
+        .getRepository(ClipNote)
+        .createQueryBuilder('n')
+        .where('n.clip_id = :clip', { clip: params.id })
+        .andWhere(acl.sql, acl.params)
+        .orderBy('n.at_ms', 'ASC')
+        .addOrderBy('n.created_at', 'ASC')
+        .getMany();
       return { ...dto, notes: notes.map(toNoteDto) } satisfies ClipDto;
     },
   }),
@@ -229,8 +290,18 @@ export const clipRoutes: RouteDef[] = [
         const notes = await m.count(ClipNote, { where: { clipId: clip.id } });
         await m.delete(Clip, { id: clip.id });
         await audit({
-          action: 'clip.deleted', subjectType: 'Clip', subjectId: clip.id, athleteId: clip.athleteId,
-          before: { trainingLogId: clip.trainingLogId, exercise: clip.exercise, mediaType: clip.mediaType, sizeBytes: Number(clip.sizeBytes), sha256: clip.sha256, notes },
+          action: 'clip.deleted',
+          subjectType: 'Clip',
+          subjectId: clip.id,
+          athleteId: clip.athleteId,
+          before: {
+            trainingLogId: clip.trainingLogId,
+            exercise: clip.exercise,
+            mediaType: clip.mediaType,
+            sizeBytes: Number(clip.sizeBytes),
+            sha256: clip.sha256,
+            notes,
+          },
         });
       });
       await removeStored(deps.storage, deps.logger, clip.storageKey);
@@ -247,17 +318,40 @@ export const clipRoutes: RouteDef[] = [
     status: 201,
     async handler({ ds, ability, actor, user, params, body, tx }) {
       const clip = await readableClip(ds, ability, actor.organizationId, params.id);
-      authorize(ability, 'create', 'ClipNote', { id: '', organizationId: clip.organizationId, athleteId: clip.athleteId, authorUserId: user.id });
+      authorize(ability, 'create', 'ClipNote', {
+        id: '',
+        organizationId: clip.organizationId,
+        athleteId: clip.athleteId,
+        authorUserId: user.id,
+      });
       const note = await tx(async (m, audit) => {
-        const saved = await m.save(m.create(ClipNote, {
-          organizationId: clip.organizationId, athleteId: clip.athleteId, clipId: clip.id, atMs: body.atMs, body: body.body,
-          authorUserId: user.id, authorName: user.displayName, authorRole: noteRole(actor, clip.athleteId),
-        }));
+        const saved = await m.save(
+          m.create(ClipNote, {
+            organizationId: clip.organizationId,
+            athleteId: clip.athleteId,
+            clipId: clip.id,
+            atMs: body.atMs,
+            body: body.body,
+            authorUserId: user.id,
+            authorName: user.displayName,
+            authorRole: noteRole(actor, clip.athleteId),
+          }),
+        );
         // The note's text stays out of the trail; its place in the clip and length are enough.
-        await audit({ action: 'clip_note.added', subjectType: 'ClipNote', subjectId: saved.id, athleteId: clip.athleteId, after: { clipId: clip.id, atMs: body.atMs, length: body.body.length } });
+        await audit({
+          action: 'clip_note.added',
+          subjectType: 'ClipNote',
+          subjectId: saved.id,
+          athleteId: clip.athleteId,
+          after: { clipId: clip.id, atMs: body.atMs, length: body.body.length },
+        });
         await notify(m, [clip.athleteId], {
-          organizationId: clip.organizationId, athleteId: clip.athleteId, kind: 'clip_note', severity: 'routine',
-          title: `${user.displayName} left a note on your clip of ${clip.exercise}`, body: body.body.slice(0, 300),
+          organizationId: clip.organizationId,
+          athleteId: clip.athleteId,
+          kind: 'clip_note',
+          severity: 'routine',
+          title: `${user.displayName} left a note on your clip of ${clip.exercise}`,
+          body: body.body.slice(0, 300),
         });
         return saved;
       });
@@ -272,11 +366,19 @@ export const clipRoutes: RouteDef[] = [
     params: NoteParamsSchema,
     async handler({ ds, ability, actor, params, tx }) {
       await readableClip(ds, ability, actor.organizationId, params.id);
-      const note = await ds.getRepository(ClipNote).findOne({ where: { id: params.noteId, clipId: params.id, organizationId: actor.organizationId } });
+      const note = await ds
+        .getRepository(ClipNote)
+        .findOne({ where: { id: params.noteId, clipId: params.id, organizationId: actor.organizationId } });
       authorize(ability, 'delete', 'ClipNote', note);
       await tx(async (m, audit) => {
         await m.delete(ClipNote, { id: note.id });
-        await audit({ action: 'clip_note.removed', subjectType: 'ClipNote', subjectId: note.id, athleteId: note.athleteId, before: { clipId: note.clipId, atMs: note.atMs, length: note.body.length } });
+        await audit({
+          action: 'clip_note.removed',
+          subjectType: 'ClipNote',
+          subjectId: note.id,
+          athleteId: note.athleteId,
+          before: { clipId: note.clipId, atMs: note.atMs, length: note.body.length },
+        });
       });
       return undefined;
     },

@@ -37,13 +37,23 @@ describe('technique clips', () => {
     const res = await uploadClip(await w.as('athlete'), w);
     expect(res.status, res.text).toBe(201);
     expect(res.body).toMatchObject({
-      athleteId: w.org.athlete.membershipId, trainingLogId: w.log.id, sessionDate: '2026-11-30', exercise: 'Back squat', caption: 'Top set',
-      mediaType: 'video/webm', sizeBytes: 10_000, noteCount: 0, videoPath: `${w.base}/clips/${res.body.id}/video`,
+      athleteId: w.org.athlete.membershipId,
+      trainingLogId: w.log.id,
+      sessionDate: '2026-11-30',
+      exercise: 'Back squat',
+      caption: 'Top set',
+      mediaType: 'video/webm',
+      sizeBytes: 10_000,
+      noteCount: 0,
+      videoPath: `${w.base}/clips/${res.body.id}/video`,
     });
     for (const who of ['coach', 'clinician', 'athlete'] as const) {
       const c = await w.as(who);
       const list = await c.get(`${w.base}/clips?athleteId=${w.org.athlete.membershipId}`);
-      expect(list.body.map((x: { id: string }) => x.id), who).toEqual([res.body.id]);
+      expect(
+        list.body.map((x: { id: string }) => x.id),
+        who,
+      ).toEqual([res.body.id]);
       expect((await c.get(res.body.videoPath)).status, who).toBe(200);
     }
     const coach = await w.as('coach');
@@ -51,7 +61,9 @@ describe('technique clips', () => {
     const otherLog = await createLog(h.ds, w.org.id, w.org.athlete.membershipId);
     expect((await coach.get(`${w.base}/clips?trainingLogId=${otherLog.id}`)).body).toEqual([]);
     expect((await coach.get(`${w.base}/clips?athleteId=${w.org.otherAthlete.membershipId}`)).body).toEqual([]);
-    const actions = (await h.ds.getRepository(AuditEntry).find({ where: { subjectId: res.body.id }, order: { id: 'ASC' } })).map((a) => a.action);
+    const actions = (await h.ds.getRepository(AuditEntry).find({ where: { subjectId: res.body.id }, order: { id: 'ASC' } })).map(
+      (a) => a.action,
+    );
     expect(actions[0]).toBe('clip.uploaded');
     expect(actions.filter((a) => a === 'clip.viewed')).toHaveLength(3);
   });
@@ -147,7 +159,11 @@ describe('technique clips', () => {
     expect(beyond.body.error.code).toBe('range_not_satisfiable');
 
     // As a <video> element asks: same-origin GET with cookies, no CSRF token needed.
-    const element = await coach.agent.get(clip.body.videoPath).set('Sec-Fetch-Dest', 'video').set('Sec-Fetch-Site', 'same-origin').set('Range', 'bytes=0-');
+    const element = await coach.agent
+      .get(clip.body.videoPath)
+      .set('Sec-Fetch-Dest', 'video')
+      .set('Sec-Fetch-Site', 'same-origin')
+      .set('Range', 'bytes=0-');
     expect(element.status).toBe(206);
 
     // Only viewings from the start are audited (one per viewing, not one per seek).
@@ -208,7 +224,9 @@ describe('technique clips', () => {
     const note = await coach.post(`${w.base}/clips/${clip.body.id}/notes`, { atMs: 4200, body: 'Knees track out here, good.' });
     expect(note.status, note.text).toBe(201);
     expect(note.body).toMatchObject({ clipId: clip.body.id, atMs: 4200, authorRole: 'coach', authorName: w.org.coach.name });
-    const byClinician = await (await w.as('clinician')).post(`${w.base}/clips/${clip.body.id}/notes`, { atMs: 1000, body: 'Depth is fine.' });
+    const byClinician = await (
+      await w.as('clinician')
+    ).post(`${w.base}/clips/${clip.body.id}/notes`, { atMs: 1000, body: 'Depth is fine.' });
     expect(byClinician.body.authorRole).toBe('clinician');
 
     const athlete = await w.as('athlete');

@@ -54,14 +54,25 @@ export const documentRoutes: RouteDef[] = [
     async handler({ ds, ability, actor, params }) {
       const c = await readableCase(ds, ability, actor.organizationId, params.id);
       // A probe record: may this caller read documents of this athlete at all?
-      authorize(ability, 'read', 'CaseDocument', { id: '', organizationId: c.organizationId, athleteId: c.athleteId, uploadedByUserId: '' });
-      const acl = accessibleWhere(ability, 'read', 'CaseDocument', {
-        id: 'd.id', organizationId: 'd.organization_id', athleteId: 'd.athlete_id', uploadedByUserId: 'd.uploaded_by_user_id',
+      authorize(ability, 'read', 'CaseDocument', {
+        id: '',
+        organizationId: c.organizationId,
+        athleteId: c.athleteId,
+        uploadedByUserId: '',
       });
-      const rows = await ds.getRepository(CaseDocument).createQueryBuilder('d')
+      const acl = accessibleWhere(ability, 'read', 'CaseDocument', {
+        id: 'd.id',
+        organizationId: 'd.organization_id',
+        athleteId: 'd.athlete_id',
+        uploadedByUserId: 'd.uploaded_by_user_id',
+      });
+      const rows = await ds
+        .getRepository(CaseDocument)
+        .createQueryBuilder('d')
         .where('d.organization_id = :org AND d.case_id = :case', { org: actor.organizationId, case: c.id })
         .andWhere(acl.sql, acl.params)
-        .orderBy('d.document_date', 'DESC').addOrderBy('d.created_at', 'DESC')
+        .orderBy('d.document_date', 'DESC')
+        .addOrderBy('d.created_at', 'DESC')
         .getMany();
       return rows.map(toDto);
     },
@@ -75,20 +86,47 @@ export const documentRoutes: RouteDef[] = [
     status: 201,
     async handler({ ds, deps, ability, actor, user, params, req, tx }) {
       const c = await readableCase(ds, ability, actor.organizationId, params.id);
-      authorize(ability, 'create', 'CaseDocument', { id: '', organizationId: c.organizationId, athleteId: c.athleteId, uploadedByUserId: user.id });
+      authorize(ability, 'create', 'CaseDocument', {
+        id: '',
+        organizationId: c.organizationId,
+        athleteId: c.athleteId,
+        uploadedByUserId: user.id,
+      });
       const received = await receiveUpload(req, CaseDocumentFieldsSchema, documentRules(deps.config));
       const key = newStorageKey(actor.organizationId, 'documents');
       const saved = await storeThenRecord(deps.storage, deps.logger, key, received, () =>
         tx(async (m, audit) => {
           const { fields, file } = received;
-          const doc = await m.save(m.create(CaseDocument, {
-            organizationId: c.organizationId, athleteId: c.athleteId, caseId: c.id, title: fields.title, documentDate: fields.documentDate,
-            issuedBy: fields.issuedBy, mediaType: file.mediaType, sizeBytes: String(file.size), sha256: file.sha256, storageKey: key,
-            uploadedByUserId: user.id, uploadedByName: user.displayName,
-          }));
+          const doc = await m.save(
+            m.create(CaseDocument, {
+              organizationId: c.organizationId,
+              athleteId: c.athleteId,
+              caseId: c.id,
+              title: fields.title,
+              documentDate: fields.documentDate,
+              issuedBy: fields.issuedBy,
+              mediaType: file.mediaType,
+              sizeBytes: String(file.size),
+              sha256: file.sha256,
+              storageKey: key,
+              uploadedByUserId: user.id,
+              uploadedByName: user.displayName,
+            }),
+          );
           await audit({
-            action: 'case_document.uploaded', subjectType: 'CaseDocument', subjectId: doc.id, athleteId: c.athleteId,
-            after: { caseId: c.id, title: fields.title, documentDate: fields.documentDate, issuedBy: fields.issuedBy, mediaType: file.mediaType, sizeBytes: file.size, sha256: file.sha256 },
+            action: 'case_document.uploaded',
+            subjectType: 'CaseDocument',
+            subjectId: doc.id,
+            athleteId: c.athleteId,
+            after: {
+              caseId: c.id,
+              title: fields.title,
+              documentDate: fields.documentDate,
+              issuedBy: fields.issuedBy,
+              mediaType: file.mediaType,
+              sizeBytes: file.size,
+              sha256: file.sha256,
+            },
           });
           return doc;
         }),
@@ -104,7 +142,9 @@ export const documentRoutes: RouteDef[] = [
     params: OrgItemParamsSchema,
     async handler({ ds, deps, ability, actor, params, res, tx }) {
       const d = await readableDocument(ds, ability, actor.organizationId, params.id);
-      await tx((_m, audit) => audit({ action: 'case_document.downloaded', subjectType: 'CaseDocument', subjectId: d.id, athleteId: d.athleteId }));
+      await tx((_m, audit) =>
+        audit({ action: 'case_document.downloaded', subjectType: 'CaseDocument', subjectId: d.id, athleteId: d.athleteId }),
+      );
       const filename = `${slug(d.title)}-${d.documentDate}.${EXTENSIONS[d.mediaType] ?? 'bin'}`;
       await streamStored(deps.storage, res, d.storageKey, undefined, () => {
         res.setHeader('Content-Type', d.mediaType);
@@ -128,8 +168,19 @@ export const documentRoutes: RouteDef[] = [
       await tx(async (m, audit) => {
         await m.delete(CaseDocument, { id: d.id });
         await audit({
-          action: 'case_document.deleted', subjectType: 'CaseDocument', subjectId: d.id, athleteId: d.athleteId,
-          before: { caseId: d.caseId, title: d.title, documentDate: d.documentDate, issuedBy: d.issuedBy, mediaType: d.mediaType, sizeBytes: Number(d.sizeBytes), sha256: d.sha256 },
+          action: 'case_document.deleted',
+          subjectType: 'CaseDocument',
+          subjectId: d.id,
+          athleteId: d.athleteId,
+          before: {
+            caseId: d.caseId,
+            title: d.title,
+            documentDate: d.documentDate,
+            issuedBy: d.issuedBy,
+            mediaType: d.mediaType,
+            sizeBytes: Number(d.sizeBytes),
+            sha256: d.sha256,
+          },
         });
       });
       await removeStored(deps.storage, deps.logger, d.storageKey);

@@ -48,7 +48,14 @@ describe('case documents', () => {
     const clinician = await as('clinician');
     const res = await upload(clinician, `${base}/cases/${kase.id}/documents`, FIELDS, { data: PDF, name: 'scan.pdf' });
     expect(res.status, res.text).toBe(201);
-    expect(res.body).toMatchObject({ caseId: kase.id, athleteId: org.athlete.membershipId, title: FIELDS.title, documentDate: '2026-11-20', mediaType: 'application/pdf', sizeBytes: PDF.length });
+    expect(res.body).toMatchObject({
+      caseId: kase.id,
+      athleteId: org.athlete.membershipId,
+      title: FIELDS.title,
+      documentDate: '2026-11-20',
+      mediaType: 'application/pdf',
+      sizeBytes: PDF.length,
+    });
     expect(res.body.sha256).toMatch(/^[0-9a-f]{64}$/);
 
     const list = await clinician.get(`${base}/cases/${kase.id}/documents`);
@@ -67,26 +74,35 @@ describe('case documents', () => {
     expect(actions).toEqual(['case_document.uploaded', 'case_document.downloaded']);
   });
 
-  it('the athlete uploads to their own case and reads it; another athlete, a coach, a guardian, an admin and an off-team clinician get 404', { timeout: 90_000 }, async () => {
-    const { kase, base, as } = await w();
-    const athlete = await as('athlete');
-    const res = await upload(athlete, `${base}/cases/${kase.id}/documents`, { ...FIELDS, title: 'Referral' }, { data: PNG, name: 'photo.png', type: 'image/png' });
-    expect(res.status, res.text).toBe(201);
-    expect(res.body.mediaType).toBe('image/png');
-    expect((await athlete.get(res.body.downloadPath)).status).toBe(200);
-    expect((await athlete.get(`${base}/cases/${kase.id}/documents`)).status).toBe(200);
+  it(
+    'the athlete uploads to their own case and reads it; another athlete, a coach, a guardian, an admin and an off-team clinician get 404',
+    { timeout: 90_000 },
+    async () => {
+      const { kase, base, as } = await w();
+      const athlete = await as('athlete');
+      const res = await upload(
+        athlete,
+        `${base}/cases/${kase.id}/documents`,
+        { ...FIELDS, title: 'Referral' },
+        { data: PNG, name: 'photo.png', type: 'image/png' },
+      );
+      expect(res.status, res.text).toBe(201);
+      expect(res.body.mediaType).toBe('image/png');
+      expect((await athlete.get(res.body.downloadPath)).status).toBe(200);
+      expect((await athlete.get(`${base}/cases/${kase.id}/documents`)).status).toBe(200);
 
-    for (const who of ['coach', 'guardian', 'admin', 'otherClinician', 'otherAthlete'] as const) {
-      const c = await as(who);
-      const file = await c.get(res.body.downloadPath);
-      expect(file.status, `${who} file`).toBe(404);
-      expect(file.body.error.code).toBe('not_found');
-      expect((await c.get(`${base}/cases/${kase.id}/documents`)).status, `${who} list`).toBe(404);
-      expect((await c.delete(`${base}/documents/${res.body.id}`)).status, `${who} delete`).toBe(404);
-      const up = await upload(c, `${base}/cases/${kase.id}/documents`, FIELDS, { data: PDF, name: 'x.pdf' });
-      expect(up.status, `${who} upload`).toBe(404);
-    }
-  });
+      for (const who of ['coach', 'guardian', 'admin', 'otherClinician', 'otherAthlete'] as const) {
+        const c = await as(who);
+        const file = await c.get(res.body.downloadPath);
+        expect(file.status, `${who} file`).toBe(404);
+        expect(file.body.error.code).toBe('not_found');
+        expect((await c.get(`${base}/cases/${kase.id}/documents`)).status, `${who} list`).toBe(404);
+        expect((await c.delete(`${base}/documents/${res.body.id}`)).status, `${who} delete`).toBe(404);
+        const up = await upload(c, `${base}/cases/${kase.id}/documents`, FIELDS, { data: PDF, name: 'x.pdf' });
+        expect(up.status, `${who} upload`).toBe(404);
+      }
+    },
+  );
 
   it('a coach asking for a case document gets 404, not 403 (its existence is not revealed)', async () => {
     const { kase, base, as } = await w();
@@ -122,7 +138,11 @@ describe('case documents', () => {
 
   it('accepts a HEIC photo of a document (named .jpg by the phone): the type comes from its bytes', async () => {
     const { kase, base, as } = await w();
-    const res = await upload(await as('clinician'), `${base}/cases/${kase.id}/documents`, FIELDS, { data: HEIC, name: 'IMG_1234.jpg', type: 'image/jpeg' });
+    const res = await upload(await as('clinician'), `${base}/cases/${kase.id}/documents`, FIELDS, {
+      data: HEIC,
+      name: 'IMG_1234.jpg',
+      type: 'image/jpeg',
+    });
     expect(res.status, res.text).toBe(201);
     expect(res.body.mediaType).toBe('image/heic');
     const file = await (await as('clinician')).get(res.body.downloadPath);
@@ -132,7 +152,11 @@ describe('case documents', () => {
   it('refuses an HTML file renamed .pdf with 415 and a sentence, keeping nothing', async () => {
     const { org, kase, base, as } = await w();
     const before = await rowsFor(org);
-    const res = await upload(await as('clinician'), `${base}/cases/${kase.id}/documents`, FIELDS, { data: HTML, name: 'report.pdf', type: 'application/pdf' });
+    const res = await upload(await as('clinician'), `${base}/cases/${kase.id}/documents`, FIELDS, {
+      data: HTML,
+      name: 'report.pdf',
+      type: 'application/pdf',
+    });
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe('unsupported_media_type');
     expect(res.body.error.message).toBe('This file is not a PDF, JPEG, PNG or HEIC image (its contents were checked, not its name).');
@@ -175,15 +199,26 @@ describe('case documents', () => {
     try {
       const { port } = server.address() as AddressInfo;
       const cookie = (await clinician.agent.jar.getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false }))
-        .map((c: { name: string; value: string }) => `${c.name}=${c.value}`).join('; ');
+        .map((c: { name: string; value: string }) => `${c.name}=${c.value}`)
+        .join('; ');
       const boundary = 'loadline-test-boundary';
       const head = Buffer.from(
-        Object.entries(FIELDS).map(([k, v]) => `--${boundary}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`).join('') +
+        Object.entries(FIELDS)
+          .map(([k, v]) => `--${boundary}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`)
+          .join('') +
           `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="a.pdf"\r\nContent-Type: application/pdf\r\n\r\n`,
       );
       const req = http.request({
-        host: '127.0.0.1', port, method: 'POST', path: `${base}/cases/${kase.id}/documents`,
-        headers: { cookie, 'x-csrf-token': clinician.csrf, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + LIMIT - 100) },
+        host: '127.0.0.1',
+        port,
+        method: 'POST',
+        path: `${base}/cases/${kase.id}/documents`,
+        headers: {
+          cookie,
+          'x-csrf-token': clinician.csrf,
+          'content-type': `multipart/form-data; boundary=${boundary}`,
+          'content-length': String(head.length + LIMIT - 100),
+        },
       });
       req.on('error', () => undefined);
       req.write(head);
@@ -209,7 +244,12 @@ describe('case documents', () => {
 
   it("ignores a path in the file name: the stored key and the download name are the server's own", async () => {
     const { org, kase, base, as } = await w();
-    const res = await upload(await as('clinician'), `${base}/cases/${kase.id}/documents`, { ...FIELDS, title: 'Passwd?' }, { data: PDF, name: '../../etc/passwd.pdf' });
+    const res = await upload(
+      await as('clinician'),
+      `${base}/cases/${kase.id}/documents`,
+      { ...FIELDS, title: 'Passwd?' },
+      { data: PDF, name: '../../etc/passwd.pdf' },
+    );
     expect(res.status, res.text).toBe(201);
     const row = await h.ds.getRepository(CaseDocument).findOneByOrFail({ id: res.body.id });
     expect(row.storageKey).toMatch(new RegExp(`^${org.id}/documents/[0-9a-f-]{36}$`));
@@ -233,15 +273,25 @@ describe('case documents', () => {
     const extra = await upload(clinician, url, { ...FIELDS, organizationId: 'x' }, { data: PDF, name: 'a.pdf' });
     expect(extra.status).toBe(400);
     expect(extra.body.error.fields).toHaveProperty('organizationId');
-    const fieldAfterFile = await clinician.agent.post(url).set('x-csrf-token', clinician.csrf)
-      .field('title', FIELDS.title).field('documentDate', FIELDS.documentDate).attach('file', PDF, 'a.pdf').field('issuedBy', FIELDS.issuedBy);
+    const fieldAfterFile = await clinician.agent
+      .post(url)
+      .set('x-csrf-token', clinician.csrf)
+      .field('title', FIELDS.title)
+      .field('documentDate', FIELDS.documentDate)
+      .attach('file', PDF, 'a.pdf')
+      .field('issuedBy', FIELDS.issuedBy);
     expect(fieldAfterFile.status).toBe(400);
     expect(fieldAfterFile.body.error.fields).toHaveProperty('issuedBy');
     const twoFiles = await upload(clinician, url, FIELDS, { data: PDF, name: 'a.pdf' }).attach('file', PDF, 'b.pdf');
     expect(twoFiles.status).toBe(400);
     expect(twoFiles.body.error.fields).toEqual({ file: ['must be a single file'] });
-    const otherName = await clinician.agent.post(url).set('x-csrf-token', clinician.csrf)
-      .field('title', FIELDS.title).field('documentDate', FIELDS.documentDate).field('issuedBy', FIELDS.issuedBy).attach('document', PDF, 'a.pdf');
+    const otherName = await clinician.agent
+      .post(url)
+      .set('x-csrf-token', clinician.csrf)
+      .field('title', FIELDS.title)
+      .field('documentDate', FIELDS.documentDate)
+      .field('issuedBy', FIELDS.issuedBy)
+      .attach('document', PDF, 'a.pdf');
     expect(otherName.status).toBe(400);
     expect(otherName.body.error.fields).toHaveProperty('document');
     const json = await clinician.post(url, FIELDS);
@@ -293,7 +343,9 @@ describe('case documents', () => {
   it('a clinician removed from the care team loses access at once', async () => {
     const { org, base } = await w();
     const kase = await createCase(h.ds, org.id, org.athlete.membershipId);
-    const second = await h.ds.getRepository(CareTeamAssignment).save({ organizationId: org.id, athleteId: org.athlete.membershipId, memberId: org.otherClinician.membershipId, role: 'clinician' });
+    const second = await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: org.id, athleteId: org.athlete.membershipId, memberId: org.otherClinician.membershipId, role: 'clinician' });
     const c = await signedIn(h.app, org.otherClinician.email, TEST_PASSWORD);
     const doc = await upload(c, `${base}/cases/${kase.id}/documents`, FIELDS, { data: PDF, name: 'a.pdf' });
     expect(doc.status).toBe(201);

@@ -9,7 +9,10 @@ export const PNG = Buffer.from('89504E470D0A1A0A0000000D494844520000000100000001
 /** ISO base media headers: an 'ftyp' box with the brand that names the format. */
 export const HEIC = Buffer.concat([Buffer.from('000000186674797068656963000000006d69663168656963', 'hex'), Buffer.alloc(500, 1)]);
 export const MOV = Buffer.concat([Buffer.from('00000014667479707174202000000000717420200000000877696465', 'hex'), Buffer.alloc(5000, 2)]);
-export const MP4 = Buffer.concat([Buffer.from('0000001c667479706973736f6d0000020069736f6d69736f32617663316d703431', 'hex'), Buffer.alloc(5000, 3)]);
+export const MP4 = Buffer.concat([
+  Buffer.from('0000001c667479706973736f6d0000020069736f6d69736f32617663316d703431', 'hex'),
+  Buffer.alloc(5000, 3),
+]);
 export const HTML = Buffer.from('<!doctype html><html><body><script>alert(document.cookie)</script></body></html>\n');
 
 /** An EBML header with DocType "webm", a Segment id, then `size` bytes in all (0..255 repeating, so ranges are checkable). */
@@ -21,13 +24,38 @@ export function webm(size = 10_000): Buffer {
 }
 
 export async function createCase(ds: DataSource, organizationId: string, athleteId: string): Promise<CaseRecord> {
-  return ds.getRepository(CaseRecord).save({ organizationId, athleteId, bodyRegions: ['knee_left'], onsetDate: '2026-11-01', diagnosis: null, clinicalNotes: null, reviewDate: null, openedBy: null });
+  return ds
+    .getRepository(CaseRecord)
+    .save({
+      organizationId,
+      athleteId,
+      bodyRegions: ['knee_left'],
+      onsetDate: '2026-11-01',
+      diagnosis: null,
+      clinicalNotes: null,
+      reviewDate: null,
+      openedBy: null,
+    });
 }
 
-export async function createLog(ds: DataSource, organizationId: string, athleteId: string, exercises = ['Back squat', 'Bench press']): Promise<TrainingLog> {
+export async function createLog(
+  ds: DataSource,
+  organizationId: string,
+  athleteId: string,
+  exercises = ['Back squat', 'Bench press'],
+): Promise<TrainingLog> {
   return ds.getRepository(TrainingLog).save({
-    organizationId, athleteId, date: '2026-11-30', durationMinutes: 60, sessionRpe: 6, painBefore: 0, painDuring: 1, painNextMorning: null, painCeiling: 3,
-    sets: exercises.map((exercise) => ({ exercise, loadKg: 60, reps: 5 })), notes: null,
+    organizationId,
+    athleteId,
+    date: '2026-11-30',
+    durationMinutes: 60,
+    sessionRpe: 6,
+    painBefore: 0,
+    painDuring: 1,
+    painNextMorning: null,
+    painCeiling: 3,
+    sets: exercises.map((exercise) => ({ exercise, loadKg: 60, reps: 5 })),
+    notes: null,
   });
 }
 

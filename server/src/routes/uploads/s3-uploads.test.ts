@@ -33,12 +33,25 @@ describe('uploads stored through the S3 API (s3rver)', () => {
     s3 = new S3rver({ address: '127.0.0.1', port: 0, silent: true, directory: s3Dir });
     const { port } = await s3.run();
     const env = {
-      DATABASE_URL: inject('databaseUrl'), SESSION_SECRET: TEST_SECRET, LOG_LEVEL: 'silent', SIGNIN_MAX_PER_IP: '1000',
-      S3_BUCKET: bucket, S3_ENDPOINT: `http://127.0.0.1:${port}`, S3_REGION: 'us-east-1', S3_FORCE_PATH_STYLE: 'true',
-      S3_ACCESS_KEY_ID: 'S3RVER', S3_SECRET_ACCESS_KEY: 'S3RVER',
+      DATABASE_URL: inject('databaseUrl'),
+      SESSION_SECRET: TEST_SECRET,
+      LOG_LEVEL: 'silent',
+      SIGNIN_MAX_PER_IP: '1000',
+      S3_BUCKET: bucket,
+      S3_ENDPOINT: `http://127.0.0.1:${port}`,
+      S3_REGION: 'us-east-1',
+      S3_FORCE_PATH_STYLE: 'true',
+      S3_ACCESS_KEY_ID: 'S3RVER',
+      S3_SECRET_ACCESS_KEY: 'S3RVER',
     };
     const config = loadConfig(env);
-    storage = new S3Storage({ bucket, region: 'us-east-1', endpoint: env.S3_ENDPOINT, forcePathStyle: true, credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' } });
+    storage = new S3Storage({
+      bucket,
+      region: 'us-east-1',
+      endpoint: env.S3_ENDPOINT,
+      forcePathStyle: true,
+      credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
+    });
     await storage.client.send(new CreateBucketCommand({ Bucket: bucket }));
     await ds.initialize();
     const built = buildApp({ ds, config, logger: pino({ level: 'silent' }) });
@@ -58,8 +71,12 @@ describe('uploads stored through the S3 API (s3rver)', () => {
     const log = await createLog(ds, org.id, org.athlete.membershipId);
     const athlete = await signedIn(app, org.athlete.email, TEST_PASSWORD);
     const data = webm(20_000);
-    const res = await athlete.agent.post(`/api/orgs/${org.id}/clips`).set('x-csrf-token', athlete.csrf)
-      .field('athleteId', org.athlete.membershipId).field('trainingLogId', log.id).field('exercise', 'Back squat')
+    const res = await athlete.agent
+      .post(`/api/orgs/${org.id}/clips`)
+      .set('x-csrf-token', athlete.csrf)
+      .field('athleteId', org.athlete.membershipId)
+      .field('trainingLogId', log.id)
+      .field('exercise', 'Back squat')
       .attach('file', data, { filename: 'set.webm', contentType: 'video/webm' });
     expect(res.status, res.text).toBe(201);
     const row = await ds.getRepository(Clip).findOneByOrFail({ id: res.body.id });

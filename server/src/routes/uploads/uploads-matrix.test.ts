@@ -34,11 +34,41 @@ describe('uploads against the access matrix', () => {
       const athleteId = org[which].membershipId;
       const kase = await createCase(h.ds, org.id, athleteId);
       const log = await createLog(h.ds, org.id, athleteId);
-      const common = { organizationId: org.id, athleteId, mediaType: 'application/pdf', sizeBytes: '1', sha256: '0'.repeat(64), uploadedByUserId: org.admin.userId, uploadedByName: 'x' };
+      const common = {
+        organizationId: org.id,
+        athleteId,
+        mediaType: 'application/pdf',
+        sizeBytes: '1',
+        sha256: '0'.repeat(64),
+        uploadedByUserId: org.admin.userId,
+        uploadedByName: 'x',
+      };
       // No stored file: a reader the matrix allows gets past the checks and fails at storage (5xx is
       // never expected), so the allowed case is judged on the list and the one-clip routes instead.
-      docs[which] = (await h.ds.getRepository(CaseDocument).save({ ...common, caseId: kase.id, title: 'Report', documentDate: '2026-11-01', issuedBy: 'Clinic', storageKey: `${org.id}/documents/${crypto.randomUUID()}` })).id;
-      clips[which] = (await h.ds.getRepository(Clip).save({ ...common, mediaType: 'video/webm', trainingLogId: log.id, exercise: 'Back squat', caption: null, storageKey: `${org.id}/clips/${crypto.randomUUID()}` })).id;
+      docs[which] = (
+        await h.ds
+          .getRepository(CaseDocument)
+          .save({
+            ...common,
+            caseId: kase.id,
+            title: 'Report',
+            documentDate: '2026-11-01',
+            issuedBy: 'Clinic',
+            storageKey: `${org.id}/documents/${crypto.randomUUID()}`,
+          })
+      ).id;
+      clips[which] = (
+        await h.ds
+          .getRepository(Clip)
+          .save({
+            ...common,
+            mediaType: 'video/webm',
+            trainingLogId: log.id,
+            exercise: 'Back squat',
+            caption: null,
+            storageKey: `${org.id}/clips/${crypto.randomUUID()}`,
+          })
+      ).id;
     }
     for (const role of MATRIX_ROLES) as[role] = await signedIn(h.app, playerOf(org, role).email, TEST_PASSWORD);
   });
@@ -51,7 +81,8 @@ describe('uploads against the access matrix', () => {
       // The route admits everyone who reads cases; a reader of the case but not its documents gets 404.
       expect(list.status, `${role} listing ${which}'s documents`).toBe(allowed ? 200 : 404);
       if (allowed) expect(list.body.map((d: { id: string }) => d.id)).toEqual([docs[which]]);
-      if (!allowed) expect((await as[role].get(`/api/orgs/${org.id}/documents/${docs[which]}/file`)).status, `${role} downloading`).toBe(404);
+      if (!allowed)
+        expect((await as[role].get(`/api/orgs/${org.id}/documents/${docs[which]}/file`)).status, `${role} downloading`).toBe(404);
     }
   });
 
@@ -62,7 +93,8 @@ describe('uploads against the access matrix', () => {
       const outcome = role === 'guardian' ? 'not_found' : expectedOutcome(role, 'Clip', 'read', relationTo(role, which));
       const one = await as[role].get(`/api/orgs/${org.id}/clips/${clips[which]}`);
       expect(one.status, `${role} reading ${which}'s clip`).toBe(STATUS[outcome]);
-      if (outcome !== 'allowed') expect((await as[role].get(`/api/orgs/${org.id}/clips/${clips[which]}/video`)).status).toBe(STATUS[outcome]);
+      if (outcome !== 'allowed')
+        expect((await as[role].get(`/api/orgs/${org.id}/clips/${clips[which]}/video`)).status).toBe(STATUS[outcome]);
     }
   });
 });

@@ -12,7 +12,8 @@ export function InvitationsPage() {
   return (
     <div className="space-y-5">
       <PageHeader title="Invitations">
-        People join {membership.organizationName} by invitation only. Each invitation is e-mailed to the person invited; its link works once and expires.
+        People join {membership.organizationName} by invitation only. Each invitation is e-mailed to the person invited; its link works once
+        and expires.
       </PageHeader>
       {ability.can('create', 'Invitation') && (
         <Panel title="Invite someone">

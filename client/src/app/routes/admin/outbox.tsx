@@ -10,7 +10,8 @@ export function OutboxPage() {
   return (
     <div className="space-y-4">
       <PageHeader title="Outbox">
-        Every e-mail Loadline sent or is trying to send, with its state (a failure shows its reason), and what the local test mail server received.
+        Every e-mail Loadline sent or is trying to send, with its state (a failure shows its reason), and what the local test mail server
+        received.
       </PageHeader>
       <h2 className="text-lg font-bold">Deliveries</h2>
       <DeliveryTable orgId={orgId} />

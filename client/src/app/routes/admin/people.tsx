@@ -32,8 +32,8 @@ export function PeoplePage() {
       {needGuardian.length > 0 && (
         <Notice tone="caution" title={`${needGuardian.length === 1 ? 'One minor needs' : `${needGuardian.length} minors need`} a guardian`}>
           <p>
-            {needGuardian.map((p) => p.displayName).join(', ')} {needGuardian.length === 1 ? 'is' : 'are'} under 18 with
-            no linked parent or guardian. Open the person to link one.
+            {needGuardian.map((p) => p.displayName).join(', ')} {needGuardian.length === 1 ? 'is' : 'are'} under 18 with no linked parent or
+            guardian. Open the person to link one.
           </p>
         </Notice>
       )}

@@ -118,8 +118,7 @@ function PersonDetail({ person }: { person: PersonDto }) {
             ))}
             {guardianOf.map((athlete) => (
               <li key={`guardian-${athlete.id}`}>
-                <Link to={personHref(athlete.id)}>{athlete.displayName}</Link>{' '}
-                <span className="text-ink-2">· guardian</span>
+                <Link to={personHref(athlete.id)}>{athlete.displayName}</Link> <span className="text-ink-2">· guardian</span>
               </li>
             ))}
           </ul>

@@ -27,7 +27,9 @@ const caseTitle = (c: CaseDto) =>
 function MyDocuments() {
   const { orgId, membership, user } = useCurrentMembership();
   const cases = useCases(orgId, { athleteId: membership.id, state: 'all' });
-  const ordered = [...(cases.data ?? [])].sort((a, b) => Number(!!a.closedOn) - Number(!!b.closedOn) || b.openedAt.localeCompare(a.openedAt));
+  const ordered = [...(cases.data ?? [])].sort(
+    (a, b) => Number(!!a.closedOn) - Number(!!b.closedOn) || b.openedAt.localeCompare(a.openedAt),
+  );
   return (
     <div className="mx-auto max-w-xl space-y-5">
       <p className="text-sm">

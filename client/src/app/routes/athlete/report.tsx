@@ -31,8 +31,8 @@ function ReportPain() {
             <Link to={ATHLETE_HOME}>← My page</Link>
           </p>
           <PageHeader title="Report pain">
-            Where it hurts, how much, and a few questions about warning signs. About two minutes. Your care team is told
-            as soon as you send it.
+            Where it hurts, how much, and a few questions about warning signs. About two minutes. Your care team is told as soon as you send
+            it.
           </PageHeader>
           <p className="rounded-md border-2 border-line-deep bg-sheet px-4 py-3 text-sm">
             <span aria-hidden="true" className="mr-1 text-line-deep">
@@ -42,7 +42,10 @@ function ReportPain() {
             {number ? (
               <>
                 {' '}
-                — call <a href={`tel:${number.replace(/[^\d+]/g, '')}`} className="font-semibold tabular-nums">{number}</a>
+                — call{' '}
+                <a href={`tel:${number.replace(/[^\d+]/g, '')}`} className="font-semibold tabular-nums">
+                  {number}
+                </a>
               </>
             ) : null}
             .

@@ -47,8 +47,7 @@ function MyWeek() {
         <Link to={ATHLETE_HOME}>← My page</Link>
       </p>
       <PageHeader title="My week">
-        Your last two weeks: sessions, how the pain responded, and your check-ins. Your coach and clinician see the same
-        numbers.
+        Your last two weeks: sessions, how the pain responded, and your check-ins. Your coach and clinician see the same numbers.
       </PageHeader>
       <div className="flex flex-col gap-2 sm:flex-row">
         <ButtonLink to={ATHLETE_LOG} variant="primary" size="lg">

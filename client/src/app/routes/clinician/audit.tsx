@@ -16,8 +16,8 @@ export function ClinicianAuditPage() {
   return (
     <div className="space-y-4">
       <PageHeader title="Audit trail">
-        Every change to the records of the athletes in your care — who made it, when, and what it was before and after.
-        Entries cannot be edited or deleted, and clinical notes are never copied into them.
+        Every change to the records of the athletes in your care — who made it, when, and what it was before and after. Entries cannot be
+        edited or deleted, and clinical notes are never copied into them.
       </PageHeader>
       <AuditTrail orgId={orgId} athletes={athletes} canVerify={ability.can('read', 'AuditChain')} />
     </div>

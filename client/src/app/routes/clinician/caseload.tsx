@@ -16,8 +16,7 @@ export function ClinicianHome() {
   return (
     <div className="space-y-5">
       <PageHeader title="My caseload">
-        Athletes whose care team you are on as their clinician: who is Out or Limited, since when, and when each is
-        due for review.
+        Athletes whose care team you are on as their clinician: who is Out or Limited, since when, and when each is due for review.
       </PageHeader>
       {caseload.isPending ? (
         <Loading what="your caseload" />

@@ -20,8 +20,8 @@ export function ClinicianExceptionsPage() {
   return (
     <div className="space-y-4">
       <PageHeader title="Exception requests">
-        A coach asks when a planned set would go past a cap you set. Grant all of it, only some sets, or refuse — with a
-        note. Both the request and your decision go on the audit trail.
+        A coach asks when a planned set would go past a cap you set. Grant all of it, only some sets, or refuse — with a note. Both the
+        request and your decision go on the audit trail.
       </PageHeader>
       <ExceptionRequests orgId={orgId} unit={user.unitPref} useBreaches={useClinicianBreaches} />
     </div>

@@ -15,5 +15,13 @@ export function CoachProgramPage() {
 function Program() {
   const { programId = '' } = useParams();
   const { orgId, user } = useCurrentMembership();
-  return <ProgramBuilder key={programId} orgId={orgId} programId={programId} unit={user.unitPref} backTo={{ href: '/coach', label: 'My athletes' }} />;
+  return (
+    <ProgramBuilder
+      key={programId}
+      orgId={orgId}
+      programId={programId}
+      unit={user.unitPref}
+      backTo={{ href: '/coach', label: 'My athletes' }}
+    />
+  );
 }

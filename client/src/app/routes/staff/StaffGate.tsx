@@ -12,10 +12,7 @@ export function StaffGate({ children }: { children: ReactNode }) {
   if (membership.roles.includes('coach') || membership.roles.includes('clinician')) return <>{children}</>;
   return (
     <Notice tone="problem" role="alert" title="You can't do that">
-      <p>
-        You can&apos;t do that: this page is for coaches and clinicians in {membership.organizationName}, and you hold
-        neither role.
-      </p>
+      <p>You can&apos;t do that: this page is for coaches and clinicians in {membership.organizationName}, and you hold neither role.</p>
       <p>
         <Link to="/">Go to your home page</Link>
       </p>

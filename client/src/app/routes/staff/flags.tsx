@@ -43,8 +43,8 @@ function Flags() {
           </SelectField>
         }
       >
-        Pain reports, warning signs and pain-rule responses of the athletes on your care teams, newest first. Acknowledge a
-        flag to tell the rest of the care team you have seen it.
+        Pain reports, warning signs and pain-rule responses of the athletes on your care teams, newest first. Acknowledge a flag to tell the
+        rest of the care team you have seen it.
       </PageHeader>
       {flags.isPending ? (
         <Loading what="flags" />

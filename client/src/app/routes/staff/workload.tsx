@@ -71,8 +71,8 @@ function AthleteWorkload() {
           </span>
         )}
         <span className="block">
-          Session load is session effort (0–10) × minutes, in arbitrary units (Foster et al. 2001). These numbers describe
-          training; they do not predict injury.
+          Session load is session effort (0–10) × minutes, in arbitrary units (Foster et al. 2001). These numbers describe training; they do
+          not predict injury.
         </span>
       </PageHeader>
 

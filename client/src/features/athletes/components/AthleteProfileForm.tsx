@@ -28,15 +28,7 @@ function startingValues(athlete: AthleteProfileDto): Input {
   };
 }
 
-export function AthleteProfileForm({
-  orgId,
-  athlete,
-  staleMessage,
-}: {
-  orgId: string;
-  athlete: AthleteProfileDto;
-  staleMessage: string;
-}) {
+export function AthleteProfileForm({ orgId, athlete, staleMessage }: { orgId: string; athlete: AthleteProfileDto; staleMessage: string }) {
   const queryClient = useQueryClient();
   const update = useUpdateAthlete(orgId, athlete.id);
   const {
@@ -91,11 +83,7 @@ export function AthleteProfileForm({
           {...register('dateOfBirth', { setValueAs: emptyToNull })}
         />
         <TextField label="Sport" error={errors.sport?.message} {...register('sport', { setValueAs: emptyToNull })} />
-        <TextField
-          label="Position"
-          error={errors.position?.message}
-          {...register('position', { setValueAs: emptyToNull })}
-        />
+        <TextField label="Position" error={errors.position?.message} {...register('position', { setValueAs: emptyToNull })} />
       </div>
       <Button type="submit" busy={update.isPending} disabled={!isDirty}>
         Save athlete details

@@ -25,7 +25,15 @@ export interface AthleteOption {
  * The audit trail with its filters, for admins (everything) and clinicians (their athletes' entries;
  * the server decides which). `athletes` fills the athlete filter; `canVerify` offers the chain check.
  */
-export function AuditTrail({ orgId, athletes = [], canVerify = false }: { orgId: string; athletes?: AthleteOption[]; canVerify?: boolean }) {
+export function AuditTrail({
+  orgId,
+  athletes = [],
+  canVerify = false,
+}: {
+  orgId: string;
+  athletes?: AthleteOption[];
+  canVerify?: boolean;
+}) {
   const [filters, setFilters] = useState<AuditFilters>({});
   const audit = useAudit(orgId, filters);
   const {
@@ -106,21 +114,28 @@ export function AuditTrail({ orgId, athletes = [], canVerify = false }: { orgId:
         <ErrorNotice error={audit.error} />
       ) : (
         <>
-          <div
-            role="region"
-            tabIndex={0}
-            aria-label="Audit entries"
-            className="overflow-x-auto rounded-lg border border-rule bg-sheet"
-          >
+          <div role="region" tabIndex={0} aria-label="Audit entries" className="overflow-x-auto rounded-lg border border-rule bg-sheet">
             <table className="w-full min-w-[48rem] border-collapse text-left text-sm">
               <thead>
                 <tr className="border-b border-rule bg-shade">
-                  <th scope="col" className="px-3 py-2 whitespace-nowrap">When</th>
-                  <th scope="col" className="px-3 py-2">Who</th>
-                  <th scope="col" className="px-3 py-2">Athlete</th>
-                  <th scope="col" className="px-3 py-2">Action</th>
-                  <th scope="col" className="px-3 py-2">Subject</th>
-                  <th scope="col" className="px-3 py-2">Change</th>
+                  <th scope="col" className="px-3 py-2 whitespace-nowrap">
+                    When
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Who
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Athlete
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Action
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Subject
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Change
+                  </th>
                 </tr>
               </thead>
               <tbody>

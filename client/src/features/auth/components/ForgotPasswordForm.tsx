@@ -25,8 +25,8 @@ export function ForgotPasswordForm() {
       <Notice tone="done" role="status" title="Check your e-mail">
         <p>{request.data.message}</p>
         <p>
-          The link works once and only for a short while. If nothing arrives within a few minutes, check the address you
-          entered ({getValues('email')}) and ask again.
+          The link works once and only for a short while. If nothing arrives within a few minutes, check the address you entered (
+          {getValues('email')}) and ask again.
         </p>
       </Notice>
     );

@@ -59,14 +59,16 @@ describe('ResetPasswordForm', () => {
     fireEvent.change(screen.getByLabelText('New password'), { target: { value: 'a long new passphrase' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save the new password' }));
     const alert = await screen.findByRole('alert');
-    expect(alert).toHaveTextContent('This link can\'t be used');
+    expect(alert).toHaveTextContent("This link can't be used");
     expect(screen.getByRole('link', { name: 'Ask for a new link' })).toHaveAttribute('href', '/forgot-password');
   });
 });
 
 describe('ForgotPasswordForm', () => {
   it('shows the server’s one answer after sending the address', async () => {
-    fetchMock.mockImplementation(async () => jsonResponse(202, { message: 'If that address belongs to a Loadline account, a link is on its way.' }));
+    fetchMock.mockImplementation(async () =>
+      jsonResponse(202, { message: 'If that address belongs to a Loadline account, a link is on its way.' }),
+    );
     renderWithProviders(<ForgotPasswordForm />);
     fireEvent.change(screen.getByLabelText('E-mail'), { target: { value: 'someone@example.test' } });
     fireEvent.click(screen.getByRole('button', { name: 'Send me a link' }));

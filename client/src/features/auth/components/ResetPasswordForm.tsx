@@ -28,7 +28,10 @@ export function ResetPasswordForm({ hash, onDone }: { hash: string; onDone: () =
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<Input, unknown, Output>({ resolver: zodResolver(PasswordResetConfirmSchema), defaultValues: { token: token ?? '', password: '' } });
+  } = useForm<Input, unknown, Output>({
+    resolver: zodResolver(PasswordResetConfirmSchema),
+    defaultValues: { token: token ?? '', password: '' },
+  });
 
   if (token === null) {
     return (

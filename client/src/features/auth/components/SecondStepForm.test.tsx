@@ -23,12 +23,18 @@ describe('SecondStepForm', () => {
   it('refuses something that is neither an app code nor a recovery code without calling the server', async () => {
     renderWithProviders(<SecondStepForm onSignedIn={vi.fn()} onStartOver={vi.fn()} />);
     enter('12345');
-    expect(await screen.findByText(/Sign-in code must be the 6-digit code from your app or one of your recovery codes/)).toBeInTheDocument();
+    expect(
+      await screen.findByText(/Sign-in code must be the 6-digit code from your app or one of your recovery codes/),
+    ).toBeInTheDocument();
     expect(fetchMock).not.toHaveBeenCalled();
   });
 
   it('sends an app code (spaces removed) with the pending session’s CSRF token and reports the signed-in session', async () => {
-    const session = { user: { id: 'u1', email: 'p@example.test', displayName: 'P', unitPref: 'kg' }, memberships: [], csrfToken: 'signed-in-token' };
+    const session = {
+      user: { id: 'u1', email: 'p@example.test', displayName: 'P', unitPref: 'kg' },
+      memberships: [],
+      csrfToken: 'signed-in-token',
+    };
     fetchMock.mockImplementation(async () => jsonResponse(200, session));
     const onSignedIn = vi.fn();
     renderWithProviders(<SecondStepForm onSignedIn={onSignedIn} onStartOver={vi.fn()} />);

@@ -33,8 +33,8 @@ export function SecondStepForm({ onSignedIn, onStartOver }: { onSignedIn: (sessi
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Enter your sign-in code">
       <p className="text-sm text-ink-2">
-        Your password is right. Open the authenticator app you linked to Loadline and enter the 6-digit code it shows
-        for Loadline now. Without your phone, enter one of the recovery codes you saved instead.
+        Your password is right. Open the authenticator app you linked to Loadline and enter the 6-digit code it shows for Loadline now.
+        Without your phone, enter one of the recovery codes you saved instead.
       </p>
       <AccountFailureNotice error={failure} limitedTitle="Too many attempts" />
       <TextField

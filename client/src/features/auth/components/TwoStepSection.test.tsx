@@ -14,18 +14,39 @@ afterEach(() => {
   fetchMock.mockReset();
 });
 
-const CODES = ['aaaaa-bbbbb', 'ccccc-ddddd', 'eeeee-fffff', 'ggggg-hhhhh', 'jjjjj-kkkkk', 'mmmmm-nnnnn', 'ppppp-qqqqq', 'rrrrr-sssss', 'ttttt-vvvvv', 'wwwww-xxxxx'];
+const CODES = [
+  'aaaaa-bbbbb',
+  'ccccc-ddddd',
+  'eeeee-fffff',
+  'ggggg-hhhhh',
+  'jjjjj-kkkkk',
+  'mmmmm-nnnnn',
+  'ppppp-qqqqq',
+  'rrrrr-sssss',
+  'ttttt-vvvvv',
+  'wwwww-xxxxx',
+];
 
 describe('TwoStepSection', () => {
   it('sets up with a QR code and a typed key, needs a code to switch on, then shows the recovery codes once', async () => {
     let enabled = false;
     fetchMock.mockImplementation(async (input, init) => {
       const url = String(input);
-      if (url === '/api/account/two-step') return jsonResponse(200, { enabled, enabledAt: enabled ? '2026-12-02T04:00:00.000Z' : null, recoveryCodesLeft: enabled ? 10 : 0 });
-      if (url === '/api/account/two-step/setup') return jsonResponse(200, { secret: 'JBSWY3DPEHPK3PXPJBSWY3DPEHPK3PXP', otpauthUri: 'otpauth://totp/x', qrDataUrl: 'data:image/png;base64,AAAA' });
+      if (url === '/api/account/two-step')
+        return jsonResponse(200, { enabled, enabledAt: enabled ? '2026-12-02T04:00:00.000Z' : null, recoveryCodesLeft: enabled ? 10 : 0 });
+      if (url === '/api/account/two-step/setup')
+        return jsonResponse(200, {
+          secret: 'JBSWY3DPEHPK3PXPJBSWY3DPEHPK3PXP',
+          otpauthUri: 'otpauth://totp/x',
+          qrDataUrl: 'data:image/png;base64,AAAA',
+        });
       if (url === '/api/account/two-step/enable') {
         const { code } = JSON.parse(init?.body as string);
-        if (code !== '246810') return jsonResponse(400, { error: { code: 'validation_failed', message: 'Check', fields: { code: ['is not the code your app shows now'] } }, requestId: 'r' });
+        if (code !== '246810')
+          return jsonResponse(400, {
+            error: { code: 'validation_failed', message: 'Check', fields: { code: ['is not the code your app shows now'] } },
+            requestId: 'r',
+          });
         enabled = true;
         return jsonResponse(200, { recoveryCodes: CODES });
       }
@@ -43,7 +64,11 @@ describe('TwoStepSection', () => {
     fireEvent.change(screen.getByLabelText('Code from your app'), { target: { value: '246 810' } });
     fireEvent.click(screen.getByRole('button', { name: 'Switch on' }));
     const list = await screen.findByRole('list', { name: 'Recovery codes' });
-    expect(within(list).getAllByRole('listitem').map((li) => li.textContent)).toEqual(CODES);
+    expect(
+      within(list)
+        .getAllByRole('listitem')
+        .map((li) => li.textContent),
+    ).toEqual(CODES);
 
     fireEvent.click(screen.getByRole('button', { name: 'I have saved them' }));
     expect(await screen.findByText(/Recovery codes left/)).toBeInTheDocument();
@@ -53,7 +78,8 @@ describe('TwoStepSection', () => {
   it('gives a new set of recovery codes after the password and a code', async () => {
     fetchMock.mockImplementation(async (input, init) => {
       const url = String(input);
-      if (url === '/api/account/two-step') return jsonResponse(200, { enabled: true, enabledAt: '2026-12-02T04:00:00.000Z', recoveryCodesLeft: 1 });
+      if (url === '/api/account/two-step')
+        return jsonResponse(200, { enabled: true, enabledAt: '2026-12-02T04:00:00.000Z', recoveryCodesLeft: 1 });
       if (url === '/api/account/two-step/recovery-codes') {
         expect(JSON.parse(init?.body as string)).toEqual({ password: 'my passphrase', code: '135790' });
         return jsonResponse(200, { recoveryCodes: CODES });

@@ -31,8 +31,8 @@ export function TwoStepSection() {
     body = (
       <div className="space-y-4">
         <p className="text-sm">
-          <strong>On</strong> since {formatDateTime(status.data.enabledAt!)}. Signing in asks for a code from your app after
-          your password. Recovery codes left: <span className="tabular-nums">{status.data.recoveryCodesLeft}</span>.
+          <strong>On</strong> since {formatDateTime(status.data.enabledAt!)}. Signing in asks for a code from your app after your password.
+          Recovery codes left: <span className="tabular-nums">{status.data.recoveryCodesLeft}</span>.
         </p>
         {status.data.recoveryCodesLeft <= 2 && (
           <Notice tone="caution">
@@ -61,8 +61,8 @@ export function TwoStepSection() {
   return (
     <Panel title="Two-step sign-in">
       <p className="mb-4 text-sm text-ink-2">
-        Your account opens health records, so a password alone is a thin lock. With two-step sign-in, Loadline also asks for
-        a short code that an authenticator app on your phone makes every 30 seconds.
+        Your account opens health records, so a password alone is a thin lock. With two-step sign-in, Loadline also asks for a short code
+        that an authenticator app on your phone makes every 30 seconds.
       </p>
       {body}
     </Panel>
@@ -87,7 +87,15 @@ function StartSetup({ onStarted }: { onStarted: (setup: TwoStepSetupDto) => void
 type EnableInput = z.input<typeof TwoStepEnableSchema>;
 type EnableOutput = z.output<typeof TwoStepEnableSchema>;
 
-function SetupSteps({ setup, onEnabled, onCancel }: { setup: TwoStepSetupDto; onEnabled: (codes: string[]) => void; onCancel: () => void }) {
+function SetupSteps({
+  setup,
+  onEnabled,
+  onCancel,
+}: {
+  setup: TwoStepSetupDto;
+  onEnabled: (codes: string[]) => void;
+  onCancel: () => void;
+}) {
   const enable = useEnableTwoStep();
   const {
     register,
@@ -108,11 +116,23 @@ function SetupSteps({ setup, onEnabled, onCancel }: { setup: TwoStepSetupDto; on
         <li>If you can&apos;t scan it, type the key below into the app instead (time-based, 6 digits).</li>
         <li>Enter the code the app now shows for Loadline to switch two-step sign-in on.</li>
       </ol>
-      <img src={setup.qrDataUrl} width={200} height={200} alt="QR code to add Loadline to your authenticator app" className="rounded-md border border-rule" />
+      <img
+        src={setup.qrDataUrl}
+        width={200}
+        height={200}
+        alt="QR code to add Loadline to your authenticator app"
+        className="rounded-md border border-rule"
+      />
       <CopyField label="Key for typing in by hand" value={setup.secret} buttonLabel="Copy key" />
       <form onSubmit={onSubmit} noValidate className="max-w-sm space-y-3" aria-label="Confirm two-step sign-in">
         {!errors.code && <ErrorNotice error={enable.error} />}
-        <TextField label="Code from your app" autoComplete="one-time-code" inputMode="numeric" error={errors.code?.message} {...register('code')} />
+        <TextField
+          label="Code from your app"
+          autoComplete="one-time-code"
+          inputMode="numeric"
+          error={errors.code?.message}
+          {...register('code')}
+        />
         <div className="flex flex-wrap gap-3">
           <Button type="submit" busy={enable.isPending}>
             Switch on
@@ -131,8 +151,8 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
     <div className="space-y-3">
       <Notice tone="done" role="status" title="Save your recovery codes">
         <p>
-          Keep these recovery codes somewhere safe, away from your phone. Each one lets you sign in once if your phone is lost.
-          This is the only time they are shown.
+          Keep these recovery codes somewhere safe, away from your phone. Each one lets you sign in once if your phone is lost. This is the
+          only time they are shown.
         </p>
       </Notice>
       <ul aria-label="Recovery codes" className="grid max-w-sm grid-cols-2 gap-2 font-mono text-sm tabular-nums">
@@ -196,7 +216,11 @@ function ConfirmItIsYou<T>({
   intro: string;
   submit: string;
   cancel: string;
-  mutation: { mutate: (v: ConfirmOutput, o: { onSuccess: (r: T) => void; onError: (e: unknown) => void }) => void; isPending: boolean; error: unknown };
+  mutation: {
+    mutate: (v: ConfirmOutput, o: { onSuccess: (r: T) => void; onError: (e: unknown) => void }) => void;
+    isPending: boolean;
+    error: unknown;
+  };
   onConfirmed: (result: T) => void;
 }) {
   const [open, setOpen] = useState(false);
@@ -205,7 +229,10 @@ function ConfirmItIsYou<T>({
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<ConfirmInput, unknown, ConfirmOutput>({ resolver: zodResolver(TwoStepDisableSchema), defaultValues: { password: '', code: '' } });
+  } = useForm<ConfirmInput, unknown, ConfirmOutput>({
+    resolver: zodResolver(TwoStepDisableSchema),
+    defaultValues: { password: '', code: '' },
+  });
   if (!open) {
     return (
       <Button variant="secondary" onClick={() => setOpen(true)}>
@@ -226,7 +253,13 @@ function ConfirmItIsYou<T>({
     <form onSubmit={onSubmit} noValidate className="w-full max-w-sm space-y-3" aria-label={label}>
       <p className="text-sm text-ink-2">{intro}</p>
       {!errors.password && !errors.code && <ErrorNotice error={mutation.error} />}
-      <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...register('password')}
+      />
       <TextField label="Code from your app" autoComplete="one-time-code" error={errors.code?.message} {...register('code')} />
       <div className="flex flex-wrap gap-3">
         <Button type="submit" busy={mutation.isPending}>

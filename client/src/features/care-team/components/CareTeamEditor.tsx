@@ -21,15 +21,7 @@ export interface Candidate {
   roles: Role[];
 }
 
-export function CareTeamEditor({
-  orgId,
-  athlete,
-  candidates,
-}: {
-  orgId: string;
-  athlete: AthleteProfileDto;
-  candidates: Candidate[];
-}) {
+export function CareTeamEditor({ orgId, athlete, candidates }: { orgId: string; athlete: AthleteProfileDto; candidates: Candidate[] }) {
   const ability = useAppAbility();
   const assign = useAssignCareTeam(orgId);
   const remove = useRemoveCareTeamAssignment(orgId);
@@ -73,8 +65,7 @@ export function CareTeamEditor({
           {athlete.careTeam.map((member) => (
             <li key={member.id} className="flex flex-wrap items-center justify-between gap-2 px-3 py-2 text-sm">
               <span>
-                <span className="font-semibold">{member.memberName}</span>{' '}
-                <span className="text-ink-2">· {ROLE_LABELS[member.role]}</span>
+                <span className="font-semibold">{member.memberName}</span> <span className="text-ink-2">· {ROLE_LABELS[member.role]}</span>
               </span>
               {canRemove && (
                 <Button

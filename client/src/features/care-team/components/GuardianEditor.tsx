@@ -15,15 +15,7 @@ import type { Candidate } from './CareTeamEditor';
 type Input = z.input<typeof GuardianLinkCreateSchema>;
 type Output = z.output<typeof GuardianLinkCreateSchema>;
 
-export function GuardianEditor({
-  orgId,
-  athlete,
-  candidates,
-}: {
-  orgId: string;
-  athlete: AthleteProfileDto;
-  candidates: Candidate[];
-}) {
+export function GuardianEditor({ orgId, athlete, candidates }: { orgId: string; athlete: AthleteProfileDto; candidates: Candidate[] }) {
   const ability = useAppAbility();
   const link = useLinkGuardian(orgId);
   const unlink = useUnlinkGuardian(orgId);
@@ -60,8 +52,8 @@ export function GuardianEditor({
       {athlete.needsGuardian && (
         <Notice tone="caution" title="Needs a guardian">
           <p>
-            {athlete.displayName} is under 18 and has no linked guardian. Link a parent or legal guardian so they
-            receive what the care team decides.
+            {athlete.displayName} is under 18 and has no linked guardian. Link a parent or legal guardian so they receive what the care team
+            decides.
           </p>
         </Notice>
       )}

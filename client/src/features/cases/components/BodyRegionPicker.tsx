@@ -32,15 +32,19 @@ export function BodyRegionPicker({
   error?: string;
   legend?: string;
 }) {
-  const set = (region: BodyRegion, on: boolean) =>
-    onChange(BODY_REGIONS.filter((r) => (r === region ? on : value.includes(r))));
+  const set = (region: BodyRegion, on: boolean) => onChange(BODY_REGIONS.filter((r) => (r === region ? on : value.includes(r))));
   const message = fieldSentence(legend, error);
   const errorId = useId();
 
   return (
     <fieldset className="min-w-0" aria-describedby={message ? errorId : undefined}>
       <legend className="text-sm font-semibold">{legend}</legend>
-      <div className={cx('mt-1 grid gap-x-6 gap-y-2 rounded-md border p-3 sm:w-fit sm:grid-cols-[auto_auto]', error ? 'border-line-deep' : 'border-rule')}>
+      <div
+        className={cx(
+          'mt-1 grid gap-x-6 gap-y-2 rounded-md border p-3 sm:w-fit sm:grid-cols-[auto_auto]',
+          error ? 'border-line-deep' : 'border-rule',
+        )}
+      >
         <ul className="grid grid-cols-2 content-start gap-x-4 gap-y-1 sm:grid-cols-1">
           {CENTRAL.map((region) => (
             <li key={region}>

@@ -25,12 +25,26 @@ export function CaseList({
         <caption className="sr-only">{caption}</caption>
         <thead>
           <tr className="border-b border-rule bg-shade">
-            <th scope="col" className="px-3 py-2">Case</th>
-            {showDiagnosis && <th scope="col" className="px-3 py-2">Working diagnosis</th>}
-            <th scope="col" className="px-3 py-2">Onset</th>
-            <th scope="col" className="px-3 py-2">{closed ? 'Last status' : 'Status'}</th>
-            <th scope="col" className="px-3 py-2">{closed ? 'Closed' : 'Review'}</th>
-            <th scope="col" className="px-3 py-2">Plan</th>
+            <th scope="col" className="px-3 py-2">
+              Case
+            </th>
+            {showDiagnosis && (
+              <th scope="col" className="px-3 py-2">
+                Working diagnosis
+              </th>
+            )}
+            <th scope="col" className="px-3 py-2">
+              Onset
+            </th>
+            <th scope="col" className="px-3 py-2">
+              {closed ? 'Last status' : 'Status'}
+            </th>
+            <th scope="col" className="px-3 py-2">
+              {closed ? 'Closed' : 'Review'}
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Plan
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -52,7 +66,13 @@ export function CaseList({
                 <span className="block text-xs text-muted tabular-nums">from {formatDate(c.statusEffectiveFrom)}</span>
               </td>
               <td className="px-3 py-2 whitespace-nowrap tabular-nums">
-                {c.closedOn ? formatDate(c.closedOn) : c.reviewDate ? formatDate(c.reviewDate) : <span className="text-muted">none set</span>}
+                {c.closedOn ? (
+                  formatDate(c.closedOn)
+                ) : c.reviewDate ? (
+                  formatDate(c.reviewDate)
+                ) : (
+                  <span className="text-muted">none set</span>
+                )}
               </td>
               <td className="px-3 py-2">{c.planId ? 'Written' : <span className="text-muted">Not yet</span>}</td>
             </tr>

@@ -42,10 +42,13 @@ export function ChangeStatusForm({ orgId, detail }: { orgId: string; detail: Cas
 
   // The version sent is the one of the case on screen: the history shown is what the clinician saw.
   const onSubmit = handleSubmit((values) =>
-    change.mutate({ ...values, version: detail.version }, {
-      onSuccess: (saved) => reset({ effectiveFrom: todayLocal(), version: saved.version, note: undefined, status: undefined }),
-      onError: (error) => applyServerFieldErrors(error, setError, ['status', 'effectiveFrom', 'note']),
-    }),
+    change.mutate(
+      { ...values, version: detail.version },
+      {
+        onSuccess: (saved) => reset({ effectiveFrom: todayLocal(), version: saved.version, note: undefined, status: undefined }),
+        onError: (error) => applyServerFieldErrors(error, setError, ['status', 'effectiveFrom', 'note']),
+      },
+    ),
   );
 
   async function loadLatest() {

@@ -38,8 +38,8 @@ export function CloseCaseForm({ orgId, detail }: { orgId: string; detail: CaseDe
     return (
       <div className="space-y-2 text-sm">
         <p className="text-ink-2">
-          Close the case when this episode is resolved. Its plan stops being in force from then on, and the case can no
-          longer change; a new problem gets a new case.
+          Close the case when this episode is resolved. Its plan stops being in force from then on, and the case can no longer change; a new
+          problem gets a new case.
         </p>
         <Button variant="danger" size="sm" onClick={() => setOpen(true)}>
           Close this case…

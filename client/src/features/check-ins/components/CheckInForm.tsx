@@ -23,7 +23,17 @@ const step = (v: unknown, by: number) => Math.min(16, Math.max(0, (typeof v === 
  * The morning check-in: four answers and one button. Today's answers, if already given, are the
  * starting point; saving again replaces them.
  */
-export function CheckInForm({ orgId, athleteId, date, existing }: { orgId: string; athleteId: string; date: string; existing?: CheckInDto }) {
+export function CheckInForm({
+  orgId,
+  athleteId,
+  date,
+  existing,
+}: {
+  orgId: string;
+  athleteId: string;
+  date: string;
+  existing?: CheckInDto;
+}) {
   const save = useCreateCheckIn(orgId);
   const {
     control,
@@ -35,7 +45,14 @@ export function CheckInForm({ orgId, athleteId, date, existing }: { orgId: strin
   } = useForm<Input, unknown, Output>({
     resolver: zodResolver(CheckInSchema),
     defaultValues: existing
-      ? { athleteId, date, sleepHours: existing.sleepHours, soreness: existing.soreness, readiness: existing.readiness, painNow: existing.painNow }
+      ? {
+          athleteId,
+          date,
+          sleepHours: existing.sleepHours,
+          soreness: existing.soreness,
+          readiness: existing.readiness,
+          painNow: existing.painNow,
+        }
       : { athleteId, date },
   });
   const sleep = useWatch({ control, name: 'sleepHours' });
@@ -81,9 +98,30 @@ export function CheckInForm({ orgId, athleteId, date, existing }: { orgId: strin
           +
         </Button>
       </div>
-      <ScoreField control={control} name="soreness" label="Soreness" low="Not sore" high="As sore as can be" error={errors.soreness?.message} />
-      <ScoreField control={control} name="readiness" label="Ready to train" low="Not ready at all" high="Ready for anything" error={errors.readiness?.message} />
-      <ScoreField control={control} name="painNow" label="Pain now" low="No pain" high="Worst pain you can imagine" error={errors.painNow?.message} />
+      <ScoreField
+        control={control}
+        name="soreness"
+        label="Soreness"
+        low="Not sore"
+        high="As sore as can be"
+        error={errors.soreness?.message}
+      />
+      <ScoreField
+        control={control}
+        name="readiness"
+        label="Ready to train"
+        low="Not ready at all"
+        high="Ready for anything"
+        error={errors.readiness?.message}
+      />
+      <ScoreField
+        control={control}
+        name="painNow"
+        label="Pain now"
+        low="No pain"
+        high="Worst pain you can imagine"
+        error={errors.painNow?.message}
+      />
       <ErrorNotice error={save.error} title="Check-in not saved" />
       {save.isSuccess && (
         <Notice tone="done" role="status" title={`Checked in for ${formatDate(save.data.date)}. Thank you.`}>

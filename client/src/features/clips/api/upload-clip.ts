@@ -11,7 +11,11 @@ export interface ClipUpload {
 
 export function uploadClip(orgId: string, { fields, file }: ClipUpload, options?: UploadOptions): Promise<ClipDto> {
   const { athleteId, trainingLogId, exercise, caption } = fields;
-  return uploadWithProgress<ClipDto>(`/orgs/${orgId}/clips`, uploadForm({ athleteId, trainingLogId, exercise, caption }, file, file.name), options);
+  return uploadWithProgress<ClipDto>(
+    `/orgs/${orgId}/clips`,
+    uploadForm({ athleteId, trainingLogId, exercise, caption }, file, file.name),
+    options,
+  );
 }
 
 export function useUploadClip(orgId: string) {

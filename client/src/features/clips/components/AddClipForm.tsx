@@ -157,13 +157,7 @@ function ClipFields({
           {...upload.fileField}
         />
       </div>
-      <UploadFormFooter
-        upload={upload}
-        progressLabel="Uploading the clip"
-        submitLabel="Upload clip"
-        large={large}
-        onClose={onCancel}
-      />
+      <UploadFormFooter upload={upload} progressLabel="Uploading the clip" submitLabel="Upload clip" large={large} onClose={onCancel} />
     </form>
   );
 }

@@ -50,7 +50,9 @@ export function ClipNotes({
       </h2>
       <p className="mb-3 text-sm text-muted">Choose a note to pause the clip at its moment.</p>
       {notes.length === 0 ? (
-        <p className="text-sm text-ink-2">{canWrite ? 'No notes yet. Pause where you see something and pin a note there.' : 'No notes yet.'}</p>
+        <p className="text-sm text-ink-2">
+          {canWrite ? 'No notes yet. Pause where you see something and pin a note there.' : 'No notes yet.'}
+        </p>
       ) : (
         <ol className="space-y-2">
           {notes.map((note) => (
@@ -101,7 +103,13 @@ function NoteItem({
       </button>
       {canRemove && (
         <div className="border-t border-rule px-3 py-1">
-          <Button variant="quiet" size="sm" busy={remove.isPending} onClick={() => remove.mutate(note.id)} aria-label={`Remove your note at ${formatClipTime(note.atMs)}`}>
+          <Button
+            variant="quiet"
+            size="sm"
+            busy={remove.isPending}
+            onClick={() => remove.mutate(note.id)}
+            aria-label={`Remove your note at ${formatClipTime(note.atMs)}`}
+          >
             Remove
           </Button>
           <ErrorNotice error={remove.error} className="mt-1" />
@@ -139,7 +147,11 @@ function NoteForm({ orgId, clipId, atMs, onWriting }: { orgId: string; clipId: s
       }}
     >
       <p className="text-sm">
-        Pinned at <strong className="tabular-nums" data-testid="note-pin-time">{at}</strong>, where the player is now.
+        Pinned at{' '}
+        <strong className="tabular-nums" data-testid="note-pin-time">
+          {at}
+        </strong>
+        , where the player is now.
       </p>
       <TextAreaField
         label="Note"

@@ -47,8 +47,24 @@ function renderAs(actor: Actor) {
   );
 }
 
-const athlete: Actor = { userId: 'u-maya', organizationId: ORG, membershipId: ATHLETE, roles: ['athlete'], coachOf: [], clinicianOf: [], guardianOf: [] };
-const coach: Actor = { userId: 'u-theo', organizationId: ORG, membershipId: 'm-theo', roles: ['coach'], coachOf: [ATHLETE], clinicianOf: [], guardianOf: [] };
+const athlete: Actor = {
+  userId: 'u-maya',
+  organizationId: ORG,
+  membershipId: ATHLETE,
+  roles: ['athlete'],
+  coachOf: [],
+  clinicianOf: [],
+  guardianOf: [],
+};
+const coach: Actor = {
+  userId: 'u-theo',
+  organizationId: ORG,
+  membershipId: 'm-theo',
+  roles: ['coach'],
+  coachOf: [ATHLETE],
+  clinicianOf: [],
+  guardianOf: [],
+};
 
 let pause: ReturnType<typeof vi.spyOn>;
 beforeEach(() => {
@@ -58,7 +74,11 @@ afterEach(() => vi.restoreAllMocks());
 
 describe('notesInClipOrder', () => {
   it('orders by the moment in the clip, then by when written', () => {
-    const ordered = notesInClipOrder([note('b', 900, 'b', '2026-12-01T11:00:00Z'), note('c', 100, 'c'), note('a', 900, 'a', '2026-12-01T10:00:00Z')]);
+    const ordered = notesInClipOrder([
+      note('b', 900, 'b', '2026-12-01T11:00:00Z'),
+      note('c', 100, 'c'),
+      note('a', 900, 'a', '2026-12-01T10:00:00Z'),
+    ]);
     expect(ordered.map((n) => n.id)).toEqual(['c', 'a', 'b']);
   });
 });

@@ -32,11 +32,18 @@ export function ClipsSection({ orgId, athleteId, athleteName }: { orgId: string;
         )
       }
     >
-      <p className="mb-3 text-sm text-muted">Short videos of a set from a logged session. Open one to watch it frame by frame and pin notes.</p>
+      <p className="mb-3 text-sm text-muted">
+        Short videos of a set from a logged session. Open one to watch it frame by frame and pin notes.
+      </p>
       {adding && (
         <section aria-label="New clip" className="mb-4 rounded-md border border-rule-strong p-3 sm:p-4">
           <h3 className="mb-3 text-base font-bold">New clip of {athleteName}</h3>
-          <AddClipForm orgId={orgId} athleteId={athleteId} onDone={(clip) => navigate(clipHref(clip.id))} onCancel={() => setAdding(false)} />
+          <AddClipForm
+            orgId={orgId}
+            athleteId={athleteId}
+            onDone={(clip) => navigate(clipHref(clip.id))}
+            onCancel={() => setAdding(false)}
+          />
         </section>
       )}
       {clips.isPending ? (

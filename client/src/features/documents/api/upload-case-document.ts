@@ -9,14 +9,20 @@ export interface CaseDocumentUpload {
   file: File;
 }
 
-export function uploadCaseDocument(orgId: string, caseId: string, { fields, file }: CaseDocumentUpload, options?: UploadOptions): Promise<CaseDocumentDto> {
+export function uploadCaseDocument(
+  orgId: string,
+  caseId: string,
+  { fields, file }: CaseDocumentUpload,
+  options?: UploadOptions,
+): Promise<CaseDocumentDto> {
   return uploadWithProgress<CaseDocumentDto>(`/orgs/${orgId}/cases/${caseId}/documents`, uploadForm(fields, file, file.name), options);
 }
 
 export function useUploadCaseDocument(orgId: string, caseId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ options, ...input }: CaseDocumentUpload & { options?: UploadOptions }) => uploadCaseDocument(orgId, caseId, input, options),
+    mutationFn: ({ options, ...input }: CaseDocumentUpload & { options?: UploadOptions }) =>
+      uploadCaseDocument(orgId, caseId, input, options),
     onSuccess: () => {
       void queryClient.invalidateQueries({ queryKey: queryKeys.caseDocuments(orgId, caseId) });
       void queryClient.invalidateQueries({ queryKey: queryKeys.audit(orgId) });

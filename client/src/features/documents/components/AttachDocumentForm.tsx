@@ -62,7 +62,14 @@ export function AttachDocumentForm({
           {...register('title')}
           className="sm:col-span-2"
         />
-        <TextField label="Date on the document" type="date" large={large} disabled={busy} error={errors.documentDate?.message} {...register('documentDate')} />
+        <TextField
+          label="Date on the document"
+          type="date"
+          large={large}
+          disabled={busy}
+          error={errors.documentDate?.message}
+          {...register('documentDate')}
+        />
         <TextField
           label="Issued by"
           hint="The physician, clinic or hospital."

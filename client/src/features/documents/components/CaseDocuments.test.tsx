@@ -33,7 +33,15 @@ function fakeXhr(status: number, body: unknown) {
   };
 }
 
-const clinician: Actor = { userId: 'u-priya', organizationId: ORG, membershipId: 'm-priya', roles: ['clinician'], coachOf: [], clinicianOf: [ATHLETE], guardianOf: [] };
+const clinician: Actor = {
+  userId: 'u-priya',
+  organizationId: ORG,
+  membershipId: 'm-priya',
+  roles: ['clinician'],
+  coachOf: [],
+  clinicianOf: [ATHLETE],
+  guardianOf: [],
+};
 const fetchMock = vi.fn<typeof fetch>();
 beforeEach(() => {
   vi.stubGlobal('fetch', fetchMock);
@@ -56,7 +64,7 @@ describe('CaseDocuments', () => {
   it('says who sees the documents and that Loadline does not read them', async () => {
     renderPanel();
     const panel = screen.getByRole('region', { name: 'Documents' });
-    expect(panel).toHaveTextContent('Only the clinicians on Maya Torres\'s care team and Maya Torres see these.');
+    expect(panel).toHaveTextContent("Only the clinicians on Maya Torres's care team and Maya Torres see these.");
     expect(panel).toHaveTextContent('it does not read, check or interpret it');
     expect(await within(panel).findByText(/No documents on this case yet/)).toBeInTheDocument();
   });
@@ -65,7 +73,10 @@ describe('CaseDocuments', () => {
     vi.stubGlobal(
       'XMLHttpRequest',
       fakeXhr(415, {
-        error: { code: 'unsupported_media_type', message: 'This file is not a PDF, JPEG, PNG or HEIC image (its contents were checked, not its name).' },
+        error: {
+          code: 'unsupported_media_type',
+          message: 'This file is not a PDF, JPEG, PNG or HEIC image (its contents were checked, not its name).',
+        },
         requestId: 'r-415',
       }),
     );

@@ -39,7 +39,8 @@ export function CaseDocuments({
   const documents = useCaseDocuments(orgId, caseId);
   const [attaching, setAttaching] = useState(false);
   const [added, setAdded] = useState(false);
-  const canAttach = !closed && ability.can('create', asSubject('CaseDocument', { id: '', organizationId: orgId, athleteId, uploadedByUserId: '' }));
+  const canAttach =
+    !closed && ability.can('create', asSubject('CaseDocument', { id: '', organizationId: orgId, athleteId, uploadedByUserId: '' }));
 
   return (
     <Panel
@@ -87,8 +88,7 @@ export function CaseDocuments({
           <ErrorNotice error={documents.error} />
         ) : documents.data.length === 0 ? (
           <p className="text-sm text-ink-2">
-            No documents on this case yet.{' '}
-            {canAttach && 'Attach a physician’s note, an imaging report or a referral as a PDF or a photo.'}
+            No documents on this case yet. {canAttach && 'Attach a physician’s note, an imaging report or a referral as a PDF or a photo.'}
           </p>
         ) : (
           <ul className="space-y-2" aria-label={`Documents on this case (${documents.data.length})`}>

@@ -10,8 +10,8 @@ export function DocumentsCaution({ athleteName, audience }: { athleteName: strin
           ? 'Only you and the clinicians on your care team see these.'
           : `Only the clinicians on ${athleteName}'s care team and ${athleteName} see these.`}
       </span>{' '}
-      Coaches and guardians do not. Loadline stores each document as it was sent; it does not read, check or interpret
-      it.{audience === 'athlete' && ' Questions about what a document says go to whoever issued it, or to your clinician.'}
+      Coaches and guardians do not. Loadline stores each document as it was sent; it does not read, check or interpret it.
+      {audience === 'athlete' && ' Questions about what a document says go to whoever issued it, or to your clinician.'}
     </p>
   );
 }

@@ -24,7 +24,12 @@ interface RequestedSet {
   planned: string;
 }
 
-function requestedSets(request: ExceptionDto, session: ProgramSessionDto | undefined, names: Map<string, ExerciseDto>, unit: Unit): RequestedSet[] {
+function requestedSets(
+  request: ExceptionDto,
+  session: ProgramSessionDto | undefined,
+  names: Map<string, ExerciseDto>,
+  unit: Unit,
+): RequestedSet[] {
   return request.setIds.map((setId) => {
     for (const e of session?.content.exercises ?? []) {
       const j = e.sets.findIndex((s) => s.id === setId);
@@ -45,7 +50,17 @@ function requestedSets(request: ExceptionDto, session: ProgramSessionDto | undef
  * One request: the session, each requested set with how it goes past its cap, the coach's reason —
  * and the decision: grant (all, or only the sets left ticked) or refuse, always with a note.
  */
-export function ExceptionCard({ orgId, unit, request, useBreaches }: { orgId: string; unit: Unit; request: ExceptionDto; useBreaches: BreachSource }) {
+export function ExceptionCard({
+  orgId,
+  unit,
+  request,
+  useBreaches,
+}: {
+  orgId: string;
+  unit: Unit;
+  request: ExceptionDto;
+  useBreaches: BreachSource;
+}) {
   const programs = useAthletePrograms(orgId, request.athleteId);
   const library = useExerciseNames(orgId);
   const session = findSession(programs.data, request.sessionId);
@@ -121,7 +136,9 @@ export function ExceptionCard({ orgId, unit, request, useBreaches }: { orgId: st
               );
             })}
           </ul>
-          {formState.errors.chosen?.message && <p className="mt-1 text-sm font-semibold text-line-deep">▲ {formState.errors.chosen.message}</p>}
+          {formState.errors.chosen?.message && (
+            <p className="mt-1 text-sm font-semibold text-line-deep">▲ {formState.errors.chosen.message}</p>
+          )}
         </fieldset>
         <TextAreaField
           label="Decision note"
@@ -132,10 +149,19 @@ export function ExceptionCard({ orgId, unit, request, useBreaches }: { orgId: st
         />
         {decide.isError && <ErrorNotice error={decide.error} />}
         <div className="flex flex-wrap gap-2">
-          <Button busy={decide.isPending && decide.variables?.decision === 'grant'} disabled={decide.isPending} onClick={() => void submit('grant')()}>
+          <Button
+            busy={decide.isPending && decide.variables?.decision === 'grant'}
+            disabled={decide.isPending}
+            onClick={() => void submit('grant')()}
+          >
             Grant
           </Button>
-          <Button variant="danger" busy={decide.isPending && decide.variables?.decision === 'refuse'} disabled={decide.isPending} onClick={() => void submit('refuse')()}>
+          <Button
+            variant="danger"
+            busy={decide.isPending && decide.variables?.decision === 'refuse'}
+            disabled={decide.isPending}
+            onClick={() => void submit('refuse')()}
+          >
             Refuse
           </Button>
         </div>

@@ -9,11 +9,21 @@ export function ExceptionHistory({ requests }: { requests: ExceptionDto[] }) {
       <table className="w-full min-w-[52rem] text-left text-sm">
         <thead>
           <tr className="border-b border-rule bg-shade">
-            <th scope="col" className="px-3 py-2 font-semibold">Decided</th>
-            <th scope="col" className="px-3 py-2 font-semibold">Athlete</th>
-            <th scope="col" className="px-3 py-2 font-semibold">Session</th>
-            <th scope="col" className="px-3 py-2 font-semibold">Decision</th>
-            <th scope="col" className="px-3 py-2 font-semibold">Note</th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Decided
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Athlete
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Session
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Decision
+            </th>
+            <th scope="col" className="px-3 py-2 font-semibold">
+              Note
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -26,7 +36,9 @@ export function ExceptionHistory({ requests }: { requests: ExceptionDto[] }) {
               <td className="px-3 py-2">{x.athleteName}</td>
               <td className="px-3 py-2">
                 <span className="tabular-nums">{formatDate(x.sessionDate)}</span> · {x.sessionTitle}
-                <span className="block text-xs text-muted">Asked by {x.requestedByName ?? 'a coach'}: “{x.reason}”</span>
+                <span className="block text-xs text-muted">
+                  Asked by {x.requestedByName ?? 'a coach'}: “{x.reason}”
+                </span>
               </td>
               <td className="px-3 py-2 whitespace-nowrap font-semibold">
                 {x.status === 'granted' ? `Granted ${x.grantedSetIds.length} of ${x.setIds.length} sets` : 'Refused'}

@@ -8,7 +8,10 @@ import { ExceptionCard } from './ExceptionCard';
 import { ExceptionHistory } from './ExceptionHistory';
 
 /** Breaches of a session's sets for one athlete, worked out the way the server does. */
-export type BreachSource = (athleteId: string, session: ProgramSessionDto | undefined) => { bySet: Map<string, Breach[]>; isPending: boolean };
+export type BreachSource = (
+  athleteId: string,
+  session: ProgramSessionDto | undefined,
+) => { bySet: Map<string, Breach[]>; isPending: boolean };
 
 /**
  * The clinician's queue: each pending request with its session, the sets concerned and how each

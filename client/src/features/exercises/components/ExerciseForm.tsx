@@ -12,7 +12,8 @@ import { useCreateExercise, useUpdateExercise } from '../api/exercises';
 import { BLANK_EXERCISE, exerciseFormResolver, exerciseToForm, type ExerciseFormValues } from './exercise-form';
 import { EQUIPMENT_LABELS } from './exercise-words';
 
-const STALE = 'Someone changed this exercise after you opened it, so your changes were not saved. Close the form, open it again and redo your change.';
+const STALE =
+  'Someone changed this exercise after you opened it, so your changes were not saved. Close the form, open it again and redo your change.';
 
 /** Adds an exercise to the library, or edits one (sent with the version it was opened at). */
 export function ExerciseForm({
@@ -38,7 +39,8 @@ export function ExerciseForm({
   const stepsKind = useWatch({ control, name: 'stepsKind' });
   const e = formState.errors;
 
-  const onError = (error: unknown) => applyServerFieldErrors(error, setError, ['name', 'patterns', 'equipment', 'ballistic', 'referenceId']);
+  const onError = (error: unknown) =>
+    applyServerFieldErrors(error, setError, ['name', 'patterns', 'equipment', 'ballistic', 'referenceId']);
   const onSubmit = handleSubmit((input) => {
     if (exercise) update.mutate({ id: exercise.id, input: { ...input, version: exercise.version } }, { onSuccess: onDone, onError });
     else create.mutate(input, { onSuccess: onDone, onError });

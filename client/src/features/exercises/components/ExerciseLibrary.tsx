@@ -34,7 +34,11 @@ export function ExerciseLibrary({ orgId, canEdit }: { orgId: string; canEdit: bo
       column.accessor((e) => patternsWords(e), { id: 'patterns', header: 'Patterns' }),
       column.accessor((e) => equipmentWords(e.equipment), { id: 'equipment', header: 'Equipment' }),
       column.accessor((e) => (e.ballistic ? 'Yes' : 'No'), { id: 'impact', header: 'Impact' }),
-      column.accessor((e) => stepsWords(e.steps), { id: 'steps', header: 'Load steps', cell: (info) => <span className="tabular-nums">{info.getValue()}</span> }),
+      column.accessor((e) => stepsWords(e.steps), {
+        id: 'steps',
+        header: 'Load steps',
+        cell: (info) => <span className="tabular-nums">{info.getValue()}</span>,
+      }),
       column.accessor((e) => (e.referenceId ? (names.get(e.referenceId) ?? '—') : ''), {
         id: 'reference',
         header: '1RM from',
@@ -50,7 +54,15 @@ export function ExerciseLibrary({ orgId, canEdit }: { orgId: string; canEdit: bo
                 const e = info.row.original;
                 return (
                   <span className="flex gap-1 whitespace-nowrap">
-                    <Button size="sm" variant="secondary" aria-label={`Edit ${e.name}`} onClick={() => { setDone(null); setEditing(e); }}>
+                    <Button
+                      size="sm"
+                      variant="secondary"
+                      aria-label={`Edit ${e.name}`}
+                      onClick={() => {
+                        setDone(null);
+                        setEditing(e);
+                      }}
+                    >
                       Edit
                     </Button>
                     <Button
@@ -60,7 +72,12 @@ export function ExerciseLibrary({ orgId, canEdit }: { orgId: string; canEdit: bo
                       onClick={() =>
                         archive.mutate(
                           { id: e.id, input: { archived: !e.archived, version: e.version } },
-                          { onSuccess: (saved) => setDone(`${saved.name} ${saved.archived ? 'archived: it is no longer offered for new sessions' : 'restored'}.`) },
+                          {
+                            onSuccess: (saved) =>
+                              setDone(
+                                `${saved.name} ${saved.archived ? 'archived: it is no longer offered for new sessions' : 'restored'}.`,
+                              ),
+                          },
                         )
                       }
                     >
@@ -97,7 +114,14 @@ export function ExerciseLibrary({ orgId, canEdit }: { orgId: string; canEdit: bo
             />
           </Panel>
         ) : (
-          <Button onClick={() => { setDone(null); setEditing('new'); }}>Add an exercise</Button>
+          <Button
+            onClick={() => {
+              setDone(null);
+              setEditing('new');
+            }}
+          >
+            Add an exercise
+          </Button>
         ))}
       {done && (
         <p role="status" className="text-sm font-semibold">
@@ -111,10 +135,19 @@ export function ExerciseLibrary({ orgId, canEdit }: { orgId: string; canEdit: bo
         caption="Exercise library"
         hideCaption
         getRowId={(e) => e.id}
-        filter={{ label: 'Search the library', text: (e) => `${e.name} ${patternsWords(e)} ${equipmentWords(e.equipment)}`, placeholder: 'Name, pattern or equipment' }}
+        filter={{
+          label: 'Search the library',
+          text: (e) => `${e.name} ${patternsWords(e)} ${equipmentWords(e.equipment)}`,
+          placeholder: 'Name, pattern or equipment',
+        }}
         toolbar={
           <label className="flex items-center gap-2 pb-2 text-sm">
-            <input type="checkbox" className="size-5 accent-ink" checked={showArchived} onChange={(e) => setShowArchived(e.target.checked)} />
+            <input
+              type="checkbox"
+              className="size-5 accent-ink"
+              checked={showArchived}
+              onChange={(e) => setShowArchived(e.target.checked)}
+            />
             Show archived
           </label>
         }

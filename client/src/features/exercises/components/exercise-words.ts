@@ -21,7 +21,9 @@ export function equipmentWords(equipment: string): string {
 }
 
 export function stepsWords(steps: LoadSteps): string {
-  return steps.kind === 'increment' ? `${steps.step} ${steps.unit} steps` : `${steps.valuesKg.length} fixed sizes, ${steps.valuesKg.join(', ')} kg`;
+  return steps.kind === 'increment'
+    ? `${steps.step} ${steps.unit} steps`
+    : `${steps.valuesKg.length} fixed sizes, ${steps.valuesKg.join(', ')} kg`;
 }
 
 export function patternsWords(exercise: Pick<ExerciseDto, 'patterns'>): string {

@@ -35,7 +35,15 @@ describe('FlagList', () => {
         athleteHref={(id) => `/staff/athletes/${id}/workload`}
         flags={[
           flag({}),
-          flag({ id: 'f2', kind: 'red_flag_emergency', severity: 'emergency', message: 'Warning sign reported.', suggestedAction: null, acknowledgedAt: '2026-03-05T18:05:00.000Z', acknowledgedByName: 'Priya Raman' }),
+          flag({
+            id: 'f2',
+            kind: 'red_flag_emergency',
+            severity: 'emergency',
+            message: 'Warning sign reported.',
+            suggestedAction: null,
+            acknowledgedAt: '2026-03-05T18:05:00.000Z',
+            acknowledgedByName: 'Priya Raman',
+          }),
         ]}
       />,
     );

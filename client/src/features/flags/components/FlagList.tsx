@@ -53,7 +53,10 @@ export function FlagList({
       header: 'Severity',
       cell: (c) => <SeverityMark severity={c.row.original.severity} />,
     }),
-    column.accessor('createdAt', { header: 'Raised', cell: (c) => <span className="whitespace-nowrap tabular-nums">{formatDateTime(c.getValue())}</span> }),
+    column.accessor('createdAt', {
+      header: 'Raised',
+      cell: (c) => <span className="whitespace-nowrap tabular-nums">{formatDateTime(c.getValue())}</span>,
+    }),
     column.accessor('athleteName', {
       header: 'Athlete',
       cell: (c) => (

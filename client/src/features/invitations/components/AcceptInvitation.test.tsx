@@ -95,7 +95,10 @@ describe('AcceptInvitation', () => {
             hasAccount: true,
             expiresAt: '2030-01-01T12:00:00.000Z',
           })
-        : jsonResponse(401, { error: { code: 'invalid_credentials', message: 'That password does not match this account.' }, requestId: 'r' }),
+        : jsonResponse(401, {
+            error: { code: 'invalid_credentials', message: 'That password does not match this account.' },
+            requestId: 'r',
+          }),
     );
     renderWithProviders(<AcceptInvitation hash={`#${TOKEN}`} onAccepted={vi.fn()} />);
 

@@ -34,8 +34,8 @@ export function AcceptInvitation({ hash, onAccepted }: { hash: string; onAccepte
     return (
       <Notice tone="problem" role="alert" title="This invitation link is incomplete">
         <p>
-          Open the whole link from your invitation. If it still does not work, ask your organization&apos;s
-          administrator for a new invitation.
+          Open the whole link from your invitation. If it still does not work, ask your organization&apos;s administrator for a new
+          invitation.
         </p>
       </Notice>
     );
@@ -105,8 +105,8 @@ function AcceptForm({
         {preview.hasAccount && (
           <Notice tone="info">
             <p>
-              You already have a Loadline account for {preview.email}. Enter that account&apos;s password to add{' '}
-              {preview.organizationName} to it.
+              You already have a Loadline account for {preview.email}. Enter that account&apos;s password to add {preview.organizationName}{' '}
+              to it.
             </p>
           </Notice>
         )}

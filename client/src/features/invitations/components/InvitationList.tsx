@@ -27,9 +27,7 @@ export function InvitationList({ orgId, show }: { orgId: string; show: 'pending'
   const canRevoke = ability.can('delete', 'Invitation');
   if (rows.length === 0) {
     return (
-      <p className="text-sm text-ink-2">
-        {show === 'pending' ? 'No invitations are waiting to be accepted.' : 'No earlier invitations.'}
-      </p>
+      <p className="text-sm text-ink-2">{show === 'pending' ? 'No invitations are waiting to be accepted.' : 'No earlier invitations.'}</p>
     );
   }
   return (
@@ -45,10 +43,18 @@ export function InvitationList({ orgId, show }: { orgId: string; show: 'pending'
         <table className="w-full min-w-[40rem] border-collapse text-left text-sm">
           <thead>
             <tr className="border-b border-rule bg-shade">
-              <th scope="col" className="px-3 py-2">E-mail</th>
-              <th scope="col" className="px-3 py-2">Roles</th>
-              <th scope="col" className="px-3 py-2">Invited by</th>
-              <th scope="col" className="px-3 py-2">{show === 'pending' ? 'Expires' : 'Status'}</th>
+              <th scope="col" className="px-3 py-2">
+                E-mail
+              </th>
+              <th scope="col" className="px-3 py-2">
+                Roles
+              </th>
+              <th scope="col" className="px-3 py-2">
+                Invited by
+              </th>
+              <th scope="col" className="px-3 py-2">
+                {show === 'pending' ? 'Expires' : 'Status'}
+              </th>
               {show === 'pending' && canRevoke && (
                 <th scope="col" className="px-3 py-2">
                   <span className="sr-only">Actions</span>

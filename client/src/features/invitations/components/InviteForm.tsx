@@ -72,13 +72,7 @@ function InviteFields({
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Invite someone">
       <ErrorNotice error={create.error} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField
-          label="E-mail"
-          type="email"
-          autoComplete="off"
-          error={errors.email?.message}
-          {...register('email')}
-        />
+        <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register('email')} />
         <TextField
           label="Name (optional)"
           hint="Filled in for them; they can change it."
@@ -134,8 +128,8 @@ function CreatedInvitation({ invitation, onDismiss }: { invitation: InvitationDt
         <div className="mt-2 space-y-2">
           <CopyField label="Invitation link" value={invitation.link} buttonLabel="Copy link" />
           <p>
-            The invitation was e-mailed to {invitation.email}. The link is here too, to copy if the e-mail does not arrive.
-            It works once, expires {formatDateTime(invitation.expiresAt)}, and is shown only now.
+            The invitation was e-mailed to {invitation.email}. The link is here too, to copy if the e-mail does not arrive. It works once,
+            expires {formatDateTime(invitation.expiresAt)}, and is shown only now.
           </p>
         </div>
       ) : (

@@ -16,7 +16,15 @@ afterEach(() => {
   fetchMock.mockReset();
 });
 
-const actor: Actor = { userId: 'u-priya', organizationId: ORG, membershipId: 'm-priya', roles: ['clinician'], coachOf: [], clinicianOf: [MAYA], guardianOf: [] };
+const actor: Actor = {
+  userId: 'u-priya',
+  organizationId: ORG,
+  membershipId: 'm-priya',
+  roles: ['clinician'],
+  coachOf: [],
+  clinicianOf: [MAYA],
+  guardianOf: [],
+};
 
 function renderSection() {
   return renderWithProviders(
@@ -25,7 +33,14 @@ function renderSection() {
         value={{
           orgId: ORG,
           user: { id: 'u-priya', email: 'priya@x.test', displayName: 'Priya Raman', unitPref: 'kg' },
-          membership: { id: 'm-priya', organizationId: ORG, organizationName: 'Harbor Point Performance', timeZone: 'UTC', roles: ['clinician'], actor },
+          membership: {
+            id: 'm-priya',
+            organizationId: ORG,
+            organizationName: 'Harbor Point Performance',
+            timeZone: 'UTC',
+            roles: ['clinician'],
+            actor,
+          },
         }}
       >
         <ClearanceLetters orgId={ORG} athleteId={MAYA} athleteName="Maya Torres" />
@@ -136,14 +151,35 @@ describe('ClearanceLetters', () => {
   });
 
   it('shows a letter signed to start later as not yet in force, above the letter still in force', async () => {
-    const inForce: LetterDto = { ...draft, id: 'l-a', decision: 'full', limits: [], status: 'signed', signature: 'Priya Raman', signedAt: '2026-11-20T10:00:00.000Z', effectiveFrom: '2026-11-20', validUntil: null, version: 2 };
-    const next: LetterDto = { ...inForce, id: 'l-b', signedAt: '2026-12-01T10:00:00.000Z', effectiveFrom: '2026-12-09', status: 'scheduled' };
+    const inForce: LetterDto = {
+      ...draft,
+      id: 'l-a',
+      decision: 'full',
+      limits: [],
+      status: 'signed',
+      signature: 'Priya Raman',
+      signedAt: '2026-11-20T10:00:00.000Z',
+      effectiveFrom: '2026-11-20',
+      validUntil: null,
+      version: 2,
+    };
+    const next: LetterDto = {
+      ...inForce,
+      id: 'l-b',
+      signedAt: '2026-12-01T10:00:00.000Z',
+      effectiveFrom: '2026-12-09',
+      status: 'scheduled',
+    };
     fetchMock.mockResolvedValue(jsonResponse(200, [next, inForce]));
     renderSection();
 
-    const scheduledMark = await screen.findByRole('img', { name: 'Letter status: Signed, not yet in force — signed and sent; takes effect on its start date' });
+    const scheduledMark = await screen.findByRole('img', {
+      name: 'Letter status: Signed, not yet in force — signed and sent; takes effect on its start date',
+    });
     const scheduledRecord = scheduledMark.closest('article')!;
-    expect(within(scheduledRecord).getByText('Signed, takes effect on 9 December 2026. Until then, any earlier letter stays in force.')).toBeInTheDocument();
+    expect(
+      within(scheduledRecord).getByText('Signed, takes effect on 9 December 2026. Until then, any earlier letter stays in force.'),
+    ).toBeInTheDocument();
     expect(scheduledRecord.querySelector('svg[data-shape="scheduled"]')).not.toBeNull();
     const inForceRecord = screen.getByRole('img', { name: 'Letter status: Signed — signed, sent and in force' }).closest('article')!;
     expect(within(inForceRecord).getByRole('heading')).toHaveTextContent('from 20 November 2026');
@@ -153,14 +189,23 @@ describe('ClearanceLetters', () => {
   });
 
   it('shows a letter past its valid-until date as expired, not in force, and asks for a new letter', async () => {
-    const expired: LetterDto = { ...draft, id: 'l-x', status: 'expired', signature: 'Priya Raman', signedAt: '2026-03-12T15:00:00.000Z', version: 2 };
+    const expired: LetterDto = {
+      ...draft,
+      id: 'l-x',
+      status: 'expired',
+      signature: 'Priya Raman',
+      signedAt: '2026-03-12T15:00:00.000Z',
+      version: 2,
+    };
     fetchMock.mockResolvedValue(jsonResponse(200, [expired]));
     const { container } = renderSection();
 
     const mark = await screen.findByRole('img', { name: 'Letter status: Expired — past its valid-until date; a new letter is needed' });
     const record = mark.closest('article')!;
     expect(
-      within(record).getByText('This letter was valid until 13 April 2026 and has expired, so no letter is in force. Write a new letter if Maya Torres is still cleared.'),
+      within(record).getByText(
+        'This letter was valid until 13 April 2026 and has expired, so no letter is in force. Write a new letter if Maya Torres is still cleared.',
+      ),
     ).toBeInTheDocument();
     expect(record.querySelector('svg[data-shape="expired"]')).not.toBeNull();
     expect(screen.queryByRole('img', { name: /Letter status: Signed/ })).not.toBeInTheDocument();

@@ -99,9 +99,7 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
             {expired && <LetterRecord orgId={orgId} letter={expired} />}
             {earlier.length > 0 && (
               <details className="rounded-md border border-rule">
-                <summary className="cursor-pointer px-3 py-2 text-sm font-semibold">
-                  Earlier letters, superseded ({earlier.length})
-                </summary>
+                <summary className="cursor-pointer px-3 py-2 text-sm font-semibold">Earlier letters, superseded ({earlier.length})</summary>
                 <div className="space-y-3 p-3 pt-0">
                   {earlier.map((l) => (
                     <LetterRecord key={l.id} orgId={orgId} letter={l} supersededBy={l.supersededBy ? byId.get(l.supersededBy) : null} />

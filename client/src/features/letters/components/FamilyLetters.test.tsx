@@ -53,7 +53,10 @@ describe('FamilyLetters', () => {
     const card = await screen.findByRole('article', { name: 'Clearance letter for Maya' });
     expect(within(card).getByText('From 16 March 2026 until 13 April 2026.')).toBeInTheDocument();
     expect(within(card).getByText('Hinge: up to 60% of your best lift')).toBeInTheDocument();
-    expect(within(card).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', '/api/orgs/org-1/letters/l-2/pdf');
+    expect(within(card).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute(
+      'href',
+      '/api/orgs/org-1/letters/l-2/pdf',
+    );
     // Only the letter in force asks to be acknowledged; the earlier one is folded away.
     expect(screen.getAllByRole('button', { name: 'I have read this letter' })).toHaveLength(1);
 
@@ -67,7 +70,9 @@ describe('FamilyLetters', () => {
 
   it('counts only this guardian’s own acknowledgement', async () => {
     fetchMock.mockResolvedValue(
-      jsonResponse(200, [letter({ acknowledgements: [{ guardianId: 'm-other', guardianName: 'Sam Torres', acknowledgedAt: '2026-03-13T09:10:00.000Z' }] })]),
+      jsonResponse(200, [
+        letter({ acknowledgements: [{ guardianId: 'm-other', guardianName: 'Sam Torres', acknowledgedAt: '2026-03-13T09:10:00.000Z' }] }),
+      ]),
     );
     renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
     expect(await screen.findByRole('button', { name: 'I have read this letter' })).toBeInTheDocument();
@@ -75,7 +80,15 @@ describe('FamilyLetters', () => {
   });
 
   it('shows a letter signed to start later beneath the one in force, saying when it takes effect', async () => {
-    const next = letter({ id: 'l-3', status: 'scheduled', decision: 'full', limits: [], effectiveFrom: '2026-12-09', validUntil: null, signedAt: '2026-12-01T10:00:00.000Z' });
+    const next = letter({
+      id: 'l-3',
+      status: 'scheduled',
+      decision: 'full',
+      limits: [],
+      effectiveFrom: '2026-12-09',
+      validUntil: null,
+      signedAt: '2026-12-01T10:00:00.000Z',
+    });
     fetchMock.mockResolvedValue(jsonResponse(200, [next, letter()]));
     renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
 
@@ -83,9 +96,14 @@ describe('FamilyLetters', () => {
     expect(within(current).getByRole('img', { name: /Letter status: Signed — signed, sent and in force/ })).toBeInTheDocument();
     expect(within(current).queryByText(/takes effect/)).not.toBeInTheDocument();
     const upcoming = screen.getByRole('article', { name: 'Next clearance letter for Maya' });
-    expect(within(upcoming).getByText('Signed, takes effect on 9 December 2026. Until then, the letter above stays in force.')).toBeInTheDocument();
+    expect(
+      within(upcoming).getByText('Signed, takes effect on 9 December 2026. Until then, the letter above stays in force.'),
+    ).toBeInTheDocument();
     expect(within(upcoming).getByRole('img', { name: /Letter status: Signed, not yet in force/ })).toBeInTheDocument();
-    expect(within(upcoming).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute('href', '/api/orgs/org-1/letters/l-3/pdf');
+    expect(within(upcoming).getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute(
+      'href',
+      '/api/orgs/org-1/letters/l-3/pdf',
+    );
     expect(screen.queryByText(/Earlier letters/)).not.toBeInTheDocument();
   });
 
@@ -97,7 +115,9 @@ describe('FamilyLetters', () => {
     expect(within(card).getByRole('img', { name: /^Letter status: Expired — / })).toBeInTheDocument();
     expect(card.querySelector('svg[data-shape="expired"]')).not.toBeNull();
     expect(
-      within(card).getByText('This letter was valid until 13 April 2026 and has expired: it no longer clears Maya. The clinician needs to sign a new letter.'),
+      within(card).getByText(
+        'This letter was valid until 13 April 2026 and has expired: it no longer clears Maya. The clinician needs to sign a new letter.',
+      ),
     ).toBeInTheDocument();
     expect(screen.queryByRole('img', { name: /Letter status: Signed/ })).not.toBeInTheDocument();
   });

@@ -62,7 +62,14 @@ export function FamilyLetters({
                     {current && <FamilyLetter orgId={orgId} letter={current} guardianId={guardianId} name={athlete.name} />}
                     {expired && <FamilyLetter orgId={orgId} letter={expired} guardianId={guardianId} name={athlete.name} />}
                     {upcoming.map((l) => (
-                      <FamilyLetter key={l.id} orgId={orgId} letter={l} guardianId={guardianId} name={athlete.name} afterCurrent={!!current} />
+                      <FamilyLetter
+                        key={l.id}
+                        orgId={orgId}
+                        letter={l}
+                        guardianId={guardianId}
+                        name={athlete.name}
+                        afterCurrent={!!current}
+                      />
                     ))}
                     {earlier.length > 0 && (
                       <details className="rounded-md border border-rule">

@@ -11,8 +11,8 @@ export function LetterCaution({ audience, className }: { audience: 'clinician' |
       : 'This letter records a decision made by the athlete’s licensed clinician.';
   return (
     <p className={cx('rounded-md border border-rule border-l-4 border-l-line bg-sheet px-3 py-2 text-sm text-ink-2', className)}>
-      <span className="font-semibold text-ink">{lead}</span> Loadline keeps the record; it does not diagnose, treat or replace
-      professional care.{' '}
+      <span className="font-semibold text-ink">{lead}</span> Loadline keeps the record; it does not diagnose, treat or replace professional
+      care.{' '}
       {audience === 'clinician'
         ? 'Follow local law, your governing body’s rules and your organization’s policies.'
         : 'Ask the clinician about anything in it you are unsure of.'}

@@ -15,12 +15,26 @@ export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) 
       {shape === 'signed' ? (
         <>
           <circle cx="12" cy="12" r="10.5" fill="currentColor" />
-          <path d="M7 12.5 L10.5 16 L17 8.5" fill="none" stroke="var(--color-sheet)" strokeWidth="2.6" strokeLinecap="round" strokeLinejoin="round" />
+          <path
+            d="M7 12.5 L10.5 16 L17 8.5"
+            fill="none"
+            stroke="var(--color-sheet)"
+            strokeWidth="2.6"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
         </>
       ) : shape === 'scheduled' ? (
         <>
           <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" />
-          <path d="M7.5 12.5 L10.5 15.5 L16.5 8.8" fill="none" stroke="currentColor" strokeWidth="2.4" strokeLinecap="round" strokeLinejoin="round" />
+          <path
+            d="M7.5 12.5 L10.5 15.5 L16.5 8.8"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="2.4"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
         </>
       ) : shape === 'draft' ? (
         <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" strokeDasharray="3.2 2.6" />
@@ -37,7 +51,13 @@ export function Seal({ shape, size = 16 }: { shape: SealShape; size?: number }) 
       ) : (
         <>
           <circle cx="12" cy="12" r="9.5" fill="none" stroke="currentColor" strokeWidth="2.2" />
-          <path d="M9.2 9.3 a2.9 2.9 0 1 1 4 2.7 c-0.9 0.4 -1.2 1 -1.2 1.9" fill="none" stroke="currentColor" strokeWidth="2.2" strokeLinecap="round" />
+          <path
+            d="M9.2 9.3 a2.9 2.9 0 1 1 4 2.7 c-0.9 0.4 -1.2 1 -1.2 1.9"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="2.2"
+            strokeLinecap="round"
+          />
           <circle cx="12" cy="17.2" r="1.3" fill="currentColor" />
         </>
       )}
@@ -52,7 +72,11 @@ export function LetterStatusMark({ status, className }: { status: LetterStatus; 
     <span
       role="img"
       aria-label={`Letter status: ${word} — ${LETTER_STATUS_MEANING[status]}`}
-      className={cx('inline-flex items-center gap-1.5 font-semibold whitespace-nowrap', status === 'superseded' ? 'text-ink-2' : 'text-ink', className)}
+      className={cx(
+        'inline-flex items-center gap-1.5 font-semibold whitespace-nowrap',
+        status === 'superseded' ? 'text-ink-2' : 'text-ink',
+        className,
+      )}
     >
       <Seal shape={status} />
       <span>{word}</span>

@@ -12,7 +12,13 @@ import { DECISION_WORDS, dayOf, deliveryWords, takesEffect, validUntilWords, typ
 export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; letter: LetterDto; supersededBy?: LetterDto | null }) {
   const headingId = useId();
   return (
-    <article aria-labelledby={headingId} className={cx('rounded-md border p-3 sm:p-4', letter.status === 'signed' || letter.status === 'scheduled' ? 'border-ink' : 'border-rule')}>
+    <article
+      aria-labelledby={headingId}
+      className={cx(
+        'rounded-md border p-3 sm:p-4',
+        letter.status === 'signed' || letter.status === 'scheduled' ? 'border-ink' : 'border-rule',
+      )}
+    >
       <header className="mb-3 flex flex-wrap items-center justify-between gap-2">
         <h3 id={headingId} className="text-base font-bold">
           {DECISION_WORDS[letter.decision]}{' '}
@@ -25,8 +31,8 @@ export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; l
       )}
       {letter.status === 'expired' && (
         <p className="mb-3 text-sm font-semibold">
-          {validUntilWords(letter)} and has expired, so no letter is in force. Write a new letter if {letter.athleteName || 'the athlete'} is
-          still cleared.
+          {validUntilWords(letter)} and has expired, so no letter is in force. Write a new letter if {letter.athleteName || 'the athlete'}{' '}
+          is still cleared.
         </p>
       )}
       {letter.status === 'superseded' && (
@@ -115,7 +121,9 @@ export function DeliveryList({ deliveries }: { deliveries: Delivery[] }) {
                   <span className="break-all">{d.to}</span>
                   {' — '}
                   <span className="font-semibold">{words.word}</span>
-                  {words.detail && <span className={cx('block tabular-nums', words.state !== 'failed' && 'text-ink-2')}>{words.detail}</span>}
+                  {words.detail && (
+                    <span className={cx('block tabular-nums', words.state !== 'failed' && 'text-ink-2')}>{words.detail}</span>
+                  )}
                 </span>
               </li>
             );

@@ -64,7 +64,13 @@ export function LimitLines({
                     </p>
                   )}
                 </div>
-                <Button variant="secondary" size="sm" className="mt-1 ml-7 sm:ml-0" aria-label={`Remove limit ${index + 1}`} onClick={() => remove(index)}>
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  className="mt-1 ml-7 sm:ml-0"
+                  aria-label={`Remove limit ${index + 1}`}
+                  onClick={() => remove(index)}
+                >
                   Remove
                 </Button>
               </li>

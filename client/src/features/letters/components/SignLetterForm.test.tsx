@@ -29,7 +29,9 @@ function renderForm(onSigned = vi.fn(), unsaved = false) {
 describe('SignLetterForm', () => {
   it('says what signing does, and cannot be sent without a typed signature', async () => {
     renderForm();
-    expect(screen.getByText(/cannot be changed/)).toHaveTextContent(/e-mails it to the athlete’s guardian\(s\), the athlete and the coach\(es\)/);
+    expect(screen.getByText(/cannot be changed/)).toHaveTextContent(
+      /e-mails it to the athlete’s guardian\(s\), the athlete and the coach\(es\)/,
+    );
 
     fireEvent.click(screen.getByRole('button', { name: 'Sign and send' }));
     expect(await screen.findByText('Type your full name: the letter cannot be signed without it.')).toBeInTheDocument();

@@ -54,8 +54,8 @@ export function SignLetterForm({
       <div id={`${id}-what`} className="rounded-md border border-ink bg-paper px-3 py-2 text-sm">
         <p className="font-semibold">Signing freezes this letter and sends it.</p>
         <p className="mt-1 text-ink-2">
-          Once signed, the letter cannot be changed. Loadline makes the PDF with its verification code and e-mails it to the
-          athlete’s guardian(s), the athlete and the coach(es) on the care team.
+          Once signed, the letter cannot be changed. Loadline makes the PDF with its verification code and e-mails it to the athlete’s
+          guardian(s), the athlete and the coach(es) on the care team.
           {replaces?.signedAt &&
             ` It supersedes the letter signed on ${dayOf(replaces.signedAt)} from this letter’s start date; until then that letter stays in force.`}
         </p>
@@ -83,12 +83,7 @@ export function SignLetterForm({
         error={errors.signature ? 'Type your full name: the letter cannot be signed without it.' : undefined}
         {...register('signature')}
       />
-      <Button
-        type="submit"
-        busy={sign.isPending}
-        disabled={unsaved}
-        aria-describedby={unsaved ? `${id}-unsaved` : `${id}-what`}
-      >
+      <Button type="submit" busy={sign.isPending} disabled={unsaved} aria-describedby={unsaved ? `${id}-unsaved` : `${id}-what`}>
         Sign and send
       </Button>
     </form>

@@ -60,8 +60,8 @@ export function WriteLetterForm({
       {decision === 'limited' && (
         <Notice tone="info">
           <p>
-            When you save, the limits in force on the From date are filled in, in plain words. You can edit them line by line
-            before you sign.
+            When you save, the limits in force on the From date are filled in, in plain words. You can edit them line by line before you
+            sign.
           </p>
         </Notice>
       )}

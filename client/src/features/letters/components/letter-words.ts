@@ -70,8 +70,7 @@ export function deliveryWords(d: Delivery): { word: string; detail: string | nul
   }
 }
 
-export const STALE_LETTER =
-  'Someone changed this draft after you opened it. Load the latest draft, check it, and make your changes again.';
+export const STALE_LETTER = 'Someone changed this draft after you opened it. Load the latest draft, check it, and make your changes again.';
 
 /** An instant as the reader's own calendar day, in words: "6 March 2026". */
 export function dayOf(instant: string): string {

@@ -40,7 +40,9 @@ export function NoticeList({
       </div>
       <ErrorNotice error={markRead.error} />
       {notices.length === 0 ? (
-        <p className="rounded-lg border border-rule bg-sheet p-4 text-sm">No notices yet. When something needs your attention, it appears here.</p>
+        <p className="rounded-lg border border-rule bg-sheet p-4 text-sm">
+          No notices yet. When something needs your attention, it appears here.
+        </p>
       ) : (
         <ol className="space-y-2">
           {notices.map((n) => (
@@ -61,7 +63,10 @@ export function NoticeList({
               <p className="mt-1 text-sm whitespace-pre-line">{n.body}</p>
               {n.severity === 'emergency' && emergencyNumber && (
                 <p className="mt-2 text-sm font-semibold">
-                  Emergency number: <a href={telHref(emergencyNumber)} className="tabular-nums">{emergencyNumber}</a>
+                  Emergency number:{' '}
+                  <a href={telHref(emergencyNumber)} className="tabular-nums">
+                    {emergencyNumber}
+                  </a>
                 </p>
               )}
               {!n.readAt && (

@@ -19,11 +19,20 @@ export function NoticesLink({ orgId }: { orgId: string }) {
         to="/notices"
         aria-describedby={countId}
         className={({ isActive }) =>
-          cx('inline-flex min-h-9 items-center gap-1.5 rounded px-1 text-sm font-semibold no-underline', isActive && 'underline decoration-line decoration-2')
+          cx(
+            'inline-flex min-h-9 items-center gap-1.5 rounded px-1 text-sm font-semibold no-underline',
+            isActive && 'underline decoration-line decoration-2',
+          )
         }
       >
         <svg width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" focusable="false">
-          <path d="M8 1.5a4.5 4.5 0 0 0-4.5 4.5v3.2L2 11.5h12l-1.5-2.3V6A4.5 4.5 0 0 0 8 1.5Z" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinejoin="round" />
+          <path
+            d="M8 1.5a4.5 4.5 0 0 0-4.5 4.5v3.2L2 11.5h12l-1.5-2.3V6A4.5 4.5 0 0 0 8 1.5Z"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="1.5"
+            strokeLinejoin="round"
+          />
           <path d="M6.2 13.2a1.9 1.9 0 0 0 3.6 0" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" />
         </svg>
         Notices

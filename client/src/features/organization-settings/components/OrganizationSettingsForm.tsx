@@ -41,7 +41,9 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
 
   const stale = isApiError(update.error) && (update.error.code === 'version_conflict' || update.error.status === 409);
   const onSubmit = handleSubmit((values) =>
-    update.mutate(values, { onError: (error) => applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'guardiansSeeClips']) }),
+    update.mutate(values, {
+      onError: (error) => applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'guardiansSeeClips']),
+    }),
   );
 
   async function reload() {
@@ -77,7 +79,12 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
       <fieldset className="rounded-md border border-rule p-3">
         <legend className="px-1 text-sm font-semibold">Technique clips</legend>
         <div className="flex items-start gap-2">
-          <input id="guardians-see-clips" type="checkbox" className="mt-0.5 size-5 shrink-0 accent-ink" {...register('guardiansSeeClips')} />
+          <input
+            id="guardians-see-clips"
+            type="checkbox"
+            className="mt-0.5 size-5 shrink-0 accent-ink"
+            {...register('guardiansSeeClips')}
+          />
           <label htmlFor="guardians-see-clips" className="text-sm">
             Guardians may watch their athlete&apos;s clips
             <span className="block text-muted">

@@ -14,7 +14,10 @@ const STATUS_WORDS: Record<DeliveryDto['status'], string> = {
 };
 
 const columns = [
-  column.accessor('createdAt', { header: 'Queued', cell: (c) => <span className="tabular-nums">{c.getValue().slice(0, 16).replace('T', ' ')} UTC</span> }),
+  column.accessor('createdAt', {
+    header: 'Queued',
+    cell: (c) => <span className="tabular-nums">{c.getValue().slice(0, 16).replace('T', ' ')} UTC</span>,
+  }),
   column.accessor('to', { header: 'To' }),
   column.accessor('subject', { header: 'Subject' }),
   column.accessor('status', {

@@ -53,7 +53,10 @@ function OutboxMessage({ message }: { message: OutboxMessageDto }) {
             <ul>
               {message.attachments.map((a, i) => (
                 <li key={`${a.filename}-${i}`} className="break-all">
-                  {a.filename} <span className="text-muted tabular-nums">({formatSize(a.size)}, {a.contentType})</span>
+                  {a.filename}{' '}
+                  <span className="text-muted tabular-nums">
+                    ({formatSize(a.size)}, {a.contentType})
+                  </span>
                 </li>
               ))}
             </ul>

@@ -102,7 +102,17 @@ function Figure({
         role="group"
       >
         {DECOR_PARTS.flatMap((part) => [SIDE[part], mirror(SIDE[part])]).map((b, i) => (
-          <rect key={i} x={b.x} y={b.y} width={b.w} height={b.h} rx={b.r} className="fill-shade stroke-rule-strong" strokeWidth={1} aria-hidden="true" />
+          <rect
+            key={i}
+            x={b.x}
+            y={b.y}
+            width={b.w}
+            height={b.h}
+            rx={b.r}
+            className="fill-shade stroke-rule-strong"
+            strokeWidth={1}
+            aria-hidden="true"
+          />
         ))}
         {placed(view).map(({ region, block: b, primary }) => {
           const on = selected.includes(region);

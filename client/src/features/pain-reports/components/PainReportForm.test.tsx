@@ -75,7 +75,13 @@ describe('PainReportForm', () => {
     await fillDetailsAndContinue();
     for (const item of RED_FLAG_ITEMS) answer(item.question, item.id === 'bladder_change' ? 'Yes' : 'No');
     fetchMock.mockResolvedValue(
-      jsonResponse(201, { report: { id: 'r1' }, route: 'emergency', statusSetToOut: true, message: 'Stop training now.', emergencyNumber: '112' }),
+      jsonResponse(201, {
+        report: { id: 'r1' },
+        route: 'emergency',
+        statusSetToOut: true,
+        message: 'Stop training now.',
+        emergencyNumber: '112',
+      }),
     );
     fireEvent.click(screen.getByRole('button', { name: 'Send report' }));
     const heading = await screen.findByRole('heading', { name: EMERGENCY_HEADING });

@@ -148,7 +148,14 @@ export function PainReportForm({
             render={({ field }) => <BodyMap value={field.value ?? []} onChange={field.onChange} error={errors.bodyRegions?.message} />}
           />
           <ScoreField control={control} name="painNow" label="Pain now" low={PAIN_LOW} high={PAIN_HIGH} error={errors.painNow?.message} />
-          <ScoreField control={control} name="painWorst24h" label="Worst pain in the last 24 hours" low={PAIN_LOW} high={PAIN_HIGH} error={errors.painWorst24h?.message} />
+          <ScoreField
+            control={control}
+            name="painWorst24h"
+            label="Worst pain in the last 24 hours"
+            low={PAIN_LOW}
+            high={PAIN_HIGH}
+            error={errors.painWorst24h?.message}
+          />
           <TextField
             label="When did it start?"
             type="date"
@@ -196,7 +203,10 @@ export function PainReportForm({
             {...register('note', { setValueAs: emptyToUndefined })}
           />
           {detailsIncomplete && DETAIL_FIELDS.some((f) => errors[f]) && (
-            <p role="alert" className="flex items-start gap-2 rounded-md border border-l-8 border-line-deep bg-sheet px-4 py-3 text-base font-semibold">
+            <p
+              role="alert"
+              className="flex items-start gap-2 rounded-md border border-l-8 border-line-deep bg-sheet px-4 py-3 text-base font-semibold"
+            >
               <span aria-hidden="true" className="text-line-deep">
                 ▲
               </span>
@@ -214,12 +224,15 @@ export function PainReportForm({
               Warning signs
             </h2>
             <p className="mt-1 text-base text-ink-2">
-              These questions look for rare but serious problems. Answer every one. A Yes does not mean something is
-              wrong; it tells your care team to see you quickly.
+              These questions look for rare but serious problems. Answer every one. A Yes does not mean something is wrong; it tells your
+              care team to see you quickly.
             </p>
           </div>
           {triedToSend && missing > 0 && (
-            <p role="alert" className="flex items-start gap-2 rounded-md border border-l-8 border-line-deep bg-sheet px-4 py-3 text-base font-semibold">
+            <p
+              role="alert"
+              className="flex items-start gap-2 rounded-md border border-l-8 border-line-deep bg-sheet px-4 py-3 text-base font-semibold"
+            >
               <span aria-hidden="true" className="text-line-deep">
                 ▲
               </span>

@@ -33,7 +33,12 @@ describe('ReportOutcome', () => {
   it('puts the stop-and-get-care instruction first, with the emergency number as a link that dials, and says the athlete is Out', () => {
     renderWithProviders(
       <ReportOutcome
-        outcome={outcome({ route: 'emergency', statusSetToOut: true, emergencyNumber: '9-1-1', message: 'Stop training now and get urgent medical care.' })}
+        outcome={outcome({
+          route: 'emergency',
+          statusSetToOut: true,
+          emergencyNumber: '9-1-1',
+          message: 'Stop training now and get urgent medical care.',
+        })}
         homeHref="/athlete"
       />,
     );
@@ -56,7 +61,9 @@ describe('ReportOutcome', () => {
   });
 
   it('asks an urgent report to contact the clinician today', () => {
-    renderWithProviders(<ReportOutcome outcome={outcome({ route: 'urgent', message: 'Please contact your clinician today.' })} homeHref="/athlete" />);
+    renderWithProviders(
+      <ReportOutcome outcome={outcome({ route: 'urgent', message: 'Please contact your clinician today.' })} homeHref="/athlete" />,
+    );
     expect(screen.getByRole('heading', { level: 1 })).toHaveTextContent('Contact your clinician today');
   });
 });

@@ -21,17 +21,10 @@ function useFocusOnMount<T extends HTMLElement>() {
 
 function CallButton({ number }: { number: string | null | undefined }) {
   if (!number) {
-    return (
-      <p className="mt-5 rounded-lg border-2 border-ink bg-sheet p-4 text-xl font-bold">
-        Call your local emergency number now.
-      </p>
-    );
+    return <p className="mt-5 rounded-lg border-2 border-ink bg-sheet p-4 text-xl font-bold">Call your local emergency number now.</p>;
   }
   return (
-    <a
-      href={telHref(number)}
-      className={buttonClass('primary', 'lg', 'mt-5 min-h-16 w-full text-xl sm:w-full')}
-    >
+    <a href={telHref(number)} className={buttonClass('primary', 'lg', 'mt-5 min-h-16 w-full text-xl sm:w-full')}>
       <span aria-hidden="true">☎</span> Call {number}
     </a>
   );
@@ -76,14 +69,16 @@ export function EmergencyScreen({
           {EMERGENCY_HEADING}
         </h1>
         <CallButton number={emergencyNumber} />
-        <p className="mt-3 text-lg">Or go to the nearest emergency department. If you can&apos;t call, ask the nearest adult to call for you.</p>
+        <p className="mt-3 text-lg">
+          Or go to the nearest emergency department. If you can&apos;t call, ask the nearest adult to call for you.
+        </p>
         {sendError ? (
           <div role="alert" className="mt-5 rounded-md border border-l-8 border-line-deep bg-sheet px-4 py-3">
             <p className="font-semibold">Your report did not reach Loadline.</p>
             <p className="mt-1 text-ink-2">{describeError(sendError)}</p>
             <p className="mt-1">
-              Your answers can be a sign of a serious problem. Get care first — don&apos;t wait for the app. Stop training, and
-              tell your clinician and your coach yourself.
+              Your answers can be a sign of a serious problem. Get care first — don&apos;t wait for the app. Stop training, and tell your
+              clinician and your coach yourself.
             </p>
             {onRetry && (
               <Button variant="secondary" className="mt-3" busy={retrying} onClick={onRetry}>
@@ -135,8 +130,12 @@ function WarningLine({ emergencyNumber }: { emergencyNumber: string }) {
       <span aria-hidden="true" className="mr-1 text-line-deep">
         ▲
       </span>
-      If a warning sign appears — new numbness between the legs, trouble peeing or pooing, a leg getting weaker — stop and
-      get urgent care: call <a href={telHref(emergencyNumber)} className="font-semibold tabular-nums">{emergencyNumber}</a>.
+      If a warning sign appears — new numbness between the legs, trouble peeing or pooing, a leg getting weaker — stop and get urgent care:
+      call{' '}
+      <a href={telHref(emergencyNumber)} className="font-semibold tabular-nums">
+        {emergencyNumber}
+      </a>
+      .
     </p>
   );
 }
@@ -157,7 +156,9 @@ export function ReportOutcome({ outcome, homeHref }: { outcome: PainReportOutcom
     return (
       <OutcomeFrame heading={URGENT_HEADING} homeHref={homeHref}>
         <p className="rounded-md border border-l-8 border-line bg-sheet px-4 py-3 text-base">{outcome.message}</p>
-        <p className="text-base">Your clinician has your report and your answers. Call or message them today if they have not been in touch.</p>
+        <p className="text-base">
+          Your clinician has your report and your answers. Call or message them today if they have not been in touch.
+        </p>
         <WarningLine emergencyNumber={outcome.emergencyNumber} />
       </OutcomeFrame>
     );

@@ -50,14 +50,7 @@ export function YesNo({
       <div className="mt-2 grid max-w-sm grid-cols-2 gap-2">
         {options.map((o) => (
           <label key={o.label} className="block">
-            <input
-              type="radio"
-              name={id}
-              checked={value === o.v}
-              onChange={() => onChange(o.v)}
-              onBlur={onBlur}
-              className="peer sr-only"
-            />
+            <input type="radio" name={id} checked={value === o.v} onChange={() => onChange(o.v)} onBlur={onBlur} className="peer sr-only" />
             <span
               className={cx(
                 'flex min-h-12 cursor-pointer items-center justify-center rounded-md border text-base font-semibold',

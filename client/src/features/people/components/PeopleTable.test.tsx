@@ -46,7 +46,15 @@ const PEOPLE: PersonDto[] = [
       needsGuardian: true,
       sport: 'Softball',
       careTeam: [
-        { id: 'c1', organizationId: 'o', athleteId: 'maya', athleteName: 'Maya Torres', memberId: 'theo', memberName: 'Theo Lindqvist', role: 'coach' },
+        {
+          id: 'c1',
+          organizationId: 'o',
+          athleteId: 'maya',
+          athleteName: 'Maya Torres',
+          memberId: 'theo',
+          memberName: 'Theo Lindqvist',
+          role: 'coach',
+        },
       ],
     }),
   }),
@@ -57,11 +65,7 @@ describe('PeopleTable', () => {
   it('lists people by name with links, roles, the minor flag and care teams', () => {
     renderWithProviders(<PeopleTable people={PEOPLE} personHref={(id) => `/admin/people/${id}`} />);
     const rows = screen.getAllByRole('row').slice(1);
-    expect(rows.map((r) => within(r).getAllByRole('cell')[0].textContent)).toEqual([
-      'Ana Admin',
-      'Maya Torres',
-      'Theo Lindqvist',
-    ]);
+    expect(rows.map((r) => within(r).getAllByRole('cell')[0].textContent)).toEqual(['Ana Admin', 'Maya Torres', 'Theo Lindqvist']);
     expect(screen.getByRole('link', { name: 'Maya Torres' })).toHaveAttribute('href', '/admin/people/maya');
     const maya = rows[1];
     expect(within(maya).getByText('Minor')).toBeInTheDocument();

@@ -30,8 +30,8 @@ export function RemovePerson({
     <div className="space-y-3" role="group" aria-label="Confirm removal">
       <ErrorNotice error={remove.error} />
       <p className="text-sm">
-        Remove <strong>{person.displayName}</strong> from {organizationName}? They lose access to everything here at
-        once, and leave every care team they are on. The audit trail keeps what they did.
+        Remove <strong>{person.displayName}</strong> from {organizationName}? They lose access to everything here at once, and leave every
+        care team they are on. The audit trail keeps what they did.
       </p>
       <div className="flex flex-wrap gap-2">
         <Button variant="danger" busy={remove.isPending} onClick={() => remove.mutate(undefined, { onSuccess: onRemoved })}>

@@ -24,7 +24,9 @@ export function usePlans(orgId: string, planIds: string[]) {
 export function refreshAfterPlanChange(queryClient: QueryClient, orgId: string, plan: PlanDto) {
   queryClient.setQueryData(queryKeys.plan(orgId, plan.id), plan);
   // The case links to its plan; say so without re-reading the case (each read is audited).
-  queryClient.setQueryData<{ planId?: string | null }>(queryKeys.case(orgId, plan.caseId), (old) => (old ? { ...old, planId: plan.id } : old));
+  queryClient.setQueryData<{ planId?: string | null }>(queryKeys.case(orgId, plan.caseId), (old) =>
+    old ? { ...old, planId: plan.id } : old,
+  );
   void queryClient.invalidateQueries({ queryKey: queryKeys.planVersions(orgId, plan.id) });
   void queryClient.invalidateQueries({ queryKey: queryKeys.caseLists(orgId) });
   void queryClient.invalidateQueries({ queryKey: queryKeys.caseload(orgId) });

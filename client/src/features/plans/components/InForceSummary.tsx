@@ -71,9 +71,7 @@ export function InForceSummary({ inForce, unit, showStatus = true }: { inForce: 
             </ul>
           )}
           {free.length > 0 && (
-            <p className="text-ink-2">
-              {restricted.length === 0 ? 'Every movement pattern is free.' : `No limits: ${patternList(free)}.`}
-            </p>
+            <p className="text-ink-2">{restricted.length === 0 ? 'Every movement pattern is free.' : `No limits: ${patternList(free)}.`}</p>
           )}
           <LineBar
             className="max-w-sm"

@@ -9,9 +9,15 @@ export function PlanDiffTable({ changes, caption }: { changes: PlanChange[]; cap
         <caption className="px-3 pt-2 text-left font-semibold">{caption}</caption>
         <thead>
           <tr className="border-b border-rule bg-shade">
-            <th scope="col" className="px-3 py-2">Where</th>
-            <th scope="col" className="px-3 py-2">What</th>
-            <th scope="col" className="px-3 py-2">Before → after</th>
+            <th scope="col" className="px-3 py-2">
+              Where
+            </th>
+            <th scope="col" className="px-3 py-2">
+              What
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Before → after
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -21,7 +27,9 @@ export function PlanDiffTable({ changes, caption }: { changes: PlanChange[]; cap
               <td className="px-3 py-1.5">{c.what}</td>
               <td className="px-3 py-1.5 tabular-nums">
                 <span className="text-ink-2">{c.before ?? <span className="text-muted">not set</span>}</span>
-                <span aria-hidden="true" className="px-1.5 text-line-deep">→</span>
+                <span aria-hidden="true" className="px-1.5 text-line-deep">
+                  →
+                </span>
                 <span className="sr-only"> changed to </span>
                 <span className="font-semibold">{c.after ?? <span className="font-normal text-muted">not set</span>}</span>
               </td>

@@ -101,7 +101,10 @@ describe('PlanEditor', () => {
   it('says so when someone saved the plan first, and loads the latest on request', async () => {
     fetchMock.mockImplementation(async (_input, init) => {
       if (init?.method === 'PUT') {
-        return jsonResponse(409, { error: { code: 'version_conflict', message: 'This plan was changed by someone else.' }, requestId: 'r1' });
+        return jsonResponse(409, {
+          error: { code: 'version_conflict', message: 'This plan was changed by someone else.' },
+          requestId: 'r1',
+        });
       }
       return jsonResponse(200, planDto(4, 'Newer words from a colleague.'));
     });

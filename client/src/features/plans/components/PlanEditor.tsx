@@ -139,7 +139,12 @@ export function PlanEditor({
 
   return (
     <FormProvider {...methods}>
-      <form onSubmit={onSubmit} noValidate aria-label={plan ? 'Edit the restriction plan' : 'Write the restriction plan'} className="space-y-4">
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        aria-label={plan ? 'Edit the restriction plan' : 'Write the restriction plan'}
+        className="space-y-4"
+      >
         {plan && (
           <p className="text-sm text-ink-2">
             Editing version {baseVersion}. Saving keeps every earlier version; the care team sees what changed.
@@ -188,11 +193,7 @@ export function PlanEditor({
             />
           ))}
         </div>
-        <Button
-          variant="secondary"
-          disabled={fields.length >= MAX_STAGES}
-          onClick={() => append(blankStage(getValues('stages').at(-1)))}
-        >
+        <Button variant="secondary" disabled={fields.length >= MAX_STAGES} onClick={() => append(blankStage(getValues('stages').at(-1)))}>
           Add stage
         </Button>
 
@@ -221,7 +222,11 @@ export function PlanEditor({
           <ErrorNotice error={save.error} title="Plan not saved" />
         )}
         {problems.length > 0 && (
-          <Notice tone="problem" role="alert" title={`Not saved yet: ${problems.length === 1 ? 'one thing needs' : `${problems.length} things need`} fixing`}>
+          <Notice
+            tone="problem"
+            role="alert"
+            title={`Not saved yet: ${problems.length === 1 ? 'one thing needs' : `${problems.length} things need`} fixing`}
+          >
             <ul className="list-disc space-y-0.5 pl-5">
               {problems.map((p) => (
                 <li key={p}>{p}</li>

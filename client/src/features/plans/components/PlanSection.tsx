@@ -52,8 +52,8 @@ export function PlanSection(props: PlanSectionProps) {
     return (
       <div className="space-y-2 text-sm">
         <p className="text-ink-2">
-          No restriction plan yet. A plan sets, stage by stage, which movements are blocked, capped or free, and until
-          when; the coach programs under it and the athlete sees it in plain words.
+          No restriction plan yet. A plan sets, stage by stage, which movements are blocked, capped or free, and until when; the coach
+          programs under it and the athlete sees it in plain words.
         </p>
         {canCreate && !closed ? (
           <Button onClick={() => setWriting(true)}>Write the restriction plan</Button>

@@ -30,10 +30,18 @@ export function VersionsList({ versions }: { versions: PlanVersionDto[] }) {
           <caption className="sr-only">Saved versions, newest first</caption>
           <thead>
             <tr className="border-b border-rule bg-shade">
-              <th scope="col" className="px-3 py-2">Version</th>
-              <th scope="col" className="px-3 py-2">Saved</th>
-              <th scope="col" className="px-3 py-2">By</th>
-              <th scope="col" className="px-3 py-2">Change note</th>
+              <th scope="col" className="px-3 py-2">
+                Version
+              </th>
+              <th scope="col" className="px-3 py-2">
+                Saved
+              </th>
+              <th scope="col" className="px-3 py-2">
+                By
+              </th>
+              <th scope="col" className="px-3 py-2">
+                Change note
+              </th>
             </tr>
           </thead>
           <tbody>

@@ -19,7 +19,11 @@ function useLiveIssues(index: number, count: number) {
   const names = Array.from({ length: count }, (_, i) => [`stages.${i}.startDate`, `stages.${i}.endDate`] as const).flat();
   const dates = useWatch({ control, name: names }) as string[];
   const stages = Array.from({ length: count }, (_, i) => ({ startDate: dates[2 * i] ?? '', endDate: dates[2 * i + 1] ?? '' }));
-  return { issues: liveStageIssues(stages).filter((issue) => issue.stage === index), start: stages[index]?.startDate ?? '', end: stages[index]?.endDate ?? '' };
+  return {
+    issues: liveStageIssues(stages).filter((issue) => issue.stage === index),
+    start: stages[index]?.startDate ?? '',
+    end: stages[index]?.endDate ?? '',
+  };
 }
 
 /** One stage: its dates, review and pain ceiling, then the rule for every movement pattern. */
@@ -52,7 +56,13 @@ export function StageCard({
           {days !== null && days > 0 ? `${days} ${days === 1 ? 'day' : 'days'}, both ends included` : 'Set the dates'}
         </p>
         <div className="flex flex-wrap gap-1">
-          <Button size="sm" variant="secondary" disabled={index === 0} onClick={() => onMove(index - 1)} aria-label={`Move stage ${number} up`}>
+          <Button
+            size="sm"
+            variant="secondary"
+            disabled={index === 0}
+            onClick={() => onMove(index - 1)}
+            aria-label={`Move stage ${number} up`}
+          >
             ↑ Up
           </Button>
           <Button
@@ -89,12 +99,7 @@ export function StageCard({
           error={errors?.endDate?.message ?? live('endDate')}
           {...register(`stages.${index}.endDate`)}
         />
-        <TextField
-          label="Review date"
-          type="date"
-          error={errors?.reviewDate?.message}
-          {...register(`stages.${index}.reviewDate`)}
-        />
+        <TextField label="Review date" type="date" error={errors?.reviewDate?.message} {...register(`stages.${index}.reviewDate`)} />
         <div>
           <label htmlFor={painId} className="block text-sm font-semibold">
             Pain ceiling
@@ -128,8 +133,7 @@ export function StageCard({
       <div className="mt-4">
         <p className="mb-1 text-sm font-semibold">Movement patterns</p>
         <p className="mb-2 text-xs text-muted">
-          Free: no limits. Blocked: not allowed. Capped: allowed up to every cap you fill in (at least one). Empty caps
-          do not limit.
+          Free: no limits. Blocked: not allowed. Capped: allowed up to every cap you fill in (at least one). Empty caps do not limit.
         </p>
         <PatternRuleHeader unit={unit} />
         {MOVEMENT_PATTERNS.map((pattern) => (

@@ -30,7 +30,10 @@ export function TodayLimits({ inForce, unit, name }: { inForce: InForceDto; unit
   const restricted = restrictedPatterns(inForce);
   const free = MOVEMENT_PATTERNS.filter((p) => !restricted.includes(p));
   const ends = inForce.stages.map((s) => s.stage.endDate).sort()[0];
-  const reviews = inForce.stages.map((s) => s.stage.reviewDate).filter((d): d is string => !!d && d >= inForce.date).sort();
+  const reviews = inForce.stages
+    .map((s) => s.stage.reviewDate)
+    .filter((d): d is string => !!d && d >= inForce.date)
+    .sort();
   const Who = name ?? 'You';
 
   return (

@@ -138,12 +138,7 @@ function ruleToPayload(rule: RuleForm, unit: Unit): PatternRule {
   const load = c.maxLoad.trim();
   const caps: Caps = {
     maxPercent1RM: numberOrUndefined(c.maxPercent1RM),
-    maxLoadKg:
-      load === ''
-        ? undefined
-        : rule.loadFrom && load === rule.loadFrom.shown
-          ? rule.loadFrom.kg
-          : fromUnit(Number(load), unit),
+    maxLoadKg: load === '' ? undefined : rule.loadFrom && load === rule.loadFrom.shown ? rule.loadFrom.kg : fromUnit(Number(load), unit),
     maxRpe: numberOrUndefined(c.maxRpe),
     maxSetsPerSession: numberOrUndefined(c.maxSetsPerSession),
     maxRepsPerSet: numberOrUndefined(c.maxRepsPerSet),
@@ -183,7 +178,14 @@ export function liveStageIssues(stages: Pick<StageForm, 'startDate' | 'endDate'>
   const dated = stages.map((s, i) => ({ s, i })).filter(({ s }) => ISO.test(s.startDate) && ISO.test(s.endDate));
   return stageIssues(dated.map(({ s }) => s)).map((issue) => {
     const [k, field] = issue.path as [number, string];
-    return { stage: dated[k].i, field: field as 'startDate' | 'endDate', message: renumber(issue.message, dated.map((d) => d.i)) };
+    return {
+      stage: dated[k].i,
+      field: field as 'startDate' | 'endDate',
+      message: renumber(
+        issue.message,
+        dated.map((d) => d.i),
+      ),
+    };
   });
 }
 

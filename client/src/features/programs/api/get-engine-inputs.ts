@@ -17,7 +17,11 @@ function openCasesQuery(orgId: string, athleteId: string) {
 
 /** The case with its status history (same key and cache entry as the case page). */
 function caseDetailQuery(orgId: string, caseId: string) {
-  return { queryKey: queryKeys.case(orgId, caseId), queryFn: () => api.get<CaseDetailDto>(`/orgs/${orgId}/cases/${caseId}`), staleTime: 60_000 };
+  return {
+    queryKey: queryKeys.case(orgId, caseId),
+    queryFn: () => api.get<CaseDetailDto>(`/orgs/${orgId}/cases/${caseId}`),
+    staleTime: 60_000,
+  };
 }
 
 function planQuery(orgId: string, planId: string) {
@@ -59,8 +63,12 @@ export function useEngineInputs(orgId: string, athletes: { id: string; name: str
     const status = mostRestrictive(open.map((c) => c.status));
     const statusChanges: StatusChangeInput[] = open.flatMap((c) =>
       (historyByCase.get(c.id) ?? [{ status: c.status, effectiveFrom: c.statusEffectiveFrom, createdAt: '' }]).map((h) => ({
-        caseId: c.id, status: h.status, effectiveFrom: h.effectiveFrom, createdAt: h.createdAt,
-      })));
+        caseId: c.id,
+        status: h.status,
+        effectiveFrom: h.effectiveFrom,
+        createdAt: h.createdAt,
+      })),
+    );
     const oneRms = Object.fromEntries(Object.entries(currentOneRms(baselines[i].data ?? [])).map(([id, b]) => [id, b.e1rmKg]));
     const published = (programs[i].data ?? ([] as ProgramDto[])).flatMap((p) => p.sessions.filter((s) => s.status === 'published'));
     return { athleteId: a.id, athleteName: a.name, plans: planInputs, oneRms, status, statusChanges, published };

@@ -18,10 +18,16 @@ export const shiftDates = (orgId: string, programId: string, input: ShiftDatesIn
 
 export function useCopyWeek(orgId: string, programId: string) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (input: CopyWeekInput) => copyWeek(orgId, programId, input), onSuccess: () => refreshAfterProgramChange(queryClient, orgId) });
+  return useMutation({
+    mutationFn: (input: CopyWeekInput) => copyWeek(orgId, programId, input),
+    onSuccess: () => refreshAfterProgramChange(queryClient, orgId),
+  });
 }
 
 export function useShiftDates(orgId: string, programId: string) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: (input: ShiftDatesInput) => shiftDates(orgId, programId, input), onSuccess: () => refreshAfterProgramChange(queryClient, orgId) });
+  return useMutation({
+    mutationFn: (input: ShiftDatesInput) => shiftDates(orgId, programId, input),
+    onSuccess: () => refreshAfterProgramChange(queryClient, orgId),
+  });
 }

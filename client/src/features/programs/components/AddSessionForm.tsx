@@ -42,7 +42,13 @@ export function AddSessionForm({
     <form onSubmit={onSubmit} noValidate aria-label="New session" className="space-y-2">
       <div className="flex flex-wrap gap-2">
         <TextField label="Session date" type="date" className="w-40" error={formState.errors.date?.message} {...register('date')} />
-        <TextField label="Session title" className="min-w-[9rem] flex-1" placeholder="e.g. Lower A" error={formState.errors.title?.message} {...register('title')} />
+        <TextField
+          label="Session title"
+          className="min-w-[9rem] flex-1"
+          placeholder="e.g. Lower A"
+          error={formState.errors.title?.message}
+          {...register('title')}
+        />
       </div>
       <Button type="submit" size="sm" busy={create.isPending}>
         Add session

@@ -7,7 +7,17 @@ import { NewProgram, programHref } from './NewProgramForm';
 import { plural } from './program-words';
 
 /** An athlete's programs for their coach, with what needs attention in each. */
-export function AthletePrograms({ orgId, athleteId, athleteName, today }: { orgId: string; athleteId: string; athleteName: string; today: string }) {
+export function AthletePrograms({
+  orgId,
+  athleteId,
+  athleteName,
+  today,
+}: {
+  orgId: string;
+  athleteId: string;
+  athleteName: string;
+  today: string;
+}) {
   const programs = usePrograms(orgId, athleteId);
   return (
     <div className="space-y-3">

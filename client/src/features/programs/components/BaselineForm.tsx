@@ -86,7 +86,12 @@ export function BaselineForm({
   const onSubmit = handleSubmit((input) => record.mutate(input, { onSuccess: onSaved }));
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="Record a 1RM or a set" className="space-y-3 rounded-lg border border-rule-strong bg-sheet p-4">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label="Record a 1RM or a set"
+      className="space-y-3 rounded-lg border border-rule-strong bg-sheet p-4"
+    >
       <div className="flex flex-wrap gap-3">
         <SelectField label="Lift" className="min-w-[12rem] flex-1" error={formState.errors.exerciseId?.message} {...register('exerciseId')}>
           {library.map((e) => (
@@ -115,11 +120,23 @@ export function BaselineForm({
         )}
       />
       <div className="flex flex-wrap gap-3">
-        <TextField label={`Load (${unit})`} inputMode="decimal" className="w-28" error={formState.errors.load?.message} {...register('load')} />
+        <TextField
+          label={`Load (${unit})`}
+          inputMode="decimal"
+          className="w-28"
+          error={formState.errors.load?.message}
+          {...register('load')}
+        />
         {kind === 'estimated' && (
           <>
             <TextField label="Reps" inputMode="numeric" className="w-20" error={formState.errors.reps?.message} {...register('reps')} />
-            <TextField label="RPE (optional)" inputMode="decimal" className="w-28" error={formState.errors.rpe?.message} {...register('rpe')} />
+            <TextField
+              label="RPE (optional)"
+              inputMode="decimal"
+              className="w-28"
+              error={formState.errors.rpe?.message}
+              {...register('rpe')}
+            />
           </>
         )}
       </div>

@@ -21,7 +21,17 @@ export function baselineSource(b: BaselineDto, unit: Unit): string {
  * Each lift's current 1RM — the number every %-of-1RM cap is worked out from — and a form to record
  * a tested max or a set to estimate it from.
  */
-export function BaselinesPanel({ orgId, athleteId, unit, canRecord }: { orgId: string; athleteId: string; unit: Unit; canRecord: boolean }) {
+export function BaselinesPanel({
+  orgId,
+  athleteId,
+  unit,
+  canRecord,
+}: {
+  orgId: string;
+  athleteId: string;
+  unit: Unit;
+  canRecord: boolean;
+}) {
   const baselines = useBaselines(orgId, athleteId);
   const library = useLibrary(orgId);
   const [adding, setAdding] = useState(false);
@@ -40,10 +50,18 @@ export function BaselinesPanel({ orgId, athleteId, unit, canRecord }: { orgId: s
           <table className="w-full min-w-[34rem] text-left text-sm">
             <thead>
               <tr className="border-b border-rule bg-shade">
-                <th scope="col" className="px-3 py-1.5 font-semibold">Lift</th>
-                <th scope="col" className="px-3 py-1.5 font-semibold">1RM</th>
-                <th scope="col" className="px-3 py-1.5 font-semibold">From</th>
-                <th scope="col" className="px-3 py-1.5 font-semibold">Date</th>
+                <th scope="col" className="px-3 py-1.5 font-semibold">
+                  Lift
+                </th>
+                <th scope="col" className="px-3 py-1.5 font-semibold">
+                  1RM
+                </th>
+                <th scope="col" className="px-3 py-1.5 font-semibold">
+                  From
+                </th>
+                <th scope="col" className="px-3 py-1.5 font-semibold">
+                  Date
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -62,7 +80,9 @@ export function BaselinesPanel({ orgId, athleteId, unit, canRecord }: { orgId: s
                   </td>
                   <td className="px-3 py-1.5 text-ink-2">
                     {baselineSource(b, unit)}
-                    {b.lowReliability && <span className="block text-xs">From more than 10 reps: estimates this far out are much less reliable.</span>}
+                    {b.lowReliability && (
+                      <span className="block text-xs">From more than 10 reps: estimates this far out are much less reliable.</span>
+                    )}
                   </td>
                   <td className="px-3 py-1.5 whitespace-nowrap tabular-nums">{formatDate(b.testedOn)}</td>
                 </tr>
@@ -79,7 +99,8 @@ export function BaselinesPanel({ orgId, athleteId, unit, canRecord }: { orgId: s
               .filter((b) => !current.includes(b))
               .map((b) => (
                 <li key={b.id}>
-                  {formatDate(b.testedOn)} · {b.exerciseName}: {formatLoad(b.e1rmKg, unit)} <span className="text-ink-2">({baselineSource(b, unit)})</span>
+                  {formatDate(b.testedOn)} · {b.exerciseName}: {formatLoad(b.e1rmKg, unit)}{' '}
+                  <span className="text-ink-2">({baselineSource(b, unit)})</span>
                 </li>
               ))}
           </ul>

@@ -45,14 +45,16 @@ export function ExceptionRequestForm({
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Ask for an exception" className="space-y-3 rounded-lg border border-line bg-sheet p-3">
-      <p className="text-sm text-ink-2">
-        The clinician decides. Until they grant it, these sets keep the session from being published.
-      </p>
+      <p className="text-sm text-ink-2">The clinician decides. Until they grant it, these sets keep the session from being published.</p>
       {athletes.length > 1 ? (
         <SelectField
           label="Athlete"
           {...register('athleteId', {
-            onChange: (e: { target: { value: string } }) => setValue('setIds', setsFor(e.target.value).map((s) => s.setId)),
+            onChange: (e: { target: { value: string } }) =>
+              setValue(
+                'setIds',
+                setsFor(e.target.value).map((s) => s.setId),
+              ),
           })}
           error={formState.errors.athleteId?.message}
         >

@@ -69,7 +69,13 @@ export function ExerciseBlock({
             <Button size="sm" variant="secondary" disabled={index === 0} onClick={() => onMove(index - 1)} aria-label={`Move ${name} up`}>
               ↑ Up
             </Button>
-            <Button size="sm" variant="secondary" disabled={index === count - 1} onClick={() => onMove(index + 1)} aria-label={`Move ${name} down`}>
+            <Button
+              size="sm"
+              variant="secondary"
+              disabled={index === count - 1}
+              onClick={() => onMove(index + 1)}
+              aria-label={`Move ${name} down`}
+            >
               ↓ Down
             </Button>
             <Button size="sm" variant="danger" onClick={onRemove} aria-label={`Remove ${name}`}>

@@ -77,13 +77,7 @@ export function ExercisePicker({
                 {e.ballistic && ' · impact'}
                 {why && <span className="font-semibold text-line-deep"> · {why}</span>}
               </span>
-              <Button
-                size="sm"
-                variant="secondary"
-                className="order-first"
-                aria-describedby={hintId}
-                onClick={() => pick(e.id)}
-              >
+              <Button size="sm" variant="secondary" className="order-first" aria-describedby={hintId} onClick={() => pick(e.id)}>
                 {e.name}
               </Button>
             </li>

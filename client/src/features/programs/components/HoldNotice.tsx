@@ -9,8 +9,8 @@ export function HoldNotice({ athleteName, breaches }: { athleteName: string; bre
   return (
     <Notice tone="problem" title={`On hold for ${athleteName} — update it to fit`}>
       <p>
-        The limits changed after this session was published. {athleteName} sees it without loads until every set below
-        fits again; saving a version that fits takes it off hold.
+        The limits changed after this session was published. {athleteName} sees it without loads until every set below fits again; saving a
+        version that fits takes it off hold.
       </p>
       <ul aria-label={`Why it is on hold for ${athleteName}`} className="mt-1 list-disc space-y-0.5 pl-5 tabular-nums">
         {breaches.map((b, i) => (

@@ -14,7 +14,15 @@ export const programHref = (programId: string) => `/coach/programs/${programId}`
  * "New program": a name and the athletes it is for (one, or a group — every set is then checked
  * for each of them). Opens the new program on success.
  */
-export function NewProgram({ orgId, athletes, preset = [] }: { orgId: string; athletes: { id: string; name: string }[]; preset?: string[] }) {
+export function NewProgram({
+  orgId,
+  athletes,
+  preset = [],
+}: {
+  orgId: string;
+  athletes: { id: string; name: string }[];
+  preset?: string[];
+}) {
   const [open, setOpen] = useState(false);
   if (!open) {
     return (
@@ -26,7 +34,17 @@ export function NewProgram({ orgId, athletes, preset = [] }: { orgId: string; at
   return <NewProgramForm orgId={orgId} athletes={athletes} preset={preset} onCancel={() => setOpen(false)} />;
 }
 
-function NewProgramForm({ orgId, athletes, preset, onCancel }: { orgId: string; athletes: { id: string; name: string }[]; preset: string[]; onCancel: () => void }) {
+function NewProgramForm({
+  orgId,
+  athletes,
+  preset,
+  onCancel,
+}: {
+  orgId: string;
+  athletes: { id: string; name: string }[];
+  preset: string[];
+  onCancel: () => void;
+}) {
   const navigate = useNavigate();
   const create = useCreateProgram(orgId);
   const { control, register, handleSubmit, formState } = useForm<ProgramCreateInput>({
@@ -36,8 +54,19 @@ function NewProgramForm({ orgId, athletes, preset, onCancel }: { orgId: string; 
   const onSubmit = handleSubmit((input) => create.mutate(input, { onSuccess: (p) => navigate(programHref(p.id)) }));
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="New program" className="w-full space-y-3 rounded-lg border border-rule-strong bg-sheet p-4">
-      <TextField label="Program name" placeholder="e.g. Return to lifting, block 1" error={formState.errors.name?.message} autoFocus {...register('name')} />
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label="New program"
+      className="w-full space-y-3 rounded-lg border border-rule-strong bg-sheet p-4"
+    >
+      <TextField
+        label="Program name"
+        placeholder="e.g. Return to lifting, block 1"
+        error={formState.errors.name?.message}
+        autoFocus
+        {...register('name')}
+      />
       <Controller
         control={control}
         name="athleteIds"

@@ -11,10 +11,17 @@ const n = (v: number) => String(Number(v.toFixed(2)));
 export function PlateHelper({ loadKg, unit }: { loadKg: number; unit: Unit }) {
   const target = toUnit(loadKg, unit);
   const loading = platesPerSide(target, unit);
-  if (target < loading.bar) return <p className="text-sm text-ink-2">Lighter than the {n(loading.bar)} {unit} bar: use a lighter bar or dumbbells.</p>;
+  if (target < loading.bar)
+    return (
+      <p className="text-sm text-ink-2">
+        Lighter than the {n(loading.bar)} {unit} bar: use a lighter bar or dumbbells.
+      </p>
+    );
   return (
     <p className="text-sm tabular-nums">
-      <span className="text-ink-2">On a {n(loading.bar)} {unit} bar, each side: </span>
+      <span className="text-ink-2">
+        On a {n(loading.bar)} {unit} bar, each side:{' '}
+      </span>
       <span className="font-semibold">{loading.perSide.length ? `${loading.perSide.map(n).join(' + ')} ${unit}` : 'no plates'}</span>
       {loading.shortBy > 0 && (
         <span className="block text-ink-2">

@@ -20,7 +20,17 @@ import { SessionEditor } from './SessionEditor';
 import { WeeksView } from './WeeksView';
 
 /** The program page: weeks on the left, the chosen session's editor on the right (stacked on a phone). */
-export function ProgramBuilder({ orgId, programId, unit, backTo }: { orgId: string; programId: string; unit: Unit; backTo: { href: string; label: string } }) {
+export function ProgramBuilder({
+  orgId,
+  programId,
+  unit,
+  backTo,
+}: {
+  orgId: string;
+  programId: string;
+  unit: Unit;
+  backTo: { href: string; label: string };
+}) {
   const program = useProgram(orgId, programId);
   useDocumentTitle(program.data?.name ?? 'Program');
   return (
@@ -31,7 +41,10 @@ export function ProgramBuilder({ orgId, programId, unit, backTo }: { orgId: stri
       {program.isPending ? (
         <Loading what="the program" />
       ) : program.isError ? (
-        <ErrorNotice error={program.error} wording={{ notFound: 'This program was not found, or it includes an athlete you do not coach.' }} />
+        <ErrorNotice
+          error={program.error}
+          wording={{ notFound: 'This program was not found, or it includes an athlete you do not coach.' }}
+        />
       ) : (
         <Builder orgId={orgId} program={program.data} unit={unit} />
       )}
@@ -73,8 +86,17 @@ function Builder({ orgId, program, unit }: { orgId: string; program: ProgramDto;
 
   return (
     <>
-      <PageHeader title={program.name} actions={<Link to="/coach/exercises" className="text-sm font-semibold">Exercise library</Link>}>
-        {athletes.length === 1 ? `For ${athletes[0].name}.` : `For a group: ${joinNames(athletes.map((a) => a.name))}. Every set is checked for each of them.`}
+      <PageHeader
+        title={program.name}
+        actions={
+          <Link to="/coach/exercises" className="text-sm font-semibold">
+            Exercise library
+          </Link>
+        }
+      >
+        {athletes.length === 1
+          ? `For ${athletes[0].name}.`
+          : `For a group: ${joinNames(athletes.map((a) => a.name))}. Every set is checked for each of them.`}
       </PageHeader>
       {inputs.error ? (
         <Notice tone="caution" title="Some limits could not be loaded">

@@ -34,7 +34,17 @@ export function ProgramTools({
   );
 }
 
-function CopyWeekForm({ orgId, programId, weeks, onChanged }: { orgId: string; programId: string; weeks: string[]; onChanged: () => void }) {
+function CopyWeekForm({
+  orgId,
+  programId,
+  weeks,
+  onChanged,
+}: {
+  orgId: string;
+  programId: string;
+  weeks: string[];
+  onChanged: () => void;
+}) {
   const copy = useCopyWeek(orgId, programId);
   const [done, setDone] = useState<string | null>(null);
   const last = weeks[weeks.length - 1];
@@ -64,7 +74,13 @@ function CopyWeekForm({ orgId, programId, weeks, onChanged }: { orgId: string; p
           </option>
         ))}
       </SelectField>
-      <TextField label="To the week of" type="date" hint="Any day of that week." error={formState.errors.toWeekStart?.message} {...register('toWeekStart')} />
+      <TextField
+        label="To the week of"
+        type="date"
+        hint="Any day of that week."
+        error={formState.errors.toWeekStart?.message}
+        {...register('toWeekStart')}
+      />
       <Button type="submit" size="sm" variant="secondary" busy={copy.isPending}>
         Copy week
       </Button>

@@ -17,13 +17,26 @@ const LIMITS_SHOWN = 2;
  * The coach's roster: who is limited today and how, which published sessions are on hold, which
  * exception requests wait for the clinician, and what comes next.
  */
-export function RosterTable({ rows, athleteHref, caption, empty }: { rows: RosterRowDto[]; athleteHref: (id: string) => string; caption: string; empty: string }) {
+export function RosterTable({
+  rows,
+  athleteHref,
+  caption,
+  empty,
+}: {
+  rows: RosterRowDto[];
+  athleteHref: (id: string) => string;
+  caption: string;
+  empty: string;
+}) {
   const columns = useMemo(
     () => [
       column.accessor('athleteName', {
         header: 'Athlete',
         cell: (info) => (
-          <Link to={athleteHref(info.row.original.athleteId)} className="font-semibold whitespace-nowrap underline decoration-rule-strong underline-offset-4">
+          <Link
+            to={athleteHref(info.row.original.athleteId)}
+            className="font-semibold whitespace-nowrap underline decoration-rule-strong underline-offset-4"
+          >
             {info.getValue()}
           </Link>
         ),
@@ -67,7 +80,9 @@ export function RosterTable({ rows, athleteHref, caption, empty }: { rows: Roste
       }),
       column.accessor('pendingExceptions', {
         header: 'Exceptions waiting',
-        cell: (info) => <span className={info.getValue() > 0 ? 'font-semibold tabular-nums' : 'text-muted tabular-nums'}>{info.getValue()}</span>,
+        cell: (info) => (
+          <span className={info.getValue() > 0 ? 'font-semibold tabular-nums' : 'text-muted tabular-nums'}>{info.getValue()}</span>
+        ),
       }),
       column.accessor((r) => r.nextSession?.date ?? undefined, {
         id: 'next',

@@ -99,7 +99,10 @@ export function SessionActions({
     return ids.map((setId) => ({
       setId,
       label: setLabel(setId),
-      words: mine.filter((b) => b.setId === setId).map((b) => b.message).join(' '),
+      words: mine
+        .filter((b) => b.setId === setId)
+        .map((b) => b.message)
+        .join(' '),
     }));
   };
 
@@ -111,7 +114,12 @@ export function SessionActions({
             {published ? 'Save changes' : 'Save draft'}
           </Button>
           {published ? (
-            <Button variant="secondary" busy={unpublish.isPending} disabled={busy} onClick={() => unpublish.mutate(session.version, { onSuccess: onPublished })}>
+            <Button
+              variant="secondary"
+              busy={unpublish.isPending}
+              disabled={busy}
+              onClick={() => unpublish.mutate(session.version, { onSuccess: onPublished })}
+            >
               Back to draft
             </Button>
           ) : (
@@ -202,13 +210,19 @@ export function SessionActions({
             <BreachList
               key={r.athleteId}
               label={`Breaches the server found for ${r.athleteName}`}
-              items={r.breaches.map((breach) => ({ athleteId: r.athleteId, athleteName: refusal.results.length > 1 || athletes.length > 1 ? r.athleteName : null, breach }))}
+              items={r.breaches.map((breach) => ({
+                athleteId: r.athleteId,
+                athleteName: refusal.results.length > 1 || athletes.length > 1 ? r.athleteName : null,
+                breach,
+              }))}
             />
           ))}
         </Notice>
       )}
       {!staleAction && !refusal && saveError ? <ErrorNotice error={saveError} /> : null}
-      {!staleAction && !refusal && actionError && (actionError as { status?: number }).status !== 422 ? <ErrorNotice error={actionError} /> : null}
+      {!staleAction && !refusal && actionError && (actionError as { status?: number }).status !== 422 ? (
+        <ErrorNotice error={actionError} />
+      ) : null}
     </>
   );
 }

@@ -46,7 +46,15 @@ const session: ProgramSessionDto = {
   publishedAt: null,
   version: 1,
   holds: [],
-  content: { exercises: [{ id: 'e1e1e1e1-0000-4000-8000-000000000001', exerciseId: DEADLIFT, sets: [{ id: SET, reps: 5, load: { kind: 'kg', value: 80 }, targetRpe: 6 }] }] },
+  content: {
+    exercises: [
+      {
+        id: 'e1e1e1e1-0000-4000-8000-000000000001',
+        exerciseId: DEADLIFT,
+        sets: [{ id: SET, reps: 5, load: { kind: 'kg', value: 80 }, targetRpe: 6 }],
+      },
+    ],
+  },
 };
 
 // Hinge capped at 60% of a tested 140 kg deadlift: 84 kg (the server's smoke test uses the same case).
@@ -61,7 +69,15 @@ const sam: AthleteEngine = {
       planId: 'plan-1',
       caseId: 'case-1',
       version: 1,
-      stages: [{ id: 'stage-1', startDate: '2026-11-20', endDate: '2027-02-28', painCeiling: 5, patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } } }],
+      stages: [
+        {
+          id: 'stage-1',
+          startDate: '2026-11-20',
+          endDate: '2027-02-28',
+          painCeiling: 5,
+          patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } },
+        },
+      ],
     },
   ],
 };
@@ -122,8 +138,17 @@ describe('SessionEditor live check', () => {
 
   it("shows the server's own breach list when it still refuses to publish", async () => {
     const serverBreach = {
-      setId: SET, sessionId: SESSION, date: '2027-01-05', exerciseId: DEADLIFT, rule: 'percent_1rm', pattern: 'hinge',
-      limit: 'max 50% of 140 kg = 70 kg', planned: '80 kg', fits: '70 kg fits on 2.5 kg steps', fittingKg: 70, waived: false,
+      setId: SET,
+      sessionId: SESSION,
+      date: '2027-01-05',
+      exerciseId: DEADLIFT,
+      rule: 'percent_1rm',
+      pattern: 'hinge',
+      limit: 'max 50% of 140 kg = 70 kg',
+      planned: '80 kg',
+      fits: '70 kg fits on 2.5 kg steps',
+      fittingKg: 70,
+      waived: false,
       message: 'Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg steps.',
     };
     let published = false;
@@ -132,7 +157,11 @@ describe('SessionEditor live check', () => {
       if (path.endsWith('/publish')) {
         published = true;
         return jsonResponse(422, {
-          error: { code: 'unprocessable', message: 'This session cannot be published: 1 planned set goes past a cap.', details: { breaches: [{ athleteId: SAM, breaches: [serverBreach] }] } },
+          error: {
+            code: 'unprocessable',
+            message: 'This session cannot be published: 1 planned set goes past a cap.',
+            details: { breaches: [{ athleteId: SAM, breaches: [serverBreach] }] },
+          },
           requestId: 'r1',
         });
       }

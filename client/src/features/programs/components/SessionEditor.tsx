@@ -42,13 +42,27 @@ export interface SessionEditorProps {
  * inputs the server uses. Drafts save freely; publishing is off while any set breaches, and the
  * server, which decides, is asked again on publish.
  */
-export function SessionEditor({ orgId, unit, athletes, session, library, engines, enginesPending, exceptions, onReload, onDeleted }: SessionEditorProps) {
+export function SessionEditor({
+  orgId,
+  unit,
+  athletes,
+  session,
+  library,
+  engines,
+  enginesPending,
+  exceptions,
+  onReload,
+  onDeleted,
+}: SessionEditorProps) {
   const headingId = useId();
   const formId = useId();
   const [base, setBase] = useState(session);
   const [refusal, setRefusal] = useState<Refusal | null>(null);
   const [conflict, setConflict] = useState(false);
-  const methods = useForm<SessionForm, unknown, SessionCreateInput>({ resolver: sessionFormResolver, defaultValues: sessionToForm(session) });
+  const methods = useForm<SessionForm, unknown, SessionCreateInput>({
+    resolver: sessionFormResolver,
+    defaultValues: sessionToForm(session),
+  });
   const { control, handleSubmit, reset, formState, register } = methods;
   const { fields, append, remove, move } = useFieldArray({ control, name: 'exercises' });
   const values = useWatch({ control }) as SessionForm;
@@ -73,16 +87,28 @@ export function SessionEditor({ orgId, unit, athletes, session, library, engines
         .filter((b) => b.waived && savedPrints.get(b.setId) === livePrints.get(b.setId))
         .map((b) => b.setId),
     );
-  const results = engines.map((engine) => ({ engine, breaches: liveBreaches({ session: live, engine, exercises, unit, waived: waivedFor(engine.athleteId) }) }));
+  const results = engines.map((engine) => ({
+    engine,
+    breaches: liveBreaches({ session: live, engine, exercises, unit, waived: waivedFor(engine.athleteId) }),
+  }));
   const bySet = new Map<string, SetBreach[]>();
   for (const { engine, breaches } of results) {
     for (const breach of breaches) {
-      bySet.set(breach.setId, [...(bySet.get(breach.setId) ?? []), { athleteId: engine.athleteId, athleteName: group ? engine.athleteName : null, breach }]);
+      bySet.set(breach.setId, [
+        ...(bySet.get(breach.setId) ?? []),
+        { athleteId: engine.athleteId, athleteName: group ? engine.athleteName : null, breach },
+      ]);
     }
   }
-  const blocking = results.map((r) => ({ athleteId: r.engine.athleteId, athleteName: r.engine.athleteName, breaches: blockingBreaches(r.breaches) }));
+  const blocking = results.map((r) => ({
+    athleteId: r.engine.athleteId,
+    athleteName: r.engine.athleteName,
+    breaches: blockingBreaches(r.breaches),
+  }));
 
-  const setInfo = new Map(live.content.exercises.flatMap((e) => e.sets.map((s) => [s.id, { exerciseId: e.exerciseId, load: s.load }] as const)));
+  const setInfo = new Map(
+    live.content.exercises.flatMap((e) => e.sets.map((s) => [s.id, { exerciseId: e.exerciseId, load: s.load }] as const)),
+  );
   const linesFor = (setId: string): SetLine[] => {
     const info = setInfo.get(setId);
     const ex = info && exercises[info.exerciseId];
@@ -98,7 +124,10 @@ export function SessionEditor({ orgId, unit, athletes, session, library, engines
     if (found.length === 0) return null;
     return found
       .filter((x, i) => found.findIndex((y) => y.athleteId === x.athleteId) === i)
-      .map((x) => `${group ? `${x.athleteName}: ` : ''}${x.status === 'granted' && !x.grantedSetIds.includes(setId) ? 'Exception not granted for this set' : EXCEPTION_WORDS[x.status]}`)
+      .map(
+        (x) =>
+          `${group ? `${x.athleteName}: ` : ''}${x.status === 'granted' && !x.grantedSetIds.includes(setId) ? 'Exception not granted for this set' : EXCEPTION_WORDS[x.status]}`,
+      )
       .join(' · ');
   };
   const swapsFor = (item: SetBreach) => {
@@ -157,7 +186,9 @@ export function SessionEditor({ orgId, unit, athletes, session, library, engines
     const server = await checkSession(orgId, base.id).catch(() => null);
     setRefusal({
       message,
-      results: (server?.results ?? []).map((r) => ({ athleteId: r.athleteId, athleteName: nameOf(r.athleteId), breaches: blockingBreaches(r.breaches) })).filter((r) => r.breaches.length),
+      results: (server?.results ?? [])
+        .map((r) => ({ athleteId: r.athleteId, athleteName: nameOf(r.athleteId), breaches: blockingBreaches(r.breaches) }))
+        .filter((r) => r.breaches.length),
     });
   }
 
@@ -172,15 +203,18 @@ export function SessionEditor({ orgId, unit, athletes, session, library, engines
         </h2>
         <Badge>{published ? 'Published' : 'Draft'}</Badge>
       </div>
-      {published &&
-        holds.map((h) => (
-          <HoldNotice key={h.athleteId} athleteName={nameOf(h.athleteId)} breaches={h.breaches} />
-        ))}
+      {published && holds.map((h) => <HoldNotice key={h.athleteId} athleteName={nameOf(h.athleteId)} breaches={h.breaches} />)}
       <FormProvider {...methods}>
         {/* "Date" and "Title", not "Session date"/"Session title": those name the add-a-session form beside it. */}
         <div className="flex flex-wrap gap-3">
           <TextField label="Date" type="date" form={formId} className="w-44" error={formState.errors.date?.message} {...register('date')} />
-          <TextField label="Title" form={formId} className="min-w-[12rem] flex-1" error={formState.errors.title?.message} {...register('title')} />
+          <TextField
+            label="Title"
+            form={formId}
+            className="min-w-[12rem] flex-1"
+            error={formState.errors.title?.message}
+            {...register('title')}
+          />
         </div>
         <SessionActions
           orgId={orgId}
@@ -204,7 +238,13 @@ export function SessionEditor({ orgId, unit, athletes, session, library, engines
           onDeleted={onDeleted}
           clearRefusal={() => setRefusal(null)}
         />
-        <form id={formId} onSubmit={handleSubmit((p) => void save(p))} noValidate aria-label={`Exercises of ${base.title}`} className="space-y-3">
+        <form
+          id={formId}
+          onSubmit={handleSubmit((p) => void save(p))}
+          noValidate
+          aria-label={`Exercises of ${base.title}`}
+          className="space-y-3"
+        >
           {fields.length === 0 ? (
             <p className="rounded-md border border-dashed border-rule-strong px-3 py-4 text-sm text-ink-2">
               No exercise yet. Add one from the library below.

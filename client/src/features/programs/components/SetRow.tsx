@@ -51,7 +51,8 @@ export function SetRow({
   const { register, setValue, getFieldState, formState, control } = useFormContext<SessionForm>();
   const base = `exercises.${exerciseIndex}.sets.${setIndex}` as const;
   const n = setIndex + 1;
-  const error = (field: 'reps' | 'load' | 'loadUnit' | 'targetRpe' | 'rest' | 'notes') => getFieldState(`${base}.${field}`, formState).error?.message;
+  const error = (field: 'reps' | 'load' | 'loadUnit' | 'targetRpe' | 'rest' | 'notes') =>
+    getFieldState(`${base}.${field}`, formState).error?.message;
   const loadUnit = useWatch({ control, name: `${base}.loadUnit` });
 
   function applyLoad(value: number, fixUnit: 'kg' | 'lb') {
@@ -110,7 +111,13 @@ export function SetRow({
       )}
       {exceptionWords && <p className="mt-1 pl-14 text-sm font-semibold text-ink-2">{exceptionWords}</p>}
       <div className="pl-0 sm:pl-14">
-        <BreachList items={breaches} exercise={exercise} swapsFor={swapsFor} onUseLoad={readOnly ? undefined : applyLoad} onSwap={readOnly ? undefined : onSwap} />
+        <BreachList
+          items={breaches}
+          exercise={exercise}
+          swapsFor={swapsFor}
+          onUseLoad={readOnly ? undefined : applyLoad}
+          onSwap={readOnly ? undefined : onSwap}
+        />
       </div>
     </fieldset>
   );

@@ -43,7 +43,12 @@ function renderToday(today: TodayDto, library: ExerciseDto[]) {
     return jsonResponse(404, { error: { code: 'not_found', message: 'No' }, requestId: 'r' });
   });
   const user: UserDto = { id: 'u1', email: 'sam@x.test', displayName: 'Sam Whitfield', unitPref: 'kg' };
-  const membership = { id: SAM, organizationId: ORG, organizationName: 'Harbor Point', roles: ['athlete'] } as unknown as MembershipSummaryDto;
+  const membership = {
+    id: SAM,
+    organizationId: ORG,
+    organizationName: 'Harbor Point',
+    roles: ['athlete'],
+  } as unknown as MembershipSummaryDto;
   const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   const wrap = (ui: ReactNode) => (
     <QueryClientProvider client={client}>

@@ -62,7 +62,9 @@ function OneSession({ session, unit, exercises }: { session: TodaySession; unit:
       <article aria-label={session.title}>
         <h3 className="text-base font-bold">{session.title}</h3>
         <Notice tone="caution" title="On hold until your coach updates it" className="mt-2">
-          <p>Your limits changed after this session was written. Don&apos;t do it yet: your coach has been told and will send an updated one.</p>
+          <p>
+            Your limits changed after this session was written. Don&apos;t do it yet: your coach has been told and will send an updated one.
+          </p>
         </Notice>
       </article>
     );

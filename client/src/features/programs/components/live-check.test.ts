@@ -2,11 +2,22 @@ import { describe, expect, it } from 'vitest';
 import type { EngineExercise } from '../../../../../policies/load/compliance';
 import { liveBreaches, type AthleteEngine } from './live-check';
 
-const SQUAT: EngineExercise = { id: 'squat', name: 'Back squat', patterns: ['squat'], ballistic: false, steps: { kind: 'increment', step: 2.5, unit: 'kg' }, referenceId: null };
+const SQUAT: EngineExercise = {
+  id: 'squat',
+  name: 'Back squat',
+  patterns: ['squat'],
+  ballistic: false,
+  steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+  referenceId: null,
+};
 const session = (date: string) => ({
   id: 's1',
   date,
-  content: { exercises: [{ id: 'e1', exerciseId: 'squat', sets: [{ id: 'set-1', reps: 5, load: { kind: 'kg' as const, value: 60 }, targetRpe: 6 }] }] },
+  content: {
+    exercises: [
+      { id: 'e1', exerciseId: 'squat', sets: [{ id: 'set-1', reps: 5, load: { kind: 'kg' as const, value: 60 }, targetRpe: 6 }] },
+    ],
+  },
 });
 
 // Out from 1 Dec with no plan yet; on 2 Dec the clinician decided "limited from 8 Dec".
@@ -23,8 +34,9 @@ const athlete: AthleteEngine = {
   ],
 };
 
-describe('the live check uses the status of each set\'s own date, as the server does', () => {
-  const run = (date: string, engine: AthleteEngine = athlete) => liveBreaches({ session: session(date), engine, exercises: { squat: SQUAT }, unit: 'kg' }).map((b) => b.rule);
+describe("the live check uses the status of each set's own date, as the server does", () => {
+  const run = (date: string, engine: AthleteEngine = athlete) =>
+    liveBreaches({ session: session(date), engine, exercises: { squat: SQUAT }, unit: 'kg' }).map((b) => b.rule);
 
   it('refuses a session while the athlete is out', () => {
     expect(run('2026-12-05')).toContain('status_out');
@@ -34,7 +46,7 @@ describe('the live check uses the status of each set\'s own date, as the server 
     expect(run('2026-12-09')).not.toContain('status_out');
   });
 
-  it('falls back to today\'s status when no history is loaded', () => {
+  it("falls back to today's status when no history is loaded", () => {
     const { statusChanges: _unused, ...withoutHistory } = athlete;
     expect(run('2026-12-09', withoutHistory)).toContain('status_out');
   });

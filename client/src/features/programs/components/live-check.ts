@@ -44,14 +44,27 @@ export function engineSets(session: { id: string; date: string; content: Session
   let order = 0;
   for (const ex of session.content.exercises) {
     for (const s of ex.sets) {
-      out.push({ id: s.id, sessionId: session.id, date: session.date, exerciseId: ex.exerciseId, reps: s.reps, load: s.load, targetRpe: s.targetRpe ?? null, order: order++ });
+      out.push({
+        id: s.id,
+        sessionId: session.id,
+        date: session.date,
+        exerciseId: ex.exerciseId,
+        reps: s.reps,
+        load: s.load,
+        targetRpe: s.targetRpe ?? null,
+        order: order++,
+      });
     }
   }
   return out;
 }
 
 /** What a granted exception is tied to: the set as granted (exercise, date, reps, load, RPE). */
-export function setFingerprint(exerciseId: string, set: { reps: number; load: PlannedLoad; targetRpe?: number | null }, date: string): string {
+export function setFingerprint(
+  exerciseId: string,
+  set: { reps: number; load: PlannedLoad; targetRpe?: number | null },
+  date: string,
+): string {
   return JSON.stringify([exerciseId, date, set.reps, set.load, set.targetRpe ?? null]);
 }
 

@@ -76,7 +76,9 @@ function numberOrUndefined(value: string | undefined): number | undefined {
 }
 
 function loadPayload(set: Pick<SetForm, 'load' | 'loadUnit'>): PlannedLoad {
-  return set.loadUnit === 'bodyweight' ? { kind: 'bodyweight' } : ({ kind: set.loadUnit, value: numberOrUndefined(set.load) } as PlannedLoad);
+  return set.loadUnit === 'bodyweight'
+    ? { kind: 'bodyweight' }
+    : ({ kind: set.loadUnit, value: numberOrUndefined(set.load) } as PlannedLoad);
 }
 
 const trimmedOrNull = (v: string | undefined) => (v && v.trim() !== '' ? v.trim() : null);
@@ -127,7 +129,14 @@ export function formToCheckable(form: SessionForm): SessionContent {
 
 type ErrorTree = Record<string, unknown>;
 
-const SET_FIELDS: Record<string, keyof SetForm> = { id: 'setId', reps: 'reps', load: 'load', targetRpe: 'targetRpe', restSeconds: 'rest', notes: 'notes' };
+const SET_FIELDS: Record<string, keyof SetForm> = {
+  id: 'setId',
+  reps: 'reps',
+  load: 'load',
+  targetRpe: 'targetRpe',
+  restSeconds: 'rest',
+  notes: 'notes',
+};
 
 /** Moves errors from the API's names (content.exercises.0.sets.1.load.value) to the form's. */
 function toFormErrors(errors: FieldErrors): FieldErrors<SessionForm> {

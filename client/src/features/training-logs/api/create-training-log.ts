@@ -10,7 +10,12 @@ export function createTrainingLog(orgId: string, input: TrainingLogCreateInput):
 
 /** A log moves the workload, and the pain rule may raise a flag and send notices. */
 export function refreshAfterLog(queryClient: QueryClient, orgId: string) {
-  for (const queryKey of [queryKeys.trainingLogsAll(orgId), queryKeys.workloadAll(orgId), queryKeys.flagsAll(orgId), queryKeys.notifications(orgId)]) {
+  for (const queryKey of [
+    queryKeys.trainingLogsAll(orgId),
+    queryKeys.workloadAll(orgId),
+    queryKeys.flagsAll(orgId),
+    queryKeys.notifications(orgId),
+  ]) {
     void queryClient.invalidateQueries({ queryKey });
   }
 }

@@ -44,10 +44,15 @@ export function LogList({
             {log.durationMinutes} min · effort {log.sessionRpe} ({effortWords(log.sessionRpe).toLowerCase()}) · load {log.sessionLoad}
           </p>
           <div className="mt-2 space-y-2">
-            <LineBar label={`Pain during, ${formatDate(log.date)}`} value={log.painDuring} limit={log.painCeiling} max={10} format={String} />
+            <LineBar
+              label={`Pain during, ${formatDate(log.date)}`}
+              value={log.painDuring}
+              limit={log.painCeiling}
+              max={10}
+              format={String}
+            />
             <p className="text-sm tabular-nums">
-              Pain before {log.painBefore}/10 · next morning{' '}
-              {log.painNextMorning === null ? 'not given yet' : `${log.painNextMorning}/10`}
+              Pain before {log.painBefore}/10 · next morning {log.painNextMorning === null ? 'not given yet' : `${log.painNextMorning}/10`}
               {log.painNextMorning !== null && log.painNextMorning > log.painBefore && (
                 <span className="font-semibold text-line-deep"> — higher than before the session</span>
               )}

@@ -32,7 +32,13 @@ export function LogOutcome({
           {formatDate(log.date)} · {log.durationMinutes} min · effort {log.sessionRpe} ({effortWords(log.sessionRpe).toLowerCase()}) ·
           session load {log.sessionLoad} (effort × minutes)
         </p>
-        <LineBar label="Pain during (0–10), against your clinician's ceiling" value={log.painDuring} limit={log.painCeiling} max={10} format={String} />
+        <LineBar
+          label="Pain during (0–10), against your clinician's ceiling"
+          value={log.painDuring}
+          limit={log.painCeiling}
+          max={10}
+          format={String}
+        />
         <p className="text-sm text-ink-2">Tomorrow morning, your page will ask how the pain is.</p>
       </div>
       <div className="flex flex-col gap-3 sm:flex-row">

@@ -50,8 +50,8 @@ export function NextMorningPrompt({ orgId, athleteId }: { orgId: string; athlete
         How is the pain this morning?
       </h2>
       <p className="text-sm text-ink-2">
-        After your session {log.date === today ? 'today' : `on ${formatDate(log.date)}`} (pain before {log.painBefore}/10,
-        during {log.painDuring}/10). One tap: 0 is no pain, 10 the worst you can imagine.
+        After your session {log.date === today ? 'today' : `on ${formatDate(log.date)}`} (pain before {log.painBefore}/10, during{' '}
+        {log.painDuring}/10). One tap: 0 is no pain, 10 the worst you can imagine.
       </p>
       <div role="group" aria-labelledby={headingId} className="mt-3 grid grid-cols-6 gap-1.5 sm:grid-cols-11">
         {SCORES.map((n) => (

@@ -94,8 +94,25 @@ export function TrainingLogForm({
         error={errors.sessionRpe?.message}
         input={register('sessionRpe', { setValueAs: toNumber })}
       />
-      <ScoreField control={control} name="painBefore" label="Pain before" hint="Before you started." low="No pain" high="Worst pain you can imagine" error={errors.painBefore?.message} />
-      <ScoreField control={control} name="painDuring" label="Pain during" hint="The most it hurt during the session." low="No pain" high="Worst pain you can imagine" limit={painCeiling} error={errors.painDuring?.message} />
+      <ScoreField
+        control={control}
+        name="painBefore"
+        label="Pain before"
+        hint="Before you started."
+        low="No pain"
+        high="Worst pain you can imagine"
+        error={errors.painBefore?.message}
+      />
+      <ScoreField
+        control={control}
+        name="painDuring"
+        label="Pain during"
+        hint="The most it hurt during the session."
+        low="No pain"
+        high="Worst pain you can imagine"
+        limit={painCeiling}
+        error={errors.painDuring?.message}
+      />
 
       <fieldset className="min-w-0 space-y-3">
         <legend className="text-base font-semibold">Sets</legend>

@@ -20,5 +20,7 @@ export function effortWords(score: number): string {
   if (EFFORT_WORDS[score]) return EFFORT_WORDS[score];
   const below = [...EFFORT_SCORES].reverse().find((s) => s < score && EFFORT_WORDS[s]);
   const above = EFFORT_SCORES.find((s) => s > score && EFFORT_WORDS[s]);
-  return below !== undefined && above !== undefined ? `Between ${EFFORT_WORDS[below].toLowerCase()} and ${EFFORT_WORDS[above].toLowerCase()}` : '';
+  return below !== undefined && above !== undefined
+    ? `Between ${EFFORT_WORDS[below].toLowerCase()} and ${EFFORT_WORDS[above].toLowerCase()}`
+    : '';
 }

@@ -3,7 +3,20 @@ import type { WorkloadDto } from '../../../../../policies/dto';
 import type { Unit } from '../../../../../policies/schemas';
 import { toUnit } from '../../../../../policies/load/units';
 import { formatDate } from '../../../lib/format';
-import { AXIS_TICK, ChartFigure, INK, INK_2, KeyItem, MUTED, RULE, RULE_STRONG, SHEET, endLabel, lastIndexWith, shortDate } from './chart-kit';
+import {
+  AXIS_TICK,
+  ChartFigure,
+  INK,
+  INK_2,
+  KeyItem,
+  MUTED,
+  RULE,
+  RULE_STRONG,
+  SHEET,
+  endLabel,
+  lastIndexWith,
+  shortDate,
+} from './chart-kit';
 
 /** Each lift gets its own dash and marker shape, so the lines part without colour. */
 const STYLES = [
@@ -61,8 +74,8 @@ export function E1rmChart({ e1rm, unit, level }: { e1rm: WorkloadDto['e1rm']; un
       level={level}
       summary={
         <>
-          Best estimate of each day, from logged sets (load and reps, with RPE when given), in {unit}. Hollow markers come from
-          sets of more than 10 reps and are less reliable.
+          Best estimate of each day, from logged sets (load and reps, with RPE when given), in {unit}. Hollow markers come from sets of more
+          than 10 reps and are less reliable.
           {all.length > MAX_LIFTS && ` The chart shows the ${MAX_LIFTS} lifts logged most often; the table has all of them.`}
         </>
       }
@@ -89,7 +102,13 @@ export function E1rmChart({ e1rm, unit, level }: { e1rm: WorkloadDto['e1rm']; un
         { header: 'Reliability', cell: (r) => (r.lowReliability ? 'lower (more than 10 reps)' : 'usual') },
       ]}
     >
-      <LineChart data={rows} responsive style={{ width: '100%', height: 260 }} margin={{ top: 12, right: 4, bottom: 0, left: 0 }} accessibilityLayer={false}>
+      <LineChart
+        data={rows}
+        responsive
+        style={{ width: '100%', height: 260 }}
+        margin={{ top: 12, right: 4, bottom: 0, left: 0 }}
+        accessibilityLayer={false}
+      >
         <CartesianGrid stroke={RULE} vertical={false} />
         <XAxis dataKey="date" tickFormatter={shortDate} tick={AXIS_TICK} stroke={RULE_STRONG} minTickGap={12} />
         <YAxis tick={AXIS_TICK} stroke={RULE_STRONG} width={44} domain={['auto', 'auto']} unit={` ${unit}`} />

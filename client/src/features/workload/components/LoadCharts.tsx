@@ -32,7 +32,13 @@ export function WeeklyLoadChart({ weeks, level }: { weeks: WorkloadDto['weeks'];
         { header: 'Change', cell: (r) => (r.change === null ? '—' : `${r.change > 0 ? '+' : ''}${r.change}%`) },
       ]}
     >
-      <BarChart data={rows} responsive style={{ width: '100%', height: 220 }} margin={{ top: 20, right: 4, bottom: 0, left: 0 }} accessibilityLayer={false}>
+      <BarChart
+        data={rows}
+        responsive
+        style={{ width: '100%', height: 220 }}
+        margin={{ top: 20, right: 4, bottom: 0, left: 0 }}
+        accessibilityLayer={false}
+      >
         <CartesianGrid stroke={RULE} vertical={false} />
         <XAxis dataKey="label" tick={AXIS_TICK} stroke={RULE_STRONG} interval="preserveStartEnd" minTickGap={8} />
         <YAxis tick={AXIS_TICK} stroke={RULE_STRONG} width={44} allowDecimals={false} />
@@ -65,15 +71,7 @@ function StagePatterns({ id }: { id: string }) {
  * Daily session load with the clinician's stages shaded behind the bars and named at the top, so a
  * change of load can be read against a change of plan.
  */
-export function DailyLoadChart({
-  daily,
-  stages,
-  level,
-}: {
-  daily: WorkloadDto['daily'];
-  stages: WorkloadDto['stages'];
-  level?: 2 | 3;
-}) {
+export function DailyLoadChart({ daily, stages, level }: { daily: WorkloadDto['daily']; stages: WorkloadDto['stages']; level?: 2 | 3 }) {
   const id = svgId(useId());
   const first = daily[0]?.date;
   const last = daily.at(-1)?.date;
@@ -96,7 +94,8 @@ export function DailyLoadChart({
       summary={
         <>
           {`${trainingDays} training ${trainingDays === 1 ? 'day' : 'days'} of ${daily.length}; rest days count as 0.`}
-          {shown.length > 0 && ` Hatched bands are the clinician's plan stages: ${shown.map((s) => `${s.name} (${formatDate(s.startDate)} – ${formatDate(s.endDate)})`).join('; ')}.`}
+          {shown.length > 0 &&
+            ` Hatched bands are the clinician's plan stages: ${shown.map((s) => `${s.name} (${formatDate(s.startDate)} – ${formatDate(s.endDate)})`).join('; ')}.`}
         </>
       }
       keyItems={
@@ -125,7 +124,13 @@ export function DailyLoadChart({
         { header: 'Stage', cell: (r) => shown.find((s) => s.startDate <= r.date && r.date <= s.endDate)?.name ?? '—' },
       ]}
     >
-      <BarChart data={daily} responsive style={{ width: '100%', height: 240 }} margin={{ top: 22, right: 4, bottom: 0, left: 0 }} accessibilityLayer={false}>
+      <BarChart
+        data={daily}
+        responsive
+        style={{ width: '100%', height: 240 }}
+        margin={{ top: 22, right: 4, bottom: 0, left: 0 }}
+        accessibilityLayer={false}
+      >
         <StagePatterns id={id} />
         {shown.map((s, i) => (
           <ReferenceArea

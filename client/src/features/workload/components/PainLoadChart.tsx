@@ -2,7 +2,20 @@ import { Bar, CartesianGrid, ComposedChart, Line, Tooltip, XAxis, YAxis } from '
 import type { WorkloadDto } from '../../../../../policies/dto';
 import { formatDate } from '../../../lib/format';
 import {
-  AXIS_TICK, ChartFigure, INK, INK_2, KeyItem, LINE, LINE_DEEP, RULE, RULE_STRONG, SHADE, SHEET, endLabel, lastIndexWith, shortDate,
+  AXIS_TICK,
+  ChartFigure,
+  INK,
+  INK_2,
+  KeyItem,
+  LINE,
+  LINE_DEEP,
+  RULE,
+  RULE_STRONG,
+  SHADE,
+  SHEET,
+  endLabel,
+  lastIndexWith,
+  shortDate,
 } from './chart-kit';
 
 interface Row {
@@ -52,7 +65,14 @@ export function PainLoadChart({ pain, level, summary }: { pain: WorkloadDto['pai
       keyItems={
         <>
           <KeyItem swatch={<rect x="6" y="2" width="16" height="10" fill={SHADE} stroke={RULE_STRONG} />}>Session load</KeyItem>
-          <KeyItem swatch={<><line x1="0" y1="7" x2="28" y2="7" stroke={INK} strokeWidth="2" /><circle cx="14" cy="7" r="4" fill={INK} /></>}>
+          <KeyItem
+            swatch={
+              <>
+                <line x1="0" y1="7" x2="28" y2="7" stroke={INK} strokeWidth="2" />
+                <circle cx="14" cy="7" r="4" fill={INK} />
+              </>
+            }
+          >
             Pain during
           </KeyItem>
           <KeyItem
@@ -97,7 +117,15 @@ export function PainLoadChart({ pain, level, summary }: { pain: WorkloadDto['pai
           stroke={RULE_STRONG}
           width={24}
         />
-        <Bar yAxisId="load" dataKey="load" name="Session load" fill={SHADE} stroke={RULE_STRONG} maxBarSize={28} isAnimationActive={false} />
+        <Bar
+          yAxisId="load"
+          dataKey="load"
+          name="Session load"
+          fill={SHADE}
+          stroke={RULE_STRONG}
+          maxBarSize={28}
+          isAnimationActive={false}
+        />
         <Line
           yAxisId="pain"
           type="stepAfter"

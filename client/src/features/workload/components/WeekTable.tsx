@@ -15,15 +15,19 @@ export function WeekTable({ weeks }: { weeks: WorkloadDto['weeks'] }) {
         Monotony and strain
       </h2>
       <p className="mt-1 max-w-prose text-sm text-ink-2">
-        For each seven days: <strong>monotony</strong> is the mean daily load divided by its standard deviation, and{' '}
-        <strong>strain</strong> is the week&apos;s total load times its monotony (Foster 1998). We use the{' '}
-        <strong>population SD</strong> (divide by 7: the seven days are the whole week, not a sample), with rest days
-        counted as 0. A week where every day is the same has no monotony value (—).
+        For each seven days: <strong>monotony</strong> is the mean daily load divided by its standard deviation, and <strong>strain</strong>{' '}
+        is the week&apos;s total load times its monotony (Foster 1998). We use the <strong>population SD</strong> (divide by 7: the seven
+        days are the whole week, not a sample), with rest days counted as 0. A week where every day is the same has no monotony value (—).
       </p>
       {weeks.length === 0 ? (
         <p className="mt-3 text-sm text-ink-2">Not enough days for a full week yet.</p>
       ) : (
-        <div role="region" aria-label="Monotony and strain by week" tabIndex={0} className="mt-3 overflow-x-auto rounded-md border border-rule">
+        <div
+          role="region"
+          aria-label="Monotony and strain by week"
+          tabIndex={0}
+          className="mt-3 overflow-x-auto rounded-md border border-rule"
+        >
           <table className="w-full min-w-[28rem] border-collapse text-left text-sm tabular-nums">
             <thead>
               <tr className="border-b border-rule bg-shade">
@@ -76,21 +80,19 @@ export function AcuteChronicNote({ acuteChronic }: { acuteChronic: WorkloadDto['
         <>
           <p className="mt-2 text-base font-semibold">{acuteChronic.description}</p>
           <p className="mt-1 text-sm text-ink-2 tabular-nums">
-            Last 7 days {Math.round(acuteChronic.acute)} AU a day, last 28 days {Math.round(acuteChronic.chronic)} AU a day
-            (ratio {acuteChronic.ratio!.toFixed(2)}).
+            Last 7 days {Math.round(acuteChronic.acute)} AU a day, last 28 days {Math.round(acuteChronic.chronic)} AU a day (ratio{' '}
+            {acuteChronic.ratio!.toFixed(2)}).
           </p>
         </>
       ) : (
         <p className="mt-2 text-base">
-          Shown once there are {CHRONIC_DAYS} days of logs (so far {acuteChronic.daysOfData}). Before that, the comparison
-          is misleading.
+          Shown once there are {CHRONIC_DAYS} days of logs (so far {acuteChronic.daysOfData}). Before that, the comparison is misleading.
         </p>
       )}
       <p className="mt-2 max-w-prose text-sm text-muted">
-        Exponentially weighted averages of daily load over 7 and 28 days (Williams et al. 2017). This describes how much
-        the load changed; it is <strong>not an injury-risk score</strong>. The ratio and the &ldquo;safe zone&rdquo; bands
-        often quoted with it have been criticised as mathematically coupled and not predictive of injury (Impellizzeri et
-        al. 2020, Sports Medicine).
+        Exponentially weighted averages of daily load over 7 and 28 days (Williams et al. 2017). This describes how much the load changed;
+        it is <strong>not an injury-risk score</strong>. The ratio and the &ldquo;safe zone&rdquo; bands often quoted with it have been
+        criticised as mathematically coupled and not predictive of injury (Impellizzeri et al. 2020, Sports Medicine).
       </p>
     </section>
   );
