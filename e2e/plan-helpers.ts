@@ -1,18 +1,19 @@
+import { addDays, orgToday } from '../policies/today';
+import { DEMO_TIME_ZONE } from '../server/src/seed/demo-zone';
 import { expect, type Browser, type BrowserContextOptions, type Locator, type Page, type TestInfo } from '@playwright/test';
 
 /**
- * A calendar day as 'YYYY-MM-DD', counted in UTC from today. The spec runs its browsers in UTC too
- * (timezoneId), so the app's "today" (the browser's local date) and the server's (UTC) agree with it.
+ * A calendar day as 'YYYY-MM-DD', counted from the demo organization's today (its own time zone, as
+ * the app counts it on both sides), so the specs agree with the app at any hour of the UTC day.
  */
 export function isoDay(offsetDays = 0, now: Date = new Date()): string {
-  const day = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() + offsetDays));
-  return day.toISOString().slice(0, 10);
+  return addDays(orgToday(DEMO_TIME_ZONE, now), offsetDays);
 }
 
 /** The project's browser settings for a context made by hand (a second person, or a second tab as the same one). */
 export function contextOptions(testInfo: TestInfo, extra: BrowserContextOptions = {}): BrowserContextOptions {
   const { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL } = testInfo.project.use;
-  return { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL, timezoneId: 'UTC', ...extra };
+  return { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL, timezoneId: DEMO_TIME_ZONE, ...extra };
 }
 
 /** A 375 px phone, as in the phone project, for people who use the app on their phone. */

@@ -4,6 +4,7 @@ import { ProgramSession, SessionHold } from '../entities';
 import type { LimitsChange, RecheckSummary } from '../core/command';
 import { engineContext, engineSets } from '../services/programs';
 import { athleteCircle, notify } from '../services/notify';
+import { memberNames } from '../queries/members';
 
 /**
  * The one "limits changed" path. Whatever changes what an athlete may do — a plan, a status, a case
@@ -103,11 +104,7 @@ async function tellCoaches(
   heldByAthlete: Map<string, ProgramSession[]>,
   reason: string,
 ): Promise<void> {
-  const names: { id: string; name: string }[] = await m.query(
-    `SELECT m.id, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
-    [[...heldByAthlete.keys()]],
-  );
-  const nameOf = new Map(names.map((n) => [n.id, n.name]));
+  const nameOf = await memberNames(m, [...heldByAthlete.keys()]);
   const byCoach = new Map<string, string[]>();
   for (const athleteId of heldByAthlete.keys()) {
     const circle = await athleteCircle(m, athleteId);

@@ -2,7 +2,8 @@ import type { DataSource, EntityManager } from 'typeorm';
 import bcrypt from 'bcryptjs';
 import type { Role } from '../../../policies/roles';
 import { randomUUID } from 'node:crypto';
-import { addDays, formatISO } from 'date-fns';
+import { addDays, orgToday } from '../../../policies/today';
+import { DEMO_TIME_ZONE } from './demo-zone';
 import {
   AthleteProfile,
   CareTeamAssignment,
@@ -112,7 +113,7 @@ export async function loadDemo(
     await m.query(`SELECT pg_advisory_xact_lock(hashtextextended('loadline:demo', 0))`);
     const again = await m.findOneBy(Organization, { name: DEMO_ORG_NAME });
     if (again) return again.id;
-    const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911' }));
+    const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911', timeZone: DEMO_TIME_ZONE }));
     const ids: Record<string, string> = {};
     const userIds: Record<string, string> = {};
     for (const p of DEMO_PEOPLE) {
@@ -158,7 +159,8 @@ export async function loadDemo(
   return { created: true, organizationId };
 }
 
-const day = (offset: number) => formatISO(addDays(new Date(), offset), { representation: 'date' });
+/** A day of the demo counted from the organization's today (policies/today.ts). */
+const day = (offset: number) => addDays(orgToday(DEMO_TIME_ZONE), offset);
 
 /**
  * One case already under way, so coaches and the admin see a limited athlete from the first start:

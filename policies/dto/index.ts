@@ -1,0 +1,9 @@
+/** Response shapes shared by server and client, one file per subject. Types only: no runtime code. */
+export type * from './account';
+export type * from './people';
+export type * from './organization';
+export type * from './cases';
+export type * from './reports';
+export type * from './programs';
+export type * from './letters';
+export type * from './uploads';

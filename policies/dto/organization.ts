@@ -1,0 +1,34 @@
+/** The organization, its audit trail, errors and health. Response shapes shared by server and client; types only. */
+
+export interface AuditEntryDto {
+  id: string;
+  occurredAt: string;
+  actorUserId: string | null;
+  actorName: string | null;
+  action: string;
+  subjectType: string;
+  subjectId: string | null;
+  athleteId: string | null;
+  athleteName: string | null;
+  before: unknown;
+  after: unknown;
+  requestId: string | null;
+}
+export interface OrganizationDto {
+  id: string;
+  name: string;
+  emergencyNumber: string;
+}
+export interface OrganizationSettingsDto extends OrganizationDto {
+  /** Whether guardians of an athlete may watch that athlete's technique clips (off by default). */
+  guardiansSeeClips: boolean;
+  version: number;
+}
+export interface ErrorBody {
+  error: { code: string; message: string; fields?: Record<string, string[]>; details?: unknown };
+  requestId: string;
+}
+export interface HealthDto {
+  status: 'ok' | 'degraded';
+  database: 'up' | 'down';
+}
