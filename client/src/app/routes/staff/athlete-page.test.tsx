@@ -68,7 +68,7 @@ function open(path: string, roles: Role[], caseload = [mayaRow()]) {
   return renderAt(path);
 }
 
-const region = (name: string) => screen.queryByRole('region', { name, exact: true });
+const region = (name: string) => screen.queryByRole('region', { name });
 
 describe("a coach's page for an athlete", () => {
   it('shows status, limits in force for the organization’s today, letter, stages, programs and baselines', async () => {
