@@ -1,6 +1,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Page, type TestInfo } from '@playwright/test';
 import { DEMO, HOME_HEADING, expectHome, signIn } from './helpers';
+import { BROWSER_ZONE, isoDay } from './plan-helpers';
 
 /**
  * An automated accessibility sweep (axe-core, WCAG 2.0 and 2.1 levels A and AA) over the main pages of
@@ -17,6 +18,8 @@ const TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
 const BLOCKING = new Set(['serious', 'critical']);
 const A11Y_PROGRAM = 'Accessibility check (e2e)';
 const A11Y_SESSION = 'Accessibility session';
+
+test.use({ timezoneId: BROWSER_ZONE });
 
 type Visit = {
   path: string;
@@ -153,7 +156,7 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
         .first();
     if ((await listed(page).count()) === 0) {
       const addSession = page.getByRole('form', { name: 'New session' });
-      await addSession.getByLabel('Session date').fill(new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10));
+      await addSession.getByLabel('Session date').fill(isoDay(30));
       await addSession.getByLabel('Session title').fill(A11Y_SESSION);
       await addSession.getByRole('button', { name: 'Add session' }).click();
       await expect(editor).toBeVisible();

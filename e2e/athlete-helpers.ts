@@ -1,9 +1,10 @@
 import { devices, expect, type Browser, type Locator, type Page, type TestInfo } from '@playwright/test';
 import { RED_FLAG_ITEMS } from '../policies/red-flags';
+import { BROWSER_ZONE } from './plan-helpers';
 
 /**
  * A desktop browser (as in the desktop project) for the staff and guardian screens of a spec that
- * runs in the phone project. UTC like the rest, so the browser's "today" and the server's agree.
+ * runs in the phone project, in the specs' browser zone (not the organization's).
  */
 export async function newDesktopPage(browser: Browser, testInfo: TestInfo): Promise<Page> {
   const { viewport, userAgent, deviceScaleFactor, isMobile, hasTouch } = devices['Desktop Chrome'];
@@ -14,7 +15,7 @@ export async function newDesktopPage(browser: Browser, testInfo: TestInfo): Prom
     isMobile,
     hasTouch,
     baseURL: testInfo.project.use.baseURL,
-    timezoneId: 'UTC',
+    timezoneId: BROWSER_ZONE,
   });
   return context.newPage();
 }

@@ -1,6 +1,16 @@
 import { expect, test, type BrowserContext, type Page } from '@playwright/test';
 import { DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
-import { contextOptions, fillStageDates, isoDay, newPhonePage, pageText, recordApiBodies, setPattern, stageFieldset } from './plan-helpers';
+import {
+  BROWSER_ZONE,
+  contextOptions,
+  fillStageDates,
+  isoDay,
+  newPhonePage,
+  pageText,
+  recordApiBodies,
+  setPattern,
+  stageFieldset,
+} from './plan-helpers';
 
 /**
  * Cases and restriction plans end to end, against the demo scenario: Priya (clinician) opens a case
@@ -16,7 +26,7 @@ import { contextOptions, fillStageDates, isoDay, newPhonePage, pageText, recordA
  */
 
 test.skip(({ isMobile }) => isMobile, 'one flow over shared records; Maya’s phone view is opened inside it');
-test.use({ timezoneId: 'UTC' });
+test.use({ timezoneId: BROWSER_ZONE });
 
 const SECRET_NOTE = 'E2E-SECRET-NOTE';
 const DIAGNOSIS = 'Lumbar strain (e2e)';

@@ -1,6 +1,6 @@
 import { expect, test, type BrowserContext, type Locator, type Page, type Request } from '@playwright/test';
 import { DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
-import { contextOptions, isoDay, stageFieldset } from './plan-helpers';
+import { BROWSER_ZONE, contextOptions, isoDay, stageFieldset } from './plan-helpers';
 
 /**
  * Programming against a restriction plan, end to end, on Sam's demo case (right ankle, stage 1
@@ -17,7 +17,7 @@ import { contextOptions, isoDay, stageFieldset } from './plan-helpers';
  */
 
 test.skip(({ isMobile }) => isMobile, 'one flow over shared records; the program builder is a staff screen');
-test.use({ timezoneId: 'UTC' });
+test.use({ timezoneId: BROWSER_ZONE });
 
 const TODAY = isoDay(0);
 const PROGRAM = 'Ankle block: upper and careful lower (e2e)';

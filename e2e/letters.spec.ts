@@ -3,7 +3,7 @@ import pg from 'pg';
 import { describeDate } from '../policies/load/describe';
 import { DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
 import { checkAnswer, downloadFrom, downloadHead, lettersSection, signDraftLetter, writeDraftLetter } from './letters-helpers';
-import { contextOptions, isoDay, pageText, recordApiBodies } from './plan-helpers';
+import { BROWSER_ZONE, contextOptions, isoDay, pageText, recordApiBodies } from './plan-helpers';
 
 /**
  * Clearance letters end to end, against the demo scenario, the job queue and the fake SMTP server:
@@ -20,7 +20,7 @@ import { contextOptions, isoDay, pageText, recordApiBodies } from './plan-helper
  */
 
 test.skip(({ isMobile }) => isMobile, 'one flow over shared records; the guardian’s screen is independent of size here');
-test.use({ timezoneId: 'UTC' });
+test.use({ timezoneId: BROWSER_ZONE });
 
 const ORG_NAME = 'Harbor Point Performance';
 const FAMILY_NOTE = 'E2E-FAMILY-NOTE: build back to full games over two weeks.';

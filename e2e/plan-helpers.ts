@@ -4,16 +4,25 @@ import { expect, type Browser, type BrowserContextOptions, type Locator, type Pa
 
 /**
  * A calendar day as 'YYYY-MM-DD', counted from the demo organization's today (its own time zone, as
- * the app counts it on both sides), so the specs agree with the app at any hour of the UTC day.
+ * the app counts it on both sides), so the specs agree with the app at any hour of the UTC day. Every
+ * date a spec types or expects comes from here.
  */
 export function isoDay(offsetDays = 0, now: Date = new Date()): string {
   return addDays(orgToday(DEMO_TIME_ZONE, now), offsetDays);
 }
 
+/**
+ * The browsers' own time zone: never the demo organization's (America/Los_Angeles), so a spec passes
+ * only if the app counts days in the organization's zone rather than the browser's. For much of the
+ * UTC day, UTC's date is already the organization's tomorrow; athlete.spec.ts runs its phones in
+ * Australia/Sydney, a day ahead of the organization for most of the day.
+ */
+export const BROWSER_ZONE = 'UTC';
+
 /** The project's browser settings for a context made by hand (a second person, or a second tab as the same one). */
 export function contextOptions(testInfo: TestInfo, extra: BrowserContextOptions = {}): BrowserContextOptions {
   const { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL } = testInfo.project.use;
-  return { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL, timezoneId: DEMO_TIME_ZONE, ...extra };
+  return { viewport, isMobile, hasTouch, userAgent, deviceScaleFactor, baseURL, timezoneId: BROWSER_ZONE, ...extra };
 }
 
 /** A 375 px phone, as in the phone project, for people who use the app on their phone. */

@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { expectHome, expectNoSidewaysScroll, keepScreenshot } from './helpers';
-import { contextOptions, isoDay } from './plan-helpers';
+import { BROWSER_ZONE, contextOptions, isoDay } from './plan-helpers';
 import { apiWrite, castForUploads, recordWebmClip, tinyPdf, videoTime, type UploadsCast } from './uploads-helpers';
 
 /**
@@ -16,7 +16,7 @@ import { apiWrite, castForUploads, recordWebmClip, tinyPdf, videoTime, type Uplo
  */
 
 test.skip(({ isMobile }) => isMobile, 'one flow over its own records; the athlete’s phone opens inside it');
-test.use({ timezoneId: 'UTC' });
+test.use({ timezoneId: BROWSER_ZONE });
 
 const NOTE = 'Knees drift in as you stand: push them out over the toes.';
 const DOC_TITLE = 'Imaging report, lumbar spine';

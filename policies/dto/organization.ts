@@ -22,6 +22,8 @@ export interface OrganizationDto {
 export interface OrganizationSettingsDto extends OrganizationDto {
   /** Whether guardians of an athlete may watch that athlete's technique clips (off by default). */
   guardiansSeeClips: boolean;
+  /** The organization's IANA time zone: which day counts as today for everyone in it (policies/today.ts). */
+  timeZone: string;
   version: number;
 }
 export interface ErrorBody {

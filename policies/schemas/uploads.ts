@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isTimeZone } from '../today';
 import { IsoDateSchema, UuidSchema } from './common';
 
 const line = (max: number) =>
@@ -60,6 +61,7 @@ export const OrganizationSettingsSchema = z.strictObject({
     .regex(/^[0-9+()\- ]+$/, { message: 'may contain digits, spaces, +, - and brackets only' })
     .optional(),
   guardiansSeeClips: z.boolean({ message: 'must be true or false' }).optional(),
+  timeZone: z.string({ message: 'is required' }).refine(isTimeZone, { message: 'is not a time zone we know' }).optional(),
   version: z.number({ message: 'is required' }).int().min(1),
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

@@ -1,55 +1,12 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { fireEvent, render, screen, within } from '@testing-library/react';
-import { QueryClientProvider } from '@tanstack/react-query';
-import { RouterProvider, createMemoryRouter } from 'react-router-dom';
-import type { Actor } from '../../../policies/access';
-import type { AthleteProfileDto, CaseloadRowDto, RosterRowDto, SessionDto } from '../../../policies/dto';
-import type { Role } from '../../../policies/roles';
+import { describe, expect, it } from 'vitest';
+import { fireEvent, screen, within } from '@testing-library/react';
+import type { AthleteProfileDto, RosterRowDto, SessionDto } from '../../../policies/dto';
 import type { PatternRule } from '../../../policies/load/patterns';
-import { createQueryClient } from '../lib/query-client';
-import { jsonResponse } from '../test/render';
-import { routes } from './router';
-
-const ORG = '11111111-1111-4111-8111-111111111111';
-const fetchMock = vi.fn<typeof fetch>();
-
-beforeEach(() => {
-  vi.stubGlobal('fetch', fetchMock);
-  localStorage.clear();
-  sessionStorage.clear();
-});
-afterEach(() => {
-  vi.unstubAllGlobals();
-  fetchMock.mockReset();
-});
-
-function sessionFor(roles: Role[], actor: Partial<Actor> = {}): SessionDto {
-  return {
-    user: { id: 'u1', email: 'theo@x.test', displayName: 'Theo Lindqvist', unitPref: 'kg' },
-    memberships: [
-      {
-        id: 'm-theo',
-        organizationId: ORG,
-        organizationName: 'Harbor Point Performance',
-        timeZone: 'UTC',
-        roles,
-        actor: {
-          userId: 'u1',
-          organizationId: ORG,
-          membershipId: 'm-theo',
-          roles,
-          coachOf: [],
-          clinicianOf: [],
-          guardianOf: [],
-          ...actor,
-        },
-      },
-    ],
-    csrfToken: 'token-1',
-  };
-}
+import { ORG, mayaRow, renderAt, serve, sessionFor, stubFetch } from '../test/app';
 
 const SIGNED_OUT: SessionDto = { user: null, memberships: [], csrfToken: 'token-0' };
+
+stubFetch();
 
 function maya(over: Partial<AthleteProfileDto> = {}): AthleteProfileDto {
   return {
@@ -77,44 +34,6 @@ function maya(over: Partial<AthleteProfileDto> = {}): AthleteProfileDto {
     guardians: [],
     ...over,
   };
-}
-
-function mayaRow(over: Partial<CaseloadRowDto> = {}): CaseloadRowDto {
-  return {
-    athleteId: 'm-maya',
-    athleteName: 'Maya Torres',
-    age: 16,
-    isMinor: true,
-    sport: 'Softball',
-    status: 'limited',
-    statusEffectiveFrom: '2026-03-02',
-    openCaseCount: 1,
-    openCaseId: 'c-1',
-    nextReviewDate: '2026-03-16',
-    latestPainReport: null,
-    ...over,
-  };
-}
-
-/** Answers by path; anything unexpected is a 404 so a stray call shows up in the page. */
-function serve(routesByPath: Record<string, unknown>) {
-  fetchMock.mockImplementation(async (input) => {
-    const path = String(input)
-      .replace(/^\/api/, '')
-      .split('?')[0];
-    if (path in routesByPath) return jsonResponse(200, routesByPath[path]);
-    return jsonResponse(404, { error: { code: 'not_found', message: `No ${path}` }, requestId: 'r' });
-  });
-}
-
-function renderAt(path: string) {
-  const router = createMemoryRouter(routes, { initialEntries: [path] });
-  render(
-    <QueryClientProvider client={createQueryClient()}>
-      <RouterProvider router={router} />
-    </QueryClientProvider>,
-  );
-  return router;
 }
 
 describe('app routes', () => {

@@ -1,4 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { ERROR_CODES } from '../../../policies/errors';
 import { ApiError, api, errorFromResponse, setCsrfToken } from './api-client';
 
 function jsonResponse(status: number, body: unknown): Response {
@@ -47,6 +48,16 @@ describe('errorFromResponse', () => {
   it('maps a bare 429 to rate_limited', async () => {
     const error = await errorFromResponse(new Response('', { status: 429 }));
     expect(error.code).toBe('rate_limited');
+  });
+
+  it('keeps every code of the shared list, and reads a code it does not know as its status', async () => {
+    for (const code of ERROR_CODES) {
+      const error = await errorFromResponse(jsonResponse(400, { error: { code, message: 'x' }, requestId: 'r' }));
+      expect(error.code).toBe(code);
+    }
+    const unknown = await errorFromResponse(jsonResponse(404, { error: { code: 'gone_fishing', message: 'Not here.' }, requestId: 'r' }));
+    expect(unknown.code).toBe('not_found');
+    expect(unknown.message).toBe('Not here.');
   });
 });
 

@@ -1,29 +1,24 @@
 import type { ErrorBody } from '../../../policies/dto';
+import { ERROR_CODES, type ErrorCode } from '../../../policies/errors';
 
 /**
  * The one HTTP client. It turns every failure into an ApiError carrying the server's code and
  * sentence; deciding what to show or where to go is left to hooks and components.
  */
 
-export type ApiErrorCode =
-  | 'validation_failed'
-  | 'unauthenticated'
-  | 'invalid_credentials'
-  | 'csrf_failed'
-  | 'forbidden'
-  | 'not_found'
-  | 'conflict'
-  | 'version_conflict'
-  | 'rate_limited'
-  | 'invitation_invalid'
-  | 'unavailable'
-  | 'internal'
-  /** The request never got an answer (offline, server down, proxy gone). */
-  | 'network';
+/**
+ * The server's error codes (policies/errors.ts, the list both sides share), plus one only the
+ * client can see: 'network', the request never got an answer (offline, server down, proxy gone).
+ */
+export type ApiErrorCode = ErrorCode | 'network';
+
+function isErrorCode(code: string): code is ErrorCode {
+  return (ERROR_CODES as readonly string[]).includes(code);
+}
 
 export class ApiError extends Error {
   readonly status: number;
-  readonly code: ApiErrorCode | (string & {});
+  readonly code: ApiErrorCode;
   readonly fields: Record<string, string[]>;
   readonly requestId: string | null;
   /** Structured detail some refusals carry, e.g. the breaches that stopped a publish. */
@@ -31,7 +26,7 @@ export class ApiError extends Error {
 
   constructor(init: {
     status: number;
-    code: string;
+    code: ApiErrorCode;
     message: string;
     fields?: Record<string, string[]>;
     requestId?: string | null;
@@ -86,9 +81,11 @@ function isErrorBody(value: unknown): value is ErrorBody {
 export async function errorFromResponse(response: Response): Promise<ApiError> {
   const body: unknown = await response.json().catch(() => null);
   if (isErrorBody(body)) {
+    const code = body.error.code;
     return new ApiError({
       status: response.status,
-      code: body.error.code,
+      // A code this client does not know (a newer server) reads as the status's own code.
+      code: isErrorCode(code) ? code : fallbackFor(response.status).code,
       message: body.error.message,
       fields: body.error.fields,
       requestId: typeof body.requestId === 'string' ? body.requestId : null,

@@ -1,4 +1,6 @@
 import { format, isValid, parseISO } from 'date-fns';
+import { zoneDiffers } from '../../../policies/today';
+import { currentOrgTimeZone } from './dates';
 
 /** '2025-03-14' → '14 Mar 2025'. Calendar dates are parsed as local dates, never shifted by a zone. */
 export function formatDate(isoDate: string | null | undefined): string {
@@ -7,11 +9,29 @@ export function formatDate(isoDate: string | null | undefined): string {
   return isValid(parsed) ? format(parsed, 'd MMM yyyy') : isoDate;
 }
 
-/** An instant → '14 Mar 2025, 09:30' in the viewer's own time zone. */
-export function formatDateTime(isoInstant: string | null | undefined): string {
+/** The zone the reader's browser is in. */
+function readerTimeZone(): string {
+  return Intl.DateTimeFormat().resolvedOptions().timeZone;
+}
+
+/** The reader's zone at an instant, as the short name people see on clocks: 'UTC', 'GMT+11', 'BST'. */
+function zoneName(timeZone: string, instant: Date): string {
+  const parts = new Intl.DateTimeFormat('en-GB', { timeZone, timeZoneName: 'short' }).formatToParts(instant);
+  return parts.find((p) => p.type === 'timeZoneName')?.value ?? timeZone;
+}
+
+/**
+ * An instant → '14 Mar 2025, 09:30' in the reader's own time zone. When the reader's clock differs
+ * from the organization's, the zone is named ('14 Mar 2025, 17:30 UTC'), so nobody takes it for
+ * the organization's time. `orgZone` defaults to the organization in view (lib/dates.ts).
+ */
+export function formatDateTime(isoInstant: string | null | undefined, orgZone: string | null = currentOrgTimeZone()): string {
   if (!isoInstant) return '—';
   const parsed = parseISO(isoInstant);
-  return isValid(parsed) ? format(parsed, 'd MMM yyyy, HH:mm') : isoInstant;
+  if (!isValid(parsed)) return isoInstant;
+  const shown = format(parsed, 'd MMM yyyy, HH:mm');
+  const reader = readerTimeZone();
+  return orgZone && zoneDiffers(reader, orgZone, parsed) ? `${shown} ${zoneName(reader, parsed)}` : shown;
 }
 
 export function joinNames(names: string[]): string {

@@ -5,6 +5,7 @@ import { defineAbilityFor } from '../../../../policies/access';
 import type { SessionDto, UserDto, MembershipSummaryDto } from '../../../../policies/dto';
 import { useSession } from '../../features/auth/api/get-session';
 import { useSignOut } from '../../features/auth/api/sign-out';
+import { setOrgTimeZone } from '../../lib/dates';
 import { MembershipContext } from '../../lib/membership-context';
 import { useActiveOrg } from '../active-org';
 import { AppHeader, Unaffiliated } from './AppHeader';
@@ -38,6 +39,8 @@ function Member({
   signOut: ReturnType<typeof useSignOut>;
 }) {
   const { membership, choose } = useActiveOrg(memberships);
+  // Set before the pages below render, so their "today" and their times count in this organization's zone.
+  setOrgTimeZone(membership?.timeZone ?? null);
   const ability = useMemo(() => defineAbilityFor(membership?.actor ?? null), [membership]);
   const current = useMemo(() => (membership ? { user, membership, orgId: membership.organizationId } : null), [user, membership]);
 

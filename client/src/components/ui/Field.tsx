@@ -121,60 +121,46 @@ interface ChoiceGroupBase<V extends string> {
   large?: boolean;
   className?: string;
   disabled?: boolean;
+  onBlur?: () => void;
 }
 
-function ChoiceFrame({
-  legend,
-  hint,
-  error,
-  className,
-  children,
-}: {
-  legend: string;
-  hint?: ReactNode;
-  error?: string;
-  className?: string;
-  children: ReactNode;
-}) {
-  const id = useId();
-  return (
-    <fieldset className={cx('min-w-0', className)} aria-describedby={describedBy(hint && `${id}-hint`, error && `${id}-error`)}>
-      <legend className="text-sm font-semibold">{legend}</legend>
-      {hint && (
-        <p id={`${id}-hint`} className="text-sm text-muted">
-          {hint}
-        </p>
-      )}
-      {children}
-      <FieldMessage id={`${id}-error`} label={legend} error={error} />
-    </fieldset>
-  );
-}
+type CheckboxGroupProps<V extends string> = ChoiceGroupBase<V> & { value: readonly V[]; onChange: (next: V[]) => void };
+type RadioGroupProps<V extends string> = ChoiceGroupBase<V> & { value: V | undefined; onChange: (next: V) => void };
+
+/** Several independent choices (tick boxes, `multiple`) or one choice out of a few (radio buttons). */
+export type ChoiceGroupProps<V extends string> = (CheckboxGroupProps<V> & { multiple: true }) | (RadioGroupProps<V> & { multiple?: false });
 
 const CHOICE_ROW = 'flex items-start gap-2 rounded-md py-1.5';
 const CHOICE_INPUT = 'mt-0.5 size-5 shrink-0 accent-ink';
 
-/** Several independent choices, e.g. a person's roles. Controlled: pair with react-hook-form's Controller. */
-export function CheckboxGroup<V extends string>({
-  legend,
-  options,
-  value,
-  onChange,
-  onBlur,
-  error,
-  hint,
-  name,
-  large,
-  className,
-  disabled,
-}: ChoiceGroupBase<V> & { value: readonly V[]; onChange: (next: V[]) => void; onBlur?: () => void }) {
+/**
+ * A fieldset of tick boxes or radio buttons, controlled (pair with react-hook-form's Controller).
+ * The legend names the group and the hint describes it. An error marks every input invalid and
+ * describes each by the message, so it is read out on whichever input has focus (WCAG 2.2 success
+ * criterion 3.3.1 Error Identification, with techniques ARIA21 aria-invalid and ARIA1 aria-describedby).
+ */
+export function ChoiceGroup<V extends string>(props: ChoiceGroupProps<V>) {
+  const { legend, options, error, hint, name, large, className, disabled, onBlur } = props;
   const baseId = useId();
-  function toggle(option: V, checked: boolean) {
-    const next = options.map((o) => o.value).filter((v) => (v === option ? checked : value.includes(v)));
-    onChange(next);
+  const hintId = `${baseId}-hint`;
+  const errorId = `${baseId}-error`;
+  const isChecked = (option: V) => (props.multiple ? props.value.includes(option) : props.value === option);
+  function choose(option: V, checked: boolean) {
+    if (props.multiple) {
+      const current = props.value;
+      props.onChange(options.map((o) => o.value).filter((v) => (v === option ? checked : current.includes(v))));
+    } else {
+      props.onChange(option);
+    }
   }
   return (
-    <ChoiceFrame legend={legend} hint={hint} error={error} className={className}>
+    <fieldset className={cx('min-w-0', className)} aria-describedby={describedBy(hint && hintId)}>
+      <legend className="text-sm font-semibold">{legend}</legend>
+      {hint && (
+        <p id={hintId} className="text-sm text-muted">
+          {hint}
+        </p>
+      )}
       <div className="mt-1 flex flex-wrap gap-x-5 gap-y-1">
         {options.map((option) => {
           const id = `${baseId}-${option.value}`;
@@ -182,14 +168,15 @@ export function CheckboxGroup<V extends string>({
             <div key={option.value} className={cx(CHOICE_ROW, large && 'min-h-12 items-center')}>
               <input
                 id={id}
-                type="checkbox"
+                type={props.multiple ? 'checkbox' : 'radio'}
                 name={name}
                 value={option.value}
-                checked={value.includes(option.value)}
-                onChange={(e) => toggle(option.value, e.target.checked)}
+                checked={isChecked(option.value)}
+                onChange={(e) => choose(option.value, e.target.checked)}
                 onBlur={onBlur}
                 disabled={disabled}
                 aria-invalid={error ? true : undefined}
+                aria-describedby={describedBy(error && errorId)}
                 className={CHOICE_INPUT}
               />
               <label htmlFor={id} className="text-sm">
@@ -200,51 +187,17 @@ export function CheckboxGroup<V extends string>({
           );
         })}
       </div>
-    </ChoiceFrame>
+      <FieldMessage id={errorId} label={legend} error={error} />
+    </fieldset>
   );
 }
 
-/** One choice out of a few, e.g. kg or lb. Controlled. */
-export function RadioGroup<V extends string>({
-  legend,
-  options,
-  value,
-  onChange,
-  onBlur,
-  error,
-  hint,
-  name,
-  large,
-  className,
-  disabled,
-}: ChoiceGroupBase<V> & { value: V | undefined; onChange: (next: V) => void; onBlur?: () => void }) {
-  const baseId = useId();
-  return (
-    <ChoiceFrame legend={legend} hint={hint} error={error} className={className}>
-      <div className="mt-1 flex flex-wrap gap-x-5 gap-y-1">
-        {options.map((option) => {
-          const id = `${baseId}-${option.value}`;
-          return (
-            <div key={option.value} className={cx(CHOICE_ROW, large && 'min-h-12 items-center')}>
-              <input
-                id={id}
-                type="radio"
-                name={name}
-                value={option.value}
-                checked={value === option.value}
-                onChange={() => onChange(option.value)}
-                onBlur={onBlur}
-                disabled={disabled}
-                className={CHOICE_INPUT}
-              />
-              <label htmlFor={id} className="text-sm">
-                {option.label}
-                {option.hint && <span className="block text-muted">{option.hint}</span>}
-              </label>
-            </div>
-          );
-        })}
-      </div>
-    </ChoiceFrame>
-  );
+/** Several independent choices, e.g. a person's roles. */
+export function CheckboxGroup<V extends string>(props: CheckboxGroupProps<V>) {
+  return <ChoiceGroup {...props} multiple />;
+}
+
+/** One choice out of a few, e.g. kg or lb. */
+export function RadioGroup<V extends string>(props: RadioGroupProps<V>) {
+  return <ChoiceGroup {...props} multiple={false} />;
 }

@@ -12,6 +12,7 @@ function toSettingsDto(org: Organization): OrganizationSettingsDto {
     name: org.name,
     emergencyNumber: org.emergencyNumber,
     guardiansSeeClips: org.guardiansSeeClips,
+    timeZone: org.timeZone,
     version: org.version,
   };
 }

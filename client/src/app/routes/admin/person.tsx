@@ -11,6 +11,7 @@ import { GuardianEditor } from '../../../features/care-team/components/GuardianE
 import { Badge, Facts, Loading, PageHeader, Panel } from '../../../components/ui/Panel';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { useAppAbility } from '../../../lib/ability';
+import { orgDayOf } from '../../../lib/dates';
 import { formatDate } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
@@ -63,7 +64,7 @@ function PersonDetail({ person }: { person: PersonDto }) {
         <Facts
           items={[
             { label: 'E-mail', value: person.email },
-            { label: 'Joined', value: formatDate(person.createdAt.slice(0, 10)) },
+            { label: 'Joined', value: formatDate(orgDayOf(person.createdAt)) },
           ]}
         />
       </Panel>

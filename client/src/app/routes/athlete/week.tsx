@@ -11,7 +11,7 @@ import { PainLoadChart } from '../../../features/workload/components/PainLoadCha
 import { ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading, PageHeader, Panel } from '../../../components/ui/Panel';
-import { addDaysIso, todayLocal } from '../../../lib/dates';
+import { addDaysIso, orgDayOf, todayLocal } from '../../../lib/dates';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
@@ -39,7 +39,7 @@ function MyWeek() {
   const checkIns = useCheckIns(orgId, membership.id, range);
   const workload = useWorkload(orgId, membership.id, today, CHART_DAYS);
   const reports = usePainReports(orgId, membership.id);
-  const recentReports = (reports.data ?? []).filter((r) => r.reportedAt.slice(0, 10) >= range.from);
+  const recentReports = (reports.data ?? []).filter((r) => orgDayOf(r.reportedAt) >= range.from);
 
   return (
     <div className="mx-auto max-w-xl space-y-5">

@@ -17,6 +17,7 @@ import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading, PageHeader, Panel } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { useAppAbility } from '../../../lib/ability';
+import { orgDayOf } from '../../../lib/dates';
 import { formatDate } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
@@ -56,7 +57,7 @@ function CaseScreen({ detail }: { detail: CaseDetailDto }) {
     .filter((c) => c.id !== detail.id && c.planId)
     .map((c) => ({
       planId: c.planId!,
-      label: `${regionsText(c.bodyRegions)} (opened ${formatDate(c.openedAt.slice(0, 10))}${c.closedOn ? `, closed ${formatDate(c.closedOn)}` : ''})`,
+      label: `${regionsText(c.bodyRegions)} (opened ${formatDate(orgDayOf(c.openedAt))}${c.closedOn ? `, closed ${formatDate(c.closedOn)}` : ''})`,
     }));
 
   return (

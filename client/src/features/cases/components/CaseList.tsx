@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import type { CaseDto } from '../../../../../policies/dto';
 import { StatusMark } from '../../../components/ui/StatusMark';
+import { orgDayOf } from '../../../lib/dates';
 import { formatDate } from '../../../lib/format';
 import { regionsText } from './case-words';
 
@@ -55,7 +56,7 @@ export function CaseList({
                   {regionsText(c.bodyRegions)}
                 </Link>
                 <span className="block text-xs text-muted">
-                  opened {formatDate(c.openedAt.slice(0, 10))}
+                  opened {formatDate(orgDayOf(c.openedAt))}
                   {c.openedByName && ` by ${c.openedByName}`}
                 </span>
               </td>

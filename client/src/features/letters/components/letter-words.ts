@@ -1,6 +1,6 @@
 import type { LetterDto } from '../../../../../policies/dto';
 import { describeDate } from '../../../../../policies/load/describe';
-import { todayLocal } from '../../../lib/dates';
+import { orgDayOf } from '../../../lib/dates';
 import { formatDateTime } from '../../../lib/format';
 
 export type LetterStatus = LetterDto['status'];
@@ -72,7 +72,7 @@ export function deliveryWords(d: Delivery): { word: string; detail: string | nul
 
 export const STALE_LETTER = 'Someone changed this draft after you opened it. Load the latest draft, check it, and make your changes again.';
 
-/** An instant as the reader's own calendar day, in words: "6 March 2026". */
+/** An instant as the organization's calendar day, in words: "6 March 2026". */
 export function dayOf(instant: string): string {
-  return describeDate(todayLocal(new Date(instant)));
+  return describeDate(orgDayOf(instant));
 }

@@ -2,6 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { OrganizationSettingsDto } from '../../../../../policies/dto';
 import type { OrganizationSettingsInput } from '../../../../../policies/schemas';
 import { api } from '../../../lib/api-client';
+import { sessionQueryKey } from '../../../lib/query-client';
 import { queryKeys } from '../../../lib/query-keys';
 
 /** The organization's settings with their version, for its admins. */
@@ -22,8 +23,9 @@ export function updateOrganizationSettings(orgId: string, input: OrganizationSet
 }
 
 /**
- * The name and emergency number show on everyone's pages, and the clips setting changes what
- * guardians are sent (the session's actor carries it), so all three are refreshed.
+ * The name and emergency number show on everyone's pages, the clips setting changes what guardians
+ * are sent, and the time zone (which the session's memberships carry) moves every "today": all of
+ * them are refreshed.
  */
 export function useUpdateOrganizationSettings(orgId: string) {
   const queryClient = useQueryClient();
@@ -34,6 +36,7 @@ export function useUpdateOrganizationSettings(orgId: string) {
       void queryClient.invalidateQueries({ queryKey: queryKeys.organization(orgId) });
       void queryClient.invalidateQueries({ queryKey: queryKeys.clipsAll(orgId) });
       void queryClient.invalidateQueries({ queryKey: queryKeys.audit(orgId) });
+      void queryClient.invalidateQueries({ queryKey: sessionQueryKey });
     },
   });
 }

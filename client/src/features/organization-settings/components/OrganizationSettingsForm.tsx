@@ -1,4 +1,4 @@
-import { useEffect } from 'react';
+import { useEffect, useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
@@ -6,12 +6,13 @@ import type { z } from 'zod';
 import type { OrganizationSettingsDto } from '../../../../../policies/dto';
 import { OrganizationSettingsSchema } from '../../../../../policies/schemas';
 import { Button } from '../../../components/ui/Button';
-import { TextField } from '../../../components/ui/Field';
+import { SelectField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { queryKeys } from '../../../lib/query-keys';
 import { useUpdateOrganizationSettings } from '../api/organization-settings';
+import { timeZoneChoices, timeZoneLabel } from './time-zones';
 
 type Input = z.input<typeof OrganizationSettingsSchema>;
 type Output = z.output<typeof OrganizationSettingsSchema>;
@@ -20,10 +21,11 @@ const startingValues = (s: OrganizationSettingsDto): Input => ({
   name: s.name,
   emergencyNumber: s.emergencyNumber,
   guardiansSeeClips: s.guardiansSeeClips,
+  timeZone: s.timeZone,
   version: s.version,
 });
 
-/** Name, local emergency number and who watches clips; saved with the version it was read at. */
+/** Name, local emergency number, time zone and who watches clips; saved with the version it was read at. */
 export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; settings: OrganizationSettingsDto }) {
   const queryClient = useQueryClient();
   const update = useUpdateOrganizationSettings(orgId);
@@ -39,10 +41,11 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
     reset(startingValues(settings));
   }, [settings, reset]);
 
+  const zones = useMemo(() => timeZoneChoices(settings.timeZone), [settings.timeZone]);
   const stale = isApiError(update.error) && (update.error.code === 'version_conflict' || update.error.status === 409);
   const onSubmit = handleSubmit((values) =>
     update.mutate(values, {
-      onError: (error) => applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'guardiansSeeClips']),
+      onError: (error) => applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'timeZone', 'guardiansSeeClips']),
     }),
   );
 
@@ -76,6 +79,18 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
         error={errors.emergencyNumber?.message}
         {...register('emergencyNumber')}
       />
+      <SelectField
+        label="Time zone"
+        hint="Sets which day counts as today for everyone here: the day a session is logged for, the day a status starts, this morning and this week. Times stay on each person's own clock."
+        error={errors.timeZone?.message}
+        {...register('timeZone')}
+      >
+        {zones.map((zone) => (
+          <option key={zone} value={zone}>
+            {timeZoneLabel(zone)}
+          </option>
+        ))}
+      </SelectField>
       <fieldset className="rounded-md border border-rule p-3">
         <legend className="px-1 text-sm font-semibold">Technique clips</legend>
         <div className="flex items-start gap-2">

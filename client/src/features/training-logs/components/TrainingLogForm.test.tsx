@@ -61,7 +61,7 @@ describe('TrainingLogForm', () => {
     const [url, init] = fetchMock.mock.calls[0];
     expect(url).toBe('/api/orgs/org-1/training-logs');
     const body = JSON.parse(init?.body as string);
-    // 135 lb = 61.23496995 kg (REFERENCES section 10: 135 lb = 61.23 kg).
+    // 135 lb = 61.23496995 kg: the pound is 0.45359237 kg exactly (NIST Special Publication 811, appendix B).
     expect(body.sets).toEqual([{ exercise: 'Trap-bar deadlift', loadKg: 135 * KG_PER_LB, reps: 5, rpe: null }]);
     expect(body.sets[0].loadKg).toBeCloseTo(61.23496995, 8);
     expect(body).toMatchObject({ athleteId: ATHLETE, durationMinutes: 60, sessionRpe: 5, painBefore: 1, painDuring: 3 });

@@ -1,27 +1,23 @@
-import { Link, useParams } from 'react-router-dom';
-import type { CaseloadRowDto } from '../../../../policies/dto';
-import { useCaseload } from '../../features/caseload/api/get-caseload';
-import { useCases } from '../../features/cases/api/get-cases';
-import { regionsText } from '../../features/cases/components/case-words';
-import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
-import { CurrentLetter } from '../../features/letters/components/CurrentLetter';
-import { usePlans } from '../../features/plans/api/get-plan';
-import { InForceSummary } from '../../features/plans/components/InForceSummary';
-import { PlanStagesView } from '../../features/plans/components/PlanStagesView';
-import { AthletePrograms } from '../../features/programs/components/AthletePrograms';
-import { BaselinesPanel } from '../../features/programs/components/BaselinesPanel';
-import { ClipsSection } from '../../features/clips/components/ClipsSection';
-import { ClinicalRecordCaution } from '../../components/Cautions';
-import { ButtonLink } from '../../components/ui/Button';
-import { ErrorNotice, Notice } from '../../components/ui/Notice';
-import { Badge, Facts, Loading, PageHeader, Panel } from '../../components/ui/Panel';
-import { StatusMark } from '../../components/ui/StatusMark';
-import { todayLocal } from '../../lib/dates';
-import { formatDate } from '../../lib/format';
-import { useCurrentMembership } from '../../lib/membership-context';
-import { useDocumentTitle } from '../../lib/use-document-title';
-import { RoleGate } from '../layout/RoleGate';
-import { staffWorkloadHref } from './staff/paths';
+import type { CaseloadRowDto } from '../../../../../policies/dto';
+import { useCases } from '../../../features/cases/api/get-cases';
+import { regionsText } from '../../../features/cases/components/case-words';
+import { isNoAccess, useInForce } from '../../../features/plans/api/get-in-force';
+import { CurrentLetter } from '../../../features/letters/components/CurrentLetter';
+import { usePlans } from '../../../features/plans/api/get-plan';
+import { InForceSummary } from '../../../features/plans/components/InForceSummary';
+import { PlanStagesView } from '../../../features/plans/components/PlanStagesView';
+import { AthletePrograms } from '../../../features/programs/components/AthletePrograms';
+import { BaselinesPanel } from '../../../features/programs/components/BaselinesPanel';
+import { ClipsSection } from '../../../features/clips/components/ClipsSection';
+import { ClinicalRecordCaution } from '../../../components/Cautions';
+import { ErrorNotice } from '../../../components/ui/Notice';
+import { Badge, Facts, Loading, Panel } from '../../../components/ui/Panel';
+import { StatusMark } from '../../../components/ui/StatusMark';
+import { todayLocal } from '../../../lib/dates';
+import { formatDate } from '../../../lib/format';
+import { useCurrentMembership } from '../../../lib/membership-context';
+import { RoleGate } from '../../layout/RoleGate';
+import { AthleteHeader, StaffAthletePage, sportAndAge, type AthleteView } from './athlete-page';
 
 /**
  * One athlete for their coach: status, dates and the functional limits in force today and coming.
@@ -30,39 +26,12 @@ import { staffWorkloadHref } from './staff/paths';
 export function CoachAthletePage() {
   return (
     <RoleGate role="coach">
-      <CoachAthlete />
+      <StaffAthletePage view={COACH_VIEW} />
     </RoleGate>
   );
 }
 
-function CoachAthlete() {
-  const { athleteId = '' } = useParams();
-  const { orgId } = useCurrentMembership();
-  const caseload = useCaseload(orgId);
-  const row = caseload.data?.find((r) => r.athleteId === athleteId);
-  useDocumentTitle(row?.athleteName ?? 'Athlete');
-
-  return (
-    <div className="space-y-5">
-      <p className="text-sm">
-        <Link to="/coach">← My athletes</Link>
-      </p>
-      {caseload.isPending ? (
-        <Loading what="this athlete" />
-      ) : caseload.isError ? (
-        <ErrorNotice error={caseload.error} />
-      ) : !row ? (
-        <Notice tone="problem" role="alert" title="Not one of your athletes">
-          <p>This athlete is not in your organization, or you are not on their care team.</p>
-        </Notice>
-      ) : (
-        <AthleteLimits row={row} />
-      )}
-    </div>
-  );
-}
-
-function AthleteLimits({ row }: { row: CaseloadRowDto }) {
+function CoachSections({ row }: { row: CaseloadRowDto }) {
   const { orgId, user } = useCurrentMembership();
   const today = todayLocal();
   const cases = useCases(orgId, { athleteId: row.athleteId, state: 'open' });
@@ -75,22 +44,15 @@ function AthleteLimits({ row }: { row: CaseloadRowDto }) {
 
   return (
     <>
-      <PageHeader
-        title={row.athleteName}
-        actions={
-          <ButtonLink to={staffWorkloadHref(row.athleteId)} variant="secondary">
-            Workload and pain
-          </ButtonLink>
-        }
-      >
-        {[row.sport, row.age !== null ? `${row.age} years` : null].filter(Boolean).join(' · ')}
+      <AthleteHeader row={row}>
+        {sportAndAge(row)}
         {row.isMinor && (
           <>
             {' '}
             <Badge>Minor</Badge>
           </>
         )}
-      </PageHeader>
+      </AthleteHeader>
       <ClinicalRecordCaution audience="team" />
 
       <Panel title="Status">
@@ -160,3 +122,9 @@ function AthleteLimits({ row }: { row: CaseloadRowDto }) {
     </>
   );
 }
+
+const COACH_VIEW: AthleteView = {
+  back: { to: '/coach', label: 'My athletes' },
+  notYours: 'Not one of your athletes',
+  Sections: CoachSections,
+};

@@ -1,8 +1,7 @@
 import { useState } from 'react';
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { useNavigate } from 'react-router-dom';
 import { asSubject } from '../../../../../policies/access';
 import type { CaseloadRowDto } from '../../../../../policies/dto';
-import { useCaseload } from '../../../features/caseload/api/get-caseload';
 import { useCases } from '../../../features/cases/api/get-cases';
 import { CaseList } from '../../../features/cases/components/CaseList';
 import { OpenCaseForm } from '../../../features/cases/components/OpenCaseForm';
@@ -10,46 +9,27 @@ import { InForcePanel } from '../../../features/plans/components/InForcePanel';
 import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
 import { ClipsSection } from '../../../features/clips/components/ClipsSection';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
-import { Button, ButtonLink } from '../../../components/ui/Button';
-import { ErrorNotice, Notice } from '../../../components/ui/Notice';
-import { Badge, Loading, PageHeader, Panel } from '../../../components/ui/Panel';
+import { Button } from '../../../components/ui/Button';
+import { ErrorNotice } from '../../../components/ui/Notice';
+import { Badge, Loading, Panel } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { useAppAbility } from '../../../lib/ability';
 import { formatDate } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
-import { useDocumentTitle } from '../../../lib/use-document-title';
-import { clinicianCaseHref } from './paths';
-import { staffWorkloadHref } from '../staff/paths';
+import { clinicianCaseHref } from '../clinician/paths';
+import { AthleteHeader, StaffAthletePage, sportAndAge, type AthleteView } from './athlete-page';
 
+/**
+ * One athlete for their clinician: the cases (open and closed, opened here), the limits in force on
+ * any date, clips and clearance letters. The clinician's layout holds the role gate.
+ */
 export function ClinicianAthletePage() {
-  const { athleteId = '' } = useParams();
-  const { orgId } = useCurrentMembership();
-  const caseload = useCaseload(orgId);
-  const row = caseload.data?.find((r) => r.athleteId === athleteId);
-  useDocumentTitle(row?.athleteName ?? 'Athlete');
-
-  return (
-    <div className="space-y-5">
-      <p className="text-sm">
-        <Link to="/clinician">← My caseload</Link>
-      </p>
-      {caseload.isPending ? (
-        <Loading what="this athlete" />
-      ) : caseload.isError ? (
-        <ErrorNotice error={caseload.error} />
-      ) : !row ? (
-        <Notice tone="problem" role="alert" title="Not in your caseload">
-          <p>This athlete is not in your organization, or you are not on their care team.</p>
-        </Notice>
-      ) : (
-        <AthleteCases athleteId={athleteId} row={row} />
-      )}
-    </div>
-  );
+  return <StaffAthletePage view={CLINICIAN_VIEW} />;
 }
 
-function AthleteCases({ athleteId, row }: { athleteId: string; row: CaseloadRowDto }) {
+function ClinicianSections({ row }: { row: CaseloadRowDto }) {
   const { orgId, user } = useCurrentMembership();
+  const { athleteId } = row;
   const ability = useAppAbility();
   const navigate = useNavigate();
   const [opening, setOpening] = useState(false);
@@ -60,29 +40,25 @@ function AthleteCases({ athleteId, row }: { athleteId: string; row: CaseloadRowD
 
   return (
     <>
-      <PageHeader
-        title={row.athleteName}
+      <AthleteHeader
+        row={row}
         actions={
-          <>
-            <ButtonLink to={staffWorkloadHref(athleteId)} variant="secondary">
-              Workload and pain
-            </ButtonLink>
-            {canOpen && !opening && (
-              <Button onClick={() => setOpening(true)} variant="primary">
-                Open a case
-              </Button>
-            )}
-          </>
+          canOpen &&
+          !opening && (
+            <Button onClick={() => setOpening(true)} variant="primary">
+              Open a case
+            </Button>
+          )
         }
       >
         <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
           <StatusMark status={row.status} />
           <span className="tabular-nums">{row.statusEffectiveFrom ? `since ${formatDate(row.statusEffectiveFrom)}` : 'no open case'}</span>
           {row.nextReviewDate && <span className="tabular-nums">next review {formatDate(row.nextReviewDate)}</span>}
-          {[row.sport, row.age !== null ? `${row.age} years` : null].filter(Boolean).join(' · ')}
+          {sportAndAge(row)}
           {row.isMinor && <Badge>Minor</Badge>}
         </span>
-      </PageHeader>
+      </AthleteHeader>
       <ClinicalRecordCaution />
 
       {opening && (
@@ -127,3 +103,9 @@ function AthleteCases({ athleteId, row }: { athleteId: string; row: CaseloadRowD
     </>
   );
 }
+
+const CLINICIAN_VIEW: AthleteView = {
+  back: { to: '/clinician', label: 'My caseload' },
+  notYours: 'Not in your caseload',
+  Sections: ClinicianSections,
+};
