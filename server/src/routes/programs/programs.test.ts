@@ -331,14 +331,12 @@ describe('programs and sessions', () => {
     for (const id of [draft.id, published.id, randomUUID()])
       expect((await put(me, `${w.base}/sessions/${id}`, { version: 1, title: 'x' })).status).toBe(403);
     // Another athlete's program: 404, and the guardian or admin are refused programs outright.
-    await h.ds
-      .getRepository(CareTeamAssignment)
-      .save({
-        organizationId: w.org.id,
-        athleteId: w.org.otherAthlete.membershipId,
-        memberId: w.org.otherCoach.membershipId,
-        role: 'coach',
-      });
+    await h.ds.getRepository(CareTeamAssignment).save({
+      organizationId: w.org.id,
+      athleteId: w.org.otherAthlete.membershipId,
+      memberId: w.org.otherCoach.membershipId,
+      role: 'coach',
+    });
     const otherProgram = await (
       await as(w.org.otherCoach)
     ).post(`${w.base}/programs`, { name: 'Other', athleteIds: [w.org.otherAthlete.membershipId] });

@@ -174,7 +174,7 @@ describe('published sessions are checked again when what they depend on changes'
     for (const n of notices) {
       expect(n).toMatchObject({ athlete_id: w.athlete, severity: 'urgent', title: `${w.org.athlete.name}: 2 sessions on hold` });
       expect(n.body).toBe(
-        `The clinician changed the restriction plan. These published sessions now go past a cap and are on hold until you update them: ${d1}, ${d2}.`,
+        `The clinician changed the restriction plan. These published sessions now go past a limit and are on hold until you update them: ${w.org.athlete.name}: ${d1}, ${d2}.`,
       );
     }
     // What the coach reads through the API.
