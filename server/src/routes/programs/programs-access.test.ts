@@ -1,8 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
+import type { Role } from '../../../../policies/roles';
+import { expectedOutcome, type Relation } from '../../../../policies/access/matrix';
+import type { SubjectName, Action } from '../../../../policies/access';
 import { CareTeamAssignment } from '../../entities';
 import { TEST_PASSWORD } from '../../test/factories';
-import { signedIn, useHarness } from '../../test/harness';
+import { Client, signedIn, useHarness } from '../../test/harness';
 import { addDays, content, createOrg, pinClock, programWorld, put, setIds, TODAY } from './test-world';
 
 /** Who may see and change a program: staff on every athlete's care team; the athlete, their published sessions. */
@@ -125,5 +128,95 @@ describe('who may see and change programs', () => {
     expect((await me.get(`${w.base}/programs`)).body.map((x: { id: string }) => x.id)).toEqual([p.id]);
     expect((await (await as(w.org.guardian)).get(`${w.base}/programs`)).status).toBe(403);
     expect((await (await as(w.org.admin)).get(`${w.base}/programs`)).status).toBe(403);
+  });
+
+  /** The other coach is on both athletes' care teams and builds a group program for the two. */
+  async function withGroup(w: Awaited<ReturnType<typeof world>>) {
+    await h.ds.getRepository(CareTeamAssignment).save(
+      [w.athlete, w.org.otherAthlete.membershipId].map((athleteId) => ({
+        organizationId: w.org.id,
+        athleteId,
+        memberId: w.org.otherCoach.membershipId,
+        role: 'coach' as const,
+      })),
+    );
+    const otherCoach = await as(w.org.otherCoach);
+    const group = await w.program([w.athlete, w.org.otherAthlete.membershipId], otherCoach);
+    return { otherCoach, group };
+  }
+
+  it('the list is filtered by the rules of one program: a group program is listed only to staff of every athlete in it, and to its athletes', async () => {
+    const w = await world();
+    const own = await w.program();
+    const { otherCoach, group } = await withGroup(w);
+    const ids = async (c: Client, query = '') => ((await c.get(`${w.base}/programs${query}`)).body as { id: string }[]).map((p) => p.id);
+    // Newest first.
+    expect(await ids(otherCoach)).toEqual([group.id, own.id]);
+    expect(await ids(w.coach)).toEqual([own.id]);
+    expect(await ids(w.coach, `?athleteId=${w.athlete}`)).toEqual([own.id]);
+    expect(await ids(w.coach, `?athleteId=${w.org.otherAthlete.membershipId}`)).toEqual([]);
+    expect((await w.coach.get(`${w.base}/programs/${group.id}`)).status).toBe(404);
+    expect(await ids(w.clinician)).toEqual([own.id]);
+    const me = await as(w.org.athlete);
+    expect(await ids(me)).toEqual([group.id, own.id]);
+    // An athlete narrows to themselves only: a teammate's id lists nothing.
+    expect(await ids(me, `?athleteId=${w.athlete}`)).toEqual([group.id, own.id]);
+    expect(await ids(me, `?athleteId=${w.org.otherAthlete.membershipId}`)).toEqual([]);
+    expect(await ids(await as(w.org.otherAthlete))).toEqual([group.id]);
+  });
+
+  it('each role gets the access matrix answer: 404 for a program it may not read, 403 when its role may never take the action or may only read', async () => {
+    const w = await world();
+    const mine = await w.program();
+    const mineSession = await w.session(mine.id, MONDAY, content(w.ex('Deadlift'), [{ kg: 60 }]));
+    const set = (await w.coach.get(`${w.base}/programs/${mine.id}`)).body.sessions[0].content.exercises[0].sets[0].id as string;
+    const { otherCoach } = await withGroup(w);
+    const theirs = await w.program([w.org.otherAthlete.membershipId], otherCoach);
+    const theirSession = await otherCoach.post(`${w.base}/programs/${theirs.id}/sessions`, {
+      date: MONDAY,
+      title: 'Theirs',
+      content: content(w.ex('Deadlift'), [{ kg: 60 }]),
+    });
+    const STATUS = { allowed: [200, 201], forbidden: [403], not_found: [404] } as const;
+    const targets = [
+      { athleteId: w.athlete, program: mine.id, session: mineSession.id, setId: set },
+      { athleteId: w.org.otherAthlete.membershipId, program: theirs.id, session: theirSession.body.id as string, setId: set },
+    ];
+    const probes: [SubjectName, Action, (c: Client, t: (typeof targets)[number]) => Promise<{ status: number }>][] = [
+      ['Program', 'read', (c, t) => c.get(`${w.base}/programs/${t.program}`)],
+      ['Program', 'read', (c, t) => c.get(`${w.base}/athletes/${t.athleteId}/today?date=${MONDAY}`)],
+      ['Program', 'update', (c, t) => c.post(`${w.base}/programs/${t.program}/shift`, { fromDate: addDays(MONDAY, 60), days: 1 })],
+      ['Baseline', 'read', (c, t) => c.get(`${w.base}/athletes/${t.athleteId}/baselines`)],
+      [
+        'ProgramException',
+        'create',
+        (c, t) =>
+          c.post(`${w.base}/sessions/${t.session}/exceptions`, { athleteId: t.athleteId, setIds: [t.setId], reason: 'Matrix probe' }),
+      ],
+    ];
+    const members: [Role, { email: string }][] = [
+      ['athlete', w.org.athlete],
+      ['coach', w.org.coach],
+      ['clinician', w.org.clinician],
+      ['guardian', w.org.guardian],
+      ['admin', w.org.admin],
+    ];
+    const got: string[] = [];
+    const want: string[] = [];
+    for (const [role, member] of members) {
+      const client = await as(member);
+      for (const [i, t] of targets.entries()) {
+        // The athlete's own program is 'self'; admins have no care team, so every athlete is another's to them.
+        const relation: Relation = i === 1 || role === 'admin' ? 'other-athlete' : role === 'athlete' ? 'self' : 'own-care-team';
+        for (const [subject, action, probe] of probes) {
+          const outcome = expectedOutcome(role, subject, action, relation);
+          const status = (await probe(client, t)).status;
+          const label = `${role} ${action} ${subject} (${relation})`;
+          got.push(`${label} → ${(STATUS[outcome] as readonly number[]).includes(status) ? outcome : status}`);
+          want.push(`${label} → ${outcome}`);
+        }
+      }
+    }
+    expect(got).toEqual(want);
   });
 });
