@@ -265,7 +265,7 @@ describe("exceptions: going past a cap on named sets, decided by the athlete's c
     expect((await w.clinician.get(`${w.base}/exceptions?state=pending`)).body).toEqual([]);
   });
 
-  it('a grant releases a session put on hold by a tighter plan', async () => {
+  it('a refusal leaves a session put on hold by a tighter plan on hold; grants release it', async () => {
     const w = await world();
     const fixed = await put(w.coach, `${w.base}/sessions/${w.session}`, { version: await w.version(), content: w.content([82.5, 80, 80]) });
     expect(fixed.status).toBe(200);
@@ -275,6 +275,11 @@ describe("exceptions: going past a cap on named sets, decided by the athlete's c
     const onHold = async () =>
       (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete).sessionsOnHold as number;
     expect(await onHold()).toBe(1);
+    const told = (await w.notices('sessions_on_hold')).length;
+    const refused = (await w.request([w.A, w.B, w.C])).body.id as string;
+    expect((await w.decide(refused, { decision: 'refuse', note: 'Not with this plan' })).status).toBe(200);
+    expect(await onHold()).toBe(1);
+    expect(await w.notices('sessions_on_hold')).toHaveLength(told);
     const partial = (await w.request([w.A, w.B])).body.id as string;
     await w.decide(partial, { decision: 'grant', note: 'Two of three' });
     expect(await onHold()).toBe(1); // C still breaches
