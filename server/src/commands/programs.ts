@@ -97,6 +97,14 @@ export const updateProgram = orgCommand({
       }
     }
     await updateVersioned(ctx.m, Program, p.id, version, { ...changes, updatedAt: () => 'now()' }, 'program');
+    // An athlete taken off the program keeps no hold on its sessions: they are no longer theirs (the
+    // roster counted them, and no re-check of that athlete would ever look at them again).
+    const removed = changes.athleteIds ? p.athleteIds.filter((a) => !changes.athleteIds!.includes(a)) : [];
+    if (removed.length)
+      await ctx.m.query(
+        `DELETE FROM session_holds WHERE athlete_id = ANY($1) AND session_id IN (SELECT id FROM program_sessions WHERE program_id = $2)`,
+        [removed, p.id],
+      );
     await ctx.audit({
       action: 'program.updated',
       subjectType: 'Program',

@@ -300,4 +300,27 @@ describe('published sessions are checked again when what they depend on changes'
       ['hard_sets_per_week', `hard set 5 of the week of ${weekOf(TODAY)}`],
     ]);
   });
+
+  it('an athlete taken off a program keeps no hold on its sessions', async () => {
+    const w = await world(70);
+    const teammate = await createMember(h.ds, w.org.id, ['athlete']);
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: w.org.id, athleteId: teammate.membershipId, memberId: w.org.coach.membershipId, role: 'coach' });
+    const group = await w.coach.post(`${w.base}/programs`, { name: 'Group', athleteIds: [w.athlete, teammate.membershipId] });
+    const s = await w.coach.post(`${w.base}/programs/${group.body.id}/sessions`, {
+      date: addDays(TODAY, 7),
+      title: 'Team lift',
+      content: oneSet(w.dl, 90),
+    });
+    // The teammate has no plan; 90 kg fits the athlete's 70% (98 kg) until the plan tightens to 60%.
+    expect((await w.coach.post(`${w.base}/sessions/${s.body.id}/publish`, { version: s.body.version })).status).toBe(200);
+    await w.revisePlan(60);
+    expect(await w.held()).toEqual([s.body.id]);
+    const removed = await w.coach.patch(`${w.base}/programs/${group.body.id}`, { athleteIds: [teammate.membershipId], version: 1 });
+    expect(removed.status, JSON.stringify(removed.body)).toBe(200);
+    expect(await w.held()).toEqual([]);
+    const row = (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete);
+    expect(row.sessionsOnHold).toBe(0);
+  });
 });
