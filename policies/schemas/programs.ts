@@ -33,20 +33,39 @@ export const LoadStepsSchema = z.discriminatedUnion(
   { message: 'must be an increment or a list of loads' },
 );
 
-export const ExerciseCreateSchema = z.strictObject({
+/** An exercise's fields, each as sent: no defaults here, so neither schema below can invent a value. */
+const ExerciseFields = {
   name: z.string().trim().min(1, { message: 'is required' }).max(120, { message: 'must be at most 120 characters' }),
-  patterns: z
-    .array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' }))
-    .max(4)
-    .default([]),
+  patterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' })).max(4),
   equipment: z.enum(EQUIPMENT, { message: 'must be one of the equipment types' }),
   ballistic: z.boolean({ message: 'must be yes or no' }),
   steps: LoadStepsSchema,
-  referenceId: UuidSchema.nullable().optional(),
+  referenceId: UuidSchema.nullable(),
+};
+
+/** A new exercise: one that names no movement pattern counts toward none. */
+export const ExerciseCreateSchema = z.strictObject({
+  ...ExerciseFields,
+  patterns: ExerciseFields.patterns.default([]),
+  referenceId: ExerciseFields.referenceId.optional(),
 });
 export type ExerciseCreateInput = z.infer<typeof ExerciseCreateSchema>;
 
-export const ExerciseUpdateSchema = ExerciseCreateSchema.partial().extend({ archived: z.boolean().optional(), version: VersionSchema });
+/**
+ * An edit writes exactly the keys it was sent. Built from the fields, not as `ExerciseCreateSchema.partial()`:
+ * a default survives `.partial()`, and the create schema's `patterns: []` then erased the patterns of every
+ * exercise archived or restored (`{ archived, version }`), so its sets escaped every block and cap.
+ */
+export const ExerciseUpdateSchema = z.strictObject({
+  name: ExerciseFields.name.optional(),
+  patterns: ExerciseFields.patterns.optional(),
+  equipment: ExerciseFields.equipment.optional(),
+  ballistic: ExerciseFields.ballistic.optional(),
+  steps: ExerciseFields.steps.optional(),
+  referenceId: ExerciseFields.referenceId.optional(),
+  archived: z.boolean({ message: 'must be yes or no' }).optional(),
+  version: VersionSchema,
+});
 export type ExerciseUpdateInput = z.infer<typeof ExerciseUpdateSchema>;
 
 export const BaselineCreateSchema = z
@@ -123,7 +142,12 @@ export const ProgramCreateSchema = z.strictObject({
 });
 export type ProgramCreateInput = z.infer<typeof ProgramCreateSchema>;
 
-export const ProgramUpdateSchema = ProgramCreateSchema.partial().extend({ version: VersionSchema });
+/** As ExerciseUpdateSchema: each field optional by itself, so an edit never carries a key it was not sent. */
+export const ProgramUpdateSchema = z.strictObject({
+  name: ProgramCreateSchema.shape.name.optional(),
+  athleteIds: ProgramCreateSchema.shape.athleteIds.optional(),
+  version: VersionSchema,
+});
 
 export const SessionCreateSchema = z.strictObject({
   date: IsoDateSchema,

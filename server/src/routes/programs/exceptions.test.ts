@@ -1,34 +1,18 @@
 import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import bcrypt from 'bcryptjs';
-import type { DataSource } from 'typeorm';
-import { todayIso } from '../../../../policies/roles';
 import { Client, signedIn, useHarness } from '../../test/harness';
-import { createOrg as createFullOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { TEST_PASSWORD } from '../../test/factories';
+import { addDays, createOrg, pinClock, put, TODAY } from './test-world';
 
-// Sign-in compares against the stored hash at its own cost; the factories' cost-12 hash makes each
-// sign-in take a quarter second. The same password at cost 4 keeps these files inside their budget.
-let cheap: Promise<string> | null = null;
-async function createOrg(ds: DataSource): Promise<TestOrg> {
-  const org = await createFullOrg(ds);
-  const ids = Object.values(org)
-    .filter((v): v is MemberRef => typeof v === 'object')
-    .map((m) => m.userId);
-  await ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), ids]);
-  return org;
-}
-
-const addDays = (date: string, days: number) => new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
-const TODAY = todayIso();
 const DATE = addDays(TODAY, 10);
-const put = (c: Client, path: string, body: object) => c.agent.put(path).set('x-csrf-token', c.csrf).send(body);
 
 describe("exceptions: going past a cap on named sets, decided by the athlete's clinician", () => {
   const h = useHarness();
+  pinClock();
   const as = (m: { email: string }) => signedIn(h.app, m.email, TEST_PASSWORD);
 
   /**
-   * Deadlift 140 kg; the hinge capped at 60% (84 kg, REFERENCES 9). A draft session with sets
+   * Deadlift 140 kg; the hinge capped at 60% (of 140 kg: 84 kg). A draft session with sets
    * A 87.5 kg and B 90 kg (both over) and C 80 kg (fits).
    */
   async function world() {
@@ -281,7 +265,7 @@ describe("exceptions: going past a cap on named sets, decided by the athlete's c
     expect((await w.clinician.get(`${w.base}/exceptions?state=pending`)).body).toEqual([]);
   });
 
-  it('a grant releases a session put on hold by a tighter plan', async () => {
+  it('a refusal leaves a session put on hold by a tighter plan on hold; grants release it', async () => {
     const w = await world();
     const fixed = await put(w.coach, `${w.base}/sessions/${w.session}`, { version: await w.version(), content: w.content([82.5, 80, 80]) });
     expect(fixed.status).toBe(200);
@@ -291,6 +275,11 @@ describe("exceptions: going past a cap on named sets, decided by the athlete's c
     const onHold = async () =>
       (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete).sessionsOnHold as number;
     expect(await onHold()).toBe(1);
+    const told = (await w.notices('sessions_on_hold')).length;
+    const refused = (await w.request([w.A, w.B, w.C])).body.id as string;
+    expect((await w.decide(refused, { decision: 'refuse', note: 'Not with this plan' })).status).toBe(200);
+    expect(await onHold()).toBe(1);
+    expect(await w.notices('sessions_on_hold')).toHaveLength(told);
     const partial = (await w.request([w.A, w.B])).body.id as string;
     await w.decide(partial, { decision: 'grant', note: 'Two of three' });
     expect(await onHold()).toBe(1); // C still breaches

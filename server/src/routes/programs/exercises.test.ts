@@ -1,28 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import bcrypt from 'bcryptjs';
-import type { DataSource } from 'typeorm';
 import { expectedOutcome } from '../../../../policies/access/matrix';
 import { DEFAULT_LIBRARY } from '../../services/exercise-library';
 import { Client, signedIn, useHarness } from '../../test/harness';
-import { createOrg as createFullOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
-
-// Sign-in compares against the stored hash at its own cost; the factories' cost-12 hash makes each
-// sign-in take a quarter second. The same password at cost 4 keeps these files inside their budget.
-let cheap: Promise<string> | null = null;
-async function createOrg(ds: DataSource): Promise<TestOrg> {
-  const org = await createFullOrg(ds);
-  const ids = Object.values(org)
-    .filter((v): v is TestOrg['coach'] => typeof v === 'object')
-    .map((m) => m.userId);
-  await ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), ids]);
-  return org;
-}
+import { TEST_PASSWORD, type TestOrg } from '../../test/factories';
+import { createOrg, pinClock } from './test-world';
 
 const STATUS = { allowed: [200, 201], forbidden: [403], not_found: [404] } as const;
 
 describe('the exercise library', () => {
   const h = useHarness();
+  pinClock();
   const as = (m: { email: string }) => signedIn(h.app, m.email, TEST_PASSWORD);
   const lib = async (c: Client, org: TestOrg) =>
     (await c.get(`/api/orgs/${org.id}/exercises`)).body as {
@@ -139,6 +127,7 @@ describe('the exercise library', () => {
 
 describe('baselines', () => {
   const h = useHarness();
+  pinClock();
   const as = (m: { email: string }) => signedIn(h.app, m.email, TEST_PASSWORD);
   const exerciseId = async (c: Client, org: TestOrg, name: string) =>
     ((await c.get(`/api/orgs/${org.id}/exercises`)).body as { id: string; name: string }[]).find((e) => e.name === name)!.id;
@@ -165,7 +154,7 @@ describe('baselines', () => {
       testedOn: '2026-11-01',
     });
     expect(ok.status).toBe(201);
-    // r = 1 → 1RM = w (REFERENCES 1: defined so; Epley read literally would give 143.33).
+    // A tested single is the 1RM by definition (r = 1 → 1RM = w); Epley (1985, from memory) read literally would give 143.33.
     expect(ok.body).toMatchObject({ kind: 'tested', e1rmKg: 140, formula: 'tested', lowReliability: false });
   });
 
@@ -188,7 +177,7 @@ describe('baselines', () => {
     });
     const rir = await coach.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 100, reps: 5, rpe: 8, testedOn: '2026-11-02' });
     expect(rir.body).toMatchObject({ rpe: 8, e1rmKg: 123.33, lowReliability: false });
-    // 10 reps is still reliable (REFERENCES 1: r ≤ 10); 100 kg × 10 → 133.33 (Epley, from memory).
+    // 10 reps is still reliable (Reynolds et al. 2006, JSCR 20:584–592: up to 10); 100 kg × 10 → 133.33 (Epley, from memory).
     const ten = await coach.post(url, { exerciseId: sq, kind: 'estimated', loadKg: 100, reps: 10, testedOn: '2026-11-03' });
     expect(ten.body).toMatchObject({ e1rmKg: 133.33, lowReliability: false });
     const list = (await coach.get(url)).body as { e1rmKg: number; testedOn: string }[];
@@ -214,7 +203,7 @@ describe('baselines', () => {
     ).toBe(true);
   });
 
-  it('reps past where the estimates break down are refused (REFERENCES 1: reject r ≥ 37), counting reps in reserve', async () => {
+  it('reps past where the estimates break down are refused (Brzycki 1993, JOPERD 64:88–90: 36w/(37 − r) has no value from r = 37), counting reps in reserve', async () => {
     const org = await createOrg(h.ds);
     const coach = await as(org.coach);
     const sq = await exerciseId(coach, org, 'Back squat');

@@ -1,38 +1,18 @@
 import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import bcrypt from 'bcryptjs';
-import type { DataSource } from 'typeorm';
-import { todayIso } from '../../../../policies/roles';
 import { weekOf } from '../../../../policies/load/compliance';
 import { CareTeamAssignment } from '../../entities';
-import { Client, signedIn, useHarness } from '../../test/harness';
-import { createMember, createOrg as createFullOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { signedIn, useHarness } from '../../test/harness';
+import { createMember, TEST_PASSWORD } from '../../test/factories';
+import { addDays, cheapen, createOrg, pinClock, put, TODAY } from './test-world';
 
-// Sign-in compares against the stored hash at its own cost; the factories' cost-12 hash makes each
-// sign-in take a quarter second. The same password at cost 4 keeps these files inside their budget.
-let cheap: Promise<string> | null = null;
-const cheapen = async (ds: DataSource, userIds: string[]) =>
-  ds.query(`UPDATE users SET password_hash = $1 WHERE id = ANY($2)`, [await (cheap ??= bcrypt.hash(TEST_PASSWORD, 4)), userIds]);
-async function createOrg(ds: DataSource): Promise<TestOrg> {
-  const org = await createFullOrg(ds);
-  await cheapen(
-    ds,
-    Object.values(org)
-      .filter((v): v is MemberRef => typeof v === 'object')
-      .map((m) => m.userId),
-  );
-  return org;
-}
-
-const addDays = (date: string, days: number) => new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
-const TODAY = todayIso();
-const put = (c: Client, path: string, body: object) => c.agent.put(path).set('x-csrf-token', c.csrf).send(body);
 const oneSet = (exerciseId: string, kg: number) => ({
   exercises: [{ id: randomUUID(), exerciseId, sets: [{ id: randomUUID(), reps: 5, load: { kind: 'kg', value: kg }, targetRpe: 6 }] }],
 });
 
 describe('published sessions are checked again when what they depend on changes', () => {
   const h = useHarness();
+  pinClock();
   const as = (m: { email: string }) => signedIn(h.app, m.email, TEST_PASSWORD);
 
   /** A deadlift of 140 kg tested today; a case; optionally a plan capping the hinge at `pct`% of 1RM. */
@@ -174,7 +154,7 @@ describe('published sessions are checked again when what they depend on changes'
     for (const n of notices) {
       expect(n).toMatchObject({ athlete_id: w.athlete, severity: 'urgent', title: `${w.org.athlete.name}: 2 sessions on hold` });
       expect(n.body).toBe(
-        `The clinician changed the restriction plan. These published sessions now go past a cap and are on hold until you update them: ${d1}, ${d2}.`,
+        `The clinician changed the restriction plan. These published sessions now go past a limit and are on hold until you update them: ${w.org.athlete.name}: ${d1}, ${d2}.`,
       );
     }
     // What the coach reads through the API.
@@ -279,48 +259,68 @@ describe('published sessions are checked again when what they depend on changes'
     expect((await (await as(w.org.otherCoach)).get(`${w.base}/athletes/${w.athlete}/today?date=${date}`)).status).toBe(404);
   });
 
-  // Needs a day of the current ISO week before today, which a Monday does not have.
-  it.skipIf(weekOf(TODAY) === TODAY)(
-    "weekly hard-set limits count this week's earlier published sessions too, as publishing does",
-    async () => {
-      const w = await world(null);
-      const c = await w.clinician.get(`${w.base}/cases/${w.caseId}`);
-      expect(c.status).toBe(200);
-      const stages = (maxHard: number) => [
+  // The pinned day is a Thursday: this week has earlier days.
+  it("weekly hard-set limits count this week's earlier published sessions too, as publishing does", async () => {
+    const w = await world(null);
+    const c = await w.clinician.get(`${w.base}/cases/${w.caseId}`);
+    expect(c.status).toBe(200);
+    const stages = (maxHard: number) => [
+      {
+        id: randomUUID(),
+        startDate: addDays(TODAY, -30),
+        endDate: addDays(TODAY, 120),
+        painCeiling: 5,
+        patterns: { hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: maxHard } } },
+      },
+    ];
+    const plan = await w.clinician.post(`${w.base}/cases/${w.caseId}/plan`, { stages: stages(10), guidance: '' });
+    expect(plan.status).toBe(201);
+    const hard = (n: number) => ({
+      exercises: [
         {
           id: randomUUID(),
-          startDate: addDays(TODAY, -30),
-          endDate: addDays(TODAY, 120),
-          painCeiling: 5,
-          patterns: { hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: maxHard } } },
+          exerciseId: w.dl,
+          sets: Array.from({ length: n }, () => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 8 })),
         },
-      ];
-      const plan = await w.clinician.post(`${w.base}/cases/${w.caseId}/plan`, { stages: stages(10), guidance: '' });
-      expect(plan.status).toBe(201);
-      const hard = (n: number) => ({
-        exercises: [
-          {
-            id: randomUUID(),
-            exerciseId: w.dl,
-            sets: Array.from({ length: n }, () => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 8 })),
-          },
-        ],
-      });
-      const publish = async (date: string, n: number) => {
-        const s = await w.coach.post(`${w.base}/programs/${w.program}/sessions`, { date, title: date, content: hard(n) });
-        expect((await w.coach.post(`${w.base}/sessions/${s.body.id}/publish`, { version: s.body.version })).status).toBe(200);
-        return s.body.id as string;
-      };
-      await publish(weekOf(TODAY), 3); // earlier this week: 3 hard sets (RPE 8 ≥ 7, common practice)
-      const todays = await publish(TODAY, 2);
-      // A cap of 4: today's second set is the week's fifth hard set.
-      const revised = await put(w.clinician, `${w.base}/plans/${plan.body.id}`, { version: 1, stages: stages(4), guidance: '' });
-      expect(revised.status).toBe(200);
-      expect(await w.held()).toEqual([todays]);
-      const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [todays]);
-      expect(hold.breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([
-        ['hard_sets_per_week', `hard set 5 of the week of ${weekOf(TODAY)}`],
-      ]);
-    },
-  );
+      ],
+    });
+    const publish = async (date: string, n: number) => {
+      const s = await w.coach.post(`${w.base}/programs/${w.program}/sessions`, { date, title: date, content: hard(n) });
+      expect((await w.coach.post(`${w.base}/sessions/${s.body.id}/publish`, { version: s.body.version })).status).toBe(200);
+      return s.body.id as string;
+    };
+    await publish(weekOf(TODAY), 3); // earlier this week: 3 hard sets (RPE 8 ≥ 7, common practice)
+    const todays = await publish(TODAY, 2);
+    // A cap of 4: today's second set is the week's fifth hard set.
+    const revised = await put(w.clinician, `${w.base}/plans/${plan.body.id}`, { version: 1, stages: stages(4), guidance: '' });
+    expect(revised.status).toBe(200);
+    expect(await w.held()).toEqual([todays]);
+    const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [todays]);
+    expect(hold.breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([
+      ['hard_sets_per_week', `hard set 5 of the week of ${weekOf(TODAY)}`],
+    ]);
+  });
+
+  it('an athlete taken off a program keeps no hold on its sessions', async () => {
+    const w = await world(70);
+    const teammate = await createMember(h.ds, w.org.id, ['athlete']);
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: w.org.id, athleteId: teammate.membershipId, memberId: w.org.coach.membershipId, role: 'coach' });
+    const group = await w.coach.post(`${w.base}/programs`, { name: 'Group', athleteIds: [w.athlete, teammate.membershipId] });
+    const s = await w.coach.post(`${w.base}/programs/${group.body.id}/sessions`, {
+      date: addDays(TODAY, 7),
+      title: 'Team lift',
+      content: oneSet(w.dl, 90),
+    });
+    // The teammate has no plan; 90 kg fits the athlete's 70% (98 kg) until the plan tightens to 60%.
+    expect((await w.coach.post(`${w.base}/sessions/${s.body.id}/publish`, { version: s.body.version })).status).toBe(200);
+    await w.revisePlan(60);
+    expect(await w.held()).toEqual([s.body.id]);
+    const removed = await w.coach.patch(`${w.base}/programs/${group.body.id}`, { athleteIds: [teammate.membershipId], version: 1 });
+    expect(removed.status, JSON.stringify(removed.body)).toBe(200);
+    expect(await w.held()).toEqual([]);
+    const row = (await w.coach.get(`${w.base}/roster`)).body.find((r: { athleteId: string }) => r.athleteId === w.athlete);
+    expect(row.sessionsOnHold).toBe(0);
+  });
 });

@@ -1,13 +1,14 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { todayIso } from '../../../../policies/roles';
 import { signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { addDays, pinClock, TODAY } from './test-world';
 
-// The roster is one set-based query (services/programs.ts rosterRows); this fixes what each column
+// The roster is one set-based query (queries/roster.ts); this fixes what each column
 // must say when an athlete has several cases, holds, exceptions and sessions around today.
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
+pinClock();
 
-const day = (n: number) => todayIso(new Date(Date.now() + n * 86_400_000));
+const day = (n: number) => addDays(TODAY, n);
 
 describe('GET /roster', () => {
   let org: TestOrg;
