@@ -180,8 +180,14 @@ export async function breachesFor(
   const all = [...sessions, ...others];
   const ctx = await engineContext(m, organizationId, athleteId, all, unit, today);
   const ids = new Set(sessions.map((s) => s.id));
-  return checkSets(all.flatMap(engineSets), ctx).filter((b) => ids.has(b.sessionId));
+  const withNew = checkSets(all.flatMap(engineSets), ctx);
+  // Weekly limits count a week's hard sets in date order, so publishing an earlier session can push a
+  // later, already published one past the limit: that breach is caused by this change and stops it too.
+  const before = new Set(checkSets(others.flatMap(engineSets), ctx).map(breachKey));
+  return withNew.filter((b) => ids.has(b.sessionId) || (b.date >= today && !before.has(breachKey(b))));
 }
+
+const breachKey = (b: Breach) => `${b.setId}:${b.rule}:${b.pattern ?? ''}`;
 
 /** Every athlete of the program, each checked on the sessions' dates (a publish, an edit of a published session, a dry run). */
 export async function breachesForAthletes(
