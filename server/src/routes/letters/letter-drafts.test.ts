@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { useHarness, type Client } from '../../test/harness';
+import { CareTeamAssignment } from '../../entities';
+import { signedIn, useHarness, type Client } from '../../test/harness';
+import { createMember, TEST_PASSWORD } from '../../test/factories';
 import { binary, letterKit, pdfText, pinClock } from './letter-fixtures';
 
 /** A draft is the clinicians' working copy; signing freezes it and supersedes the athlete's earlier letter. */
@@ -102,5 +104,22 @@ describe('drafts, edits and signing', () => {
     // Another athlete's letter is untouched.
     const [row] = await h.ds.query(`SELECT status FROM clearance_letters WHERE id = $1`, [theirs.id]);
     expect(row.status).toBe('signed');
+  });
+
+  it('the letter names the clinician who signs it, also when another clinician of the team drafted it', async () => {
+    const w = await world();
+    const athlete = await freshAthlete(w);
+    const colleague = await createMember(h.ds, w.org.id, ['clinician']);
+    await h.ds
+      .getRepository(CareTeamAssignment)
+      .save({ organizationId: w.org.id, athleteId: athlete.membershipId, memberId: colleague.membershipId, role: 'clinician' });
+    const draft = await draftLetter(w, athlete.membershipId);
+    const signer = await signedIn(h.app, colleague.email, TEST_PASSWORD);
+    const res = await signer.post(`${w.base}/letters/${draft.id}/sign`, { signature: colleague.name, version: draft.version });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.clinicianName).toBe(colleague.name);
+    const text = await pdfText((await binary(signer.get(`${w.base}/letters/${draft.id}/pdf`))).body as Buffer);
+    expect(text).toContain(`${colleague.name}, ATC, licence AT-12345`);
+    expect(text).not.toContain(w.org.clinician.name);
   });
 });
