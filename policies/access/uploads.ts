@@ -12,6 +12,12 @@ import type { RuleSet } from './builder';
  */
 export const uploadRules: RuleSet = ({ can }, actor) => {
   const org = actor.organizationId;
+  // Every member holds a read rule on clips, over no athlete unless a role below adds some, so a
+  // clip one may not watch answers 404 like any hidden record (ASVS 5.0 V8.2.2), never a 403 that
+  // confirms it exists — also for a role with no clip rule of its own, such as an admin.
+  const nobody = { organizationId: org, athleteId: { $in: [] as string[] } };
+  can('read', 'Clip', nobody);
+  can('read', 'ClipNote', nobody);
   if (hasRole(actor, 'athlete')) {
     const own = { organizationId: org, athleteId: actor.membershipId };
     can('read', 'CaseDocument', own);
@@ -41,11 +47,9 @@ export const uploadRules: RuleSet = ({ can }, actor) => {
     can('create', 'ClipNote', team);
     can('delete', 'ClipNote', { ...team, authorUserId: actor.userId });
   }
-  if (hasRole(actor, 'guardian')) {
-    // Granted even while the setting is off (an empty list), so a guardian asking for a clip gets
-    // 404 like anyone else without access, not a 403 that confirms the clip exists.
-    const wards = actor.guardiansSeeClips ? actor.guardianOf : [];
-    can('read', 'Clip', { organizationId: org, athleteId: { $in: wards } });
-    can('read', 'ClipNote', { organizationId: org, athleteId: { $in: wards } });
+  if (hasRole(actor, 'guardian') && actor.guardiansSeeClips) {
+    const wards = { organizationId: org, athleteId: { $in: actor.guardianOf } };
+    can('read', 'Clip', wards);
+    can('read', 'ClipNote', wards);
   }
 };

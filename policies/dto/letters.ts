@@ -15,9 +15,10 @@ export interface LetterDto {
   signature: string | null;
   signedAt: string | null;
   /**
-   * As of today (UTC): 'signed' is the letter in force, 'scheduled' a signed letter whose start date is still
-   * ahead, 'superseded' one a later-signed letter has replaced from that letter's start date, 'expired' the
-   * latest letter once its valid-until day has passed (nothing is in force until a new one is signed).
+   * As of the organization's today (policies/today.ts): 'signed' is the letter in force, 'scheduled' a
+   * signed letter whose start date is still ahead, 'superseded' one a later-signed letter has replaced
+   * from that letter's start date, 'expired' the latest letter once its valid-until day has passed
+   * (nothing is in force until a new one is signed).
    */
   status: 'draft' | 'scheduled' | 'signed' | 'expired' | 'superseded';
   /** The letter that took over from this one; null until that letter's start date has come. */

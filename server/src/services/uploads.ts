@@ -1,10 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { pipeline } from 'node:stream/promises';
-import type { Response } from 'express';
 import type { Logger } from 'pino';
 import type { Config } from '../config';
-import type { ObjectStorage, ByteRange } from '../storage';
+import type { ObjectStorage } from '../storage';
 import type { Received, UploadRules } from '../storage/receive';
 
 const MB = 1024 * 1024;
@@ -52,12 +50,12 @@ export async function storeThenRecord<T>(
   logger: Logger,
   key: string,
   received: Received<unknown>,
-  record: () => Promise<T>,
+  record: (key: string) => Promise<T>,
 ): Promise<T> {
   try {
     await storage.put(key, createReadStream(received.file.tempPath), { size: received.file.size, contentType: received.file.mediaType });
     try {
-      return await record();
+      return await record(key);
     } catch (err) {
       await storage
         .delete(key)
@@ -72,28 +70,6 @@ export async function storeThenRecord<T>(
 /** Removes a stored object after its row is gone; a failure leaves an orphan file, never a dangling row. */
 export async function removeStored(storage: ObjectStorage, logger: Logger, key: string): Promise<void> {
   await storage.delete(key).catch((err) => logger.error({ err, key }, 'could not remove a stored upload after its row was deleted'));
-}
-
-/**
- * Streams a stored object (or a range of it) into the response. The object is opened before
- * `headers` sets anything, so a missing object still answers a plain JSON error, not an "attachment".
- * A viewer who seeks or closes the tab ends the response early; for video that is normal, not an error.
- */
-export async function streamStored(
-  storage: ObjectStorage,
-  res: Response,
-  key: string,
-  range: ByteRange | undefined,
-  headers: () => void,
-): Promise<void> {
-  const body = await storage.get(key, range);
-  headers();
-  try {
-    await pipeline(body, res);
-  } catch (err) {
-    if (res.destroyed || res.writableFinished) return;
-    throw err;
-  }
 }
 
 /** `Knee MRI report` → `knee-mri-report`: only letters, digits and dashes reach a header. */

@@ -2,20 +2,12 @@ import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
+import { waitFor } from '../../mail/mail-fixtures';
 
-/** Polls until `fn` answers something truthy; fails the test after `ms`. */
-async function waitFor<T>(what: string, fn: () => Promise<T | null | undefined | false>, ms = 20_000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
-
-/** The admin's outbox: the local fake mail server's messages, only while that fake is in use. */
-/** Two organizations for the file (the second to show isolation), shared by both apps below (same database). */
+/**
+ * The admin's outbox: the local fake mail server's messages, only while that fake is in use.
+ * Two organizations for the file (the second to show isolation), shared by both apps below (same database).
+ */
 let orgsOnce: Promise<[TestOrg, TestOrg]> | null = null;
 
 describe('the outbox, with the local fake mail server (FAKE_MAIL=true)', () => {
@@ -54,7 +46,7 @@ describe('the outbox, with the local fake mail server (FAKE_MAIL=true)', () => {
     expect(msg.text).toContain('/invite#');
     expect(msg.attachments).toEqual([]);
     expect(new Date(msg.receivedAt).toISOString()).toBe(msg.receivedAt);
-    // Organizations are isolated (SECURITY item 15): another organization's mail is not in this list…
+    // Organizations are isolated (ASVS 5.0 V8.4.1): another organization's mail is not in this list…
     expect(JSON.stringify(res.body)).not.toContain(theirs);
     // …and is in theirs, without ours.
     const b = await adminB.get(`/api/orgs/${orgB.id}/outbox`);

@@ -24,18 +24,16 @@ export function webm(size = 10_000): Buffer {
 }
 
 export async function createCase(ds: DataSource, organizationId: string, athleteId: string): Promise<CaseRecord> {
-  return ds
-    .getRepository(CaseRecord)
-    .save({
-      organizationId,
-      athleteId,
-      bodyRegions: ['knee_left'],
-      onsetDate: '2026-11-01',
-      diagnosis: null,
-      clinicalNotes: null,
-      reviewDate: null,
-      openedBy: null,
-    });
+  return ds.getRepository(CaseRecord).save({
+    organizationId,
+    athleteId,
+    bodyRegions: ['knee_left'],
+    onsetDate: '2026-11-01',
+    diagnosis: null,
+    clinicalNotes: null,
+    reviewDate: null,
+    openedBy: null,
+  });
 }
 
 export async function createLog(
