@@ -301,6 +301,47 @@ describe('published sessions are checked again when what they depend on changes'
     ]);
   });
 
+  it('publishing an earlier session that would push a later published one past the weekly hard-set limit is refused (422) naming the later session', async () => {
+    const w = await world(null);
+    const stages = [
+      {
+        id: randomUUID(),
+        startDate: addDays(TODAY, -30),
+        endDate: addDays(TODAY, 120),
+        painCeiling: 5,
+        patterns: { hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: 4 } } },
+      },
+    ];
+    expect((await w.clinician.post(`${w.base}/cases/${w.caseId}/plan`, { stages, guidance: '' })).status).toBe(201);
+    const hard = (n: number) => ({
+      exercises: [
+        {
+          id: randomUUID(),
+          exerciseId: w.dl,
+          sets: Array.from({ length: n }, () => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 8 })),
+        },
+      ],
+    });
+    const draft = async (date: string, n: number) =>
+      (await w.coach.post(`${w.base}/programs/${w.program}/sessions`, { date, title: date, content: hard(n) })).body as {
+        id: string;
+        version: number;
+      };
+    // Next week: Friday's 3 hard sets fit a limit of 4 on their own.
+    const nextMonday = addDays(weekOf(TODAY), 7);
+    const friday = await draft(addDays(nextMonday, 4), 3);
+    expect((await w.coach.post(`${w.base}/sessions/${friday.id}/publish`, { version: friday.version })).status).toBe(200);
+    // Monday's 2 come first in the week, so Friday's third set would become the week's fifth.
+    const monday = await draft(nextMonday, 2);
+    const refused = await w.coach.post(`${w.base}/sessions/${monday.id}/publish`, { version: monday.version });
+    expect(refused.status, JSON.stringify(refused.body)).toBe(422);
+    expect(JSON.stringify(refused.body)).toContain(friday.id);
+    expect(await w.held()).toEqual([]);
+    // One hard set on Monday still fits (3 + 1 = 4).
+    const light = await draft(nextMonday, 1);
+    expect((await w.coach.post(`${w.base}/sessions/${light.id}/publish`, { version: light.version })).status).toBe(200);
+  });
+
   it('an athlete taken off a program keeps no hold on its sessions', async () => {
     const w = await world(70);
     const teammate = await createMember(h.ds, w.org.id, ['athlete']);
