@@ -523,7 +523,8 @@ describe('the audit trail of a case (SECURITY item 27)', () => {
       'SELECT action, athlete_id, actor_user_id, before, after FROM audit_entries WHERE organization_id = $1 AND athlete_id = $2 ORDER BY id',
       [w.org.id, athleteId],
     );
-    expect(rows.map((r) => r.action)).toEqual(['case.opened', 'case.updated', 'status.changed', 'case.closed']);
+    // Opening writes the first status through the same status command as every later change.
+    expect(rows.map((r) => r.action)).toEqual(['case.opened', 'status.changed', 'case.updated', 'status.changed', 'case.closed']);
     for (const r of rows) expect(r).toMatchObject({ athlete_id: athleteId, actor_user_id: w.org.clinician.userId });
     // Nothing about this case was written without the athlete: every entry naming the case is above.
     const bySubject = await h.ds.query('SELECT count(*) FROM audit_entries WHERE subject_id = $1 AND athlete_id IS DISTINCT FROM $2', [
@@ -534,13 +535,27 @@ describe('the audit trail of a case (SECURITY item 27)', () => {
     const text = JSON.stringify(rows);
     for (const secret of [DIAGNOSIS, NOTES, DIAGNOSIS2, NOTES2]) expect(text).not.toContain(secret);
     // That the text changed is still recorded, with its length only.
-    expect(rows[1].before).toMatchObject({
+    expect(rows[1].before).toBeNull();
+    expect(rows[1].after).toEqual({
+      caseId: id,
+      status: 'limited',
+      effectiveFrom: fromToday(-19),
+      note: 'Light work only',
+      reason: 'first status of a new case',
+    });
+    expect(rows[2].before).toMatchObject({
       diagnosis: `[redacted: ${DIAGNOSIS.length} characters]`,
       clinicalNotes: `[redacted: ${NOTES.length} characters]`,
     });
-    expect(rows[1].after).toMatchObject({ clinicalNotes: `[redacted: ${NOTES2.length} characters]` });
-    expect(rows[2].before).toMatchObject({ status: 'limited' });
-    expect(rows[2].after).toMatchObject({ caseId: id, status: 'out', effectiveFrom: fromToday(0) });
+    expect(rows[2].after).toMatchObject({ clinicalNotes: `[redacted: ${NOTES2.length} characters]` });
+    expect(rows[3].before).toEqual({ status: 'limited', effectiveFrom: fromToday(-19) });
+    expect(rows[3].after).toEqual({
+      caseId: id,
+      status: 'out',
+      effectiveFrom: fromToday(0),
+      note: 'Rest this week',
+      reason: 'set by the clinician',
+    });
 
     // The same through the API the clinician browses.
     const api = await clin.get(`${w.base}/audit?athleteId=${athleteId}`);
@@ -549,6 +564,7 @@ describe('the audit trail of a case (SECURITY item 27)', () => {
       'case.closed',
       'status.changed',
       'case.updated',
+      'status.changed',
       'case.opened',
     ]);
     for (const secret of [DIAGNOSIS, NOTES, DIAGNOSIS2, NOTES2]) expect(JSON.stringify(api.body)).not.toContain(secret);
