@@ -1,4 +1,3 @@
-import type { EntityManager } from 'typeorm';
 import { BODY_REGION_LABELS } from '../../../policies/body-regions';
 import type { PainReportOutcomeDto } from '../../../policies/dto';
 import type { PainReportCreateInput } from '../../../policies/schemas';
@@ -28,7 +27,7 @@ const MESSAGES = {
  * by the system from the report (a clinician reviews it).
  */
 async function caseForEmergency(ctx: OrgCommandCtx, report: PainReport): Promise<string> {
-  const m: EntityManager = ctx.m;
+  const { m } = ctx;
   const open: { id: string }[] = await m.query(
     `SELECT id FROM cases WHERE athlete_id = $1 AND organization_id = $2 AND closed_on IS NULL ORDER BY opened_at DESC LIMIT 1`,
     [report.athleteId, report.organizationId],
