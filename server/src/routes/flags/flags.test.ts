@@ -84,7 +84,7 @@ describe('listing flags (policies/access/athlete-reports.ts: the care team reads
     w = await world();
   });
 
-  it('the coach and clinician see their athlete’s flags and not another care team’s (SECURITY item 14)', async () => {
+  it('the coach and clinician see their athlete’s flags and not another care team’s (ASVS 5.0 V8.2.2)', async () => {
     for (const who of ['coach', 'clinician'] as const) {
       const res = await (await w.as(who)).get(`${w.base}/flags?state=all`);
       expect(res.status, who).toBe(200);
@@ -145,7 +145,7 @@ describe('acknowledging a flag', () => {
     w = await world();
   });
 
-  it('another care team’s coach or clinician → 404, and the flag stays open (SECURITY item 14)', async () => {
+  it('another care team’s coach or clinician → 404, and the flag stays open (ASVS 5.0 V8.2.2)', async () => {
     for (const who of ['otherCoach', 'otherClinician'] as const) {
       const res = await (await w.as(who)).post(`${w.base}/flags/${w.flags.painRule}/acknowledge`);
       expect(res.status, who).toBe(404);
@@ -156,7 +156,7 @@ describe('acknowledging a flag', () => {
     expect(await flagRow(w.flags.painRule)).toEqual({ acknowledged_at: null, acknowledged_by: null });
   });
 
-  it("another organization's clinician → 404 (SECURITY item 15)", async () => {
+  it("another organization's clinician → 404 (ASVS 5.0 V8.4.1)", async () => {
     const outsiderOrg = await createOrg(h.ds);
     const outsider = await signedIn(h.app, outsiderOrg.clinician.email, TEST_PASSWORD);
     for (const base of [`/api/orgs/${outsiderOrg.id}`, w.base]) {
@@ -167,7 +167,7 @@ describe('acknowledging a flag', () => {
     expect((await flagRow(w.flags.painRule)).acknowledged_at).toBeNull();
   });
 
-  it('the care-team clinician acknowledges: acknowledgedAt and by whom are set, audited once as flag.acknowledged (SECURITY item 27)', async () => {
+  it('the care-team clinician acknowledges: acknowledgedAt and by whom are set, audited once as flag.acknowledged (45 CFR 164.312(b); ASVS 5.0 V16.2)', async () => {
     const clin = await w.as('clinician');
     const rid = `test-${randomUUID()}`;
     const res = await clin.post(`${w.base}/flags/${w.flags.painRule}/acknowledge`).set('x-request-id', rid);
@@ -240,7 +240,7 @@ describe('notifications (everyone reads and clears only their own)', () => {
     expect(await idsOf('otherClinician')).not.toContain(clin[0].id);
   });
 
-  it("marking another person's notice read → 404 and it stays unread; my own → read (SECURITY item 14)", async () => {
+  it("marking another person's notice read → 404 and it stays unread; my own → read (ASVS 5.0 V8.2.2)", async () => {
     const [clinNotice] = await dbIdsOf(w.org.clinician);
     const res = await (await w.as('coach')).post(`${w.base}/notifications/${clinNotice}/read`);
     expect(res.status).toBe(404);

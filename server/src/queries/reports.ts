@@ -1,0 +1,55 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import type { AppAbility } from '../../../policies/access';
+import type { PainReportDto } from '../../../policies/dto';
+import { accessibleWhere } from '../core/accessible';
+import { orgQuery } from '../core/command';
+import { pickPermitted } from '../services/fields';
+
+/** Pain reports the reader may see, newest first, each with the fields their role may read. */
+export async function listPainReports(
+  db: DataSource | EntityManager,
+  ability: AppAbility,
+  organizationId: string,
+  where: { athleteId?: string; id?: string },
+): Promise<PainReportDto[]> {
+  const acl = accessibleWhere(ability, 'read', 'PainReport', {
+    organizationId: 'r.organization_id',
+    athleteId: 'r.athlete_id',
+    id: 'r.id',
+  });
+  const qb = db
+    .createQueryBuilder()
+    .select([
+      'r.id AS id',
+      'r.organization_id AS "organizationId"',
+      'r.athlete_id AS "athleteId"',
+      'u.display_name AS "athleteName"',
+      'r.reported_at AS "reportedAt"',
+      'r.body_regions AS "bodyRegions"',
+      'r.pain_now AS "painNow"',
+      'r.pain_worst_24h AS "painWorst24h"',
+      'r.onset_date AS "onsetDate"',
+      'r.aggravating_patterns AS "aggravatingPatterns"',
+      'r.started_in_training AS "startedInTraining"',
+      'r.note AS note',
+      'r.red_flags AS "redFlags"',
+      'r.route AS route',
+      'r.case_id AS "caseId"',
+    ])
+    .from('pain_reports', 'r')
+    .innerJoin('memberships', 'm', 'm.id = r.athlete_id')
+    .innerJoin('users', 'u', 'u.id = m.user_id')
+    .where('r.organization_id = :org', { org: organizationId })
+    .andWhere(acl.sql, acl.params)
+    .orderBy('r.reported_at', 'DESC')
+    .limit(200);
+  if (where.athleteId) qb.andWhere('r.athlete_id = :athleteId', { athleteId: where.athleteId });
+  if (where.id) qb.andWhere('r.id = :id', { id: where.id });
+  const rows = await qb.getRawMany<PainReportDto & { reportedAt: Date }>();
+  return rows.map((r) => pickPermitted(ability, 'PainReport', { ...r, reportedAt: new Date(r.reportedAt).toISOString() }) as PainReportDto);
+}
+
+export const painReportsQuery = orgQuery({
+  name: 'painReports',
+  run: (ctx, input: { athleteId?: string }) => listPainReports(ctx.db, ctx.ability, ctx.actor.organizationId, input),
+});
