@@ -1,13 +1,13 @@
 import type { Unit } from '../schemas/common';
 import type { Breach, BreachRule } from './breach';
 import { exerciseRules, type EngineExercise, type ExerciseRules } from './exercise-rules';
-import { overCap, suggestFit, suggestPercent, type Fit, type LoadCaps } from './fitting';
+import { overCap, percentOf, suggestFit, suggestPercent, type Fit, type LoadCaps } from './fitting';
 import { isFiniteNumber, isIsoDate } from './guard';
 import { inForceOn, type InForce, type PlanInput } from './in-force';
 import { estimateRpe } from './intensity';
 import { MOVEMENT_PATTERNS, PATTERN_LABELS, type MovementPattern, type ParticipationStatus } from './patterns';
-import { HARD_SET_RPE, isHardSet, plannedKg, weekOf, type EngineSet } from './sets';
-import { describeSteps } from './steps';
+import { HARD_SET_RPE, isHardSet, mondayOf, plannedKg, type EngineSet } from './sets';
+import { describeSteps, type LoadSteps } from './steps';
 import { formatLoad } from './units';
 
 /**
@@ -50,8 +50,8 @@ const bySessionThenOrder = (a: EngineSet, b: EngineSet) =>
   a.date < b.date ? -1 : a.date > b.date ? 1 : a.sessionId < b.sessionId ? -1 : a.sessionId > b.sessionId ? 1 : a.order - b.order;
 
 /** Why a set cannot be checked at all, in words; null when every field the check reads is usable. */
-function unreadable(set: EngineSet): string | null {
-  if (!isIsoDate(set.date)) return 'its date is not a calendar day';
+function unreadable(set: EngineSet, validDate: (date: string) => boolean): string | null {
+  if (!validDate(set.date)) return 'its date is not a calendar day';
   if (!isFiniteNumber(set.reps) || !Number.isInteger(set.reps) || set.reps < 1) return 'its reps are not a whole number of at least 1';
   if (set.load.kind !== 'bodyweight' && (!isFiniteNumber(set.load.value) || set.load.value < 0)) return 'its load is not a number';
   if (set.targetRpe != null && !(isFiniteNumber(set.targetRpe) && set.targetRpe >= 1 && set.targetRpe <= 10))
@@ -96,6 +96,8 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
   };
 
   let date: string | null = null;
+  // Sets come sorted by date: a date is read once, when the loop moves to it (only valid dates become `date`).
+  const validDate = (d: string) => d === date || isIsoDate(d);
   let stages!: { day: InForce; exercises: Map<string, ExerciseRules> };
   let out = false;
   let week = '';
@@ -129,12 +131,40 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
       message,
     });
 
+  // One fit per set, the load that passes all of its load caps, worked out at most once and only when
+  // one of them is breached. Helpers are made once per check, not per set: this loop is the hot path.
+  let fitted: { of: EngineSet; fit: Fit | null } | null = null;
+  const fitFor = (steps: LoadSteps, r: ExerciseRules, oneRm: number | undefined): Fit | null => {
+    if (fitted?.of !== set) {
+      const caps: LoadCaps = {
+        oneRmKg: oneRm,
+        pct: r.pct?.value ?? null,
+        abs: r.abs?.value ?? null,
+        rpe: set.targetRpe == null ? (r.rpe?.value ?? null) : null,
+      };
+      fitted = { of: set, fit: suggestFit(steps, set.reps, caps) };
+    }
+    return fitted.fit;
+  };
+  /** The fix in words: the fitting load at these reps (on the steps, or × reps), fewer reps when no load fits, or none. */
+  const fitWords = (f: Fit | null, steps: LoadSteps, form: 'steps' | 'reps'): string | null => {
+    if (f === null) return null;
+    if (f.reps !== set.reps) return `cut to ${f.reps} reps: ${show(f.kg)} × ${f.reps} fits`;
+    return form === 'steps' ? `${show(f.kg)} fits on ${describeSteps(steps)}` : `${show(f.kg)} × ${set.reps} fits`;
+  };
+  const fixSentence = (f: Fit | null, words: string | null, steps: LoadSteps): string =>
+    words === null
+      ? 'no load on this exercise fits — choose a lighter one'
+      : f!.reps === set.reps
+        ? words
+        : `no load on ${describeSteps(steps)} fits ${set.reps} reps — ${words}`;
+
   for (set of ordered) {
     const ex = ctx.exercises[set.exerciseId];
     if (!ex) continue;
     waived = ctx.waivedSetIds?.has(set.id) ?? false;
     const name = ex.name;
-    const problem = unreadable(set);
+    const problem = unreadable(set, validDate);
     if (problem) {
       // Unknown is never a pass: a set the engine cannot read is a breach, and nothing else is said of it.
       push(
@@ -152,7 +182,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
       date = set.date;
       stages = dayOf(date);
       out = ctx.statusOn?.(date) === 'out';
-      week = weekOf(date);
+      week = mondayOf(date);
       weekCount = null;
     }
     const day = stages.day;
@@ -200,34 +230,11 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     // A 1RM that is not a positive number is no baseline at all.
     const oneRm = isFiniteNumber(rawOneRm) && rawOneRm > 0 ? rawOneRm : undefined;
     const loadKg = plannedKg(set.load, oneRm);
-    const percent = set.load.kind === 'percent' ? set.load.value : loadKg !== null && oneRm ? (loadKg / oneRm) * 100 : null;
+    const percent = set.load.kind === 'percent' ? set.load.value : loadKg !== null ? percentOf(loadKg, oneRm) : null;
     const estimated = set.targetRpe == null && percent !== null ? estimateRpe(percent, set.reps) : null;
     const rpe = set.targetRpe ?? estimated;
 
-    // One fit per set, worked out only when a load cap is breached: the load that passes all of them.
-    const caps: LoadCaps = {
-      oneRmKg: oneRm,
-      pct: r.pct?.value ?? null,
-      abs: r.abs?.value ?? null,
-      rpe: set.targetRpe == null ? (r.rpe?.value ?? null) : null,
-    };
-    let fitDone = false;
-    let fitMemo: Fit | null = null;
-    const fit = () => {
-      if (!fitDone) [fitDone, fitMemo] = [true, suggestFit(ex.steps, set.reps, caps)];
-      return fitMemo;
-    };
-    const steps = describeSteps(ex.steps);
-    /** The fix in words: the fitting load at these reps, fewer reps when no load fits, or none. */
-    const fitWords = (f: Fit | null, sameReps: (kg: string) => string) =>
-      f === null ? null : f.reps === set.reps ? sameReps(show(f.kg)) : `cut to ${f.reps} reps: ${show(f.kg)} × ${f.reps} fits`;
-    const fixSentence = (f: Fit | null, words: string | null) =>
-      words === null
-        ? 'no load on this exercise fits — choose a lighter one'
-        : f!.reps === set.reps
-          ? words
-          : `no load on ${steps} fits ${set.reps} reps — ${words}`;
-
+    const steps = ex.steps;
     const pct = r.pct;
     if (pct) {
       if (oneRm === undefined) {
@@ -242,8 +249,8 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
         );
       } else if (percent !== null && overCap(percent, pct.value)) {
         const capKg = (pct.value / 100) * oneRm;
-        const f = fit();
-        const fits = fitWords(f, (kg) => `${kg} fits on ${steps}`);
+        const f = fitFor(steps, r, oneRm);
+        const fits = fitWords(f, steps, 'steps');
         const planned = loadKg !== null ? show(loadKg) : `${num(percent)}%`;
         const limit = `max ${num(pct.value)}% of ${show(oneRm)} = ${showCap(capKg)}`;
         push(
@@ -253,7 +260,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           planned,
           fits,
           f,
-          `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fixSentence(f, fits)}.`,
+          `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fixSentence(f, fits, steps)}.`,
         );
       }
     }
@@ -271,8 +278,8 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           `${PATTERN_LABELS[abs.pattern]}: capped at ${showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
         );
       } else if (loadKg !== null && overCap(loadKg, abs.value)) {
-        const f = fit();
-        const fits = fitWords(f, (kg) => `${kg} fits on ${steps}`);
+        const f = fitFor(steps, r, oneRm);
+        const fits = fitWords(f, steps, 'steps');
         push(
           'absolute_load',
           abs.pattern,
@@ -280,7 +287,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           show(loadKg),
           fits,
           f,
-          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fixSentence(f, fits)}.`,
+          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fixSentence(f, fits, steps)}.`,
         );
       }
     }
@@ -316,9 +323,9 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
                 ? words
                 : `no % fits ${set.reps} reps — ${words}`;
         } else {
-          f = fit();
-          words = fitWords(f, (kg) => `${kg} × ${set.reps} fits`);
-          sentence = fixSentence(f, words);
+          f = fitFor(steps, r, oneRm);
+          words = fitWords(f, steps, 'reps');
+          sentence = fixSentence(f, words, steps);
         }
         push(
           'rpe',

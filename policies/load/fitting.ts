@@ -1,4 +1,4 @@
-import { estimateRpe } from './intensity';
+import { estimateRpe, percentForReps } from './intensity';
 import { heaviestPassing, MAX_LOAD_KG, type LoadSteps } from './steps';
 
 /**
@@ -80,8 +80,23 @@ export function suggestFit(steps: LoadSteps, reps: number, caps: LoadCaps): Fit 
   let upper = MAX_LOAD_KG;
   if (caps.pct !== null && caps.oneRmKg !== undefined) upper = Math.min(upper, (caps.pct / 100) * caps.oneRmKg);
   if (caps.abs !== null) upper = Math.min(upper, caps.abs);
-  const found = atRepsOrFewer(reps, (r) => heaviestPassing(steps, upper, (kg) => passesLoadCaps(kg, r, caps)), caps.rpe !== null);
+  const found = atRepsOrFewer(
+    reps,
+    (r) => heaviestPassing(steps, upper, (kg) => passesLoadCaps(kg, r, caps), likelyKg(r, upper, caps)),
+    caps.rpe !== null,
+  );
   return found && { kg: found.value, reps: found.reps };
+}
+
+/**
+ * Where the answer most likely is, so the search usually asks twice: the caps in kg, and for an RPE
+ * cap the load on the reps ↔ % line just short of where the estimate rounds up past the cap (the
+ * estimate is rounded to half steps, so it stays at the cap until a quarter rep more is needed).
+ */
+function likelyKg(reps: number, upper: number, caps: LoadCaps): number {
+  if (caps.rpe === null || caps.oneRmKg === undefined) return upper;
+  const pct = percentForReps(reps + (10 - caps.rpe) - 0.25);
+  return pct === null ? 0 : Math.min(upper, (pct / 100) * caps.oneRmKg * (1 - 1e-9));
 }
 
 /**

@@ -43,6 +43,11 @@ export function isHardSet(rpe: number | null, warmUp: boolean | undefined): bool
 /** Monday of the ISO week containing `date` (YYYY-MM-DD), on the calendar in UTC; a LoadInputError for a date that is not one. */
 export function weekOf(date: string): string {
   if (!isIsoDate(date)) throw new LoadInputError('date', 'out_of_range', `date must be a calendar day as YYYY-MM-DD, got ${String(date)}`);
+  return mondayOf(date);
+}
+
+/** weekOf for a date already known to be a calendar day (the engine checks each date once). */
+export function mondayOf(date: string): string {
   const d = new Date(`${date}T00:00:00Z`);
   const dow = (d.getUTCDay() + 6) % 7;
   d.setUTCDate(d.getUTCDate() - dow);

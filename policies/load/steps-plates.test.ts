@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { describeSteps, KETTLEBELL_KG, largestFitting, type LoadSteps } from './steps';
+import { describeSteps, heaviestPassing, KETTLEBELL_KG, largestFitting, type LoadSteps } from './steps';
 import { KG_PLATES, LB_PLATES, platesPerSide } from './plates';
 import { kgToLb, lbToKg } from './units';
 
@@ -61,6 +61,23 @@ describe('5 lb steps (NIST SP 811: 1 lb = 0.45359237 kg exactly)', () => {
     expect(largestFitting(0, twoAndHalfKg)).toBeNull();
     expect(largestFitting(-5, twoAndHalfKg)).toBeNull();
     expect(largestFitting(Number.NaN, twoAndHalfKg)).toBeNull();
+  });
+});
+
+describe('heaviestPassing (the search behind every suggested load)', () => {
+  it('a guess only speeds it up: with or without one, right or wrong, the answer is the same (property)', () => {
+    const stepsArb = fc.constantFrom<LoadSteps>(kettlebells, fiveLb, twoAndHalfKg);
+    fc.assert(
+      fc.property(
+        stepsArb,
+        fc.double({ min: 0, max: 400, noNaN: true }),
+        fc.double({ min: -10, max: 500, noNaN: true }),
+        (steps, limit, guess) => {
+          const ok = (kg: number) => kg <= limit;
+          expect(heaviestPassing(steps, 500, ok, guess)).toBe(heaviestPassing(steps, 500, ok));
+        },
+      ),
+    );
   });
 });
 

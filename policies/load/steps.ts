@@ -49,30 +49,42 @@ export function largestFitting(limitKg: number, steps: LoadSteps): number | null
 /**
  * The heaviest load on these steps, at most `upperKg` (plus one step, for rounding), for which `ok`
  * holds. `ok` must hold for every load below one it holds for (true for every cap the engine has:
- * a lighter load never breaks a cap a heavier one keeps), so a binary search finds it. On pound
- * steps `ok` must hold both for the load rounded to a micro-kilogram (what the engine suggests)
- * and for the exact multiple of the step (what the builder enters in pounds).
+ * a lighter load never breaks a cap a heavier one keeps), so a binary search finds it; `guessKg`,
+ * a likely answer, is tried first (two calls of `ok` when it is right). On pound steps `ok` must
+ * hold both for the load rounded to a micro-kilogram (what the engine suggests) and for the exact
+ * multiple of the step (what the builder enters in pounds).
  */
-export function heaviestPassing(steps: LoadSteps, upperKg: number, ok: (kg: number) => boolean): number | null {
+export function heaviestPassing(steps: LoadSteps, upperKg: number, ok: (kg: number) => boolean, guessKg?: number): number | null {
   if (!isFiniteNumber(upperKg) || upperKg < 0) return null;
   const upper = Math.min(upperKg, MAX_LOAD_KG);
   let count: number;
   let at: (i: number) => number;
+  let indexAtOrBelow: (kg: number) => number;
   let passes = ok;
   if (steps.kind === 'list') {
     const values = [...new Set((steps.valuesKg ?? []).filter((v) => isFiniteNumber(v) && v > 0 && v <= MAX_LOAD_KG))].sort((a, b) => a - b);
     count = values.length;
     at = (i) => values[i];
+    indexAtOrBelow = (kg) => values.filter((v) => v <= kg + EPS).length - 1;
   } else {
     const kg = stepKg(steps);
     if (kg === null) return null;
     count = Math.floor(upper / kg + EPS) + 1;
     at = (i) => stepValue(steps, i + 1);
+    indexAtOrBelow = (v) => Math.floor(v / kg + EPS) - 1;
     if (steps.unit === 'lb') passes = (v) => ok(v) && ok(Math.round(v / KG_PER_LB / steps.step) * steps.step * KG_PER_LB);
   }
-  // The largest index whose value passes, or -1.
+  // The largest index whose value passes lies in lo … hi − 1 (lo = −1: none passes).
   let lo = -1;
   let hi = count;
+  if (guessKg !== undefined && isFiniteNumber(guessKg)) {
+    const g = Math.min(count - 1, indexAtOrBelow(guessKg));
+    if (g >= 0) {
+      if (!passes(at(g))) hi = g;
+      else if (g + 1 >= count || !passes(at(g + 1))) return at(g);
+      else lo = g + 1;
+    }
+  }
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1;
     if (passes(at(mid))) lo = mid;
