@@ -68,7 +68,7 @@ const ctx = (plans: PlanInput[], baselines: Record<string, number> = {}, more: P
 });
 
 describe('checkSets', () => {
-  it('REFERENCES 9 (common practice rounding): 60% of a 140 kg 1RM = 84 kg; 87.5 kg breaches; 82.5 kg fits on 2.5 kg steps', () => {
+  it('a clinician cap of 60% of a 140 kg 1RM = 84 kg: 87.5 kg breaches; 82.5 kg fits on 2.5 kg steps (common practice: under a cap, round down)', () => {
     const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } }));
     const [b, ...rest] = checkSets([set({ load: { kind: 'kg', value: 87.5 }, targetRpe: 6 })], ctx(plans, { rdl: 140 }));
     expect(rest).toEqual([]);
@@ -118,8 +118,11 @@ describe('checkSets', () => {
     const [b] = checkSets([set({ exerciseId: 'squat', load: { kind: 'percent', value: 85 }, reps: 6 })], ctx(plans, { squat: 120 }));
     expect(b.rule).toBe('rpe');
     expect(b.planned).toBe('RPE 10 (estimated from 85% × 6)');
-    // RPE 7 with 6 reps = 9 reps possible → 77% (NSCA) of 120 = 92.4 kg → 92.5 kg on 2.5 kg steps would exceed; 90 kg fits.
-    expect(b.fittingKg).toBe(90);
+    // RPE 7 with 6 reps = 9 reps possible → 77% (NSCA) of 120 = 92.4 kg. The suggestion is the heaviest load the check
+    // itself lets through: 92.5 kg is 77.08%, 8.97 reps possible, RPE 7.03 → 7 on half steps; 95 kg reads 7.5.
+    expect(b.fittingKg).toBe(92.5);
+    expect(checkSets([set({ exerciseId: 'squat', load: { kind: 'kg', value: 92.5 }, reps: 6 })], ctx(plans, { squat: 120 }))).toEqual([]);
+    expect(checkSets([set({ exerciseId: 'squat', load: { kind: 'kg', value: 95 }, reps: 6 })], ctx(plans, { squat: 120 }))).toHaveLength(1);
     // No target and no baseline: unknown is never a pass.
     expect(checkSets([set({ exerciseId: 'squat', load: { kind: 'kg', value: 60 } })], ctx(plans)).map((x) => x.rule)).toEqual(['rpe']);
   });
@@ -154,7 +157,7 @@ describe('checkSets', () => {
   });
 });
 
-describe('largestFitting (round down under a cap, never to nearest — REFERENCES 9, common practice)', () => {
+describe('largestFitting (round down under a cap, never to nearest — common practice)', () => {
   const stepsArb = fc.oneof(
     fc.record({
       kind: fc.constant('increment' as const),

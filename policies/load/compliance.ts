@@ -1,69 +1,26 @@
 import type { Unit } from '../schemas/common';
+import type { Breach, BreachRule } from './breach';
+import { exerciseRules, type EngineExercise, type ExerciseRules } from './exercise-rules';
+import { overCap, percentOf, suggestFit, suggestPercent, type Fit, type LoadCaps } from './fitting';
+import { isFiniteNumber, isIsoDate } from './guard';
 import { inForceOn, type InForce, type PlanInput } from './in-force';
-import { estimateRpe, percentForReps } from './intensity';
-import { MOVEMENT_PATTERNS, PATTERN_LABELS, type MovementPattern, type ParticipationStatus, type PatternRule } from './patterns';
-import { describeSteps, largestFitting, type LoadSteps } from './steps';
-import { formatLoad, KG_PER_LB } from './units';
+import { estimateRpe } from './intensity';
+import { MOVEMENT_PATTERNS, PATTERN_LABELS, type MovementPattern, type ParticipationStatus } from './patterns';
+import { HARD_SET_RPE, isHardSet, mondayOf, plannedKg, type EngineSet } from './sets';
+import { describeSteps, type LoadSteps } from './steps';
+import { formatLoad } from './units';
 
 /**
  * The compliance engine: every planned set checked on its own date against the restriction plans
  * in force. Pure and shared: the server enforces it on publish, the client mirrors it while typing.
+ * The types and helpers it is built from live beside it and are re-exported here.
  */
-export interface EngineExercise {
-  id: string;
-  name: string;
-  patterns: MovementPattern[];
-  /** Ballistic or impact work (jumps, landings, throws, sprints). */
-  ballistic: boolean;
-  steps: LoadSteps;
-  /** The lift whose 1RM sets this exercise's intensity; itself when null. */
-  referenceId?: string | null;
-}
-
-export type PlannedLoad =
-  { kind: 'kg'; value: number } | { kind: 'lb'; value: number } | { kind: 'percent'; value: number } | { kind: 'bodyweight' };
-
-export interface EngineSet {
-  id: string;
-  sessionId: string;
-  date: string;
-  exerciseId: string;
-  reps: number;
-  load: PlannedLoad;
-  targetRpe?: number | null;
-  /** Position within its session, for "the sets beyond the cap". */
-  order: number;
-}
-
-export type BreachRule =
-  | 'status_out'
-  | 'blocked'
-  | 'impact'
-  | 'no_baseline'
-  | 'percent_1rm'
-  | 'absolute_load'
-  | 'rpe'
-  | 'reps_per_set'
-  | 'sets_per_session'
-  | 'hard_sets_per_week';
-
-export interface Breach {
-  setId: string;
-  sessionId: string;
-  date: string;
-  exerciseId: string;
-  rule: BreachRule;
-  pattern: MovementPattern | null;
-  /** The limit, the planned value and what would fit, in words (loads in the reader's unit). */
-  limit: string;
-  planned: string;
-  fits: string | null;
-  message: string;
-  /** The largest load that fits on the exercise's steps, kg, when a load cap was breached. */
-  fittingKg: number | null;
-  /** Covered by a granted exception: shown, but does not stop publishing. */
-  waived: boolean;
-}
+export type { Breach, BreachRule } from './breach';
+export { blockingBreaches } from './breach';
+export type { EngineExercise } from './exercise-rules';
+export { suggestSwaps } from './exercise-rules';
+export type { EngineSet, PlannedLoad } from './sets';
+export { HARD_SET_DEFINITION, HARD_SET_RPE, isHardSet, plannedKg, weekOf } from './sets';
 
 export interface EngineContext {
   plans: PlanInput[];
@@ -77,82 +34,7 @@ export interface EngineContext {
   unit?: Unit;
 }
 
-/**
- * A hard set, for the weekly limit: a working set to within three reps of failure, i.e. RPE ≥ 7
- * (common practice). A set whose RPE cannot be known (no target, no baseline) counts as hard.
- */
-export const HARD_SET_RPE = 7;
-
-/** Monday of the ISO week containing `date` (YYYY-MM-DD), computed on the calendar in UTC. */
-export function weekOf(date: string): string {
-  const d = new Date(`${date}T00:00:00Z`);
-  const dow = (d.getUTCDay() + 6) % 7;
-  d.setUTCDate(d.getUTCDate() - dow);
-  return d.toISOString().slice(0, 10);
-}
-
-export function plannedKg(load: PlannedLoad, oneRmKg: number | undefined): number | null {
-  switch (load.kind) {
-    case 'kg':
-      return load.value;
-    case 'lb':
-      return load.value * KG_PER_LB;
-    case 'percent':
-      return oneRmKg === undefined ? null : (load.value / 100) * oneRmKg;
-    case 'bodyweight':
-      return null;
-  }
-}
-
-type NumericCap = 'maxPercent1RM' | 'maxLoadKg' | 'maxRpe' | 'maxSetsPerSession' | 'maxRepsPerSet' | 'maxHardSetsPerWeek';
-
-/** The lowest value of one cap across the exercise's patterns, and the pattern it comes from. */
-function tightest(rules: [MovementPattern, PatternRule][], key: NumericCap): { value: number; pattern: MovementPattern } | null {
-  let best: { value: number; pattern: MovementPattern } | null = null;
-  for (const [p, r] of rules) {
-    const v = r.mode === 'capped' ? r.caps?.[key] : undefined;
-    if (v !== undefined && (!best || v < best.value)) best = { value: v, pattern: p };
-  }
-  return best;
-}
-
 const n = (v: number) => String(Number(v.toFixed(2)));
-
-const PATTERN_INDEX = new Map<MovementPattern, number>(MOVEMENT_PATTERNS.map((p, i) => [p, i]));
-
-/**
- * What the rules in force mean for one exercise. It depends only on the stages in force and the
- * exercise, so it is worked out once per (stages, exercise) pair instead of once per set.
- */
-interface ExerciseRules {
-  rules: [MovementPattern, PatternRule][];
-  blocked: MovementPattern | null;
-  impactOff: MovementPattern | null;
-  pct: { value: number; pattern: MovementPattern } | null;
-  abs: { value: number; pattern: MovementPattern } | null;
-  rpe: { value: number; pattern: MovementPattern } | null;
-  reps: { value: number; pattern: MovementPattern } | null;
-  /** The capped patterns in the exercise's order, each counted toward its own session and week limits. */
-  capped: { pattern: MovementPattern; index: number; maxSets: number | undefined; maxHard: number | undefined }[];
-}
-
-function exerciseRules(ex: EngineExercise, day: InForce): ExerciseRules {
-  const rules = ex.patterns.map((p) => [p, day.patterns[p]] as [MovementPattern, PatternRule]);
-  const capped: ExerciseRules['capped'] = [];
-  for (const [p, r] of rules)
-    if (r.mode === 'capped')
-      capped.push({ pattern: p, index: PATTERN_INDEX.get(p)!, maxSets: r.caps?.maxSetsPerSession, maxHard: r.caps?.maxHardSetsPerWeek });
-  return {
-    rules,
-    blocked: rules.find(([, r]) => r.mode === 'blocked')?.[0] ?? null,
-    impactOff: rules.find(([, r]) => r.mode === 'capped' && r.caps?.impactAllowed === false)?.[0] ?? null,
-    pct: tightest(rules, 'maxPercent1RM'),
-    abs: tightest(rules, 'maxLoadKg'),
-    rpe: tightest(rules, 'maxRpe'),
-    reps: tightest(rules, 'maxRepsPerSet'),
-    capped,
-  };
-}
 
 /** A pure function of its argument, remembered for the length of one check (messages repeat the same numbers). */
 function memo<K, V>(fn: (k: K) => V): (k: K) => V {
@@ -166,6 +48,16 @@ function memo<K, V>(fn: (k: K) => V): (k: K) => V {
 
 const bySessionThenOrder = (a: EngineSet, b: EngineSet) =>
   a.date < b.date ? -1 : a.date > b.date ? 1 : a.sessionId < b.sessionId ? -1 : a.sessionId > b.sessionId ? 1 : a.order - b.order;
+
+/** Why a set cannot be checked at all, in words; null when every field the check reads is usable. */
+function unreadable(set: EngineSet, validDate: (date: string) => boolean): string | null {
+  if (!validDate(set.date)) return 'its date is not a calendar day';
+  if (!isFiniteNumber(set.reps) || !Number.isInteger(set.reps) || set.reps < 1) return 'its reps are not a whole number of at least 1';
+  if (set.load.kind !== 'bodyweight' && (!isFiniteNumber(set.load.value) || set.load.value < 0)) return 'its load is not a number';
+  if (set.targetRpe != null && !(isFiniteNumber(set.targetRpe) && set.targetRpe >= 1 && set.targetRpe <= 10))
+    return 'its target RPE is not from 1 to 10';
+  return null;
+}
 
 /**
  * This loop is the hot path of every publish and of the builder's live check (a 16-week program is
@@ -204,6 +96,8 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
   };
 
   let date: string | null = null;
+  // Sets come sorted by date: a date is read once, when the loop moves to it (only valid dates become `date`).
+  const validDate = (d: string) => d === date || isIsoDate(d);
   let stages!: { day: InForce; exercises: Map<string, ExerciseRules> };
   let out = false;
   let week = '';
@@ -218,7 +112,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     limit: string,
     planned: string,
     fits: string | null,
-    fittingKg: number | null,
+    fit: Fit | null,
     message: string,
   ) =>
     breaches.push({
@@ -232,25 +126,68 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
       limit,
       planned,
       fits,
-      fittingKg,
+      fittingKg: fit?.kg ?? null,
+      ...(fit && fit.reps !== set.reps ? { fittingReps: fit.reps } : {}),
       message,
     });
+
+  // One fit per set, the load that passes all of its load caps, worked out at most once and only when
+  // one of them is breached. Helpers are made once per check, not per set: this loop is the hot path.
+  let fitted: { of: EngineSet; fit: Fit | null } | null = null;
+  const fitFor = (steps: LoadSteps, r: ExerciseRules, oneRm: number | undefined): Fit | null => {
+    if (fitted?.of !== set) {
+      const caps: LoadCaps = {
+        oneRmKg: oneRm,
+        pct: r.pct?.value ?? null,
+        abs: r.abs?.value ?? null,
+        rpe: set.targetRpe == null ? (r.rpe?.value ?? null) : null,
+      };
+      fitted = { of: set, fit: suggestFit(steps, set.reps, caps) };
+    }
+    return fitted.fit;
+  };
+  /** The fix in words: the fitting load at these reps (on the steps, or × reps), fewer reps when no load fits, or none. */
+  const fitWords = (f: Fit | null, steps: LoadSteps, form: 'steps' | 'reps'): string | null => {
+    if (f === null) return null;
+    if (f.reps !== set.reps) return `cut to ${f.reps} reps: ${show(f.kg)} × ${f.reps} fits`;
+    return form === 'steps' ? `${show(f.kg)} fits on ${describeSteps(steps)}` : `${show(f.kg)} × ${set.reps} fits`;
+  };
+  const fixSentence = (f: Fit | null, words: string | null, steps: LoadSteps): string =>
+    words === null
+      ? 'no load on this exercise fits — choose a lighter one'
+      : f!.reps === set.reps
+        ? words
+        : `no load on ${describeSteps(steps)} fits ${set.reps} reps — ${words}`;
 
   for (set of ordered) {
     const ex = ctx.exercises[set.exerciseId];
     if (!ex) continue;
+    waived = ctx.waivedSetIds?.has(set.id) ?? false;
+    const name = ex.name;
+    const problem = unreadable(set, validDate);
+    if (problem) {
+      // Unknown is never a pass: a set the engine cannot read is a breach, and nothing else is said of it.
+      push(
+        'unreadable',
+        null,
+        'a set the check can read',
+        name,
+        null,
+        null,
+        `${name}: this set cannot be checked: ${problem}. Fix the set.`,
+      );
+      continue;
+    }
     if (set.date !== date) {
       date = set.date;
       stages = dayOf(date);
       out = ctx.statusOn?.(date) === 'out';
-      week = weekOf(date);
+      week = mondayOf(date);
       weekCount = null;
     }
     const day = stages.day;
     let r = stages.exercises.get(ex.id);
     if (!r) stages.exercises.set(ex.id, (r = exerciseRules(ex, day)));
-    waived = ctx.waivedSetIds?.has(set.id) ?? false;
-    const name = ex.name;
 
     if (out && day.stages.length === 0) {
       push(
@@ -289,11 +226,15 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
       );
     }
 
-    const oneRm = ctx.baselines[ex.referenceId ?? ex.id];
+    const rawOneRm = ctx.baselines[ex.referenceId ?? ex.id];
+    // A 1RM that is not a positive number is no baseline at all.
+    const oneRm = isFiniteNumber(rawOneRm) && rawOneRm > 0 ? rawOneRm : undefined;
     const loadKg = plannedKg(set.load, oneRm);
-    const percent = set.load.kind === 'percent' ? set.load.value : loadKg !== null && oneRm ? (loadKg / oneRm) * 100 : null;
-    let limitKg = Infinity;
+    const percent = set.load.kind === 'percent' ? set.load.value : loadKg !== null ? percentOf(loadKg, oneRm) : null;
+    const estimated = set.targetRpe == null && percent !== null ? estimateRpe(percent, set.reps) : null;
+    const rpe = set.targetRpe ?? estimated;
 
+    const steps = ex.steps;
     const pct = r.pct;
     if (pct) {
       if (oneRm === undefined) {
@@ -306,30 +247,26 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           null,
           `${PATTERN_LABELS[pct.pattern]}: capped at ${num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`,
         );
-      } else {
+      } else if (percent !== null && overCap(percent, pct.value)) {
         const capKg = (pct.value / 100) * oneRm;
-        limitKg = Math.min(limitKg, capKg);
-        if (percent !== null && percent > pct.value + 1e-9) {
-          const fit = largestFitting(capKg, ex.steps);
-          const fits = fit === null ? null : `${show(fit)} fits on ${describeSteps(ex.steps)}`;
-          const planned = loadKg !== null ? show(loadKg) : `${num(percent)}%`;
-          const limit = `max ${num(pct.value)}% of ${show(oneRm)} = ${showCap(capKg)}`;
-          push(
-            'percent_1rm',
-            pct.pattern,
-            limit,
-            planned,
-            fits,
-            fit,
-            `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fits ?? 'no load on this exercise fits — choose a lighter one'}.`,
-          );
-        }
+        const f = fitFor(steps, r, oneRm);
+        const fits = fitWords(f, steps, 'steps');
+        const planned = loadKg !== null ? show(loadKg) : `${num(percent)}%`;
+        const limit = `max ${num(pct.value)}% of ${show(oneRm)} = ${showCap(capKg)}`;
+        push(
+          'percent_1rm',
+          pct.pattern,
+          limit,
+          planned,
+          fits,
+          f,
+          `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fixSentence(f, fits, steps)}.`,
+        );
       }
     }
 
     const abs = r.abs;
     if (abs) {
-      limitKg = Math.min(limitKg, abs.value);
       if (loadKg === null && set.load.kind === 'percent') {
         push(
           'no_baseline',
@@ -340,23 +277,21 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           null,
           `${PATTERN_LABELS[abs.pattern]}: capped at ${showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
         );
-      } else if (loadKg !== null && loadKg > abs.value + 1e-9) {
-        const fit = largestFitting(abs.value, ex.steps);
-        const fits = fit === null ? null : `${show(fit)} fits on ${describeSteps(ex.steps)}`;
+      } else if (loadKg !== null && overCap(loadKg, abs.value)) {
+        const f = fitFor(steps, r, oneRm);
+        const fits = fitWords(f, steps, 'steps');
         push(
           'absolute_load',
           abs.pattern,
           `max ${showCap(abs.value)}`,
           show(loadKg),
           fits,
-          fit,
-          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fits ?? 'no load on this exercise fits — choose a lighter one'}.`,
+          f,
+          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fixSentence(f, fits, steps)}.`,
         );
       }
     }
 
-    const estimated = set.targetRpe == null && percent !== null ? estimateRpe(percent, set.reps) : null;
-    const rpe = set.targetRpe ?? estimated;
     const rpeCap = r.rpe;
     if (rpeCap) {
       if (rpe === null) {
@@ -369,26 +304,43 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           null,
           `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${num(rpeCap.value)} or lower.`,
         );
-      } else if (rpe > rpeCap.value + 1e-9) {
-        // The heaviest load whose estimated RPE stays at the cap: reps + reps in reserve to failure.
-        const rpeLimitKg = oneRm !== undefined ? (percentForReps(set.reps + (10 - rpeCap.value)) / 100) * oneRm : null;
-        const fit = rpeLimitKg !== null && estimated !== null ? largestFitting(Math.min(rpeLimitKg, limitKg), ex.steps) : null;
+      } else if (overCap(rpe, rpeCap.value)) {
         const plannedWords = estimated !== null ? `RPE ${num(rpe)} (estimated from ${num(percent!)}% × ${set.reps})` : `RPE ${num(rpe)}`;
-        const fitWords = fit !== null ? `${show(fit)} × ${set.reps} fits` : `target RPE ${num(rpeCap.value)} or lower`;
+        let f: Fit | null = null;
+        let words: string | null;
+        let sentence: string;
+        if (estimated === null) {
+          // A target RPE is the coach's own reading of the set: the fix is a lower target, not a load.
+          words = sentence = `target RPE ${num(rpeCap.value)} or lower`;
+        } else if (oneRm === undefined) {
+          // A % load with no 1RM to turn it into kg: the fix can only be said as a %.
+          const p = suggestPercent(set.reps, rpeCap.value, r.pct?.value ?? null);
+          words = p === null ? null : `${p.reps === set.reps ? '' : `cut to ${p.reps} reps: `}${p.percent}% × ${p.reps} fits`;
+          sentence =
+            words === null
+              ? 'no load fits — choose a lighter exercise'
+              : p!.reps === set.reps
+                ? words
+                : `no % fits ${set.reps} reps — ${words}`;
+        } else {
+          f = fitFor(steps, r, oneRm);
+          words = fitWords(f, steps, 'reps');
+          sentence = fixSentence(f, words, steps);
+        }
         push(
           'rpe',
           rpeCap.pattern,
           `max RPE ${num(rpeCap.value)}`,
           plannedWords,
-          fitWords,
-          fit,
-          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: planned ${plannedWords}; ${fitWords}.`,
+          words,
+          f,
+          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: planned ${plannedWords}; ${sentence}.`,
         );
       }
     }
 
     const reps = r.reps;
-    if (reps && set.reps > reps.value) {
+    if (reps && overCap(set.reps, reps.value)) {
       push(
         'reps_per_set',
         reps.pattern,
@@ -405,7 +357,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
       sessionId = set.sessionId;
       sessionCount = countsFor(sessionCounts, sessionId);
     }
-    const hard = rpe === null || rpe >= HARD_SET_RPE;
+    const hard = isHardSet(rpe, set.warmUp);
     // Counted per pattern: a set of a two-pattern exercise counts toward both patterns' limits.
     for (const c of r.capped) {
       const sCount = ++sessionCount[c.index];
@@ -437,29 +389,4 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     }
   }
   return breaches;
-}
-
-/** Library exercises that would fit where `exercise` does not: no blocked pattern, no impact if impact is off. */
-export function suggestSwaps(
-  exercise: EngineExercise,
-  library: EngineExercise[],
-  day: Pick<InForce, 'patterns'>,
-  limit = 3,
-): EngineExercise[] {
-  const allowed = (e: EngineExercise) => {
-    const rules = e.patterns.map((p) => day.patterns[p]);
-    if (rules.some((r) => r.mode === 'blocked')) return false;
-    if (e.ballistic && rules.some((r) => r.mode === 'capped' && r.caps?.impactAllowed === false)) return false;
-    return true;
-  };
-  const shared = (e: EngineExercise) => e.patterns.filter((p) => exercise.patterns.includes(p)).length;
-  return library
-    .filter((e) => e.id !== exercise.id && allowed(e) && (shared(e) > 0 || e.patterns.length === 0))
-    .sort((a, b) => shared(b) - shared(a) || a.name.localeCompare(b.name))
-    .slice(0, limit);
-}
-
-/** A session may be published only when none of its breaches is unwaived. */
-export function blockingBreaches(breaches: Breach[]): Breach[] {
-  return breaches.filter((b) => !b.waived);
 }

@@ -29,7 +29,7 @@ describe('describeCaps: caps in plain words for athletes and guardians', () => {
     ]);
   });
 
-  it("a load cap is shown in the reader's unit: 20 kg reads 44.09 lb (NIST SP 811; REFERENCES §10)", () => {
+  it("a load cap is shown in the reader's unit: 20 kg reads 44.09 lb (NIST SP 811)", () => {
     expect(describeCaps({ maxLoadKg: 20 }, 'lb')).toEqual(['no more than 44.09 lb']);
   });
 

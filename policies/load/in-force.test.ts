@@ -24,11 +24,11 @@ describe('stageIssues: stage dates on their own and against each other', () => {
     ]);
   });
 
-  it('a one-day stage (start = end) is fine: a date-only end is inclusive (REFERENCES §12, HL7 FHIR R4 [secondary])', () => {
+  it('a one-day stage (start = end) is fine: a date-only end is inclusive (HL7 FHIR R4, confirmed only through a reproduction)', () => {
     expect(stageIssues([stage('2026-02-10', '2026-02-10')])).toEqual([]);
   });
 
-  it('stages that touch on one day overlap, because both ends are inclusive (REFERENCES §12, FHIR R4)', () => {
+  it('stages that touch on one day overlap, because both ends are inclusive (HL7 FHIR R4)', () => {
     const issues = stageIssues([stage('2026-02-01', '2026-02-10'), stage('2026-02-10', '2026-02-20')]);
     expect(issues).toHaveLength(1);
     expect(issues[0].path).toEqual([1, 'startDate']);
@@ -64,7 +64,7 @@ describe('stageOn: the stage in force on a date', () => {
     ['2026-01-04', null, 'the day before the plan'],
     ['2026-01-05', 0, 'the first day (inclusive start)'],
     ['2026-01-10', 0, 'inside stage 1'],
-    ['2026-01-18', 0, "stage 1's end date: a date-only end is still in force that day (REFERENCES §12, FHIR R4)"],
+    ['2026-01-18', 0, "stage 1's end date: a date-only end is still in force that day (HL7 FHIR R4)"],
     ['2026-01-19', null, 'the first day of the gap'],
     ['2026-01-24', null, 'the last day of the gap'],
     ['2026-01-25', 1, 'the first day of stage 2'],

@@ -1,3 +1,4 @@
+import { isFiniteNumber } from './guard';
 import { DEFAULT_PAIN_CEILING, MOVEMENT_PATTERNS, type Caps, type MovementPattern, type PatternRule } from './patterns';
 
 /** One stage of a restriction plan. Dates are 'YYYY-MM-DD'; both ends are inclusive. */
@@ -57,6 +58,19 @@ export function stageOn<S extends Pick<PlanStage, 'startDate' | 'endDate'>>(stag
 const MIN_CAPS = ['maxPercent1RM', 'maxLoadKg', 'maxRpe', 'maxSetsPerSession', 'maxRepsPerSet', 'maxHardSetsPerWeek'] as const;
 
 /**
+ * A cap that is not a finite number of 0 or more (stored data gone wrong) is read as 0, so that
+ * nothing passes it: compared with NaN every planned value would otherwise pass.
+ */
+function readCap(v: unknown): number {
+  return isFiniteNumber(v) && v >= 0 ? v : 0;
+}
+
+/** A pain ceiling is on the 0–10 scale (Silbernagel et al. 2007); one that cannot be read is 0, the strictest. */
+export function readPainCeiling(v: unknown): number {
+  return isFiniteNumber(v) ? Math.min(10, Math.max(0, v)) : 0;
+}
+
+/**
  * The most restrictive of several rules (StARRT: the most restrictive outcome decides — Shrier 2015,
  * BJSM 49:1311–1315): blocked beats capped beats free; among caps, the lowest number of each kind
  * wins, and impact is allowed only if every rule allows it.
@@ -68,7 +82,10 @@ export function mergeRules(rules: (PatternRule | undefined)[]): PatternRule {
   if (capped.length === 0) return { mode: 'free' };
   const caps: Caps = {};
   for (const key of MIN_CAPS) {
-    const values = capped.map((r) => r.caps?.[key]).filter((v): v is number => typeof v === 'number');
+    const values = capped
+      .map((r) => r.caps?.[key])
+      .filter((v) => v !== undefined && v !== null)
+      .map(readCap);
     if (values.length) caps[key] = Math.min(...values);
   }
   const impacts = capped.map((r) => r.caps?.impactAllowed).filter((v): v is boolean => typeof v === 'boolean');
@@ -102,7 +119,7 @@ export function inForceOn(plans: PlanInput[], date: string): InForce {
   }
   const patterns = {} as Record<MovementPattern, PatternRule>;
   for (const p of MOVEMENT_PATTERNS) patterns[p] = mergeRules(stages.map((s) => s.stage.patterns[p]));
-  const painCeiling = stages.length ? Math.min(...stages.map((s) => s.stage.painCeiling)) : DEFAULT_PAIN_CEILING;
+  const painCeiling = stages.length ? Math.min(...stages.map((s) => readPainCeiling(s.stage.painCeiling))) : DEFAULT_PAIN_CEILING;
   const restricted = MOVEMENT_PATTERNS.some((p) => patterns[p].mode !== 'free');
   return { date, stages, patterns, painCeiling, restricted };
 }

@@ -1,3 +1,4 @@
+export * from './guard';
 export * from './patterns';
 export * from './units';
 export * from './in-force';
@@ -9,4 +10,8 @@ export * from './one-rm';
 export * from './intensity';
 export * from './steps';
 export * from './plates';
+export * from './sets';
+export * from './breach';
+export * from './exercise-rules';
+export * from './fitting';
 export * from './compliance';

@@ -4,12 +4,12 @@ import { DEFAULT_PAIN_CEILING } from './patterns';
 
 const kinds = (r: ReturnType<typeof evaluatePain>) => r.flags.map((f) => f.kind);
 
-describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; REFERENCES §6)', () => {
+describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; thresholds confirmed only through a reproduction)', () => {
   it('the default ceiling during activity is 5 (Silbernagel et al. 2007)', () => {
     expect(DEFAULT_PAIN_CEILING).toBe(5);
   });
 
-  it('4 during and next morning at baseline → keep, no flags (REFERENCES §6 check 1)', () => {
+  it('4 during and next morning at baseline → keep, no flags (Silbernagel et al. 2007)', () => {
     const r = evaluatePain({ during: 4, before: 2, nextMorning: 2 });
     expect(r.action).toBe('keep');
     expect(r.flags).toEqual([]);
@@ -20,7 +20,7 @@ describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; REF
     expect(evaluatePain({ during: 5, before: 0, nextMorning: null }).action).toBe('keep');
   });
 
-  it('6 during with the default ceiling → reduce, and the athlete is told to stop the set (REFERENCES §6 check 2)', () => {
+  it('6 during with the default ceiling → reduce, and the athlete is told to stop the set (Silbernagel et al. 2007)', () => {
     const r = evaluatePain({ during: 6, before: 1, nextMorning: null });
     expect(r.action).toBe('reduce');
     expect(kinds(r)).toEqual(['during_over_ceiling']);
@@ -30,7 +30,7 @@ describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; REF
     expect(r.athleteMessage).toContain('5/10');
   });
 
-  it('3 during but next morning 2 above baseline → reduce (REFERENCES §6 check 3)', () => {
+  it('3 during but next morning 2 above baseline → reduce (Silbernagel et al. 2007)', () => {
     const r = evaluatePain({ during: 3, before: 1, nextMorning: 3 });
     expect(r.action).toBe('reduce');
     expect(kinds(r)).toEqual(['next_morning_above_baseline']);
@@ -44,7 +44,7 @@ describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; REF
     expect(evaluatePain({ during: 3, before: 2, nextMorning: 2 }).action).toBe('keep');
   });
 
-  it('a clinician ceiling of 3 makes 4 during a breach (REFERENCES §6: for the back the clinician sets the ceiling, often lower)', () => {
+  it('a clinician ceiling of 3 makes 4 during a breach (Silbernagel et al. 2007 was built for tendon and knee pain: for the back the clinician sets the ceiling, often lower)', () => {
     const r = evaluatePain({ ceiling: 3, during: 4, before: 0, nextMorning: null });
     expect(r.action).toBe('reduce');
     expect(r.flags[0].message).toContain('ceiling of 3');
@@ -53,7 +53,7 @@ describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; REF
     expect(evaluatePain({ during: 4, before: 0, nextMorning: null }).action).toBe('keep');
   });
 
-  it('a higher clinician ceiling (7) lets 6 during pass (REFERENCES §6)', () => {
+  it('a higher clinician ceiling (7) lets 6 during pass (Silbernagel et al. 2007, with the ceiling the clinician sets)', () => {
     expect(evaluatePain({ ceiling: 7, during: 6, before: 0, nextMorning: null }).action).toBe('keep');
   });
 
@@ -68,7 +68,7 @@ describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; REF
     expect(evaluatePain({ during: 2, before: null, nextMorning: 6 }).action).toBe('keep');
   });
 
-  it('all three breaches at once are each flagged, and "stop the set" leads (REFERENCES §6)', () => {
+  it('all three breaches at once are each flagged, and "stop the set" leads (Silbernagel et al. 2007)', () => {
     const r = evaluatePain({ during: 7, before: 1, nextMorning: 4, weeklyMeans: [2, 3, 4] });
     expect(kinds(r).sort()).toEqual(['during_over_ceiling', 'next_morning_above_baseline', 'rising_trend']);
     expect(r.athleteMessage).toMatch(/^Stop the set/);

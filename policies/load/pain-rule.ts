@@ -1,3 +1,4 @@
+import { requireInRange } from './guard';
 import { DEFAULT_PAIN_CEILING } from './patterns';
 
 /**
@@ -29,16 +30,33 @@ export interface PainRuleResult {
 
 /**
  * A rising trend: each of the last three weekly means is higher than the one before (common
- * practice reading of "no rising trend week to week"; two weeks are not a trend).
+ * practice reading of "no rising trend week to week"; two weeks are not a trend). Each mean is on
+ * the 0–10 scale; one that is not is a LoadInputError.
  */
 export function isRisingTrend(weeklyMeans: number[]): boolean {
+  weeklyMeans.forEach((m, i) => requireInRange(`weekly mean ${i + 1}`, m, 0, 10));
   if (weeklyMeans.length < 3) return false;
   const [a, b, c] = weeklyMeans.slice(-3);
   return b > a && c > b;
 }
 
-export function evaluatePain(input: PainRuleInput): PainRuleResult {
-  const ceiling = input.ceiling ?? DEFAULT_PAIN_CEILING;
+/** A pain score or ceiling on the 0–10 scale, or null for "not reported"; anything else is a LoadInputError. */
+function painScore(field: string, v: number | null): number | null {
+  return v === null ? null : requireInRange(field, v, 0, 10);
+}
+
+/**
+ * The rule's verdict. Every score is on the 0–10 numeric rating scale: a score or ceiling that is not
+ * a number, or is off the scale, is a LoadInputError (cannot compute) rather than a silent "keep".
+ */
+export function evaluatePain(raw: PainRuleInput): PainRuleResult {
+  const ceiling = requireInRange('pain ceiling', raw.ceiling ?? DEFAULT_PAIN_CEILING, 0, 10);
+  const input: PainRuleInput = {
+    during: painScore('pain during', raw.during),
+    before: painScore('pain before', raw.before),
+    nextMorning: painScore('next-morning pain', raw.nextMorning),
+    weeklyMeans: raw.weeklyMeans,
+  };
   const flags: PainRuleResult['flags'] = [];
   if (input.during !== null && input.during > ceiling) {
     flags.push({ kind: 'during_over_ceiling', message: `Pain during training was ${input.during}/10, above the ceiling of ${ceiling}.` });

@@ -1,3 +1,5 @@
+import { isInRange } from './guard';
+
 /**
  * Plates per side for a barbell load: the fewest plates that make it exactly, else the closest under
  * it. kg: IWF discs 25…0.5 kg (secondary source) plus the 1.25 kg fractional plate most gyms have
@@ -17,9 +19,19 @@ export interface PlateLoading {
   shortBy: number;
 }
 
-export function platesPerSide(target: number, unit: 'kg' | 'lb', opts: { bar?: number; collarsEach?: number } = {}): PlateLoading {
+/** The heaviest bar load the helper works out: 1000 kg (PlannedLoadSchema's limit), or 2205 lb, about the same. */
+export const MAX_PLATE_TARGET = { kg: 1000, lb: 2205 } as const;
+
+/**
+ * Null (cannot compute) when the target is not a finite number from 0 to the maximum, the unit is
+ * not kg or lb, or the bar or collars are not finite numbers of 0 or more.
+ */
+export function platesPerSide(target: number, unit: 'kg' | 'lb', opts: { bar?: number; collarsEach?: number } = {}): PlateLoading | null {
+  if (unit !== 'kg' && unit !== 'lb') return null;
+  if (!isInRange(target, 0, MAX_PLATE_TARGET[unit])) return null;
   const bar = opts.bar ?? (unit === 'kg' ? 20 : 45);
   const collarsEach = opts.collarsEach ?? 0;
+  if (!isInRange(bar, 0, MAX_PLATE_TARGET[unit]) || !isInRange(collarsEach, 0, MAX_PLATE_TARGET[unit])) return null;
   const plates = unit === 'kg' ? KG_PLATES : LB_PLATES;
   const side = (target - bar - 2 * collarsEach) / 2;
   const perSide = fewestPlates(side, plates);

@@ -2,9 +2,15 @@ import type { ParticipationStatus } from './patterns';
 
 const SEVERITY: Record<ParticipationStatus, number> = { full: 0, limited: 1, out: 2 };
 
-/** The most restrictive status wins when an athlete has several open cases. */
+/**
+ * The most restrictive status wins when an athlete has several open cases. A status that is not one
+ * of the three (stored data gone wrong) reads as Out: an unknown status is never a pass.
+ */
 export function mostRestrictive(statuses: ParticipationStatus[]): ParticipationStatus {
-  return statuses.reduce<ParticipationStatus>((acc, s) => (SEVERITY[s] > SEVERITY[acc] ? s : acc), 'full');
+  return statuses.reduce<ParticipationStatus>((acc, s) => {
+    const known: ParticipationStatus = Object.hasOwn(SEVERITY, s) ? s : 'out';
+    return SEVERITY[known] > SEVERITY[acc] ? known : acc;
+  }, 'full');
 }
 
 /** One participation-status decision on an open case. */

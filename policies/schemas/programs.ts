@@ -119,6 +119,8 @@ export const PlannedSetSchema = z.strictObject({
     .max(100, { message: 'must be at most 100' }),
   load: PlannedLoadSchema,
   targetRpe: SetRpeSchema.nullable().optional(),
+  /** A warm-up: checked against every cap, but not counted as a hard set. Absent means a working set. */
+  warmUp: z.boolean({ message: 'must be yes or no' }).optional(),
   restSeconds: z.number().int().min(0).max(1800, { message: 'must be at most 1800 s' }).nullable().optional(),
   notes: z.string().trim().max(300).nullable().optional(),
 });

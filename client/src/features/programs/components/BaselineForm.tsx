@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { Controller, useForm, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { BaselineDto, ExerciseDto } from '../../../../../policies/dto';
-import { estimateOneRm } from '../../../../../policies/load/one-rm';
+import { estimateOneRm, oneRmProblem, type OneRmEstimate } from '../../../../../policies/load/one-rm';
 import { formatLoad, fromUnit } from '../../../../../policies/load/units';
 import { BaselineCreateSchema, type BaselineCreateInput, type Unit } from '../../../../../policies/schemas';
 import { Button } from '../../../components/ui/Button';
@@ -34,6 +34,28 @@ function toPayload(v: BaselineFormValues, unit: Unit): BaselineCreateInput {
   };
 }
 
+type Preview = { estimate: OneRmEstimate; done: number; rir: number } | { sentence: string };
+
+/**
+ * What the live preview shows: the estimate, or a sentence saying what is missing or cannot be read
+ * (an RPE of 0 or "abc" is said in words, never shown as NaN). The same checks as estimateOneRm.
+ */
+function previewOf(
+  kind: BaselineFormValues['kind'],
+  load: number | undefined,
+  reps: number | undefined,
+  rpe: number | undefined,
+  unit: Unit,
+): Preview {
+  if (load === undefined) return { sentence: `Type a load${kind === 'estimated' ? ' and reps' : ''} to see the 1RM.` };
+  const loadKg = fromUnit(load, unit);
+  const done = kind === 'tested' ? 1 : (reps ?? Number.NaN);
+  const problem = oneRmProblem(loadKg, done, kind === 'tested' ? null : (rpe ?? null), 'epley');
+  const estimate = problem ? null : estimateOneRm(loadKg, done, kind === 'tested' ? null : (rpe ?? null), 'epley');
+  if (!estimate) return { sentence: problem?.message ?? 'The 1RM cannot be estimated from these numbers.' };
+  return { estimate, done, rir: estimate.reps - done };
+}
+
 /** The shared schema, on exactly what would be sent; loadKg's message goes to the Load field. */
 function resolverFor(unit: Unit): Resolver<BaselineFormValues, unknown, BaselineCreateInput> {
   const schema = zodResolver(BaselineCreateSchema);
@@ -51,7 +73,8 @@ function resolverFor(unit: Unit): Resolver<BaselineFormValues, unknown, Baseline
 
 /**
  * A tested 1RM (one rep) or a set to estimate it from. The Epley estimate (reps in reserve added when
- * an RPE is given) shows as the numbers are typed — the server works it out the same way.
+ * an RPE is given) shows as the numbers are typed — the server works it out the same way — or, when
+ * the numbers cannot give one, a sentence saying why.
  */
 export function BaselineForm({
   orgId,
@@ -74,14 +97,7 @@ export function BaselineForm({
     defaultValues: { exerciseId: library[0]?.id ?? '', kind: 'estimated', load: '', reps: '5', rpe: '', testedOn: todayLocal() },
   });
   const [kind, load, reps, rpe] = useWatch({ control, name: ['kind', 'load', 'reps', 'rpe'] });
-  const loadValue = num(load ?? '');
-  const estimate =
-    loadValue !== undefined && loadValue > 0
-      ? kind === 'tested'
-        ? { value: fromUnit(loadValue, unit), reps: 1, lowReliability: false }
-        : estimateOneRm(fromUnit(loadValue, unit), num(reps ?? '') ?? NaN, num(rpe ?? '') ?? null, 'epley')
-      : null;
-  const rir = kind === 'estimated' && num(rpe ?? '') !== undefined ? Math.max(0, 10 - (num(rpe ?? '') ?? 10)) : 0;
+  const preview = previewOf(kind, num(load ?? ''), num(reps ?? ''), num(rpe ?? ''), unit);
 
   const onSubmit = handleSubmit((input) => record.mutate(input, { onSuccess: onSaved }));
 
@@ -141,25 +157,25 @@ export function BaselineForm({
         )}
       </div>
       <p aria-live="polite" className="text-sm tabular-nums">
-        {estimate ? (
+        {'estimate' in preview ? (
           <>
             <span className="font-semibold">
-              {kind === 'tested' ? '1RM' : 'Estimated 1RM'}: {formatLoad(estimate.value, unit)}
+              {kind === 'tested' ? '1RM' : 'Estimated 1RM'}: {formatLoad(preview.estimate.value, unit)}
             </span>
             {kind === 'estimated' && (
               <span className="text-ink-2">
                 {' '}
-                (Epley, {estimate.reps} reps{rir > 0 ? ` — ${num(reps ?? '')} done + ${rir} in reserve` : ''})
+                (Epley, {preview.estimate.reps} reps{preview.rir > 0 ? ` — ${preview.done} done + ${preview.rir} in reserve` : ''})
               </span>
             )}
-            {estimate.lowReliability && (
+            {preview.estimate.lowReliability && (
               <span className="block font-semibold text-line-deep">
                 ▲ Low reliability: estimates from more than 10 reps can be far off. A heavier set gives a better number.
               </span>
             )}
           </>
         ) : (
-          <span className="text-muted">Type a load{kind === 'estimated' ? ' and reps' : ''} to see the 1RM.</span>
+          <span className="text-muted">{preview.sentence}</span>
         )}
       </p>
       {record.isError && <ErrorNotice error={record.error} />}

@@ -12,7 +12,8 @@ export interface SetBreach {
 
 /**
  * A set's breaches in the engine's (or server's) own words — the cap, the limit, the planned value
- * and what fits — each with its one-click fix: the load that fits, or an exercise that is allowed.
+ * and what fits — each with its one-click fix: the load that fits (with fewer reps when no load fits
+ * the planned ones), or an exercise that is allowed.
  * Deliberately not an alert: it updates on every keystroke.
  */
 export function BreachList({
@@ -26,7 +27,8 @@ export function BreachList({
   items: SetBreach[];
   exercise?: ExerciseDto;
   swapsFor?: (item: SetBreach) => EngineExercise[];
-  onUseLoad?: (value: number, unit: 'kg' | 'lb') => void;
+  /** Applies a fix: the load, and the reps when the fix is to cut them. */
+  onUseLoad?: (value: number, unit: 'kg' | 'lb', reps?: number) => void;
   onSwap?: (exerciseId: string) => void;
   label?: string;
 }) {
@@ -59,8 +61,10 @@ export function BreachList({
             {(fix || swaps.length > 0) && (
               <div className="mt-1 flex flex-wrap gap-2 pl-5">
                 {fix && onUseLoad && (
-                  <Button size="sm" variant="secondary" onClick={() => onUseLoad(fix.value, fix.unit)}>
-                    Use {fix.value} {fix.unit}
+                  <Button size="sm" variant="secondary" onClick={() => onUseLoad(fix.value, fix.unit, breach.fittingReps)}>
+                    {breach.fittingReps !== undefined
+                      ? `Use ${breach.fittingReps} reps at ${fix.value} ${fix.unit}`
+                      : `Use ${fix.value} ${fix.unit}`}
                   </Button>
                 )}
                 {onSwap &&

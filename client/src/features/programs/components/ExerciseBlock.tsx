@@ -28,6 +28,7 @@ export function ExerciseBlock({
   onMove,
   onRemove,
   readOnly,
+  hardSetHelpId,
 }: {
   index: number;
   count: number;
@@ -40,6 +41,8 @@ export function ExerciseBlock({
   onMove: (to: number) => void;
   onRemove: () => void;
   readOnly?: boolean;
+  /** The id of the builder's definition of a hard set, which each set's warm-up box points to. */
+  hardSetHelpId?: string;
 }) {
   const { control, register, setValue, getValues } = useFormContext<SessionForm>();
   const { fields, append, remove } = useFieldArray({ control, name: `exercises.${index}.sets` });
@@ -102,6 +105,7 @@ export function ExerciseBlock({
               onSwap={(id) => setValue(`exercises.${index}.exerciseId`, id, { shouldDirty: true })}
               onRemove={fields.length > 1 ? () => remove(j) : null}
               readOnly={readOnly}
+              hardSetHelpId={hardSetHelpId}
             />
           );
         })}

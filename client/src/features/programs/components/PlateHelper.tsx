@@ -6,11 +6,13 @@ const n = (v: number) => String(Number(v.toFixed(2)));
 
 /**
  * What to put on each side of the bar for a load, in the lifter's own plates: kg plates on a 20 kg
- * bar for kg users, lb plates on a 45 lb bar for lb users. No collars counted.
+ * bar for kg users, lb plates on a 45 lb bar for lb users. No collars counted. A load the helper
+ * cannot read (not a number, over 1000 kg) gets a sentence, never NaN.
  */
 export function PlateHelper({ loadKg, unit }: { loadKg: number; unit: Unit }) {
   const target = toUnit(loadKg, unit);
   const loading = platesPerSide(target, unit);
+  if (!loading) return <p className="text-sm text-ink-2">The plates for this load cannot be worked out: check the planned load.</p>;
   if (target < loading.bar)
     return (
       <p className="text-sm text-ink-2">

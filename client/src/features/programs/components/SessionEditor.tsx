@@ -1,7 +1,7 @@
 import { useId, useMemo, useState } from 'react';
 import { FormProvider, useFieldArray, useForm, useWatch } from 'react-hook-form';
 import type { ExceptionDto, ExerciseDto, ProgramSessionDto } from '../../../../../policies/dto';
-import { blockingBreaches, suggestSwaps } from '../../../../../policies/load/compliance';
+import { blockingBreaches, HARD_SET_DEFINITION, suggestSwaps } from '../../../../../policies/load/compliance';
 import { inForceOn, ruleForPatterns } from '../../../../../policies/load/in-force';
 import type { SessionCreateInput, Unit } from '../../../../../policies/schemas';
 import { isApiError } from '../../../lib/api-client';
@@ -56,6 +56,7 @@ export function SessionEditor({
 }: SessionEditorProps) {
   const headingId = useId();
   const formId = useId();
+  const hardSetHelpId = useId();
   const [base, setBase] = useState(session);
   const [refusal, setRefusal] = useState<Refusal | null>(null);
   const [conflict, setConflict] = useState(false);
@@ -245,6 +246,10 @@ export function SessionEditor({
           aria-label={`Exercises of ${base.title}`}
           className="space-y-3"
         >
+          {/* The engine's meaning of "hard set", on screen where the weekly limit and the warm-up boxes are used. */}
+          <p id={hardSetHelpId} className="text-sm text-ink-2">
+            {HARD_SET_DEFINITION}
+          </p>
           {fields.length === 0 ? (
             <p className="rounded-md border border-dashed border-rule-strong px-3 py-4 text-sm text-ink-2">
               No exercise yet. Add one from the library below.
@@ -266,6 +271,7 @@ export function SessionEditor({
                     swapsFor={swapsFor}
                     onMove={(to) => move(i, to)}
                     onRemove={() => remove(i)}
+                    hardSetHelpId={hardSetHelpId}
                   />
                 );
               })}

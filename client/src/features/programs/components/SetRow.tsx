@@ -1,3 +1,4 @@
+import { useId } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
 import type { ExerciseDto } from '../../../../../policies/dto';
 import type { EngineExercise } from '../../../../../policies/load/compliance';
@@ -18,8 +19,9 @@ export interface SetLine {
 const shown = (n: number) => String(Number(n.toFixed(2)));
 
 /**
- * One planned set: reps, load and its unit, target RPE, rest, notes — then the line it must stay
- * under and, when it crosses, the breaches with their fixes. Named "Set N of <exercise>".
+ * One planned set: reps, load and its unit, target RPE, rest, notes, the warm-up mark — then the
+ * line it must stay under and, when it crosses, the breaches with their fixes. Named "Set N of
+ * <exercise>". The warm-up box points to the builder's definition of a hard set (`hardSetHelpId`).
  */
 export function SetRow({
   exerciseIndex,
@@ -34,6 +36,7 @@ export function SetRow({
   onSwap,
   onRemove,
   readOnly,
+  hardSetHelpId,
 }: {
   exerciseIndex: number;
   setIndex: number;
@@ -47,6 +50,7 @@ export function SetRow({
   onSwap: (exerciseId: string) => void;
   onRemove: (() => void) | null;
   readOnly?: boolean;
+  hardSetHelpId?: string;
 }) {
   const { register, setValue, getFieldState, formState, control } = useFormContext<SessionForm>();
   const base = `exercises.${exerciseIndex}.sets.${setIndex}` as const;
@@ -54,10 +58,13 @@ export function SetRow({
   const error = (field: 'reps' | 'load' | 'loadUnit' | 'targetRpe' | 'rest' | 'notes') =>
     getFieldState(`${base}.${field}`, formState).error?.message;
   const loadUnit = useWatch({ control, name: `${base}.loadUnit` });
+  const warmUpId = useId();
 
-  function applyLoad(value: number, fixUnit: 'kg' | 'lb') {
+  /** The breach's fix: the load that fits, and fewer reps when no load fits the planned ones. */
+  function applyFix(value: number, fixUnit: 'kg' | 'lb', reps?: number) {
     setValue(`${base}.loadUnit`, fixUnit, { shouldDirty: true });
     setValue(`${base}.load`, String(value), { shouldDirty: true, shouldValidate: formState.isSubmitted });
+    if (reps !== undefined) setValue(`${base}.reps`, String(reps), { shouldDirty: true, shouldValidate: formState.isSubmitted });
   }
 
   return (
@@ -87,6 +94,18 @@ export function SetRow({
         </SelectField>
         <TextField label="Target RPE" inputMode="decimal" className="w-20" error={error('targetRpe')} {...register(`${base}.targetRpe`)} />
         <TextField label="Rest (s)" inputMode="numeric" className="w-20" error={error('rest')} {...register(`${base}.rest`)} />
+        <div className="flex items-center gap-2 pb-2.5">
+          <input
+            id={warmUpId}
+            type="checkbox"
+            className="size-5 shrink-0 accent-ink"
+            aria-describedby={hardSetHelpId}
+            {...register(`${base}.warmUp`)}
+          />
+          <label htmlFor={warmUpId} className="text-sm font-semibold">
+            Warm-up
+          </label>
+        </div>
         <TextField label="Set notes" className="min-w-[8rem] flex-1" error={error('notes')} {...register(`${base}.notes`)} />
         {onRemove && !readOnly && (
           <Button size="sm" variant="quiet" className="mb-2" onClick={onRemove} aria-label={`Remove set ${n} of ${exerciseName}`}>
@@ -115,7 +134,7 @@ export function SetRow({
           items={breaches}
           exercise={exercise}
           swapsFor={swapsFor}
-          onUseLoad={readOnly ? undefined : applyLoad}
+          onUseLoad={readOnly ? undefined : applyFix}
           onSwap={readOnly ? undefined : onSwap}
         />
       </div>

@@ -6,9 +6,9 @@ import {
   type Breach,
   type EngineContext,
   type EngineExercise,
-  type EngineSet,
   type PlannedLoad,
 } from '../../../../../policies/load/compliance';
+import { sessionEngineSets, setFingerprintText } from '../../../../../policies/load/sets';
 import { inForceOn, ruleForPatterns, type PlanInput } from '../../../../../policies/load/in-force';
 import type { ParticipationStatus } from '../../../../../policies/load/patterns';
 import { statusOnDate, type StatusChangeInput } from '../../../../../policies/load/status-on';
@@ -38,39 +38,13 @@ export function engineLibrary(library: ExerciseDto[]): Record<string, EngineExer
   return Object.fromEntries(library.map((e) => [e.id, toEngineExercise(e)]));
 }
 
-/** A session's sets in the engine's shape, numbered in session order (as the server does). */
-export function engineSets(session: { id: string; date: string; content: SessionContent }): EngineSet[] {
-  const out: EngineSet[] = [];
-  let order = 0;
-  for (const ex of session.content.exercises) {
-    for (const s of ex.sets) {
-      out.push({
-        id: s.id,
-        sessionId: session.id,
-        date: session.date,
-        exerciseId: ex.exerciseId,
-        reps: s.reps,
-        load: s.load,
-        targetRpe: s.targetRpe ?? null,
-        order: order++,
-      });
-    }
-  }
-  return out;
-}
-
-/** What a granted exception is tied to: the set as granted (exercise, date, reps, load, RPE). */
-export function setFingerprint(
-  exerciseId: string,
-  set: { reps: number; load: PlannedLoad; targetRpe?: number | null },
-  date: string,
-): string {
-  return JSON.stringify([exerciseId, date, set.reps, set.load, set.targetRpe ?? null]);
-}
-
+/**
+ * What a granted exception is tied to, per set id: the set as granted (policies' setFingerprintText,
+ * which the server hashes), so an edit since the grant is checked afresh.
+ */
 export function fingerprints(session: { date: string; content: SessionContent }): Map<string, string> {
   const out = new Map<string, string>();
-  for (const ex of session.content.exercises) for (const s of ex.sets) out.set(s.id, setFingerprint(ex.exerciseId, s, session.date));
+  for (const ex of session.content.exercises) for (const s of ex.sets) out.set(s.id, setFingerprintText(ex.exerciseId, s, session.date));
   return out;
 }
 
@@ -100,7 +74,7 @@ export function liveBreaches({ session, engine, exercises, unit, waived }: LiveC
     waivedSetIds: waived,
     unit,
   };
-  const sets = [...engineSets(session), ...others.flatMap(engineSets)];
+  const sets = [...sessionEngineSets(session), ...others.flatMap(sessionEngineSets)];
   return checkSets(sets, ctx).filter((b) => b.sessionId === session.id);
 }
 

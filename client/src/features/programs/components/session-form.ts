@@ -21,6 +21,8 @@ export interface SetForm {
   targetRpe: string;
   rest: string;
   notes: string;
+  /** Marked as a warm-up: checked like any set, not counted as a hard set. */
+  warmUp: boolean;
 }
 
 export interface ExerciseForm {
@@ -54,15 +56,20 @@ export function sessionToForm(session: Pick<ProgramSessionDto, 'date' | 'title' 
         targetRpe: text(s.targetRpe),
         rest: text(s.restSeconds),
         notes: s.notes ?? '',
+        warmUp: s.warmUp ?? false,
       })),
     })),
   };
 }
 
+/**
+ * A new set copies the one before it, except the warm-up mark: a set added after the warm-ups is a
+ * working set unless the coach says otherwise, so it is never left out of the hard-set count by accident.
+ */
 export function blankSet(unit: Unit, previous?: SetForm): SetForm {
   return previous
-    ? { ...previous, setId: crypto.randomUUID() }
-    : { setId: crypto.randomUUID(), reps: '5', load: '', loadUnit: unit, targetRpe: '', rest: '', notes: '' };
+    ? { ...previous, setId: crypto.randomUUID(), warmUp: false }
+    : { setId: crypto.randomUUID(), reps: '5', load: '', loadUnit: unit, targetRpe: '', rest: '', notes: '', warmUp: false };
 }
 
 export function blankExercise(exerciseId: string, unit: Unit): ExerciseForm {
@@ -96,6 +103,8 @@ export function formToContent(form: SessionForm): SessionContent {
         targetRpe: numberOrUndefined(s.targetRpe) ?? null,
         restSeconds: numberOrUndefined(s.rest) ?? null,
         notes: trimmedOrNull(s.notes),
+        // Sent only when marked, so an unmarked set's content stays as it was before warm-ups existed.
+        ...(s.warmUp ? { warmUp: true } : {}),
       })),
     })),
   };
@@ -136,6 +145,7 @@ const SET_FIELDS: Record<string, keyof SetForm> = {
   targetRpe: 'targetRpe',
   restSeconds: 'rest',
   notes: 'notes',
+  warmUp: 'warmUp',
 };
 
 /** Moves errors from the API's names (content.exercises.0.sets.1.load.value) to the form's. */

@@ -90,9 +90,10 @@ export function AcuteChronicNote({ acuteChronic }: { acuteChronic: WorkloadDto['
         </p>
       )}
       <p className="mt-2 max-w-prose text-sm text-muted">
-        Exponentially weighted averages of daily load over 7 and 28 days (Williams et al. 2017). This describes how much the load changed;
-        it is <strong>not an injury-risk score</strong>. The ratio and the &ldquo;safe zone&rdquo; bands often quoted with it have been
-        criticised as mathematically coupled and not predictive of injury (Impellizzeri et al. 2020, Sports Medicine).
+        Exponentially weighted averages of daily load over 7 and 28 days (Williams et al. 2017), both started at the average of the first 28
+        days (common practice), so a steady load reads 1.00 rather than a rise. This describes how much the load changed; it is{' '}
+        <strong>not an injury-risk score</strong>. The ratio and the &ldquo;safe zone&rdquo; bands often quoted with it have been criticised
+        as mathematically coupled and not predictive of injury (Impellizzeri et al. 2020, Sports Medicine).
       </p>
     </section>
   );
