@@ -161,8 +161,20 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
 
   for (set of ordered) {
     const ex = ctx.exercises[set.exerciseId];
-    if (!ex) continue;
     waived = ctx.waivedSetIds?.has(set.id) ?? false;
+    if (!ex) {
+      // An exercise the engine does not know has no patterns to check: fail closed, never a pass.
+      push(
+        'unreadable',
+        null,
+        'an exercise of the library',
+        'an unknown exercise',
+        null,
+        null,
+        'This set names an exercise that is not in the library, so it cannot be checked. Choose an exercise from the library.',
+      );
+      continue;
+    }
     const name = ex.name;
     const problem = unreadable(set, validDate);
     if (problem) {

@@ -130,3 +130,24 @@ describe('sets the engine cannot read', () => {
     );
   });
 });
+
+describe('a set of an exercise the engine does not know', () => {
+  it('is a breach (fail closed), not a silent pass (OWASP ASVS 5.0 V16.5.3: fail securely)', () => {
+    const breaches = checkSets(
+      [
+        {
+          id: 's1',
+          sessionId: 'x',
+          date: '2026-12-03',
+          exerciseId: 'not-in-library',
+          reps: 5,
+          load: { kind: 'kg', value: 60 },
+          targetRpe: 6,
+          order: 0,
+        },
+      ],
+      { plans: [], exercises: {}, baselines: {}, unit: 'kg' },
+    );
+    expect(breaches.map((b) => b.rule)).toEqual(['unreadable']);
+  });
+});

@@ -4,6 +4,7 @@ import type { Action, AppAbility } from '../../../policies/access';
 import { checkSets, type Breach, type EngineContext, type EngineExercise, type EngineSet } from '../../../policies/load/compliance';
 import type { ParticipationStatus } from '../../../policies/load/patterns';
 import { statusOnDate } from '../../../policies/load/status-on';
+import { sessionEngineSets, setFingerprintText } from '../../../policies/load/sets';
 import type { Unit } from '../../../policies/schemas/common';
 import type { PlannedSetInput } from '../../../policies/schemas/programs';
 import { Exercise, ProgramSession, type Program } from '../entities';
@@ -43,7 +44,7 @@ export function onlyPublished(actor: ActorWithOrg, program: Pick<Program, 'athle
 /** A set's content, hashed: a granted exception covers the set only while it stays as granted. */
 export function setFingerprint(exerciseId: string, set: PlannedSetInput, date: string): string {
   return createHash('sha256')
-    .update(JSON.stringify([exerciseId, date, set.reps, set.load, set.targetRpe ?? null]))
+    .update(setFingerprintText(exerciseId, set, date))
     .digest('hex')
     .slice(0, 32);
 }
@@ -52,24 +53,9 @@ export function toEngineExercise(e: Exercise): EngineExercise {
   return { id: e.id, name: e.name, patterns: e.patterns, ballistic: e.ballistic, steps: e.steps, referenceId: e.referenceId };
 }
 
+/** The engine's sets of a session, warm-up marks included (one reading of session content for both sides). */
 export function engineSets(session: Pick<ProgramSession, 'id' | 'date' | 'content'>): EngineSet[] {
-  const out: EngineSet[] = [];
-  let order = 0;
-  for (const ex of session.content.exercises) {
-    for (const s of ex.sets) {
-      out.push({
-        id: s.id,
-        sessionId: session.id,
-        date: session.date,
-        exerciseId: ex.exerciseId,
-        reps: s.reps,
-        load: s.load,
-        targetRpe: s.targetRpe ?? null,
-        order: order++,
-      });
-    }
-  }
-  return out;
+  return sessionEngineSets(session);
 }
 
 /** The latest tested or estimated 1RM per exercise of one athlete (currentBaselines, the athlete's day in queries/roster.ts). */
