@@ -2,7 +2,17 @@ import type { EntityManager } from 'typeorm';
 import type { AppAbility } from '../../../policies/access';
 import { orgToday } from '../../../policies/today';
 import type { ActorWithOrg } from '../services/actor';
-import type { Command, CommandCtx, CoreDeps, LimitsChange, OrgCommandCtx, Query, QueryCtx, RecheckSummary } from '../core/command';
+import type {
+  Command,
+  CommandCtx,
+  CoreDeps,
+  LimitsChange,
+  OrgCommandCtx,
+  PublicQuery,
+  Query,
+  QueryCtx,
+  RecheckSummary,
+} from '../core/command';
 import { auditFor } from '../core/tx';
 import { applyLimitsChange } from './limits';
 
@@ -119,4 +129,9 @@ export async function runOrgQuery<I, O>(q: Query<I, O>, caller: OrgCaller, input
     },
     input,
   );
+}
+
+/** Runs a read open to anyone (no reader, so no ability: the query itself must reveal nothing private). */
+export async function runPublicQuery<I, O>(q: PublicQuery<I, O>, deps: CoreDeps, input: I): Promise<O> {
+  return q.run({ db: deps.ds, deps, now: new Date() }, input);
 }

@@ -111,3 +111,21 @@ export interface Query<I, O> {
 export function orgQuery<I, O>(def: { name: string; run(ctx: QueryCtx, input: I): Promise<O> }): Query<I, O> {
   return { kind: 'query', name: def.name, run: def.run };
 }
+
+/** What a read open to anyone needs (the public letter check): a connection and the clock, no reader. */
+export interface PublicQueryCtx {
+  db: DataSource | EntityManager;
+  deps: CoreDeps;
+  now: Date;
+}
+
+export interface PublicQuery<I, O> {
+  readonly kind: 'public-query';
+  readonly name: string;
+  run(ctx: PublicQueryCtx, input: I): Promise<O>;
+}
+
+/** A read that needs no membership; it must reveal nothing a stranger may not see. */
+export function publicQuery<I, O>(def: { name: string; run(ctx: PublicQueryCtx, input: I): Promise<O> }): PublicQuery<I, O> {
+  return { kind: 'public-query', name: def.name, run: def.run };
+}

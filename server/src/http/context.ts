@@ -3,7 +3,7 @@ import type { buildPassport as buildPassportType } from './security';
 import type { AppAbility } from '../../../policies/access';
 import type { User } from '../entities';
 import type { ActorWithOrg } from '../services/actor';
-import type { AnyCommand, Command, CommandCtx, CoreDeps, OrgCommandCtx, Query } from '../core/command';
+import type { AnyCommand, Command, CommandCtx, CoreDeps, OrgCommandCtx, PublicQuery, Query } from '../core/command';
 import type { TxFn } from '../core/tx';
 import type { DataSource } from 'typeorm';
 export { makeTx, type AuditFn, type TxFn } from '../core/tx';
@@ -27,6 +27,8 @@ export interface BaseCtx<P, Q, B> {
   tx: TxFn;
   /** Runs a command that needs no membership (sign-in, reset…) in a transaction of its own. */
   run<I, O>(cmd: Command<I, O, CommandCtx>, input: I, organizationId?: string | null): Promise<O>;
+  /** Runs a read open to anyone (the public letter check). */
+  readPublic<I, O>(q: PublicQuery<I, O>, input: I): Promise<O>;
 }
 
 export interface OrgCtx<P, Q, B> extends Omit<BaseCtx<P, Q, B>, 'run'> {

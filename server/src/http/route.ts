@@ -8,7 +8,7 @@ import { AppError, fromZod } from '../core/errors';
 import { refusalMessage } from '../core/authorize';
 import { loadedActor } from './security';
 import { makeTx, type AnyCommand, type BaseCtx, type Deps, type OrgCtx } from './context';
-import { runOrgCommand, runOrgQuery, runPublicCommand } from '../commands/run';
+import { runOrgCommand, runOrgQuery, runPublicCommand, runPublicQuery } from '../commands/run';
 
 /**
  * Every route says who may call it. There is no default: a route without `access` does not compile.
@@ -38,6 +38,11 @@ interface RouteBase<P, Q, B> {
    * every write goes through a command, and the route table shows which ones change limits.
    */
   command?: AnyCommand | AnyCommand[];
+  /**
+   * For a POST that writes nothing (a dry-run check, a public lookup): why it needs no command. The
+   * registry refuses any other write route without a command.
+   */
+  writesNothing?: string;
   status?: number;
 }
 
@@ -106,6 +111,12 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
   for (const def of defs) {
     const fullPath = `/api${def.path}`;
     const declared = def.command === undefined ? [] : Array.isArray(def.command) ? def.command : [def.command];
+    if (def.method !== 'get' && declared.length === 0 && !def.writesNothing) {
+      throw new Error(`${def.method.toUpperCase()} ${fullPath}: a write route must declare its command (every write goes through one)`);
+    }
+    if (def.method === 'get' && declared.length > 0 && declared.some((c) => c.changesLimits)) {
+      throw new Error(`GET ${fullPath}: a GET never changes limits`);
+    }
     const mayRun = (name: string) => {
       if (!declared.some((c) => c.name === name))
         throw new Error(`${def.method.toUpperCase()} ${fullPath} runs ${name} without declaring it`);
@@ -168,6 +179,7 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
       const ctx = {
         run,
         read,
+        readPublic: (q: Parameters<typeof runPublicQuery>[0], input: unknown) => runPublicQuery(q, deps, input),
         req,
         res,
         deps,
