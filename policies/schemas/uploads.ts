@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { IsoDateSchema, UuidSchema } from './common';
+import { isTimeZone } from '../today';
 
 const line = (max: number) =>
   z
@@ -60,6 +61,12 @@ export const OrganizationSettingsSchema = z.strictObject({
     .regex(/^[0-9+()\- ]+$/, { message: 'may contain digits, spaces, +, - and brackets only' })
     .optional(),
   guardiansSeeClips: z.boolean({ message: 'must be true or false' }).optional(),
+  /** The zone whose calendar day is the organization's "today" (policies/today.ts). */
+  timeZone: z
+    .string({ message: 'must be an IANA time zone such as America/Chicago' })
+    .trim()
+    .refine(isTimeZone, { message: 'must be an IANA time zone such as America/Chicago' })
+    .optional(),
   version: z.number({ message: 'is required' }).int().min(1),
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

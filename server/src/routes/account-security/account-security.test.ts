@@ -7,7 +7,7 @@ import type { DataSource } from 'typeorm';
 import { Secret, TOTP } from 'otpauth';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { RESET_REQUESTED } from '../../services/password-reset';
+import { RESET_REQUESTED } from '../../commands/password-reset';
 
 /**
  * Password reset (SECURITY 4, 5) and two-step sign-in (SECURITY 6, 8), through HTTP on the real
