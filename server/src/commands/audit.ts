@@ -10,7 +10,7 @@ import { auditEntries, EXPORT_LIMIT } from '../queries/audit';
 export const exportAudit = orgCommand({
   name: 'exportAudit',
   async run(ctx, query: AuditQueryInput): Promise<AuditEntryDto[]> {
-    const rows = await auditEntries(ctx.m, ctx.ability, ctx.actor.organizationId, query, EXPORT_LIMIT);
+    const rows = await auditEntries(ctx.m, ctx.ability, ctx.actor, query, EXPORT_LIMIT);
     await ctx.audit({ action: 'audit.exported', subjectType: 'AuditEntry', after: { filters: query, rows: rows.length } });
     return rows;
   },

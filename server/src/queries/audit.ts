@@ -9,11 +9,14 @@ import { verifyChain, type ChainReport } from '../services/audit';
 /** The most entries one CSV export holds. */
 export const EXPORT_LIMIT = 50_000;
 
-/** One query for both the screen and the CSV export: the reader's rules are part of the WHERE. */
+/**
+ * One query for both the screen and the CSV export: the reader's rules are part of the WHERE. `from`
+ * and `to` are whole days on the organization's calendar (policies/today.ts), both included.
+ */
 export async function auditEntries(
   db: DataSource | EntityManager,
   ability: AppAbility,
-  organizationId: string,
+  organization: { organizationId: string; timeZone: string },
   query: AuditQueryInput,
   limit: number,
 ): Promise<AuditEntryDto[]> {
@@ -38,7 +41,7 @@ export async function auditEntries(
     .leftJoin('users', 'u', 'u.id = a.actor_user_id')
     .leftJoin('memberships', 'am', 'am.id = a.athlete_id')
     .leftJoin('users', 'au', 'au.id = am.user_id')
-    .where('a.organization_id = :org', { org: organizationId })
+    .where('a.organization_id = :org', { org: organization.organizationId })
     .andWhere(acl.sql, acl.params)
     .orderBy('a.id', 'DESC')
     .limit(limit);
@@ -46,8 +49,10 @@ export async function auditEntries(
   if (query.actorId) qb.andWhere('a.actor_user_id = :actorId', { actorId: query.actorId });
   if (query.subjectId) qb.andWhere('a.subject_id = :subjectId', { subjectId: query.subjectId });
   if (query.athleteId) qb.andWhere('a.athlete_id = :athleteId', { athleteId: query.athleteId });
-  if (query.from) qb.andWhere('a.occurred_at >= CAST(:from AS date)', { from: query.from });
-  if (query.to) qb.andWhere('a.occurred_at < CAST(:to AS date) + 1', { to: query.to });
+  // A local midnight `AT TIME ZONE` the organization's zone is the instant that day starts there.
+  if (query.from) qb.andWhere('a.occurred_at >= (CAST(:from AS date)::timestamp AT TIME ZONE :tz)', { from: query.from });
+  if (query.to) qb.andWhere('a.occurred_at < ((CAST(:to AS date) + 1)::timestamp AT TIME ZONE :tz)', { to: query.to });
+  if (query.from || query.to) qb.setParameter('tz', organization.timeZone);
   if (query.before) qb.andWhere('a.id < :before', { before: query.before });
   const rows = await qb.getRawMany();
   return rows.map((r): AuditEntryDto => ({
@@ -70,7 +75,7 @@ export async function auditEntries(
 export const listAuditEntries = orgQuery({
   name: 'listAuditEntries',
   async run(ctx, query: AuditQueryInput): Promise<{ entries: AuditEntryDto[]; nextBefore: number | null }> {
-    const rows = await auditEntries(ctx.db, ctx.ability, ctx.actor.organizationId, query, query.limit + 1);
+    const rows = await auditEntries(ctx.db, ctx.ability, ctx.actor, query, query.limit + 1);
     const entries = rows.slice(0, query.limit);
     return { entries, nextBefore: rows.length > query.limit ? Number(entries[entries.length - 1].id) : null };
   },
