@@ -15,8 +15,8 @@ import { careTeamsFor, guardianLinksFor } from '../queries/athlete-links';
  * the link's role, a link exists once, and adding or removing one is audited with the athlete named.
  * Access follows at once: the rules read the links afresh on every request (ASVS 5.0 V8.3.2).
  *
- * A care-team change also changes who is told about the athlete's held sessions and whose limits
- * count, so it goes through the one "limits changed" path (commands/limits.ts).
+ * A care-team change also changes who must be told about the athlete's held sessions (each coach on
+ * the team), so it goes through the one "limits changed" path (commands/limits.ts).
  */
 interface LinkSpec<Input extends { athleteId: string }, Row extends CareTeamAssignment | GuardianLink, Dto extends { id: string }> {
   subject: 'CareTeamAssignment' | 'GuardianLink';
@@ -32,6 +32,8 @@ interface LinkSpec<Input extends { athleteId: string }, Row extends CareTeamAssi
   /** What the removal's audit entry records of the link. */
   describe(row: Row): Record<string, unknown>;
   read(m: EntityManager, athleteId: string): Promise<Dto[]>;
+  /** The change must be reported to the limits path (`changed` does it). */
+  changesLimits: boolean;
   /** Reported after the change, in its transaction. */
   changed(ctx: OrgCommandCtx, athleteId: string, role: Role, how: 'joined' | 'left'): Promise<void>;
 }
@@ -39,11 +41,10 @@ interface LinkSpec<Input extends { athleteId: string }, Row extends CareTeamAssi
 function linkCommand<I extends { athleteId: string }, R extends CareTeamAssignment | GuardianLink, D extends { id: string }>(
   name: string,
   spec: LinkSpec<I, R, D>,
-  changesLimits: boolean,
 ) {
   return orgCommand({
     name,
-    changesLimits,
+    changesLimits: spec.changesLimits,
     async run(ctx, input: I): Promise<D> {
       const org = ctx.actor.organizationId;
       const member = spec.member(input);
@@ -64,10 +65,10 @@ function linkCommand<I extends { athleteId: string }, R extends CareTeamAssignme
   });
 }
 
-function unlinkCommand<R extends CareTeamAssignment | GuardianLink>(name: string, spec: LinkSpec<any, R, any>, changesLimits: boolean) {
+function unlinkCommand<R extends CareTeamAssignment | GuardianLink>(name: string, spec: LinkSpec<any, R, any>) {
   return orgCommand({
     name,
-    changesLimits,
+    changesLimits: spec.changesLimits,
     async run(ctx, input: { id: string }): Promise<void> {
       const where = { id: input.id, organizationId: ctx.actor.organizationId };
       const row = (await ctx.m.findOne(spec.entity, { where: where as never })) as R | null;
@@ -95,6 +96,7 @@ const careTeam: LinkSpec<CareTeamAssignmentCreateInput, CareTeamAssignment, Care
   duplicate: (input) => `That person is already on this athlete's care team as ${input.role}.`,
   describe: (row) => ({ athleteId: row.athleteId, memberId: row.memberId, role: row.role }),
   read: (m, athleteId) => careTeamsFor(m, [athleteId]),
+  changesLimits: true,
   async changed(ctx, athleteId, role, how) {
     await ctx.limitsChanged({ athleteIds: [athleteId], reason: `${role === 'coach' ? 'A coach' : 'A clinician'} ${how} the care team.` });
   },
@@ -110,13 +112,14 @@ const guardian: LinkSpec<GuardianLinkCreateInput, GuardianLink, GuardianLinkDto>
   duplicate: () => 'That guardian is already linked to this athlete.',
   describe: (row) => ({ athleteId: row.athleteId, guardianId: row.guardianId }),
   read: (m, athleteId) => guardianLinksFor(m, [athleteId]),
+  changesLimits: false,
   // A guardian is told about their athlete but changes nothing the athlete may do.
   changed: async () => undefined,
 };
 
 /** Puts a coach or clinician on an athlete's care team. */
-export const assignCareTeam = linkCommand('assignCareTeam', careTeam, true);
+export const assignCareTeam = linkCommand('assignCareTeam', careTeam);
 /** Takes a coach or clinician off a care team: their access ends on their next request. */
-export const unassignCareTeam = unlinkCommand('unassignCareTeam', careTeam, true);
-export const linkGuardian = linkCommand('linkGuardian', guardian, false);
-export const unlinkGuardian = unlinkCommand('unlinkGuardian', guardian, false);
+export const unassignCareTeam = unlinkCommand('unassignCareTeam', careTeam);
+export const linkGuardian = linkCommand('linkGuardian', guardian);
+export const unlinkGuardian = unlinkCommand('unlinkGuardian', guardian);
