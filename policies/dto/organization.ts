@@ -18,6 +18,8 @@ export interface OrganizationDto {
   id: string;
   name: string;
   emergencyNumber: string;
+  /** The organization's IANA time zone: its calendar day is "today" for everyone in it (policies/today.ts). */
+  timeZone: string;
 }
 export interface OrganizationSettingsDto extends OrganizationDto {
   /** Whether guardians of an athlete may watch that athlete's technique clips (off by default). */

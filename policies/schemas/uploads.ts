@@ -61,7 +61,12 @@ export const OrganizationSettingsSchema = z.strictObject({
     .regex(/^[0-9+()\- ]+$/, { message: 'may contain digits, spaces, +, - and brackets only' })
     .optional(),
   guardiansSeeClips: z.boolean({ message: 'must be true or false' }).optional(),
-  timeZone: z.string({ message: 'is required' }).refine(isTimeZone, { message: 'is not a time zone we know' }).optional(),
+  /** The zone whose calendar day is the organization's "today" (policies/today.ts). */
+  timeZone: z
+    .string({ message: 'must be an IANA time zone such as America/Chicago' })
+    .trim()
+    .refine(isTimeZone, { message: 'must be an IANA time zone such as America/Chicago' })
+    .optional(),
   version: z.number({ message: 'is required' }).int().min(1),
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

@@ -16,7 +16,7 @@ export function rememberListeningAddress(host: string, port: number): void {
  * server's own address. Never the request's Host header, which the sender controls (OWASP "password
  * reset poisoning"; ASVS 5.0 V3 and V13 host handling). No trailing slash.
  */
-export function publicBaseUrl(config: Config): string {
+export function publicBaseUrl(config: Pick<Config, 'PUBLIC_URL' | 'HOST' | 'PORT'>): string {
   if (config.PUBLIC_URL) return config.PUBLIC_URL.replace(/\/+$/, '');
   const port = config.PORT === 0 && listening?.host === config.HOST ? listening.port : config.PORT;
   return `http://${config.HOST}:${port}`;

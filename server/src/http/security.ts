@@ -4,8 +4,6 @@ import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
 import { Passport } from 'passport';
-import { Strategy as LocalStrategy } from 'passport-local';
-import bcrypt from 'bcryptjs';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import { PgRateLimitStore } from './rate-limit-store';
 import type { Deps } from './context';
@@ -154,28 +152,13 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
   return { middleware, close };
 }
 
-/** A bcrypt hash to compare against when the e-mail is unknown, so both paths take the same time. */
-let dummyHash: Promise<string> | null = null;
-function getDummyHash(cost: number) {
-  dummyHash ??= bcrypt.hash(randomBytes(16).toString('hex'), cost);
-  return dummyHash;
-}
-
+/**
+ * Passport keeps who is signed in on the session (serialise to the user id, read back with the
+ * session row). The password itself is checked by the signIn command (commands/account.ts), which
+ * the route runs before http/sign-in.ts logs the person in.
+ */
 export function buildPassport(deps: Deps) {
   const passport = new Passport();
-  passport.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password', session: true }, (email, password, done) => {
-      (async () => {
-        const user = await deps.ds.getRepository(User).findOne({ where: { email: email.trim().toLowerCase() } });
-        const hash = user?.passwordHash ?? (await getDummyHash(deps.config.BCRYPT_COST));
-        const ok = await bcrypt.compare(password, hash);
-        return user && ok ? user : false;
-      })().then(
-        (user) => done(null, user),
-        (err) => done(err),
-      );
-    }),
-  );
   passport.serializeUser<string>((user, done) => done(null, (user as User).id));
   passport.deserializeUser<string>((req: Request, id: string, done: (err: unknown, user?: Express.User | false | null) => void) => {
     // Loaded with the session row moments ago in this same request (see buildSession).

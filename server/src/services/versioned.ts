@@ -22,8 +22,3 @@ export async function updateVersioned<E extends ObjectLiteral>(
     .execute();
   if (result.affected !== 1) throw versionConflict(what);
 }
-
-/** Ends every session of a person (but the caller's own), so a role change applies with a new session. */
-export async function endSessionsOf(m: EntityManager, userId: string, exceptSid?: string): Promise<void> {
-  await m.query(`DELETE FROM "session" WHERE sess->'passport'->>'user' = $1 AND sid <> $2`, [userId, exceptSid ?? '']);
-}

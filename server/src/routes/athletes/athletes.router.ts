@@ -1,9 +1,7 @@
 import { AthleteProfileUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
-import { AthleteProfile } from '../../entities';
-import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { listAthletes } from '../../services/people';
-import { updateVersioned } from '../../services/versioned';
+import { updateAthleteProfile } from '../../commands/people';
+import { getAthlete, listAthletes } from '../../queries/athletes';
 
 export const athleteRoutes: RouteDef[] = [
   orgRoute({
@@ -12,8 +10,8 @@ export const athleteRoutes: RouteDef[] = [
     summary: 'Athletes I may see: admins all, staff their care teams, guardians their own, athletes themselves',
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
     params: OrgParamsSchema,
-    async handler({ ds, ability, actor }) {
-      return listAthletes(ds, ability, actor.organizationId);
+    async handler({ read }) {
+      return read(listAthletes, undefined);
     },
   }),
   orgRoute({
@@ -22,10 +20,8 @@ export const athleteRoutes: RouteDef[] = [
     summary: "An athlete's profile, care team and guardians",
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
     params: OrgItemParamsSchema,
-    async handler({ ds, ability, actor, params }) {
-      const [athlete] = await listAthletes(ds, ability, actor.organizationId, params.id);
-      authorize(ability, 'read', 'Athlete', athlete);
-      return athlete;
+    async handler({ read, params }) {
+      return read(getAthlete, { id: params.id });
     },
   }),
   orgRoute({
@@ -35,33 +31,9 @@ export const athleteRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'update', subject: 'Athlete' },
     params: OrgItemParamsSchema,
     body: AthleteProfileUpdateSchema,
-    async handler({ ds, ability, actor, params, body, tx }) {
-      const { version, ...changes } = body;
-      await tx(async (m, audit) => {
-        const profile = await m.findOne(AthleteProfile, { where: { id: params.id, organizationId: actor.organizationId } });
-        for (const field of Object.keys(changes)) authorize(ability, 'update', 'Athlete', profile, field);
-        authorize(ability, 'update', 'Athlete', profile);
-        await updateVersioned(
-          m,
-          AthleteProfile,
-          profile.id,
-          version,
-          { ...changes, updatedAt: () => 'now()' },
-          'athlete profile',
-          'membership_id',
-        );
-        const before = Object.fromEntries(Object.keys(changes).map((k) => [k, profile[k as keyof typeof changes]]));
-        await audit({
-          action: 'athlete.updated',
-          subjectType: 'Athlete',
-          subjectId: profile.id,
-          athleteId: profile.id,
-          before,
-          after: changes,
-        });
-      });
-      const [athlete] = await listAthletes(ds, ability, actor.organizationId, params.id);
-      return athlete;
+    command: updateAthleteProfile,
+    async handler({ params, body, run }) {
+      return run(updateAthleteProfile, { ...body, id: params.id });
     },
   }),
 ];

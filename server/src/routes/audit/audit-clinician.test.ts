@@ -89,7 +89,7 @@ async function makeWorld(): Promise<World> {
   return { org, base, clinician, otherClinician, caseId, otherCaseId };
 }
 
-describe('a clinician reads the audit entries of their own athletes only (SECURITY items 15, 27; policies/access/audit.ts)', () => {
+describe('a clinician reads the audit entries of their own athletes only (ASVS 5.0 V8.2.2, V8.4.1; policies/access/audit.ts)', () => {
   let w: World;
   beforeAll(async () => {
     w = await makeWorld();
@@ -143,7 +143,7 @@ describe('a clinician reads the audit entries of their own athletes only (SECURI
     expect((await w.clinician.get(`${w.base}/audit/verify`)).status).toBe(403);
   });
 
-  it("CSV export: text/csv attachment, a header row, the filtered rows only, and written down as 'audit.exported' (SECURITY items 25, 27)", async () => {
+  it("CSV export: text/csv attachment, a header row, the filtered rows only, and written down as 'audit.exported' (ASVS 5.0 V16.2.1)", async () => {
     const rid = `test-export-${Date.now()}`;
     const res = await w.clinician
       .get(`${w.base}/audit/export?action=case.opened`)
@@ -216,7 +216,7 @@ function runAuditVerify(): Promise<{ code: number | null; stdout: string; stderr
   });
 }
 
-describe('a tampered entry is named by the chain check (SECURITY items 29–30)', () => {
+describe('a tampered entry is named by the chain check (ASVS 5.0 V16.4.2, V16.4.3)', () => {
   it('`audit-verify` prints BROKEN with the first broken entry and exits 1; GET /audit/verify names the same entry', async () => {
     // An organization of its own, so tampering with its chain touches no other test's.
     const org = await createOrg(h.ds);
@@ -247,7 +247,7 @@ describe('a tampered entry is named by the chain check (SECURITY items 29–30)'
       await m.query(`UPDATE audit_entries SET after = '{"reviewDate":"2026-03-01"}' WHERE id = $1`, [id]);
       await m.query('ALTER TABLE audit_entries ENABLE TRIGGER audit_entries_no_update_delete');
     });
-    // The trigger is back on: a plain UPDATE is refused again (SECURITY item 29).
+    // The trigger is back on: a plain UPDATE is refused again (ASVS 5.0 V16.4.2).
     await expect(h.ds.query(`UPDATE audit_entries SET after = '{}' WHERE id = $1`, [id])).rejects.toThrow(/append-only/);
 
     const run = await runAuditVerify();

@@ -1,11 +1,8 @@
 import { CareTeamAssignmentCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
-import { CareTeamAssignment } from '../../entities';
-import { authorize } from '../../core/authorize';
-import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { careTeamsFor } from '../../services/people';
-import { isUniqueViolation, requireMemberWithRole } from '../../services/org-members';
+import { assignCareTeam, unassignCareTeam } from '../../commands/athlete-links';
 
+/** Care-team links; guardian links are the same kind of write (commands/athlete-links.ts). */
 export const careTeamRoutes: RouteDef[] = [
   orgRoute({
     method: 'post',
@@ -15,29 +12,9 @@ export const careTeamRoutes: RouteDef[] = [
     params: OrgParamsSchema,
     body: CareTeamAssignmentCreateSchema,
     status: 201,
-    async handler({ ds, ability, actor, body, tx }) {
-      const org = actor.organizationId;
-      const id = await tx(async (m, audit) => {
-        await requireMemberWithRole(m, org, body.athleteId, 'athlete', 'athleteId');
-        await requireMemberWithRole(m, org, body.memberId, body.role, 'memberId');
-        authorize(ability, 'create', 'CareTeamAssignment', { id: '', organizationId: org, athleteId: body.athleteId });
-        try {
-          const saved = await m.save(m.create(CareTeamAssignment, { organizationId: org, ...body }));
-          await audit({
-            action: 'care_team.assigned',
-            subjectType: 'CareTeamAssignment',
-            subjectId: saved.id,
-            athleteId: body.athleteId,
-            after: body,
-          });
-          return saved.id;
-        } catch (err) {
-          if (isUniqueViolation(err)) throw new AppError('conflict', `That person is already on this athlete's care team as ${body.role}.`);
-          throw err;
-        }
-      });
-      const all = await careTeamsFor(ds, [body.athleteId]);
-      return all.find((c) => c.id === id);
+    command: assignCareTeam,
+    async handler({ body, run }) {
+      return run(assignCareTeam, body);
     },
   }),
   orgRoute({
@@ -46,19 +23,9 @@ export const careTeamRoutes: RouteDef[] = [
     summary: 'Take a coach or clinician off a care team (their access ends at once)',
     access: { kind: 'org', action: 'delete', subject: 'CareTeamAssignment' },
     params: OrgItemParamsSchema,
-    async handler({ ability, actor, params, tx }) {
-      await tx(async (m, audit) => {
-        const row = await m.findOne(CareTeamAssignment, { where: { id: params.id, organizationId: actor.organizationId } });
-        authorize(ability, 'delete', 'CareTeamAssignment', row);
-        await m.delete(CareTeamAssignment, { id: row.id });
-        await audit({
-          action: 'care_team.unassigned',
-          subjectType: 'CareTeamAssignment',
-          subjectId: row.id,
-          athleteId: row.athleteId,
-          before: { athleteId: row.athleteId, memberId: row.memberId, role: row.role },
-        });
-      });
+    command: unassignCareTeam,
+    async handler({ params, run }) {
+      await run(unassignCareTeam, { id: params.id });
       return undefined;
     },
   }),

@@ -1,11 +1,8 @@
 import { GuardianLinkCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
-import { GuardianLink } from '../../entities';
-import { authorize } from '../../core/authorize';
-import { AppError } from '../../core/errors';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { guardianLinksFor } from '../../services/people';
-import { isUniqueViolation, requireMemberWithRole } from '../../services/org-members';
+import { linkGuardian, unlinkGuardian } from '../../commands/athlete-links';
 
+/** Guardian links; care-team links are the same kind of write (commands/athlete-links.ts). */
 export const guardianLinkRoutes: RouteDef[] = [
   orgRoute({
     method: 'post',
@@ -15,29 +12,9 @@ export const guardianLinkRoutes: RouteDef[] = [
     params: OrgParamsSchema,
     body: GuardianLinkCreateSchema,
     status: 201,
-    async handler({ ds, ability, actor, body, tx }) {
-      const org = actor.organizationId;
-      const id = await tx(async (m, audit) => {
-        await requireMemberWithRole(m, org, body.athleteId, 'athlete', 'athleteId');
-        await requireMemberWithRole(m, org, body.guardianId, 'guardian', 'guardianId');
-        authorize(ability, 'create', 'GuardianLink', { id: '', organizationId: org, ...body });
-        try {
-          const saved = await m.save(m.create(GuardianLink, { organizationId: org, ...body }));
-          await audit({
-            action: 'guardian.linked',
-            subjectType: 'GuardianLink',
-            subjectId: saved.id,
-            athleteId: body.athleteId,
-            after: body,
-          });
-          return saved.id;
-        } catch (err) {
-          if (isUniqueViolation(err)) throw new AppError('conflict', 'That guardian is already linked to this athlete.');
-          throw err;
-        }
-      });
-      const links = await guardianLinksFor(ds, { athleteIds: [body.athleteId] });
-      return links.find((l) => l.id === id);
+    command: linkGuardian,
+    async handler({ body, run }) {
+      return run(linkGuardian, body);
     },
   }),
   orgRoute({
@@ -46,19 +23,9 @@ export const guardianLinkRoutes: RouteDef[] = [
     summary: 'Unlink a guardian from an athlete',
     access: { kind: 'org', action: 'delete', subject: 'GuardianLink' },
     params: OrgItemParamsSchema,
-    async handler({ ability, actor, params, tx }) {
-      await tx(async (m, audit) => {
-        const row = await m.findOne(GuardianLink, { where: { id: params.id, organizationId: actor.organizationId } });
-        authorize(ability, 'delete', 'GuardianLink', row);
-        await m.delete(GuardianLink, { id: row.id });
-        await audit({
-          action: 'guardian.unlinked',
-          subjectType: 'GuardianLink',
-          subjectId: row.id,
-          athleteId: row.athleteId,
-          before: { athleteId: row.athleteId, guardianId: row.guardianId },
-        });
-      });
+    command: unlinkGuardian,
+    async handler({ params, run }) {
+      await run(unlinkGuardian, { id: params.id });
       return undefined;
     },
   }),

@@ -1,4 +1,4 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../../policies/roles';
 import { expectedOutcome, MATRIX_ROLES, type Relation } from '../../../../policies/access/matrix';
 import { GuardianLink } from '../../entities';
@@ -139,6 +139,9 @@ describe('guardian-link changes take effect at once', () => {
     org = await createOrg(h.ds);
     admin = await signedIn(h.app, org.admin.email, TEST_PASSWORD);
   });
+  afterEach(() => {
+    vi.useRealTimers();
+  });
 
   it('linking opens the athlete to the guardian on their next request; unlinking closes it (404) on the one after', async () => {
     const guardian = await signedIn(h.app, org.otherGuardian.email, TEST_PASSWORD);
@@ -169,11 +172,15 @@ describe('guardian-link changes take effect at once', () => {
   });
 
   it("unlinking a minor's only guardian flags the athlete as needing one", async () => {
+    // The athlete (born 2010-03-14) is a minor on this pinned day, whenever the test runs.
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date('2027-06-01T12:00:00Z'));
+    const onThatDay = await signedIn(h.app, org.admin.email, TEST_PASSWORD);
     const path = `/api/orgs/${org.id}/athletes/${org.athlete.membershipId}`;
-    const before = (await admin.get(path)).body;
+    const before = (await onThatDay.get(path)).body;
     expect(before).toMatchObject({ isMinor: true, needsGuardian: false });
     const [link] = await links(org.athlete.membershipId);
-    expect((await admin.delete(`/api/orgs/${org.id}/guardian-links/${link.id}`)).status).toBe(204);
-    expect((await admin.get(path)).body).toMatchObject({ isMinor: true, needsGuardian: true, guardians: [] });
+    expect((await onThatDay.delete(`/api/orgs/${org.id}/guardian-links/${link.id}`)).status).toBe(204);
+    expect((await onThatDay.get(path)).body).toMatchObject({ isMinor: true, needsGuardian: true, guardians: [] });
   });
 });

@@ -1,38 +1,17 @@
-import type { EntityManager } from 'typeorm';
-import type { OrganizationDto, OrganizationSettingsDto } from '../../../../policies/dto';
 import { OrganizationSettingsSchema, OrgParamsSchema } from '../../../../policies/schemas';
-import { Organization } from '../../entities';
-import { authorize } from '../../core/authorize';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { updateVersioned } from '../../services/versioned';
-
-function toSettingsDto(org: Organization): OrganizationSettingsDto {
-  return {
-    id: org.id,
-    name: org.name,
-    emergencyNumber: org.emergencyNumber,
-    guardiansSeeClips: org.guardiansSeeClips,
-    timeZone: org.timeZone,
-    version: org.version,
-  };
-}
-
-async function loadOrg(m: EntityManager, id: string) {
-  return m.findOne(Organization, { where: { id } });
-}
+import { updateOrganizationSettings } from '../../commands/organizations';
+import { getOrganization, getOrganizationSettings } from '../../queries/organizations';
 
 export const organizationRoutes: RouteDef[] = [
   orgRoute({
     method: 'get',
     path: '/orgs/:orgId',
-    summary: 'The organization: name and local emergency number',
+    summary: 'The organization: name, local emergency number and time zone',
     access: { kind: 'org', action: 'read', subject: 'Organization' },
     params: OrgParamsSchema,
-    async handler({ ds, ability, actor }) {
-      const org = await ds.getRepository(Organization).findOneBy({ id: actor.organizationId });
-      authorize(ability, 'read', 'Organization', org);
-      const dto: OrganizationDto = { id: org.id, name: org.name, emergencyNumber: org.emergencyNumber };
-      return dto;
+    async handler({ read }) {
+      return read(getOrganization, undefined);
     },
   }),
   orgRoute({
@@ -41,35 +20,20 @@ export const organizationRoutes: RouteDef[] = [
     summary: "The organization's settings, with the version an edit must name (admins)",
     access: { kind: 'org', action: 'update', subject: 'Organization' },
     params: OrgParamsSchema,
-    async handler({ ds, ability, actor }) {
-      const org = await loadOrg(ds.manager, actor.organizationId);
-      authorize(ability, 'update', 'Organization', org);
-      return toSettingsDto(org);
+    async handler({ read }) {
+      return read(getOrganizationSettings, undefined);
     },
   }),
   orgRoute({
     method: 'patch',
     path: '/orgs/:orgId/settings',
-    summary: 'Change name, emergency number or whether guardians may watch clips (admins; 409 on a stale version)',
+    summary: 'Change name, emergency number, time zone or whether guardians may watch clips (admins; 409 on a stale version)',
     access: { kind: 'org', action: 'update', subject: 'Organization' },
     params: OrgParamsSchema,
     body: OrganizationSettingsSchema,
-    async handler({ ds, ability, actor, body, tx }) {
-      const { version, ...changes } = body;
-      await tx(async (m, audit) => {
-        const org = await loadOrg(m, actor.organizationId);
-        authorize(ability, 'update', 'Organization', org);
-        await updateVersioned(m, Organization, org.id, version, changes, 'organization settings');
-        const before = { name: org.name, emergencyNumber: org.emergencyNumber, guardiansSeeClips: org.guardiansSeeClips };
-        await audit({
-          action: 'organization.settings_changed',
-          subjectType: 'Organization',
-          subjectId: org.id,
-          before,
-          after: { ...before, ...changes },
-        });
-      });
-      return toSettingsDto((await loadOrg(ds.manager, actor.organizationId))!);
+    command: updateOrganizationSettings,
+    async handler({ body, run }) {
+      return run(updateOrganizationSettings, body);
     },
   }),
 ];

@@ -1,25 +1,12 @@
 import { SignInSchema, ProfileUpdateSchema, SecondStepSchema } from '../../../../policies/schemas';
-import { defineAbilityFor, type Actor } from '../../../../policies/access';
 import { publicRoute, type RouteDef } from '../../http/route';
 import type { Deps } from '../../http/context';
-import { SESSION_COOKIE } from '../../http/security';
 import { AppError } from '../../core/errors';
-import { sessionDto, toUserDto } from '../../services/session-dto';
-import {
-  accountLimits,
-  auditSignIn,
-  authenticateLocal,
-  beginSecondStep,
-  invalidCredentials,
-  pendingSecondStep,
-  sessionWithStep,
-  startSession,
-  useAuditedSecondStepCode,
-} from '../../services/sign-in';
-import { isTwoStepOn, twoStepKey } from '../../services/two-step';
-import { authorize } from '../../core/authorize';
-import { User } from '../../entities';
+import { sessionDto, sessionWithStep } from '../../http/session-dto';
+import { accountLimits, beginSecondStep, endSession, pendingSecondStep, startSession } from '../../http/sign-in';
+import { finishSignIn, signIn, signOut, updateProfile } from '../../commands/account';
 
+const invalidCredentials = () => new AppError('invalid_credentials', 'E-mail or password is incorrect.');
 const wrongCode = () =>
   new AppError('invalid_credentials', 'That code did not work. Enter the code your app shows now, or one of your unused recovery codes.');
 const stepTimedOut = () =>
@@ -33,8 +20,8 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/session',
       summary: 'Who am I, my organizations and roles, and the CSRF token for writes',
       access: { kind: 'public' },
-      async handler({ ds, req }) {
-        return sessionWithStep(ds, req);
+      async handler({ req }) {
+        return sessionWithStep(deps, req);
       },
     }),
     publicRoute({
@@ -44,20 +31,16 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       access: { kind: 'public' },
       before: limits,
       body: SignInSchema,
-      async handler({ req, res, ds, body, requestId }) {
-        const user = await authenticateLocal(deps, req, res);
-        if (!user) {
-          await auditSignIn(deps, requestId, 'auth.sign_in_failed', null, body.email).catch(() => undefined);
-          throw invalidCredentials();
+      command: signIn,
+      async handler({ req, body, run }) {
+        const outcome = await run(signIn, body);
+        if (!outcome.user) throw invalidCredentials();
+        if (outcome.secondStep) {
+          await beginSecondStep(req, outcome.user);
+          return sessionWithStep(deps, req);
         }
-        if (await isTwoStepOn(ds.manager, user.id)) {
-          await beginSecondStep(req, user);
-          await auditSignIn(deps, requestId, 'auth.second_step_needed', user, body.email);
-          return sessionWithStep(ds, req);
-        }
-        await startSession(req, user);
-        await auditSignIn(deps, requestId, 'auth.signed_in', user, body.email);
-        return sessionDto(ds, req);
+        await startSession(req, outcome.user);
+        return sessionDto(deps, req);
       },
     }),
     publicRoute({
@@ -67,20 +50,15 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       access: { kind: 'public' },
       before: limits,
       body: SecondStepSchema,
-      async handler({ req, ds, body, requestId }) {
+      command: finishSignIn,
+      async handler({ req, body, run }) {
         const pending = pendingSecondStep(req);
         if (!pending) throw stepTimedOut();
-        const key = twoStepKey(deps.config);
-        const used = await ds.transaction((m) => useAuditedSecondStepCode(m, key, pending.userId, body.code, requestId));
-        const user = used ? await ds.getRepository(User).findOne({ where: { id: pending.userId } }) : null;
-        if (!user) {
-          await auditSignIn(deps, requestId, 'auth.sign_in_failed', null, pending.email, { step: 'second' }).catch(() => undefined);
-          throw wrongCode();
-        }
+        const user = await run(finishSignIn, { userId: pending.userId, email: pending.email, code: body.code });
+        if (!user) throw wrongCode();
         // passport's login regenerates the session id: the pending marker goes with the old one.
         await startSession(req, user);
-        await auditSignIn(deps, requestId, 'auth.signed_in', user, pending.email, { secondStep: used! });
-        return sessionDto(ds, req);
+        return sessionDto(deps, req);
       },
     }),
     publicRoute({
@@ -88,11 +66,10 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/session',
       summary: 'Sign out: the session row is deleted',
       access: { kind: 'signedIn' },
-      async handler({ req, res, user, requestId }) {
-        await auditSignIn(deps, requestId, 'auth.signed_out', user, user!.email);
-        await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
-        await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
-        res.clearCookie(SESSION_COOKIE, { path: '/' });
+      command: signOut,
+      async handler({ req, res, run }) {
+        await run(signOut, undefined);
+        await endSession(req, res);
         return undefined;
       },
     }),
@@ -102,26 +79,9 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       summary: 'Change my display name or unit preference',
       access: { kind: 'signedIn' },
       body: ProfileUpdateSchema,
-      async handler({ user, body, tx }) {
-        const me = user!;
-        const selfOnly: Actor = {
-          userId: me.id,
-          organizationId: '',
-          membershipId: '',
-          roles: [],
-          coachOf: [],
-          clinicianOf: [],
-          guardianOf: [],
-        };
-        const ability = defineAbilityFor(selfOnly);
-        for (const field of Object.keys(body)) authorize(ability, 'update', 'User', { id: me.id }, field);
-        return tx(async (m, audit) => {
-          const before = { displayName: me.displayName, unitPref: me.unitPref };
-          await m.update(User, { id: me.id }, body);
-          const after = await m.findOneByOrFail(User, { id: me.id });
-          await audit({ organizationId: null, action: 'user.updated', subjectType: 'User', subjectId: me.id, before, after: body });
-          return toUserDto(after);
-        });
+      command: updateProfile,
+      async handler({ body, run }) {
+        return run(updateProfile, body);
       },
     }),
   ];

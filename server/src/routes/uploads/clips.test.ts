@@ -218,7 +218,7 @@ describe('technique clips', () => {
       expect((await c.get(`${w.base}/settings`)).status, who).toBe(403);
     }
     const org = await (await w.as('coach')).get(w.base);
-    expect(org.body).toEqual({ id: w.org.id, name: expect.any(String), emergencyNumber: '112' });
+    expect(org.body).toEqual({ id: w.org.id, name: expect.any(String), emergencyNumber: '112', timeZone: 'UTC' });
   });
 
   it('notes: a coach pins one, the athlete reads it and is told in the app; the author removes it', async () => {
