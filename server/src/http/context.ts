@@ -4,8 +4,6 @@ import type { AppAbility } from '../../../policies/access';
 import type { User } from '../entities';
 import type { ActorWithOrg } from '../services/actor';
 import type { AnyCommand, Command, CommandCtx, CoreDeps, OrgCommandCtx, PublicQuery, Query } from '../core/command';
-import type { TxFn } from '../core/tx';
-import type { DataSource } from 'typeorm';
 export { makeTx, type AuditFn, type TxFn } from '../core/tx';
 
 /** The core's dependencies plus what only the HTTP layer uses (passport). */
@@ -16,15 +14,13 @@ export interface Deps extends CoreDeps {
 export interface BaseCtx<P, Q, B> {
   req: Request;
   res: Response;
+  /** For the HTTP layer's own needs (passport, sessions); routers reach data only through run/read. */
   deps: Deps;
-  ds: DataSource;
   requestId: string;
   user: User | null;
   params: P;
   query: Q;
   body: B;
-  /** Runs `work` in one transaction; entries written through its `audit` commit or roll back with it. */
-  tx: TxFn;
   /** Runs a command that needs no membership (sign-in, reset…) in a transaction of its own. */
   run<I, O>(cmd: Command<I, O, CommandCtx>, input: I, organizationId?: string | null): Promise<O>;
   /** Runs a read open to anyone (the public letter check). */

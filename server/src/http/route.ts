@@ -7,7 +7,7 @@ import { loadActor } from '../services/actor';
 import { AppError, fromZod } from '../core/errors';
 import { refusalMessage } from '../core/authorize';
 import { loadedActor } from './security';
-import { makeTx, type AnyCommand, type BaseCtx, type Deps, type OrgCtx } from './context';
+import { type AnyCommand, type BaseCtx, type Deps, type OrgCtx } from './context';
 import { runOrgCommand, runOrgQuery, runPublicCommand, runPublicQuery } from '../commands/run';
 
 /**
@@ -161,7 +161,6 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
       const params = parse(def.params, req.params, 'params');
       const query = parse(def.query, req.query, 'query');
       const body = parse(def.body, req.body, 'body');
-      const organizationId = orgCtx?.actor.organizationId ?? null;
       const caller = { deps, requestId, userId: user?.id ?? null };
       const run = orgCtx
         ? (cmd: AnyCommand, input: unknown) => {
@@ -183,13 +182,11 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
         req,
         res,
         deps,
-        ds: deps.ds,
         requestId,
         user,
         params,
         query,
         body,
-        tx: makeTx(deps.ds, requestId, user?.id ?? null, organizationId),
         ...orgCtx,
       };
       const result = await (def.handler as (c: typeof ctx) => Promise<unknown>)(ctx);

@@ -6,7 +6,7 @@ import { decisionWords, renderLetterPdf } from '../../../templates/letter/cleara
 import { ClearanceLetter } from '../entities';
 import { accessibleWhere } from '../core/accessible';
 import { authorize } from '../core/authorize';
-import { orgQuery } from '../core/command';
+import { orgQuery, publicQuery } from '../core/command';
 import { hashCode, initials, letterPdfData, signedLetterDates, standingToday } from '../services/letters';
 import { memberName, memberNames } from './members';
 
@@ -170,3 +170,9 @@ export async function letterCheck(db: Db, code: string, now: Date): Promise<Lett
     issuedOn: dayIn(r.time_zone, new Date(r.signed_at)),
   };
 }
+
+/** The public letter check as a query open to anyone: validity, dates and decision only. */
+export const letterCheckQuery = publicQuery({
+  name: 'letters.check',
+  run: (ctx, code: string) => letterCheck(ctx.db, code, ctx.now),
+});

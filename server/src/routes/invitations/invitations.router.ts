@@ -20,6 +20,7 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       path: '/invitations/preview',
       summary: 'What an invitation link is for (the token travels in the body, never the URL)',
       access: { kind: 'public' },
+      writesNothing: 'a POST only so the token travels in the body, never in a URL',
       before: signInLimits(deps),
       body: InvitationTokenSchema,
       async handler({ body }) {

@@ -15,7 +15,7 @@ import type { Deps } from '../../http/context';
 import { sendPdf } from '../../http/downloads';
 import { orgRoute, publicRoute, type RouteDef } from '../../http/route';
 import { limitStore } from '../../http/security';
-import { letterCheck, letterPreview, letters } from '../../queries/letters';
+import { letterCheckQuery, letterPreview, letters } from '../../queries/letters';
 import { deliveries, outboxMessages } from '../../queries/outbox';
 
 export function letterRoutes(deps: Deps): RouteDef[] {
@@ -110,7 +110,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       access: { kind: 'public' },
       before: [checkLimit],
       body: CheckCodeSchema,
-      handler: ({ deps: { ds }, body }) => letterCheck(ds, body.code, new Date()),
+      writesNothing: 'a POST only so the code travels in the body, never in a URL',
+      handler: ({ readPublic, body }) => readPublic(letterCheckQuery, body.code),
     }),
     orgRoute({
       method: 'get',

@@ -114,6 +114,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id/check',
     summary: "Check a session against each athlete's plan without publishing",
     access: { kind: 'org', action: 'read', subject: 'Program' },
+    writesNothing: 'a dry run of the publish check',
     params: ProgramItemParamsSchema,
     async handler({ read, user, params }) {
       return read(checkSession, { id: params.id, unit: user.unitPref });
