@@ -99,8 +99,11 @@ describe('a clinician reads the audit entries of their own athletes only (ASVS 5
     const res = await w.clinician.get(`${w.base}/audit`);
     expect(res.status).toBe(200);
     const entries: AuditEntryDto[] = res.body.entries;
-    expect(entries.map((e) => [e.action, e.subjectId])).toEqual([
+    // Opening a case writes its first status through the one status command, with an entry of its own.
+    const show = (e: AuditEntryDto) => [e.action, e.subjectType === 'Case' ? e.subjectId : e.subjectType];
+    expect(entries.map(show)).toEqual([
       ['case.updated', w.caseId],
+      ['status.changed', 'ParticipationStatus'],
       ['case.opened', w.caseId],
     ]);
     for (const e of entries) expect(e.athleteId).toBe(w.org.athlete.membershipId);
@@ -108,8 +111,9 @@ describe('a clinician reads the audit entries of their own athletes only (ASVS 5
 
     // The other clinician's view is the mirror image.
     const other = await w.otherClinician.get(`${w.base}/audit`);
-    expect(other.body.entries.map((e: AuditEntryDto) => [e.action, e.subjectId])).toEqual([
+    expect(other.body.entries.map(show)).toEqual([
       ['case.updated', w.otherCaseId],
+      ['status.changed', 'ParticipationStatus'],
       ['case.opened', w.otherCaseId],
     ]);
   });
