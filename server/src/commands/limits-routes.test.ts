@@ -34,6 +34,8 @@ describe('the one "limits changed" path', () => {
         "POST   /api/orgs/:orgId/pain-reports  ⇒  reportPain!",
         "PATCH  /api/orgs/:orgId/exercises/:id  ⇒  exercises.edit!",
         "POST   /api/orgs/:orgId/athletes/:id/baselines  ⇒  baselines.record!",
+        "DELETE /api/orgs/:orgId/sessions/:id  ⇒  sessions.delete!",
+        "POST   /api/orgs/:orgId/sessions/:id/unpublish  ⇒  sessions.unpublish!",
         "POST   /api/orgs/:orgId/exceptions/:id/decide  ⇒  exceptions.decide!",
       ]
     `);

@@ -177,10 +177,20 @@ export const editSession = orgCommand({
   },
 });
 
+/**
+ * Taking a published session away (deleting or unpublishing it) lowers the week's hard-set counts, so a
+ * later session held for the weekly limit may fit again: the athletes' weeks go through the limits path.
+ */
+async function weekMayHaveFreedUp(ctx: OrgCommandCtx, wasPublished: boolean, athleteIds: string[]): Promise<void> {
+  if (!wasPublished) return ctx.limitsUnchanged();
+  await ctx.limitsChanged({ athleteIds, reason: 'A published session was taken back; the week was checked again.' });
+}
+
 export const deleteSession = orgCommand({
   name: 'sessions.delete',
+  changesLimits: true,
   async run(ctx, input: { id: string }): Promise<void> {
-    const { session } = await sessionWithProgram(ctx.m, ctx.ability, ctx.actor, input.id, 'update');
+    const { session, program } = await sessionWithProgram(ctx.m, ctx.ability, ctx.actor, input.id, 'update');
     await ctx.m.delete(ProgramSession, { id: session.id });
     await ctx.audit({
       action: 'session.deleted',
@@ -188,6 +198,7 @@ export const deleteSession = orgCommand({
       subjectId: session.id,
       before: { date: session.date, title: session.title, status: session.status },
     });
+    await weekMayHaveFreedUp(ctx, session.status === 'published', program.athleteIds);
   },
 });
 
@@ -226,6 +237,7 @@ export const publishSession = orgCommand({
 
 export const unpublishSession = orgCommand({
   name: 'sessions.unpublish',
+  changesLimits: true,
   async run(ctx, input: { id: string; version: number }): Promise<ProgramSessionDto> {
     const { session, program } = await sessionWithProgram(ctx.m, ctx.ability, ctx.actor, input.id, 'update');
     await updateVersioned(
@@ -238,6 +250,7 @@ export const unpublishSession = orgCommand({
     );
     await ctx.m.delete(SessionHold, { sessionId: session.id });
     await ctx.audit({ action: 'session.unpublished', subjectType: 'ProgramSession', subjectId: session.id });
+    await weekMayHaveFreedUp(ctx, session.status === 'published', program.athleteIds);
     return sessionDto(ctx, session.id, program.name);
   },
 });

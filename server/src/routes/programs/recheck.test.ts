@@ -342,6 +342,44 @@ describe('published sessions are checked again when what they depend on changes'
     expect((await w.coach.post(`${w.base}/sessions/${light.id}/publish`, { version: light.version })).status).toBe(200);
   });
 
+  it('unpublishing an earlier session of the week releases a later one held for the weekly hard-set limit', async () => {
+    const w = await world(null);
+    const stages = (maxHard: number) => [
+      {
+        id: randomUUID(),
+        startDate: addDays(TODAY, -30),
+        endDate: addDays(TODAY, 120),
+        painCeiling: 5,
+        patterns: { hinge: { mode: 'capped', caps: { maxHardSetsPerWeek: maxHard } } },
+      },
+    ];
+    const plan = await w.clinician.post(`${w.base}/cases/${w.caseId}/plan`, { stages: stages(10), guidance: '' });
+    expect(plan.status).toBe(201);
+    const hard = (n: number) => ({
+      exercises: [
+        {
+          id: randomUUID(),
+          exerciseId: w.dl,
+          sets: Array.from({ length: n }, () => ({ id: randomUUID(), reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 8 })),
+        },
+      ],
+    });
+    const nextMonday = addDays(weekOf(TODAY), 7);
+    const published = async (date: string, n: number) => {
+      const d = (await w.coach.post(`${w.base}/programs/${w.program}/sessions`, { date, title: date, content: hard(n) })).body;
+      const p = await w.coach.post(`${w.base}/sessions/${d.id}/publish`, { version: d.version });
+      expect(p.status).toBe(200);
+      return p.body as { id: string; version: number };
+    };
+    const monday = await published(nextMonday, 3);
+    const friday = await published(addDays(nextMonday, 4), 3);
+    expect((await put(w.clinician, `${w.base}/plans/${plan.body.id}`, { version: 1, stages: stages(4), guidance: '' })).status).toBe(200);
+    expect(await w.held()).toEqual([friday.id]);
+    const back = await w.coach.post(`${w.base}/sessions/${monday.id}/unpublish`, { version: monday.version });
+    expect(back.status, JSON.stringify(back.body)).toBe(200);
+    expect(await w.held()).toEqual([]);
+  });
+
   it('an athlete taken off a program keeps no hold on its sessions', async () => {
     const w = await world(70);
     const teammate = await createMember(h.ds, w.org.id, ['athlete']);
