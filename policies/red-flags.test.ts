@@ -7,7 +7,7 @@ const allNo = (): RedFlagAnswers => Object.fromEntries(RED_FLAG_ITEMS.map((i) =>
 const only = (...ids: string[]): RedFlagAnswers => ({ ...allNo(), ...Object.fromEntries(ids.map((id) => [id, true])) });
 const ids = (tier: 'emergency' | 'urgent') => RED_FLAG_ITEMS.filter((i) => i.tier === tier).map((i) => i.id);
 
-describe('the red-flag items (NICE NG59 2016, updated 2020; Finucane et al. 2020, JOSPT 50:350–372; REFERENCES §7)', () => {
+describe('the red-flag items (NICE NG59 2016, updated 2020; Finucane et al. 2020, JOSPT 50:350–372)', () => {
   it('item ids are unique, so one answer can never stand for two questions', () => {
     const all = RED_FLAG_ITEMS.map((i) => i.id);
     expect(new Set(all).size).toBe(all.length);
@@ -44,7 +44,7 @@ describe('the red-flag items (NICE NG59 2016, updated 2020; Finucane et al. 2020
   });
 });
 
-describe('routing a report (REFERENCES §7 checks)', () => {
+describe('routing a report (NICE NG59; Finucane et al. 2020)', () => {
   it.each(ids('emergency'))('%s alone → emergency (NICE NG59; Finucane et al. 2020)', (id) => {
     expect(routeReport(only(id))).toBe('emergency');
   });
@@ -58,11 +58,11 @@ describe('routing a report (REFERENCES §7 checks)', () => {
     expect(routeReport({})).toBe('routine');
   });
 
-  it('emergency beats urgent when both are answered yes (REFERENCES §7)', () => {
+  it('emergency beats urgent when both are answered yes (NICE NG59; Finucane et al. 2020)', () => {
     for (const e of ids('emergency')) for (const u of ids('urgent')) expect(routeReport(only(e, u))).toBe('emergency');
   });
 
-  it('pain 8 with no flag is not an emergency: the route depends only on the answers (REFERENCES §7 check 2)', () => {
+  it('pain 8 with no flag is not an emergency: the route depends only on the answers (NICE NG59: no flag → clinician, not emergency)', () => {
     const report = PainReportCreateSchema.parse({
       athleteId: '33333333-3333-4333-8333-333333333333',
       bodyRegions: ['lower_back'],
@@ -75,7 +75,7 @@ describe('routing a report (REFERENCES §7 checks)', () => {
     expect(routeReport(report.redFlags)).toBe('routine');
   });
 
-  it('property: any emergency item → emergency whatever the other answers (REFERENCES §7 check 1)', () => {
+  it('property: any emergency item → emergency whatever the other answers (NICE NG59; Finucane et al. 2020)', () => {
     fc.assert(
       fc.property(
         fc.constantFrom(...ids('emergency')),

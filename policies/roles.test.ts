@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { AGE_OF_MAJORITY, ageOn, isMinor, todayIso } from './roles';
 
-describe('age on a date (REFERENCES §11)', () => {
-  it('born 2010-06-15 → 14 on 2025-06-14 and 15 on 2025-06-15: the birthday is the first day of the new age (REFERENCES §11)', () => {
+describe('age on a date (common practice: whole years, counted from the birthday)', () => {
+  it('born 2010-06-15 → 14 on 2025-06-14 and 15 on 2025-06-15: the birthday is the first day of the new age (common practice)', () => {
     expect(ageOn('2010-06-15', '2025-06-14')).toBe(14);
     expect(ageOn('2010-06-15', '2025-06-15')).toBe(15);
     expect(ageOn('2010-06-15', '2025-06-16')).toBe(15);
@@ -21,12 +21,12 @@ describe('age on a date (REFERENCES §11)', () => {
   });
 });
 
-describe('minors (REFERENCES §11: guardian consent plus assent)', () => {
+describe("minors (common practice: guardian consent plus the athlete's assent)", () => {
   it('the age of majority is 18 (from memory: most US states; jurisdictions differ)', () => {
     expect(AGE_OF_MAJORITY).toBe(18);
   });
 
-  it('a minor until the 18th birthday, an adult on it (REFERENCES §11 boundary rule)', () => {
+  it('a minor until the 18th birthday, an adult on it (common practice: the birthday is the first day of the new age)', () => {
     expect(isMinor('2007-06-15', '2025-06-14')).toBe(true);
     expect(isMinor('2007-06-15', '2025-06-15')).toBe(false);
   });

@@ -54,7 +54,7 @@ const day = (n: number) => {
   return d.toISOString().slice(0, 10);
 };
 
-describe('db:backup and db:restore (SECURITY item 36)', () => {
+describe('db:backup and db:restore (45 CFR 164.308(a)(7)(ii)(A) data backup, (B) disaster recovery)', () => {
   let org: TestOrg;
   let tampered: { org: TestOrg; entryId: string };
   let backup: BackupResult;

@@ -258,7 +258,7 @@ describe('defineAbilityFor, beyond the matrix', () => {
   });
 
   it('case fields: coaches, guardians and admins never read a diagnosis or clinical notes; the athlete never reads the notes', () => {
-    // SECURITY item 16 (minimum necessary). The full field lists are in case.ts; these are the lines never to cross.
+    // ASVS 5.0 V8.2.3; 45 CFR 164.502(b) (minimum necessary). The full field lists are in case.ts; these are the lines never to cross.
     const never: Record<Role, string[]> = {
       clinician: [],
       athlete: ['clinicalNotes'],

@@ -50,11 +50,11 @@ const log = (over: Record<string, unknown> = {}) => ({
   ...over,
 });
 
-describe('pain score 0–10 (LOINC 72514-3, integer 0–10; REFERENCES §12; Silbernagel et al. 2007)', () => {
+describe('pain score 0–10 (LOINC 72514-3, integer 0–10, HL7 FHIR R4; Silbernagel et al. 2007)', () => {
   it.each([0, 5, 10])('%d accepted', (v) => expect(PainScoreSchema.safeParse(v).success).toBe(true));
 
   it.each([
-    [11, 'must be from 0 to 10', 'REFERENCES §12: 11 rejected'],
+    [11, 'must be from 0 to 10', 'LOINC 72514-3: 11 rejected'],
     [-1, 'must be from 0 to 10', 'below the scale'],
     [4.5, 'must be a whole number from 0 to 10', 'LOINC 72514-3 value is an integer'],
   ])('%d refused with "%s" (%s)', (v, message) => {
@@ -68,7 +68,7 @@ describe('pain score 0–10 (LOINC 72514-3, integer 0–10; REFERENCES §12; Sil
   });
 });
 
-describe("session RPE on Foster's CR-10 (Foster et al. 2001, JSCR 15:109–115; REFERENCES §3)", () => {
+describe("session RPE on Foster's CR-10 (Foster et al. 2001, JSCR 15:109–115)", () => {
   it('0 (rest) and 10 (maximal) accepted', () => {
     expect(SessionRpeSchema.safeParse(0).success).toBe(true);
     expect(SessionRpeSchema.safeParse(10).success).toBe(true);
@@ -81,7 +81,7 @@ describe("session RPE on Foster's CR-10 (Foster et al. 2001, JSCR 15:109–115; 
   });
 });
 
-describe('set RPE on the reps-in-reserve scale (Zourdos et al. 2016, JSCR 30:267–275; REFERENCES §3)', () => {
+describe('set RPE on the reps-in-reserve scale (Zourdos et al. 2016, JSCR 30:267–275)', () => {
   it('whole and half steps from 1 to 10 accepted', () => {
     for (const v of [1, 7, 8.5, 10]) expect(SetRpeSchema.safeParse(v).success, String(v)).toBe(true);
   });
@@ -104,7 +104,7 @@ describe('TrainingLogCreateSchema', () => {
     expect(TrainingLogCreateSchema.safeParse(log({ sessionRpe: 0 })).success).toBe(true);
   });
 
-  it('session RPE 11 and pain −1 refused, each naming its field (Foster et al. 2001; REFERENCES §12)', () => {
+  it('session RPE 11 and pain −1 refused, each naming its field (Foster et al. 2001; LOINC 72514-3)', () => {
     expect(issues(TrainingLogCreateSchema.safeParse(log({ sessionRpe: 11, painDuring: -1 })))).toEqual({
       sessionRpe: 'must be from 0 to 10',
       painDuring: 'must be from 0 to 10',
@@ -157,7 +157,7 @@ describe('PainReportCreateSchema (NICE NG59: every red-flag question asked)', ()
     expect(issues(PainReportCreateSchema.safeParse(report({ route: 'routine' })))).toEqual({ route: 'unrecognized' });
   });
 
-  it('pain now 11 and worst −1 refused, naming the fields (REFERENCES §12)', () => {
+  it('pain now 11 and worst −1 refused, naming the fields (LOINC 72514-3, integer 0–10)', () => {
     expect(issues(PainReportCreateSchema.safeParse(report({ painNow: 11, painWorst24h: -1 })))).toEqual({
       painNow: 'must be from 0 to 10',
       painWorst24h: 'must be from 0 to 10',
@@ -195,11 +195,11 @@ describe('CheckInSchema and NextMorningSchema', () => {
     expect(issues(CheckInSchema.safeParse(checkIn({ sleepHours: 17 })))).toEqual({ sleepHours: 'must be 0–16' });
   });
 
-  it('check-in pain 11 refused naming painNow (REFERENCES §12)', () => {
+  it('check-in pain 11 refused naming painNow (LOINC 72514-3, integer 0–10)', () => {
     expect(issues(CheckInSchema.safeParse(checkIn({ painNow: 11 })))).toEqual({ painNow: 'must be from 0 to 10' });
   });
 
-  it('next-morning pain needs a version and a 0–10 integer (REFERENCES §12)', () => {
+  it('next-morning pain needs a version and a 0–10 integer (LOINC 72514-3)', () => {
     expect(NextMorningSchema.safeParse({ painNextMorning: 3, version: 1 }).success).toBe(true);
     expect(issues(NextMorningSchema.safeParse({ painNextMorning: 11, version: 1 }))).toEqual({ painNextMorning: 'must be from 0 to 10' });
     expect(issues(NextMorningSchema.safeParse({ painNextMorning: 3 }))).toHaveProperty('version');

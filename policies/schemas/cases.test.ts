@@ -36,7 +36,7 @@ describe('PlanCreateSchema', () => {
     expect(r.data!.guidance).toBe('');
   });
 
-  it('painCeiling defaults to 5 (REFERENCES §6: Silbernagel et al. 2007, AJSM 35:897–906)', () => {
+  it('painCeiling defaults to 5 (Silbernagel et al. 2007, AJSM 35:897–906)', () => {
     const r = PlanCreateSchema.parse({ stages: [stage(ID1, '2026-01-05', '2026-01-18')] });
     expect(r.stages[0].painCeiling).toBe(5);
   });
@@ -44,16 +44,16 @@ describe('PlanCreateSchema', () => {
   it.each([
     [0, true, '0 is the bottom of the 0–10 scale (Silbernagel 2007)'],
     [10, true, '10 is the top of the 0–10 scale (Silbernagel 2007)'],
-    [11, false, 'past the 0–10 scale (Silbernagel 2007; REFERENCES §12: 11 rejected)'],
+    [11, false, 'past the 0–10 scale (Silbernagel 2007; LOINC 72514-3: 11 rejected)'],
     [-1, false, 'below the scale (Silbernagel 2007)'],
-    [4.5, false, 'the scale is whole numbers (REFERENCES §12, LOINC 72514-3 integer 0–10)'],
+    [4.5, false, 'the scale is whole numbers (LOINC 72514-3, integer 0–10)'],
   ])('painCeiling %s accepted: %s (%s)', (painCeiling, ok, _why) => {
     const r = PlanStageSchema.safeParse(stage(ID1, '2026-01-05', '2026-01-18', { painCeiling }));
     if (ok) expect(r.success).toBe(true);
     else expect(issuePaths(r)).toEqual(['painCeiling']);
   });
 
-  it("overlapping stages are refused on the later stage's start, naming the stage it overlaps (both ends inclusive, REFERENCES §12)", () => {
+  it("overlapping stages are refused on the later stage's start, naming the stage it overlaps (both ends inclusive, as HL7 FHIR R4 Period)", () => {
     const r = PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18'), stage(ID2, '2026-01-18', '2026-02-07')] });
     expect(issuePaths(r)).toEqual(['stages.1.startDate']);
     expect(r.error!.issues[0].message).toMatch(/overlaps stage 1/);
@@ -81,7 +81,7 @@ describe('PlanCreateSchema', () => {
     expect(r.error!.issues[0].message).toContain(mode);
   });
 
-  it('a pattern not on the list, an unknown key, or no stages at all are refused (SECURITY item 21: unknown keys refused)', () => {
+  it('a pattern not on the list, an unknown key, or no stages at all are refused (ASVS 5.0 V2.2.1: unknown keys refused)', () => {
     expect(
       PlanCreateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18', { patterns: { deadlift: { mode: 'blocked' } } })] })
         .success,
@@ -90,12 +90,12 @@ describe('PlanCreateSchema', () => {
     expect(issuePaths(PlanCreateSchema.safeParse({ stages: [] }))).toEqual(['stages']);
   });
 
-  it('an update must carry the version it was made against (SECURITY item 32)', () => {
+  it('an update must carry the version it was made against (optimistic locking, common practice: a stale version is refused, never silently overwritten)', () => {
     expect(issuePaths(PlanUpdateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18')], guidance: '' }))).toEqual(['version']);
     expect(PlanUpdateSchema.safeParse({ stages: [stage(ID1, '2026-01-05', '2026-01-18')], version: 2 }).success).toBe(true);
   });
 
-  it('property: any two stages sharing a day are refused, and the issue names a stage index (REFERENCES §12; common practice)', () => {
+  it('property: any two stages sharing a day are refused, and the issue names a stage index (HL7 FHIR R4 Period; common practice)', () => {
     const day = (n: number) => new Date(Date.UTC(2026, 0, 1 + n)).toISOString().slice(0, 10);
     fc.assert(
       fc.property(
@@ -153,20 +153,20 @@ describe('case schemas', () => {
     expect(StatusChangeSchema.safeParse({ status: 'out', effectiveFrom: '2026-01-05', version: 1 }).success).toBe(true);
   });
 
-  it('a write cannot move a case or widen rights: organizationId and athleteId are not accepted fields (SECURITY item 16)', () => {
+  it('a write cannot move a case or widen rights: organizationId and athleteId are not accepted fields (ASVS 5.0 V8.2.3; 45 CFR 164.502(b))', () => {
     expect(CaseCreateSchema.safeParse({ ...create, organizationId: ID1 }).success).toBe(false);
     expect(CaseUpdateSchema.safeParse({ version: 1, organizationId: ID1 }).success).toBe(false);
     expect(CaseUpdateSchema.safeParse({ version: 1, athleteId: ID1 }).success).toBe(false);
     expect(CaseUpdateSchema.safeParse({ version: 1, diagnosis: null, clinicalNotes: null }).success).toBe(true);
   });
 
-  it('updates, status changes and closing carry the version (SECURITY item 32)', () => {
+  it('updates, status changes and closing carry the version (optimistic locking, common practice: a stale version is refused, never silently overwritten)', () => {
     expect(issuePaths(CaseUpdateSchema.safeParse({ diagnosis: 'x' }))).toEqual(['version']);
     expect(issuePaths(StatusChangeSchema.safeParse({ status: 'out', effectiveFrom: '2026-01-05' }))).toEqual(['version']);
     expect(issuePaths(CaseCloseSchema.safeParse({ closedOn: '2026-01-05' }))).toEqual(['version']);
   });
 
-  it('dates are calendar dates YYYY-MM-DD (HL7 FHIR R4 date; REFERENCES §12)', () => {
+  it('dates are calendar dates YYYY-MM-DD (HL7 FHIR R4 date)', () => {
     expect(issuePaths(CaseCloseSchema.safeParse({ closedOn: '2026-02-30', version: 1 }))).toEqual(['closedOn']);
     expect(issuePaths(CaseCloseSchema.safeParse({ closedOn: '05/01/2026', version: 1 }))).toEqual(['closedOn']);
   });

@@ -7,7 +7,7 @@ import { createOrg, TEST_PASSWORD } from '../test/factories';
 describe('sign-in limits are counted in PostgreSQL, across app processes', () => {
   const h = useHarness({ SIGNIN_MAX_FAILURES_PER_ACCOUNT: '4', SIGNIN_MAX_PER_IP: '1000' });
 
-  it('two app instances on one database share the per-account count (SECURITY 3)', async () => {
+  it('two app instances on one database share the per-account count (ASVS 5.0 V6.3.1)', async () => {
     const org = await createOrg(h.ds);
     // A second process: same database, same configuration, its own Express app and memory.
     const other = buildApp({ ds: h.ds, config: h.config, logger: pino({ level: 'silent' }) });

@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Why: password reset (SECURITY 4, 5) and two-step sign-in (SECURITY 6).
+ * Why: password reset (ASVS 5.0 V6.3.8, V6.4.1, V6.4.3) and two-step sign-in (ASVS 5.0 V6.3.3).
  * - password_reset_tokens: only the SHA-256 of each link's token, single use, short-lived.
  * - user_totp: the authenticator secret, encrypted (AES-256-GCM), and the last time step used, so a
  *   code cannot be replayed within its window.
