@@ -3,23 +3,33 @@
  * tar of the local uploads folder beside the dump. `scripts/db.ts backup | restore` are the command
  * lines over these functions; `scripts/backup.test.ts` calls them directly.
  */
-import { spawn } from 'node:child_process';
-import { closeSync, existsSync, fstatSync, mkdirSync, openSync, readSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { closeSync, existsSync, openSync, readSync, statSync } from 'node:fs';
 import path from 'node:path';
 import pg from 'pg';
 import type { EntityManager } from 'typeorm';
 import { createDataSource } from '../server/src/data-source';
 import { verifyChain, type ChainReport } from '../server/src/services/audit';
+import {
+  BackupError,
+  databaseName,
+  pgTool,
+  runTool,
+  serverMajor,
+  stamp,
+  toolConnection,
+  withClient,
+  withDatabase,
+  writeThrough,
+} from './backup-tools';
 import { ROOT } from './pg-cluster';
+
+export { BackupError, pgTool } from './backup-tools';
 
 export const BACKUP_DIR = path.join(ROOT, '.data', 'backups');
 /** Every custom-format archive starts with these bytes. */
 const ARCHIVE_MAGIC = 'PGDMP';
 /** PostgreSQL truncates identifiers longer than this, which would make two of our names collide. */
 const MAX_IDENTIFIER = 63;
-
-/** A problem named in a sentence for the person at the command line (no stack trace needed). */
-export class BackupError extends Error {}
 
 /** Rows per table, keyed by table name (`schema.table` outside `public`). */
 export type TableCounts = Record<string, number>;
@@ -32,129 +42,6 @@ export async function verifyAllChains(manager: EntityManager): Promise<ChainRepo
   const reports: ChainReport[] = [];
   for (const { organization_id } of orgs) reports.push(await verifyChain(manager, organization_id));
   return reports;
-}
-
-/** A UTC timestamp that sorts and is safe in file and database names: 20261202T033612Z. */
-function stamp(at = new Date()): string {
-  return at
-    .toISOString()
-    .replace(/[-:]/g, '')
-    .replace(/\.\d+Z$/, 'Z');
-}
-
-function databaseName(url: string): string {
-  const name = decodeURIComponent(new URL(url).pathname.slice(1));
-  if (!name) throw new BackupError(`the database URL names no database: ${redact(url)}`);
-  return name;
-}
-
-function withDatabase(url: string, name: string): string {
-  const u = new URL(url);
-  u.pathname = `/${encodeURIComponent(name)}`;
-  return u.toString();
-}
-
-function redact(url: string): string {
-  const u = new URL(url);
-  if (u.password) u.password = '***';
-  return u.toString();
-}
-
-/**
- * The connection string for a client tool, without its password: that goes in PGPASSWORD, so it
- * never shows up in the process list.
- */
-function toolConnection(url: string): { uri: string; env: NodeJS.ProcessEnv } {
-  const u = new URL(url);
-  const password = decodeURIComponent(u.password);
-  u.password = '';
-  const env: NodeJS.ProcessEnv = { ...process.env };
-  if (password) env.PGPASSWORD = password;
-  return { uri: u.toString(), env };
-}
-
-async function withClient<T>(url: string, fn: (c: pg.Client) => Promise<T>): Promise<T> {
-  const client = new pg.Client({ connectionString: url });
-  await client.connect();
-  try {
-    return await fn(client);
-  } finally {
-    await client.end();
-  }
-}
-
-/**
- * Debian's pg_dump / pg_restore for the server's major version (the one under
- * /usr/lib/postgresql/<version>/bin, as pg-cluster.ts finds initdb). A newer client can read an older
- * server; an older one refuses, so that case is named here rather than by the tool. Without a
- * version: the newest installed.
- */
-export function pgTool(tool: 'pg_dump' | 'pg_restore', serverMajor?: number): string {
-  const base = '/usr/lib/postgresql';
-  const versions = existsSync(base)
-    ? readdirSync(base)
-        .map(Number)
-        .filter((v) => v > 0 && existsSync(path.join(base, String(v), 'bin', tool)))
-        .sort((a, b) => a - b)
-    : [];
-  const fit =
-    serverMajor === undefined ? versions.at(-1) : versions.includes(serverMajor) ? serverMajor : versions.find((v) => v > serverMajor);
-  if (fit === undefined) {
-    const found = versions.length ? `only version ${versions.join(', ')} is installed` : 'none is installed';
-    const want = serverMajor ?? '';
-    throw new BackupError(
-      `${tool}${want ? ` for PostgreSQL ${want}` : ''} is needed under ${base} but ${found}; install Debian's "postgresql-client${want ? `-${want}` : ''}"`,
-    );
-  }
-  return path.join(base, String(fit), 'bin', tool);
-}
-
-async function serverMajor(url: string): Promise<number> {
-  return withClient(url, async (c) => {
-    const { rows } = await c.query<{ v: string }>("SELECT current_setting('server_version_num') AS v");
-    return Math.floor(Number(rows[0].v) / 10_000);
-  });
-}
-
-/** Runs a tool; its stdout goes to `stdoutFd` when given, otherwise it is returned. */
-function runTool(file: string, args: string[], env: NodeJS.ProcessEnv, stdoutFd?: number, okCodes = [0]): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const child = spawn(file, args, { env, stdio: ['ignore', stdoutFd ?? 'pipe', 'pipe'] });
-    const out: Buffer[] = [];
-    const err: Buffer[] = [];
-    child.stdout?.on('data', (b: Buffer) => out.push(b));
-    child.stderr?.on('data', (b: Buffer) => err.push(b));
-    child.on('error', reject);
-    child.on('close', (code) => {
-      if (code !== null && okCodes.includes(code)) resolve(Buffer.concat(out).toString('utf8'));
-      else reject(new BackupError(`${path.basename(file)} failed (exit ${code}): ${Buffer.concat(err).toString('utf8').trim()}`));
-    });
-  });
-}
-
-/** A new file only we can read (0600 from the start, not chmod-ed after the data is in it). */
-function createPrivateFile(file: string): number {
-  mkdirSync(path.dirname(file), { recursive: true, mode: 0o700 });
-  try {
-    return openSync(file, 'wx', 0o600);
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'EEXIST') throw new BackupError(`${file} already exists; give another file name`);
-    throw err;
-  }
-}
-
-/** Writes a file through a tool's stdout; a failed run leaves no partial file behind. */
-async function writeThrough(file: string, write: (fd: number) => Promise<unknown>): Promise<number> {
-  const fd = createPrivateFile(file);
-  let ok = false;
-  try {
-    await write(fd);
-    ok = true;
-    return fstatSync(fd).size;
-  } finally {
-    closeSync(fd);
-    if (!ok) rmSync(file, { force: true });
-  }
 }
 
 /** Row counts of every table outside the system schemas (partitions are counted in their parent). */
