@@ -50,11 +50,22 @@ const why = (m: Model, s: SessionView & { programId: string }) =>
     .map((a) => `athlete ${athleteLabel(m, a)}: ${[...new Set(blockingBreaches(m, a, s).map((b) => b.rule))].join('; ')}`)
     .join(' / ');
 
-class CreateSession extends Step {
+/** Publishes a draft: refused (422) exactly when the model finds an unwaived breach for one of its athletes. */
+async function publish(m: Model, r: Real, s: SessionM): Promise<string> {
+  const res = await call(r, 'coach', 'post', `/sessions/${s.id}/publish`, { version: await versionOf(r, 'program_sessions', s.id) });
+  const refused = refusedFor(m, s).length > 0;
+  expectStatus(res, [refused ? 422 : 200], `publish ${s.label} on ${s.date}${refused ? ` (model: ${why(m, s)})` : ''}`);
+  if (res.status === 200) s.published = true;
+  return `${s.label}: publish → ${res.status}${refused ? ` (${why(m, s)})` : ''}`;
+}
+
+/** A new draft session, published at once when `publish` (as a coach usually does). */
+export class CreateSession extends Step {
   constructor(
     readonly program: number,
     readonly day: number,
     readonly blocks: BlockSpec[],
+    readonly publish = false,
   ) {
     super();
   }
@@ -72,17 +83,19 @@ class CreateSession extends Step {
     });
     expectStatus(res, [201], 'create a session');
     const label = `s${m.sessions.length + 1}`;
-    m.sessions.push({ id: res.body.id, label, programId: program.id, date, blocks, published: false });
-    return `${label}: draft on ${date} for ${program.athleteIds.map((a) => athleteLabel(m, a)).join('+')}: ${JSON.stringify(blocks.map((b) => [b.exerciseId.slice(0, 4), b.sets.map((s) => [s.reps, s.load, s.targetRpe])]))}`;
+    const session: SessionM = { id: res.body.id, label, programId: program.id, date, blocks, published: false };
+    m.sessions.push(session);
+    const line = `${label}: draft on ${date} for ${program.athleteIds.map((a) => athleteLabel(m, a)).join('+')}: ${JSON.stringify(blocks.map((b) => [b.exerciseId.slice(0, 4), b.sets.map((s) => [s.reps, s.load, s.targetRpe])]))}`;
+    return this.publish ? `${line}\n    ${await publish(m, r, session)}` : line;
   }
   toString() {
-    return `CreateSession(program ${this.program}, today+${this.day}, ${JSON.stringify(this.blocks)})`;
+    return `CreateSession(program ${this.program}, today+${this.day}, ${JSON.stringify(this.blocks)}${this.publish ? ', publish' : ''})`;
   }
 }
 
 type Edit = { kind: 'replace'; blocks: BlockSpec[] } | { kind: 'tweak'; set: number; to: Partial<SetSpec> } | { kind: 'move'; day: number };
 
-class EditSession extends Step {
+export class EditSession extends Step {
   constructor(
     readonly which: number,
     readonly edit: Edit,
@@ -126,7 +139,7 @@ class EditSession extends Step {
   }
 }
 
-class Publish extends Step {
+export class Publish extends Step {
   constructor(readonly which: number) {
     super();
   }
@@ -134,22 +147,21 @@ class Publish extends Step {
     return m.sessions.some((s) => !s.published);
   }
   async act(m: Model, r: Real) {
-    const s = pick(
-      m.sessions.filter((x) => !x.published),
-      this.which,
+    return publish(
+      m,
+      r,
+      pick(
+        m.sessions.filter((x) => !x.published),
+        this.which,
+      ),
     );
-    const res = await call(r, 'coach', 'post', `/sessions/${s.id}/publish`, { version: await versionOf(r, 'program_sessions', s.id) });
-    const refused = refusedFor(m, s).length > 0;
-    expectStatus(res, [refused ? 422 : 200], `publish ${s.label} on ${s.date}${refused ? ` (model: ${why(m, s)})` : ''}`);
-    if (res.status === 200) s.published = true;
-    return `${s.label}: publish → ${res.status}${refused ? ` (${why(m, s)})` : ''}`;
   }
   toString() {
     return `Publish(draft ${this.which})`;
   }
 }
 
-class Unpublish extends Step {
+export class Unpublish extends Step {
   constructor(readonly which: number) {
     super();
   }
@@ -180,7 +192,7 @@ function breachingPairs(m: Readonly<Model>) {
   );
 }
 
-class RequestException extends Step {
+export class RequestException extends Step {
   constructor(
     readonly which: number,
     readonly count: number,
@@ -196,7 +208,7 @@ class RequestException extends Step {
     const res = await call(r, 'coach', 'post', `/sessions/${s.id}/exceptions`, { athleteId, setIds, reason: 'Agreed with the physio' });
     expectStatus(res, [201], 'ask for an exception');
     const label = `x${m.exceptions.length + 1}`;
-    m.exceptions.push({ id: res.body.id, label, sessionId: s.id, athleteId, setIds, status: 'pending', granted: {} });
+    m.exceptions.push({ id: res.body.id, label, sessionId: s.id, athleteId, setIds, status: 'pending', grantedSetIds: [], granted: {} });
     return `${label}: exception asked on ${s.label} for athlete ${athleteLabel(m, athleteId)}, ${setIds.length} set(s)`;
   }
   toString() {
@@ -204,7 +216,7 @@ class RequestException extends Step {
   }
 }
 
-class DecideException extends Step {
+export class DecideException extends Step {
   constructor(
     readonly which: number,
     readonly grant: boolean,
@@ -231,6 +243,7 @@ class DecideException extends Step {
     if (this.grant) {
       const s = m.sessions.find((y) => y.id === x.sessionId)!;
       const granted = setIds ?? x.setIds;
+      x.grantedSetIds = granted;
       for (const b of s.blocks)
         for (const set of b.sets) if (granted.includes(set.id)) x.granted[set.id] = setKey(b.exerciseId, s.date, set);
     }
@@ -244,7 +257,7 @@ class DecideException extends Step {
 type Move = { to: [hour: number, minute: number] } | { days: number };
 
 /** The clock moves forward; sessions expire after 30 idle minutes, so the staff sign in again. */
-class Advance extends Step {
+export class Advance extends Step {
   constructor(readonly move: Move) {
     super();
   }
@@ -270,11 +283,15 @@ const setArb: fc.Arbitrary<SetSpec> = fc.record({
   ),
   targetRpe: fc.integer({ min: 10, max: 20 }).map((n) => n / 2),
 });
-const blocksArb = fc.array(fc.record({ exercise: fc.nat(), sets: fc.array(setArb, { minLength: 1, maxLength: 3 }) }), {
+export const blocksArb = fc.array(fc.record({ exercise: fc.nat(), sets: fc.array(setArb, { minLength: 1, maxLength: 3 }) }), {
   minLength: 1,
-  maxLength: 3,
+  maxLength: 2,
 });
-const dayArb = fc.integer({ min: 0, max: 14 });
+// Mostly within the next few days, so that sessions often share an ISO week (weekly limits, exceptions).
+export const dayArb = fc.oneof(
+  { arbitrary: fc.integer({ min: 0, max: 4 }), weight: 2 },
+  { arbitrary: fc.integer({ min: 0, max: 14 }), weight: 1 },
+);
 const editArb: fc.Arbitrary<Edit> = fc.oneof(
   blocksArb.map((blocks) => ({ kind: 'replace' as const, blocks })),
   fc
@@ -294,13 +311,30 @@ const moveArb: fc.Arbitrary<Move> = fc.oneof(
   fc.constantFrom(1, 2).map((days) => ({ days })),
 );
 
+const times = <T>(n: number, arb: fc.Arbitrary<T>) => Array<fc.Arbitrary<T>>(n).fill(arb);
+
 /** Weighted by repetition: fc.commands picks among the arbitraries evenly. */
 export const sessionCommands: fc.Arbitrary<Step>[] = [
-  ...Array(4).fill(fc.tuple(fc.nat(), dayArb, blocksArb).map(([p, d, b]) => new CreateSession(p, d, b))),
-  ...Array(2).fill(fc.tuple(fc.nat(), editArb).map(([s, e]) => new EditSession(s, e))),
-  ...Array(4).fill(fc.nat().map((s) => new Publish(s))),
+  ...times(
+    5,
+    fc.tuple(fc.nat(), dayArb, blocksArb, fc.boolean()).map(([p, d, b, publish]) => new CreateSession(p, d, b, publish)),
+  ),
+  ...times(
+    2,
+    fc.tuple(fc.nat(), editArb).map(([s, e]) => new EditSession(s, e)),
+  ),
+  ...times(
+    2,
+    fc.nat().map((s) => new Publish(s)),
+  ),
   fc.nat().map((s) => new Unpublish(s)),
-  ...Array(2).fill(fc.tuple(fc.nat(), fc.nat()).map(([s, c]) => new RequestException(s, c))),
-  ...Array(2).fill(fc.tuple(fc.nat(), fc.boolean(), fc.boolean()).map(([x, g, n]) => new DecideException(x, g, n))),
-  ...Array(2).fill(moveArb.map((move) => new Advance(move))),
+  ...times(
+    2,
+    fc.tuple(fc.nat(), fc.nat()).map(([s, c]) => new RequestException(s, c)),
+  ),
+  ...times(
+    2,
+    fc.tuple(fc.nat(), fc.boolean(), fc.boolean()).map(([x, g, n]) => new DecideException(x, g, n)),
+  ),
+  moveArb.map((move) => new Advance(move)),
 ];

@@ -78,7 +78,8 @@ export interface ExceptionM {
   athleteId: string;
   setIds: string[];
   status: 'pending' | 'granted' | 'refused';
-  /** Granted set id → the set as it was when granted (checker.ts `setKey`). */
+  grantedSetIds: string[];
+  /** Granted set id → the set as it was when granted (checker.ts `setKey`); a granted set no longer in the session has none. */
   granted: Record<string, string>;
 }
 
@@ -142,6 +143,15 @@ export function nextWallClock(zone: string, ms: number, hh: number, mm: number):
     if (w.hour === hh && w.minute === mm) return t;
   }
   throw new Error(`${zone} never reads ${hh}:${mm} after ${new Date(ms).toISOString()}`);
+}
+
+/** The instant the zone's clock reads hh:mm on `day` (the first one, on a day the clock goes back). */
+export function wallClockOn(zone: string, day: string, hh: number, mm: number): number {
+  // 15 hours before midnight UTC is before the day starts in every zone (UTC−12 to UTC+14).
+  let t = Date.parse(`${day}T00:00:00Z`) - 15 * 3_600_000;
+  do t = nextWallClock(zone, t, hh, mm);
+  while (wallClock(zone, t).day !== day);
+  return t;
 }
 
 export function addDays(day: string, n: number): string {
