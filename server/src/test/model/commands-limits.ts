@@ -274,7 +274,13 @@ const CAP_KEYS = (Object.keys(CAP_VALUES) as (keyof Caps)[]).filter((k) => k !==
 const capsArb: fc.Arbitrary<Caps> = fc
   .tuple(
     fc.oneof(
-      { arbitrary: fc.constantFrom(...CAP_KEYS).map((k) => [k]), weight: 3 },
+      // The counting caps (per session, per week) span several sets and sessions: asked for twice as often.
+      {
+        arbitrary: fc
+          .constantFrom(...CAP_KEYS, ...CAP_KEYS.filter((k) => k.startsWith('maxSets') || k.startsWith('maxHard')))
+          .map((k) => [k]),
+        weight: 3,
+      },
       { arbitrary: fc.subarray(CAP_KEYS, { minLength: 2, maxLength: 2 }), weight: 1 },
     ),
     fc.record(CAP_VALUES),
