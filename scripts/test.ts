@@ -2,6 +2,9 @@
  * `npm test`: type-check, then unit + integration tests (vitest, real PostgreSQL in a fresh test
  * database), then browser tests (Playwright driving Debian's Chromium against the built app on a
  * fresh e2e database with the demo scenario). Exits non-zero on the first failing stage.
+ *
+ * `npm run test:model` (the `model` stage, only when named): the model-based test of the guarantee
+ * alone, with many runs (MODEL_RUNS, default 300; MODEL_STEPS, default 20) on a fresh database.
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
@@ -60,6 +63,18 @@ try {
     cluster ??= db.cluster;
     const code = await run('npx', ['vitest', 'run'], { TEST_DATABASE_URL: db.url });
     if (code !== 0) throw new Error('vitest failed');
+  }
+
+  if (args.has('model')) {
+    stage('model-based test of the guarantee (fast-check, real PostgreSQL)');
+    const db = await openDatabase('loadline_test_model', true);
+    cluster ??= db.cluster;
+    const code = await run('npx', ['vitest', 'run', '--project', 'server', 'server/src/test/model/'], {
+      TEST_DATABASE_URL: db.url,
+      MODEL_RUNS: process.env.MODEL_RUNS ?? '300',
+      MODEL_STEPS: process.env.MODEL_STEPS ?? '20',
+    });
+    if (code !== 0) throw new Error('model-based test failed');
   }
 
   if (only('e2e')) {
