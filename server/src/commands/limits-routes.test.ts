@@ -34,6 +34,7 @@ describe('the one "limits changed" path', () => {
         "POST   /api/orgs/:orgId/pain-reports  ⇒  reportPain!",
         "PATCH  /api/orgs/:orgId/exercises/:id  ⇒  exercises.edit!",
         "POST   /api/orgs/:orgId/athletes/:id/baselines  ⇒  baselines.record!",
+        "PUT    /api/orgs/:orgId/sessions/:id  ⇒  sessions.update!",
         "DELETE /api/orgs/:orgId/sessions/:id  ⇒  sessions.delete!",
         "POST   /api/orgs/:orgId/sessions/:id/unpublish  ⇒  sessions.unpublish!",
         "POST   /api/orgs/:orgId/exceptions/:id/decide  ⇒  exceptions.decide!",

@@ -144,6 +144,7 @@ export const addSession = orgCommand({
 /** An edit of a published session is checked again on the organization's today and refused (422) if it breaches. */
 export const editSession = orgCommand({
   name: 'sessions.update',
+  changesLimits: true,
   async run(ctx, input: SessionUpdateInput & { id: string; unit: Unit }): Promise<ProgramSessionDto> {
     if (input.content) assertUniqueIds(input.content);
     const { session, program } = await sessionWithProgram(ctx.m, ctx.ability, ctx.actor, input.id, 'update');
@@ -173,6 +174,8 @@ export const editSession = orgCommand({
       before: { date: session.date, title: session.title, content: session.content },
       after: { date: next.date, title: next.title, content: next.content },
     });
+    // A lighter (or moved) published session can free up its old week for a later held session.
+    await weekMayHaveFreedUp(ctx, session.status === 'published', program.athleteIds);
     return sessionDto(ctx, session.id, program.name);
   },
 });

@@ -22,7 +22,18 @@
  * Every generated set carries a target RPE, so the model never estimates an RPE from %1RM and reps
  * (the NSCA table); that part of the engine is left to its unit tests.
  */
-import { exerciseOf, mondayOf, type Caps, type Model, type Pattern, type SessionView, type SetM, type Stage, type Status } from './model';
+import {
+  exerciseOf,
+  mondayOf,
+  todayOf,
+  type Caps,
+  type Model,
+  type Pattern,
+  type SessionView,
+  type SetM,
+  type Stage,
+  type Status,
+} from './model';
 
 const SEVERITY: Record<Status, number> = { full: 0, limited: 1, out: 2 };
 /** Loads and percentages are compared with a little room, as any float comparison of a cap. */
@@ -148,8 +159,18 @@ export function publishedInWeek(m: Model, athleteId: string, date: string, excep
 
 /** Unwaived breaches of one session for one athlete, were it published as it stands (publish and edit are checked so). */
 export function blockingBreaches(m: Model, athleteId: string, session: SessionView): Breach[] {
-  const waived = waivedSets(m, athleteId, session);
-  return breaches(m, athleteId, [session, ...publishedInWeek(m, athleteId, session.date, session.id)]).filter(
-    (b) => b.sessionId === session.id && !waived.has(b.setId),
+  const others = publishedInWeek(m, athleteId, session.date, session.id);
+  const today = todayOf(m);
+  const dateOf = new Map(others.map((o) => [o.id, o.date]));
+  const waivedIn = new Map(others.map((o) => [o.id, waivedSets(m, athleteId, o)]));
+  const own = waivedSets(m, athleteId, session);
+  // A change is refused for its own unwaived breaches, and for those it newly causes in a later
+  // published session of the week from today on (the weekly hard-set count runs in date order).
+  const key = (b: Breach) => `${b.setId}:${b.rule}`;
+  const before = new Set(breaches(m, athleteId, others).map(key));
+  return breaches(m, athleteId, [session, ...others]).filter((b) =>
+    b.sessionId === session.id
+      ? !own.has(b.setId)
+      : (dateOf.get(b.sessionId) ?? '') >= today && !before.has(key(b)) && !waivedIn.get(b.sessionId)!.has(b.setId),
   );
 }

@@ -10,6 +10,11 @@
  * `MODEL_KNOWN_BUGS` overrides the list for one run: `none` (check everything, to see a bug fail),
  * or a comma-separated list of the names below.
  */
+/**
+ * Every bug the test has found, by name (each with its replayed sequence in known-bugs.model.test.ts).
+ * All five are fixed: ACTIVE_BY_DEFAULT is empty, so the test steps around none of them and checks
+ * every path; the names stay so `MODEL_KNOWN_BUGS=<name>` can still show what a step-around did.
+ */
 export const KNOWN_BUG_NAMES = [
   /**
    * PATCH /orgs/:orgId/exercises/:id: the update schema is the create schema made `.partial()`, and
@@ -51,9 +56,12 @@ export const KNOWN_BUG_NAMES = [
 ] as const;
 export type KnownBug = (typeof KNOWN_BUG_NAMES)[number];
 
+/** The bugs still open, stepped around unless MODEL_KNOWN_BUGS says otherwise: none. */
+const ACTIVE_BY_DEFAULT: readonly KnownBug[] = [];
+
 function fromEnv(): ReadonlySet<KnownBug> {
   const raw = process.env.MODEL_KNOWN_BUGS;
-  if (raw === undefined) return new Set(KNOWN_BUG_NAMES);
+  if (raw === undefined) return new Set(ACTIVE_BY_DEFAULT);
   if (raw.trim() === 'none') return new Set();
   const names = raw.split(',').map((s) => s.trim());
   for (const n of names) if (!(KNOWN_BUG_NAMES as readonly string[]).includes(n)) throw new Error(`MODEL_KNOWN_BUGS: unknown bug "${n}"`);
