@@ -49,7 +49,7 @@ export type ReportRoute = 'emergency' | 'urgent' | 'routine';
 /**
  * Any emergency item → emergency, whatever the pain score; any urgent item → urgent; otherwise
  * routine. A high pain score alone (say 8 with no flag) is routed to the clinician, not treated as
- * an emergency (REFERENCES section 7 checks).
+ * an emergency (NICE NG59 2016, updated 2020; Finucane et al. 2020, JOSPT 50:350–372).
  */
 export function routeReport(answers: RedFlagAnswers): ReportRoute {
   const yes = (tier: RedFlagTier) => RED_FLAG_ITEMS.some((i) => i.tier === tier && answers[i.id] === true);
