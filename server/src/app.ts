@@ -8,6 +8,7 @@ import type { Deps } from './http/context';
 import type { JobQueue } from './jobs/queue';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { mountRoutes } from './http/route';
+import { hostCheck } from './http/host-check';
 import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
 import { healthRoutes } from './routes/health/health.router';
 import { sessionRoutes } from './routes/session/session.router';
@@ -62,6 +63,8 @@ export function buildApp(base: AppDeps) {
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   );
+  // Before any handler, static files included: a request for another host is refused (http/host-check.ts).
+  app.use(hostCheck(config));
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -5,7 +5,16 @@ const ConfigSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   HOST: z.string().default('127.0.0.1'),
   SESSION_SECRET: z.string().min(32, { message: 'SESSION_SECRET must be at least 32 characters' }),
-  PUBLIC_URL: z.string().url().optional(),
+  /**
+   * The address people use to reach Loadline (scheme, host, port, optional path): every link in an
+   * e-mail or letter starts with it, and requests for any other Host are refused. Required in
+   * production (NODE_ENV=production or SECURE_COOKIES=true); `npm start` sets it to its own address.
+   */
+  PUBLIC_URL: z
+    .string()
+    .url()
+    .refine((v) => /^https?:\/\//i.test(v) && !/[?#]/.test(v), { message: 'PUBLIC_URL must be an http(s) address without a query or fragment' })
+    .optional(),
   /** Cookies get the Secure flag when the app is served over TLS (behind a proxy that terminates it). */
   SECURE_COOKIES: z.enum(['true', 'false']).default('false'),
   TRUST_PROXY: z.enum(['true', 'false']).default('false'),
@@ -78,5 +87,12 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
   }
-  return { ...parsed.data, ...overrides };
+  const config = { ...parsed.data, ...overrides };
+  const production = env.NODE_ENV === 'production' || config.SECURE_COOKIES === 'true';
+  if (production && !config.PUBLIC_URL) {
+    throw new Error(
+      'Invalid configuration:\n  PUBLIC_URL: is required in production (NODE_ENV=production or SECURE_COOKIES=true), e.g. PUBLIC_URL=https://loadline.example.org — links in e-mails are built from it, never from the request',
+    );
+  }
+  return config;
 }

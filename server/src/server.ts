@@ -7,7 +7,7 @@ import type { Config } from './config';
 import { createDataSource } from './data-source';
 import { JobQueue, setNoticeQueue } from './jobs/queue';
 import { setNoticeBaseUrl } from './services/notify';
-import { rememberListeningAddress } from './core/public-url';
+import { publicBaseUrl, rememberListeningAddress } from './core/public-url';
 import { createTransport, deliver } from './mail/deliveries';
 
 export interface RunningServer {
@@ -52,7 +52,7 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
   const port = typeof address === 'object' && address ? address.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
   rememberListeningAddress(config.HOST, port);
-  setNoticeBaseUrl(config.PUBLIC_URL ?? url);
+  setNoticeBaseUrl(publicBaseUrl(config));
   let stopping: Promise<void> | null = null;
   return {
     url,

@@ -98,7 +98,9 @@ describe('a signed letter', () => {
 
 /**
  * Links in e-mails and letters are built from configuration, never from the request's Host header,
- * which the sender controls (OWASP "password reset poisoning"; ASVS 5.0 V3 and V13 host handling).
+ * which the sender controls (OWASP WSTG-INPV-17, host header injection; "password reset
+ * poisoning"): a signing request for another host is refused before the handler, and the letter
+ * signed afterwards carries the configured base only.
  */
 function forgedHostSigning(harness: Harness, base: () => string) {
   const FORGED = 'attacker.example';
@@ -106,14 +108,14 @@ function forgedHostSigning(harness: Harness, base: () => string) {
   let letter: Awaited<ReturnType<typeof signLetter>>;
   beforeAll(async () => {
     theirs = await createOrg(harness.ds);
-    letter = await signLetter(harness.app, theirs, { host: FORGED });
+    letter = await signLetter(harness.app, theirs, { forgedHost: FORGED });
     await waitFor('every delivery of the letter sent', async () => {
       const r = await deliveriesWhere(harness.ds, 'letter_id = $1', [letter.id]);
       return r.length === 3 && r.every((d) => d.status === 'sent');
     });
   });
 
-  it('e-mails links to the configured base only, in the text and the HTML', async () => {
+  it('the refused request sent nothing: one e-mail per recipient, each linking to the configured base only', async () => {
     const mail = await letterMailTo(harness.ds, [theirs.guardian.email, theirs.athlete.email, theirs.coach.email]);
     expect(mail).toHaveLength(3);
     for (const m of mail) {

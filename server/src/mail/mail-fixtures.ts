@@ -64,10 +64,10 @@ export const jobsFor = async (db: DataSource, deliveryIds: string[]): Promise<{ 
   ]);
 
 /**
- * A letter drafted and signed over HTTP by the organization's clinician. `host` sends the signing
- * request with that Host header, as a forged request would.
+ * A letter drafted and signed over HTTP by the organization's clinician. `forgedHost` first sends
+ * the signing request with that Host header, as a forged request would, and expects it refused.
  */
-export async function signLetter(app: Express, org: TestOrg, opts: { host?: string } = {}) {
+export async function signLetter(app: Express, org: TestOrg, opts: { forgedHost?: string } = {}) {
   const c = await signedIn(app, org.clinician.email, TEST_PASSWORD);
   const base = `/api/orgs/${org.id}`;
   const draft = await c.post(`${base}/letters`, {
@@ -80,9 +80,13 @@ export async function signLetter(app: Express, org: TestOrg, opts: { host?: stri
     familyNote: '',
   });
   expect(draft.status, JSON.stringify(draft.body)).toBe(201);
-  let sign = c.agent.post(`${base}/letters/${draft.body.id}/sign`).set('x-csrf-token', c.csrf);
-  if (opts.host) sign = sign.set('Host', opts.host);
-  const signed = await sign.send({ signature: org.clinician.name, version: draft.body.version });
+  const body = { signature: org.clinician.name, version: draft.body.version };
+  if (opts.forgedHost) {
+    const forged = await c.agent.post(`${base}/letters/${draft.body.id}/sign`).set('x-csrf-token', c.csrf).set('Host', opts.forgedHost).send(body);
+    expect(forged.status, JSON.stringify(forged.body)).toBe(400);
+    expect(forged.body.error.fields).toHaveProperty('host');
+  }
+  const signed = await c.post(`${base}/letters/${draft.body.id}/sign`, body);
   expect(signed.status, JSON.stringify(signed.body)).toBe(200);
   return {
     id: signed.body.id as string,

@@ -4,7 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, inject } from 'vitest';
 import request from 'supertest';
-import type { Express } from 'express';
+import express, { type Express } from 'express';
 import type { DataSource } from 'typeorm';
 import pino from 'pino';
 import { buildApp } from '../app';
@@ -57,7 +57,7 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
       await h.jobs.work((job) => deliver(h.ds, transport, logger, job.deliveryId));
     }
     const built = buildApp({ ds: h.ds, config: h.config, logger, jobs: h.jobs ?? null });
-    h.app = built.app;
+    h.app = behindProxy(built.app, h.config.PUBLIC_URL);
     close = built.close;
   });
   afterAll(async () => {
@@ -73,6 +73,23 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
 export type Agent = ReturnType<typeof request.agent>;
 
 /** A browser-like client: keeps cookies and sends the session's CSRF token on every write. */
+/**
+ * With PUBLIC_URL set the app answers only for that host. In production a reverse proxy forwards
+ * the public name; here supertest's own loopback Host is replaced by it, and any Host a test sets
+ * itself (a forged one) goes through unchanged.
+ */
+function behindProxy(app: Express, publicUrl: string | undefined): Express {
+  if (!publicUrl) return app;
+  const host = new URL(publicUrl).host;
+  const outer = express();
+  outer.use((req, _res, next) => {
+    if (/^127\.0\.0\.1:\d+$/.test(req.headers.host ?? '')) req.headers.host = host;
+    next();
+  });
+  outer.use(app);
+  return outer;
+}
+
 export class Client {
   csrf = '';
   constructor(readonly agent: Agent) {}

@@ -36,8 +36,8 @@ describe('CSRF and the signed-in person’s own profile (default settings)', () 
       const res = await c.agent
         .patch('/api/me')
         .set('x-csrf-token', c.csrf)
-        .set('Host', 'loadline.test')
-        .set('Origin', 'http://loadline.test')
+        .set('Host', 'localhost:3000')
+        .set('Origin', 'http://localhost:3000')
         .set('Sec-Fetch-Site', 'same-origin')
         .send({ displayName: 'Same Origin Name' });
       expect(res.status).toBe(200);

@@ -5,7 +5,7 @@ import { createOrg } from '../../test/factories';
 import { MIN, replay, sessionCookie, sessionRows, sidOf, signInCapturing, simulateClock } from './fixtures';
 
 describe('sessions with SECURE_COOKIES=true behind a TLS proxy', () => {
-  const h = useHarness({ SECURE_COOKIES: 'true', TRUST_PROXY: 'true' });
+  const h = useHarness({ SECURE_COOKIES: 'true', TRUST_PROXY: 'true', PUBLIC_URL: 'https://loadline.example.org' });
 
   it('marks the cookie Secure (and sends HSTS)', async () => {
     const res = await request(h.app).get('/api/session').set('X-Forwarded-Proto', 'https');
