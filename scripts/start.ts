@@ -11,6 +11,16 @@ import { DEMO_PASSWORD, DEMO_PEOPLE, loadDemo } from '../server/src/seed/demo';
 import { buildClient, migrate, openDatabase, sessionSecret } from './runtime';
 import { startFakeSmtp, type FakeSmtp } from '../server/src/mail/fake-smtp';
 
+/**
+ * Links in e-mails and the Host the server answers to come from PUBLIC_URL. Unset, it is this
+ * server's own address (loopback names on the same port work too); set it to serve another name.
+ */
+function publicUrl(): string {
+  if (process.env.PUBLIC_URL) return process.env.PUBLIC_URL;
+  const host = process.env.HOST && !['0.0.0.0', '::'].includes(process.env.HOST) ? process.env.HOST : '127.0.0.1';
+  return `http://${host.includes(':') ? `[${host}]` : host}:${process.env.PORT ?? 3000}`;
+}
+
 const db = await openDatabase('loadline', false);
 let stopping = false;
 const stopDb = () => db.cluster?.stop();
@@ -36,12 +46,14 @@ try {
   let fake: FakeSmtp | null = null;
   if (!process.env.SMTP_URL) fake = await startFakeSmtp(db.url, Number(process.env.LOADLINE_SMTP_PORT ?? 0));
   const mailEnv = fake ? { SMTP_URL: fake.url, FAKE_MAIL: 'true' } : {};
-  const config = loadConfig({ ...process.env, ...mailEnv, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() });
+  const config = loadConfig({ ...process.env, ...mailEnv, PUBLIC_URL: publicUrl(), DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() });
   const logger = createLogger(config.LOG_LEVEL);
   const running = await startServer(config, logger);
 
   const width = Math.max(...DEMO_PEOPLE.map((p) => p.email.length));
-  console.log(`\nLoadline is running at ${config.PUBLIC_URL ?? running.url}`);
+  console.log(`\nLoadline is running at ${config.PUBLIC_URL}`);
+  if (!process.env.PUBLIC_URL)
+    console.log('(Set PUBLIC_URL to the address people use, e.g. https://loadline.example.org, to serve it there.)');
   console.log(
     fake
       ? `E-mail goes to the local fake SMTP server on 127.0.0.1:${fake.port} (admins: Outbox page).\n`
@@ -53,7 +65,11 @@ try {
 
   for (const signal of ['SIGINT', 'SIGTERM'] as const) {
     process.on(signal, () => {
-      if (stopping) return;
+      if (stopping) {
+        console.log(`${signal} again: stopping now.`);
+        stopDb();
+        process.exit(1);
+      }
       stopping = true;
       console.log(`\n${signal}: stopping the server…`);
       running

@@ -4,6 +4,11 @@ const ConfigSchema = z.object({
   DATABASE_URL: z.string().min(1, { message: 'DATABASE_URL is required' }),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   HOST: z.string().default('127.0.0.1'),
+  /**
+   * On SIGTERM the server stops taking connections and lets requests in flight finish (a clip upload
+   * on a slow uplink can take minutes) for up to this long, then cuts what is left.
+   */
+  SHUTDOWN_GRACE_SECONDS: z.coerce.number().min(0).max(3600).default(300),
   SESSION_SECRET: z.string().min(32, { message: 'SESSION_SECRET must be at least 32 characters' }),
   /**
    * The address people use to reach Loadline (scheme, host, port, optional path): every link in an
@@ -13,7 +18,9 @@ const ConfigSchema = z.object({
   PUBLIC_URL: z
     .string()
     .url()
-    .refine((v) => /^https?:\/\//i.test(v) && !/[?#]/.test(v), { message: 'PUBLIC_URL must be an http(s) address without a query or fragment' })
+    .refine((v) => /^https?:\/\//i.test(v) && !/[?#]/.test(v), {
+      message: 'PUBLIC_URL must be an http(s) address without a query or fragment',
+    })
     .optional(),
   /** Cookies get the Secure flag when the app is served over TLS (behind a proxy that terminates it). */
   SECURE_COOKIES: z.enum(['true', 'false']).default('false'),

@@ -11,7 +11,11 @@ logger.info(`Loadline listening on ${running.url}`);
 let exiting = false;
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
   process.on(signal, () => {
-    if (exiting) return;
+    if (exiting) {
+      // A second signal while draining: stop now.
+      logger.warn(`${signal} again: exiting without waiting`);
+      process.exit(1);
+    }
     exiting = true;
     logger.info(`${signal}: finishing in-flight requests, then stopping`);
     running.stop().then(

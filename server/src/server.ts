@@ -15,7 +15,10 @@ export interface RunningServer {
   jobs: JobQueue | null;
   server: Server;
   ds: DataSource;
-  /** Stops taking connections, lets in-flight requests finish, closes the pools. */
+  /**
+   * Drains: stops taking connections, lets requests in flight finish (up to SHUTDOWN_GRACE_SECONDS),
+   * then lets the queue worker finish its current job, then closes the pools.
+   */
   stop(): Promise<void>;
 }
 
@@ -54,6 +57,11 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
   rememberListeningAddress(config.HOST, port);
   setNoticeBaseUrl(publicBaseUrl(config));
   let stopping: Promise<void> | null = null;
+  let draining = false;
+  // While draining, every response closes its connection, so a keep-alive client moves on.
+  server.prependListener('request', (_req, res) => {
+    if (draining) res.setHeader('Connection', 'close');
+  });
   return {
     url,
     jobs,
@@ -61,15 +69,29 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
     ds,
     stop() {
       stopping ??= (async () => {
+        draining = true;
+        const graceMs = config.SHUTDOWN_GRACE_SECONDS * 1000;
+        logger.info({ graceSeconds: config.SHUTDOWN_GRACE_SECONDS }, 'draining: no new connections; requests in flight may finish');
         await new Promise<void>((resolve) => {
+          // Closes the listening socket at once (new connections are refused); the callback runs
+          // when the last connection has ended.
           server.close(() => resolve());
           server.closeIdleConnections();
-          // Requests still running after 10 s are cut, so shutdown always ends.
-          setTimeout(() => server.closeAllConnections(), 10_000).unref();
+          const idle = setInterval(() => server.closeIdleConnections(), 200);
+          const cut = setTimeout(() => {
+            logger.warn('grace period over: cutting the requests still running');
+            server.closeAllConnections();
+          }, graceMs);
+          server.once('close', () => {
+            clearInterval(idle);
+            clearTimeout(cut);
+          });
         });
+        // Then the queue: pg-boss stops fetching and waits for the job in hand (graceful stop).
         await jobs?.stop();
         await close();
         await ds.destroy();
+        logger.info('stopped');
       })();
       return stopping;
     },

@@ -17,7 +17,12 @@ describe('PUBLIC_URL is configuration, required in production (OWASP WSTG-INPV-1
   });
 
   it('must be an http(s) address without a query or fragment', () => {
-    for (const bad of ['ftp://loadline.example.org', 'https://loadline.example.org/?a=1', 'https://x.example/#top', 'loadline.example.org']) {
+    for (const bad of [
+      'ftp://loadline.example.org',
+      'https://loadline.example.org/?a=1',
+      'https://x.example/#top',
+      'loadline.example.org',
+    ]) {
       expect(() => loadConfig({ ...env, PUBLIC_URL: bad }), bad).toThrow(/PUBLIC_URL/);
     }
   });

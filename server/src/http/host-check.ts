@@ -33,7 +33,8 @@ export function allowedHosts(config: Pick<Config, 'PUBLIC_URL'>): { accepts(host
   const configured = url.host.toLowerCase();
   const port = url.port;
   return {
-    accepts: (host) => host === configured || (LOOPBACK_NAMES.has(url.hostname) && LOOPBACK_NAMES.has(hostName(host)) && portOf(host) === port),
+    accepts: (host) =>
+      host === configured || (LOOPBACK_NAMES.has(url.hostname) && LOOPBACK_NAMES.has(hostName(host)) && portOf(host) === port),
     describe: configured,
   };
 }
@@ -68,9 +69,13 @@ export function hostCheck(config: Pick<Config, 'PUBLIC_URL' | 'TRUST_PROXY'>): R
       const host = typeof value === 'string' ? normaliseHost(value, scheme) : null;
       if (!host || !allowed.accepts(host)) {
         return next(
-          new AppError('validation_failed', `This server answers only at ${allowed.describe}; the request's Host header names another address.`, {
-            host: [`is not ${allowed.describe}`],
-          }),
+          new AppError(
+            'validation_failed',
+            `This server answers only at ${allowed.describe}; the request's Host header names another address.`,
+            {
+              host: [`is not ${allowed.describe}`],
+            },
+          ),
         );
       }
     }

@@ -82,7 +82,11 @@ export async function signLetter(app: Express, org: TestOrg, opts: { forgedHost?
   expect(draft.status, JSON.stringify(draft.body)).toBe(201);
   const body = { signature: org.clinician.name, version: draft.body.version };
   if (opts.forgedHost) {
-    const forged = await c.agent.post(`${base}/letters/${draft.body.id}/sign`).set('x-csrf-token', c.csrf).set('Host', opts.forgedHost).send(body);
+    const forged = await c.agent
+      .post(`${base}/letters/${draft.body.id}/sign`)
+      .set('x-csrf-token', c.csrf)
+      .set('Host', opts.forgedHost)
+      .send(body);
     expect(forged.status, JSON.stringify(forged.body)).toBe(400);
     expect(forged.body.error.fields).toHaveProperty('host');
   }

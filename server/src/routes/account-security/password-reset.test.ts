@@ -177,7 +177,7 @@ describe('password reset', () => {
     expect(tokens[0].n).toBe(0);
   });
 
-  it("a forged Host header never reaches the e-mail: refused before the handler (OWASP WSTG-INPV-17)", async () => {
+  it('a forged Host header never reaches the e-mail: refused before the handler (OWASP WSTG-INPV-17)', async () => {
     const org = await createOrg(h.ds);
     const c = await Client.anonymous(h.app);
     const res = await c.agent
@@ -189,7 +189,11 @@ describe('password reset', () => {
     expect(res.body.error.fields).toHaveProperty('host');
     // A request on the server's own (loopback) address goes through; its link is on the configured
     // address, and the refused one left no token and no e-mail behind.
-    const ok = await c.agent.post('/api/password-reset').set('x-csrf-token', c.csrf).set('Host', 'localhost').send({ email: org.admin.email });
+    const ok = await c.agent
+      .post('/api/password-reset')
+      .set('x-csrf-token', c.csrf)
+      .set('Host', 'localhost')
+      .send({ email: org.admin.email });
     expect(ok.status).toBe(202);
     const [mail, ...more] = await waitFor('the reset e-mail', async () => {
       const m = await resetMails(h.ds, org.admin.email);
