@@ -76,7 +76,7 @@ export async function migrate(ownerUrl: string, runtimeUrl: string = ownerUrl): 
 }
 
 /**
- * The runtime role's rights (ASVS 5.0 V16.4.2, V8.2.x least privilege): read and write the ordinary
+ * The runtime role's rights (ASVS 5.0 V16.4.2; V13.2.2 least privilege): read and write the ordinary
  * tables, but only SELECT and INSERT on audit_entries, and only read the migrations ledger. It owns
  * nothing, so it cannot ALTER a table or DISABLE TRIGGER. Default privileges cover tables that later
  * migrations make; every `migrate` re-applies the whole set anyway, after the migrations ran.

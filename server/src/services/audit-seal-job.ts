@@ -27,14 +27,14 @@ export type SealOutcome =
   | { organizationId: string; status: 'empty' };
 
 interface Admin {
-  user_id: string;
+  membership_id: string;
   email: string;
   name: string;
 }
 
 async function adminsOf(ds: DataSource, organizationId: string): Promise<Admin[]> {
   return ds.query(
-    `SELECT u.id AS user_id, u.email, u.display_name AS name
+    `SELECT m.id AS membership_id, u.email, u.display_name AS name
        FROM memberships m JOIN users u ON u.id = m.user_id
       WHERE m.organization_id = $1 AND m.active AND 'admin' = ANY (m.roles)
       ORDER BY u.email`,
@@ -57,7 +57,7 @@ export async function sealOrganization(deps: SealDeps, org: { id: string; name: 
           organizationId: org.id,
           kind: 'audit_seal',
           to: a.email,
-          recipientId: a.user_id,
+          recipientId: a.membership_id,
           content: content(a),
         });
       }
