@@ -178,7 +178,7 @@ if (import.meta.url === `file://${process.argv[1]}`) await main();
 async function main() {
   const db = await openDatabase('loadline_bench', true);
   try {
-    await migrate(db.url);
+    await migrate(db.ownerUrl, db.url);
     console.log('[bench] generating 1,000 athletes with a year of logs…');
     const gen = await generate(db.url);
     const config = loadConfig({

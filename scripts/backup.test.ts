@@ -8,6 +8,7 @@ import pg from 'pg';
 import { todayIso } from '../policies/roles';
 import { signedIn, useHarness } from '../server/src/test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../server/src/test/factories';
+import { ownerUrl, tamperAuditEntry } from '../server/src/test/owner';
 import { backupDatabase, restoreBackup, type BackupResult } from './backup';
 import { ROOT } from './pg-cluster';
 
@@ -17,7 +18,13 @@ const work = mkdtempSync(path.join(tmpdir(), 'loadline-backup-'));
 /** Scratch databases this file makes; all dropped at the end. */
 const scratch = new Set<string>();
 
-function dbUrl(name: string): string {
+/** Backups and restores are the owner's work: the app's own role may not create databases. */
+const dbUrl = (name: string): string => ownerUrl(name);
+
+const runtimeRole = decodeURIComponent(new URL(inject('databaseUrl')).username);
+
+/** The same database as the app's own role. */
+function appUrl(name: string): string {
   const u = new URL(inject('databaseUrl'));
   u.pathname = `/${name}`;
   return u.toString();
@@ -91,19 +98,15 @@ describe('db:backup and db:restore (45 CFR 164.308(a)(7)(ii)(A) data backup, (B)
     const [entry]: { id: string }[] = await h.ds.query('SELECT id FROM audit_entries WHERE organization_id = $1 ORDER BY id DESC LIMIT 1', [
       other.id,
     ]);
-    // As the audit tests do: the append-only trigger is off only inside this one transaction.
-    await h.ds.transaction(async (m) => {
-      await m.query('ALTER TABLE audit_entries DISABLE TRIGGER audit_entries_no_update_delete');
-      await m.query(`UPDATE audit_entries SET after = '{"roles":["admin"]}' WHERE id = $1`, [entry.id]);
-      await m.query('ALTER TABLE audit_entries ENABLE TRIGGER audit_entries_no_update_delete');
-    });
+    // As the audit tests do: as the owner, the append-only trigger off only inside one transaction.
+    await tamperAuditEntry(String(entry.id), { roles: ['admin'] });
     tampered = { org: other, entryId: String(entry.id) };
 
     mkdirSync(path.join(uploads, 'documents'), { recursive: true });
     writeFileSync(path.join(uploads, 'documents', 'scan.pdf'), '%PDF-1.7 test');
     writeFileSync(path.join(uploads, 'documents', 'half.pdf.partial'), 'unfinished');
 
-    backup = await backupDatabase({ url: inject('databaseUrl'), file: path.join(work, 'run.dump'), uploadsDir: uploads, counts: true });
+    backup = await backupDatabase({ url: ownerUrl(), file: path.join(work, 'run.dump'), uploadsDir: uploads, counts: true });
   });
 
   it('writes a custom-format dump only its owner can read, and a tar of the uploads folder beside it', async () => {
@@ -126,13 +129,13 @@ describe('db:backup and db:restore (45 CFR 164.308(a)(7)(ii)(A) data backup, (B)
   });
 
   it('an existing file is never overwritten', async () => {
-    await expect(backupDatabase({ url: inject('databaseUrl'), file: backup.file })).rejects.toThrow(/already exists/);
+    await expect(backupDatabase({ url: ownerUrl(), file: backup.file })).rejects.toThrow(/already exists/);
     expect(statSync(backup.file).size).toBe(backup.bytes);
   });
 
   it('restores into a fresh database with the same row counts, and verifies every audit chain there', async () => {
     const name = scratchName();
-    const restored = await restoreBackup({ file: backup.file, url: dbUrl(name) });
+    const restored = await restoreBackup({ file: backup.file, url: dbUrl(name), runtimeRole });
     expect(restored).toMatchObject({ database: name, previous: null });
     // The counts were taken in the snapshot pg_dump used, so other test files writing meanwhile do not matter.
     expect(restored.counts).toEqual(backup.counts);
@@ -153,6 +156,16 @@ describe('db:backup and db:restore (45 CFR 164.308(a)(7)(ii)(A) data backup, (B)
     const cases = await query<{ clinical_notes: string }>(url, 'SELECT clinical_notes FROM cases WHERE organization_id = $1', [org.id]);
     expect(cases).toEqual([{ clinical_notes: 'Tender L4-L5' }]);
     await expect(query(url, 'DELETE FROM audit_entries WHERE organization_id = $1', [org.id])).rejects.toThrow(/append-only/);
+
+    // The app's own role is granted again on the restored copy: it reads, and may not rewrite the trail (ASVS 5.0 V16.4.2).
+    const app = appUrl(name);
+    expect(await query(app, 'SELECT count(*)::int AS n FROM cases WHERE organization_id = $1', [org.id])).toEqual([{ n: 1 }]);
+    await expect(query(app, `UPDATE audit_entries SET action = 'forged' WHERE organization_id = $1`, [org.id])).rejects.toMatchObject({
+      code: '42501',
+    });
+    expect(
+      await query(app, `SELECT count(*)::int AS n FROM pg_class WHERE relowner = (SELECT oid FROM pg_roles WHERE rolname = current_user)`),
+    ).toEqual([{ n: 0 }]);
   });
 
   it('refuses a database that holds tables unless told to replace it; then the old one is kept aside', async () => {
@@ -162,7 +175,7 @@ describe('db:backup and db:restore (45 CFR 164.308(a)(7)(ii)(A) data backup, (B)
 
     // Mark the current copy, so we can tell which database ends up under which name.
     await query(dbUrl(name), `INSERT INTO organizations (name, emergency_number) VALUES ('Only in the old copy', '911')`);
-    const replaced = await restoreBackup({ file: backup.file, url: dbUrl(name), yes: true });
+    const replaced = await restoreBackup({ file: backup.file, url: dbUrl(name), yes: true, runtimeRole });
     expect(replaced.database).toBe(name);
     expect(replaced.previous).toMatch(new RegExp(`^${name}_before_restore_\\d{8}t\\d{6}z$`));
     expect(replaced.counts).toEqual(backup.counts);
@@ -190,7 +203,7 @@ describe('db:backup and db:restore (45 CFR 164.308(a)(7)(ii)(A) data backup, (B)
         ['--import', 'tsx', 'scripts/db.ts', 'restore', path.join(work, 'nope.dump'), '--into', scratchName()],
         {
           cwd: ROOT,
-          env: { ...process.env, DATABASE_URL: inject('databaseUrl') },
+          env: { ...process.env, DATABASE_URL: inject('databaseUrl'), MIGRATION_DATABASE_URL: ownerUrl() },
         },
       );
       let out = '';

@@ -22,6 +22,7 @@ import {
   writeThrough,
 } from './backup-tools';
 import { ROOT } from './pg-cluster';
+import { grantRuntimeRole } from './runtime';
 
 export { BackupError, pgTool } from './backup-tools';
 
@@ -148,6 +149,11 @@ export interface RestoreOptions {
   url: string;
   /** Replace a database that already holds tables (it is kept under another name, not dropped). */
   yes?: boolean;
+  /**
+   * The app's own role: the restore is owned by the restoring (owner) role and carries no grants, so
+   * the runtime role's are given again, audit_entries SELECT and INSERT only (ASVS 5.0 V16.4.2).
+   */
+  runtimeRole?: string;
 }
 
 export interface RestoreResult {
@@ -172,7 +178,7 @@ async function relationCount(url: string): Promise<number> {
 }
 
 /** Restores and checks the result: row counts and every audit chain. */
-async function restoreInto(file: string, url: string): Promise<Omit<RestoreResult, 'previous'>> {
+async function restoreInto(file: string, url: string, runtimeRole?: string): Promise<Omit<RestoreResult, 'previous'>> {
   const pgRestore = pgTool('pg_restore', await serverMajor(url));
   const { uri, env } = toolConnection(url);
   // One transaction: a failed restore leaves the database as empty as it was. Owners and grants are
@@ -182,6 +188,7 @@ async function restoreInto(file: string, url: string): Promise<Omit<RestoreResul
     ['--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', '--no-password', `--dbname=${uri}`, file],
     env,
   );
+  if (runtimeRole && runtimeRole !== decodeURIComponent(new URL(url).username)) await grantRuntimeRole(url, runtimeRole);
   const counts = await withClient(url, countTables);
   const ds = createDataSource(url, 2);
   await ds.initialize();
@@ -234,14 +241,14 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   if (!exists) {
     await create(name);
     try {
-      return { ...(await restoreInto(file, opts.url)), previous: null };
+      return { ...(await restoreInto(file, opts.url, opts.runtimeRole)), previous: null };
     } catch (err) {
       await withClient(admin, (c) => c.query(`DROP DATABASE IF EXISTS ${q(name)} WITH (FORCE)`));
       throw err;
     }
   }
   const relations = await relationCount(opts.url);
-  if (relations === 0) return { ...(await restoreInto(file, opts.url)), previous: null };
+  if (relations === 0) return { ...(await restoreInto(file, opts.url, opts.runtimeRole)), previous: null };
   if (!opts.yes) {
     throw new BackupError(
       `database "${name}" already exists and holds ${relations} tables, sequences or views; ` +
@@ -255,7 +262,7 @@ export async function restoreBackup(opts: RestoreOptions): Promise<RestoreResult
   await create(incoming);
   let result: Omit<RestoreResult, 'previous'>;
   try {
-    result = await restoreInto(file, withDatabase(opts.url, incoming));
+    result = await restoreInto(file, withDatabase(opts.url, incoming), opts.runtimeRole);
   } catch (err) {
     await withClient(admin, (c) => c.query(`DROP DATABASE IF EXISTS ${q(incoming)} WITH (FORCE)`));
     throw err;

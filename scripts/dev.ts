@@ -8,12 +8,12 @@ import { createLogger } from '../server/src/logger';
 import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { loadDemo } from '../server/src/seed/demo';
-import { ROOT, migrate, openDatabase, sessionSecret } from './runtime';
+import { ROOT, auditSealKey, migrate, openDatabase, sessionSecret } from './runtime';
 import { startFakeSmtp } from '../server/src/mail/fake-smtp';
 
 const db = await openDatabase('loadline', false);
 process.on('exit', () => db.cluster?.stop());
-await migrate(db.url);
+await migrate(db.ownerUrl, db.url);
 const seedDs = createDataSource(db.url, 2);
 await seedDs.initialize();
 await loadDemo(seedDs);
@@ -25,6 +25,7 @@ const config = loadConfig({
   ...(fake ? { SMTP_URL: fake.url, FAKE_MAIL: 'true' } : {}),
   DATABASE_URL: db.url,
   SESSION_SECRET: sessionSecret(),
+  AUDIT_SEAL_KEY: auditSealKey(),
   CLIENT_DIST: '/nonexistent',
 });
 const api = await startServer(config, createLogger(config.LOG_LEVEL));

@@ -8,7 +8,7 @@ import { createLogger } from '../server/src/logger';
 import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { DEMO_PASSWORD, DEMO_PEOPLE, loadDemo } from '../server/src/seed/demo';
-import { buildClient, migrate, openDatabase, sessionSecret } from './runtime';
+import { auditSealKey, buildClient, migrate, openDatabase, sessionSecret } from './runtime';
 import { startFakeSmtp, type FakeSmtp } from '../server/src/mail/fake-smtp';
 
 /**
@@ -27,7 +27,7 @@ const stopDb = () => db.cluster?.stop();
 process.on('exit', stopDb);
 
 try {
-  const ran = await migrate(db.url);
+  const ran = await migrate(db.ownerUrl, db.url);
   if (ran.length) console.log(`[db] migrations applied: ${ran.join(', ')}`);
   const seedDs = createDataSource(db.url, 2);
   await seedDs.initialize();
@@ -46,7 +46,14 @@ try {
   let fake: FakeSmtp | null = null;
   if (!process.env.SMTP_URL) fake = await startFakeSmtp(db.url, Number(process.env.LOADLINE_SMTP_PORT ?? 0));
   const mailEnv = fake ? { SMTP_URL: fake.url, FAKE_MAIL: 'true' } : {};
-  const config = loadConfig({ ...process.env, ...mailEnv, PUBLIC_URL: publicUrl(), DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() });
+  const config = loadConfig({
+    ...process.env,
+    ...mailEnv,
+    PUBLIC_URL: publicUrl(),
+    DATABASE_URL: db.url,
+    SESSION_SECRET: sessionSecret(),
+    AUDIT_SEAL_KEY: auditSealKey(),
+  });
   const logger = createLogger(config.LOG_LEVEL);
   const running = await startServer(config, logger);
 

@@ -61,7 +61,7 @@ try {
     stage('unit and integration tests (vitest, real PostgreSQL)');
     const db = await openDatabase('loadline_test', true);
     cluster ??= db.cluster;
-    const code = await run('npx', ['vitest', 'run'], { TEST_DATABASE_URL: db.url });
+    const code = await run('npx', ['vitest', 'run'], { TEST_DATABASE_URL: db.url, TEST_MIGRATION_DATABASE_URL: db.ownerUrl });
     if (code !== 0) throw new Error('vitest failed');
   }
 
@@ -71,6 +71,7 @@ try {
     cluster ??= db.cluster;
     const code = await run('npx', ['vitest', 'run', '--project', 'server', 'server/src/test/model/'], {
       TEST_DATABASE_URL: db.url,
+      TEST_MIGRATION_DATABASE_URL: db.ownerUrl,
       MODEL_RUNS: process.env.MODEL_RUNS ?? '300',
       MODEL_STEPS: process.env.MODEL_STEPS ?? '20',
     });
@@ -82,7 +83,7 @@ try {
     ensureChromium();
     const db = await openDatabase('loadline_e2e', true);
     cluster ??= db.cluster;
-    await migrate(db.url);
+    await migrate(db.ownerUrl, db.url);
     const seedDs = createDataSource(db.url, 2);
     await seedDs.initialize();
     await loadDemo(seedDs);

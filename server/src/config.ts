@@ -84,6 +84,24 @@ const ConfigSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).default('false'),
+  /**
+   * Audit trail protection (ASVS 5.0 V16.4.2, V16.4.3). The app connects with DATABASE_URL, a role that
+   * may only SELECT and INSERT audit entries; MIGRATION_DATABASE_URL is the owner role, used by the
+   * migration scripts only (they read it from the environment; the app never connects with it).
+   */
+  MIGRATION_DATABASE_URL: z.string().optional(),
+  /**
+   * HMAC-SHA256 key (at least 32 bytes) that signs each organization's daily audit seal. It must never
+   * be stored in the database. Unset: no seal is made (npm start and npm test keep one under .data).
+   */
+  AUDIT_SEAL_KEY: z
+    .string()
+    .refine((v) => Buffer.byteLength(v, 'utf8') >= 32, { message: 'AUDIT_SEAL_KEY must be at least 32 bytes' })
+    .optional(),
+  /** Where seals are appended, one JSON-lines file per organization (default `<repo>/.data/audit-seals`). */
+  AUDIT_SEAL_DIR: z.string().optional(),
+  /** When the daily seal runs (cron, UTC); pg-boss runs it once across all app servers. */
+  AUDIT_SEAL_CRON: z.string().default('0 2 * * *'),
 });
 
 export type Config = z.infer<typeof ConfigSchema>;

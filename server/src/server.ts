@@ -4,11 +4,13 @@ import type { DataSource } from 'typeorm';
 import type { Logger } from 'pino';
 import { buildApp } from './app';
 import type { Config } from './config';
-import { createDataSource } from './data-source';
+import { connectedRoleOwnsAuditTrail, createDataSource } from './data-source';
 import { JobQueue, setNoticeQueue } from './jobs/queue';
 import { setNoticeBaseUrl } from './services/notify';
 import { publicBaseUrl, rememberListeningAddress } from './core/public-url';
 import { createTransport, deliver } from './mail/deliveries';
+import { DEFAULT_AUDIT_SEAL_DIR } from './services/audit-seal';
+import { sealAll } from './services/audit-seal-job';
 
 export interface RunningServer {
   url: string;
@@ -39,7 +41,18 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
     if (config.RUN_WORKERS === 'true') {
       const transport = createTransport(config.SMTP_URL);
       await jobs.work((job) => deliver(ds, transport, logger, job.deliveryId));
+      // The daily audit seal (ASVS 5.0 V16.4.3): pg-boss sends one job per day, worked by one server.
+      if (config.AUDIT_SEAL_KEY) {
+        const sealDeps = { ds, key: config.AUDIT_SEAL_KEY, dir: config.AUDIT_SEAL_DIR ?? DEFAULT_AUDIT_SEAL_DIR, queue: jobs, logger };
+        await jobs.scheduleAuditSeal(config.AUDIT_SEAL_CRON, async () => void (await sealAll(sealDeps)));
+      }
     }
+  }
+  if (!config.AUDIT_SEAL_KEY) logger.warn('AUDIT_SEAL_KEY is not set: the audit trail is not sealed (README "Audit seals")');
+  if (await connectedRoleOwnsAuditTrail(ds)) {
+    logger.warn(
+      'the app connects as the owner of audit_entries, which could rewrite the trail; give it a role of its own (README "Database roles")',
+    );
   }
   setNoticeQueue(jobs);
   const { app, close } = buildApp({ ds, config, logger, jobs });

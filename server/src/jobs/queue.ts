@@ -3,6 +3,13 @@ import type { EntityManager } from 'typeorm';
 import type { Logger } from 'pino';
 
 export const EMAIL_QUEUE = 'email';
+/** The daily audit seal (services/audit-seal-job.ts): one job a day, from a pg-boss schedule. */
+export const AUDIT_SEAL_QUEUE = 'audit-seal';
+
+const QUEUES = [
+  { name: EMAIL_QUEUE, retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
+  { name: AUDIT_SEAL_QUEUE, retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 },
+];
 
 export interface EmailJob {
   deliveryId: string;
@@ -16,19 +23,50 @@ export class JobQueue {
   readonly boss: PgBoss;
   private started = false;
 
+  /**
+   * The app's queue connects as the runtime role, which may not create or alter anything: pg-boss only
+   * checks that its schema is there and current (`migrate: false`); JobQueue.install made it.
+   */
   constructor(
     databaseUrl: string,
     private readonly logger: Logger,
   ) {
-    this.boss = new PgBoss({ connectionString: databaseUrl, max: 4, application_name: 'loadline-jobs' });
+    this.boss = new PgBoss({ connectionString: databaseUrl, max: 4, application_name: 'loadline-jobs', migrate: false });
     this.boss.on('error', (err) => this.logger.warn({ err }, 'job queue error'));
+  }
+
+  /**
+   * Creates or upgrades pg-boss's schema and our queues (each queue is a table of its own) as the
+   * owner role, from `migrate` in scripts/runtime.ts, so the runtime role never needs DDL rights.
+   */
+  static async install(ownerUrl: string): Promise<void> {
+    const boss = new PgBoss({
+      connectionString: ownerUrl,
+      max: 1,
+      application_name: 'loadline-migrate',
+      supervise: false,
+      schedule: false,
+    });
+    await boss.start();
+    try {
+      for (const q of QUEUES) await boss.createQueue(q.name, q);
+    } finally {
+      await boss.stop({ graceful: false, wait: true });
+    }
   }
 
   async start(): Promise<void> {
     if (this.started) return;
     await this.boss.start();
-    await this.boss.createQueue(EMAIL_QUEUE, { name: EMAIL_QUEUE, retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 });
+    // Present already (install); an INSERT … ON CONFLICT DO NOTHING that only confirms it.
+    for (const q of QUEUES) await this.boss.createQueue(q.name, q);
     this.started = true;
+  }
+
+  /** The daily seal: pg-boss sends one job per cron tick across all app servers (UTC). */
+  async scheduleAuditSeal(cron: string, handler: () => Promise<void>): Promise<void> {
+    await this.boss.schedule(AUDIT_SEAL_QUEUE, cron, {}, { tz: 'UTC', singletonKey: 'audit-seal' });
+    await this.boss.work(AUDIT_SEAL_QUEUE, { pollingIntervalSeconds: 5 }, async () => handler());
   }
 
   /** One job per delivery (the delivery id is the singleton key), in the caller's transaction. */

@@ -9,6 +9,7 @@ import { createDataSource } from '../data-source';
 import { EMAIL_QUEUE, JobQueue } from '../jobs/queue';
 import { migrate } from '../../../scripts/runtime';
 import { TEST_SECRET } from '../test/harness';
+import { ownerUrl } from '../test/owner';
 import { createOrg, type TestOrg } from '../test/factories';
 import { createTransport, deliver, enqueueEmail } from './deliveries';
 import { startFakeSmtp, type FakeSmtp } from './fake-smtp';
@@ -31,16 +32,15 @@ describe('a crash between commit and send (a database with no worker)', () => {
   let org: TestOrg;
 
   beforeAll(async () => {
-    const base = new URL(inject('databaseUrl'));
-    const admin = new URL(base);
-    admin.pathname = '/postgres';
-    adminUrl = admin.toString();
+    // Created and migrated by the owner role; the app below connects as its own role, as everywhere.
+    adminUrl = ownerUrl('postgres');
     const c = new pg.Client({ connectionString: adminUrl });
     await c.connect();
     await c.query(`CREATE DATABASE ${name}`).finally(() => c.end());
+    const base = new URL(inject('databaseUrl'));
     base.pathname = `/${name}`;
     url = base.toString();
-    await migrate(url);
+    await migrate(ownerUrl(name), url);
     smtp = await startFakeSmtp(url, 0);
     ds = createDataSource(url, 5);
     await ds.initialize();

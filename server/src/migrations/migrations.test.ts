@@ -1,6 +1,7 @@
-import { describe, expect, it, inject } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import pg from 'pg';
 import { createDataSource } from '../data-source';
+import { ownerUrl } from '../test/owner';
 import { MIGRATIONS } from './index';
 
 /**
@@ -9,17 +10,13 @@ import { MIGRATIONS } from './index';
  */
 describe('migrations', () => {
   it('go up, come all the way down, and go up again', async () => {
-    const base = new URL(inject('databaseUrl'));
+    // As the owner role: migrations are its work, and the app's own role may not create databases.
     const name = `loadline_migrations_${process.pid}`;
-    const admin = new URL(base);
-    admin.pathname = '/postgres';
-    const client = new pg.Client({ connectionString: admin.toString() });
+    const client = new pg.Client({ connectionString: ownerUrl('postgres') });
     await client.connect();
     await client.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
     await client.query(`CREATE DATABASE ${name}`);
-    const url = new URL(base);
-    url.pathname = `/${name}`;
-    const ds = createDataSource(url.toString(), 2);
+    const ds = createDataSource(ownerUrl(name), 2);
     try {
       await ds.initialize();
       const up = await ds.runMigrations({ transaction: 'each' });

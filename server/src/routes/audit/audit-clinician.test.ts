@@ -7,6 +7,7 @@ import { CareTeamAssignment } from '../../entities';
 import { appendAudit, verifyChain } from '../../services/audit';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
+import { asOwner, tamperAuditEntry } from '../../test/owner';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const ROOT = fileURLToPath(new URL('../../../../', import.meta.url));
@@ -209,7 +210,7 @@ function runAuditVerify(): Promise<{ code: number | null; stdout: string; stderr
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/db.ts', 'audit-verify'], {
       cwd: ROOT,
-      env: { ...process.env, DATABASE_URL: inject('databaseUrl') },
+      env: { ...process.env, DATABASE_URL: inject('databaseUrl'), MIGRATION_DATABASE_URL: inject('ownerDatabaseUrl') },
     });
     let stdout = '';
     let stderr = '';
@@ -245,14 +246,10 @@ describe('a tampered entry is named by the chain check (ASVS 5.0 V16.4.2, V16.4.
     // Tamper with the second of the three — not the first of the chain (the admin's sign-in came first).
     const [target] = await h.ds.query(`SELECT id FROM audit_entries WHERE organization_id = $1 AND request_id = 'test-chain-2'`, [org.id]);
     const id = String(target.id);
-    // One transaction: the append-only trigger is off only inside it, so no other session ever sees it off.
-    await h.ds.transaction(async (m) => {
-      await m.query('ALTER TABLE audit_entries DISABLE TRIGGER audit_entries_no_update_delete');
-      await m.query(`UPDATE audit_entries SET after = '{"reviewDate":"2026-03-01"}' WHERE id = $1`, [id]);
-      await m.query('ALTER TABLE audit_entries ENABLE TRIGGER audit_entries_no_update_delete');
-    });
-    // The trigger is back on: a plain UPDATE is refused again (ASVS 5.0 V16.4.2).
-    await expect(h.ds.query(`UPDATE audit_entries SET after = '{}' WHERE id = $1`, [id])).rejects.toThrow(/append-only/);
+    // As the owner, in one transaction: the append-only trigger is off only inside it, so no other session ever sees it off.
+    await tamperAuditEntry(id, { reviewDate: '2026-03-01' });
+    // The trigger is back on: a plain UPDATE is refused again, even to the owner (ASVS 5.0 V16.4.2).
+    await expect(asOwner((c) => c.query(`UPDATE audit_entries SET after = '{}' WHERE id = $1`, [id]))).rejects.toThrow(/append-only/);
 
     const run = await runAuditVerify();
     expect(run.stdout, run.stderr).toContain(`BROKEN   ${org.id}  first broken entry #${id}`);

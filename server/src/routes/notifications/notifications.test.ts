@@ -4,6 +4,7 @@ import { Notification } from '../../entities';
 import { useHarness, type Client } from '../../test/harness';
 import type { MemberRef } from '../../test/factories';
 import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from '../cases/clock-world';
+import { asOwner } from '../../test/owner';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 
@@ -92,16 +93,21 @@ describe('marking notices read is an audited change', () => {
     const [id] = await notices(w.org.coach, 1);
     // A trigger that refuses audit entries about this one notice only, so other tests are untouched.
     const fn = `test_refuse_audit_${id.replace(/-/g, '')}`;
-    await h.ds.query(`CREATE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
-      BEGIN IF NEW.subject_id = '${id}' THEN RAISE EXCEPTION 'audit insert refused for the test'; END IF; RETURN NEW; END $$`);
-    await h.ds.query(`CREATE TRIGGER ${fn} BEFORE INSERT ON audit_entries FOR EACH ROW EXECUTE FUNCTION ${fn}()`);
+    // As the owner: the app's own role may create no function and no trigger on audit_entries.
+    await asOwner((c) =>
+      c.query(`CREATE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
+      BEGIN IF NEW.subject_id = '${id}' THEN RAISE EXCEPTION 'audit insert refused for the test'; END IF; RETURN NEW; END $$`),
+    );
+    await asOwner((c) => c.query(`CREATE TRIGGER ${fn} BEFORE INSERT ON audit_entries FOR EACH ROW EXECUTE FUNCTION ${fn}()`));
     try {
       const res = await post(`/${id}/read`, `test-${randomUUID()}`);
       expect(res.status).toBe(500);
       expect(JSON.stringify(res.body)).not.toContain('audit insert refused');
     } finally {
-      await h.ds.query(`DROP TRIGGER ${fn} ON audit_entries`);
-      await h.ds.query(`DROP FUNCTION ${fn}()`);
+      await asOwner(async (c) => {
+        await c.query(`DROP TRIGGER ${fn} ON audit_entries`);
+        await c.query(`DROP FUNCTION ${fn}()`);
+      });
     }
     expect(await readAt(id)).toBeNull();
     // With the audit insert allowed again the same request goes through: the refusal was the cause.

@@ -4,6 +4,7 @@ import { RestrictionPlan, RestrictionPlanVersion } from '../../entities';
 import { appendAudit } from '../../services/audit';
 import { useHarness } from '../../test/harness';
 import { planWorld, put, twoStages, type World } from './plan-world';
+import { asOwner } from '../../test/owner';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, openCase, newPlan, versionRows } = planWorld(h);
@@ -147,16 +148,21 @@ describe('a change and its audit entry commit or roll back together (OWASP Top 1
     // A trigger that refuses audit entries about this one plan only, so other tests running at the
     // same time are untouched.
     const fn = `test_refuse_audit_${planId.replace(/-/g, '')}`;
-    await h.ds.query(`CREATE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
-      BEGIN IF NEW.subject_id = '${planId}' THEN RAISE EXCEPTION 'audit insert refused for the test'; END IF; RETURN NEW; END $$`);
-    await h.ds.query(`CREATE TRIGGER ${fn} BEFORE INSERT ON audit_entries FOR EACH ROW EXECUTE FUNCTION ${fn}()`);
+    // As the owner: the app's own role may create no function and no trigger on audit_entries.
+    await asOwner((c) =>
+      c.query(`CREATE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
+      BEGIN IF NEW.subject_id = '${planId}' THEN RAISE EXCEPTION 'audit insert refused for the test'; END IF; RETURN NEW; END $$`),
+    );
+    await asOwner((c) => c.query(`CREATE TRIGGER ${fn} BEFORE INSERT ON audit_entries FOR EACH ROW EXECUTE FUNCTION ${fn}()`));
     try {
       const res = await put(clin, `${w.base}/plans/${planId}`, { version: 1, stages: twoStages(), guidance: 'should roll back' });
       expect(res.status).toBe(500);
       expect(JSON.stringify(res.body)).not.toContain('audit insert refused');
     } finally {
-      await h.ds.query(`DROP TRIGGER ${fn} ON audit_entries`);
-      await h.ds.query(`DROP FUNCTION ${fn}()`);
+      await asOwner(async (c) => {
+        await c.query(`DROP TRIGGER ${fn} ON audit_entries`);
+        await c.query(`DROP FUNCTION ${fn}()`);
+      });
     }
     expect(await versionRows(planId)).toEqual([1]);
     const plan = (await clin.get(`${w.base}/plans/${planId}`)).body;
