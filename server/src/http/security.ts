@@ -84,7 +84,8 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
     tableName: 'session',
     createTableIfMissing: false,
     pruneSessionInterval: 15 * 60,
-    errorLog: (...args: unknown[]) => deps.logger.warn({ args }, 'session store error'),
+    // Under `err`, so the logger's serializer reduces a database error to its code (logger.ts).
+    errorLog: (err: unknown) => deps.logger.warn({ err }, 'session store error'),
   });
   // The session row, its signed-in user and that user's memberships (the actor of each organization)
   // in one query: a signed-in request then costs one round trip before its handler instead of three.
