@@ -36,7 +36,10 @@ function normalise(err: unknown): AppError {
 /** The route's pattern ('/api/orgs/:orgId/cases/:id') when a route took the request, so refusals group by route. */
 function routeOf(req: Request): string | null {
   const pattern = (req.route as { path?: unknown } | undefined)?.path;
-  return typeof pattern === 'string' ? `${req.baseUrl}${pattern}` : null;
+  if (typeof pattern !== 'string') return null;
+  // Here, past the /api router, Express has restored baseUrl: every registry route lives below /api.
+  const mount = req.baseUrl || (req.originalUrl.startsWith('/api/') && !pattern.startsWith('/api/') ? '/api' : '');
+  return `${mount}${pattern}`;
 }
 
 /**

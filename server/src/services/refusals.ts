@@ -86,7 +86,8 @@ export async function recordRefusal(ds: DataSource, r: Refusal, now = new Date()
 /** Turns the counters of minutes that are over into summary entries (one per counter with repeats). */
 export async function flushRefusals(ds: DataSource, now = new Date()): Promise<number> {
   return ds.transaction(async (m) => {
-    const rows: CounterRow[] = await m.query(
+    // TypeORM answers a DELETE as [rows, affected count].
+    const [rows]: [CounterRow[], number] = await m.query(
       `DELETE FROM refusal_counters WHERE minute < $1
        RETURNING chain, action, route, minute, hits, organization_id, actor_user_id, address`,
       [minuteOf(now)],
