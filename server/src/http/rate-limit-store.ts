@@ -50,13 +50,17 @@ export class PgRateLimitStore implements Store {
     return { totalHits: rows[0].hits, resetTime: new Date(rows[0].reset_at) };
   }
 
-  /** Runs after a response (skipped successes); a lost decrement only leaves the limit stricter. */
+  /**
+   * Runs after a response that did not count (a success, for the sign-in limits); a lost decrement only
+   * leaves the limit stricter. One that lands while the app is shutting down is dropped quietly.
+   */
   async decrement(key: string): Promise<void> {
     if (!this.ds.isInitialized) return;
-    await this.ds.query(`UPDATE rate_limit_counters SET hits = greatest(hits - 1, 0) WHERE key = $1 AND reset_at > $2`, [
-      this.hash(key),
-      new Date(),
-    ]);
+    await this.ds
+      .query(`UPDATE rate_limit_counters SET hits = greatest(hits - 1, 0) WHERE key = $1 AND reset_at > $2`, [this.hash(key), new Date()])
+      .catch((err: unknown) => {
+        if (this.ds.isInitialized) throw err;
+      });
   }
 
   async resetKey(key: string): Promise<void> {
