@@ -45,7 +45,7 @@ function routeOf(req: Request): string | null {
 /**
  * The refusal to audit, if this error is one (ASVS 5.0 V16.3.2): a 403 for a member, a 404 for a
  * member asking for a record they may not see (distinct from "no such route", which has no actor),
- * and a CSRF refusal. Sign-in limit refusals are audited by the limiter (http/security.ts).
+ * and a CSRF refusal. Sign-in limit refusals are audited by the limiter (http/sign-in-limits.ts).
  */
 function refusalOf(appErr: AppError, req: Request, res: Response, requestId: string): Refusal | null {
   const actor = res.locals.actor as ActorWithOrg | undefined;

@@ -33,6 +33,8 @@ const accountLimited = (wait: number) =>
     'rate_limited',
     `Too many failed sign-ins for this account. For its protection, sign-in is paused: try again in ${minutes(wait)}, or reset your password.`,
   );
+const linkLimited = (wait: number) =>
+  new AppError('rate_limited', `Too many failed tries with this link. Try again in ${minutes(wait)}, or ask for a new link.`);
 const networkLimited = (wait: number) =>
   new AppError(
     'rate_limited_network',
@@ -76,7 +78,7 @@ export function signInLimits(
         requestId: String(req.id ?? ''),
         details: { limit, ...(email ? { email } : {}) },
       }));
-      next(limit === 'address' ? networkLimited(wait) : accountLimited(wait));
+      next(limit === 'address' ? networkLimited(wait) : email ? accountLimited(wait) : linkLimited(wait));
     };
   const common = {
     windowMs,
