@@ -3,8 +3,6 @@ import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
 import { Passport } from 'passport';
-import { ipKeyGenerator } from 'express-rate-limit';
-import { PgRateLimitStore } from './rate-limit-store';
 import type { Deps } from './context';
 import { User } from '../entities';
 import { actorsFromJson, actorsJsonSql, type ActorRow, type ActorWithOrg } from '../services/actor';
@@ -20,6 +18,7 @@ declare module 'express-session' {
 export const SESSION_COOKIE = 'loadline.sid';
 export { csrfProtection, ensureCsrfToken, newCsrfToken } from './csrf';
 export { signInLimits } from './sign-in-limits';
+export { clientAddress, limitStore } from './rate-limit-store';
 
 /** What the session read loaded for the session's signed-in user (keyed by a symbol on `sess.passport`). */
 const LOADED = Symbol('loaded with the session');
@@ -184,16 +183,6 @@ export function absoluteTimeout(deps: Deps): RequestHandler {
     }
     next();
   };
-}
-
-/** A counter store shared by every app process on the database (see PgRateLimitStore). */
-export function limitStore(deps: Pick<Deps, 'ds' | 'config'>, name: string): PgRateLimitStore {
-  return new PgRateLimitStore(deps.ds, `${deps.config.RATE_LIMIT_NAMESPACE}:${name}`);
-}
-
-/** The caller's address as the limiters key it (an IPv6 address by its /56), for refusals of signed-out callers. */
-export function clientAddress(req: Request): string {
-  return ipKeyGenerator(req.ip ?? 'unknown');
 }
 
 /**

@@ -4,7 +4,7 @@ import { rateLimit, type Options } from 'express-rate-limit';
 import type { Deps } from './context';
 import { AppError } from '../core/errors';
 import { auditRefusal, organizationsOfEmail } from '../services/refusals';
-import { clientAddress, limitStore } from './security';
+import { clientAddress, limitStore } from './rate-limit-store';
 
 /**
  * Sign-in limits (ASVS 5.0 V6.3.1), counting failures only: a wrong password or code, or a failed
