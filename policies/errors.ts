@@ -19,6 +19,8 @@ export const ERROR_CODES = [
   'range_not_satisfiable',
   'unprocessable',
   'rate_limited',
+  /** Sign-in refused for the caller's network (a shared address), not for their account. */
+  'rate_limited_network',
   'unavailable',
   'internal',
 ] as const;
@@ -53,6 +55,7 @@ export function statusFor(code: ErrorCode): number {
     case 'unprocessable':
       return 422;
     case 'rate_limited':
+    case 'rate_limited_network':
       return 429;
     case 'unavailable':
       return 503;

@@ -4,6 +4,7 @@ import path from 'node:path';
 import express, { Router } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import { LOG_REDACT, LOG_SERIALIZERS } from './logger';
 import type { Deps } from './http/context';
 import type { JobQueue } from './jobs/queue';
 import { apiNotFound, errorHandler } from './http/error-handler';
@@ -58,8 +59,10 @@ export function buildApp(base: AppDeps) {
         res.setHeader('X-Request-Id', id);
         return id;
       },
-      // Cookies and tokens never reach the log.
-      redact: ['req.headers.cookie', 'req.headers["x-csrf-token"]', 'res.headers["set-cookie"]'],
+      // Cookies, tokens, bodies and a failed query's values never reach the log (logger.ts), even when
+      // the app is handed a logger that was not made by createLogger.
+      redact: LOG_REDACT,
+      serializers: LOG_SERIALIZERS,
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   );

@@ -31,8 +31,15 @@ const ConfigSchema = z.object({
     .int()
     .min(1)
     .default(15 * 60),
+  /** Failed sign-ins (wrong password or code) per account, from anywhere, per SIGNIN_WINDOW_SECONDS. */
   SIGNIN_MAX_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).default(10),
-  SIGNIN_MAX_PER_IP: z.coerce.number().int().min(1).default(50),
+  /** Failed sign-ins per account from one address: one guesser is stopped before the owner is. */
+  SIGNIN_MAX_FAILURES_PER_ADDRESS_ACCOUNT: z.coerce.number().int().min(1).default(5),
+  /**
+   * Failed sign-ins from one address across all accounts. Successful ones never count, and the
+   * ceiling is high because a whole team on one school network shares one address.
+   */
+  SIGNIN_MAX_PER_IP: z.coerce.number().int().min(1).default(300),
   /**
    * Rate-limit counters live in PostgreSQL, so every app process on the database counts against the
    * same limits. Processes with the same namespace share counters (tests give each app its own).

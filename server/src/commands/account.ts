@@ -85,7 +85,14 @@ export const signIn = publicCommand({
   async run(ctx, input: { email: string; password: string }): Promise<SignInOutcome> {
     const user = await ctx.m.findOne(User, { where: { email: input.email } });
     if (!(await passwordMatches(input.password, user?.passwordHash, ctx.deps.config.BCRYPT_COST)) || !user) {
-      await auditAccount(ctx, { action: 'auth.sign_in_failed', userId: null, after: { email: input.email } });
+      // Against a member's e-mail: in each of their organizations' trails, so their admins see the
+      // attempts (ASVS 5.0 V16.3.1); the actor is unknown, never the account's owner.
+      await auditAccount(ctx, {
+        action: 'auth.sign_in_failed',
+        userId: user?.id ?? null,
+        actorUserId: null,
+        after: { email: input.email },
+      });
       return { user: null };
     }
     const secondStep = await isTwoStepOn(ctx.m, user.id);
@@ -101,7 +108,12 @@ export const finishSignIn = publicCommand({
     const used = await useAuditedSecondStepCode(ctx, input.userId, input.code);
     const user = used ? await ctx.m.findOne(User, { where: { id: input.userId } }) : null;
     if (!user) {
-      await auditAccount(ctx, { action: 'auth.sign_in_failed', userId: null, after: { email: input.email, step: 'second' } });
+      await auditAccount(ctx, {
+        action: 'auth.sign_in_failed',
+        userId: input.userId,
+        actorUserId: null,
+        after: { email: input.email, step: 'second' },
+      });
       return null;
     }
     await auditAccount(ctx, { action: 'auth.signed_in', userId: user.id, after: { secondStep: used! } });

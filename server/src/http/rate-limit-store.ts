@@ -1,6 +1,8 @@
 import { createHash } from 'node:crypto';
-import type { ClientRateLimitInfo, IncrementResponse, Options, Store } from 'express-rate-limit';
+import type { Request } from 'express';
+import { ipKeyGenerator, type ClientRateLimitInfo, type IncrementResponse, type Options, type Store } from 'express-rate-limit';
 import type { DataSource } from 'typeorm';
+import type { Config } from '../config';
 
 /**
  * An express-rate-limit store on PostgreSQL, so every app process counts against the same limit
@@ -50,13 +52,17 @@ export class PgRateLimitStore implements Store {
     return { totalHits: rows[0].hits, resetTime: new Date(rows[0].reset_at) };
   }
 
-  /** Runs after a response (skipped successes); a lost decrement only leaves the limit stricter. */
+  /**
+   * Runs after a response that did not count (a success, for the sign-in limits); a lost decrement only
+   * leaves the limit stricter. One that lands while the app is shutting down is dropped quietly.
+   */
   async decrement(key: string): Promise<void> {
     if (!this.ds.isInitialized) return;
-    await this.ds.query(`UPDATE rate_limit_counters SET hits = greatest(hits - 1, 0) WHERE key = $1 AND reset_at > $2`, [
-      this.hash(key),
-      new Date(),
-    ]);
+    await this.ds
+      .query(`UPDATE rate_limit_counters SET hits = greatest(hits - 1, 0) WHERE key = $1 AND reset_at > $2`, [this.hash(key), new Date()])
+      .catch((err: unknown) => {
+        if (this.ds.isInitialized) throw err;
+      });
   }
 
   async resetKey(key: string): Promise<void> {
@@ -67,4 +73,14 @@ export class PgRateLimitStore implements Store {
   private async sweep(): Promise<void> {
     await this.ds.query(`DELETE FROM rate_limit_counters WHERE reset_at < $1`, [new Date(Date.now() - 3_600_000)]).catch(() => undefined);
   }
+}
+
+/** A counter store shared by every app process on the database (see PgRateLimitStore). */
+export function limitStore(deps: { ds: DataSource; config: Pick<Config, 'RATE_LIMIT_NAMESPACE'> }, name: string): PgRateLimitStore {
+  return new PgRateLimitStore(deps.ds, `${deps.config.RATE_LIMIT_NAMESPACE}:${name}`);
+}
+
+/** The caller's address as the limiters key it (an IPv6 address by its /56), also for refusals of signed-out callers. */
+export function clientAddress(req: Request): string {
+  return ipKeyGenerator(req.ip ?? 'unknown');
 }

@@ -1,34 +1,24 @@
-import { createHash, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { Request, RequestHandler } from 'express';
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
 import { Passport } from 'passport';
-import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
-import { PgRateLimitStore } from './rate-limit-store';
 import type { Deps } from './context';
 import { User } from '../entities';
 import { actorsFromJson, actorsJsonSql, type ActorRow, type ActorWithOrg } from '../services/actor';
 import { AppError } from '../core/errors';
+import { attachCsrfKey, csrfKeyFor } from './csrf';
 
 declare module 'express-session' {
   interface SessionData {
-    csrfToken?: string;
     signedInAt?: number;
   }
 }
 
 export const SESSION_COOKIE = 'loadline.sid';
-
-export function newCsrfToken(): string {
-  return randomBytes(32).toString('base64url');
-}
-
-/** The session's CSRF token, created on first use. */
-export function ensureCsrfToken(req: Parameters<RequestHandler>[0]): string {
-  if (!req.session.csrfToken) req.session.csrfToken = newCsrfToken();
-  return req.session.csrfToken;
-}
+export { csrfProtection, ensureCsrfToken, newCsrfToken } from './csrf';
+export { signInLimits } from './sign-in-limits';
+export { clientAddress, limitStore } from './rate-limit-store';
 
 /** What the session read loaded for the session's signed-in user (keyed by a symbol on `sess.passport`). */
 const LOADED = Symbol('loaded with the session');
@@ -84,7 +74,8 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
     tableName: 'session',
     createTableIfMissing: false,
     pruneSessionInterval: 15 * 60,
-    errorLog: (...args: unknown[]) => deps.logger.warn({ args }, 'session store error'),
+    // Under `err`, so the logger's serializer reduces a database error to its code (logger.ts).
+    errorLog: (err: unknown) => deps.logger.warn({ err }, 'session store error'),
   });
   // The session row, its signed-in user and that user's memberships (the actor of each organization)
   // in one query: a signed-in request then costs one round trip before its handler instead of three.
@@ -127,7 +118,7 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
     lastTouch.set(sid, now);
     touch(sid, sess, cb);
   };
-  const middleware = session({
+  const sessions = session({
     name: SESSION_COOKIE,
     secret: config.SESSION_SECRET,
     store,
@@ -144,6 +135,12 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
       maxAge: idleMs,
     },
   });
+  // The signed-out CSRF token's key travels with the request to the check and GET /api/session (http/csrf.ts).
+  const csrfKey = csrfKeyFor(config.SESSION_SECRET, config.SECURE_COOKIES === 'true');
+  const middleware: RequestHandler = (req, res, next) => {
+    attachCsrfKey(req, csrfKey);
+    sessions(req, res, next);
+  };
   // The store's prune timer stops before its pool ends, so shutdown leaves nothing running.
   const close = async () => {
     store.close();
@@ -188,85 +185,14 @@ export function absoluteTimeout(deps: Deps): RequestHandler {
   };
 }
 
-const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
-
 /**
- * CSRF defence in depth: a cross-site Fetch Metadata header or a foreign Origin is refused, and every
- * state-changing request must echo the session's token in X-CSRF-Token.
+ * The trails a signed-in person's CSRF refusal belongs in: the organization named in the path when
+ * they are a member there, else every organization they belong to (the global trail if none).
  */
-export function csrfProtection(): RequestHandler {
-  return (req, _res, next) => {
-    if (SAFE_METHODS.has(req.method)) return next();
-    const site = req.get('sec-fetch-site');
-    if (site && site !== 'same-origin' && site !== 'none') {
-      return next(new AppError('csrf_failed', 'This request came from another site and was refused.'));
-    }
-    const origin = req.get('origin');
-    if (origin) {
-      const host = req.get('host');
-      let originHost: string | null;
-      try {
-        originHost = new URL(origin).host;
-      } catch {
-        originHost = null;
-      }
-      if (!host || originHost !== host) {
-        return next(new AppError('csrf_failed', 'This request came from another site and was refused.'));
-      }
-    }
-    const sent = req.get('x-csrf-token') ?? '';
-    const expected = req.session?.csrfToken ?? '';
-    const ok = sent.length > 0 && sent.length === expected.length && timingSafeEqual(Buffer.from(sent), Buffer.from(expected));
-    if (!ok) {
-      return next(new AppError('csrf_failed', 'Your page is out of date (security check failed). Reload the page and try again.'));
-    }
-    next();
-  };
-}
-
-/** A counter store shared by every app process on the database (see PgRateLimitStore). */
-export function limitStore(deps: Pick<Deps, 'ds' | 'config'>, name: string): PgRateLimitStore {
-  return new PgRateLimitStore(deps.ds, `${deps.config.RATE_LIMIT_NAMESPACE}:${name}`);
-}
-
-const rateLimited = new AppError('rate_limited', 'Too many sign-in attempts. Wait a few minutes and try again.');
-
-/**
- * Sign-in limits: per IP address, and per account (failures only), over a sliding window. No
- * permanent lockout: when the window passes, the real owner can sign in again.
- */
-export function signInLimits(
-  deps: Deps,
-  /** For routes whose body names no account (the second sign-in step): the e-mail to count failures under. */
-  opts: { accountOf?: (req: Parameters<RequestHandler>[0]) => string | undefined } = {},
-): RequestHandler[] {
-  const windowMs = deps.config.SIGNIN_WINDOW_SECONDS * 1000;
-  const byIp = rateLimit({
-    windowMs,
-    store: limitStore(deps, 'signin-ip'),
-    limit: deps.config.SIGNIN_MAX_PER_IP,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}`,
-    handler: (_req, _res, next) => next(rateLimited),
-  });
-  const byAccount = rateLimit({
-    windowMs,
-    store: limitStore(deps, 'signin-account'),
-    limit: deps.config.SIGNIN_MAX_FAILURES_PER_ACCOUNT,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => {
-      const named = req.body?.email ?? opts.accountOf?.(req);
-      const email = typeof named === 'string' ? named.trim().toLowerCase() : '';
-      if (email) return `account:${email}`;
-      // Invitation routes carry a token, not an e-mail: count failures per link. A single shared key
-      // would let ten bad requests from anyone block every invitation for the whole window.
-      const token = typeof req.body?.token === 'string' ? req.body.token : '';
-      return `invitation:${createHash('sha256').update(token).digest('hex')}`;
-    },
-    handler: (_req, _res, next) => next(rateLimited),
-  });
-  return [byIp, byAccount];
+export function csrfTrails(user: User, path: string): (string | null)[] {
+  const actors = actorsByUser.get(user) ?? [];
+  const named = /^\/api\/orgs\/([0-9a-fA-F-]{36})(?:\/|$)/.exec(path)?.[1];
+  const inPath = named ? actors.find((a) => a.organizationId === named.toLowerCase()) : undefined;
+  if (inPath) return [inPath.organizationId];
+  return actors.length ? actors.map((a) => a.organizationId) : [null];
 }

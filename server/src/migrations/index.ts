@@ -8,6 +8,7 @@ import { CreateUploads1765200000000 } from './1765200000000-create-uploads';
 import { AddAccountSecurity1765300000000 } from './1765300000000-add-account-security';
 import { AddRateLimits1765400000000 } from './1765400000000-add-rate-limits';
 import { AddOrganizationTimeZone1765500000000 } from './1765500000000-add-organization-time-zone';
+import { AddRefusalCounters1765610000000 } from './1765610000000-add-refusal-counters';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -21,4 +22,5 @@ export const MIGRATIONS = [
   AddAccountSecurity1765300000000,
   AddRateLimits1765400000000,
   AddOrganizationTimeZone1765500000000,
+  AddRefusalCounters1765610000000,
 ];

@@ -2,7 +2,6 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { AppAbility } from '../../../policies/access';
 import type { PainReportDto } from '../../../policies/dto';
 import { accessibleWhere } from '../core/accessible';
-import { orgQuery } from '../core/command';
 import { pickPermitted } from '../services/fields';
 
 /** Pain reports the reader may see, newest first, each with the fields their role may read. */
@@ -48,8 +47,3 @@ export async function listPainReports(
   const rows = await qb.getRawMany<PainReportDto & { reportedAt: Date }>();
   return rows.map((r) => pickPermitted(ability, 'PainReport', { ...r, reportedAt: new Date(r.reportedAt).toISOString() }) as PainReportDto);
 }
-
-export const painReportsQuery = orgQuery({
-  name: 'painReports',
-  run: (ctx, input: { athleteId?: string }) => listPainReports(ctx.db, ctx.ability, ctx.actor.organizationId, input),
-});

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { reportPain } from '../../commands/pain-reports';
-import { painReportsQuery } from '../../queries/reports';
+import { viewPainReports } from '../../commands/pain-report-reads';
 
 export const painReportRoutes: RouteDef[] = [
   orgRoute({
@@ -21,8 +21,9 @@ export const painReportRoutes: RouteDef[] = [
     path: '/orgs/:orgId/pain-reports',
     summary: 'Pain reports I may see, newest first (coaches without the narrative or answers)',
     access: { kind: 'org', action: 'read', subject: 'PainReport' },
+    command: viewPainReports,
     params: OrgParamsSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
-    handler: ({ read, query }) => read(painReportsQuery, { athleteId: query.athleteId }),
+    handler: ({ run, query }) => run(viewPainReports, { athleteId: query.athleteId }),
   }),
 ];

@@ -1,27 +1,38 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import request from 'supertest';
 import { useHarness } from '../../test/harness';
-import { createOrg } from '../../test/factories';
+import { createOrg, TEST_PASSWORD } from '../../test/factories';
 import { MIN, replay, sessionCookie, sessionRows, sidOf, signInCapturing, simulateClock } from './fixtures';
 
 describe('sessions with SECURE_COOKIES=true behind a TLS proxy', () => {
   const h = useHarness({ SECURE_COOKIES: 'true', TRUST_PROXY: 'true', PUBLIC_URL: 'https://loadline.example.org' });
 
-  it('marks the cookie Secure (and sends HSTS)', async () => {
+  it('marks the cookies Secure (and sends HSTS); the signed-out CSRF cookie is __Host- prefixed', async () => {
+    const org = await createOrg(h.ds);
     const res = await request(h.app).get('/api/session').set('X-Forwarded-Proto', 'https');
     expect(res.status).toBe(200);
-    const cookie = sessionCookie(res);
+    const csrfLine = ((res.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => c.startsWith('__Host-loadline.csrf='));
+    expect(csrfLine).toMatch(/; Path=\/;.*Secure/);
+    expect(res.headers['strict-transport-security']).toMatch(/max-age=\d+/);
+    const signIn = await request(h.app)
+      .post('/api/session')
+      .set('X-Forwarded-Proto', 'https')
+      .set('Cookie', csrfLine!.split(';')[0])
+      .set('x-csrf-token', res.body.csrfToken)
+      .send({ email: org.coach.email, password: TEST_PASSWORD });
+    expect(signIn.status).toBe(200);
+    const cookie = sessionCookie(signIn);
     expect(cookie).toBeDefined();
     expect(cookie!.attrs.get('secure')).toBe(true);
     expect(cookie!.attrs.get('httponly')).toBe(true);
     expect(String(cookie!.attrs.get('samesite')).toLowerCase()).toBe('lax');
-    expect(res.headers['strict-transport-security']).toMatch(/max-age=\d+/);
   });
 
   it('never hands a Secure cookie out over plain HTTP', async () => {
     const res = await request(h.app).get('/api/session');
     expect(res.status).toBe(200);
     expect(sessionCookie(res)).toBeUndefined();
+    expect(res.headers['set-cookie']).toBeUndefined();
   });
 });
 

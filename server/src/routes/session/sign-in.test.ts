@@ -27,12 +27,15 @@ describe('signing in and out (default settings)', () => {
     expect(res.body.user.id).toBe(org.clinician.userId);
   });
 
-  it('gives a new session id and CSRF token at sign-in: the pre-sign-in cookie no longer works', async () => {
+  it('gives a new session id and CSRF token at sign-in: the pre-sign-in cookie no longer works (ASVS 5.0 V7.2.4)', async () => {
     const org = await createOrg(h.ds);
+    // A signed-out visit makes no session to fixate (http/csrf.ts); the cookie an attacker could plant
+    // is one of their own sessions, so sign in once and use that cookie for the next sign-in.
     const anon = await request(h.app).get('/api/session');
-    const before = sessionCookie(anon);
-    expect(before).toBeDefined();
-    const oldCsrf = anon.body.csrfToken as string;
+    expect(sessionCookie(anon)).toBeUndefined();
+    const planted = await signInCapturing(h.app, org.coach.email);
+    const before = planted.cookie;
+    const oldCsrf = planted.res.body.csrfToken as string;
 
     const signIn = await request(h.app)
       .post('/api/session')

@@ -55,6 +55,22 @@ describe('SignInForm', () => {
     expect(await screen.findByRole('alert')).toHaveTextContent('Try again in 10 minutes.');
   });
 
+  it('says plainly when the limit is the network’s, not the person’s (distinct title and the server sentence)', async () => {
+    const sentence =
+      'Too many failed sign-ins from this network (everyone here shares one internet address). This is not about your account: wait 12 minutes, or ask your admin.';
+    fetchMock.mockImplementation(async () =>
+      jsonResponse(429, { error: { code: 'rate_limited_network', message: sentence }, requestId: 'r4' }),
+    );
+    renderWithProviders(<SignInForm onSignedIn={vi.fn()} />);
+    fill('maya@example.test', 'whatever1');
+    fireEvent.click(screen.getByRole('button', { name: 'Sign in' }));
+
+    const alert = await screen.findByRole('alert');
+    expect(alert).toHaveTextContent('Paused for this network');
+    expect(alert).toHaveTextContent('This is not about your account');
+    expect(alert).not.toHaveTextContent('Too many attempts');
+  });
+
   it('puts server field messages on the fields', async () => {
     fetchMock.mockImplementation(async () =>
       jsonResponse(400, {

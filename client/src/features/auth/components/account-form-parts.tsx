@@ -2,16 +2,21 @@ import { isApiError } from '../../../lib/api-client';
 import { TextField, type TextFieldProps } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 
-/** A refusal above an account form: too many tries is said in the limiter's own words, anything else as usual. */
+/**
+ * A refusal above an account form: too many tries is said in the limiter's own words, anything else as
+ * usual. The network's limit (a school or club sharing one address) gets a title of its own, so nobody
+ * reads it as a fault of their account.
+ */
 export function AccountFailureNotice({ error, limitedTitle }: { error: unknown; limitedTitle: string }) {
   if (!error) return null;
-  return isApiError(error) && error.code === 'rate_limited' ? (
-    <Notice tone="problem" role="alert" title={limitedTitle}>
-      <p>{error.message}</p>
-    </Notice>
-  ) : (
-    <ErrorNotice error={error} />
-  );
+  if (isApiError(error) && (error.code === 'rate_limited' || error.code === 'rate_limited_network')) {
+    return (
+      <Notice tone="problem" role="alert" title={error.code === 'rate_limited_network' ? 'Paused for this network' : limitedTitle}>
+        <p>{error.message}</p>
+      </Notice>
+    );
+  }
+  return <ErrorNotice error={error} />;
 }
 
 /** The address a person signs in with, marked up so that password managers fill it in. */
