@@ -37,8 +37,8 @@ export const SLOW_HASH_MS = 15_000;
 
 /**
  * Signs in through the form, as a person would, and waits until the app has left the sign-in page.
- * Each call is one POST /api/session, which the server rate-limits per IP (50 per 15 minutes by
- * default) — keep the number of sign-ins per run well below that.
+ * Each call is one POST /api/session. Only failed sign-ins count against the server's limits (per
+ * account, per address and account, and a high per-address ceiling), so successful ones are free.
  */
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto('/sign-in');
