@@ -4,32 +4,11 @@ import type { Deps } from './context';
 import { AppError } from '../core/errors';
 import { appendAudit } from '../services/audit';
 import type { ActorWithOrg } from '../services/actor';
+import { normalise } from './error-mapping';
 
 export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new AppError('not_found', `There is no API route ${req.method} ${req.baseUrl}${req.path}.`));
 };
-
-function normalise(err: unknown): AppError {
-  if (err instanceof AppError) return err;
-  const e = err as { type?: string; status?: number; code?: string };
-  if (e?.type === 'entity.parse.failed') {
-    return new AppError('validation_failed', 'Please check the form: the request body is not valid JSON.', { body: ['is not valid JSON'] });
-  }
-  if (e?.type === 'entity.too.large') return new AppError('payload_too_large', 'The request is too large.');
-  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported') {
-    return new AppError('unsupported_media_type', 'The request body must be UTF-8 JSON.');
-  }
-  // The database is away (connection refused, terminated, timeout): say so, rather than "internal".
-  if (
-    e?.code === 'ECONNREFUSED' ||
-    e?.code === '57P01' ||
-    e?.code === '57P03' ||
-    /Connection terminated|timeout exceeded when trying to connect/i.test(String((err as Error)?.message))
-  ) {
-    return new AppError('unavailable', 'The service is briefly unavailable. Please try again in a moment.');
-  }
-  return new AppError('internal', 'Something went wrong on our side. It has been logged; please try again.');
-}
 
 /** The one place errors become responses: `{ error: { code, message, fields? }, requestId }`, never a stack. */
 export function errorHandler(deps: Deps): ErrorRequestHandler {

@@ -1,5 +1,5 @@
 import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
-import type { z } from 'zod';
+import { z } from 'zod';
 import { defineAbilityFor, type Action, type SubjectName } from '../../../policies/access';
 import { OrgParamsSchema } from '../../../policies/schemas';
 import type { User } from '../entities';
@@ -21,16 +21,21 @@ export type Access = { kind: 'public' } | { kind: 'signedIn' } | { kind: 'org'; 
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 type ZodAny = z.ZodType;
-type Infer<T> = T extends ZodAny ? z.infer<T> : undefined;
+type Infer<T extends ZodAny> = z.infer<T>;
 
 interface RouteBase<P, Q, B> {
   method: Method;
   /** Path below /api, Express syntax. */
   path: string;
   summary: string;
-  params?: P;
-  query?: Q;
-  body?: B;
+  /**
+   * Every route declares all three, as strict objects (`NothingSchema` where it takes none): an
+   * unknown key in the path, query or body is refused, and the registry refuses a route without
+   * them (OWASP ASVS 5.0 V2.2.1).
+   */
+  params: P;
+  query: Q;
+  body: B;
   /** Runs before the session check, e.g. sign-in rate limits. */
   before?: RequestHandler[];
   /**
@@ -57,11 +62,7 @@ export type RouteDef =
     });
 
 /** Helpers that keep handler parameter types tied to their schemas. */
-export function publicRoute<
-  P extends ZodAny | undefined = undefined,
-  Q extends ZodAny | undefined = undefined,
-  B extends ZodAny | undefined = undefined,
->(
+export function publicRoute<P extends ZodAny, Q extends ZodAny, B extends ZodAny>(
   def: RouteBase<P, Q, B> & {
     access: { kind: 'public' } | { kind: 'signedIn' };
     handler: (ctx: BaseCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown>;
@@ -70,11 +71,7 @@ export function publicRoute<
   return def as unknown as RouteDef;
 }
 
-export function orgRoute<
-  P extends ZodAny | undefined = undefined,
-  Q extends ZodAny | undefined = undefined,
-  B extends ZodAny | undefined = undefined,
->(
+export function orgRoute<P extends ZodAny, Q extends ZodAny, B extends ZodAny>(
   def: RouteBase<P, Q, B> & {
     access: { kind: 'org'; action: Action; subject: SubjectName };
     handler: (ctx: OrgCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown>;
@@ -107,9 +104,32 @@ const asyncHandler =
 /** Built once: a zod schema is costly to build, and this one ran on every organization request. */
 const OrgIdOnly = OrgParamsSchema.partial().passthrough();
 
+/**
+ * A route takes nothing it has not declared: params, query and body are each a strict zod object,
+ * and the params name exactly the path's `:parameters` (OWASP ASVS 5.0 V2.2.1).
+ */
+export function checkDeclaredInput(def: Pick<RouteDef, 'method' | 'path' | 'params' | 'query' | 'body'>): void {
+  const where = `${def.method.toUpperCase()} /api${def.path}`;
+  for (const part of ['params', 'query', 'body'] as const) {
+    const schema: unknown = def[part];
+    if (!(schema instanceof z.ZodObject)) {
+      throw new Error(`${where}: declare ${part} as a strict zod object (NothingSchema when the route takes none)`);
+    }
+    if (schema._zod.def.catchall?._zod.def.type !== 'never') {
+      throw new Error(`${where}: ${part} must be a strict object (z.strictObject), so unknown keys are refused`);
+    }
+  }
+  const inPath = [...def.path.matchAll(/:(\w+)/g)].map((m) => m[1]).sort();
+  const declared = Object.keys((def.params as z.ZodObject).shape).sort();
+  if (inPath.join(',') !== declared.join(',')) {
+    throw new Error(`${where}: params declares [${declared.join(', ')}] but the path has [${inPath.join(', ')}]`);
+  }
+}
+
 export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void {
   for (const def of defs) {
     const fullPath = `/api${def.path}`;
+    checkDeclaredInput(def);
     const declared = def.command === undefined ? [] : Array.isArray(def.command) ? def.command : [def.command];
     if (def.method !== 'get' && declared.length === 0 && !def.writesNothing) {
       throw new Error(`${def.method.toUpperCase()} ${fullPath}: a write route must declare its command (every write goes through one)`);
@@ -152,8 +172,7 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
         }
         orgCtx = { actor, ability };
       }
-      const parse = (schema: ZodAny | undefined, value: unknown, where: 'params' | 'query' | 'body') => {
-        if (!schema) return undefined;
+      const parse = (schema: ZodAny, value: unknown, where: 'params' | 'query' | 'body') => {
         const result = schema.safeParse(value ?? {});
         if (!result.success) throw fromZod(result.error, where);
         return result.data;

@@ -1,4 +1,4 @@
-import { AthleteProfileUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { AthleteProfileUpdateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { updateAthleteProfile } from '../../commands/people';
 import { getAthlete, listAthletes } from '../../queries/athletes';
@@ -9,6 +9,8 @@ export const athleteRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes',
     summary: 'Athletes I may see: admins all, staff their care teams, guardians their own, athletes themselves',
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgParamsSchema,
     async handler({ read }) {
       return read(listAthletes, undefined);
@@ -19,6 +21,8 @@ export const athleteRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id',
     summary: "An athlete's profile, care team and guardians",
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     async handler({ read, params }) {
       return read(getAthlete, { id: params.id });
@@ -29,6 +33,7 @@ export const athleteRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id',
     summary: "Change an athlete's date of birth, sport or position",
     access: { kind: 'org', action: 'update', subject: 'Athlete' },
+    query: NothingSchema,
     params: OrgItemParamsSchema,
     body: AthleteProfileUpdateSchema,
     command: updateAthleteProfile,

@@ -1,5 +1,5 @@
 import { stringify } from 'csv-stringify/sync';
-import { AuditQuerySchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { AuditQuerySchema, NothingSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgToday } from '../../../../policies/today';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { exportAudit } from '../../commands/audit';
@@ -11,6 +11,7 @@ export const auditRoutes: RouteDef[] = [
     path: '/orgs/:orgId/audit',
     summary: 'Browse the audit trail, newest first (admins: all; clinicians: their athletes)',
     access: { kind: 'org', action: 'read', subject: 'AuditEntry' },
+    body: NothingSchema,
     params: OrgParamsSchema,
     query: AuditQuerySchema,
     async handler({ read, query }) {
@@ -22,6 +23,7 @@ export const auditRoutes: RouteDef[] = [
     path: '/orgs/:orgId/audit/export',
     summary: 'The filtered audit trail as a CSV file (up to 50,000 entries)',
     access: { kind: 'org', action: 'read', subject: 'AuditEntry' },
+    body: NothingSchema,
     params: OrgParamsSchema,
     query: AuditQuerySchema,
     command: exportAudit,
@@ -70,6 +72,8 @@ export const auditRoutes: RouteDef[] = [
     path: '/orgs/:orgId/audit/verify',
     summary: "Check the organization's audit chain end to end (admins)",
     access: { kind: 'org', action: 'read', subject: 'AuditChain' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgParamsSchema,
     async handler({ read }) {
       return read(verifyAuditChain, undefined);

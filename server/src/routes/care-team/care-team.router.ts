@@ -1,4 +1,4 @@
-import { CareTeamAssignmentCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { CareTeamAssignmentCreateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { assignCareTeam, unassignCareTeam } from '../../commands/athlete-links';
 
@@ -9,6 +9,7 @@ export const careTeamRoutes: RouteDef[] = [
     path: '/orgs/:orgId/care-team',
     summary: "Put a coach or clinician on an athlete's care team",
     access: { kind: 'org', action: 'create', subject: 'CareTeamAssignment' },
+    query: NothingSchema,
     params: OrgParamsSchema,
     body: CareTeamAssignmentCreateSchema,
     status: 201,
@@ -22,6 +23,8 @@ export const careTeamRoutes: RouteDef[] = [
     path: '/orgs/:orgId/care-team/:id',
     summary: 'Take a coach or clinician off a care team (their access ends at once)',
     access: { kind: 'org', action: 'delete', subject: 'CareTeamAssignment' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: unassignCareTeam,
     async handler({ params, run }) {

@@ -1,4 +1,4 @@
-import { GuardianLinkCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { GuardianLinkCreateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { linkGuardian, unlinkGuardian } from '../../commands/athlete-links';
 
@@ -9,6 +9,7 @@ export const guardianLinkRoutes: RouteDef[] = [
     path: '/orgs/:orgId/guardian-links',
     summary: 'Link a guardian to an athlete',
     access: { kind: 'org', action: 'create', subject: 'GuardianLink' },
+    query: NothingSchema,
     params: OrgParamsSchema,
     body: GuardianLinkCreateSchema,
     status: 201,
@@ -22,6 +23,8 @@ export const guardianLinkRoutes: RouteDef[] = [
     path: '/orgs/:orgId/guardian-links/:id',
     summary: 'Unlink a guardian from an athlete',
     access: { kind: 'org', action: 'delete', subject: 'GuardianLink' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: unlinkGuardian,
     async handler({ params, run }) {

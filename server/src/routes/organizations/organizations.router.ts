@@ -1,4 +1,4 @@
-import { OrganizationSettingsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { NothingSchema, OrganizationSettingsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { updateOrganizationSettings } from '../../commands/organizations';
 import { getOrganization, getOrganizationSettings } from '../../queries/organizations';
@@ -9,6 +9,8 @@ export const organizationRoutes: RouteDef[] = [
     path: '/orgs/:orgId',
     summary: 'The organization: name, local emergency number and time zone',
     access: { kind: 'org', action: 'read', subject: 'Organization' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgParamsSchema,
     async handler({ read }) {
       return read(getOrganization, undefined);
@@ -19,6 +21,8 @@ export const organizationRoutes: RouteDef[] = [
     path: '/orgs/:orgId/settings',
     summary: "The organization's settings, with the version an edit must name (admins)",
     access: { kind: 'org', action: 'update', subject: 'Organization' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgParamsSchema,
     async handler({ read }) {
       return read(getOrganizationSettings, undefined);
@@ -29,6 +33,7 @@ export const organizationRoutes: RouteDef[] = [
     path: '/orgs/:orgId/settings',
     summary: 'Change name, emergency number, time zone or whether guardians may watch clips (admins; 409 on a stale version)',
     access: { kind: 'org', action: 'update', subject: 'Organization' },
+    query: NothingSchema,
     params: OrgParamsSchema,
     body: OrganizationSettingsSchema,
     command: updateOrganizationSettings,

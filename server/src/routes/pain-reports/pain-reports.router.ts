@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
+import { NothingSchema, OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { reportPain } from '../../commands/pain-reports';
 import { painReportsQuery } from '../../queries/reports';
@@ -10,6 +10,7 @@ export const painReportRoutes: RouteDef[] = [
     path: '/orgs/:orgId/pain-reports',
     summary: 'Report pain with the red-flag screen; emergencies set Out and alert the care team at once',
     access: { kind: 'org', action: 'create', subject: 'PainReport' },
+    query: NothingSchema,
     command: reportPain,
     params: OrgParamsSchema,
     body: PainReportCreateSchema,
@@ -21,6 +22,7 @@ export const painReportRoutes: RouteDef[] = [
     path: '/orgs/:orgId/pain-reports',
     summary: 'Pain reports I may see, newest first (coaches without the narrative or answers)',
     access: { kind: 'org', action: 'read', subject: 'PainReport' },
+    body: NothingSchema,
     params: OrgParamsSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
     handler: ({ read, query }) => read(painReportsQuery, { athleteId: query.athleteId }),

@@ -1,4 +1,4 @@
-import { MembershipUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { MembershipUpdateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { changeRoles, removeMember } from '../../commands/people';
 import { getPerson, listPeople } from '../../queries/people';
@@ -9,6 +9,8 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people',
     summary: 'People of the organization and their roles',
     access: { kind: 'org', action: 'read', subject: 'Membership' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgParamsSchema,
     async handler({ read }) {
       return read(listPeople, undefined);
@@ -19,6 +21,8 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people/:id',
     summary: 'One person',
     access: { kind: 'org', action: 'read', subject: 'Membership' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     async handler({ read, params }) {
       return read(getPerson, { id: params.id });
@@ -29,6 +33,7 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people/:id',
     summary: "Change a person's roles",
     access: { kind: 'org', action: 'update', subject: 'Membership' },
+    query: NothingSchema,
     params: OrgItemParamsSchema,
     body: MembershipUpdateSchema,
     command: changeRoles,
@@ -42,6 +47,8 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people/:id',
     summary: 'Remove a person from the organization (their records stay)',
     access: { kind: 'org', action: 'delete', subject: 'Membership' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: removeMember,
     async handler({ params, run }) {

@@ -1,6 +1,13 @@
 import rangeParser from 'range-parser';
 import { z } from 'zod';
-import { ClipFieldsSchema, ClipListQuerySchema, ClipNoteCreateSchema, OrgItemParamsSchema, UuidSchema } from '../../../../policies/schemas';
+import {
+  ClipFieldsSchema,
+  ClipListQuerySchema,
+  ClipNoteCreateSchema,
+  NothingSchema,
+  OrgItemParamsSchema,
+  UuidSchema,
+} from '../../../../policies/schemas';
 import { addClipNote, deleteUpload, recordUpload, recordUploadRead, removeClipNote } from '../../commands/uploads';
 import { AppError } from '../../core/errors';
 import { streamStored } from '../../http/downloads';
@@ -18,6 +25,7 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips',
     summary: 'Technique clips I may watch, newest first (guardians only when the organization allows it)',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    body: NothingSchema,
     params: z.strictObject({ orgId: UuidSchema }),
     query: ClipListQuerySchema,
     handler: ({ read, query }) => read(clips, query),
@@ -27,6 +35,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips',
     summary: 'Upload a technique clip (WebM, MP4 or MOV; type checked from its bytes) of a logged session',
     access: { kind: 'org', action: 'create', subject: 'Clip' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: z.strictObject({ orgId: UuidSchema }),
     command: recordUpload,
     status: 201,
@@ -45,6 +55,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id',
     summary: 'One clip with its notes, in time order',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     handler: ({ read, params }) => read(clipWithNotes, { id: params.id }),
   }),
@@ -53,6 +65,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id/video',
     summary: 'The video, with HTTP range requests so the player can seek',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: recordUploadRead,
     async handler({ deps, read, run, params, req, res }) {
@@ -94,6 +108,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id',
     summary: 'Remove a clip and its notes (its uploader or the athlete)',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: deleteUpload,
     async handler({ deps, run, params }) {
@@ -107,6 +123,7 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id/notes',
     summary: 'Pin a note to a time in a clip (a coach or clinician on the care team); the athlete is told in the app',
     access: { kind: 'org', action: 'create', subject: 'ClipNote' },
+    query: NothingSchema,
     params: OrgItemParamsSchema,
     body: ClipNoteCreateSchema,
     command: addClipNote,
@@ -118,6 +135,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id/notes/:noteId',
     summary: "Remove a note from a clip (the note's author)",
     access: { kind: 'org', action: 'read', subject: 'ClipNote' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: NoteParamsSchema,
     command: removeClipNote,
     async handler({ run, params }) {

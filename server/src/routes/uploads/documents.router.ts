@@ -1,4 +1,4 @@
-import { CaseDocumentFieldsSchema, OrgItemParamsSchema } from '../../../../policies/schemas';
+import { CaseDocumentFieldsSchema, NothingSchema, OrgItemParamsSchema } from '../../../../policies/schemas';
 import { deleteUpload, recordUpload, recordUploadRead } from '../../commands/uploads';
 import { streamStored } from '../../http/downloads';
 import { orgRoute, type RouteDef } from '../../http/route';
@@ -17,6 +17,8 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/cases/:id/documents',
     summary: "A case's outside documents (clinicians on the care team and the athlete only)",
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     handler: ({ read, params }) => read(caseDocuments, { caseId: params.id }),
   }),
@@ -25,6 +27,8 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/cases/:id/documents',
     summary: 'Attach an outside document (PDF, JPEG, PNG or HEIC; type checked from its bytes) to a case',
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: recordUpload,
     status: 201,
@@ -42,6 +46,8 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/documents/:id/file',
     summary: 'Download an outside document (attachment, never cached); every download is audited',
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: recordUploadRead,
     async handler({ deps, read, run, params, res }) {
@@ -62,6 +68,8 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/documents/:id',
     summary: 'Remove an outside document (its uploader, or a clinician on the care team)',
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    query: NothingSchema,
+    body: NothingSchema,
     params: OrgItemParamsSchema,
     command: deleteUpload,
     async handler({ deps, run, params }) {
