@@ -91,6 +91,9 @@ export interface RouteTableRow {
 /** Route → required access, for review: the snapshot test makes any change to it visible. */
 export const ROUTE_TABLE: RouteTableRow[] = [];
 
+/** Each route's declared input, by `METHOD /api/path`: fuzzers build near-valid requests from it. */
+export const ROUTE_INPUTS = new Map<string, { params: ZodAny; query: ZodAny; body: ZodAny }>();
+
 function accessLabel(a: Access): string {
   return a.kind === 'org' ? `member: ${a.action} ${a.subject}` : a.kind;
 }
@@ -141,6 +144,7 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
       if (!declared.some((c) => c.name === name))
         throw new Error(`${def.method.toUpperCase()} ${fullPath} runs ${name} without declaring it`);
     };
+    ROUTE_INPUTS.set(`${def.method.toUpperCase()} ${fullPath}`, { params: def.params, query: def.query, body: def.body });
     if (!ROUTE_TABLE.some((r) => r.method === def.method.toUpperCase() && r.path === fullPath)) {
       ROUTE_TABLE.push({
         method: def.method.toUpperCase(),
