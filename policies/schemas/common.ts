@@ -37,9 +37,9 @@ export function wholeNumberText(min = 0, max = INT4_MAX) {
 }
 
 /** U+0000 (PostgreSQL text and jsonb refuse it) and UTF-16 halves without their pair (not UTF-8 encodable). */
-const UNSTORABLE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
-export const isStorableText = (v: string) => !UNSTORABLE.test(v);
+export const isStorableText = (v: string) => !v.includes('\u0000') && !LONE_SURROGATE.test(v);
 export const UNSTORABLE_MESSAGE = 'must not contain a null character or a broken (unpaired surrogate) character';
 
 /**
