@@ -89,7 +89,9 @@ export const MAX_DATE = '2100-12-31';
 export const IsoDateSchema = z.iso
   .date({ message: 'must be a date (YYYY-MM-DD)' })
   // Only a well-formed date is judged for its range: a malformed one has its own message already.
-  .refine((d) => !/^\d{4}-\d{2}-\d{2}$/.test(d) || (d >= MIN_DATE && d <= MAX_DATE), { message: `must be between ${MIN_DATE} and ${MAX_DATE}` });
+  .refine((d) => !/^\d{4}-\d{2}-\d{2}$/.test(d) || (d >= MIN_DATE && d <= MAX_DATE), {
+    message: `must be between ${MIN_DATE} and ${MAX_DATE}`,
+  });
 
 /** Row versions are int4 columns (TypeORM's @VersionColumn). */
 export const VersionSchema = wholeNumber(1, INT4_MAX);
