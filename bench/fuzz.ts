@@ -289,7 +289,7 @@ async function main() {
       if (mode === 'path' && rand() < 0.2) path += `/${pick(EDGE_SEGMENTS)}`;
       const input = ROUTE_INPUTS.get(`${route.method} ${route.path}`);
       if (mode === 'query') path += `?${queryOf(input?.query)}`;
-      const body = isWrite ? (mode === 'body' ? bodyOf(input?.body) : JSON.stringify(sampleOf(input!.body, src))) : undefined;
+      const body = isWrite ? (mode === 'body' ? bodyOf(input?.body) : input ? JSON.stringify(sampleOf(input.body, src)) : '{}') : undefined;
       const session = sessions.get(caller)!;
       const headers: Record<string, string> = { cookie: session.cookie, accept: 'application/json' };
       if (isWrite) Object.assign(headers, { 'content-type': 'application/json', 'x-csrf-token': session.csrf });

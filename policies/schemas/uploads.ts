@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { isTimeZone } from '../today';
-import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, isStorableText, text } from './common';
 
 const line = (max: number) =>
   text(max)
@@ -49,7 +49,12 @@ export const OrganizationSettingsSchema = z.strictObject({
     .optional(),
   guardiansSeeClips: z.boolean({ message: 'must be true or false' }).optional(),
   /** The zone whose calendar day is the organization's "today" (policies/today.ts). */
-  timeZone: text(64).refine(isTimeZone, { message: 'must be an IANA time zone such as America/Chicago' }).optional(),
+  timeZone: z
+    .string({ message: 'must be an IANA time zone such as America/Chicago' })
+    .trim()
+    // One check, so a bad value gets the one sentence (the column holds 64 characters).
+    .refine((v) => v.length <= 64 && isStorableText(v) && isTimeZone(v), { message: 'must be an IANA time zone such as America/Chicago' })
+    .optional(),
   version: VersionSchema,
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

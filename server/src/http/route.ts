@@ -36,6 +36,11 @@ interface RouteBase<P, Q, B> {
   params: P;
   query: Q;
   body: B;
+  /**
+   * The body is a multipart form the handler reads itself (storage/receive.ts), so `body` sees an
+   * empty object; any other media type is refused with 415 before validation.
+   */
+  multipart?: true;
   /** Runs before the session check, e.g. sign-in rate limits. */
   before?: RequestHandler[];
   /**
@@ -181,6 +186,12 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
         if (!result.success) throw fromZod(result.error, where);
         return result.data;
       };
+      if (def.multipart && !req.is('multipart/form-data')) {
+        throw new AppError(
+          'unsupported_media_type',
+          'Send the file as a multipart form (multipart/form-data), the text fields first and the file last.',
+        );
+      }
       const params = parse(def.params, req.params, 'params');
       const query = parse(def.query, req.query, 'query');
       const body = parse(def.body, req.body, 'body');

@@ -88,7 +88,8 @@ describe('property: no input makes a route answer 5xx or show a stack, for any r
   };
   const judge = (what: string, res: { status: number; text: string; body?: { error?: { code?: unknown } } }) => {
     if (res.status >= 500) throw new Error(`${what} → ${res.status} ${res.text}`);
-    if (res.status >= 400) expect(res.body?.error?.code, `${what} → ${res.text}`).toEqual(expect.any(String));
+    // 431 (RFC 6585 section 5) comes from Node's HTTP parser for a request line over 16 kB, before the app.
+    if (res.status >= 400 && res.status !== 431) expect(res.body?.error?.code, `${what} → ${res.text}`).toEqual(expect.any(String));
     expectNoStack(res.text);
   };
 

@@ -37,6 +37,7 @@ export const clipRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'create', subject: 'Clip' },
     query: NothingSchema,
     body: NothingSchema,
+    multipart: true,
     params: z.strictObject({ orgId: UuidSchema }),
     command: recordUpload,
     status: 201,

@@ -29,6 +29,7 @@ export const documentRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'read', subject: 'Case' },
     query: NothingSchema,
     body: NothingSchema,
+    multipart: true,
     params: OrgItemParamsSchema,
     command: recordUpload,
     status: 201,
