@@ -269,6 +269,7 @@ async function main() {
     const byCaller: Record<string, number> = {};
     const failures: string[] = [];
     let fiveXx = 0;
+    const fiveXxByMode: Record<Mode, number> = { body: 0, path: 0, query: 0 };
     let stacks = 0;
     let resignIns = 0;
     let next = 0;
@@ -303,6 +304,7 @@ async function main() {
       if (trace) appendFileSync(trace, `${what}\n`);
       if (res.status >= 500) {
         fiveXx++;
+        fiveXxByMode[mode]++;
         if (failures.length < 30) failures.push(what);
       }
       if (STACK.some((re) => re.test(text))) {
@@ -347,7 +349,9 @@ async function main() {
         .map(([k, v]) => `${k} × ${v}`)
         .join(', ')}`,
     );
-    console.log(`  5xx: ${fiveXx}; answers with a stack: ${stacks}; callers signed in again: ${resignIns}`);
+    console.log(
+      `  5xx: ${fiveXx} (body ${fiveXxByMode.body}, path ${fiveXxByMode.path}, query ${fiveXxByMode.query}); answers with a stack: ${stacks}; callers signed in again: ${resignIns}`,
+    );
     for (const f of failures) console.log(`  ✗ ${f}`);
     if (fiveXx > 0 || stacks > 0) process.exitCode = 1;
   } finally {
