@@ -9,9 +9,9 @@ export const athleteRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes',
     summary: 'Athletes I may see: admins all, staff their care teams, guardians their own, athletes themselves',
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read }) {
       return read(listAthletes, undefined);
     },
@@ -21,9 +21,9 @@ export const athleteRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id',
     summary: "An athlete's profile, care team and guardians",
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     async handler({ read, params }) {
       return read(getAthlete, { id: params.id });
     },
@@ -33,8 +33,8 @@ export const athleteRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id',
     summary: "Change an athlete's date of birth, sport or position",
     access: { kind: 'org', action: 'update', subject: 'Athlete' },
-    query: NothingSchema,
     params: OrgItemParamsSchema,
+    query: NothingSchema,
     body: AthleteProfileUpdateSchema,
     command: updateAthleteProfile,
     async handler({ params, body, run }) {

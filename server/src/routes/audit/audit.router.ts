@@ -11,8 +11,8 @@ export const auditRoutes: RouteDef[] = [
     path: '/orgs/:orgId/audit',
     summary: 'Browse the audit trail, newest first (admins: all; clinicians: their athletes)',
     access: { kind: 'org', action: 'read', subject: 'AuditEntry' },
-    body: NothingSchema,
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: AuditQuerySchema,
     async handler({ read, query }) {
       return read(listAuditEntries, query);
@@ -23,8 +23,8 @@ export const auditRoutes: RouteDef[] = [
     path: '/orgs/:orgId/audit/export',
     summary: 'The filtered audit trail as a CSV file (up to 50,000 entries)',
     access: { kind: 'org', action: 'read', subject: 'AuditEntry' },
-    body: NothingSchema,
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: AuditQuerySchema,
     command: exportAudit,
     async handler({ run, query, res, actor }) {
@@ -72,9 +72,9 @@ export const auditRoutes: RouteDef[] = [
     path: '/orgs/:orgId/audit/verify',
     summary: "Check the organization's audit chain end to end (admins)",
     access: { kind: 'org', action: 'read', subject: 'AuditChain' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read }) {
       return read(verifyAuditChain, undefined);
     },

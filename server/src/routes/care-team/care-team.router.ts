@@ -9,8 +9,8 @@ export const careTeamRoutes: RouteDef[] = [
     path: '/orgs/:orgId/care-team',
     summary: "Put a coach or clinician on an athlete's care team",
     access: { kind: 'org', action: 'create', subject: 'CareTeamAssignment' },
-    query: NothingSchema,
     params: OrgParamsSchema,
+    query: NothingSchema,
     body: CareTeamAssignmentCreateSchema,
     status: 201,
     command: assignCareTeam,
@@ -23,9 +23,9 @@ export const careTeamRoutes: RouteDef[] = [
     path: '/orgs/:orgId/care-team/:id',
     summary: 'Take a coach or clinician off a care team (their access ends at once)',
     access: { kind: 'org', action: 'delete', subject: 'CareTeamAssignment' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: unassignCareTeam,
     async handler({ params, run }) {
       await run(unassignCareTeam, { id: params.id });

@@ -9,8 +9,8 @@ export const guardianLinkRoutes: RouteDef[] = [
     path: '/orgs/:orgId/guardian-links',
     summary: 'Link a guardian to an athlete',
     access: { kind: 'org', action: 'create', subject: 'GuardianLink' },
-    query: NothingSchema,
     params: OrgParamsSchema,
+    query: NothingSchema,
     body: GuardianLinkCreateSchema,
     status: 201,
     command: linkGuardian,
@@ -23,9 +23,9 @@ export const guardianLinkRoutes: RouteDef[] = [
     path: '/orgs/:orgId/guardian-links/:id',
     summary: 'Unlink a guardian from an athlete',
     access: { kind: 'org', action: 'delete', subject: 'GuardianLink' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: unlinkGuardian,
     async handler({ params, run }) {
       await run(unlinkGuardian, { id: params.id });

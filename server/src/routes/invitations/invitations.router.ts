@@ -57,9 +57,9 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       path: '/orgs/:orgId/invitations',
       summary: 'Invitations of the organization',
       access: { kind: 'org', action: 'read', subject: 'Invitation' },
+      params: OrgParamsSchema,
       query: NothingSchema,
       body: NothingSchema,
-      params: OrgParamsSchema,
       async handler({ read }) {
         return read(listInvitations, undefined);
       },
@@ -69,8 +69,8 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       path: '/orgs/:orgId/invitations',
       summary: 'Invite a person by e-mail to one or more roles',
       access: { kind: 'org', action: 'create', subject: 'Invitation' },
-      query: NothingSchema,
       params: OrgParamsSchema,
+      query: NothingSchema,
       body: InvitationCreateSchema,
       status: 201,
       command: createInvitation,
@@ -83,9 +83,9 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       path: '/orgs/:orgId/invitations/:id',
       summary: 'Withdraw a pending invitation',
       access: { kind: 'org', action: 'delete', subject: 'Invitation' },
+      params: OrgItemParamsSchema,
       query: NothingSchema,
       body: NothingSchema,
-      params: OrgItemParamsSchema,
       command: revokeInvitation,
       async handler({ params, run }) {
         await run(revokeInvitation, { id: params.id });

@@ -9,9 +9,9 @@ export const notificationRoutes: RouteDef[] = [
     path: '/orgs/:orgId/notifications',
     summary: 'My notices, newest first',
     access: { kind: 'org', action: 'read', subject: 'Notification' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     handler: ({ read }) => read(myNoticesQuery, undefined),
   }),
   orgRoute({

@@ -9,9 +9,9 @@ export const organizationRoutes: RouteDef[] = [
     path: '/orgs/:orgId',
     summary: 'The organization: name, local emergency number and time zone',
     access: { kind: 'org', action: 'read', subject: 'Organization' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read }) {
       return read(getOrganization, undefined);
     },
@@ -21,9 +21,9 @@ export const organizationRoutes: RouteDef[] = [
     path: '/orgs/:orgId/settings',
     summary: "The organization's settings, with the version an edit must name (admins)",
     access: { kind: 'org', action: 'update', subject: 'Organization' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read }) {
       return read(getOrganizationSettings, undefined);
     },
@@ -33,8 +33,8 @@ export const organizationRoutes: RouteDef[] = [
     path: '/orgs/:orgId/settings',
     summary: 'Change name, emergency number, time zone or whether guardians may watch clips (admins; 409 on a stale version)',
     access: { kind: 'org', action: 'update', subject: 'Organization' },
-    query: NothingSchema,
     params: OrgParamsSchema,
+    query: NothingSchema,
     body: OrganizationSettingsSchema,
     command: updateOrganizationSettings,
     async handler({ body, run }) {

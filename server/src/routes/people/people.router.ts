@@ -9,9 +9,9 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people',
     summary: 'People of the organization and their roles',
     access: { kind: 'org', action: 'read', subject: 'Membership' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read }) {
       return read(listPeople, undefined);
     },
@@ -21,9 +21,9 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people/:id',
     summary: 'One person',
     access: { kind: 'org', action: 'read', subject: 'Membership' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     async handler({ read, params }) {
       return read(getPerson, { id: params.id });
     },
@@ -33,8 +33,8 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people/:id',
     summary: "Change a person's roles",
     access: { kind: 'org', action: 'update', subject: 'Membership' },
-    query: NothingSchema,
     params: OrgItemParamsSchema,
+    query: NothingSchema,
     body: MembershipUpdateSchema,
     command: changeRoles,
     async handler({ req, params, body, run }) {
@@ -47,9 +47,9 @@ export const peopleRoutes: RouteDef[] = [
     path: '/orgs/:orgId/people/:id',
     summary: 'Remove a person from the organization (their records stay)',
     access: { kind: 'org', action: 'delete', subject: 'Membership' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: removeMember,
     async handler({ params, run }) {
       await run(removeMember, { id: params.id });

@@ -29,9 +29,9 @@ export const planRoutes: RouteDef[] = [
     path: '/orgs/:orgId/plans/:id',
     summary: 'A restriction plan as it stands now',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     handler: ({ read, params }) => read(planQuery, { planId: params.id }),
   }),
   orgRoute({
@@ -50,9 +50,9 @@ export const planRoutes: RouteDef[] = [
     path: '/orgs/:orgId/plans/:id/versions',
     summary: 'Every saved version of a plan, newest first, with who saved it (care team only)',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     handler: ({ read, params }) => read(planHistoryQuery, { planId: params.id }),
   }),
   orgRoute({
@@ -60,9 +60,9 @@ export const planRoutes: RouteDef[] = [
     path: '/orgs/:orgId/plans/:id/versions/:version',
     summary: 'One earlier version of a plan',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
+    params: PlanVersionParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: PlanVersionParamsSchema,
     async handler({ read, params }) {
       const [v] = await read(planHistoryQuery, { planId: params.id, version: params.version });
       return v;
@@ -73,8 +73,8 @@ export const planRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id/in-force',
     summary: 'What is in force for an athlete on a date (default today): status, stage and caps per pattern',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
-    body: NothingSchema,
     params: OrgItemParamsSchema,
+    body: NothingSchema,
     query: InForceQuerySchema,
     handler: ({ read, params, query }) => read(inForceQuery, { athleteId: params.id, date: query.date }),
   }),

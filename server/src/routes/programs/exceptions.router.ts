@@ -31,8 +31,8 @@ export const exceptionRoutes: RouteDef[] = [
     path: '/orgs/:orgId/exceptions',
     summary: 'Exception requests of my athletes',
     access: { kind: 'org', action: 'read', subject: 'ProgramException' },
-    body: NothingSchema,
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: z.strictObject({
       athleteId: UuidSchema.optional(),
       state: z.enum(['pending', 'all'], { message: 'must be pending or all' }).default('all'),

@@ -17,9 +17,9 @@ export const exerciseRoutes: RouteDef[] = [
     path: '/orgs/:orgId/exercises',
     summary: "The organization's exercise library",
     access: { kind: 'org', action: 'read', subject: 'Exercise' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read }) {
       return read(listExercises, undefined);
     },
@@ -57,9 +57,9 @@ export const exerciseRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id/baselines',
     summary: "An athlete's strength history: tested maxes, estimates and logged sets",
     access: { kind: 'org', action: 'read', subject: 'Baseline' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     async handler({ read, params }) {
       return read(listBaselines, { athleteId: params.id });
     },

@@ -32,8 +32,8 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs',
     summary: 'Programs I may see (athletes: those they are part of, published sessions only)',
     access: { kind: 'org', action: 'read', subject: 'Program' },
-    body: NothingSchema,
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
     async handler({ read, query }) {
       return read(listPrograms, query);
@@ -58,9 +58,9 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs/:id',
     summary: 'A program with its sessions',
     access: { kind: 'org', action: 'read', subject: 'Program' },
+    params: ProgramItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: ProgramItemParamsSchema,
     async handler({ read, params }) {
       return read(getProgram, { id: params.id });
     },

@@ -9,9 +9,9 @@ export const rosterRoutes: RouteDef[] = [
     path: '/orgs/:orgId/roster',
     summary: "The coach's roster: status, limits in force today, sessions on hold, pending exceptions, next session",
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
+    params: OrgParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgParamsSchema,
     async handler({ read, user }) {
       return read(roster, { unit: user.unitPref });
     },
@@ -21,8 +21,8 @@ export const rosterRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id/today',
     summary: "An athlete's published sessions for a day, with loads worked out and on-hold sessions marked",
     access: { kind: 'org', action: 'read', subject: 'Program' },
-    body: NothingSchema,
     params: OrgItemParamsSchema,
+    body: NothingSchema,
     query: z.strictObject({ date: IsoDateSchema.optional() }),
     async handler({ read, user, params, query }) {
       return read(athleteDay, { athleteId: params.id, date: query.date, unit: user.unitPref });

@@ -25,8 +25,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips',
     summary: 'Technique clips I may watch, newest first (guardians only when the organization allows it)',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
-    body: NothingSchema,
     params: z.strictObject({ orgId: UuidSchema }),
+    body: NothingSchema,
     query: ClipListQuerySchema,
     handler: ({ read, query }) => read(clips, query),
   }),
@@ -56,9 +56,9 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id',
     summary: 'One clip with its notes, in time order',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     handler: ({ read, params }) => read(clipWithNotes, { id: params.id }),
   }),
   orgRoute({
@@ -66,9 +66,9 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id/video',
     summary: 'The video, with HTTP range requests so the player can seek',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: recordUploadRead,
     async handler({ deps, read, run, params, req, res }) {
       const clip = await read(uploadFile, { kind: 'clip', id: params.id });
@@ -109,9 +109,9 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id',
     summary: 'Remove a clip and its notes (its uploader or the athlete)',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: deleteUpload,
     async handler({ deps, run, params }) {
       const { storageKey } = await run(deleteUpload, { kind: 'clip', id: params.id });
@@ -124,8 +124,8 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id/notes',
     summary: 'Pin a note to a time in a clip (a coach or clinician on the care team); the athlete is told in the app',
     access: { kind: 'org', action: 'create', subject: 'ClipNote' },
-    query: NothingSchema,
     params: OrgItemParamsSchema,
+    query: NothingSchema,
     body: ClipNoteCreateSchema,
     command: addClipNote,
     status: 201,
@@ -136,9 +136,9 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips/:id/notes/:noteId',
     summary: "Remove a note from a clip (the note's author)",
     access: { kind: 'org', action: 'read', subject: 'ClipNote' },
+    params: NoteParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: NoteParamsSchema,
     command: removeClipNote,
     async handler({ run, params }) {
       await run(removeClipNote, { clipId: params.id, noteId: params.noteId });

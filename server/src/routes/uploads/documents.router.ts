@@ -17,9 +17,9 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/cases/:id/documents',
     summary: "A case's outside documents (clinicians on the care team and the athlete only)",
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     handler: ({ read, params }) => read(caseDocuments, { caseId: params.id }),
   }),
   orgRoute({
@@ -47,9 +47,9 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/documents/:id/file',
     summary: 'Download an outside document (attachment, never cached); every download is audited',
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: recordUploadRead,
     async handler({ deps, read, run, params, res }) {
       const d = await read(uploadFile, { kind: 'document', id: params.id });
@@ -69,9 +69,9 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/documents/:id',
     summary: 'Remove an outside document (its uploader, or a clinician on the care team)',
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    params: OrgItemParamsSchema,
     command: deleteUpload,
     async handler({ deps, run, params }) {
       const { storageKey } = await run(deleteUpload, { kind: 'document', id: params.id });
