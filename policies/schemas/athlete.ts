@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { BODY_REGIONS } from '../body-regions';
 import { MOVEMENT_PATTERNS } from '../load/patterns';
 import { RED_FLAG_ITEMS } from '../red-flags';
-import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
 
 /** 0–10 verbal numeric rating, whole numbers (LOINC 72514-3 takes integers 0–10). */
 export const PainScoreSchema = z
@@ -40,7 +40,7 @@ export const PainReportCreateSchema = z.strictObject({
   onsetDate: IsoDateSchema,
   aggravatingPatterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement from the list' })).default([]),
   startedInTraining: z.boolean({ message: 'must be yes or no' }),
-  note: z.string().trim().max(2000, { message: 'must be at most 2,000 characters' }).optional(),
+  note: text(2000).optional(),
   /** Every screen question must be answered, so "not answered" is never read as "no". */
   redFlags: z.strictObject(redFlagShape),
 });
@@ -61,7 +61,7 @@ export const CheckInSchema = z.strictObject({
 export type CheckInInput = z.infer<typeof CheckInSchema>;
 
 export const LoggedSetSchema = z.strictObject({
-  exercise: z.string().trim().min(1, { message: 'is required' }).max(120, { message: 'must be at most 120 characters' }),
+  exercise: text(120).min(1, { message: 'is required' }),
   /** Kilograms; the client converts from the athlete's unit. 0 for bodyweight. */
   loadKg: z
     .number({ message: 'must be a number' })
@@ -88,7 +88,7 @@ export const TrainingLogCreateSchema = z.strictObject({
   painBefore: PainScoreSchema,
   painDuring: PainScoreSchema,
   sets: z.array(LoggedSetSchema).max(200, { message: 'must be at most 200 sets' }).default([]),
-  notes: z.string().trim().max(1000, { message: 'must be at most 1,000 characters' }).optional(),
+  notes: text(1000).optional(),
 });
 export type TrainingLogCreateInput = z.infer<typeof TrainingLogCreateSchema>;
 

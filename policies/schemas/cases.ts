@@ -2,20 +2,20 @@ import { z } from 'zod';
 import { BODY_REGIONS } from '../body-regions';
 import { CAP_KEYS, DEFAULT_PAIN_CEILING, MOVEMENT_PATTERNS, PARTICIPATION_STATUSES, PATTERN_MODES } from '../load/patterns';
 import { stageIssues } from '../load/in-force';
-import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text, wholeNumberText } from './common';
 
 export const ParticipationStatusSchema = z.enum(PARTICIPATION_STATUSES, { message: 'must be out, limited or full' });
 export const BodyRegionSchema = z.enum(BODY_REGIONS, { message: 'must be a body region from the list' });
 
-const ClinicalText = z.string().trim().max(20_000, { message: 'must be at most 20,000 characters' });
-const PlainWords = z.string().trim().max(2_000, { message: 'must be at most 2,000 characters' });
+const ClinicalText = text(20_000);
+const PlainWords = text(2_000);
 
 export const CaseCreateSchema = z.strictObject({
   athleteId: UuidSchema,
   bodyRegions: z.array(BodyRegionSchema).min(1, { message: 'must name at least one body region' }).max(BODY_REGIONS.length),
   onsetDate: IsoDateSchema,
   /** The clinician's own working label. Clinician-only, like the notes. */
-  diagnosis: z.string().trim().max(200, { message: 'must be at most 200 characters' }).optional(),
+  diagnosis: text(200).optional(),
   clinicalNotes: ClinicalText.optional(),
   status: ParticipationStatusSchema,
   statusEffectiveFrom: IsoDateSchema,
@@ -30,7 +30,7 @@ export type CaseCreateInput = z.infer<typeof CaseCreateSchema>;
 export const CaseUpdateSchema = z.strictObject({
   bodyRegions: z.array(BodyRegionSchema).min(1, { message: 'must name at least one body region' }).max(BODY_REGIONS.length).optional(),
   onsetDate: IsoDateSchema.optional(),
-  diagnosis: z.string().trim().max(200, { message: 'must be at most 200 characters' }).nullable().optional(),
+  diagnosis: text(200).nullable().optional(),
   clinicalNotes: ClinicalText.nullable().optional(),
   reviewDate: IsoDateSchema.nullable().optional(),
   version: VersionSchema,
@@ -90,7 +90,7 @@ export const PatternRuleSchema = z
 
 export const PlanStageSchema = z.strictObject({
   id: UuidSchema,
-  label: z.string().trim().max(80, { message: 'must be at most 80 characters' }).nullable().optional(),
+  label: text(80).nullable().optional(),
   startDate: IsoDateSchema,
   endDate: IsoDateSchema,
   reviewDate: IsoDateSchema.nullable().optional(),
@@ -115,7 +115,7 @@ const stagesSchema = z
 export const PlanCreateSchema = z.strictObject({
   stages: stagesSchema,
   guidance: PlainWords.default(''),
-  changeNote: z.string().trim().max(500).optional(),
+  changeNote: text(500).optional(),
 });
 export type PlanCreateInput = z.infer<typeof PlanCreateSchema>;
 
@@ -125,4 +125,4 @@ export type PlanUpdateInput = z.infer<typeof PlanUpdateSchema>;
 export const InForceQuerySchema = z.strictObject({ date: IsoDateSchema.optional() });
 
 export const CaseItemParamsSchema = z.strictObject({ orgId: UuidSchema, id: UuidSchema });
-export const PlanVersionParamsSchema = z.strictObject({ orgId: UuidSchema, id: UuidSchema, version: z.coerce.number().int().min(1) });
+export const PlanVersionParamsSchema = z.strictObject({ orgId: UuidSchema, id: UuidSchema, version: wholeNumberText(1) });

@@ -1,12 +1,9 @@
 import { z } from 'zod';
-import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
 
 const Line = (max: number) =>
-  z
-    .string()
-    .trim()
+  text(max)
     .min(1, { message: 'is required' })
-    .max(max, { message: `must be at most ${max} characters` })
     .refine((v) => !/[\r\n]/.test(v), { message: 'must be one line' });
 
 export const LetterCreateSchema = z
@@ -20,7 +17,7 @@ export const LetterCreateSchema = z
     limits: z.array(Line(300)).max(30).optional(),
     credential: Line(80),
     licenceNumber: Line(80),
-    familyNote: z.string().trim().max(1500, { message: 'must be at most 1,500 characters' }).default(''),
+    familyNote: text(1500).default(''),
   })
   .refine((l) => !l.validUntil || l.validUntil >= l.effectiveFrom, { message: 'must be on or after the start date', path: ['validUntil'] });
 export type LetterCreateInput = z.infer<typeof LetterCreateSchema>;
@@ -32,7 +29,7 @@ export const LetterUpdateSchema = z.strictObject({
   limits: z.array(Line(300)).max(30).optional(),
   credential: Line(80).optional(),
   licenceNumber: Line(80).optional(),
-  familyNote: z.string().trim().max(1500).optional(),
+  familyNote: text(1500).optional(),
   version: VersionSchema,
 });
 export type LetterUpdateInput = z.infer<typeof LetterUpdateSchema>;
@@ -45,9 +42,7 @@ export const LetterSignSchema = z.strictObject({
 
 /** Human-typable: Crockford base32, 20 characters in groups of four (100 random bits). */
 export const CheckCodeSchema = z.strictObject({
-  code: z
-    .string()
-    .trim()
+  code: text(40)
     .min(16, { message: 'is too short' })
     .max(40, { message: 'is too long' })
     .regex(/^[0-9A-Za-z -]+$/, { message: 'may contain only letters, digits and dashes' }),

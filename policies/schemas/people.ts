@@ -1,7 +1,17 @@
 import { z } from 'zod';
 import { ROLES } from '../roles';
 import { CARE_TEAM_ROLES } from '../roles';
-import { DisplayNameSchema, EmailSchema, IsoDateSchema, UNITS, UuidSchema, VersionSchema } from './common';
+import {
+  BIGINT_ID_MAX,
+  DisplayNameSchema,
+  EmailSchema,
+  IsoDateSchema,
+  UNITS,
+  UuidSchema,
+  VersionSchema,
+  text,
+  wholeNumberText,
+} from './common';
 
 export const RoleSchema = z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` });
 export const RolesSchema = z
@@ -10,7 +20,7 @@ export const RolesSchema = z
   .max(ROLES.length)
   .refine((roles) => new Set(roles).size === roles.length, { message: 'must not repeat a role' });
 
-const OptionalText = z.string().trim().max(80, { message: 'must be at most 80 characters' });
+const OptionalText = text(80);
 
 export const InvitationCreateSchema = z
   .strictObject({
@@ -61,14 +71,14 @@ export const ProfileUpdateSchema = z.strictObject({
 export type ProfileUpdateInput = z.infer<typeof ProfileUpdateSchema>;
 
 export const AuditQuerySchema = z.strictObject({
-  action: z.string().max(80).optional(),
+  action: text(80).optional(),
   actorId: UuidSchema.optional(),
   subjectId: UuidSchema.optional(),
   athleteId: UuidSchema.optional(),
   from: IsoDateSchema.optional(),
   to: IsoDateSchema.optional(),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
-  before: z.coerce.number().int().min(1).optional(),
+  limit: wholeNumberText(1, 500).default(100),
+  before: wholeNumberText(1, BIGINT_ID_MAX).optional(),
 });
 export type AuditQueryInput = z.infer<typeof AuditQuerySchema>;
 

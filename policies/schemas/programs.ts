@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { MOVEMENT_PATTERNS } from '../load/patterns';
-import { IsoDateSchema, UuidSchema, VersionSchema } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
 import { SetRpeSchema } from './athlete';
 
 export const EQUIPMENT = [
@@ -35,7 +35,7 @@ export const LoadStepsSchema = z.discriminatedUnion(
 
 /** An exercise's fields, each as sent: no defaults here, so neither schema below can invent a value. */
 const ExerciseFields = {
-  name: z.string().trim().min(1, { message: 'is required' }).max(120, { message: 'must be at most 120 characters' }),
+  name: text(120).min(1, { message: 'is required' }),
   patterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' })).max(4),
   equipment: z.enum(EQUIPMENT, { message: 'must be one of the equipment types' }),
   ballistic: z.boolean({ message: 'must be yes or no' }),
@@ -122,14 +122,14 @@ export const PlannedSetSchema = z.strictObject({
   /** A warm-up: checked against every cap, but not counted as a hard set. Absent means a working set. */
   warmUp: z.boolean({ message: 'must be yes or no' }).optional(),
   restSeconds: z.number().int().min(0).max(1800, { message: 'must be at most 1800 s' }).nullable().optional(),
-  notes: z.string().trim().max(300).nullable().optional(),
+  notes: text(300).nullable().optional(),
 });
 export type PlannedSetInput = z.infer<typeof PlannedSetSchema>;
 
 export const SessionExerciseSchema = z.strictObject({
   id: UuidSchema,
   exerciseId: UuidSchema,
-  notes: z.string().trim().max(500).nullable().optional(),
+  notes: text(500).nullable().optional(),
   sets: z.array(PlannedSetSchema).min(1, { message: 'must have at least one set' }).max(30),
 });
 
@@ -139,7 +139,7 @@ export const SessionContentSchema = z.strictObject({
 export type SessionContent = z.infer<typeof SessionContentSchema>;
 
 export const ProgramCreateSchema = z.strictObject({
-  name: z.string().trim().min(1, { message: 'is required' }).max(120),
+  name: text(120).min(1, { message: 'is required' }),
   athleteIds: z.array(UuidSchema).min(1, { message: 'must include at least one athlete' }).max(60),
 });
 export type ProgramCreateInput = z.infer<typeof ProgramCreateSchema>;
@@ -153,14 +153,14 @@ export const ProgramUpdateSchema = z.strictObject({
 
 export const SessionCreateSchema = z.strictObject({
   date: IsoDateSchema,
-  title: z.string().trim().min(1, { message: 'is required' }).max(120),
+  title: text(120).min(1, { message: 'is required' }),
   content: SessionContentSchema.default({ exercises: [] }),
 });
 export type SessionCreateInput = z.infer<typeof SessionCreateSchema>;
 
 export const SessionUpdateSchema = z.strictObject({
   date: IsoDateSchema.optional(),
-  title: z.string().trim().min(1, { message: 'is required' }).max(120).optional(),
+  title: text(120).min(1, { message: 'is required' }).optional(),
   content: SessionContentSchema.optional(),
   version: VersionSchema,
 });
@@ -184,7 +184,7 @@ export const ShiftDatesSchema = z.strictObject({
 export const ExceptionCreateSchema = z.strictObject({
   athleteId: UuidSchema,
   setIds: z.array(UuidSchema).min(1, { message: 'must name at least one set' }).max(100),
-  reason: z.string().trim().min(5, { message: 'must say why (at least 5 characters)' }).max(1000),
+  reason: text(1000).min(5, { message: 'must say why (at least 5 characters)' }),
 });
 export type ExceptionCreateInput = z.infer<typeof ExceptionCreateSchema>;
 
@@ -192,7 +192,7 @@ export const ExceptionDecisionSchema = z.strictObject({
   decision: z.enum(['grant', 'refuse'], { message: 'must be grant or refuse' }),
   /** Grant only some of the requested sets (narrowing); default all. */
   setIds: z.array(UuidSchema).min(1).max(100).optional(),
-  note: z.string().trim().min(1, { message: 'is required' }).max(1000),
+  note: text(1000).min(1, { message: 'is required' }),
 });
 export type ExceptionDecisionInput = z.infer<typeof ExceptionDecisionSchema>;
 

@@ -1,13 +1,10 @@
 import { z } from 'zod';
 import { isTimeZone } from '../today';
-import { IsoDateSchema, UuidSchema } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, isStorableText, text } from './common';
 
 const line = (max: number) =>
-  z
-    .string({ message: 'is required' })
-    .trim()
+  text(max)
     .min(1, { message: 'is required' })
-    .max(max, { message: `must be at most ${max} characters` })
     .refine((v) => !/[\r\n]/.test(v), { message: 'must not contain line breaks' });
 
 /** Text fields sent with a case document (multipart form fields, sent before the file). */
@@ -23,10 +20,7 @@ export const ClipFieldsSchema = z.strictObject({
   athleteId: UuidSchema,
   trainingLogId: UuidSchema,
   exercise: line(200),
-  caption: z
-    .string()
-    .trim()
-    .max(500, { message: 'must be at most 500 characters' })
+  caption: text(500)
     .optional()
     .transform((v) => (v ? v : undefined)),
 });
@@ -43,21 +37,14 @@ export const ClipNoteCreateSchema = z.strictObject({
     .int({ message: 'must be whole milliseconds' })
     .min(0, { message: 'cannot be negative' })
     .max(3_600_000, { message: 'must be within the first hour' }),
-  body: z
-    .string({ message: 'is required' })
-    .trim()
-    .min(1, { message: 'is required' })
-    .max(1000, { message: 'must be at most 1000 characters' }),
+  body: text(1000).min(1, { message: 'is required' }),
 });
 export type ClipNoteCreateInput = z.infer<typeof ClipNoteCreateSchema>;
 
 export const OrganizationSettingsSchema = z.strictObject({
   name: line(200).optional(),
-  emergencyNumber: z
-    .string()
-    .trim()
+  emergencyNumber: text(30)
     .min(1, { message: 'is required' })
-    .max(30, { message: 'must be at most 30 characters' })
     .regex(/^[0-9+()\- ]+$/, { message: 'may contain digits, spaces, +, - and brackets only' })
     .optional(),
   guardiansSeeClips: z.boolean({ message: 'must be true or false' }).optional(),
@@ -65,8 +52,9 @@ export const OrganizationSettingsSchema = z.strictObject({
   timeZone: z
     .string({ message: 'must be an IANA time zone such as America/Chicago' })
     .trim()
-    .refine(isTimeZone, { message: 'must be an IANA time zone such as America/Chicago' })
+    // One check, so a bad value gets the one sentence (the column holds 64 characters).
+    .refine((v) => v.length <= 64 && isStorableText(v) && isTimeZone(v), { message: 'must be an IANA time zone such as America/Chicago' })
     .optional(),
-  version: z.number({ message: 'is required' }).int().min(1),
+  version: VersionSchema,
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

@@ -6,32 +6,11 @@ import { AppError } from '../core/errors';
 import { auditRefusal, type Refusal } from '../services/refusals';
 import type { ActorWithOrg } from '../services/actor';
 import { clientAddress, csrfTrails } from './security';
+import { normalise } from './error-mapping';
 
 export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new AppError('not_found', `There is no API route ${req.method} ${req.baseUrl}${req.path}.`));
 };
-
-function normalise(err: unknown): AppError {
-  if (err instanceof AppError) return err;
-  const e = err as { type?: string; status?: number; code?: string };
-  if (e?.type === 'entity.parse.failed') {
-    return new AppError('validation_failed', 'Please check the form: the request body is not valid JSON.', { body: ['is not valid JSON'] });
-  }
-  if (e?.type === 'entity.too.large') return new AppError('payload_too_large', 'The request is too large.');
-  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported') {
-    return new AppError('unsupported_media_type', 'The request body must be UTF-8 JSON.');
-  }
-  // The database is away (connection refused, terminated, timeout): say so, rather than "internal".
-  if (
-    e?.code === 'ECONNREFUSED' ||
-    e?.code === '57P01' ||
-    e?.code === '57P03' ||
-    /Connection terminated|timeout exceeded when trying to connect/i.test(String((err as Error)?.message))
-  ) {
-    return new AppError('unavailable', 'The service is briefly unavailable. Please try again in a moment.');
-  }
-  return new AppError('internal', 'Something went wrong on our side. It has been logged; please try again.');
-}
 
 /** The route's pattern ('/api/orgs/:orgId/cases/:id') when a route took the request, so refusals group by route. */
 function routeOf(req: Request): string | null {
@@ -81,7 +60,6 @@ function refusalOf(appErr: AppError, req: Request, res: Response, requestId: str
   }
   return null;
 }
-
 /** The one place errors become responses: `{ error: { code, message, fields? }, requestId }`, never a stack. */
 export function errorHandler(deps: Deps): ErrorRequestHandler {
   return (err, req, res, _next) => {

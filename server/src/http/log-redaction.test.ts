@@ -4,6 +4,7 @@ import { QueryFailedError } from 'typeorm';
 import { buildApp } from '../app';
 import { createLogger } from '../logger';
 import { signedIn, useHarness } from '../test/harness';
+import { asOwner } from '../test/owner';
 import { createOrg, TEST_PASSWORD } from '../test/factories';
 import { caseBody, caseWorld } from '../routes/cases/case-world';
 
@@ -28,20 +29,25 @@ describe('ASVS 5.0 V16.2.5: logs hold no health data (a failed write of a clinic
     ({ app, close } = buildApp({ ds: h.ds, config: h.config, logger: log.logger }));
     // A trigger that refuses the note and quotes it in its message and detail, as a real check or
     // trigger error would ("Failing row contains (…)"); and a CHECK constraint whose detail does.
-    await h.ds.query(`
+    // Planted as the owner: the app's own role may not create triggers or constraints.
+    await asOwner(async (c) => {
+      await c.query(`
       CREATE FUNCTION canary_refuse() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN
         IF NEW.clinical_notes LIKE 'CANARY-7f3a%' THEN
           RAISE EXCEPTION 'refused note: %', NEW.clinical_notes USING DETAIL = 'Failing row contains ' || NEW.clinical_notes;
         END IF;
         RETURN NEW;
       END $$`);
-    await h.ds.query(`CREATE TRIGGER canary_refuse BEFORE INSERT ON cases FOR EACH ROW EXECUTE FUNCTION canary_refuse()`);
-    await h.ds.query(`ALTER TABLE cases ADD CONSTRAINT canary_check CHECK (clinical_notes NOT LIKE 'CANARY-9b1c%') NOT VALID`);
+      await c.query(`CREATE TRIGGER canary_refuse BEFORE INSERT ON cases FOR EACH ROW EXECUTE FUNCTION canary_refuse()`);
+      await c.query(`ALTER TABLE cases ADD CONSTRAINT canary_check CHECK (clinical_notes NOT LIKE 'CANARY-9b1c%') NOT VALID`);
+    });
   });
   afterAll(async () => {
-    await h.ds.query(`DROP TRIGGER IF EXISTS canary_refuse ON cases`);
-    await h.ds.query(`DROP FUNCTION IF EXISTS canary_refuse()`);
-    await h.ds.query(`ALTER TABLE cases DROP CONSTRAINT IF EXISTS canary_check`);
+    await asOwner(async (c) => {
+      await c.query(`DROP TRIGGER IF EXISTS canary_refuse ON cases`);
+      await c.query(`DROP FUNCTION IF EXISTS canary_refuse()`);
+      await c.query(`ALTER TABLE cases DROP CONSTRAINT IF EXISTS canary_check`);
+    });
     await close?.();
   });
 

@@ -1,5 +1,5 @@
 import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
-import type { z } from 'zod';
+import { z } from 'zod';
 import { defineAbilityFor, type Action, type SubjectName } from '../../../policies/access';
 import { OrgParamsSchema } from '../../../policies/schemas';
 import type { User } from '../entities';
@@ -21,16 +21,26 @@ export type Access = { kind: 'public' } | { kind: 'signedIn' } | { kind: 'org'; 
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 type ZodAny = z.ZodType;
-type Infer<T> = T extends ZodAny ? z.infer<T> : undefined;
+type Infer<T extends ZodAny> = z.infer<T>;
 
 interface RouteBase<P, Q, B> {
   method: Method;
   /** Path below /api, Express syntax. */
   path: string;
   summary: string;
-  params?: P;
-  query?: Q;
-  body?: B;
+  /**
+   * Every route declares all three, as strict objects (`NothingSchema` where it takes none): an
+   * unknown key in the path, query or body is refused, and the registry refuses a route without
+   * them (OWASP ASVS 5.0 V2.2.1).
+   */
+  params: P;
+  query: Q;
+  body: B;
+  /**
+   * The body is a multipart form the handler reads itself (storage/receive.ts), so `body` sees an
+   * empty object; any other media type is refused with 415 before validation.
+   */
+  multipart?: true;
   /** Runs before the session check, e.g. sign-in rate limits. */
   before?: RequestHandler[];
   /**
@@ -57,11 +67,7 @@ export type RouteDef =
     });
 
 /** Helpers that keep handler parameter types tied to their schemas. */
-export function publicRoute<
-  P extends ZodAny | undefined = undefined,
-  Q extends ZodAny | undefined = undefined,
-  B extends ZodAny | undefined = undefined,
->(
+export function publicRoute<P extends ZodAny, Q extends ZodAny, B extends ZodAny>(
   def: RouteBase<P, Q, B> & {
     access: { kind: 'public' } | { kind: 'signedIn' };
     handler: (ctx: BaseCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown>;
@@ -70,11 +76,7 @@ export function publicRoute<
   return def as unknown as RouteDef;
 }
 
-export function orgRoute<
-  P extends ZodAny | undefined = undefined,
-  Q extends ZodAny | undefined = undefined,
-  B extends ZodAny | undefined = undefined,
->(
+export function orgRoute<P extends ZodAny, Q extends ZodAny, B extends ZodAny>(
   def: RouteBase<P, Q, B> & {
     access: { kind: 'org'; action: Action; subject: SubjectName };
     handler: (ctx: OrgCtx<Infer<P>, Infer<Q>, Infer<B>>) => Promise<unknown>;
@@ -94,6 +96,9 @@ export interface RouteTableRow {
 /** Route → required access, for review: the snapshot test makes any change to it visible. */
 export const ROUTE_TABLE: RouteTableRow[] = [];
 
+/** Each route's declared input, by `METHOD /api/path`: fuzzers build near-valid requests from it. */
+export const ROUTE_INPUTS = new Map<string, { params: ZodAny; query: ZodAny; body: ZodAny }>();
+
 function accessLabel(a: Access): string {
   return a.kind === 'org' ? `member: ${a.action} ${a.subject}` : a.kind;
 }
@@ -107,9 +112,32 @@ const asyncHandler =
 /** Built once: a zod schema is costly to build, and this one ran on every organization request. */
 const OrgIdOnly = OrgParamsSchema.partial().passthrough();
 
+/**
+ * A route takes nothing it has not declared: params, query and body are each a strict zod object,
+ * and the params name exactly the path's `:parameters` (OWASP ASVS 5.0 V2.2.1).
+ */
+export function checkDeclaredInput(def: Pick<RouteDef, 'method' | 'path' | 'params' | 'query' | 'body'>): void {
+  const where = `${def.method.toUpperCase()} /api${def.path}`;
+  for (const part of ['params', 'query', 'body'] as const) {
+    const schema: unknown = def[part];
+    if (!(schema instanceof z.ZodObject)) {
+      throw new Error(`${where}: declare ${part} as a strict zod object (NothingSchema when the route takes none)`);
+    }
+    if (schema._zod.def.catchall?._zod.def.type !== 'never') {
+      throw new Error(`${where}: ${part} must be a strict object (z.strictObject), so unknown keys are refused`);
+    }
+  }
+  const inPath = [...def.path.matchAll(/:(\w+)/g)].map((m) => m[1]).sort();
+  const declared = Object.keys((def.params as z.ZodObject).shape).sort();
+  if (inPath.join(',') !== declared.join(',')) {
+    throw new Error(`${where}: params declares [${declared.join(', ')}] but the path has [${inPath.join(', ')}]`);
+  }
+}
+
 export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void {
   for (const def of defs) {
     const fullPath = `/api${def.path}`;
+    checkDeclaredInput(def);
     const declared = def.command === undefined ? [] : Array.isArray(def.command) ? def.command : [def.command];
     if (def.method !== 'get' && declared.length === 0 && !def.writesNothing) {
       throw new Error(`${def.method.toUpperCase()} ${fullPath}: a write route must declare its command (every write goes through one)`);
@@ -121,6 +149,7 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
       if (!declared.some((c) => c.name === name))
         throw new Error(`${def.method.toUpperCase()} ${fullPath} runs ${name} without declaring it`);
     };
+    ROUTE_INPUTS.set(`${def.method.toUpperCase()} ${fullPath}`, { params: def.params, query: def.query, body: def.body });
     if (!ROUTE_TABLE.some((r) => r.method === def.method.toUpperCase() && r.path === fullPath)) {
       ROUTE_TABLE.push({
         method: def.method.toUpperCase(),
@@ -152,12 +181,17 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
         }
         orgCtx = { actor, ability };
       }
-      const parse = (schema: ZodAny | undefined, value: unknown, where: 'params' | 'query' | 'body') => {
-        if (!schema) return undefined;
+      const parse = (schema: ZodAny, value: unknown, where: 'params' | 'query' | 'body') => {
         const result = schema.safeParse(value ?? {});
         if (!result.success) throw fromZod(result.error, where);
         return result.data;
       };
+      if (def.multipart && !req.is('multipart/form-data')) {
+        throw new AppError(
+          'unsupported_media_type',
+          'Send the file as a multipart form (multipart/form-data), the text fields first and the file last.',
+        );
+      }
       const params = parse(def.params, req.params, 'params');
       const query = parse(def.query, req.query, 'query');
       const body = parse(def.body, req.body, 'body');

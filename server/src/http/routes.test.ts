@@ -1,12 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import request from 'supertest';
-import fc from 'fast-check';
-import { z } from 'zod';
-import * as schemas from '../../../policies/schemas';
-import { Client, signedIn, useHarness } from '../test/harness';
+import { Client, useHarness } from '../test/harness';
 import { expectNoStack } from '../test/no-stack';
-import { createOrg, TEST_PASSWORD } from '../test/factories';
 import { ROUTE_TABLE } from './route';
 
 const WRITE_METHODS = new Set(['POST', 'PATCH', 'PUT', 'DELETE']);
@@ -227,101 +223,5 @@ describe('the route table', () => {
     const replaced = await request(h.app).get('/api/no-such-thing').set('X-Request-Id', 'bad id with spaces <script>');
     expect(replaced.headers['x-request-id']).not.toContain(' ');
     expect(replaced.body.requestId).toBe(replaced.headers['x-request-id']);
-  });
-
-  describe('property: arbitrary bodies never cause a 5xx', () => {
-    /** Every field name any request schema knows, so generated bodies often look almost right. */
-    const knownKeys = [
-      ...new Set(Object.values(schemas).flatMap((s) => (s instanceof z.ZodObject ? Object.keys((s as z.ZodObject).shape) : []))),
-    ];
-
-    it('knows the request field names', () => {
-      expect(knownKeys).toEqual(expect.arrayContaining(['email', 'password', 'token', 'roles', 'version', 'athleteId']));
-    });
-
-    // 25 bodies per route; the time grows with the route table, hence its own timeout.
-    it('holds for every write route with a body, called by a member the route admits', { timeout: 120_000 }, async () => {
-      const org = await createOrg(h.ds);
-      // The admin first; routes the admin's role does not admit (403 before any validation) are
-      // fuzzed as the athlete's clinician or coach instead, so the bodies do reach the schemas.
-      const callers = [
-        await signedIn(h.app, org.admin.email, TEST_PASSWORD),
-        await signedIn(h.app, org.clinician.email, TEST_PASSWORD),
-        await signedIn(h.app, org.coach.email, TEST_PASSWORD),
-      ];
-      const realIds = [org.id, org.athlete.membershipId, org.coach.membershipId, org.clinician.membershipId, org.guardian.membershipId];
-      const plausible = fc.constantFrom<unknown>(
-        ...realIds,
-        randomUUID(),
-        'new-person@test.example',
-        ['coach'],
-        ['athlete', 'admin'],
-        'coach',
-        'clinician',
-        'athlete',
-        '2010-05-05',
-        '2999-02-30',
-        1,
-        2,
-        0,
-        -1,
-        1e308,
-        'lb',
-        null,
-        '',
-        TEST_PASSWORD,
-        'x'.repeat(300),
-        'a\r\nBcc: x@test.example',
-        { $gt: '' },
-        [],
-        {},
-      );
-      const value = fc.oneof(plausible, fc.jsonValue({ maxDepth: 2 }));
-      const bodyArb = fc.oneof(
-        fc.anything({ maxDepth: 2 }),
-        fc.object({ maxDepth: 2 }),
-        fc.dictionary(fc.constantFrom(...knownKeys), value, { maxKeys: 6 }),
-        fc.dictionary(fc.constantFrom(...knownKeys, '__proto__', 'constructor', 'organizationId'), value, { maxKeys: 4 }),
-      );
-      // `:id` is a real athlete (valid for people and athletes), so well-formed bodies reach the handlers.
-      const ids = { orgId: org.id, id: org.athlete.membershipId };
-      const routes = ROUTE_TABLE.filter((r) => ['POST', 'PATCH', 'PUT'].includes(r.method));
-      expect(routes.length).toBeGreaterThanOrEqual(5);
-
-      const call = (caller: Client, method: string, path: string, json: string) =>
-        send(caller.agent, method, path).set('x-csrf-token', caller.csrf).set('Content-Type', 'application/json').send(json);
-
-      const codes: Record<string, Set<string>> = {};
-      for (const route of routes) {
-        const path = fillPath(route.path, ids);
-        let caller = callers[0];
-        for (const c of callers) {
-          caller = c;
-          const probe = await call(c, route.method, path, '{}');
-          if (probe.body?.error?.code !== 'forbidden') break;
-        }
-        const seen = (codes[`${route.method} ${route.path}`] = new Set());
-        await fc.assert(
-          fc.asyncProperty(bodyArb, async (body) => {
-            const json = JSON.stringify(body) ?? '';
-            const res = await call(caller, route.method, path, json);
-            seen.add(res.status < 400 ? String(res.status) : res.body?.error?.code);
-            if (res.status >= 500) throw new Error(`${route.method} ${path} → ${res.status} ${res.text} for ${json}`);
-            if (res.status >= 400) {
-              expect(res.body.error?.code, res.text).toEqual(expect.any(String));
-              expectNoStack(res.text);
-            }
-          }),
-          { numRuns: 25 },
-        );
-      }
-      // Every caller stayed signed in and passed CSRF, so the bodies were judged on their content.
-      for (const [route, seen] of Object.entries(codes)) {
-        expect(
-          [...seen].filter((c) => c === 'unauthenticated' || c === 'csrf_failed'),
-          route,
-        ).toEqual([]);
-      }
-    });
   });
 });

@@ -47,10 +47,23 @@ export interface NoticeInput {
   body: string;
 }
 
+const TITLE_MAX = 200;
+
+/**
+ * A title that fits its column: one built from a long name and a long exercise can pass 200
+ * characters, and is then cut with an ellipsis (whole characters, never half a surrogate pair)
+ * rather than refusing the change that caused it.
+ */
+export function fitTitle(title: string): string {
+  const chars = Array.from(title);
+  return chars.length <= TITLE_MAX ? title : `${chars.slice(0, TITLE_MAX - 1).join('')}…`;
+}
+
 /** In-app notices, written in the caller's transaction so a notice exists exactly when its cause does. */
-export async function notify(m: EntityManager, recipientIds: string[], notice: NoticeInput): Promise<void> {
+export async function notify(m: EntityManager, recipientIds: string[], input: NoticeInput): Promise<void> {
   const unique = [...new Set(recipientIds)];
   if (unique.length === 0) return;
+  const notice = { ...input, title: fitTitle(input.title) };
   await m.insert(
     Notification,
     unique.map((recipientId) => ({ ...notice, recipientId })),

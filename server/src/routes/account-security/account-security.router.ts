@@ -1,6 +1,7 @@
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import type { RequestHandler } from 'express';
 import {
+  NothingSchema,
   PasswordResetConfirmSchema,
   PasswordResetRequestSchema,
   TwoStepDisableSchema,
@@ -52,6 +53,8 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/password-reset',
       summary: 'Ask for a password reset link by e-mail (the same 202 whether or not the account exists)',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: resetRequestLimits(deps),
       body: PasswordResetRequestSchema,
       status: 202,
@@ -69,6 +72,8 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/password-reset/confirm',
       summary: 'Choose a new password with a reset link; ends the person’s other sessions',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: signInLimits(deps),
       body: PasswordResetConfirmSchema,
       command: resetPassword,
@@ -82,6 +87,9 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/account/two-step',
       summary: 'Whether two-step sign-in is on for my account',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       async handler({ user }) {
         return twoStepStatus(deps, user!.id);
       },
@@ -91,6 +99,9 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/account/two-step/setup',
       summary: 'Start setting up two-step sign-in: a new authenticator secret, not in force until confirmed',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       command: startTwoStepSetup,
       async handler({ run }) {
         return run(startTwoStepSetup, undefined);
@@ -101,6 +112,8 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/account/two-step/enable',
       summary: 'Turn two-step sign-in on with a current code; answers the recovery codes, once',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
       body: TwoStepEnableSchema,
       command: enableTwoStep,
       async handler({ body, run }) {
@@ -112,6 +125,8 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/account/two-step/disable',
       summary: 'Turn two-step sign-in off: needs the password and a current code (or a recovery code)',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: limits,
       body: TwoStepDisableSchema,
       command: disableTwoStep,
@@ -125,6 +140,8 @@ export function accountSecurityRoutes(deps: Deps): RouteDef[] {
       path: '/account/two-step/recovery-codes',
       summary: 'Replace the recovery codes (password and a current code needed); answers the new ones, once',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: limits,
       body: TwoStepDisableSchema,
       command: replaceRecoveryCodes,

@@ -1,4 +1,4 @@
-import { AthleteProfileUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { AthleteProfileUpdateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { updateAthleteProfile } from '../../commands/people';
 import { getAthlete, listAthletes } from '../../queries/athletes';
@@ -10,6 +10,8 @@ export const athleteRoutes: RouteDef[] = [
     summary: 'Athletes I may see: admins all, staff their care teams, guardians their own, athletes themselves',
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read }) {
       return read(listAthletes, undefined);
     },
@@ -20,6 +22,8 @@ export const athleteRoutes: RouteDef[] = [
     summary: "An athlete's profile, care team and guardians",
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read, params }) {
       return read(getAthlete, { id: params.id });
     },
@@ -30,6 +34,7 @@ export const athleteRoutes: RouteDef[] = [
     summary: "Change an athlete's date of birth, sport or position",
     access: { kind: 'org', action: 'update', subject: 'Athlete' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
     body: AthleteProfileUpdateSchema,
     command: updateAthleteProfile,
     async handler({ params, body, run }) {

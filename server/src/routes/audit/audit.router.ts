@@ -1,5 +1,5 @@
 import { stringify } from 'csv-stringify/sync';
-import { AuditQuerySchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { AuditQuerySchema, NothingSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgToday } from '../../../../policies/today';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { exportAudit } from '../../commands/audit';
@@ -12,6 +12,7 @@ export const auditRoutes: RouteDef[] = [
     summary: 'Browse the audit trail, newest first (admins: all; clinicians: their athletes)',
     access: { kind: 'org', action: 'read', subject: 'AuditEntry' },
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: AuditQuerySchema,
     async handler({ read, query }) {
       return read(listAuditEntries, query);
@@ -23,6 +24,7 @@ export const auditRoutes: RouteDef[] = [
     summary: 'The filtered audit trail as a CSV file (up to 50,000 entries)',
     access: { kind: 'org', action: 'read', subject: 'AuditEntry' },
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: AuditQuerySchema,
     command: exportAudit,
     async handler({ run, query, res, actor }) {
@@ -71,6 +73,8 @@ export const auditRoutes: RouteDef[] = [
     summary: "Check the organization's audit chain end to end (admins)",
     access: { kind: 'org', action: 'read', subject: 'AuditChain' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read }) {
       return read(verifyAuditChain, undefined);
     },

@@ -1,4 +1,4 @@
-import { CareTeamAssignmentCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { CareTeamAssignmentCreateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { assignCareTeam, unassignCareTeam } from '../../commands/athlete-links';
 
@@ -10,6 +10,7 @@ export const careTeamRoutes: RouteDef[] = [
     summary: "Put a coach or clinician on an athlete's care team",
     access: { kind: 'org', action: 'create', subject: 'CareTeamAssignment' },
     params: OrgParamsSchema,
+    query: NothingSchema,
     body: CareTeamAssignmentCreateSchema,
     status: 201,
     command: assignCareTeam,
@@ -23,6 +24,8 @@ export const careTeamRoutes: RouteDef[] = [
     summary: 'Take a coach or clinician off a care team (their access ends at once)',
     access: { kind: 'org', action: 'delete', subject: 'CareTeamAssignment' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: unassignCareTeam,
     async handler({ params, run }) {
       await run(unassignCareTeam, { id: params.id });

@@ -1,4 +1,4 @@
-import { FlagListQuerySchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { FlagListQuerySchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { acknowledgeFlag } from '../../commands/flags';
 import { flagsQuery } from '../../queries/flags';
@@ -10,6 +10,7 @@ export const flagRoutes: RouteDef[] = [
     summary: 'Red-flag reports, pain reports and pain-rule flags of my athletes, newest first',
     access: { kind: 'org', action: 'read', subject: 'Flag' },
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: FlagListQuerySchema,
     handler: ({ read, query }) => read(flagsQuery, query),
   }),
@@ -18,6 +19,8 @@ export const flagRoutes: RouteDef[] = [
     path: '/orgs/:orgId/flags/:id/acknowledge',
     summary: 'Acknowledge a flag: I have seen it and am acting on it',
     access: { kind: 'org', action: 'update', subject: 'Flag' },
+    query: NothingSchema,
+    body: NothingSchema,
     command: acknowledgeFlag,
     params: OrgItemParamsSchema,
     handler: ({ run, params }) => run(acknowledgeFlag, { flagId: params.id }),

@@ -1,4 +1,4 @@
-import { GuardianLinkCreateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { GuardianLinkCreateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { linkGuardian, unlinkGuardian } from '../../commands/athlete-links';
 
@@ -10,6 +10,7 @@ export const guardianLinkRoutes: RouteDef[] = [
     summary: 'Link a guardian to an athlete',
     access: { kind: 'org', action: 'create', subject: 'GuardianLink' },
     params: OrgParamsSchema,
+    query: NothingSchema,
     body: GuardianLinkCreateSchema,
     status: 201,
     command: linkGuardian,
@@ -23,6 +24,8 @@ export const guardianLinkRoutes: RouteDef[] = [
     summary: 'Unlink a guardian from an athlete',
     access: { kind: 'org', action: 'delete', subject: 'GuardianLink' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: unlinkGuardian,
     async handler({ params, run }) {
       await run(unlinkGuardian, { id: params.id });

@@ -1,3 +1,4 @@
+import { NothingSchema } from '../../../../policies/schemas';
 import { publicRoute, type RouteDef } from '../../http/route';
 import { health } from '../../queries/health';
 
@@ -7,6 +8,9 @@ export const healthRoutes: RouteDef[] = [
     path: '/health',
     summary: 'Is the app up, and can it reach its database?',
     access: { kind: 'public' },
+    params: NothingSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ deps, res }) {
       const body = await health(deps);
       res.status(body.database === 'up' ? 200 : 503).json(body);

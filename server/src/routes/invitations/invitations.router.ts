@@ -2,6 +2,7 @@ import {
   InvitationAcceptSchema,
   InvitationCreateSchema,
   InvitationTokenSchema,
+  NothingSchema,
   OrgItemParamsSchema,
   OrgParamsSchema,
 } from '../../../../policies/schemas';
@@ -20,6 +21,8 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       path: '/invitations/preview',
       summary: 'What an invitation link is for (the token travels in the body, never the URL)',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       writesNothing: 'a POST only so the token travels in the body, never in a URL',
       before: signInLimits(deps),
       body: InvitationTokenSchema,
@@ -32,6 +35,8 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       path: '/invitations/accept',
       summary: 'Accept an invitation: create or join with an account, then sign in',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: signInLimits(deps),
       body: InvitationAcceptSchema,
       command: acceptInvitation,
@@ -53,6 +58,8 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       summary: 'Invitations of the organization',
       access: { kind: 'org', action: 'read', subject: 'Invitation' },
       params: OrgParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       async handler({ read }) {
         return read(listInvitations, undefined);
       },
@@ -63,6 +70,7 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       summary: 'Invite a person by e-mail to one or more roles',
       access: { kind: 'org', action: 'create', subject: 'Invitation' },
       params: OrgParamsSchema,
+      query: NothingSchema,
       body: InvitationCreateSchema,
       status: 201,
       command: createInvitation,
@@ -76,6 +84,8 @@ export function invitationRoutes(deps: Deps): RouteDef[] {
       summary: 'Withdraw a pending invitation',
       access: { kind: 'org', action: 'delete', subject: 'Invitation' },
       params: OrgItemParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       command: revokeInvitation,
       async handler({ params, run }) {
         await run(revokeInvitation, { id: params.id });

@@ -4,6 +4,7 @@ import {
   LetterCreateSchema,
   LetterSignSchema,
   LetterUpdateSchema,
+  NothingSchema,
   OrgItemParamsSchema,
   OrgParamsSchema,
   UuidSchema,
@@ -35,6 +36,7 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'Clearance letters I may see (delivery status for clinicians and admins)',
       access: { kind: 'org', action: 'read', subject: 'Letter' },
       params: OrgParamsSchema,
+      body: NothingSchema,
       query: z.strictObject({ athleteId: UuidSchema.optional() }),
       handler: ({ read, query }) => read(letters, query),
     }),
@@ -44,6 +46,7 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'Draft a clearance letter (limits in force are filled in for a limited decision)',
       access: { kind: 'org', action: 'create', subject: 'Letter' },
       params: OrgParamsSchema,
+      query: NothingSchema,
       body: LetterCreateSchema,
       command: draftLetter,
       status: 201,
@@ -55,6 +58,7 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'Edit a draft letter (a signed letter is frozen)',
       access: { kind: 'org', action: 'update', subject: 'Letter' },
       params: OrgItemParamsSchema,
+      query: NothingSchema,
       body: LetterUpdateSchema,
       command: editLetter,
       handler: ({ run, params, body }) => run(editLetter, { id: params.id, ...body }),
@@ -65,6 +69,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'The draft as a PDF, marked DRAFT (no code)',
       access: { kind: 'org', action: 'update', subject: 'Letter' },
       params: OrgItemParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       async handler({ read, params, res }) {
         const { pdf, filename } = await read(letterPreview, { id: params.id });
         sendPdf(res, pdf, filename);
@@ -77,6 +83,7 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'Sign: freeze the letter, make its PDF and code, supersede the previous letter, and send it',
       access: { kind: 'org', action: 'update', subject: 'Letter' },
       params: OrgItemParamsSchema,
+      query: NothingSchema,
       body: LetterSignSchema,
       command: signLetter,
       handler: ({ run, params, body }) => run(signLetter, { id: params.id, ...body }),
@@ -87,6 +94,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'Download a signed letter (attachment, never cached; the download is audited)',
       access: { kind: 'org', action: 'read', subject: 'Letter' },
       params: OrgItemParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       command: downloadLetter,
       async handler({ run, params, res }) {
         const { pdf, filename } = await run(downloadLetter, { id: params.id });
@@ -100,6 +109,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: 'A guardian acknowledges a letter (time-stamped and audited)',
       access: { kind: 'org', action: 'create', subject: 'LetterAcknowledgement' },
       params: OrgItemParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       command: acknowledgeLetter,
       handler: ({ run, params }) => run(acknowledgeLetter, { id: params.id }),
     }),
@@ -108,6 +119,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       path: '/check',
       summary: 'Public letter check: valid, scheduled, expired, superseded or unknown, with dates and decision only (rate-limited)',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: [checkLimit],
       body: CheckCodeSchema,
       writesNothing: 'a POST only so the code travels in the body, never in a URL',
@@ -119,6 +132,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: "The local fake mail server's messages (admins; only while the fake is in use)",
       access: { kind: 'org', action: 'read', subject: 'Outbox' },
       params: OrgParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       handler: ({ read }) => read(outboxMessages, undefined),
     }),
     orgRoute({
@@ -127,6 +142,8 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       summary: "The organization's outgoing e-mail and its delivery state (queued, sending, sent, failed with the reason)",
       access: { kind: 'org', action: 'read', subject: 'Outbox' },
       params: OrgParamsSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       handler: ({ read }) => read(deliveries, undefined),
     }),
   ];

@@ -1,4 +1,4 @@
-import { OrganizationSettingsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { NothingSchema, OrganizationSettingsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { updateOrganizationSettings } from '../../commands/organizations';
 import { getOrganization, getOrganizationSettings } from '../../queries/organizations';
@@ -10,6 +10,8 @@ export const organizationRoutes: RouteDef[] = [
     summary: 'The organization: name, local emergency number and time zone',
     access: { kind: 'org', action: 'read', subject: 'Organization' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read }) {
       return read(getOrganization, undefined);
     },
@@ -20,6 +22,8 @@ export const organizationRoutes: RouteDef[] = [
     summary: "The organization's settings, with the version an edit must name (admins)",
     access: { kind: 'org', action: 'update', subject: 'Organization' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read }) {
       return read(getOrganizationSettings, undefined);
     },
@@ -30,6 +34,7 @@ export const organizationRoutes: RouteDef[] = [
     summary: 'Change name, emergency number, time zone or whether guardians may watch clips (admins; 409 on a stale version)',
     access: { kind: 'org', action: 'update', subject: 'Organization' },
     params: OrgParamsSchema,
+    query: NothingSchema,
     body: OrganizationSettingsSchema,
     command: updateOrganizationSettings,
     async handler({ body, run }) {

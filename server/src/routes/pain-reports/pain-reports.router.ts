@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
+import { NothingSchema, OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { reportPain } from '../../commands/pain-reports';
 import { viewPainReports } from '../../commands/pain-report-reads';
@@ -10,6 +10,7 @@ export const painReportRoutes: RouteDef[] = [
     path: '/orgs/:orgId/pain-reports',
     summary: 'Report pain with the red-flag screen; emergencies set Out and alert the care team at once',
     access: { kind: 'org', action: 'create', subject: 'PainReport' },
+    query: NothingSchema,
     command: reportPain,
     params: OrgParamsSchema,
     body: PainReportCreateSchema,
@@ -23,6 +24,7 @@ export const painReportRoutes: RouteDef[] = [
     access: { kind: 'org', action: 'read', subject: 'PainReport' },
     command: viewPainReports,
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
     handler: ({ run, query }) => run(viewPainReports, { athleteId: query.athleteId }),
   }),

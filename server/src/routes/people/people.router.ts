@@ -1,4 +1,4 @@
-import { MembershipUpdateSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { MembershipUpdateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { changeRoles, removeMember } from '../../commands/people';
 import { getPerson, listPeople } from '../../queries/people';
@@ -10,6 +10,8 @@ export const peopleRoutes: RouteDef[] = [
     summary: 'People of the organization and their roles',
     access: { kind: 'org', action: 'read', subject: 'Membership' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read }) {
       return read(listPeople, undefined);
     },
@@ -20,6 +22,8 @@ export const peopleRoutes: RouteDef[] = [
     summary: 'One person',
     access: { kind: 'org', action: 'read', subject: 'Membership' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read, params }) {
       return read(getPerson, { id: params.id });
     },
@@ -30,6 +34,7 @@ export const peopleRoutes: RouteDef[] = [
     summary: "Change a person's roles",
     access: { kind: 'org', action: 'update', subject: 'Membership' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
     body: MembershipUpdateSchema,
     command: changeRoles,
     async handler({ req, params, body, run }) {
@@ -43,6 +48,8 @@ export const peopleRoutes: RouteDef[] = [
     summary: 'Remove a person from the organization (their records stay)',
     access: { kind: 'org', action: 'delete', subject: 'Membership' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: removeMember,
     async handler({ params, run }) {
       await run(removeMember, { id: params.id });

@@ -1,6 +1,7 @@
 import {
   CaseItemParamsSchema,
   InForceQuerySchema,
+  NothingSchema,
   OrgItemParamsSchema,
   PlanCreateSchema,
   PlanUpdateSchema,
@@ -16,6 +17,7 @@ export const planRoutes: RouteDef[] = [
     path: '/orgs/:orgId/cases/:id/plan',
     summary: 'Write the restriction plan of a case (version 1)',
     access: { kind: 'org', action: 'create', subject: 'RestrictionPlan' },
+    query: NothingSchema,
     command: createPlan,
     params: CaseItemParamsSchema,
     body: PlanCreateSchema,
@@ -28,6 +30,8 @@ export const planRoutes: RouteDef[] = [
     summary: 'A restriction plan as it stands now',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     handler: ({ read, params }) => read(planQuery, { planId: params.id }),
   }),
   orgRoute({
@@ -35,6 +39,7 @@ export const planRoutes: RouteDef[] = [
     path: '/orgs/:orgId/plans/:id',
     summary: 'Save a new version of a plan (409 if someone saved since you opened it)',
     access: { kind: 'org', action: 'update', subject: 'RestrictionPlan' },
+    query: NothingSchema,
     command: revisePlan,
     params: OrgItemParamsSchema,
     body: PlanUpdateSchema,
@@ -46,6 +51,8 @@ export const planRoutes: RouteDef[] = [
     summary: 'Every saved version of a plan, newest first, with who saved it (care team only)',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     handler: ({ read, params }) => read(planHistoryQuery, { planId: params.id }),
   }),
   orgRoute({
@@ -54,6 +61,8 @@ export const planRoutes: RouteDef[] = [
     summary: 'One earlier version of a plan',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
     params: PlanVersionParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read, params }) {
       const [v] = await read(planHistoryQuery, { planId: params.id, version: params.version });
       return v;
@@ -65,6 +74,7 @@ export const planRoutes: RouteDef[] = [
     summary: 'What is in force for an athlete on a date (default today): status, stage and caps per pattern',
     access: { kind: 'org', action: 'read', subject: 'RestrictionPlan' },
     params: OrgItemParamsSchema,
+    body: NothingSchema,
     query: InForceQuerySchema,
     handler: ({ read, params, query }) => read(inForceQuery, { athleteId: params.id, date: query.date }),
   }),

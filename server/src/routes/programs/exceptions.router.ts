@@ -2,6 +2,7 @@ import { z } from 'zod';
 import {
   ExceptionCreateSchema,
   ExceptionDecisionSchema,
+  NothingSchema,
   OrgParamsSchema,
   ProgramItemParamsSchema,
   UuidSchema,
@@ -16,6 +17,7 @@ export const exceptionRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id/exceptions',
     summary: 'Ask the clinician for an exception on specific sets of a session for one athlete',
     access: { kind: 'org', action: 'create', subject: 'ProgramException' },
+    query: NothingSchema,
     command: requestException,
     params: ProgramItemParamsSchema,
     body: ExceptionCreateSchema,
@@ -30,6 +32,7 @@ export const exceptionRoutes: RouteDef[] = [
     summary: 'Exception requests of my athletes',
     access: { kind: 'org', action: 'read', subject: 'ProgramException' },
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: z.strictObject({
       athleteId: UuidSchema.optional(),
       state: z.enum(['pending', 'all'], { message: 'must be pending or all' }).default('all'),
@@ -43,6 +46,7 @@ export const exceptionRoutes: RouteDef[] = [
     path: '/orgs/:orgId/exceptions/:id/decide',
     summary: 'Grant (optionally for fewer sets) or refuse an exception, with a note — clinicians on the care team only',
     access: { kind: 'org', action: 'update', subject: 'ProgramException' },
+    query: NothingSchema,
     command: decideException,
     params: ProgramItemParamsSchema,
     body: ExceptionDecisionSchema,

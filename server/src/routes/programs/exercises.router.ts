@@ -2,6 +2,7 @@ import {
   BaselineCreateSchema,
   ExerciseCreateSchema,
   ExerciseUpdateSchema,
+  NothingSchema,
   OrgItemParamsSchema,
   OrgParamsSchema,
 } from '../../../../policies/schemas';
@@ -17,6 +18,8 @@ export const exerciseRoutes: RouteDef[] = [
     summary: "The organization's exercise library",
     access: { kind: 'org', action: 'read', subject: 'Exercise' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read }) {
       return read(listExercises, undefined);
     },
@@ -26,6 +29,7 @@ export const exerciseRoutes: RouteDef[] = [
     path: '/orgs/:orgId/exercises',
     summary: 'Add an exercise to the library',
     access: { kind: 'org', action: 'create', subject: 'Exercise' },
+    query: NothingSchema,
     command: createExercise,
     params: OrgParamsSchema,
     body: ExerciseCreateSchema,
@@ -40,6 +44,7 @@ export const exerciseRoutes: RouteDef[] = [
     summary:
       'Edit, archive or restore a library exercise; a change of its patterns, impact flag or reference lift re-checks the sessions using it',
     access: { kind: 'org', action: 'update', subject: 'Exercise' },
+    query: NothingSchema,
     command: editExercise,
     params: OrgItemParamsSchema,
     body: ExerciseUpdateSchema,
@@ -53,6 +58,8 @@ export const exerciseRoutes: RouteDef[] = [
     summary: "An athlete's strength history: tested maxes, estimates and logged sets",
     access: { kind: 'org', action: 'read', subject: 'Baseline' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read, params }) {
       return read(listBaselines, { athleteId: params.id });
     },
@@ -62,6 +69,7 @@ export const exerciseRoutes: RouteDef[] = [
     path: '/orgs/:orgId/athletes/:id/baselines',
     summary: 'Record a tested 1RM or a set to estimate it from (Epley; RIR-adjusted when an RPE is given)',
     access: { kind: 'org', action: 'create', subject: 'Baseline' },
+    query: NothingSchema,
     command: recordBaseline,
     params: OrgItemParamsSchema,
     body: BaselineCreateSchema,

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import {
   CopyWeekSchema,
+  NothingSchema,
   OrgParamsSchema,
   ProgramCreateSchema,
   ProgramItemParamsSchema,
@@ -32,6 +33,7 @@ export const programRoutes: RouteDef[] = [
     summary: 'Programs I may see (athletes: those they are part of, published sessions only)',
     access: { kind: 'org', action: 'read', subject: 'Program' },
     params: OrgParamsSchema,
+    body: NothingSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
     async handler({ read, query }) {
       return read(listPrograms, query);
@@ -42,6 +44,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs',
     summary: 'Start a program for one athlete or a group',
     access: { kind: 'org', action: 'create', subject: 'Program' },
+    query: NothingSchema,
     command: createProgram,
     params: OrgParamsSchema,
     body: ProgramCreateSchema,
@@ -56,6 +59,8 @@ export const programRoutes: RouteDef[] = [
     summary: 'A program with its sessions',
     access: { kind: 'org', action: 'read', subject: 'Program' },
     params: ProgramItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read, params }) {
       return read(getProgram, { id: params.id });
     },
@@ -65,6 +70,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs/:id',
     summary: 'Rename a program or change its athletes',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: updateProgram,
     params: ProgramItemParamsSchema,
     body: ProgramUpdateSchema,
@@ -77,6 +83,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs/:id/sessions',
     summary: 'Add a dated session (a draft) to a program',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: addSession,
     params: ProgramItemParamsSchema,
     body: SessionCreateSchema,
@@ -90,6 +97,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id',
     summary: 'Edit a session; an edit of a published session is checked again and refused if it breaches',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: editSession,
     params: ProgramItemParamsSchema,
     body: SessionUpdateSchema,
@@ -102,6 +110,8 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id',
     summary: 'Delete a session',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
+    body: NothingSchema,
     command: deleteSession,
     params: ProgramItemParamsSchema,
     async handler({ run, params }) {
@@ -114,6 +124,8 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id/check',
     summary: "Check a session against each athlete's plan without publishing",
     access: { kind: 'org', action: 'read', subject: 'Program' },
+    query: NothingSchema,
+    body: NothingSchema,
     writesNothing: 'a dry run of the publish check',
     params: ProgramItemParamsSchema,
     async handler({ read, user, params }) {
@@ -125,6 +137,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id/publish',
     summary: 'Publish a session: refused (422) with the breach list if any set goes past a cap',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: publishSession,
     params: ProgramItemParamsSchema,
     body: z.strictObject({ version: VersionSchema }),
@@ -137,6 +150,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/sessions/:id/unpublish',
     summary: 'Take a session back to draft',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: unpublishSession,
     params: ProgramItemParamsSchema,
     body: z.strictObject({ version: VersionSchema }),
@@ -149,6 +163,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs/:id/copy-week',
     summary: 'Copy the sessions of one week to another week, as drafts',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: copyWeek,
     params: ProgramItemParamsSchema,
     body: CopyWeekSchema,
@@ -161,6 +176,7 @@ export const programRoutes: RouteDef[] = [
     path: '/orgs/:orgId/programs/:id/shift',
     summary: 'Move every draft session from a date on by a number of days',
     access: { kind: 'org', action: 'update', subject: 'Program' },
+    query: NothingSchema,
     command: shiftDrafts,
     params: ProgramItemParamsSchema,
     body: ShiftDatesSchema,

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
+import { IsoDateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { athleteDay, roster } from '../../queries/roster';
 
@@ -10,6 +10,8 @@ export const rosterRoutes: RouteDef[] = [
     summary: "The coach's roster: status, limits in force today, sessions on hold, pending exceptions, next session",
     access: { kind: 'org', action: 'read', subject: 'Athlete' },
     params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     async handler({ read, user }) {
       return read(roster, { unit: user.unitPref });
     },
@@ -20,7 +22,8 @@ export const rosterRoutes: RouteDef[] = [
     summary: "An athlete's published sessions for a day, with loads worked out and on-hold sessions marked",
     access: { kind: 'org', action: 'read', subject: 'Program' },
     params: OrgItemParamsSchema,
-    query: z.strictObject({ date: z.iso.date({ message: 'must be a date (YYYY-MM-DD)' }).optional() }),
+    body: NothingSchema,
+    query: z.strictObject({ date: IsoDateSchema.optional() }),
     async handler({ read, user, params, query }) {
       return read(athleteDay, { athleteId: params.id, date: query.date, unit: user.unitPref });
     },

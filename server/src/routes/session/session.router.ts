@@ -1,4 +1,4 @@
-import { SignInSchema, ProfileUpdateSchema, SecondStepSchema } from '../../../../policies/schemas';
+import { NothingSchema, ProfileUpdateSchema, SecondStepSchema, SignInSchema } from '../../../../policies/schemas';
 import { publicRoute, type RouteDef } from '../../http/route';
 import type { Deps } from '../../http/context';
 import { AppError } from '../../core/errors';
@@ -20,6 +20,9 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/session',
       summary: 'Who am I, my organizations and roles, and the CSRF token for writes',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       async handler({ req }) {
         return sessionWithStep(deps, req);
       },
@@ -29,6 +32,8 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/session',
       summary: 'Sign in with e-mail and password (with two-step sign-in on: only as far as the second step)',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: limits,
       body: SignInSchema,
       command: signIn,
@@ -48,6 +53,8 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/session/second-step',
       summary: 'Finish signing in with a code from the authenticator app or a recovery code',
       access: { kind: 'public' },
+      params: NothingSchema,
+      query: NothingSchema,
       before: limits,
       body: SecondStepSchema,
       command: finishSignIn,
@@ -66,6 +73,9 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/session',
       summary: 'Sign out: the session row is deleted',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
+      body: NothingSchema,
       command: signOut,
       async handler({ req, res, run }) {
         await run(signOut, undefined);
@@ -78,6 +88,8 @@ export function sessionRoutes(deps: Deps): RouteDef[] {
       path: '/me',
       summary: 'Change my display name or unit preference',
       access: { kind: 'signedIn' },
+      params: NothingSchema,
+      query: NothingSchema,
       body: ProfileUpdateSchema,
       command: updateProfile,
       async handler({ body, run }) {

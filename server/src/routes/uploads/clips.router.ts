@@ -1,6 +1,13 @@
 import rangeParser from 'range-parser';
 import { z } from 'zod';
-import { ClipFieldsSchema, ClipListQuerySchema, ClipNoteCreateSchema, OrgItemParamsSchema, UuidSchema } from '../../../../policies/schemas';
+import {
+  ClipFieldsSchema,
+  ClipListQuerySchema,
+  ClipNoteCreateSchema,
+  NothingSchema,
+  OrgItemParamsSchema,
+  UuidSchema,
+} from '../../../../policies/schemas';
 import { addClipNote, deleteUpload, recordUpload, recordUploadRead, removeClipNote } from '../../commands/uploads';
 import { AppError } from '../../core/errors';
 import { streamStored } from '../../http/downloads';
@@ -19,6 +26,7 @@ export const clipRoutes: RouteDef[] = [
     summary: 'Technique clips I may watch, newest first (guardians only when the organization allows it)',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
     params: z.strictObject({ orgId: UuidSchema }),
+    body: NothingSchema,
     query: ClipListQuerySchema,
     handler: ({ read, query }) => read(clips, query),
   }),
@@ -27,6 +35,9 @@ export const clipRoutes: RouteDef[] = [
     path: '/orgs/:orgId/clips',
     summary: 'Upload a technique clip (WebM, MP4 or MOV; type checked from its bytes) of a logged session',
     access: { kind: 'org', action: 'create', subject: 'Clip' },
+    query: NothingSchema,
+    body: NothingSchema,
+    multipart: true,
     params: z.strictObject({ orgId: UuidSchema }),
     command: recordUpload,
     status: 201,
@@ -46,6 +57,8 @@ export const clipRoutes: RouteDef[] = [
     summary: 'One clip with its notes, in time order',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     handler: ({ read, params }) => read(clipWithNotes, { id: params.id }),
   }),
   orgRoute({
@@ -54,6 +67,8 @@ export const clipRoutes: RouteDef[] = [
     summary: 'The video, with HTTP range requests so the player can seek',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: recordUploadRead,
     async handler({ deps, read, run, params, req, res }) {
       const clip = await read(uploadFile, { kind: 'clip', id: params.id });
@@ -95,6 +110,8 @@ export const clipRoutes: RouteDef[] = [
     summary: 'Remove a clip and its notes (its uploader or the athlete)',
     access: { kind: 'org', action: 'read', subject: 'Clip' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: deleteUpload,
     async handler({ deps, run, params }) {
       const { storageKey } = await run(deleteUpload, { kind: 'clip', id: params.id });
@@ -108,6 +125,7 @@ export const clipRoutes: RouteDef[] = [
     summary: 'Pin a note to a time in a clip (a coach or clinician on the care team); the athlete is told in the app',
     access: { kind: 'org', action: 'create', subject: 'ClipNote' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
     body: ClipNoteCreateSchema,
     command: addClipNote,
     status: 201,
@@ -119,6 +137,8 @@ export const clipRoutes: RouteDef[] = [
     summary: "Remove a note from a clip (the note's author)",
     access: { kind: 'org', action: 'read', subject: 'ClipNote' },
     params: NoteParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: removeClipNote,
     async handler({ run, params }) {
       await run(removeClipNote, { clipId: params.id, noteId: params.noteId });

@@ -252,6 +252,21 @@ describe('technique clips', () => {
     expect(Object.keys(badNote.body.error.fields).sort()).toEqual(['atMs', 'body']);
   });
 
+  it('a note on a clip with a long exercise name by a coach with a long name is kept; its notice title is cut to fit (200)', async () => {
+    const w = await world();
+    const exercise = 'Single-leg Romanian deadlift with contralateral load '.repeat(4).trim().slice(0, 200);
+    const clip = await uploadClip(await w.as('athlete'), w);
+    expect(clip.status, clip.text).toBe(201);
+    // As long as the column allows (the exercise comes from the logged session, which this fixture keeps short).
+    await h.ds.query(`UPDATE clips SET exercise = $1 WHERE id = $2`, [exercise, clip.body.id]);
+    await h.ds.query(`UPDATE users SET display_name = $1 WHERE email = $2`, ['Alexandra '.repeat(12).trim(), w.org.coach.email]);
+    const note = await (await w.as('coach')).post(`${w.base}/clips/${clip.body.id}/notes`, { atMs: 10, body: 'Hips level.' });
+    expect(note.status, note.text).toBe(201);
+    const [notice] = await h.ds.getRepository(Notification).find({ where: { recipientId: w.org.athlete.membershipId, kind: 'clip_note' } });
+    expect(notice!.title.length).toBeLessThanOrEqual(200);
+    expect(notice!.title.endsWith('…')).toBe(true);
+  });
+
   it('delete: the athlete removes a clip with its notes and its file, audited; the coach only their own uploads', async () => {
     const w = await world();
     const clip = await uploadClip(await w.as('athlete'), w);

@@ -1,4 +1,4 @@
-import { CaseDocumentFieldsSchema, OrgItemParamsSchema } from '../../../../policies/schemas';
+import { CaseDocumentFieldsSchema, NothingSchema, OrgItemParamsSchema } from '../../../../policies/schemas';
 import { deleteUpload, recordUpload, recordUploadRead } from '../../commands/uploads';
 import { streamStored } from '../../http/downloads';
 import { orgRoute, type RouteDef } from '../../http/route';
@@ -18,6 +18,8 @@ export const documentRoutes: RouteDef[] = [
     summary: "A case's outside documents (clinicians on the care team and the athlete only)",
     access: { kind: 'org', action: 'read', subject: 'Case' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     handler: ({ read, params }) => read(caseDocuments, { caseId: params.id }),
   }),
   orgRoute({
@@ -25,6 +27,9 @@ export const documentRoutes: RouteDef[] = [
     path: '/orgs/:orgId/cases/:id/documents',
     summary: 'Attach an outside document (PDF, JPEG, PNG or HEIC; type checked from its bytes) to a case',
     access: { kind: 'org', action: 'read', subject: 'Case' },
+    query: NothingSchema,
+    body: NothingSchema,
+    multipart: true,
     params: OrgItemParamsSchema,
     command: recordUpload,
     status: 201,
@@ -43,6 +48,8 @@ export const documentRoutes: RouteDef[] = [
     summary: 'Download an outside document (attachment, never cached); every download is audited',
     access: { kind: 'org', action: 'read', subject: 'Case' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: recordUploadRead,
     async handler({ deps, read, run, params, res }) {
       const d = await read(uploadFile, { kind: 'document', id: params.id });
@@ -63,6 +70,8 @@ export const documentRoutes: RouteDef[] = [
     summary: 'Remove an outside document (its uploader, or a clinician on the care team)',
     access: { kind: 'org', action: 'read', subject: 'Case' },
     params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
     command: deleteUpload,
     async handler({ deps, run, params }) {
       const { storageKey } = await run(deleteUpload, { kind: 'document', id: params.id });
