@@ -20,7 +20,9 @@ import { ROOT, buildClient, migrate, openDatabase } from './runtime';
 import { startFakeSmtp } from '../server/src/mail/fake-smtp';
 
 const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-const args = new Set(process.argv.slice(2));
+// Spec files named after the stage (`scripts/test.ts e2e e2e/coach.spec.ts`) narrow the browser tests.
+const specs = process.argv.slice(2).filter((a) => a.endsWith('.spec.ts'));
+const args = new Set(process.argv.slice(2).filter((a) => !a.endsWith('.spec.ts')));
 const only = (stage: string) => args.size === 0 || args.has(stage);
 
 function stage(name: string) {
@@ -108,7 +110,7 @@ try {
     const server = await startServer(config, createLogger(config.LOG_LEVEL));
     try {
       // The database URL lets a browser test read the fake mailbox (e.g. a password reset link).
-      const code = await run('npx', ['playwright', 'test'], {
+      const code = await run('npx', ['playwright', 'test', ...specs], {
         E2E_BASE_URL: server.url,
         CHROMIUM_PATH: CHROMIUM,
         E2E_DATABASE_URL: db.url,
