@@ -1,9 +1,10 @@
 import { randomUUID } from 'node:crypto';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import request from 'supertest';
+import pino from 'pino';
 import { Client, signedIn, useHarness } from '../test/harness';
 import { createOrg, TEST_PASSWORD } from '../test/factories';
-import { flushRefusals } from '../services/refusals';
+import { auditRefusal, flushRefusals } from '../services/refusals';
 import { verifyChain } from '../services/audit';
 
 interface Row {
@@ -36,6 +37,51 @@ describe('refusals are audited, summarised per actor, route and minute (ASVS 5.0
       `SELECT organization_id, actor_user_id, action, subject_type, subject_id, request_id, after FROM audit_entries WHERE ${where} ORDER BY id`,
       params,
     );
+
+  it('a flood of refusals is written one at a time and coalesced: it never takes the pool the requests need', async () => {
+    const org = await createOrg(h.ds);
+    const original = h.ds.transaction.bind(h.ds);
+    let active = 0;
+    let most = 0;
+    const spy = vi.spyOn(h.ds, 'transaction').mockImplementation((async (...args: unknown[]) => {
+      most = Math.max(most, ++active);
+      try {
+        return await (original as (...a: unknown[]) => Promise<unknown>)(...args);
+      } finally {
+        active -= 1;
+      }
+    }) as typeof h.ds.transaction);
+    try {
+      const route = `/api/flood/${randomUUID()}`;
+      for (let i = 0; i < 500; i++) {
+        auditRefusal(
+          { ds: h.ds, logger: pino({ level: 'silent' }) },
+          {
+            organizationIds: [org.id],
+            actorUserId: org.coach.userId,
+            address: null,
+            action: 'access.refused',
+            method: 'GET',
+            route,
+            path: route,
+            requestId: null,
+          },
+        );
+      }
+      const counted = await until(async () => {
+        const [c]: { hits: number }[] = await h.ds.query(`SELECT sum(hits)::int AS hits FROM refusal_counters WHERE route = $1`, [
+          `GET ${route}`,
+        ]);
+        return c?.hits === 500 ? c : undefined;
+      });
+      expect(counted.hits).toBe(500);
+      // Before: one transaction per refusal, all at once, each waiting on the same counter row.
+      expect(most).toBe(1);
+      expect(await entries(`organization_id = $1 AND after->>'route' = $2`, [org.id, route])).toHaveLength(1);
+    } finally {
+      spy.mockRestore();
+    }
+  });
 
   it('100 refusals in one minute by one member on one route give 2 entries: the first, then a summary with the count', async () => {
     const org = await createOrg(h.ds);

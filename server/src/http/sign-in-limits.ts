@@ -67,17 +67,22 @@ export function signInLimits(
       const { email } = accountKey(req, opts.accountOf);
       // Audited (summarised per address, route and minute) in the trail of each organization the
       // named account belongs to, else in the global trail (ASVS 5.0 V16.3.1).
-      auditRefusal(deps, async () => ({
-        organizationIds: email ? await organizationsOfEmail(deps.ds, email) : [],
-        actorUserId: null,
-        address: clientAddress(req),
-        action: 'auth.sign_in_limited',
-        method: req.method,
-        route: `/api${(req.route as { path?: string } | undefined)?.path ?? req.path}`,
-        path: req.originalUrl.split('?')[0],
-        requestId: String(req.id ?? ''),
-        details: { limit, ...(email ? { email } : {}) },
-      }));
+      const key = ['auth.sign_in_limited', clientAddress(req), email ?? '', req.method, req.path, limit].join('|');
+      auditRefusal(
+        deps,
+        async () => ({
+          organizationIds: email ? await organizationsOfEmail(deps.ds, email) : [],
+          actorUserId: null,
+          address: clientAddress(req),
+          action: 'auth.sign_in_limited',
+          method: req.method,
+          route: `/api${(req.route as { path?: string } | undefined)?.path ?? req.path}`,
+          path: req.originalUrl.split('?')[0],
+          requestId: String(req.id ?? ''),
+          details: { limit, ...(email ? { email } : {}) },
+        }),
+        key,
+      );
       next(limit === 'address' ? networkLimited(wait) : email ? accountLimited(wait) : linkLimited(wait));
     };
   const common = {

@@ -48,22 +48,26 @@ interface CounterRow {
 
 const minuteOf = (d: Date) => new Date(Math.floor(d.getTime() / 60_000) * 60_000);
 
-/** Records one refusal: the first of its minute as an entry, later ones as a count (see above). */
-export async function recordRefusal(ds: DataSource, r: Refusal, now = new Date()): Promise<void> {
+/**
+ * Records `hits` refusals of one kind: the first of its minute as an entry, later ones as a count
+ * (see above). Summaries of minutes that are over are written by `flushRefusals`.
+ */
+export async function recordRefusal(ds: DataSource, r: Refusal, now = new Date(), hits = 1): Promise<void> {
   const minute = minuteOf(now);
   const actorKey = r.actorUserId ? `user:${r.actorUserId}` : `address:${r.address ?? 'unknown'}`;
   const routeKey = `${r.method} ${r.route}`.slice(0, 300);
   const orgs = r.organizationIds.length ? [...new Set(r.organizationIds)] : [null];
   await ds.transaction(async (m) => {
     for (const organizationId of orgs) {
-      const [row]: { hits: number }[] = await m.query(
+      // xmax = 0 only on a row this statement inserted: the first refusal of its minute.
+      const [row]: { inserted: boolean }[] = await m.query(
         `INSERT INTO refusal_counters AS c (chain, actor_key, action, route, minute, hits, organization_id, actor_user_id, address)
-         VALUES ($1, $2, $3, $4, $5, 1, $6, $7, $8)
-         ON CONFLICT (chain, actor_key, action, route, minute) DO UPDATE SET hits = c.hits + 1
-         RETURNING hits`,
-        [organizationId ?? 'global', actorKey, r.action, routeKey, minute, organizationId, r.actorUserId, r.address],
+         VALUES ($1, $2, $3, $4, $5, $9, $6, $7, $8)
+         ON CONFLICT (chain, actor_key, action, route, minute) DO UPDATE SET hits = c.hits + EXCLUDED.hits
+         RETURNING (xmax = 0) AS inserted`,
+        [organizationId ?? 'global', actorKey, r.action, routeKey, minute, organizationId, r.actorUserId, r.address, hits],
       );
-      if (row.hits !== 1) continue;
+      if (!row.inserted) continue;
       await appendAudit(m, {
         organizationId,
         actorUserId: r.actorUserId,
@@ -80,7 +84,6 @@ export async function recordRefusal(ds: DataSource, r: Refusal, now = new Date()
       });
     }
   });
-  await flushRefusals(ds, now);
 }
 
 /** Turns the counters of minutes that are over into summary entries (one per counter with repeats). */
@@ -126,11 +129,34 @@ export async function organizationsOfEmail(ds: DataSource, email: string): Promi
 
 const timers = new WeakMap<DataSource, NodeJS.Timeout>();
 
+interface Pending {
+  make: () => Promise<Refusal>;
+  hits: number;
+  now: Date;
+}
+interface Queue {
+  items: Map<string, Pending>;
+  next: number;
+  running: boolean;
+  dropped: number;
+}
+const queues = new WeakMap<DataSource, Queue>();
+/** Refusals waiting to be written, per process: beyond this, new kinds are dropped (and counted in the log). */
+const MAX_PENDING = 5_000;
+
+/** What makes two refusals "the same" for counting: trail(s), actor or address, action, route, minute. */
+function refusalKey(r: Refusal, now: Date): string {
+  return [r.organizationIds.join(','), r.actorUserId ?? r.address, r.action, r.method, r.route, minuteOf(now).getTime()].join('|');
+}
+
 /**
  * Records a refusal without holding up the response; a failure is logged, never thrown (the request
- * itself changed nothing). Starts this process's summary timer on first use.
+ * itself changed nothing). Refusals are written one at a time by this process, and a refusal like one
+ * already waiting only raises its count: a flood of refusals takes one database connection, never the
+ * pool the requests need. `key` groups refusals whose details are looked up later (a function).
+ * Starts this process's summary timer on first use.
  */
-export function auditRefusal(deps: { ds: DataSource; logger: Logger }, r: Refusal | (() => Promise<Refusal>)): void {
+export function auditRefusal(deps: { ds: DataSource; logger: Logger }, r: Refusal | (() => Promise<Refusal>), key?: string): void {
   const { ds, logger } = deps;
   if (!timers.has(ds)) {
     const timer = setInterval(() => {
@@ -140,7 +166,36 @@ export function auditRefusal(deps: { ds: DataSource; logger: Logger }, r: Refusa
     timer.unref();
     timers.set(ds, timer);
   }
-  Promise.resolve(typeof r === 'function' ? r() : r)
-    .then((refusal) => recordRefusal(ds, refusal))
-    .catch((err) => logger.error({ err, requestId: typeof r === 'function' ? null : r.requestId }, 'could not audit a refusal'));
+  let q = queues.get(ds);
+  if (!q) queues.set(ds, (q = { items: new Map(), next: 0, running: false, dropped: 0 }));
+  const now = new Date();
+  const k = typeof r === 'function' ? (key ? `${key}|${minuteOf(now).getTime()}` : `#${q.next++}`) : refusalKey(r, now);
+  const waiting = q.items.get(k);
+  if (waiting) waiting.hits += 1;
+  else if (q.items.size >= MAX_PENDING) q.dropped += 1;
+  else q.items.set(k, { make: typeof r === 'function' ? r : async () => r, hits: 1, now });
+  if (!q.running) void drain(ds, logger, q);
+}
+
+async function drain(ds: DataSource, logger: Logger, q: Queue): Promise<void> {
+  q.running = true;
+  try {
+    for (let first = q.items.entries().next(); !first.done; first = q.items.entries().next()) {
+      const [k, item] = first.value;
+      q.items.delete(k);
+      if (!ds.isInitialized) continue;
+      try {
+        await recordRefusal(ds, await item.make(), item.now, item.hits);
+      } catch (err) {
+        logger.error({ err }, 'could not audit a refusal');
+      }
+    }
+    if (q.dropped) {
+      logger.warn({ dropped: q.dropped }, 'refusals not audited: too many waiting');
+      q.dropped = 0;
+    }
+    if (ds.isInitialized) await flushRefusals(ds).catch((err) => logger.warn({ err }, 'could not summarise refusals'));
+  } finally {
+    q.running = false;
+  }
 }
