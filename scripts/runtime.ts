@@ -143,5 +143,14 @@ export function auditSealKey(): string {
 
 export async function buildClient(): Promise<void> {
   const { build } = await import('vite');
-  await build({ configFile: path.join(ROOT, 'client', 'vite.config.ts'), logLevel: 'warn' });
+  // Vite sets NODE_ENV=production in this process for the build; put it back, or the server started
+  // afterwards in the same process (browser tests) would take itself for production and refuse to
+  // start without PUBLIC_URL.
+  const nodeEnv = process.env.NODE_ENV;
+  try {
+    await build({ configFile: path.join(ROOT, 'client', 'vite.config.ts'), logLevel: 'warn' });
+  } finally {
+    if (nodeEnv === undefined) delete process.env.NODE_ENV;
+    else process.env.NODE_ENV = nodeEnv;
+  }
 }
