@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ceilingWarning, evaluatePain, isWeeklyRise, MODEL_PAIN_CEILING } from './pain-rule';
+import { ceilingWarning, evaluatePain, isWeeklyRise, MODEL_PAIN_CEILING, withoutJudged } from './pain-rule';
 import { DEFAULT_PAIN_CEILING } from './patterns';
 
 const kinds = (r: ReturnType<typeof evaluatePain>) => r.flags.map((f) => f.kind);
@@ -166,5 +166,16 @@ describe('the stage ceiling warning (Silbernagel et al. 2007, AJSM 35:897–906:
     expect(ceilingWarning(null)).toBeNull();
     expect(ceilingWarning(undefined)).toBeNull();
     expect(ceilingWarning(Number.NaN)).toBeNull();
+  });
+});
+
+describe('withoutJudged (a later report does not raise a finding twice)', () => {
+  it('the evening over the ceiling, already flagged, is dropped at the next morning; settled → keep (Silbernagel et al. 2007)', () => {
+    const full = evaluatePain({ during: null, before: 1, after: 6, nextMorning: 1 });
+    expect(kinds(full)).toEqual(['after_over_ceiling']);
+    expect(withoutJudged(full, ['after_over_ceiling'], 5)).toMatchObject({ action: 'keep', flags: [] });
+    const notSettled = withoutJudged(evaluatePain({ during: null, before: 1, after: 6, nextMorning: 3 }), ['after_over_ceiling'], 5);
+    expect(notSettled.action).toBe('reduce');
+    expect(kinds(notSettled)).toEqual(['not_settled_next_morning']);
   });
 });

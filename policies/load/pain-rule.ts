@@ -110,6 +110,11 @@ export function evaluatePain(raw: PainRuleInput): PainRuleResult {
       message: `Pain during training rose from week to week: an average of ${oneDecimal(latest)}/10 this week against ${oneDecimal(previous)}/10 the week before.`,
     });
   }
+  return verdict(flags, ceiling);
+}
+
+/** The action and the athlete's words for a set of failed conditions. */
+function verdict(flags: PainRuleResult['flags'], ceiling: number): PainRuleResult {
   const action = flags.length ? 'reduce' : 'keep';
   let athleteMessage = 'Pain stayed within your limits. Keep going as planned.';
   if (flags.some((f) => f.kind === 'during_over_ceiling')) {
@@ -118,4 +123,15 @@ export function evaluatePain(raw: PainRuleInput): PainRuleResult {
     athleteMessage = 'Your pain response says to ease off. Your next session should be lighter; your clinician and coach have been told.';
   }
   return { action, flags, athleteMessage };
+}
+
+/**
+ * The verdict without conditions already judged (and flagged) at an earlier step of the same log,
+ * so a later report does not raise the same finding twice.
+ */
+export function withoutJudged(result: PainRuleResult, judged: readonly PainFlagKind[], ceiling: number): PainRuleResult {
+  return verdict(
+    result.flags.filter((f) => !judged.includes(f.kind)),
+    ceiling,
+  );
 }
