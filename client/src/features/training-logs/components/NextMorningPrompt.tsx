@@ -137,8 +137,8 @@ export function NextMorningPrompt({ orgId, athleteId }: { orgId: string; athlete
             heading="How is the pain now, after your session?"
             intro={
               <>
-                Your session today (pain during {eveningLog.painDuring}/10). Answer later this evening if you can; tomorrow morning you will
-                be asked again. One tap: 0 is no pain, 10 the worst you can imagine.
+                Your session today (pain during {eveningLog.painDuring}/10). Best answered this evening; tomorrow morning you will be asked
+                how it is then. One tap: 0 is no pain, 10 the worst you can imagine.
               </>
             }
             label={(n) => `Pain after the session ${n}`}

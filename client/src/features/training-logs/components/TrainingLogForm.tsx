@@ -119,7 +119,7 @@ export function TrainingLogForm({
           control={control}
           name="painAfter"
           label="Pain after the session (this evening)"
-          hint="Optional now. Logging straight after training? Leave it: your page asks this evening, and again tomorrow morning."
+          hint="Optional now. Just finished training? Leave it: your page will ask you this evening."
           low="No pain"
           high="Worst pain you can imagine"
           limit={painCeiling}
