@@ -68,6 +68,7 @@ test('an athlete records pain after the session with the log, and later from the
     await expect(athlete.getByRole('heading', { name: 'How is the pain now, after your session?' })).toBeVisible();
     await expect(athlete.getByRole('heading', { name: 'How is the pain this morning?' })).toHaveCount(0);
     await expectNoSidewaysScroll(athlete);
+    await keepScreenshot(athlete, testInfo, 'pain-rule-evening-question');
     await athlete.getByRole('button', { name: 'Pain after the session 3', exact: true }).click();
     await expect(athlete.getByRole('heading', { name: 'Thanks — pain after your session: 3/10' })).toBeVisible();
     await expect(athlete.getByRole('status').filter({ hasText: 'Keep going as planned.' })).toBeVisible();
