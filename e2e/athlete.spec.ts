@@ -112,11 +112,13 @@ test.describe.serial('an athlete reports pain and logs a session on a phone; the
     await expectNoSidewaysScroll(luis);
     await keepScreenshot(luis, test.info(), 'athlete-my-week');
 
-    // Today's session waits for its next-morning pain on the home page: one tap answers it.
+    // Today's session waits for its pain after the session (this evening) on the home page: one tap
+    // answers it. The next-morning question waits for the organization's tomorrow (e2e/pain-rule.spec.ts).
     await luis.getByRole('link', { name: '← My page' }).click();
-    await expect(luis.getByRole('heading', { name: 'How is the pain this morning?' })).toBeVisible();
-    await luis.getByRole('button', { name: 'Pain this morning 2', exact: true }).click();
-    await expect(luis.getByRole('heading', { name: 'Thanks — pain this morning: 2/10' })).toBeVisible();
+    await expect(luis.getByRole('heading', { name: 'How is the pain now, after your session?' })).toBeVisible();
+    await expect(luis.getByRole('heading', { name: 'How is the pain this morning?' })).toHaveCount(0);
+    await luis.getByRole('button', { name: 'Pain after the session 2', exact: true }).click();
+    await expect(luis.getByRole('heading', { name: 'Thanks — pain after your session: 2/10' })).toBeVisible();
     await expect(luis.getByRole('status').filter({ hasText: 'Keep going as planned.' })).toBeVisible();
   });
 

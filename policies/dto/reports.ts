@@ -45,6 +45,8 @@ export interface TrainingLogDto {
   sessionLoad: number;
   painBefore: number;
   painDuring: number;
+  /** Pain after the session (that evening), once reported. */
+  painAfter: number | null;
   painNextMorning: number | null;
   painCeiling: number;
   sets: { exercise: string; loadKg: number; reps: number; rpe?: number | null }[];

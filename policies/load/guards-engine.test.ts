@@ -4,7 +4,7 @@ import { checkSets, plannedKg, weekOf } from './compliance';
 import { ctx, plan, rules, set, stage } from './compliance-fixtures';
 import { LoadInputError } from './guard';
 import { inForceOn, mergeRules, readPainCeiling } from './in-force';
-import { evaluatePain, isRisingTrend } from './pain-rule';
+import { evaluatePain, isWeeklyRise } from './pain-rule';
 import type { ParticipationStatus } from './patterns';
 import { mostRestrictive } from './status-on';
 import { acuteChronic, describeRatio, ewmaLambda, ewmaSeries, RATIO_CANNOT_COMPUTE, sessionLoad, weekSummary } from './workload';
@@ -51,7 +51,7 @@ describe('pain rule (Silbernagel et al. 2007, AJSM 35:897–906: a 0–10 scale)
     expect(() => evaluatePain({ during: 3, before: 2, nextMorning: INF })).toThrow(/next-morning pain/);
     expect(() => evaluatePain({ during: 3, before: 2, nextMorning: null, ceiling: NAN })).toThrow(/pain ceiling/);
     expect(() => evaluatePain({ during: 3, before: 2, nextMorning: null, weeklyMeans: [1, NAN, 3] })).toThrow(/weekly mean 2/);
-    expect(() => isRisingTrend([1, 2, 12])).toThrow(LoadInputError);
+    expect(() => isWeeklyRise([1, 2, 12])).toThrow(LoadInputError);
     expect(evaluatePain({ during: null, before: null, nextMorning: null }).action).toBe('keep');
   });
 

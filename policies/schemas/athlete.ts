@@ -87,6 +87,8 @@ export const TrainingLogCreateSchema = z.strictObject({
   sessionRpe: SessionRpeSchema,
   painBefore: PainScoreSchema,
   painDuring: PainScoreSchema,
+  /** Pain after the session (that evening), when the athlete logs in the evening; otherwise added later that day. */
+  painAfter: PainScoreSchema.optional(),
   sets: z.array(LoggedSetSchema).max(200, { message: 'must be at most 200 sets' }).default([]),
   notes: text(1000).optional(),
 });
@@ -97,6 +99,12 @@ export const NextMorningSchema = z.strictObject({
   version: VersionSchema,
 });
 export type NextMorningInput = z.infer<typeof NextMorningSchema>;
+
+export const PainAfterSchema = z.strictObject({
+  painAfter: PainScoreSchema,
+  version: VersionSchema,
+});
+export type PainAfterInput = z.infer<typeof PainAfterSchema>;
 
 export const AthleteRangeQuerySchema = z.strictObject({
   from: IsoDateSchema.optional(),

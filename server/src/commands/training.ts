@@ -7,7 +7,7 @@ import { AppError, versionConflict } from '../core/errors';
 import { memberName } from '../queries/members';
 import { toCheckInDto, toLogDto } from '../queries/training';
 import { requireMemberWithRole } from '../services/org-members';
-import { createTrainingLog, recordNextMorning } from '../services/training-logs';
+import { createTrainingLog, recordNextMorning, recordPainAfter, shiftDate } from '../services/training-logs';
 
 /** A log or check-in records what happened: a day after the organization's today is refused (common practice). */
 function notInTheFuture(ctx: OrgCommandCtx, date: string) {
@@ -34,7 +34,36 @@ export const logTraining = orgCommand({
   },
 });
 
-/** Next-morning pain for a logged session; the pain rule runs again (settled by next morning). */
+/**
+ * Pain after the session (that evening), added later on the session's own day in the organization's
+ * zone; after that day it is the next morning's question, not the evening's.
+ */
+export const recordAfterSessionPain = orgCommand({
+  name: 'recordAfterSessionPain',
+  async run(ctx, input: { logId: string; painAfter: number; version: number }): Promise<TrainingLogOutcomeDto> {
+    const log = await ctx.m.findOne(TrainingLog, { where: { id: input.logId, organizationId: ctx.actor.organizationId } });
+    authorize(ctx.ability, 'update', 'TrainingLog', log);
+    if (log.version !== input.version) throw versionConflict('training log');
+    if (log.painAfter !== null) throw new AppError('conflict', 'Pain after the session is already recorded for this session.');
+    if (ctx.today !== log.date) {
+      throw new AppError(
+        'unprocessable',
+        `Pain after the session can be recorded only on the session's day (${log.date}); today is ${ctx.today}.`,
+        { painAfter: [`can be recorded only on ${log.date}, the day of the session`] },
+      );
+    }
+    const athleteName = await memberName(ctx.m, log.athleteId, 'The athlete');
+    const painRule = await recordPainAfter(ctx.m, log, input.painAfter, athleteName, ctx.audit);
+    const saved = await ctx.m.save(log);
+    return { log: toLogDto(saved), painRule };
+  },
+});
+
+/**
+ * Next-morning pain for a logged session; the pain rule runs again (settled by next morning). The
+ * question belongs to the next calendar day in the organization's zone: asked the same evening, the
+ * answer would be the evening's pain, so it is refused until then.
+ */
 export const recordNextMorningPain = orgCommand({
   name: 'recordNextMorningPain',
   async run(ctx, input: { logId: string; painNextMorning: number; version: number }): Promise<TrainingLogOutcomeDto> {
@@ -42,6 +71,15 @@ export const recordNextMorningPain = orgCommand({
     authorize(ctx.ability, 'update', 'TrainingLog', log);
     if (log.version !== input.version) throw versionConflict('training log');
     if (log.painNextMorning !== null) throw new AppError('conflict', 'Next-morning pain is already recorded for this session.');
+    if (ctx.today <= log.date) {
+      throw new AppError(
+        'unprocessable',
+        `Next-morning pain can be recorded from the morning after the session (${shiftDate(log.date, 1)}).`,
+        {
+          painNextMorning: [`can be recorded from ${shiftDate(log.date, 1)}, the morning after the session`],
+        },
+      );
+    }
     const athleteName = await memberName(ctx.m, log.athleteId, 'The athlete');
     const painRule = await recordNextMorning(ctx.m, log, input.painNextMorning, athleteName, ctx.audit);
     const saved = await ctx.m.save(log);

@@ -28,6 +28,10 @@ export class TrainingLog {
   @Column('smallint', { name: 'pain_during' })
   painDuring: number;
 
+  /** Pain after the session (that evening), 0–10, recordable until the end of the session's day. */
+  @Column('smallint', { name: 'pain_after', nullable: true })
+  painAfter: number | null;
+
   @Column('smallint', { name: 'pain_next_morning', nullable: true })
   painNextMorning: number | null;
 

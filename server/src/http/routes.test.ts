@@ -96,6 +96,7 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/pain-reports  ⇒  member: read PainReport",
         "POST   /api/orgs/:orgId/training-logs  ⇒  member: create TrainingLog",
         "GET    /api/orgs/:orgId/training-logs  ⇒  member: read TrainingLog",
+        "POST   /api/orgs/:orgId/training-logs/:id/after  ⇒  member: update TrainingLog",
         "POST   /api/orgs/:orgId/training-logs/:id/next-morning  ⇒  member: update TrainingLog",
         "POST   /api/orgs/:orgId/check-ins  ⇒  member: create CheckIn",
         "GET    /api/orgs/:orgId/check-ins  ⇒  member: read CheckIn",

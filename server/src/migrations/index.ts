@@ -9,6 +9,7 @@ import { AddAccountSecurity1765300000000 } from './1765300000000-add-account-sec
 import { AddRateLimits1765400000000 } from './1765400000000-add-rate-limits';
 import { AddOrganizationTimeZone1765500000000 } from './1765500000000-add-organization-time-zone';
 import { AddRefusalCounters1765610000000 } from './1765610000000-add-refusal-counters';
+import { AddTrainingLogPainAfter1765720000000 } from './1765720000000-add-training-log-pain-after';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
   AddRateLimits1765400000000,
   AddOrganizationTimeZone1765500000000,
   AddRefusalCounters1765610000000,
+  AddTrainingLogPainAfter1765720000000,
 ];

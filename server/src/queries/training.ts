@@ -21,6 +21,7 @@ export function toLogDto(l: TrainingLog): TrainingLogDto {
     sessionLoad: sessionLoad(l.sessionRpe, l.durationMinutes),
     painBefore: l.painBefore,
     painDuring: l.painDuring,
+    painAfter: l.painAfter,
     painNextMorning: l.painNextMorning,
     painCeiling: l.painCeiling,
     sets: l.sets,

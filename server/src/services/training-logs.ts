@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import { addDays, formatISO, parseISO } from 'date-fns';
-import { evaluatePain, type PainRuleResult } from '../../../policies/load/pain-rule';
+import { evaluatePain, withoutJudged, type PainFlagKind, type PainRuleResult } from '../../../policies/load/pain-rule';
 import { inForceOn } from '../../../policies/load/in-force';
 import type { TrainingLogCreateInput } from '../../../policies/schemas';
 import { Baseline, Flag, TrainingLog } from '../entities';
@@ -18,17 +18,34 @@ export async function painCeilingOn(m: EntityManager, athleteId: string, date: s
   return inForceOn(plans, date).painCeiling;
 }
 
-/** Mean pain-during of the three 7-day windows ending on `date`, oldest first (windows with no log are skipped). */
+/**
+ * Mean pain-during of this 7-day window (ending on `date`) and the one before it, oldest first; empty
+ * unless both windows have a log, since a rise needs two weeks to compare (Silbernagel et al. 2007).
+ */
 async function weeklyPainMeans(m: EntityManager, athleteId: string, date: string): Promise<number[]> {
   const rows: { week: number; mean: string }[] = await m.query(
     `SELECT floor(($2::date - date) / 7)::int AS week, avg(pain_during) AS mean
-       FROM training_logs WHERE athlete_id = $1 AND date > $2::date - 21 AND date <= $2::date
+       FROM training_logs WHERE athlete_id = $1 AND date > $2::date - 14 AND date <= $2::date
       GROUP BY 1 ORDER BY 1 DESC`,
     [athleteId, date],
   );
-  return rows.length === 3 ? rows.map((r) => Number(r.mean)) : [];
+  return rows.length === 2 ? rows.map((r) => Number(r.mean)) : [];
 }
 
+/** Short names of the failed conditions, for the coach: what to change, not the athlete's account of it. */
+const CONDITION_NAMES: Record<PainFlagKind, string> = {
+  during_over_ceiling: 'pain during training above the ceiling',
+  after_over_ceiling: 'pain after the session above the ceiling',
+  not_settled_next_morning: 'pain not settled by the next morning',
+  next_morning_above_baseline: 'next-morning pain above the pre-session level',
+  weekly_rise: 'pain rising from week to week',
+};
+
+/**
+ * One flag per evaluation that failed a condition, raised at once: the clinician's notice explains
+ * each failed condition in plain words; the coach's names the conditions and the suggested action
+ * only (minimum necessary: the coach changes the load, the clinician reads the pain).
+ */
 async function raiseFlags(m: EntityManager, log: TrainingLog, result: PainRuleResult, athleteName: string) {
   if (result.action !== 'reduce') return;
   const message = `${athleteName}, session of ${log.date}: ${result.flags.map((f) => f.message).join(' ')} Suggested: reduce the next session.`;
@@ -43,13 +60,14 @@ async function raiseFlags(m: EntityManager, log: TrainingLog, result: PainRuleRe
     sourceId: log.id,
   });
   const circle = await athleteCircle(m, log.athleteId);
-  await notify(m, [...circle.clinicians, ...circle.coaches], {
-    organizationId: log.organizationId,
-    athleteId: log.athleteId,
-    kind: 'pain_rule',
-    severity: 'routine',
-    title: `Pain response: ${athleteName}`,
-    body: message,
+  const notice = { organizationId: log.organizationId, athleteId: log.athleteId, kind: 'pain_rule' as const, severity: 'routine' as const };
+  const title = `Pain response: ${athleteName}`;
+  await notify(m, circle.clinicians, { ...notice, title, body: message });
+  const conditions = result.flags.map((f) => CONDITION_NAMES[f.kind]).join('; ');
+  await notify(m, circle.coaches, {
+    ...notice,
+    title,
+    body: `${athleteName}, session of ${log.date}: reduce the next session (${conditions}).`,
   });
 }
 
@@ -69,6 +87,7 @@ export async function createTrainingLog(
       sessionRpe: input.sessionRpe,
       painBefore: input.painBefore,
       painDuring: input.painDuring,
+      painAfter: input.painAfter ?? null,
       painNextMorning: null,
       painCeiling,
       sets: input.sets,
@@ -80,6 +99,7 @@ export async function createTrainingLog(
     ceiling: painCeiling,
     during: input.painDuring,
     before: input.painBefore,
+    after: input.painAfter ?? null,
     nextMorning: null,
     weeklyMeans: await weeklyPainMeans(m, input.athleteId, input.date),
   });
@@ -94,6 +114,7 @@ export async function createTrainingLog(
       durationMinutes: input.durationMinutes,
       sessionRpe: input.sessionRpe,
       painDuring: input.painDuring,
+      painAfter: input.painAfter ?? null,
       sets: input.sets.length,
       painRule: painRule.action,
     },
@@ -101,6 +122,36 @@ export async function createTrainingLog(
   return { log, painRule };
 }
 
+/**
+ * Pain after the session, added later on the session's day. Only the evening condition is new
+ * information (during and the weekly rise were judged when the session was logged), so only it is
+ * evaluated: a flag already raised is not raised again.
+ */
+export async function recordPainAfter(
+  m: EntityManager,
+  log: TrainingLog,
+  painAfter: number,
+  athleteName: string,
+  audit: AuditFn,
+): Promise<PainRuleResult> {
+  log.painAfter = painAfter;
+  const painRule = evaluatePain({ ceiling: log.painCeiling, during: null, before: log.painBefore, after: painAfter, nextMorning: null });
+  await raiseFlags(m, log, painRule, athleteName);
+  await audit({
+    action: 'training_log.pain_after',
+    subjectType: 'TrainingLog',
+    subjectId: log.id,
+    athleteId: log.athleteId,
+    before: { painAfter: null },
+    after: { painAfter, painRule: painRule.action },
+  });
+  return painRule;
+}
+
+/**
+ * Next-morning pain: judged against the pre-session level, and against the evening score when there
+ * is one (settled by next morning). The evening's own ceiling was judged when it was recorded.
+ */
 export async function recordNextMorning(
   m: EntityManager,
   log: TrainingLog,
@@ -109,7 +160,11 @@ export async function recordNextMorning(
   audit: AuditFn,
 ): Promise<PainRuleResult> {
   log.painNextMorning = painNextMorning;
-  const painRule = evaluatePain({ ceiling: log.painCeiling, during: null, before: log.painBefore, nextMorning: painNextMorning });
+  const painRule = withoutJudged(
+    evaluatePain({ ceiling: log.painCeiling, during: null, before: log.painBefore, after: log.painAfter, nextMorning: painNextMorning }),
+    ['after_over_ceiling'],
+    log.painCeiling,
+  );
   await raiseFlags(m, log, painRule, athleteName);
   await audit({
     action: 'training_log.next_morning',

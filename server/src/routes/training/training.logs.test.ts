@@ -52,16 +52,16 @@ describe('logging a session', () => {
     });
   });
 
-  it('three weeks of rising pain → reduce with a rising trend; two weeks are not a trend (common practice reading of Silbernagel et al. 2007)', async () => {
+  it('one rise from week to week → reduce with a weekly-rise flag; a flat week → keep (Silbernagel et al. 2007, AJSM 35:897–906: no rise week to week)', async () => {
     const w = await world();
     const { ref, client } = await freshAthlete(w);
-    const first = await logSession(client, w, logBody(ref.membershipId, { date: '2026-05-04', painDuring: 1 }));
-    const second = await logSession(client, w, logBody(ref.membershipId, { date: '2026-05-11', painDuring: 2 }));
-    expect([first.painRule.action, second.painRule.action]).toEqual(['keep', 'keep']);
-    const third = await logSession(client, w, logBody(ref.membershipId, { date: '2026-05-18', painDuring: 3 }));
-    expect(third.painRule.action).toBe('reduce');
-    expect(third.painRule.flags.map((f) => f.kind)).toEqual(['rising_trend']);
-    expect(await flagsFrom(third.log.id)).toEqual([expect.objectContaining({ kind: 'pain_rule' })]);
+    const first = await logSession(client, w, logBody(ref.membershipId, { date: '2026-05-04', painDuring: 2 }));
+    const flat = await logSession(client, w, logBody(ref.membershipId, { date: '2026-05-11', painDuring: 2 }));
+    expect([first.painRule.action, flat.painRule.action]).toEqual(['keep', 'keep']);
+    const rise = await logSession(client, w, logBody(ref.membershipId, { date: '2026-05-18', painDuring: 3 }));
+    expect(rise.painRule.action).toBe('reduce');
+    expect(rise.painRule.flags.map((f) => f.kind)).toEqual(['weekly_rise']);
+    expect(await flagsFrom(rise.log.id)).toEqual([expect.objectContaining({ kind: 'pain_rule' })]);
   });
 
   it('a plan stage with pain ceiling 7 in force on the log date: pain 6 → keep; the same pain on a day outside the stage → reduce at 5 (Silbernagel et al. 2007: for the back, the clinician sets the ceiling)', async () => {

@@ -4,6 +4,7 @@ import {
   CheckInSchema,
   NextMorningSchema,
   NothingSchema,
+  PainAfterSchema,
   OrgItemParamsSchema,
   OrgParamsSchema,
   TrainingLogCreateSchema,
@@ -12,7 +13,7 @@ import {
   wholeNumberText,
 } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { logTraining, recordCheckIn, recordNextMorningPain } from '../../commands/training';
+import { logTraining, recordAfterSessionPain, recordCheckIn, recordNextMorningPain } from '../../commands/training';
 import { checkInsQuery, trainingLogsQuery, workloadQuery } from '../../queries/training';
 
 const RangeQuery = AthleteRangeQuerySchema.extend({ athleteId: UuidSchema.optional() });
@@ -42,8 +43,19 @@ export const trainingRoutes: RouteDef[] = [
   }),
   orgRoute({
     method: 'post',
+    path: '/orgs/:orgId/training-logs/:id/after',
+    summary: "Record pain after the session (that evening), on the session's day; the pain rule runs on it",
+    access: { kind: 'org', action: 'update', subject: 'TrainingLog' },
+    query: NothingSchema,
+    command: recordAfterSessionPain,
+    params: OrgItemParamsSchema,
+    body: PainAfterSchema,
+    handler: ({ run, params, body }) => run(recordAfterSessionPain, { ...body, logId: params.id }),
+  }),
+  orgRoute({
+    method: 'post',
     path: '/orgs/:orgId/training-logs/:id/next-morning',
-    summary: 'Record next-morning pain for a logged session; the pain rule runs again',
+    summary: 'Record next-morning pain for a logged session, from the next day in the organization’s zone; the pain rule runs again',
     access: { kind: 'org', action: 'update', subject: 'TrainingLog' },
     query: NothingSchema,
     command: recordNextMorningPain,

@@ -2,6 +2,7 @@ import { useId } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
 import type { Unit } from '../../../../../policies/schemas';
 import { MOVEMENT_PATTERNS } from '../../../../../policies/load/patterns';
+import { ceilingWarning } from '../../../../../policies/load/pain-rule';
 import { Button } from '../../../components/ui/Button';
 import { cx } from '../../../components/ui/cx';
 import { fieldSentence } from '../../../lib/form-errors';
@@ -40,7 +41,10 @@ export function StageCard({
   onMove: (to: number) => void;
   onRemove: () => void;
 }) {
-  const { register, formState } = useFormContext<PlanForm>();
+  const { register, formState, control } = useFormContext<PlanForm>();
+  const ceilingText = useWatch({ control, name: `stages.${index}.painCeiling` });
+  // A warning, not a refusal: the clinician may set a higher ceiling, but should know the model's is 5.
+  const warning = ceilingText?.trim() ? ceilingWarning(Number(ceilingText)) : null;
   const errors = formState.errors.stages?.[index];
   const { issues, start, end } = useLiveIssues(index, count);
   const number = index + 1;
@@ -113,7 +117,7 @@ export function StageCard({
               max={10}
               step={1}
               aria-invalid={errors?.painCeiling ? true : undefined}
-              aria-describedby={cx(`${painId}-of`, errors?.painCeiling && `${painId}-error`) || undefined}
+              aria-describedby={cx(`${painId}-of`, errors?.painCeiling && `${painId}-error`, warning && `${painId}-warning`) || undefined}
               className="block min-h-10 w-20 rounded-md border border-rule-strong bg-sheet px-3 text-sm tabular-nums aria-[invalid=true]:border-2 aria-[invalid=true]:border-line-deep"
               {...register(`stages.${index}.painCeiling`)}
             />
@@ -129,6 +133,9 @@ export function StageCard({
           )}
         </div>
       </div>
+      <p id={`${painId}-warning`} role="status" className={cx('text-sm', warning && 'mt-2 border-l-4 border-line pl-2 font-semibold')}>
+        {warning}
+      </p>
 
       <div className="mt-4">
         <p className="mb-1 text-sm font-semibold">Movement patterns</p>

@@ -52,7 +52,8 @@ export function LogList({
               format={String}
             />
             <p className="text-sm tabular-nums">
-              Pain before {log.painBefore}/10 · next morning {log.painNextMorning === null ? 'not given yet' : `${log.painNextMorning}/10`}
+              Pain before {log.painBefore}/10 · that evening {log.painAfter === null ? 'not given' : `${log.painAfter}/10`} · next morning{' '}
+              {log.painNextMorning === null ? 'not given yet' : `${log.painNextMorning}/10`}
               {log.painNextMorning !== null && log.painNextMorning > log.painBefore && (
                 <span className="font-semibold text-line-deep"> — higher than before the session</span>
               )}

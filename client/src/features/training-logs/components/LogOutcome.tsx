@@ -39,7 +39,20 @@ export function LogOutcome({
           max={10}
           format={String}
         />
-        <p className="text-sm text-ink-2">Tomorrow morning, your page will ask how the pain is.</p>
+        {log.painAfter !== null && (
+          <LineBar
+            label="Pain after the session (0–10), against the same ceiling"
+            value={log.painAfter}
+            limit={log.painCeiling}
+            max={10}
+            format={String}
+          />
+        )}
+        <p className="text-sm text-ink-2">
+          {log.painAfter === null
+            ? 'This evening your page will ask how the pain is after the session, and tomorrow morning again.'
+            : 'Tomorrow morning, your page will ask how the pain is.'}
+        </p>
       </div>
       <div className="flex flex-col gap-3 sm:flex-row">
         <ButtonLink to={homeHref} variant="primary" size="lg">

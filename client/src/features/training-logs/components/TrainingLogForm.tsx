@@ -13,7 +13,7 @@ import { useCreateTrainingLog } from '../api/create-training-log';
 import { EMPTY_SET, logFormResolver, toNumber, toNumberOrNull, type LogFormValues } from './log-form';
 import { SessionEffortField } from './SessionEffortField';
 
-const FIELDS = ['date', 'durationMinutes', 'sessionRpe', 'painBefore', 'painDuring', 'sets', 'notes'] as const;
+const FIELDS = ['date', 'durationMinutes', 'sessionRpe', 'painBefore', 'painDuring', 'painAfter', 'sets', 'notes'] as const;
 
 /**
  * Logging a session: when, how long, how hard, pain before and during, and the sets. Loads are typed
@@ -51,6 +51,7 @@ export function TrainingLogForm({
   });
   const sets = useFieldArray({ control, name: 'sets' });
   const effort = useWatch({ control, name: 'sessionRpe' });
+  const painAfter = useWatch({ control, name: 'painAfter' });
 
   useEffect(() => {
     if (focusNewSet.current) {
@@ -113,6 +114,23 @@ export function TrainingLogForm({
         limit={painCeiling}
         error={errors.painDuring?.message}
       />
+      <div className="space-y-1">
+        <ScoreField
+          control={control}
+          name="painAfter"
+          label="Pain after the session (this evening)"
+          hint="Optional now. Just finished training? Leave it: your page will ask you this evening."
+          low="No pain"
+          high="Worst pain you can imagine"
+          limit={painCeiling}
+          error={errors.painAfter?.message}
+        />
+        {painAfter !== undefined && (
+          <Button variant="quiet" size="sm" onClick={() => setValue('painAfter', undefined)}>
+            Clear pain after — answer it later
+          </Button>
+        )}
+      </div>
 
       <fieldset className="min-w-0 space-y-3">
         <legend className="text-base font-semibold">Sets</legend>

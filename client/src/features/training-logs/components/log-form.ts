@@ -18,6 +18,8 @@ export interface LogFormValues {
   sessionRpe: number | undefined;
   painBefore: number | undefined;
   painDuring: number | undefined;
+  /** Pain after the session (that evening): optional when logging, asked again on the athlete's page that day. */
+  painAfter?: number;
   sets: SetRow[];
   notes?: string;
 }
