@@ -10,6 +10,7 @@ import {
   redFlagQuestionsFor,
   RETIRED_RED_FLAG_ITEMS,
   routeReport,
+  TIER_HEADINGS,
   WARNING_TIERS,
   type RedFlagAnswers,
 } from './red-flags';
@@ -82,7 +83,8 @@ describe('the question set follows the places chosen', () => {
   });
 
   it('the pelvis (marked as hip / groin) and the upper back also ask the back questions (NICE NG59: saddle and both-leg signs)', () => {
-    for (const r of ['hip_groin_left', 'hip_groin_right', 'upper_back'] as const) expect(asked(r)).toEqual(expect.arrayContaining(CAUDA_EQUINA));
+    for (const r of ['hip_groin_left', 'hip_groin_right', 'upper_back'] as const)
+      expect(asked(r)).toEqual(expect.arrayContaining(CAUDA_EQUINA));
   });
 
   it('a knee alone: no back questions, but fever, weight loss, night pain and trauma are still asked (Finucane et al. 2020)', () => {
@@ -140,7 +142,8 @@ describe('old reports still read (retired ids)', () => {
 describe('the warning-signs box uses the report tiers (one source)', () => {
   it('two tiers, emergency first, listing exactly the items of each tier (NICE NG59; Finucane et al. 2020)', () => {
     expect(WARNING_TIERS.map((t) => t.tier)).toEqual(['emergency', 'urgent']);
-    expect(WARNING_TIERS[0].heading).toBe('Stop and get urgent medical care now');
+    expect(WARNING_TIERS[0].heading).toBe('Stop training and get urgent medical care now');
+    expect(WARNING_TIERS.map((t) => t.heading)).toEqual([TIER_HEADINGS.emergency, TIER_HEADINGS.urgent]);
     expect(WARNING_TIERS[1].heading).toBe('Contact your clinician today');
     for (const t of WARNING_TIERS) expect(t.items.map((i) => i.id)).toEqual(ids(t.tier));
     expect(WARNING_TIERS.flatMap((t) => t.items)).toHaveLength(RED_FLAG_ITEMS.length);

@@ -180,7 +180,7 @@ export function includesBackOrPelvis(regions: readonly BodyRegion[]): boolean {
   return regions.some((r) => BACK_OR_PELVIS_REGIONS.includes(r));
 }
 
-/** The questions a report about these places asks, in screen order: back-specific ones first when they apply. */
+/** The questions a report about these places asks, in the order of RED_FLAG_ITEMS (the form groups them by scope). */
 export function redFlagQuestionsFor(regions: readonly BodyRegion[]): RedFlagItem[] {
   const back = includesBackOrPelvis(regions);
   return RED_FLAG_ITEMS.filter((i) => i.scope === 'all' || back);
@@ -223,17 +223,23 @@ export function flaggedItems(answers: RedFlagAnswers): RedFlagItem[] {
   return [...RED_FLAG_ITEMS, ...RETIRED_RED_FLAG_ITEMS].filter((i) => answers[i.id] === true);
 }
 
-/** What the warning-signs box says for each tier: the same two tiers the report routes by. */
+/** The heading of each tier, the same on the report's outcome screen and in the warning-signs box. */
+export const TIER_HEADINGS: Readonly<Record<RedFlagTier, string>> = {
+  emergency: 'Stop training and get urgent medical care now',
+  urgent: 'Contact your clinician today',
+};
+
+/** What the warning-signs box says for each tier: the same two tiers, and items, the report routes by. */
 export const WARNING_TIERS: readonly { tier: RedFlagTier; heading: string; action: string; items: readonly RedFlagItem[] }[] = [
   {
     tier: 'emergency',
-    heading: 'Stop and get urgent medical care now',
+    heading: TIER_HEADINGS.emergency,
     action: 'Stop training and get urgent medical care straight away if you notice any of these:',
     items: RED_FLAG_ITEMS.filter((i) => i.tier === 'emergency'),
   },
   {
     tier: 'urgent',
-    heading: 'Contact your clinician today',
+    heading: TIER_HEADINGS.urgent,
     action: 'Stop training the painful area and contact your clinician today if you have pain and any of these is true:',
     items: RED_FLAG_ITEMS.filter((i) => i.tier === 'urgent'),
   },

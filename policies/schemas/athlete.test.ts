@@ -169,7 +169,9 @@ describe('PainReportCreateSchema (NICE NG59: every red-flag question asked)', ()
 
   it('a lower-back report without the cauda equina answers is refused naming each (NICE NG59; Finucane et al. 2020)', () => {
     expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: noRedFlags(['knee_left']) })))).toEqual(
-      Object.fromEntries(RED_FLAG_ITEMS.filter((i) => i.scope === 'back_or_pelvis').map((i) => [`redFlags.${i.id}`, 'must be answered yes or no'])),
+      Object.fromEntries(
+        RED_FLAG_ITEMS.filter((i) => i.scope === 'back_or_pelvis').map((i) => [`redFlags.${i.id}`, 'must be answered yes or no']),
+      ),
     );
   });
 

@@ -22,7 +22,10 @@ describe('the answers must fit the places chosen (NICE NG59; Finucane et al. 202
     delete (body.redFlags as Record<string, boolean>).saddle_numbness;
     const res = await client.post(`${w.base}/pain-reports`, body);
     expect(res.status).toBe(400);
-    expect(res.body.error).toMatchObject({ code: 'validation_failed', fields: { 'redFlags.saddle_numbness': ['must be answered yes or no'] } });
+    expect(res.body.error).toMatchObject({
+      code: 'validation_failed',
+      fields: { 'redFlags.saddle_numbness': ['must be answered yes or no'] },
+    });
     expect(await reportsOf(ref.membershipId)).toBe(0);
   });
 
@@ -57,26 +60,27 @@ describe('the answers must fit the places chosen (NICE NG59; Finucane et al. 202
 });
 
 describe('"contact your clinician today": every urgent item routes as urgent, never Out (NICE NG59; Finucane et al. 2020)', () => {
-  it.each([
-    ...KNEE_URGENT.map((i) => [i.id, 'knee_left'] as const),
-    ...BACK_ONLY_URGENT.map((i) => [i.id, 'lower_back'] as const),
-  ])('%s (%s) → 201 urgent: review-today flag and notice to the clinicians, status unchanged', async (id, region) => {
-    const w = await world();
-    const { ref, client } = await freshAthlete(w);
-    const res = await client.post(`${w.base}/pain-reports`, reportBody(ref.membershipId, { bodyRegions: [region] }, [id]));
-    expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ route: 'urgent', statusSetToOut: false });
-    expect(res.body.message).toMatch(/contact your clinician today/i);
-    expect(res.body.message).not.toMatch(/emergency|call 112/i);
-    expect(await flagsAbout(ref.membershipId)).toEqual([expect.objectContaining({ kind: 'red_flag_urgent', severity: 'urgent' })]);
-    const notices = await noticesAbout(ref.membershipId);
-    expect(notices[w.org.clinician.membershipId]).toEqual(['red_flag_urgent']);
-    expect(notices[w.org.guardian.membershipId]).toBeUndefined();
-    const body: { body: string }[] = await h.ds.query(`SELECT body FROM notifications WHERE athlete_id = $1 AND kind = 'red_flag_urgent'`, [
-      ref.membershipId,
-    ]);
-    expect(body[0].body).toContain(redFlagQuestion(id)!.question);
-  });
+  it.each([...KNEE_URGENT.map((i) => [i.id, 'knee_left'] as const), ...BACK_ONLY_URGENT.map((i) => [i.id, 'lower_back'] as const)])(
+    '%s (%s) → 201 urgent: review-today flag and notice to the clinicians, status unchanged',
+    async (id, region) => {
+      const w = await world();
+      const { ref, client } = await freshAthlete(w);
+      const res = await client.post(`${w.base}/pain-reports`, reportBody(ref.membershipId, { bodyRegions: [region] }, [id]));
+      expect(res.status, JSON.stringify(res.body)).toBe(201);
+      expect(res.body).toMatchObject({ route: 'urgent', statusSetToOut: false });
+      expect(res.body.message).toMatch(/contact your clinician today/i);
+      expect(res.body.message).not.toMatch(/emergency|call 112/i);
+      expect(await flagsAbout(ref.membershipId)).toEqual([expect.objectContaining({ kind: 'red_flag_urgent', severity: 'urgent' })]);
+      const notices = await noticesAbout(ref.membershipId);
+      expect(notices[w.org.clinician.membershipId]).toEqual(['red_flag_urgent']);
+      expect(notices[w.org.guardian.membershipId]).toBeUndefined();
+      const body: { body: string }[] = await h.ds.query(
+        `SELECT body FROM notifications WHERE athlete_id = $1 AND kind = 'red_flag_urgent'`,
+        [ref.membershipId],
+      );
+      expect(body[0].body).toContain(redFlagQuestion(id)!.question);
+    },
+  );
 });
 
 describe('"stop and get urgent care now": every emergency item routes as an emergency (NICE NG59; Finucane et al. 2020)', () => {
