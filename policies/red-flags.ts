@@ -234,13 +234,13 @@ export const WARNING_TIERS: readonly { tier: RedFlagTier; heading: string; actio
   {
     tier: 'emergency',
     heading: TIER_HEADINGS.emergency,
-    action: 'Stop training and get urgent medical care straight away if you notice any of these:',
+    action: 'Do not wait, and do not train, if you notice any of these:',
     items: RED_FLAG_ITEMS.filter((i) => i.tier === 'emergency'),
   },
   {
     tier: 'urgent',
     heading: TIER_HEADINGS.urgent,
-    action: 'Stop training the painful area and contact your clinician today if you have pain and any of these is true:',
+    action: 'Rest the painful area until you have spoken to them, if you have pain and any of these is true:',
     items: RED_FLAG_ITEMS.filter((i) => i.tier === 'urgent'),
   },
 ];

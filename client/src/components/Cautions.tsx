@@ -30,7 +30,11 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
         These are rare, but they need care quickly. They are not a diagnosis: a clinician or doctor decides what they mean.
       </p>
       {WARNING_TIERS.map((tier) => (
-        <section key={tier.tier} aria-labelledby={`${id}-${tier.tier}`} className="mt-3">
+        <section
+          key={tier.tier}
+          aria-labelledby={`${id}-${tier.tier}`}
+          className={`mt-3 border-l-4 pl-3 ${tier.tier === 'emergency' ? 'border-line-deep' : 'border-rule-strong'}`}
+        >
           <h3 id={`${id}-${tier.tier}`} className="font-bold">
             {tier.heading}
           </h3>
@@ -42,7 +46,11 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
           </ul>
           {tier.tier === 'emergency' && emergencyNumber && (
             <p className="mt-1 font-semibold">
-              In an emergency call <span className="tabular-nums">{emergencyNumber}</span>.
+              In an emergency call{' '}
+              <a href={`tel:${emergencyNumber.replace(/[^\d+]/g, '')}`} className="tabular-nums">
+                {emergencyNumber}
+              </a>
+              .
             </p>
           )}
         </section>

@@ -14,7 +14,7 @@ const KNEE_URGENT = redFlagQuestionsFor(['knee_left']).filter((i) => i.tier === 
 const BACK_ONLY_URGENT = RED_FLAG_ITEMS.filter((i) => i.tier === 'urgent' && i.scope === 'back_or_pelvis');
 const EMERGENCY = RED_FLAG_ITEMS.filter((i) => i.tier === 'emergency');
 
-describe('the answers must fit the places chosen (NICE NG59; Finucane et al. 2020)', () => {
+describe('the answers must fit the places chosen (ASVS 5.0 V2.2.3: related items checked together; NICE NG59; Finucane et al. 2020)', () => {
   it('a lower-back report missing a cauda equina answer → 400 naming that question; nothing stored', async () => {
     const w = await world();
     const { ref, client } = await freshAthlete(w);
