@@ -1,3 +1,4 @@
+import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Page } from '@playwright/test';
 import { RED_FLAG_ITEMS, TIER_HEADINGS, WARNING_TIERS } from '../policies/red-flags';
 import { DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
@@ -15,6 +16,12 @@ const FOR_ALL = RED_FLAG_ITEMS.filter((i) => i.scope === 'all');
 const BACK_GROUP = 'About your back, hips and legs';
 
 const question = (page: Page, text: string) => page.getByRole('radiogroup', { name: text, exact: true });
+
+/** Serious or critical WCAG 2.1 A/AA violations axe finds on the page as it stands (WCAG 2.1; axe-core). */
+async function blockingA11y(page: Page): Promise<string[]> {
+  const { violations } = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help}`);
+}
 
 async function toWarningSigns(page: Page): Promise<void> {
   await page.getByRole('button', { name: 'Next: warning signs' }).click();
@@ -37,6 +44,7 @@ test('the warning-signs box lists the same two tiers and items as the report (NI
   await expectNoSidewaysScroll(page);
   await box.scrollIntoViewIfNeeded();
   await keepScreenshot(page, testInfo, 'red-flags-warning-box');
+  expect(await blockingA11y(page)).toEqual([]);
 });
 
 test('lower back → the back questions (cauda equina signs, bending backwards); a knee → only the questions for any pain', async ({
@@ -54,6 +62,7 @@ test('lower back → the back questions (cauda equina signs, bending backwards);
   await expect(question(page, 'Do you have pain, numbness, tingling or weakness in both legs?')).toHaveCount(0);
   await expectNoSidewaysScroll(page);
   await keepScreenshot(page, testInfo, 'red-flags-back');
+  expect(await blockingA11y(page)).toEqual([]);
 
   await page.getByRole('button', { name: 'Back to where and how much' }).click();
   const where = page.getByRole('group', { name: 'Where does it hurt?' });
