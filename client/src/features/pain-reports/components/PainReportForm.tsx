@@ -283,7 +283,7 @@ export function PainReportForm({
               {asked.filter((i) => i.scope === 'back_or_pelvis').map(question)}
             </QuestionGroup>
           )}
-          <QuestionGroup title="About you and this pain" hint="Asked whatever the place.">
+          <QuestionGroup title="About you and this pain" hint={backAsked ? 'Asked whatever the place.' : undefined}>
             {asked.filter((i) => i.scope === 'all').map(question)}
           </QuestionGroup>
           <ErrorNotice error={create.error} title="Your report was not sent" />
@@ -302,7 +302,7 @@ export function PainReportForm({
 }
 
 /** One titled list of warning questions; the title names why these are asked. */
-function QuestionGroup({ title, hint, children }: { title: string; hint: string; children: ReactNode }) {
+function QuestionGroup({ title, hint, children }: { title: string; hint?: string; children: ReactNode }) {
   const id = useId();
   return (
     <section aria-labelledby={id} className="space-y-3">
@@ -310,7 +310,7 @@ function QuestionGroup({ title, hint, children }: { title: string; hint: string;
         <h3 id={id} className="text-lg font-bold">
           {title}
         </h3>
-        <p className="text-sm text-muted">{hint}</p>
+        {hint && <p className="text-sm text-muted">{hint}</p>}
       </div>
       <ol className="space-y-5">{children}</ol>
     </section>
