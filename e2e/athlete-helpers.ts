@@ -68,12 +68,20 @@ export async function fillPainDetails(page: Page, details: PainDetails): Promise
   if (details.note) await page.getByLabel('Anything else? (optional)').fill(details.note);
 }
 
-/** Step 2: every warning question answered, Yes for the ids given and No for the rest. */
+/**
+ * Step 2: every warning question the chosen places ask answered, Yes for the ids given and No for the
+ * rest. The screen depends on the places (back or pelvis adds the back questions), so it answers the
+ * questions shown and checks that each id given Yes was among them.
+ */
 export async function answerWarningSigns(page: Page, yesIds: readonly string[] = []): Promise<void> {
   await expect(page.getByRole('heading', { name: 'Warning signs', exact: true })).toBeFocused();
+  const shown: string[] = [];
   for (const item of RED_FLAG_ITEMS) {
+    if ((await page.getByRole('radiogroup', { name: item.question, exact: true }).count()) === 0) continue;
+    shown.push(item.id);
     await answerYesNo(page, item.question, yesIds.includes(item.id) ? 'Yes' : 'No');
   }
+  for (const id of yesIds) expect(shown, `the question ${id} is on the screen`).toContain(id);
 }
 
 export function redFlagQuestion(id: string): string {

@@ -26,7 +26,7 @@ const PHONE_ZONE = 'Australia/Sydney';
 test.use({ timezoneId: PHONE_ZONE });
 
 /** The emergency item Ava answers yes to. */
-const EMERGENCY_ITEM = 'both_legs';
+const EMERGENCY_ITEM = 'both_legs_new';
 const AVA_NARRATIVE = 'E2E-AVA-NARRATIVE: it started after the relay practice.';
 const LUIS_REPORT_FLAG = 'Luis Romero reported pain: lower back, 3/10 now, 5/10 at worst in the last 24 hours. No warning signs.';
 

@@ -49,7 +49,7 @@ test.describe('each role signs in, sees its home, and signs out', () => {
         await expect(page.getByRole('cell', { name: DEMO.maya.name })).toBeVisible();
       }
       if (role === 'athlete' || role === 'guardian') {
-        await expect(page.getByRole('heading', { name: 'Warning signs: stop and get urgent care now' })).toBeVisible();
+        await expect(page.getByRole('heading', { name: 'Warning signs', exact: true })).toBeVisible();
         await expect(page.getByText(DEMO.maya.name).first()).toBeVisible();
       }
 
@@ -201,7 +201,7 @@ test.describe('desktop only', () => {
 
     await signIn(page, DEMO.ava.email);
     await expectHome(page, HOME_HEADING.athlete);
-    await expect(page.getByRole('heading', { name: 'Warning signs: stop and get urgent care now' })).toBeVisible();
+    await expect(page.getByRole('heading', { name: 'Warning signs', exact: true })).toBeVisible();
     await page.getByRole('link', { name: 'Account' }).click();
     await expectHome(page, 'Your account');
     expect(await violations()).toEqual([]);

@@ -49,3 +49,9 @@ export const BODY_REGION_LABELS: Record<BodyRegion, string> = {
   ankle_foot_left: 'Left ankle / foot',
   ankle_foot_right: 'Right ankle / foot',
 };
+
+/**
+ * The places that add the back-specific warning questions (cauda equina signs, bending backwards).
+ * The pelvis has no region of its own: an athlete marks it as hip / groin, so those count too.
+ */
+export const BACK_OR_PELVIS_REGIONS: readonly BodyRegion[] = ['lower_back', 'upper_back', 'hip_groin_left', 'hip_groin_right'];

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { RED_FLAG_ITEMS } from '../red-flags';
+import { noRedFlags, RED_FLAG_ITEMS } from '../red-flags';
 import {
   CheckInSchema,
   FlagListQuerySchema,
@@ -150,11 +150,35 @@ describe('PainReportCreateSchema (NICE NG59: every red-flag question asked)', ()
     expect(issues(PainReportCreateSchema.safeParse(report({ redFlags })))).toEqual({ [`redFlags.${id}`]: 'must be answered yes or no' });
   });
 
-  it('an unknown red-flag key or an unknown top-level key is refused (common practice)', () => {
+  it('an unknown red-flag key or an unknown top-level key is refused, naming it (common practice)', () => {
     expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), made_up: true } })))).toEqual({
-      'redFlags.made_up': 'unrecognized',
+      'redFlags.made_up': 'is not a warning question',
     });
     expect(issues(PainReportCreateSchema.safeParse(report({ route: 'routine' })))).toEqual({ route: 'unrecognized' });
+  });
+
+  it('a knee report answers the general questions only: back questions are refused by name (NICE NG59; Finucane et al. 2020)', () => {
+    const knee = noRedFlags(['knee_left']);
+    expect(PainReportCreateSchema.safeParse(report({ bodyRegions: ['knee_left'], redFlags: knee })).success).toBe(true);
+    expect(issues(PainReportCreateSchema.safeParse(report({ bodyRegions: ['knee_left'], redFlags: allNo() })))).toEqual(
+      Object.fromEntries(
+        RED_FLAG_ITEMS.filter((i) => i.scope === 'back_or_pelvis').map((i) => [`redFlags.${i.id}`, 'is not asked for the places chosen']),
+      ),
+    );
+  });
+
+  it('a lower-back report without the cauda equina answers is refused naming each (NICE NG59; Finucane et al. 2020)', () => {
+    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: noRedFlags(['knee_left']) })))).toEqual(
+      Object.fromEntries(
+        RED_FLAG_ITEMS.filter((i) => i.scope === 'back_or_pelvis').map((i) => [`redFlags.${i.id}`, 'must be answered yes or no']),
+      ),
+    );
+  });
+
+  it('the retired "both legs" id is refused for new reports, pointing to the new question (NICE NG59: new symptoms)', () => {
+    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), both_legs: false } })))).toEqual({
+      'redFlags.both_legs': 'is no longer asked; answer both_legs_new instead',
+    });
   });
 
   it('pain now 11 and worst −1 refused, naming the fields (LOINC 72514-3, integer 0–10)', () => {
@@ -172,8 +196,8 @@ describe('PainReportCreateSchema (NICE NG59: every red-flag question asked)', ()
   });
 
   it('a "yes" string is not a yes: answers must be booleans (common practice)', () => {
-    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), both_legs: 'yes' } })))).toEqual({
-      'redFlags.both_legs': 'must be answered yes or no',
+    expect(issues(PainReportCreateSchema.safeParse(report({ redFlags: { ...allNo(), both_legs_new: 'yes' } })))).toEqual({
+      'redFlags.both_legs_new': 'must be answered yes or no',
     });
   });
 });

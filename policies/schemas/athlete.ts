@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { BODY_REGIONS } from '../body-regions';
 import { MOVEMENT_PATTERNS } from '../load/patterns';
-import { RED_FLAG_ITEMS } from '../red-flags';
+import { checkRedFlagAnswers, RED_FLAG_ITEMS, redFlagQuestion } from '../red-flags';
 import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
 
 /** 0–10 verbal numeric rating, whole numbers (LOINC 72514-3 takes integers 0–10). */
@@ -25,25 +25,48 @@ export const SetRpeSchema = z
   .max(10, { message: 'must be from 1 to 10' })
   .multipleOf(0.5, { message: 'must be a whole or half step' });
 
-const redFlagShape = Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, z.boolean({ message: 'must be answered yes or no' })])) as Record<
-  string,
-  z.ZodBoolean
->;
+/** Question ids are short snake_case words; the count is bounded so a body cannot carry thousands of keys. */
+const RedFlagAnswersSchema = z
+  .record(
+    z.string().regex(/^[a-z][a-z0-9_]{0,63}$/, { message: 'is not a warning question' }),
+    z.boolean({ message: 'must be answered yes or no' }),
+  )
+  .refine((o) => Object.keys(o).length <= 2 * RED_FLAG_ITEMS.length, { message: 'has more answers than there are questions' });
 
-export const PainReportCreateSchema = z.strictObject({
-  athleteId: UuidSchema,
-  bodyRegions: z
-    .array(z.enum(BODY_REGIONS, { message: 'must be a body region from the list' }))
-    .min(1, { message: 'choose at least one place' }),
-  painNow: PainScoreSchema,
-  painWorst24h: PainScoreSchema,
-  onsetDate: IsoDateSchema,
-  aggravatingPatterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement from the list' })).default([]),
-  startedInTraining: z.boolean({ message: 'must be yes or no' }),
-  note: text(2000).optional(),
-  /** Every screen question must be answered, so "not answered" is never read as "no". */
-  redFlags: z.strictObject(redFlagShape),
-});
+export const PainReportCreateSchema = z
+  .strictObject({
+    athleteId: UuidSchema,
+    bodyRegions: z
+      .array(z.enum(BODY_REGIONS, { message: 'must be a body region from the list' }))
+      .min(1, { message: 'choose at least one place' })
+      .max(BODY_REGIONS.length),
+    painNow: PainScoreSchema,
+    painWorst24h: PainScoreSchema,
+    onsetDate: IsoDateSchema,
+    aggravatingPatterns: z.array(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement from the list' })).default([]),
+    startedInTraining: z.boolean({ message: 'must be yes or no' }),
+    note: text(2000).optional(),
+    /**
+     * The answers to exactly the questions the chosen places ask (`redFlagQuestionsFor`): every one
+     * answered, so "not answered" is never read as "no", and none from another place's screen.
+     */
+    redFlags: RedFlagAnswersSchema,
+  })
+  .superRefine((report, ctx) => {
+    // With no place chosen there is no question set to check against; bodyRegions already says so.
+    if (report.bodyRegions.length === 0) return;
+    const { missing, unknown } = checkRedFlagAnswers(report.bodyRegions, report.redFlags);
+    for (const id of missing) ctx.addIssue({ code: 'custom', path: ['redFlags', id], message: 'must be answered yes or no' });
+    for (const id of unknown) {
+      const retired = redFlagQuestion(id);
+      const message = !retired
+        ? 'is not a warning question'
+        : 'retired' in retired
+          ? `is no longer asked${retired.replacedBy ? `; answer ${retired.replacedBy} instead` : ''}`
+          : 'is not asked for the places chosen';
+      ctx.addIssue({ code: 'custom', path: ['redFlags', id], message });
+    }
+  });
 export type PainReportCreateInput = z.infer<typeof PainReportCreateSchema>;
 
 export const CheckInSchema = z.strictObject({

@@ -1,4 +1,5 @@
 import { useId } from 'react';
+import { WARNING_TIERS } from '../../../policies/red-flags';
 
 /** The standing caution, on every page. Short, in plain words, never behind a click. */
 export function CareCaution() {
@@ -11,8 +12,9 @@ export function CareCaution() {
 }
 
 /**
- * Warning signs that mean stop and get urgent care. Shown in full on the athlete's and guardian's
- * pages, with the organization's emergency number when we know it.
+ * The warning signs, in the same two tiers and with the same items the pain report routes by
+ * (`WARNING_TIERS` in policies/red-flags.ts). Shown in full on the athlete's and guardian's pages,
+ * with the organization's emergency number when we know it.
  */
 export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string | null }) {
   const id = useId();
@@ -22,24 +24,38 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
         <span aria-hidden="true" className="text-line-deep">
           ▲
         </span>
-        Warning signs: stop and get urgent care now
+        Warning signs
       </h2>
-      <p className="mt-2">Stop training and get urgent medical care straight away if any of these appear:</p>
-      <ul className="mt-2 list-disc space-y-0.5 pl-5">
-        <li>new numbness in the groin or inner thighs</li>
-        <li>new trouble controlling the bladder or bowel</li>
-        <li>weakness in a leg that keeps getting worse</li>
-        <li>back pain together with a fever</li>
-        <li>pain after a hard fall or a heavy blow</li>
-        <li>weight loss with no explanation</li>
-        <li>pain that stays all night, even at rest</li>
-      </ul>
-      {emergencyNumber && (
-        <p className="mt-2 font-semibold">
-          In an emergency call <span className="tabular-nums">{emergencyNumber}</span>.
-        </p>
-      )}
-      <p className="mt-2">During a session, stop and tell your clinician if pain climbs past the ceiling your clinician set.</p>
+      <p className="mt-1 text-ink-2">
+        These are rare, but they need care quickly. They are not a diagnosis: a clinician or doctor decides what they mean.
+      </p>
+      {WARNING_TIERS.map((tier) => (
+        <section
+          key={tier.tier}
+          aria-labelledby={`${id}-${tier.tier}`}
+          className={`mt-3 border-l-4 pl-3 ${tier.tier === 'emergency' ? 'border-line-deep' : 'border-rule-strong'}`}
+        >
+          <h3 id={`${id}-${tier.tier}`} className="font-bold">
+            {tier.heading}
+          </h3>
+          <p className="mt-0.5">{tier.action}</p>
+          <ul className="mt-1 list-disc space-y-0.5 pl-5">
+            {tier.items.map((item) => (
+              <li key={item.id}>{item.sign}</li>
+            ))}
+          </ul>
+          {tier.tier === 'emergency' && emergencyNumber && (
+            <p className="mt-1 font-semibold">
+              In an emergency call{' '}
+              <a href={`tel:${emergencyNumber.replace(/[^\d+]/g, '')}`} className="tabular-nums">
+                {emergencyNumber}
+              </a>
+              .
+            </p>
+          )}
+        </section>
+      ))}
+      <p className="mt-3">During a session, stop and tell your clinician if pain climbs past the ceiling your clinician set.</p>
     </section>
   );
 }

@@ -1,9 +1,10 @@
 import { BODY_REGION_LABELS } from '../../../policies/body-regions';
 import type { PainReportOutcomeDto } from '../../../policies/dto';
 import type { PainReportCreateInput } from '../../../policies/schemas';
-import { flaggedItems, routeReport } from '../../../policies/red-flags';
+import { checkRedFlagAnswers, flaggedItems, routeReport } from '../../../policies/red-flags';
 import { CaseRecord, Flag, Organization, PainReport } from '../entities';
 import { authorize } from '../core/authorize';
+import { AppError } from '../core/errors';
 import { orgCommand, type OrgCommandCtx } from '../core/command';
 import { memberName } from '../queries/members';
 import { listPainReports } from '../queries/reports';
@@ -56,6 +57,19 @@ async function caseForEmergency(ctx: OrgCommandCtx, report: PainReport): Promise
 }
 
 /**
+ * The answers must be to exactly the questions the places ask (`redFlagQuestionsFor`). The route's
+ * schema already refuses a mismatch; this keeps the rule for a script or job that calls the command.
+ */
+function requireScreenFor(input: PainReportCreateInput): void {
+  const { missing, unknown } = checkRedFlagAnswers(input.bodyRegions, input.redFlags);
+  if (missing.length === 0 && unknown.length === 0) return;
+  const fields: Record<string, string[]> = {};
+  for (const id of missing) fields[`redFlags.${id}`] = ['must be answered yes or no'];
+  for (const id of unknown) fields[`redFlags.${id}`] = ['is not asked for the places chosen'];
+  throw new AppError('validation_failed', `Please check the form: ${Object.keys(fields).join(', ')}.`, fields);
+}
+
+/**
  * An athlete reports pain with the red-flag screen (NICE NG59; Finucane et al. 2020, JOSPT 50:350–372).
  * An emergency answer sets them Out from the organization's today, through the one status command,
  * so that evening's published sessions are held; any other report changes no limit.
@@ -68,6 +82,7 @@ export const reportPain = orgCommand({
     const org = ctx.actor.organizationId;
     authorize(ctx.ability, 'create', 'PainReport', { id: '', organizationId: org, athleteId: input.athleteId });
     await requireMemberWithRole(m, org, input.athleteId, 'athlete', 'athleteId');
+    requireScreenFor(input);
     const athleteName = await memberName(m, input.athleteId);
     const route = routeReport(input.redFlags);
     let report = await m.save(

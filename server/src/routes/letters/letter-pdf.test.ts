@@ -1,6 +1,6 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { RED_FLAG_ITEMS } from '../../../../policies/red-flags';
+import { noRedFlags } from '../../../../policies/red-flags';
 import { LETTER_CAUTION } from '../../../../templates/letter/clearance-letter';
 import { useHarness } from '../../test/harness';
 import type { MemberRef } from '../../test/factories';
@@ -55,7 +55,7 @@ describe('the signed letter PDF', () => {
       aggravatingPatterns: ['squat'],
       startedInTraining: true,
       note: PAIN_NOTE,
-      redFlags: Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false])),
+      redFlags: noRedFlags(['knee_left']),
     });
     expect(pain.status, JSON.stringify(pain.body)).toBe(201);
     signed = await signedLetter(w, athlete.membershipId);

@@ -13,7 +13,7 @@ describe('who may report, and a report must answer every question', () => {
     const w = await world();
     const res = await (
       await w.as('athlete')
-    ).post(`${w.base}/pain-reports`, reportBody(w.org.otherAthlete.membershipId, {}, ['both_legs']));
+    ).post(`${w.base}/pain-reports`, reportBody(w.org.otherAthlete.membershipId, {}, ['both_legs_new']));
     expect(res.status).toBe(404);
     expect(res.body.error.code).toBe('not_found');
     expect(await reportsOf(w.org.otherAthlete.membershipId)).toBe(0);
@@ -75,7 +75,7 @@ describe('reading reports (minimum necessary, policies/access/athlete-reports.ts
     const mine = res.body.find((r: { id: string }) => r.id === reportId);
     expect(mine).toMatchObject({
       note: NOTE,
-      redFlags: expect.objectContaining({ night_pain: true, both_legs: false }),
+      redFlags: expect.objectContaining({ night_pain: true, both_legs_new: false }),
       painNow: 4,
       route: 'urgent',
     });

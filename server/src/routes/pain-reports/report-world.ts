@@ -1,5 +1,6 @@
 import { afterAll, beforeAll } from 'vitest';
-import { RED_FLAG_ITEMS } from '../../../../policies/red-flags';
+import type { BodyRegion } from '../../../../policies/body-regions';
+import { noRedFlags, RED_FLAG_ITEMS } from '../../../../policies/red-flags';
 import { addDays } from '../../../../policies/today';
 import { CareTeamAssignment, GuardianLink, Membership, Organization } from '../../entities';
 import { signedIn, type Client, type Harness } from '../../test/harness';
@@ -24,17 +25,21 @@ export const fromToday = (n: number) => addDays(TODAY, n);
 export const allNo = () => Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false]));
 export const question = (id: string) => RED_FLAG_ITEMS.find((i) => i.id === id)!.question;
 
-export const reportBody = (athleteId: string, over: Record<string, unknown> = {}, yes: string[] = []) => ({
-  athleteId,
-  bodyRegions: ['lower_back'],
-  painNow: 4,
-  painWorst24h: 6,
-  onsetDate: fromToday(-2),
-  aggravatingPatterns: ['hinge'],
-  startedInTraining: true,
-  redFlags: { ...allNo(), ...Object.fromEntries(yes.map((id) => [id, true])) },
-  ...over,
-});
+/** A report on the lower back (or the places in `over.bodyRegions`), answering that screen No except the ids in `yes`. */
+export const reportBody = (athleteId: string, over: Record<string, unknown> = {}, yes: string[] = []) => {
+  const bodyRegions = (over.bodyRegions as BodyRegion[] | undefined) ?? ['lower_back'];
+  return {
+    athleteId,
+    bodyRegions,
+    painNow: 4,
+    painWorst24h: 6,
+    onsetDate: fromToday(-2),
+    aggravatingPatterns: ['hinge'],
+    startedInTraining: true,
+    redFlags: { ...noRedFlags(bodyRegions), ...Object.fromEntries(yes.map((id) => [id, true])) },
+    ...over,
+  };
+};
 
 /** Helpers of one test file, bound to its harness; pins the clock for the file. */
 export function reportWorld(h: Harness) {

@@ -1,11 +1,12 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { Controller, useForm, type FieldErrors } from 'react-hook-form';
+import { useEffect, useId, useRef, useState, type FormEvent, type ReactNode } from 'react';
+import { Controller, useForm, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { PainReportCreateSchema } from '../../../../../policies/schemas';
 import type { PainReportOutcomeDto } from '../../../../../policies/dto';
 import { MOVEMENT_PATTERNS, PATTERN_LABELS } from '../../../../../policies/load/patterns';
-import { RED_FLAG_ITEMS, routeReport } from '../../../../../policies/red-flags';
+import type { BodyRegion } from '../../../../../policies/body-regions';
+import { includesBackOrPelvis, redFlagQuestionsFor, routeReport, type RedFlagItem } from '../../../../../policies/red-flags';
 import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { emptyToUndefined } from '../../../lib/form-values';
@@ -27,10 +28,22 @@ const DETAIL_FIELDS = ['bodyRegions', 'painNow', 'painWorst24h', 'onsetDate', 'a
 const PATTERN_OPTIONS = MOVEMENT_PATTERNS.map((p) => ({ value: p, label: PATTERN_LABELS[p], hint: PATTERN_EXAMPLES[p] }));
 const UNANSWERED = 'Answer Yes or No.';
 
-function unansweredCount(errors: FieldErrors<Input>): number {
+function unansweredCount(errors: FieldErrors<Input>, asked: readonly RedFlagItem[]): number {
   const flags = errors.redFlags as Record<string, unknown> | undefined;
-  return flags ? RED_FLAG_ITEMS.filter((i) => flags[i.id]).length : 0;
+  return flags ? asked.filter((i) => flags[i.id]).length : 0;
 }
+
+const schemaResolver = zodResolver(PainReportCreateSchema);
+
+/**
+ * Answers to questions the chosen places no longer ask (the athlete picked the back, answered, then
+ * took it off) are left out before checking and sending, so the server sees exactly the screen shown.
+ */
+const resolver: Resolver<Input, unknown, Output> = (values, context, options) => {
+  const asked = new Set(redFlagQuestionsFor((values.bodyRegions ?? []) as BodyRegion[]).map((i) => i.id));
+  const redFlags = Object.fromEntries(Object.entries(values.redFlags ?? {}).filter(([id]) => asked.has(id)));
+  return schemaResolver({ ...values, redFlags }, context, options);
+};
 
 /**
  * Reporting pain in two short screens: where and how much, then the warning-sign questions. The
@@ -68,9 +81,13 @@ export function PainReportForm({
     setError,
     formState: { errors },
   } = useForm<Input, unknown, Output>({
-    resolver: zodResolver(PainReportCreateSchema),
+    resolver,
     defaultValues: { athleteId, bodyRegions: [], aggravatingPatterns: [], onsetDate: today, redFlags: {} },
   });
+
+  const regions = (useWatch({ control, name: 'bodyRegions' }) ?? []) as BodyRegion[];
+  const asked = redFlagQuestionsFor(regions);
+  const backAsked = includesBackOrPelvis(regions);
 
   useEffect(() => {
     if (step === 2) stepHeading.current?.focus();
@@ -112,7 +129,7 @@ export function PainReportForm({
       return;
     }
     const flags = invalid.redFlags as Record<string, unknown> | undefined;
-    const first = RED_FLAG_ITEMS.find((i) => flags?.[i.id]);
+    const first = asked.find((i) => flags?.[i.id]);
     if (first) questionRefs.current.get(first.id)?.focus();
   }
 
@@ -134,7 +151,29 @@ export function PainReportForm({
     );
   }
 
-  const missing = unansweredCount(errors);
+  const missing = unansweredCount(errors, asked);
+
+  const question = (item: RedFlagItem) => (
+    <li key={item.id} className="rounded-lg border border-rule bg-sheet p-4">
+      <Controller
+        control={control}
+        name={`redFlags.${item.id}`}
+        render={({ field }) => (
+          <YesNo
+            question={item.question}
+            value={field.value as boolean | undefined}
+            onChange={field.onChange}
+            onBlur={field.onBlur}
+            error={(errors.redFlags as Record<string, unknown> | undefined)?.[item.id] ? UNANSWERED : undefined}
+            groupRef={(el) => {
+              if (el) questionRefs.current.set(item.id, el);
+              else questionRefs.current.delete(item.id);
+            }}
+          />
+        )}
+      />
+    </li>
+  );
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Report pain" className="space-y-6">
@@ -239,29 +278,14 @@ export function PainReportForm({
               Answer every question before sending: {missing} still {missing === 1 ? 'needs' : 'need'} a Yes or No.
             </p>
           )}
-          <ol className="space-y-5">
-            {RED_FLAG_ITEMS.map((item) => (
-              <li key={item.id} className="rounded-lg border border-rule bg-sheet p-4">
-                <Controller
-                  control={control}
-                  name={`redFlags.${item.id}`}
-                  render={({ field }) => (
-                    <YesNo
-                      question={item.question}
-                      value={field.value as boolean | undefined}
-                      onChange={field.onChange}
-                      onBlur={field.onBlur}
-                      error={(errors.redFlags as Record<string, unknown> | undefined)?.[item.id] ? UNANSWERED : undefined}
-                      groupRef={(el) => {
-                        if (el) questionRefs.current.set(item.id, el);
-                        else questionRefs.current.delete(item.id);
-                      }}
-                    />
-                  )}
-                />
-              </li>
-            ))}
-          </ol>
+          {backAsked && (
+            <QuestionGroup title="About your back, hips and legs" hint="Asked because you marked your back or hip area.">
+              {asked.filter((i) => i.scope === 'back_or_pelvis').map(question)}
+            </QuestionGroup>
+          )}
+          <QuestionGroup title="About you and this pain" hint={backAsked ? 'Asked whatever the place.' : undefined}>
+            {asked.filter((i) => i.scope === 'all').map(question)}
+          </QuestionGroup>
           <ErrorNotice error={create.error} title="Your report was not sent" />
           <div className="flex flex-col gap-3 sm:flex-row-reverse sm:justify-end">
             <Button type="submit" size="lg" busy={create.isPending}>
@@ -274,5 +298,21 @@ export function PainReportForm({
         </>
       )}
     </form>
+  );
+}
+
+/** One titled list of warning questions; the title names why these are asked. */
+function QuestionGroup({ title, hint, children }: { title: string; hint?: string; children: ReactNode }) {
+  const id = useId();
+  return (
+    <section aria-labelledby={id} className="space-y-3">
+      <div>
+        <h3 id={id} className="text-lg font-bold">
+          {title}
+        </h3>
+        {hint && <p className="text-sm text-muted">{hint}</p>}
+      </div>
+      <ol className="space-y-5">{children}</ol>
+    </section>
   );
 }

@@ -1,12 +1,14 @@
 import { useEffect, useRef, type ReactNode } from 'react';
 import type { PainReportOutcomeDto } from '../../../../../policies/dto';
+import { TIER_HEADINGS } from '../../../../../policies/red-flags';
 import { Button, ButtonLink, buttonClass } from '../../../components/ui/Button';
 import { describeError } from '../../../components/ui/Notice';
 import { StatusMark } from '../../../components/ui/StatusMark';
 
-export const EMERGENCY_HEADING = 'Stop training and get urgent medical care now';
+/** The tiers' headings come from policies/red-flags.ts, so the outcome and the warning-signs box use the same words. */
+export const EMERGENCY_HEADING = TIER_HEADINGS.emergency;
 export const ROUTINE_HEADING = 'Your care team has your report';
-export const URGENT_HEADING = 'Contact your clinician today';
+export const URGENT_HEADING = TIER_HEADINGS.urgent;
 
 /** tel: wants digits and a leading plus only. */
 const telHref = (number: string) => `tel:${number.replace(/[^\d+]/g, '')}`;
