@@ -72,5 +72,5 @@ export interface CaseloadRowDto {
   openCaseCount: number;
   openCaseId: string | null;
   nextReviewDate: string | null;
-  latestPainReport: { reportedAt: string; painNow: number } | null;
+  latestPainReport: { id: string; reportedAt: string; painNow: number } | null;
 }

@@ -37,8 +37,11 @@ export const myNoticesQuery = orgQuery({
       .orderBy('n.created_at', 'DESC')
       .limit(100)
       .getRawMany();
+    // Only someone who reads pain reports gets the link (a guardian is told, but never reads the report).
+    const readsReports = ctx.ability.can('read', 'PainReport');
     return rows.map((n): NotificationDto => ({
       ...n,
+      painReportId: readsReports ? n.painReportId : null,
       createdAt: new Date(n.createdAt).toISOString(),
       readAt: n.readAt ? new Date(n.readAt).toISOString() : null,
     }));
