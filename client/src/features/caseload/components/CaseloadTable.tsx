@@ -86,7 +86,7 @@ export function CaseloadTable({ rows, caption, empty, athleteHref, clinical = fa
                   <span className="tabular-nums">
                     <Link
                       to={painReportHref(report.id)}
-                      aria-label={`Pain report of ${info.row.original.athleteName}: ${report.painNow} out of 10, ${formatDateTime(report.reportedAt)}`}
+                      aria-label={`Pain report of ${info.row.original.athleteName}, ${report.painNow}/10`}
                     >
                       {report.painNow}/10
                     </Link>{' '}

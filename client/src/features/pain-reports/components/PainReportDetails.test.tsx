@@ -30,12 +30,12 @@ const clinicianCopy: PainReportDto = {
 const told = [{ name: 'Dr Lee', kind: 'red_flag_urgent' }];
 
 describe('the pain-report page', () => {
-  it('shows every answer, yes and no, with its question — and an answer to a question no longer asked under its id', () => {
+  it('shows every answer, yes first, then no, with its question — and an answer to a question no longer asked under its id', () => {
     renderWithProviders(<PainReportDetails detail={{ report: clinicianCopy, told } satisfies PainReportDetailDto} />);
     const answers = screen.getByRole('region', { name: 'Warning-sign answers' });
     expect(within(answers).getByText('Yes to 1 of 3 questions.')).toBeInTheDocument();
     const items = within(answers).getAllByRole('listitem');
-    expect(items.map((li) => li.textContent)).toEqual([`${first.question}No`, `${second.question}▲ Yes`, 'retired_questionNo']);
+    expect(items.map((li) => li.textContent)).toEqual([`${second.question}▲ Yes`, `${first.question}No`, 'retired_questionNo']);
     expect(screen.getByText('Worse after deadlifts, and at night')).toBeInTheDocument();
     expect(screen.getByText(/Dr Lee/).closest('li')).toHaveTextContent('asked as a clinician to review today, with the answers');
     expect(screen.getByText(/contact their clinician today/)).toBeInTheDocument();
@@ -49,7 +49,12 @@ describe('the pain-report page', () => {
     expect(screen.getByText(/for their clinicians only/)).toBeInTheDocument();
   });
 
-  it('orders stored answers by the screen, unknown ids last', () => {
-    expect(answerRows({ zzz: true, [second.id]: false, [first.id]: true }).map((a) => a.id)).toEqual([first.id, second.id, 'zzz']);
+  it('orders stored answers yes first, each group by the screen, unknown ids last', () => {
+    expect(answerRows({ zzz: true, yyy: false, [second.id]: false, [first.id]: true }).map((a) => a.id)).toEqual([
+      first.id,
+      'zzz',
+      second.id,
+      'yyy',
+    ]);
   });
 });

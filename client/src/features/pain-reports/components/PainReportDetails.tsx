@@ -3,7 +3,7 @@ import { BODY_REGION_LABELS } from '../../../../../policies/body-regions';
 import { PATTERN_LABELS } from '../../../../../policies/load/patterns';
 import { Facts, Panel } from '../../../components/ui/Panel';
 import { SeverityMark } from '../../../components/ui/SeverityMark';
-import { formatDate, formatDateTime } from '../../../lib/format';
+import { formatDate } from '../../../lib/format';
 import { ROUTE_OUTCOME, answerRows, toldWords } from './report-reading';
 
 /**
@@ -27,32 +27,13 @@ export function PainReportDetails({ detail }: { detail: PainReportDetailDto }) {
           <p className="text-sm text-muted">Nobody was sent a notice with this report.</p>
         ) : (
           <ul className="mt-1 list-disc space-y-0.5 pl-5 text-sm">
-            {told.map((t) => (
-              <li key={`${t.kind}-${t.name}`} className="break-words">
+            {told.map((t, i) => (
+              <li key={`${t.kind}-${i}`} className="break-words">
                 <span className="font-semibold">{t.name}</span>, {toldWords(t)}
               </li>
             ))}
           </ul>
         )}
-      </Panel>
-
-      <Panel title="The pain">
-        <Facts
-          items={[
-            { label: 'Where', value: report.bodyRegions.map((r) => BODY_REGION_LABELS[r] ?? r).join(', ') },
-            { label: 'Pain now', value: `${report.painNow}/10` },
-            { label: 'Worst in 24 hours', value: `${report.painWorst24h}/10` },
-            { label: 'Started', value: formatDate(report.onsetDate) },
-            { label: 'How it started', value: report.startedInTraining ? 'During training' : 'Outside training' },
-            {
-              label: 'Worse with',
-              value: report.aggravatingPatterns.length
-                ? report.aggravatingPatterns.map((p) => PATTERN_LABELS[p as keyof typeof PATTERN_LABELS] ?? p).join(', ')
-                : 'nothing named',
-            },
-            { label: 'Filed', value: formatDateTime(report.reportedAt) },
-          ]}
-        />
       </Panel>
 
       {answers ? (
@@ -73,6 +54,24 @@ export function PainReportDetails({ detail }: { detail: PainReportDetailDto }) {
           </ol>
         </Panel>
       ) : null}
+
+      <Panel title="The pain">
+        <Facts
+          items={[
+            { label: 'Where', value: report.bodyRegions.map((r) => BODY_REGION_LABELS[r] ?? r).join(', ') },
+            { label: 'Pain now', value: `${report.painNow}/10` },
+            { label: 'Worst in 24 hours', value: `${report.painWorst24h}/10` },
+            { label: 'Began on', value: formatDate(report.onsetDate) },
+            { label: 'How it started', value: report.startedInTraining ? 'During training' : 'Outside training' },
+            {
+              label: 'Worse with',
+              value: report.aggravatingPatterns.length
+                ? report.aggravatingPatterns.map((p) => PATTERN_LABELS[p as keyof typeof PATTERN_LABELS] ?? p).join(', ')
+                : 'nothing named',
+            },
+          ]}
+        />
+      </Panel>
 
       {'note' in report ? (
         <Panel title="In the athlete’s words">

@@ -2,7 +2,8 @@ import type { PainReportDto, PainReportToldDto } from '../../../../../policies/d
 import { RED_FLAG_ITEMS } from '../../../../../policies/red-flags';
 
 /**
- * The warning-sign answers as stored, each with its question looked up by id. The questions may be
+ * The warning-sign answers as stored, each with its question looked up by id: every "yes" first (red
+ * flags first, for triage), then every "no", each group in the screen's order. The questions may be
  * reworded or replaced later; an id no longer on the screen still shows, under its own id, so a
  * clinician never misses an answer the athlete gave.
  */
@@ -10,7 +11,7 @@ export function answerRows(answers: Record<string, boolean>): { id: string; ques
   const known = new Map(RED_FLAG_ITEMS.map((item, i) => [item.id, { question: item.question, order: i }]));
   return Object.entries(answers)
     .map(([id, yes]) => ({ id, yes: yes === true, question: known.get(id)?.question ?? id, order: known.get(id)?.order ?? Infinity }))
-    .sort((a, b) => a.order - b.order || a.id.localeCompare(b.id))
+    .sort((a, b) => Number(b.yes) - Number(a.yes) || a.order - b.order || a.id.localeCompare(b.id))
     .map(({ id, question, yes }) => ({ id, question, yes }));
 }
 
