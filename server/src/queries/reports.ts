@@ -9,7 +9,7 @@ export async function listPainReports(
   db: DataSource | EntityManager,
   ability: AppAbility,
   organizationId: string,
-  where: { athleteId?: string; id?: string },
+  where: { athleteId?: string; id?: string; caseId?: string },
 ): Promise<PainReportDto[]> {
   const acl = accessibleWhere(ability, 'read', 'PainReport', {
     organizationId: 'r.organization_id',
@@ -44,12 +44,19 @@ export async function listPainReports(
     .limit(200);
   if (where.athleteId) qb.andWhere('r.athlete_id = :athleteId', { athleteId: where.athleteId });
   if (where.id) qb.andWhere('r.id = :id', { id: where.id });
+  if (where.caseId) qb.andWhere('r.case_id = :caseId', { caseId: where.caseId });
   const rows = await qb.getRawMany<PainReportDto & { reportedAt: Date }>();
   return rows.map((r) => pickPermitted(ability, 'PainReport', { ...r, reportedAt: new Date(r.reportedAt).toISOString() }) as PainReportDto);
 }
 
 /** The kinds of notice `reportPain` sends with a report (commands/pain-reports.ts). */
-export const PAIN_REPORT_NOTICE_KINDS = ['red_flag_emergency', 'red_flag_urgent', 'status_out', 'red_flag_emergency_guardian', 'pain_report'];
+export const PAIN_REPORT_NOTICE_KINDS = [
+  'red_flag_emergency',
+  'red_flag_urgent',
+  'status_out',
+  'red_flag_emergency_guardian',
+  'pain_report',
+];
 
 /**
  * Who the app told when the report was filed. The notices are written in the report's own transaction,
