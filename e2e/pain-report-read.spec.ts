@@ -77,7 +77,7 @@ async function expectTheWholeReport(page: Page, cast: Cast): Promise<void> {
   await expect(page.getByRole('region', { name: 'What the app did' })).toContainText(DEMO.clinicianPriya.name);
 }
 
-test('Priya reads the whole report from her caseload and a flag, and opens a case from it; Theo (coach) sees no note and no answers', async ({
+test('Priya reads the whole report from her caseload, a flag, a notice and the athlete’s page, and opens a case linked to it; Theo (coach) sees no note and no answers', async ({
   browser,
 }, testInfo) => {
   test.setTimeout(90_000);
@@ -97,6 +97,19 @@ test('Priya reads the whole report from her caseload and a flag, and opens a cas
   await flag.getByRole('link', { name: 'Read the report' }).click();
   await expectTheWholeReport(priya, cast);
 
+  await priya.goto('/notices');
+  const notice = priya.getByRole('listitem').filter({ hasText: `Review today: ${cast.athleteName}` });
+  await notice.getByRole('link', { name: 'Read the report' }).click();
+  await expectTheWholeReport(priya, cast);
+
+  await priya.getByRole('link', { name: `← ${cast.athleteName}` }).click();
+  await expectHome(priya, cast.athleteName);
+  await priya
+    .getByRole('list', { name: `Pain reports of ${cast.athleteName}` })
+    .getByRole('link')
+    .click();
+  await expectTheWholeReport(priya, cast);
+
   await priya.getByRole('button', { name: 'Open a case from this report' }).click();
   const form = priya.getByRole('form', { name: `Open a case for ${cast.athleteName}` });
   await expect(form.getByRole('checkbox', { name: 'Lower back', exact: true })).toBeChecked();
@@ -108,7 +121,8 @@ test('Priya reads the whole report from her caseload and a flag, and opens a cas
   await form.getByRole('button', { name: 'Save case' }).click();
   await expect(priya).toHaveURL(/\/clinician\/cases\/[0-9a-f-]{36}$/);
   const caseUrl = new URL(priya.url()).pathname;
-  await priya.goto(`/pain-reports/${cast.reportId}`);
+  await priya.getByRole('link', { name: /^the pain report of/ }).click();
+  await expectTheWholeReport(priya, cast);
   await expect(priya.getByRole('link', { name: 'open the case' })).toHaveAttribute('href', caseUrl);
   await expect(priya.getByRole('button', { name: 'Open a case from this report' })).toHaveCount(0);
   await priya.context().close();
