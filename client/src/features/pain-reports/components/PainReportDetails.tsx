@@ -41,7 +41,7 @@ export function PainReportDetails({ detail }: { detail: PainReportDetailDto }) {
           <p className="text-sm tabular-nums">
             {yesCount === 0 ? `No to all ${answers.length} questions.` : `Yes to ${yesCount} of ${answers.length} questions.`}
           </p>
-          <ol className="mt-2 divide-y divide-rule border-y border-rule text-sm">
+          <ol className="mt-2 max-w-3xl divide-y divide-rule border-y border-rule text-sm">
             {answers.map((a) => (
               <li key={a.id} className="flex items-start justify-between gap-3 py-2">
                 <span className="min-w-0 break-words">{a.question}</span>
