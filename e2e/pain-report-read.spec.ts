@@ -1,3 +1,4 @@
+import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Browser, type Page, type TestInfo } from '@playwright/test';
 import type { SessionDto } from '../policies/dto';
 import { RED_FLAG_ITEMS } from '../policies/red-flags';
@@ -65,6 +66,12 @@ async function castWithReport(browser: Browser, testInfo: TestInfo): Promise<Cas
   return { athleteName, reportId: filed.report.id, note };
 }
 
+/** Serious or critical WCAG 2.1 A/AA violations axe finds on the page as it stands (as in accessibility.spec.ts). */
+async function seriousAxeViolations(page: Page): Promise<string[]> {
+  const { violations } = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help}`);
+}
+
 async function expectTheWholeReport(page: Page, cast: Cast): Promise<void> {
   await expectHome(page, `Pain report: ${cast.athleteName}`);
   await expect(page).toHaveURL(new RegExp(`/pain-reports/${cast.reportId}$`));
@@ -90,6 +97,7 @@ test('Priya reads the whole report from her caseload, a flag, a notice and the a
   await expectTheWholeReport(priya, cast);
   await expectNoSidewaysScroll(priya);
   await keepScreenshot(priya, testInfo, 'pain-report-clinician');
+  expect(await seriousAxeViolations(priya), 'WCAG 2.1 AA (axe-core) on the clinician’s pain-report page').toEqual([]);
 
   await priya.goto('/staff/flags');
   await expectHome(priya, 'Flags');
@@ -138,5 +146,6 @@ test('Priya reads the whole report from her caseload, a flag, a notice and the a
   await expect(theo.getByText(/for their clinicians only/)).toBeVisible();
   await expect(theo.getByRole('button', { name: 'Open a case from this report' })).toHaveCount(0);
   await keepScreenshot(theo, testInfo, 'pain-report-coach');
+  expect(await seriousAxeViolations(theo), 'WCAG 2.1 AA (axe-core) on the coach’s pain-report page').toEqual([]);
   await theo.context().close();
 });
