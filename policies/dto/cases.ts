@@ -34,6 +34,8 @@ export interface StatusChangeDto {
 }
 export interface CaseDetailDto extends CaseDto {
   statusHistory?: StatusChangeDto[];
+  /** The pain reports this case was opened from or joined by, for readers of pain reports; newest first. */
+  painReports?: { id: string; reportedAt: string }[];
 }
 export interface PlanVersionDto {
   planId: string;
@@ -72,5 +74,5 @@ export interface CaseloadRowDto {
   openCaseCount: number;
   openCaseId: string | null;
   nextReviewDate: string | null;
-  latestPainReport: { reportedAt: string; painNow: number } | null;
+  latestPainReport: { id: string; reportedAt: string; painNow: number } | null;
 }

@@ -19,6 +19,18 @@ export interface PainReportDto {
   note?: string | null;
   redFlags?: Record<string, boolean>;
 }
+/** One person the app told about a report, by the notice they were sent with it. */
+export interface PainReportToldDto {
+  name: string;
+  /** The notice's kind: red_flag_emergency, red_flag_urgent, status_out, red_flag_emergency_guardian or pain_report. */
+  kind: string;
+}
+/** One pain report read on its own page: the report (fields by role) and what the app did with it. */
+export interface PainReportDetailDto {
+  report: PainReportDto;
+  /** Everyone notified when the report was filed, in the same moment; empty when nobody was. */
+  told: PainReportToldDto[];
+}
 export interface PainReportOutcomeDto {
   report: PainReportDto;
   route: 'emergency' | 'urgent' | 'routine';
@@ -84,6 +96,8 @@ export interface FlagDto {
   createdAt: string;
   acknowledgedAt: string | null;
   acknowledgedByName: string | null;
+  /** The pain report that raised this flag, when one did. */
+  painReportId: string | null;
 }
 export interface NotificationDto {
   id: string;
@@ -94,4 +108,6 @@ export interface NotificationDto {
   body: string;
   createdAt: string;
   readAt: string | null;
+  /** The pain report this notice was sent with, when it was. */
+  painReportId: string | null;
 }

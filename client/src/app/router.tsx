@@ -36,6 +36,7 @@ import { AuditPage } from './routes/admin/audit';
 import { OutboxPage } from './routes/admin/outbox';
 import { OrganizationSettingsPage } from './routes/admin/settings';
 import { ClipPage } from './routes/clip';
+import { PainReportPage } from './routes/pain-report';
 import { MyClipsPage, NewClipPage } from './routes/athlete/clips';
 import { MyDocumentsPage } from './routes/athlete/documents';
 
@@ -93,6 +94,8 @@ export const routes = [
           { path: '/athlete/documents', element: <MyDocumentsPage /> },
           // One clip page for everyone who may watch it; the server decides who that is.
           { path: '/clips/:clipId', element: <ClipPage /> },
+          // One pain-report page for the athlete and their care team; the server decides the fields.
+          { path: '/pain-reports/:reportId', element: <PainReportPage /> },
           { path: '/staff/athletes/:athleteId/workload', element: <StaffWorkloadPage /> },
           { path: '/staff/flags', element: <StaffFlagsPage /> },
           { path: '/notices', element: <NoticesPage /> },

@@ -24,6 +24,7 @@ export const queryKeys = {
   // Athlete reports. Each "All" key is the prefix a write invalidates.
   painReportsAll: (orgId: string) => ['orgs', orgId, 'pain-reports'] as const,
   painReports: (orgId: string, athleteId: string) => ['orgs', orgId, 'pain-reports', athleteId] as const,
+  painReport: (orgId: string, id: string) => ['orgs', orgId, 'pain-reports', 'one', id] as const,
   checkInsAll: (orgId: string) => ['orgs', orgId, 'check-ins'] as const,
   checkIns: (orgId: string, athleteId: string, range: { from: string; to: string }) =>
     ['orgs', orgId, 'check-ins', athleteId, range] as const,

@@ -8,6 +8,7 @@ import { authorize } from '../core/authorize';
 import { orgCommand, type OrgCommandCtx } from '../core/command';
 import { AppError } from '../core/errors';
 import { listCases, statusHistory } from '../queries/cases';
+import { listPainReports } from '../queries/reports';
 import { redact } from '../services/audit';
 import { requireMemberWithRole } from '../services/org-members';
 import { updateVersioned } from '../services/versioned';
@@ -270,6 +271,11 @@ export const viewCase = orgCommand({
     authorize(ctx.ability, 'read', 'Case', dto);
     const detail: CaseDetailDto = { ...dto };
     if ('statusNote' in dto) detail.statusHistory = await statusHistory(ctx.m, dto.id);
+    // The way back to the reports behind the case: ids and times only, so this read discloses no narrative.
+    if (ctx.ability.can('read', 'PainReport')) {
+      const reports = await listPainReports(ctx.m, ctx.ability, ctx.actor.organizationId, { caseId: dto.id });
+      detail.painReports = reports.map((r) => ({ id: r.id, reportedAt: r.reportedAt }));
+    }
     if ('clinicalNotes' in dto) {
       await ctx.audit({ action: 'case.viewed', subjectType: 'Case', subjectId: dto.id, athleteId: dto.athleteId });
     }

@@ -94,6 +94,7 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/athletes/:id/in-force  ⇒  member: read RestrictionPlan",
         "POST   /api/orgs/:orgId/pain-reports  ⇒  member: create PainReport",
         "GET    /api/orgs/:orgId/pain-reports  ⇒  member: read PainReport",
+        "GET    /api/orgs/:orgId/pain-reports/:id  ⇒  member: read PainReport",
         "POST   /api/orgs/:orgId/training-logs  ⇒  member: create TrainingLog",
         "GET    /api/orgs/:orgId/training-logs  ⇒  member: read TrainingLog",
         "POST   /api/orgs/:orgId/training-logs/:id/after  ⇒  member: update TrainingLog",

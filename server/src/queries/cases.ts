@@ -149,14 +149,16 @@ async function caseload(db: Db, ability: AppAbility, organizationId: string, dat
     .getRawMany<{ id: string; name: string; dob: string | null; sport: string | null }>();
   const ids = athletes.map((a) => a.id);
   const statuses = await athleteStatuses(db, ids, date);
-  const reports: { athlete_id: string; reported_at: Date; pain_now: number }[] = ids.length
+  const reports: { id: string; athlete_id: string; reported_at: Date; pain_now: number }[] = ids.length
     ? await db.query(
-        `SELECT DISTINCT ON (athlete_id) athlete_id, reported_at, pain_now FROM pain_reports
+        `SELECT DISTINCT ON (athlete_id) id, athlete_id, reported_at, pain_now FROM pain_reports
           WHERE athlete_id = ANY($1) ORDER BY athlete_id, reported_at DESC`,
         [ids],
       )
     : [];
-  const latest = new Map(reports.map((r) => [r.athlete_id, { reportedAt: new Date(r.reported_at).toISOString(), painNow: r.pain_now }]));
+  const latest = new Map(
+    reports.map((r) => [r.athlete_id, { id: r.id, reportedAt: new Date(r.reported_at).toISOString(), painNow: r.pain_now }]),
+  );
   return athletes.map((a) => {
     const st = statuses.get(a.id)!;
     return {

@@ -26,6 +26,7 @@ export const flagsQuery = orgQuery({
         'f.created_at AS "createdAt"',
         'f.acknowledged_at AS "acknowledgedAt"',
         'ku.display_name AS "acknowledgedByName"',
+        `CASE WHEN f.source_type = 'PainReport' THEN f.source_id END AS "painReportId"`,
       ])
       .from('flags', 'f')
       .innerJoin('memberships', 'am', 'am.id = f.athlete_id')

@@ -1,6 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { AppAbility } from '../../../policies/access';
-import type { PainReportDto } from '../../../policies/dto';
+import type { PainReportDto, PainReportToldDto } from '../../../policies/dto';
 import { accessibleWhere } from '../core/accessible';
 import { pickPermitted } from '../services/fields';
 
@@ -9,7 +9,7 @@ export async function listPainReports(
   db: DataSource | EntityManager,
   ability: AppAbility,
   organizationId: string,
-  where: { athleteId?: string; id?: string },
+  where: { athleteId?: string; id?: string; caseId?: string },
 ): Promise<PainReportDto[]> {
   const acl = accessibleWhere(ability, 'read', 'PainReport', {
     organizationId: 'r.organization_id',
@@ -44,6 +44,34 @@ export async function listPainReports(
     .limit(200);
   if (where.athleteId) qb.andWhere('r.athlete_id = :athleteId', { athleteId: where.athleteId });
   if (where.id) qb.andWhere('r.id = :id', { id: where.id });
+  if (where.caseId) qb.andWhere('r.case_id = :caseId', { caseId: where.caseId });
   const rows = await qb.getRawMany<PainReportDto & { reportedAt: Date }>();
   return rows.map((r) => pickPermitted(ability, 'PainReport', { ...r, reportedAt: new Date(r.reportedAt).toISOString() }) as PainReportDto);
+}
+
+/** The kinds of notice `reportPain` sends with a report (commands/pain-reports.ts). */
+export const PAIN_REPORT_NOTICE_KINDS = [
+  'red_flag_emergency',
+  'red_flag_urgent',
+  'status_out',
+  'red_flag_emergency_guardian',
+  'pain_report',
+];
+
+/**
+ * Who the app told when the report was filed. The notices are written in the report's own transaction,
+ * so their `created_at` (PostgreSQL's now(), the transaction's start) equals the report's `reported_at`.
+ */
+export async function toldAboutReport(db: DataSource | EntityManager, reportId: string): Promise<PainReportToldDto[]> {
+  return db.query(
+    `SELECT u.display_name AS name, n.kind
+       FROM pain_reports r
+       JOIN notifications n ON n.athlete_id = r.athlete_id AND n.organization_id = r.organization_id
+                           AND n.created_at = r.reported_at AND n.kind = ANY($2)
+       JOIN memberships m ON m.id = n.recipient_id
+       JOIN users u ON u.id = m.user_id
+      WHERE r.id = $1
+      ORDER BY n.kind, u.display_name`,
+    [reportId, PAIN_REPORT_NOTICE_KINDS],
+  );
 }

@@ -7,7 +7,7 @@ const noFlags = Object.fromEntries(RED_FLAG_ITEMS.map((i) => [i.id, false]));
 
 describe('opening a case from a pain report', () => {
   const h = useHarness();
-  it("links the report to the new case, and refuses another athlete's report", async () => {
+  it("links the report to the new case and the case back to the report, and refuses another athlete's report", async () => {
     const org = await createOrg(h.ds);
     const base = `/api/orgs/${org.id}`;
     const athlete = await signedIn(h.app, org.athlete.email, TEST_PASSWORD);
@@ -41,5 +41,11 @@ describe('opening a case from a pain report', () => {
     expect(created.status).toBe(201);
     const reports = await clin.get(`${base}/pain-reports?athleteId=${org.athlete.membershipId}`);
     expect(reports.body[0].caseId).toBe(created.body.id);
+    // The case links back to its report (ids and times only: no narrative in the case read).
+    const theCase = await clin.get(`${base}/cases/${created.body.id}`);
+    expect(theCase.body.painReports).toEqual([{ id: report.body.report.id, reportedAt: report.body.report.reportedAt }]);
+    const coachCase = await (await signedIn(h.app, org.coach.email, TEST_PASSWORD)).get(`${base}/cases/${created.body.id}`);
+    expect(coachCase.status).toBe(200);
+    expect(coachCase.body.painReports).toEqual([{ id: report.body.report.id, reportedAt: report.body.report.reportedAt }]);
   });
 });

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { NothingSchema, OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
+import { NothingSchema, OrgItemParamsSchema, OrgParamsSchema, PainReportCreateSchema, UuidSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { reportPain } from '../../commands/pain-reports';
-import { viewPainReports } from '../../commands/pain-report-reads';
+import { viewPainReport, viewPainReports } from '../../commands/pain-report-reads';
 
 export const painReportRoutes: RouteDef[] = [
   orgRoute({
@@ -27,5 +27,16 @@ export const painReportRoutes: RouteDef[] = [
     body: NothingSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
     handler: ({ run, query }) => run(viewPainReports, { athleteId: query.athleteId }),
+  }),
+  orgRoute({
+    method: 'get',
+    path: '/orgs/:orgId/pain-reports/:id',
+    summary: 'One pain report and who was told (coaches without the narrative or answers); 404 outside the care team',
+    access: { kind: 'org', action: 'read', subject: 'PainReport' },
+    command: viewPainReport,
+    params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
+    handler: ({ run, params }) => run(viewPainReport, { id: params.id }),
   }),
 ];

@@ -18,7 +18,8 @@ import { Loading, PageHeader, Panel } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { useAppAbility } from '../../../lib/ability';
 import { orgDayOf } from '../../../lib/dates';
-import { formatDate } from '../../../lib/format';
+import { formatDate, formatDateTime } from '../../../lib/format';
+import { painReportHref } from '../../../lib/pain-report-href';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
 import { clinicianAthleteHref } from './paths';
@@ -72,6 +73,11 @@ function CaseScreen({ detail }: { detail: CaseDetailDto }) {
           <span className="tabular-nums">from {formatDate(detail.statusEffectiveFrom)}</span>
           {detail.closedOn && <span className="font-semibold">Closed {formatDate(detail.closedOn)}</span>}
         </span>
+        {detail.painReports?.map((r) => (
+          <span key={r.id} className="mt-1 block">
+            From <Link to={painReportHref(r.id)}>the pain report of {formatDateTime(r.reportedAt)}</Link>
+          </span>
+        ))}
       </PageHeader>
       <ClinicalRecordCaution />
 

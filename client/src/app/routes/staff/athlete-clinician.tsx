@@ -8,6 +8,7 @@ import { OpenCaseForm } from '../../../features/cases/components/OpenCaseForm';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
 import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
 import { ClipsSection } from '../../../features/clips/components/ClipsSection';
+import { PainReportList } from '../../../features/pain-reports/components/PainReportList';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
@@ -94,6 +95,8 @@ function ClinicianSections({ row }: { row: CaseloadRowDto }) {
           )}
         </>
       )}
+
+      <PainReportList orgId={orgId} athleteId={athleteId} athleteName={row.athleteName} />
 
       <InForcePanel orgId={orgId} athleteId={athleteId} unit={user.unitPref} />
 

@@ -7,6 +7,7 @@ import { DataTable } from '../../../components/ui/DataTable';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { Badge } from '../../../components/ui/Panel';
 import { formatDate, formatDateTime } from '../../../lib/format';
+import { painReportHref } from '../../../lib/pain-report-href';
 
 const column = createColumnHelper<CaseloadRowDto>();
 
@@ -83,7 +84,13 @@ export function CaseloadTable({ rows, caption, empty, athleteHref, clinical = fa
                 if (!report) return <span className="text-muted">none yet</span>;
                 return (
                   <span className="tabular-nums">
-                    {report.painNow}/10 <span className="text-muted">· {formatDateTime(report.reportedAt)}</span>
+                    <Link
+                      to={painReportHref(report.id)}
+                      aria-label={`Pain report of ${info.row.original.athleteName}, ${report.painNow}/10`}
+                    >
+                      {report.painNow}/10
+                    </Link>{' '}
+                    <span className="text-muted">· {formatDateTime(report.reportedAt)}</span>
                   </span>
                 );
               },

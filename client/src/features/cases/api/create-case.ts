@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CaseDto } from '../../../../../policies/dto';
 import type { CaseCreateInput } from '../../../../../policies/schemas';
 import { api } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query-keys';
 import { refreshAfterCaseChange } from './get-case';
 
 export function createCase(orgId: string, input: CaseCreateInput): Promise<CaseDto> {
@@ -12,6 +13,10 @@ export function useCreateCase(orgId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: CaseCreateInput) => createCase(orgId, input),
-    onSuccess: () => refreshAfterCaseChange(queryClient, orgId),
+    onSuccess: (_created, input) => {
+      refreshAfterCaseChange(queryClient, orgId);
+      // A case opened from a pain report is now that report's case.
+      if (input.painReportId) void queryClient.invalidateQueries({ queryKey: queryKeys.painReportsAll(orgId) });
+    },
   });
 }

@@ -1,4 +1,5 @@
 import { Controller, useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { CaseCreateSchema } from '../../../../../policies/schemas';
@@ -7,6 +8,8 @@ import { PARTICIPATION_STATUSES, STATUS_LABELS } from '../../../../../policies/l
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { emptyToUndefined } from '../../../lib/form-values';
 import { todayLocal } from '../../../lib/dates';
+import { formatDateTime } from '../../../lib/format';
+import { painReportHref } from '../../../lib/pain-report-href';
 import { Button } from '../../../components/ui/Button';
 import { SelectField, TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice } from '../../../components/ui/Notice';
@@ -24,17 +27,27 @@ export const STATUS_HINTS = {
   full: 'cleared for full training',
 } as const;
 
+/** The pain report a case is opened from: its places and onset fill the form, and the case links to it. */
+export interface CaseFromReport {
+  id: string;
+  reportedAt: string;
+  bodyRegions: Input['bodyRegions'];
+  onsetDate: string;
+}
+
 /** Opens a case with its first participation status; validated by the same schema as the server. */
 export function OpenCaseForm({
   orgId,
   athleteId,
   athleteName,
+  fromReport,
   onCreated,
   onCancel,
 }: {
   orgId: string;
   athleteId: string;
   athleteName: string;
+  fromReport?: CaseFromReport;
   onCreated: (created: CaseDto) => void;
   onCancel: () => void;
 }) {
@@ -48,7 +61,15 @@ export function OpenCaseForm({
     formState: { errors },
   } = useForm<Input, unknown, Output>({
     resolver: zodResolver(CaseCreateSchema),
-    defaultValues: { athleteId, bodyRegions: [], onsetDate: today, statusEffectiveFrom: today },
+    defaultValues: fromReport
+      ? {
+          athleteId,
+          bodyRegions: [...fromReport.bodyRegions],
+          onsetDate: fromReport.onsetDate,
+          statusEffectiveFrom: today,
+          painReportId: fromReport.id,
+        }
+      : { athleteId, bodyRegions: [], onsetDate: today, statusEffectiveFrom: today },
   });
 
   const onSubmit = handleSubmit((values) =>
@@ -61,6 +82,12 @@ export function OpenCaseForm({
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Open a case for ${athleteName}`} className="space-y-4">
       <ErrorNotice error={create.error} />
+      {fromReport && (
+        <p className="text-sm text-ink-2">
+          Filled in from <Link to={painReportHref(fromReport.id)}>the pain report of {formatDateTime(fromReport.reportedAt)}</Link>; the
+          case will link to it. Check the places and the onset date before you open it.
+        </p>
+      )}
       <Controller
         control={control}
         name="bodyRegions"

@@ -22,6 +22,7 @@ const flag = (over: Partial<FlagDto>): FlagDto => ({
   createdAt: '2026-03-05T18:00:00.000Z',
   acknowledgedAt: null,
   acknowledgedByName: null,
+  painReportId: null,
   ...over,
 });
 
@@ -56,5 +57,18 @@ describe('FlagList', () => {
     fireEvent.click(button);
     await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
     expect(String(fetchMock.mock.calls[0][0])).toBe('/api/orgs/org-1/flags/f1/acknowledge');
+  });
+
+  it('a flag raised by a pain report links to the report, outside the text that describes its Acknowledge button', () => {
+    renderWithProviders(
+      <FlagList
+        orgId="org-1"
+        caption="Flags"
+        athleteHref={(id) => `/staff/athletes/${id}/workload`}
+        flags={[flag({ kind: 'pain_report', suggestedAction: null, painReportId: 'r9' }), flag({ id: 'f2' })]}
+      />,
+    );
+    expect(screen.getAllByRole('link', { name: 'Read the report' }).map((a) => a.getAttribute('href'))).toEqual(['/pain-reports/r9']);
+    expect(screen.getAllByRole('button', { name: 'Acknowledge' })[0]).not.toHaveAccessibleDescription(/Read the report/);
   });
 });

@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { FlagDto } from '../../../../../policies/dto';
 import { formatDateTime } from '../../../lib/format';
+import { painReportHref } from '../../../lib/pain-report-href';
 import { Button } from '../../../components/ui/Button';
 import { DataTable } from '../../../components/ui/DataTable';
 import { ErrorNotice } from '../../../components/ui/Notice';
@@ -69,10 +70,17 @@ export function FlagList({
       header: 'What happened',
       enableSorting: false,
       cell: (c) => (
-        <span id={`flag-${c.row.original.id}`}>
-          <span className="block text-xs font-semibold text-ink-2 uppercase">{KIND_WORDS[c.row.original.kind]}</span>
-          {c.getValue()}
-        </span>
+        <>
+          <span id={`flag-${c.row.original.id}`}>
+            <span className="block text-xs font-semibold text-ink-2 uppercase">{KIND_WORDS[c.row.original.kind]}</span>
+            {c.getValue()}
+          </span>
+          {c.row.original.painReportId && (
+            <Link to={painReportHref(c.row.original.painReportId)} className="mt-1 block text-sm font-semibold whitespace-nowrap">
+              Read the report
+            </Link>
+          )}
+        </>
       ),
     }),
     column.display({ id: 'action', header: 'Suggested action', cell: (c) => suggestedAction(c.row.original) }),

@@ -22,6 +22,7 @@ const NOTICES: NotificationDto[] = [
     body: 'She has been told to get urgent care and is set to Out.',
     createdAt: '2026-03-05T18:00:00.000Z',
     readAt: null,
+    painReportId: null,
   },
   {
     id: 'n2',
@@ -32,6 +33,7 @@ const NOTICES: NotificationDto[] = [
     body: 'Lower back, 4/10.',
     createdAt: '2026-03-04T18:00:00.000Z',
     readAt: '2026-03-04T19:00:00.000Z',
+    painReportId: null,
   },
 ];
 
@@ -54,5 +56,10 @@ describe('notices', () => {
     await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
     expect(String(fetchMock.mock.calls[0][0])).toBe('/api/orgs/org-1/notifications/read-all');
     expect(fetchMock.mock.calls[0][1]?.method).toBe('POST');
+  });
+
+  it('a notice sent with a pain report links to that report; others do not', () => {
+    renderWithProviders(<NoticeList orgId="org-1" notices={[{ ...NOTICES[0], painReportId: 'r1' }, NOTICES[1]]} />);
+    expect(screen.getAllByRole('link', { name: 'Read the report' }).map((a) => a.getAttribute('href'))).toEqual(['/pain-reports/r1']);
   });
 });

@@ -1,5 +1,7 @@
+import { Link } from 'react-router-dom';
 import type { NotificationDto } from '../../../../../policies/dto';
 import { formatDateTime } from '../../../lib/format';
+import { painReportHref } from '../../../lib/pain-report-href';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { SeverityMark } from '../../../components/ui/SeverityMark';
@@ -61,6 +63,11 @@ export function NoticeList({
               </div>
               <h2 className="mt-1 text-base font-bold">{n.title}</h2>
               <p className="mt-1 text-sm whitespace-pre-line">{n.body}</p>
+              {n.painReportId && (
+                <p className="mt-2 text-sm font-semibold">
+                  <Link to={painReportHref(n.painReportId)}>Read the report</Link>
+                </p>
+              )}
               {n.severity === 'emergency' && emergencyNumber && (
                 <p className="mt-2 text-sm font-semibold">
                   Emergency number:{' '}
