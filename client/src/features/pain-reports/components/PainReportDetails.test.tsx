@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { screen, within } from '@testing-library/react';
 import type { PainReportDetailDto, PainReportDto } from '../../../../../policies/dto';
-import { RED_FLAG_ITEMS } from '../../../../../policies/red-flags';
+import { RED_FLAG_ITEMS, redFlagQuestion } from '../../../../../policies/red-flags';
 import { renderWithProviders } from '../../../test/render';
 import { PainReportDetails } from './PainReportDetails';
 import { answerRows } from './report-reading';
@@ -25,7 +25,7 @@ const [first, second] = RED_FLAG_ITEMS;
 const clinicianCopy: PainReportDto = {
   ...coachCopy,
   note: 'Worse after deadlifts, and at night',
-  redFlags: { [first.id]: false, [second.id]: true, retired_question: false },
+  redFlags: { [first.id]: false, [second.id]: true, both_legs: false, retired_question: false },
 };
 const told = [{ name: 'Dr Lee', kind: 'red_flag_urgent' }];
 
@@ -33,9 +33,15 @@ describe('the pain-report page', () => {
   it('shows every answer, yes first, then no, with its question — and an answer to a question no longer asked under its id', () => {
     renderWithProviders(<PainReportDetails detail={{ report: clinicianCopy, told } satisfies PainReportDetailDto} />);
     const answers = screen.getByRole('region', { name: 'Warning-sign answers' });
-    expect(within(answers).getByText('Yes to 1 of 3 questions.')).toBeInTheDocument();
+    expect(within(answers).getByText('Yes to 1 of 4 questions.')).toBeInTheDocument();
     const items = within(answers).getAllByRole('listitem');
-    expect(items.map((li) => li.textContent)).toEqual([`${second.question}▲ Yes`, `${first.question}No`, 'retired_questionNo']);
+    // A retired question (the old "both legs" wording) reads in its own words; an id never asked, as itself.
+    expect(items.map((li) => li.textContent)).toEqual([
+      `${second.question}▲ Yes`,
+      `${first.question}No`,
+      `${redFlagQuestion('both_legs')!.question}No`,
+      'retired_questionNo',
+    ]);
     expect(screen.getByText('Worse after deadlifts, and at night')).toBeInTheDocument();
     expect(screen.getByText(/Dr Lee/).closest('li')).toHaveTextContent('asked as a clinician to review today, with the answers');
     expect(screen.getByText(/contact their clinician today/)).toBeInTheDocument();

@@ -1,5 +1,5 @@
 import type { PainReportDto, PainReportToldDto } from '../../../../../policies/dto';
-import { RED_FLAG_ITEMS } from '../../../../../policies/red-flags';
+import { RED_FLAG_ITEMS, redFlagQuestion } from '../../../../../policies/red-flags';
 
 /**
  * The warning-sign answers as stored, each with its question looked up by id: every "yes" first (red
@@ -8,11 +8,14 @@ import { RED_FLAG_ITEMS } from '../../../../../policies/red-flags';
  * clinician never misses an answer the athlete gave.
  */
 export function answerRows(answers: Record<string, boolean>): { id: string; question: string; yes: boolean }[] {
-  const known = new Map(RED_FLAG_ITEMS.map((item, i) => [item.id, { question: item.question, order: i }]));
-  return Object.entries(answers)
-    .map(([id, yes]) => ({ id, yes: yes === true, question: known.get(id)?.question ?? id, order: known.get(id)?.order ?? Infinity }))
-    .sort((a, b) => Number(b.yes) - Number(a.yes) || a.order - b.order || a.id.localeCompare(b.id))
-    .map(({ id, question, yes }) => ({ id, question, yes }));
+  const order = new Map(RED_FLAG_ITEMS.map((item, i) => [item.id, i]));
+  return (
+    Object.entries(answers)
+      // redFlagQuestion also knows retired questions (e.g. the old "both legs" wording), in their own words.
+      .map(([id, yes]) => ({ id, yes: yes === true, question: redFlagQuestion(id)?.question ?? id, order: order.get(id) ?? Infinity }))
+      .sort((a, b) => Number(b.yes) - Number(a.yes) || a.order - b.order || a.id.localeCompare(b.id))
+      .map(({ id, question, yes }) => ({ id, question, yes }))
+  );
 }
 
 /** What the athlete was told on screen, by the route the app gave the report. */
