@@ -5,8 +5,8 @@ import { loadActors } from './actor';
 
 /**
  * Refusals in the audit trail (ASVS 5.0 V16.3.2: failed authorization; V16.3.1: authentication
- * events), summarised so that one caller cannot grow the trail without bound (V16.3.4 keeps the log
- * usable under attack).
+ * events), summarised so that one caller cannot grow the trail without bound and the log stays
+ * usable under attack.
  *
  * The trail is append-only and hash-chained, so an entry's count cannot be raised afterwards. So:
  * the first refusal per trail, actor, action, route and minute is written at once (with its request
