@@ -1,4 +1,5 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
+import { PgRateLimitStore } from './rate-limit-store';
 import pino from 'pino';
 import { buildApp } from '../app';
 import { Client, useHarness } from '../test/harness';
@@ -33,5 +34,24 @@ describe('sign-in limits are counted in PostgreSQL, across app processes', () =>
     const rows: { key: string }[] = await h.ds.query(`SELECT key FROM rate_limit_counters`);
     expect(rows.length).toBeGreaterThan(0);
     for (const r of rows) expect(r.key).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it('a process whose clock runs a year ahead does not sweep away the windows others are counting in', async () => {
+    const counting = new PgRateLimitStore(h.ds, `clock-test-${Date.now()}`);
+    counting.init({ windowMs: 60_000 } as Parameters<PgRateLimitStore['init']>[0]);
+    await counting.increment('someone');
+    const ahead = new PgRateLimitStore(h.ds, `clock-ahead-${Date.now()}`);
+    ahead.init({ windowMs: 60_000 } as Parameters<PgRateLimitStore['init']>[0]);
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(Date.now() + 365 * 24 * 3_600_000);
+    const random = vi.spyOn(Math, 'random').mockReturnValue(0); // every increment sweeps
+    try {
+      await ahead.increment('anyone');
+      await new Promise((r) => setTimeout(r, 200)); // the sweep runs after the increment answers
+    } finally {
+      random.mockRestore();
+      vi.useRealTimers();
+    }
+    expect((await counting.get('someone'))?.totalHits).toBe(1);
   });
 });
