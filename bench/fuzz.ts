@@ -188,7 +188,7 @@ async function main() {
     const config = loadConfig(env);
     const seedDs = createDataSource(db.url, 2);
     await seedDs.initialize();
-    const { organizationId: orgId } = await loadDemo(seedDs, 4, createStorage(config));
+    const { organizationId: orgId } = await loadDemo(seedDs, { config, bcryptCost: 4, storage: createStorage(config) });
 
     // Real ids, so well-formed requests reach the handlers and the database.
     const idsOf: Record<string, string[]> = {};

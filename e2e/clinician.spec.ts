@@ -1,5 +1,5 @@
 import { expect, test, type BrowserContext, type Page } from '@playwright/test';
-import { DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
+import { CLEAN, DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
 import {
   BROWSER_ZONE,
   contextOptions,
@@ -14,18 +14,18 @@ import {
 
 /**
  * Cases and restriction plans end to end, against the demo scenario: Priya (clinician) opens a case
- * for Maya and writes a two-stage plan, edits it, and each other role reads what it may — the coach
- * the functional limits, Maya and her guardian the plain words, the admin the audit trail — and
+ * for Nora and writes a two-stage plan, edits it, and each other role reads what it may — the coach
+ * the functional limits, Nora and her guardian the plain words, the admin the audit trail — and
  * nobody but clinicians ever sees the clinical notes or the working diagnosis. Last, two tabs save
  * the same plan and the second is told it is stale.
  *
  * The steps build on each other (one case, one plan), so they run in order and stop at the first
- * failure. They run on the desktop project only: the plan editor is a staff screen, Maya's own view
- * is opened on a 375 px phone inside the flow, and every sign-in costs a bcrypt check. Maya's case is
+ * failure. They run on the desktop project only: the plan editor is a staff screen, Nora's own view
+ * is opened on a 375 px phone inside the flow, and every sign-in costs a bcrypt check. Nora's case is
  * new to this spec; no other spec touches her cases or plans.
  */
 
-test.skip(({ isMobile }) => isMobile, 'one flow over shared records; Maya’s phone view is opened inside it');
+test.skip(({ isMobile }) => isMobile, 'one flow over shared records; Nora’s phone view is opened inside it');
 test.use({ timezoneId: BROWSER_ZONE });
 
 const SECRET_NOTE = 'E2E-SECRET-NOTE';
@@ -53,16 +53,16 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     await priyaContext?.close();
   });
 
-  test('Priya opens a case for Maya and writes a two-stage plan', async () => {
+  test('Priya opens a case for Nora and writes a two-stage plan', async () => {
     test.setTimeout(45_000);
     await signIn(priya, DEMO.clinicianPriya.email);
     await expectHome(priya, HOME_HEADING.clinician);
-    await priya.getByRole('link', { name: DEMO.maya.name, exact: true }).click();
-    await expectHome(priya, DEMO.maya.name);
+    await priya.getByRole('link', { name: CLEAN.nora.name, exact: true }).click();
+    await expectHome(priya, CLEAN.nora.name);
     await expect(priya).toHaveURL(/\/clinician\/athletes\/[0-9a-f-]{36}$/);
 
     await priya.getByRole('button', { name: 'Open a case' }).click();
-    const form = priya.getByRole('form', { name: `Open a case for ${DEMO.maya.name}` });
+    const form = priya.getByRole('form', { name: `Open a case for ${CLEAN.nora.name}` });
     await form.getByRole('checkbox', { name: 'Lower back', exact: true }).check();
     await form.getByLabel('Onset date').fill(isoDay(-3));
     await form.getByLabel('Working diagnosis (clinicians only)').fill(DIAGNOSIS);
@@ -147,12 +147,12 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     await expect(change).toContainText('55');
   });
 
-  test('Theo, Maya’s coach, sees her status and limits but no clinical words', async ({ page }, testInfo) => {
+  test('Theo, Nora’s coach, sees her status and limits but no clinical words', async ({ page }, testInfo) => {
     const sent = recordApiBodies(page);
     await signIn(page, DEMO.coachTheo.email);
     await expectHome(page, HOME_HEADING.coach);
-    await page.getByRole('link', { name: DEMO.maya.name, exact: true }).click();
-    await expectHome(page, DEMO.maya.name);
+    await page.getByRole('link', { name: CLEAN.nora.name, exact: true }).click();
+    await expectHome(page, CLEAN.nora.name);
 
     const status = page.getByRole('region', { name: 'Status', exact: true });
     await expect(status.getByRole('img', { name: /^Participation status: Limited/ })).toBeVisible();
@@ -178,42 +178,42 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     await keepScreenshot(page, testInfo, 'coach-athlete-limited');
   });
 
-  test('Maya on her phone and Elena, her guardian, read the status and limits in plain words', async ({ page, browser }, testInfo) => {
-    const maya = await newPhonePage(browser, testInfo);
+  test('Nora on her phone and Ruth, her guardian, read the status and limits in plain words', async ({ page, browser }, testInfo) => {
+    const nora = await newPhonePage(browser, testInfo);
     try {
-      const sent = recordApiBodies(maya);
-      await signIn(maya, DEMO.maya.email);
-      await expectHome(maya, HOME_HEADING.athlete);
-      const mine = maya.getByRole('region', { name: 'My status' });
+      const sent = recordApiBodies(nora);
+      await signIn(nora, CLEAN.nora.email);
+      await expectHome(nora, HOME_HEADING.athlete);
+      const mine = nora.getByRole('region', { name: 'My status' });
       await expect(mine.getByRole('img', { name: /^Participation status: Limited/ })).toBeVisible();
       await expect(mine).toContainText(`You have been Limited since`);
-      const today = maya.getByRole('region', { name: 'What you may do today' });
+      const today = nora.getByRole('region', { name: 'What you may do today' });
       await expect(today).toContainText('Hinge: up to 55% of your best lift, effort RPE 7 or easier');
       await expect(today).toContainText('Jump / landing: not allowed for now');
       await expect(today).toContainText('Stop a session and tell your clinician if pain rises past 4/10.');
       await expect(today).toContainText(GUIDANCE);
-      await expectNoSidewaysScroll(maya);
-      const text = await pageText(maya);
+      await expectNoSidewaysScroll(nora);
+      const text = await pageText(nora);
       expect(text).not.toContain(SECRET_NOTE);
       expect(text).not.toContain(DIAGNOSIS);
       const bodies = await sent();
       expect(bodies, 'the recorded responses include the plan in force').toContain(GUIDANCE);
       expect(bodies).not.toContain(SECRET_NOTE);
       expect(bodies).not.toContain(DIAGNOSIS);
-      await keepScreenshot(maya, testInfo, 'athlete-limited-phone');
+      await keepScreenshot(nora, testInfo, 'athlete-limited-phone');
     } finally {
-      await maya.context().close();
+      await nora.context().close();
     }
 
     const sent = recordApiBodies(page);
-    await signIn(page, DEMO.elena.email);
+    await signIn(page, CLEAN.ruth.email);
     await expectHome(page, HOME_HEADING.guardian);
-    const ward = page.getByRole('region', { name: "Maya's status" });
+    const ward = page.getByRole('region', { name: "Nora's status" });
     await expect(ward.getByRole('img', { name: /^Participation status: Limited/ })).toBeVisible();
-    await expect(ward).toContainText('Maya has been Limited since');
-    const wardToday = page.getByRole('region', { name: 'What Maya may do today' });
+    await expect(ward).toContainText('Nora has been Limited since');
+    const wardToday = page.getByRole('region', { name: 'What Nora may do today' });
     await expect(wardToday).toContainText('Hinge: up to 55% of your best lift');
-    await expect(wardToday).toContainText('Maya should stop a session and tell the clinician if pain rises past 4/10.');
+    await expect(wardToday).toContainText('Nora should stop a session and tell the clinician if pain rises past 4/10.');
     const text = await pageText(page);
     expect(text).not.toContain(SECRET_NOTE);
     expect(text).not.toContain(DIAGNOSIS);
@@ -231,13 +231,13 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     const entries = page.getByRole('region', { name: 'Audit entries' });
 
     for (const action of ['case.opened', 'plan.revised']) {
-      await filters.getByLabel('Athlete').selectOption({ label: DEMO.maya.name });
+      await filters.getByLabel('Athlete').selectOption({ label: CLEAN.nora.name });
       await filters.getByLabel('Action').fill(action);
       await filters.getByRole('button', { name: 'Apply filters' }).click();
       const rows = entries.getByRole('row').filter({ hasText: action });
       await expect(rows.first()).toBeVisible();
       await expect(rows.first()).toContainText(DEMO.clinicianPriya.name);
-      await expect(rows.first()).toContainText(DEMO.maya.name);
+      await expect(rows.first()).toContainText(CLEAN.nora.name);
       // Every row shown is the action filtered for.
       await expect(entries.getByRole('row')).toHaveCount((await rows.count()) + 1);
       // The before-and-after blocks are in the page even while folded away.

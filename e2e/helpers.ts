@@ -20,6 +20,15 @@ export const DEMO = {
   wei: { email: at('wei.chen'), name: 'Wei Chen' },
 } as const;
 
+/**
+ * Athletes with nothing under way (server/src/test/e2e-athletes.ts, loaded by scripts/test.ts), for
+ * browser tests that walk a story from its start: the demo's own athletes are mid-season.
+ */
+export const CLEAN = {
+  nora: { email: at('nora.ellis'), name: 'Nora Ellis' },
+  ruth: { email: at('ruth.ellis'), name: 'Ruth Ellis' },
+} as const;
+
 /** The heading each role's home opens with. */
 export const HOME_HEADING = {
   admin: 'People',

@@ -1,13 +1,13 @@
 import { expect, test, type BrowserContext, type Page } from '@playwright/test';
 import pg from 'pg';
 import { describeDate } from '../policies/load/describe';
-import { DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
+import { CLEAN, DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
 import { checkAnswer, downloadFrom, downloadHead, lettersSection, signDraftLetter, writeDraftLetter } from './letters-helpers';
 import { BROWSER_ZONE, contextOptions, isoDay, pageText, recordApiBodies } from './plan-helpers';
 
 /**
  * Clearance letters end to end, against the demo scenario, the job queue and the fake SMTP server:
- * Priya (clinician) writes, previews and signs a letter for Maya and watches it go out; Elena, her
+ * Priya (clinician) writes, previews and signs a letter for Nora and watches it go out; Ruth, her
  * guardian, downloads and acknowledges it; anyone holding the code checks it signed out, and sees
  * only initials, dates and the organization; a second letter from tomorrow leaves the first in force
  * until its start date, then supersedes it (the date moved in the database); Dana (admin) finds
@@ -16,7 +16,7 @@ import { BROWSER_ZONE, contextOptions, isoDay, pageText, recordApiBodies } from 
  * The steps build on each other (the codes, the first letter), so they run in order and stop at the
  * first failure. Desktop only: the letter editor is a staff screen and every sign-in costs a bcrypt
  * check. This spec runs last (specs run alphabetically in one database) and is the only one that
- * writes letters; Maya's open case from clinician.spec is left as it is.
+ * writes letters; Nora's open case from clinician.spec is left as it is.
  */
 
 test.skip(({ isMobile }) => isMobile, 'one flow over shared records; the guardian’s screen is independent of size here');
@@ -28,7 +28,7 @@ const FAMILY_NOTE = 'E2E-FAMILY-NOTE: build back to full games over two weeks.';
 const SIGNATURE = 'Priya Raman';
 /** Only Crockford base32 characters (no I, L, O, U), so it is well formed, but no letter has it. */
 const MADE_UP_CODE = 'AAAA-AAAA-AAAA-AAAA-AAAA';
-/** From clinician.spec: the working diagnosis of Maya's case, which no letter or check may show. */
+/** From clinician.spec: the working diagnosis of Nora's case, which no letter or check may show. */
 const CLINICAL_WORD = 'Lumbar';
 
 /** Time passing, for one letter: its start date moves a day earlier in the database scripts/test.ts points us at. */
@@ -60,17 +60,17 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     await priyaContext?.close();
   });
 
-  test('Priya writes a Full participation letter for Maya, previews it, signs it, and it is e-mailed', async () => {
+  test('Priya writes a Full participation letter for Nora, previews it, signs it, and it is e-mailed', async () => {
     test.setTimeout(60_000);
     await signIn(priya, DEMO.clinicianPriya.email);
     await expectHome(priya, HOME_HEADING.clinician);
-    await priya.getByRole('link', { name: DEMO.maya.name, exact: true }).click();
-    await expectHome(priya, DEMO.maya.name);
+    await priya.getByRole('link', { name: CLEAN.nora.name, exact: true }).click();
+    await expectHome(priya, CLEAN.nora.name);
     await expect(priya).toHaveURL(/\/clinician\/athletes\/[0-9a-f-]{36}$/);
     athleteUrl = new URL(priya.url()).pathname;
 
     await expect(lettersSection(priya)).toContainText('No clearance letter yet.');
-    const draft = await writeDraftLetter(priya, DEMO.maya.name, {
+    const draft = await writeDraftLetter(priya, CLEAN.nora.name, {
       decision: 'Full participation',
       from: isoDay(0),
       validUntil: isoDay(60),
@@ -92,7 +92,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     const code = await signDraftLetter(priya, draft, SIGNATURE);
     firstCode = code;
     const notice = lettersSection(priya).getByRole('status').filter({ hasText: 'Verification code' });
-    await expect(notice).toContainText(`Letter for ${DEMO.maya.name} signed.`);
+    await expect(notice).toContainText(`Letter for ${CLEAN.nora.name} signed.`);
     await keepScreenshot(priya, test.info(), 'letter-signed-code');
     await notice.getByRole('button', { name: 'I have noted the code' }).click();
     await expect(notice).toHaveCount(0);
@@ -107,19 +107,19 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     await expect(letter).toContainText('ATC · licence AT-12345');
     // The guardian, the athlete and her coach each get it; the list asks again every 4 s until sent.
     const to = (email: string) => letter.getByRole('listitem').filter({ hasText: email });
-    await expect(to(DEMO.elena.email)).toContainText('Sent', { timeout: 30_000 });
-    await expect(to(DEMO.maya.email)).toHaveCount(1);
+    await expect(to(CLEAN.ruth.email)).toContainText('Sent', { timeout: 30_000 });
+    await expect(to(CLEAN.nora.email)).toHaveCount(1);
     await expect(to(DEMO.coachTheo.email)).toHaveCount(1);
     await expect(letter).toContainText('No guardian has acknowledged it yet.');
   });
 
-  test('Elena, Maya’s guardian, downloads the letter and says she has read it', async ({ page }) => {
+  test('Ruth, Nora’s guardian, downloads the letter and says she has read it', async ({ page }) => {
     expect(firstCode, 'the letter from the first step').not.toBe('');
-    await signIn(page, DEMO.elena.email);
+    await signIn(page, CLEAN.ruth.email);
     await expectHome(page, HOME_HEADING.guardian);
     const letters = page.getByRole('region', { name: 'Letters', exact: true });
-    const letter = letters.getByRole('article', { name: 'Clearance letter for Maya' });
-    await expect(letter).toContainText('Maya: full participation');
+    const letter = letters.getByRole('article', { name: 'Clearance letter for Nora' });
+    await expect(letter).toContainText('Nora: full participation');
     await expect(letter).toContainText(FAMILY_NOTE);
     await expect(letter.getByRole('img', { name: /^Letter status: Signed/ })).toBeVisible();
 
@@ -132,7 +132,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     await expect(letter.getByRole('button', { name: 'I have read this letter' })).toHaveCount(0);
     // Kept by the server, not only on screen.
     await page.reload();
-    await expect(letters.getByRole('article', { name: 'Clearance letter for Maya' }).getByRole('status')).toContainText('Acknowledged on');
+    await expect(letters.getByRole('article', { name: 'Clearance letter for Nora' }).getByRole('status')).toContainText('Acknowledged on');
   });
 
   test('signed out, the code checks as Valid with initials and the organization only; a made-up code is Not found', async ({
@@ -156,7 +156,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
       const text = await pageText(page);
       const bodies = await sent();
       expect(bodies, 'the recorded responses include the check').toContain(ORG_NAME);
-      for (const secret of [CLINICAL_WORD, FAMILY_NOTE, 'E2E-FAMILY-NOTE', DEMO.maya.name, 'Torres', 'AT-12345']) {
+      for (const secret of [CLINICAL_WORD, FAMILY_NOTE, 'E2E-FAMILY-NOTE', CLEAN.nora.name, 'Ellis', 'AT-12345']) {
         expect(text).not.toContain(secret);
         expect(bodies).not.toContain(secret);
       }
@@ -179,14 +179,14 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
 
   test('a second letter from tomorrow leaves the first in force until tomorrow, then supersedes it', async ({ browser }, testInfo) => {
     test.setTimeout(60_000);
-    expect(athleteUrl, 'Maya’s page from the first step').not.toBe('');
+    expect(athleteUrl, 'Nora’s page from the first step').not.toBe('');
     await priya.goto(athleteUrl);
-    await expectHome(priya, DEMO.maya.name);
+    await expectHome(priya, CLEAN.nora.name);
     const section = lettersSection(priya);
     const first = section.getByRole('article').filter({ has: priya.getByRole('img', { name: /^Letter status: Signed/ }) });
-    await expect(first).toContainText(`Acknowledged by ${DEMO.elena.name}`);
+    await expect(first).toContainText(`Acknowledged by ${CLEAN.ruth.name}`);
 
-    const draft = await writeDraftLetter(priya, DEMO.maya.name, { decision: 'Full participation', from: isoDay(1) });
+    const draft = await writeDraftLetter(priya, CLEAN.nora.name, { decision: 'Full participation', from: isoDay(1) });
     // The signer's credential and licence come from her last letter.
     const edit = draft.getByRole('form', { name: 'Edit the draft letter' });
     await expect(edit.getByLabel('Credential', { exact: true })).toHaveValue('ATC');
@@ -205,7 +205,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     await expect(inForce().getByRole('heading')).toContainText(`from ${describeDate(isoDay(0))}`);
     await expect(section.getByText(/Earlier letters, superseded/)).toHaveCount(0);
     // Wait for this letter's e-mail too, so the Outbox step finds both.
-    await expect(next.getByRole('listitem').filter({ hasText: DEMO.elena.email })).toContainText('Sent', { timeout: 30_000 });
+    await expect(next.getByRole('listitem').filter({ hasText: CLEAN.ruth.email })).toContainText('Sent', { timeout: 30_000 });
     const secondId = (await next.getByRole('link', { name: 'Download the letter (PDF)' }).getAttribute('href'))?.match(
       /letters\/([0-9a-f-]{36})\/pdf$/,
     )?.[1];
@@ -224,7 +224,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
       // A day on: the second letter has started, so it is in force and the first is superseded.
       await startOneDayEarlier(secondId!);
       await priya.reload();
-      await expectHome(priya, DEMO.maya.name);
+      await expectHome(priya, CLEAN.nora.name);
       await expect(inForce()).toHaveCount(1);
       await expect(inForce().getByRole('link', { name: 'Download the letter (PDF)' })).toHaveAttribute(
         'href',
@@ -245,28 +245,28 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
     }
   });
 
-  test('Dana, the admin, finds the letter e-mails to Elena with their PDFs in the Outbox', async ({ page }, testInfo) => {
+  test('Dana, the admin, finds the letter e-mails to Ruth with their PDFs in the Outbox', async ({ page }, testInfo) => {
     await signIn(page, DEMO.admin.email);
     await expectHome(page, HOME_HEADING.admin);
     await page.getByRole('navigation', { name: 'Administration' }).getByRole('link', { name: 'Outbox' }).click();
     await expectHome(page, 'Outbox');
     const messages = page.getByRole('list', { name: 'Messages, newest first' });
-    const toElena = messages
+    const toRuth = messages
       .getByRole('article')
-      .filter({ hasText: `Clearance letter for ${DEMO.maya.name}` })
-      .filter({ hasText: DEMO.elena.email });
+      .filter({ hasText: `Clearance letter for ${CLEAN.nora.name}` })
+      .filter({ hasText: CLEAN.ruth.email });
     // One e-mail per signed letter: the first and the second.
-    await expect(toElena).toHaveCount(2);
-    await expect(toElena.first()).toContainText(`clearance-letter-${isoDay(1)}.pdf`);
-    await expect(toElena.last()).toContainText(`clearance-letter-${isoDay(0)}.pdf`);
-    for (const message of await toElena.all()) await expect(message).toContainText('application/pdf');
+    await expect(toRuth).toHaveCount(2);
+    await expect(toRuth.first()).toContainText(`clearance-letter-${isoDay(1)}.pdf`);
+    await expect(toRuth.last()).toContainText(`clearance-letter-${isoDay(0)}.pdf`);
+    for (const message of await toRuth.all()) await expect(message).toContainText('application/pdf');
 
     // The delivery record says the same: both sent.
     const deliveries = page
       .getByRole('table', { name: 'E-mail deliveries' })
       .getByRole('row')
-      .filter({ hasText: DEMO.elena.email })
-      .filter({ hasText: `Clearance letter for ${DEMO.maya.name}` });
+      .filter({ hasText: CLEAN.ruth.email })
+      .filter({ hasText: `Clearance letter for ${CLEAN.nora.name}` });
     await expect(deliveries).toHaveCount(2);
     for (const row of await deliveries.all()) await expect(row).toContainText('Sent');
     await keepScreenshot(page, testInfo, 'admin-outbox');

@@ -14,11 +14,6 @@ import { startFakeSmtp } from '../server/src/mail/fake-smtp';
 const db = await openDatabase('loadline', false);
 process.on('exit', () => db.cluster?.stop());
 await migrate(db.ownerUrl, db.url);
-const seedDs = createDataSource(db.url, 2);
-await seedDs.initialize();
-await loadDemo(seedDs);
-await seedDs.destroy();
-
 const fake = process.env.SMTP_URL ? null : await startFakeSmtp(db.url, 0);
 const config = loadConfig({
   ...process.env,
@@ -28,6 +23,10 @@ const config = loadConfig({
   AUDIT_SEAL_KEY: auditSealKey(),
   CLIENT_DIST: '/nonexistent',
 });
+const seedDs = createDataSource(db.url, 2);
+await seedDs.initialize();
+await loadDemo(seedDs, { config, mail: fake !== null });
+await seedDs.destroy();
 const api = await startServer(config, createLogger(config.LOG_LEVEL));
 const { createServer } = await import('vite');
 process.env.API_PORT = String(new URL(api.url).port);

@@ -29,19 +29,6 @@ process.on('exit', stopDb);
 try {
   const ran = await migrate(db.ownerUrl, db.url);
   if (ran.length) console.log(`[db] migrations applied: ${ran.join(', ')}`);
-  const seedDs = createDataSource(db.url, 2);
-  await seedDs.initialize();
-  // The demo's referral note goes to the same storage the server will use (local folder or S3).
-  const demo = await loadDemo(
-    seedDs,
-    12,
-    createStorage(loadConfig({ ...process.env, DATABASE_URL: db.url, SESSION_SECRET: sessionSecret() })),
-  );
-  await seedDs.destroy();
-  console.log(demo.created ? '[demo] demo scenario loaded' : '[demo] demo scenario already present (unchanged)');
-  console.log('[client] building…');
-  await buildClient();
-
   // Without SMTP_URL, mail goes to our local fake SMTP server (loopback) and the admin's outbox page.
   let fake: FakeSmtp | null = null;
   if (!process.env.SMTP_URL) fake = await startFakeSmtp(db.url, Number(process.env.LOADLINE_SMTP_PORT ?? 0));
@@ -54,6 +41,17 @@ try {
     SESSION_SECRET: sessionSecret(),
     AUDIT_SEAL_KEY: auditSealKey(),
   });
+
+  const seedDs = createDataSource(db.url, 2);
+  await seedDs.initialize();
+  // The demo's referral note goes to the same storage the server will use (local folder or S3); its
+  // story's e-mails are queued only for the local fake mail server, never for a real one.
+  const demo = await loadDemo(seedDs, { config, storage: createStorage(config), mail: fake !== null });
+  await seedDs.destroy();
+  console.log(demo.created ? '[demo] demo scenario loaded' : '[demo] demo scenario already present (unchanged)');
+  console.log('[client] building…');
+  await buildClient();
+
   const logger = createLogger(config.LOG_LEVEL);
   const running = await startServer(config, logger);
 

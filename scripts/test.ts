@@ -16,6 +16,7 @@ import { createLogger } from '../server/src/logger';
 import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { loadDemo } from '../server/src/seed/demo';
+import { addCleanAthletes } from '../server/src/test/e2e-athletes';
 import { ROOT, buildClient, migrate, openDatabase } from './runtime';
 import { startFakeSmtp } from '../server/src/mail/fake-smtp';
 
@@ -86,10 +87,6 @@ try {
     const db = await openDatabase('loadline_e2e', true);
     cluster ??= db.cluster;
     await migrate(db.ownerUrl, db.url);
-    const seedDs = createDataSource(db.url, 2);
-    await seedDs.initialize();
-    await loadDemo(seedDs);
-    await seedDs.destroy();
     await buildClient();
     const fake = await startFakeSmtp(db.url, 0);
     // Uploads made by the browser tests go to a folder of their own, removed afterwards.
@@ -107,6 +104,12 @@ try {
       CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
       STORAGE_DIR: storageDir,
     });
+    const seedDs = createDataSource(db.url, 2);
+    await seedDs.initialize();
+    await loadDemo(seedDs, { config, mail: true });
+    // Browser tests that need an athlete with nothing under way use their own (e2e/helpers.ts CLEAN).
+    await addCleanAthletes(seedDs);
+    await seedDs.destroy();
     const server = await startServer(config, createLogger(config.LOG_LEVEL));
     try {
       // The database URL lets a browser test read the fake mailbox (e.g. a password reset link).

@@ -78,6 +78,18 @@ export async function runOrgCommand<I, O>(cmd: Command<I, O, OrgCommandCtx>, cal
   });
 }
 
+/**
+ * Runs an organization command inside a transaction the caller already holds (the demo loader runs
+ * its whole story in one, so a failed load leaves nothing half-made). The same checks as
+ * runOrgCommand apply.
+ */
+export async function runOrgCommandIn<I, O>(m: EntityManager, cmd: Command<I, O, OrgCommandCtx>, caller: OrgCaller, input: I): Promise<O> {
+  const tracker: Tracker = { reported: false };
+  const out = await cmd.run(orgCtx(m, caller, tracker), input);
+  checkReported(cmd, tracker);
+  return out;
+}
+
 /** Runs a command that needs no membership, in a transaction of its own. */
 export async function runPublicCommand<I, O>(
   cmd: Command<I, O, CommandCtx>,

@@ -1,20 +1,34 @@
 import { describe, expect, it } from 'vitest';
+import { orgToday, addDays } from '../../../policies/today';
 import { createStorage } from '../storage';
 import { signedIn, useHarness } from '../test/harness';
 import { DEMO_PASSWORD, loadDemo } from './demo';
+import { DEMO_TIME_ZONE } from './demo-zone';
+import { SEASON_DAYS } from './demo-season';
+
+const at = (local: string) => `${local}@harborpoint.example`;
 
 describe('the demo scenario', () => {
   const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
+  let organizationId = '';
+  const load = async () => {
+    if (!organizationId)
+      organizationId = (await loadDemo(h.ds, { config: h.config, bcryptCost: 4, storage: createStorage(h.config) })).organizationId;
+    return `/api/orgs/${organizationId}`;
+  };
+  const member = async (local: string): Promise<string> =>
+    (
+      (await h.ds.query(`SELECT m.id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = $1`, [at(local)])) as {
+        id: string;
+      }[]
+    )[0].id;
 
   it("loads once, with a referral note on Sam's case that his clinician can download and his coach cannot see", async () => {
-    const storage = createStorage(h.config);
-    const first = await loadDemo(h.ds, 4, storage);
-    expect(first.created).toBe(true);
-    const again = await loadDemo(h.ds, 4, storage);
-    expect(again).toEqual({ created: false, organizationId: first.organizationId });
+    const base = await load();
+    const again = await loadDemo(h.ds, { config: h.config, bcryptCost: 4 });
+    expect(again).toEqual({ created: false, organizationId });
 
-    const base = `/api/orgs/${first.organizationId}`;
-    const marcus = await signedIn(h.app, 'marcus.bell@harborpoint.example', DEMO_PASSWORD);
+    const marcus = await signedIn(h.app, at('marcus.bell'), DEMO_PASSWORD);
     const cases = await marcus.get(`${base}/cases?state=open`);
     const samCase = cases.body.find((c: { athleteName: string }) => c.athleteName === 'Sam Whitfield');
     const docs = await marcus.get(`${base}/cases/${samCase.id}/documents`);
@@ -25,7 +39,83 @@ describe('the demo scenario', () => {
     expect(file.status).toBe(200);
     expect(Buffer.from(file.body).subarray(0, 5).toString('latin1')).toBe('%PDF-');
 
-    const rosa = await signedIn(h.app, 'rosa.delgado@harborpoint.example', DEMO_PASSWORD);
+    const rosa = await signedIn(h.app, at('rosa.delgado'), DEMO_PASSWORD);
     expect((await rosa.get(docs.body[0].downloadPath)).status).toBe(404);
+  });
+
+  it('is mid-season: eight weeks of check-ins and logs for every athlete, so the workload ratio and monotony show', async () => {
+    const base = await load();
+    const today = orgToday(DEMO_TIME_ZONE);
+    const rows: { athlete: string; logs: number; checkins: number; first: string }[] = await h.ds.query(
+      `SELECT u.display_name AS athlete,
+              (SELECT count(*)::int FROM training_logs t WHERE t.athlete_id = a.membership_id) AS logs,
+              (SELECT count(*)::int FROM check_ins c WHERE c.athlete_id = a.membership_id) AS checkins,
+              (SELECT min(date)::text FROM check_ins c WHERE c.athlete_id = a.membership_id) AS first
+         FROM athlete_profiles a JOIN memberships m ON m.id = a.membership_id JOIN users u ON u.id = m.user_id
+        WHERE a.organization_id = $1`,
+      [organizationId],
+    );
+    expect(rows).toHaveLength(5);
+    for (const r of rows) {
+      expect(r.logs, r.athlete).toBeGreaterThanOrEqual(20);
+      expect(r.checkins, r.athlete).toBeGreaterThanOrEqual(45);
+      expect(r.first <= addDays(today, -SEASON_DAYS + 2), r.athlete).toBe(true);
+    }
+    const theo = await signedIn(h.app, at('theo.lindqvist'), DEMO_PASSWORD);
+    const workload = await theo.get(`${base}/athletes/${await member('jordan.pike')}/workload`);
+    expect(workload.status).toBe(200);
+    expect(workload.body.acuteChronic.ratio).toBeGreaterThan(0);
+    expect(workload.body.weeks.filter((w: { monotony: number | null }) => w.monotony !== null).length).toBeGreaterThanOrEqual(7);
+  });
+
+  it("carries the 16-year-old's lower-back case mid-way: report read, Limited, two stages, letter acknowledged, a session on hold", async () => {
+    await load();
+    const maya = await member('maya.torres');
+    const [report] = await h.ds.query(`SELECT id, case_id FROM pain_reports WHERE athlete_id = $1`, [maya]);
+    expect(report.case_id).not.toBeNull();
+    const viewed = await h.ds.query(`SELECT 1 FROM audit_entries WHERE action = 'painReport.viewed' AND subject_id = $1`, [report.id]);
+    expect(viewed).toHaveLength(1);
+    const [status] = await h.ds.query(
+      `SELECT status FROM participation_status_changes WHERE athlete_id = $1 ORDER BY effective_from DESC, created_at DESC LIMIT 1`,
+      [maya],
+    );
+    expect(status.status).toBe('limited');
+    const [plan] = await h.ds.query(
+      `SELECT p.version, jsonb_array_length(v.stages) AS stages FROM restriction_plans p
+         JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version WHERE p.athlete_id = $1`,
+      [maya],
+    );
+    expect(plan).toEqual({ version: 2, stages: 2 });
+    const letters: { id: string; status: string; acknowledged: number }[] = await h.ds.query(
+      `SELECT l.id, l.status, (SELECT count(*)::int FROM letter_acknowledgements a WHERE a.letter_id = l.id) AS acknowledged
+         FROM clearance_letters l WHERE l.athlete_id = $1 ORDER BY l.signed_at`,
+      [maya],
+    );
+    expect(letters.map((l) => [l.status, l.acknowledged])).toEqual([
+      ['superseded', 1],
+      ['signed', 0],
+    ]);
+    const holds = await h.ds.query(
+      `SELECT s.title FROM session_holds h JOIN program_sessions s ON s.id = h.session_id WHERE h.athlete_id = $1`,
+      [maya],
+    );
+    expect(holds).toEqual([{ title: 'Lower body (light hinge)' }]);
+  });
+
+  it('has one case closed with a Full letter, and published sessions in the coming week for every athlete', async () => {
+    await load();
+    const jordan = await member('jordan.pike');
+    const [c] = await h.ds.query(`SELECT closed_on FROM cases WHERE athlete_id = $1`, [jordan]);
+    expect(c.closed_on).not.toBeNull();
+    const [letter] = await h.ds.query(`SELECT decision, status FROM clearance_letters WHERE athlete_id = $1`, [jordan]);
+    expect(letter).toEqual({ decision: 'full', status: 'signed' });
+    const today = orgToday(DEMO_TIME_ZONE);
+    const ahead: { athlete_id: string }[] = await h.ds.query(
+      `SELECT DISTINCT a.athlete_id FROM program_sessions s JOIN programs p ON p.id = s.program_id
+         CROSS JOIN LATERAL unnest(p.athlete_ids) AS a(athlete_id)
+        WHERE p.organization_id = $1 AND s.status = 'published' AND s.date > $2 AND s.date <= $3`,
+      [organizationId, today, addDays(today, 7)],
+    );
+    expect(ahead).toHaveLength(5);
   });
 });

@@ -20,6 +20,33 @@ import { appendAudit } from '../services/audit';
 import { seedExerciseLibrary } from '../services/exercise-library';
 import type { ObjectStorage } from '../storage';
 import { attachDemoDocument } from './demo-document';
+import type { Config } from '../config';
+import type { CoreDeps } from '../core/command';
+import { JobQueue, getNoticeQueue, setNoticeQueue } from '../jobs/queue';
+import { createLogger } from '../logger';
+import { createStorage } from '../storage';
+import { loadSeason } from './demo-season';
+import { DemoDirector, jordansClosedCase, mayasCase } from './demo-story';
+import { upcomingWeek } from './demo-week';
+
+export interface DemoOptions {
+  /** The app's configuration: links in the story's letters and e-mails are built from it. */
+  config: Config;
+  /** bcrypt cost of the demo passwords (tests use a low one). */
+  bcryptCost?: number;
+  /** Where the demo's referral note goes (default: the configured storage). */
+  storage?: ObjectStorage;
+  /** Queue the story's e-mails (letters, notices) for the app to send; only with the local fake mail server. */
+  mail?: boolean;
+}
+
+/** Each coach's programs for the season (one per group of athletes). */
+const DEMO_PROGRAMS = [
+  { coach: 'coachTheo', name: 'Softball in-season strength', athletes: ['maya'] },
+  { coach: 'coachTheo', name: 'Rowing block 3', athletes: ['jordan'] },
+  { coach: 'coachRosa', name: 'Court sports strength', athletes: ['sam', 'ava'] },
+  { coach: 'coachRosa', name: 'Weightlifting, meet prep', athletes: ['luis'] },
+];
 
 /** Invented people in an invented facility; any likeness to real people is accidental. */
 export const DEMO_ORG_NAME = 'Harbor Point Performance';
@@ -100,63 +127,82 @@ const GUARDIANS: [athlete: string, guardian: string][] = [
  * Loads the demo scenario once. Idempotent: when the organization exists nothing changes, so a
  * second `npm start` leaves the data (and the audit trail) as it was.
  */
-export async function loadDemo(
-  ds: DataSource,
-  bcryptCost = 12,
-  storage?: ObjectStorage,
-): Promise<{ created: boolean; organizationId: string }> {
+export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ created: boolean; organizationId: string }> {
   const existing = await ds.getRepository(Organization).findOneBy({ name: DEMO_ORG_NAME });
   if (existing) return { created: false, organizationId: existing.id };
+  const { bcryptCost = 12, storage } = opts;
   const hash = await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
-  const organizationId = await ds.transaction(async (m: EntityManager) => {
-    // Re-checked under a lock so two starts at once cannot both load the demo.
-    await m.query(`SELECT pg_advisory_xact_lock(hashtextextended('loadline:demo', 0))`);
-    const again = await m.findOneBy(Organization, { name: DEMO_ORG_NAME });
-    if (again) return again.id;
-    const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911', timeZone: DEMO_TIME_ZONE }));
-    const ids: Record<string, string> = {};
-    const userIds: Record<string, string> = {};
-    for (const p of DEMO_PEOPLE) {
-      const user = await m.save(
-        m.create(User, { email: p.email, displayName: p.name, passwordHash: hash, unitPref: p.key === 'maya' ? 'lb' : 'kg' }),
-      );
-      const membership = await m.save(m.create(Membership, { organizationId: org.id, userId: user.id, roles: p.roles, active: true }));
-      ids[p.key] = membership.id;
-      userIds[p.key] = user.id;
-      if (p.athlete) {
-        await m.save(m.create(AthleteProfile, { id: membership.id, organizationId: org.id, ...p.athlete }));
+  const logger = createLogger('warn');
+  // The story's e-mails (letters, notices) go through a queue of their own, sent by the app once it runs.
+  const jobs = opts.mail ? new JobQueue(opts.config.DATABASE_URL, logger) : null;
+  await jobs?.start();
+  const before = getNoticeQueue();
+  setNoticeQueue(jobs);
+  try {
+    return { created: true, organizationId: await loadAll() };
+  } finally {
+    setNoticeQueue(before);
+    await jobs?.stop();
+  }
+
+  async function loadAll(): Promise<string> {
+    return ds.transaction(async (m: EntityManager) => {
+      // Re-checked under a lock so two starts at once cannot both load the demo.
+      await m.query(`SELECT pg_advisory_xact_lock(hashtextextended('loadline:demo', 0))`);
+      const again = await m.findOneBy(Organization, { name: DEMO_ORG_NAME });
+      if (again) return again.id;
+      const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911', timeZone: DEMO_TIME_ZONE }));
+      const ids: Record<string, string> = {};
+      const userIds: Record<string, string> = {};
+      for (const p of DEMO_PEOPLE) {
+        const user = await m.save(
+          m.create(User, { email: p.email, displayName: p.name, passwordHash: hash, unitPref: p.key === 'maya' ? 'lb' : 'kg' }),
+        );
+        const membership = await m.save(m.create(Membership, { organizationId: org.id, userId: user.id, roles: p.roles, active: true }));
+        ids[p.key] = membership.id;
+        userIds[p.key] = user.id;
+        if (p.athlete) {
+          await m.save(m.create(AthleteProfile, { id: membership.id, organizationId: org.id, ...p.athlete }));
+        }
       }
-    }
-    for (const [athlete, member, role] of CARE_TEAMS) {
-      await m.save(m.create(CareTeamAssignment, { organizationId: org.id, athleteId: ids[athlete], memberId: ids[member], role }));
-    }
-    for (const [athlete, guardian] of GUARDIANS) {
-      await m.save(m.create(GuardianLink, { organizationId: org.id, athleteId: ids[athlete], guardianId: ids[guardian] }));
-    }
-    await seedExerciseLibrary(m, org.id);
-    const caseId = await loadDemoCase(m, org.id, ids, userIds);
-    if (storage) {
-      await attachDemoDocument(m, storage, {
+      for (const [athlete, member, role] of CARE_TEAMS) {
+        await m.save(m.create(CareTeamAssignment, { organizationId: org.id, athleteId: ids[athlete], memberId: ids[member], role }));
+      }
+      for (const [athlete, guardian] of GUARDIANS) {
+        await m.save(m.create(GuardianLink, { organizationId: org.id, athleteId: ids[athlete], guardianId: ids[guardian] }));
+      }
+      await seedExerciseLibrary(m, org.id);
+      const caseId = await loadDemoCase(m, org.id, ids, userIds);
+      const today = orgToday(DEMO_TIME_ZONE);
+      const programs = await loadSeason(m, org.id, today, ids, userIds, DEMO_PROGRAMS);
+      const deps: CoreDeps = { ds, config: opts.config, logger, jobs, storage: storage ?? createStorage(opts.config) };
+      const director = new DemoDirector(m, deps, org.id, userIds, day);
+      await director.init();
+      await jordansClosedCase(director, ids);
+      await mayasCase(director, ids, programs.get('maya')!);
+      await upcomingWeek(director, programs);
+      if (storage) {
+        await attachDemoDocument(m, storage, {
+          organizationId: org.id,
+          athleteId: ids.sam,
+          caseId,
+          athleteName: 'Sam Whitfield',
+          date: day(-8),
+          uploadedByUserId: userIds.clinicianMarcus,
+          uploadedByName: 'Marcus Bell, DPT',
+        });
+      }
+      await appendAudit(m, {
         organizationId: org.id,
-        athleteId: ids.sam,
-        caseId,
-        athleteName: 'Sam Whitfield',
-        date: day(-8),
-        uploadedByUserId: userIds.clinicianMarcus,
-        uploadedByName: 'Marcus Bell, DPT',
+        actorUserId: null,
+        action: 'demo.loaded',
+        subjectType: 'Organization',
+        subjectId: org.id,
+        after: { people: DEMO_PEOPLE.length, careTeamAssignments: CARE_TEAMS.length, guardianLinks: GUARDIANS.length },
       });
-    }
-    await appendAudit(m, {
-      organizationId: org.id,
-      actorUserId: null,
-      action: 'demo.loaded',
-      subjectType: 'Organization',
-      subjectId: org.id,
-      after: { people: DEMO_PEOPLE.length, careTeamAssignments: CARE_TEAMS.length, guardianLinks: GUARDIANS.length },
+      return org.id;
     });
-    return org.id;
-  });
-  return { created: true, organizationId };
+  }
 }
 
 /** A day of the demo counted from the organization's today (policies/today.ts). */
