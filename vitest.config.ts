@@ -14,6 +14,11 @@ export default defineConfig({
           hookTimeout: 60_000,
           // Each file builds its own app and organizations; two workers match the 2-core machines.
           maxWorkers: 2,
+          // Files share a worker's module cache instead of importing the whole server again for each
+          // one (import time fell from about 190 s to about 50 s of the run). Safe because no server
+          // test mocks a module, and each file builds its own app, clock and organizations; a file
+          // that pins the clock or stubs the environment must restore it in its own afterAll.
+          isolate: false,
         },
       },
       {
