@@ -1,25 +1,25 @@
 import { expect, test, type BrowserContext, type Page } from '@playwright/test';
-import { DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
+import { CLEAN, DEMO, HOME_HEADING, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
 import { contextOptions, isoDay, pageText, recordApiBodies } from './plan-helpers';
 import { answerWarningSigns, fillPainDetails, newDesktopPage, pickScore, redFlagQuestion } from './athlete-helpers';
 
 /**
  * The athlete's own screens on a 375 px phone, and what the care team and a guardian then see on a
- * desktop: Luis (an adult) reports pain with no warning signs and logs a session, Ava (17) answers
+ * desktop: Kai (an adult with nothing under way, e2e/helpers.ts CLEAN) reports pain with no warning signs and logs a session, Ava (17) answers
  * yes to an emergency warning sign, then Priya (Ava's clinician), Wei (Ava's guardian) and Rosa
  * (coach of both) read the flags and notices those made.
  *
  * The staff steps read what the athlete steps wrote, so the file is one serial flow in the phone
  * project (the desktop project runs all its files before the phone project starts, so the two halves
- * can't be split between projects); the desktop screens are opened inside it. Luis's pain report,
- * session and flags and Ava's report are new to this spec: no other spec reports pain or logs
- * sessions, and Maya (whose case clinician.spec.ts writes) is left alone.
+ * can't be split between projects); the desktop screens are opened inside it. Kai's pain report,
+ * session and flags and Ava's report are new to this spec; the demo's own story (Maya's case) is left
+ * alone.
  */
 
 test.skip(({ isMobile }) => !isMobile, 'one flow over shared records, on the phone; the staff screens open on a desktop inside it');
 /**
  * The athletes' phones are in Sydney, where it is already the organization's tomorrow for most of the
- * day: Luis can log today's session and see it in his week only if the app counts the organization's
+ * day: Kai can log today's session and see it in his week only if the app counts the organization's
  * day (America/Los_Angeles), not the phone's. The staff desktops stay in the specs' zone (UTC).
  */
 const PHONE_ZONE = 'Australia/Sydney';
@@ -28,98 +28,98 @@ test.use({ timezoneId: PHONE_ZONE });
 /** The emergency item Ava answers yes to. */
 const EMERGENCY_ITEM = 'both_legs_new';
 const AVA_NARRATIVE = 'E2E-AVA-NARRATIVE: it started after the relay practice.';
-const LUIS_REPORT_FLAG = 'Luis Romero reported pain: lower back, 3/10 now, 5/10 at worst in the last 24 hours. No warning signs.';
+const KAI_REPORT_FLAG = 'Kai Moreno reported pain: lower back, 3/10 now, 5/10 at worst in the last 24 hours. No warning signs.';
 
 test.describe.serial('an athlete reports pain and logs a session on a phone; the care team sees it', () => {
-  let luisContext: BrowserContext;
-  let luis: Page;
+  let kaiContext: BrowserContext;
+  let kai: Page;
 
   test.beforeAll(async ({ browser }, testInfo) => {
-    luisContext = await browser.newContext(contextOptions(testInfo, { timezoneId: PHONE_ZONE }));
-    luis = await luisContext.newPage();
+    kaiContext = await browser.newContext(contextOptions(testInfo, { timezoneId: PHONE_ZONE }));
+    kai = await kaiContext.newPage();
   });
 
   test.afterAll(async () => {
-    await luisContext?.close();
+    await kaiContext?.close();
   });
 
-  test('Luis reports lower-back pain with no warning signs and is told his care team has it', async () => {
-    await signIn(luis, DEMO.luis.email);
-    await expectHome(luis, HOME_HEADING.athlete);
-    await expectNoSidewaysScroll(luis);
-    await luis.getByRole('link', { name: 'Report pain' }).click();
-    await expectHome(luis, 'Report pain');
-    await expect(luis).toHaveURL(/\/athlete\/report$/);
+  test('Kai reports lower-back pain with no warning signs and is told his care team has it', async () => {
+    await signIn(kai, CLEAN.kai.email);
+    await expectHome(kai, HOME_HEADING.athlete);
+    await expectNoSidewaysScroll(kai);
+    await kai.getByRole('link', { name: 'Report pain' }).click();
+    await expectHome(kai, 'Report pain');
+    await expect(kai).toHaveURL(/\/athlete\/report$/);
 
-    await fillPainDetails(luis, { regions: ['Lower back'], now: 3, worst: 5, startedInTraining: 'Yes' });
-    await expect(luis.getByText('Chosen: Lower back')).toBeVisible();
-    await expectNoSidewaysScroll(luis);
-    await luis.getByRole('button', { name: 'Next: warning signs' }).click();
+    await fillPainDetails(kai, { regions: ['Lower back'], now: 3, worst: 5, startedInTraining: 'Yes' });
+    await expect(kai.getByText('Chosen: Lower back')).toBeVisible();
+    await expectNoSidewaysScroll(kai);
+    await kai.getByRole('button', { name: 'Next: warning signs' }).click();
 
-    await answerWarningSigns(luis);
-    await expectNoSidewaysScroll(luis);
-    await luis.getByRole('button', { name: 'Send report' }).click();
+    await answerWarningSigns(kai);
+    await expectNoSidewaysScroll(kai);
+    await kai.getByRole('button', { name: 'Send report' }).click();
 
-    const routine = luis.getByRole('heading', { name: 'Your care team has your report' });
+    const routine = kai.getByRole('heading', { name: 'Your care team has your report' });
     await expect(routine).toBeVisible();
     await expect(routine).toBeFocused();
-    await expect(luis.getByRole('heading', { name: 'What happens next' })).toBeVisible();
-    await expect(luis.getByRole('dialog')).toHaveCount(0);
-    await expect(luis.getByRole('heading', { name: 'Stop training and get urgent medical care now' })).toHaveCount(0);
-    await expect(luis.getByRole('heading', { name: 'Contact your clinician today' })).toHaveCount(0);
-    await expectNoSidewaysScroll(luis);
-    await keepScreenshot(luis, test.info(), 'athlete-report-routine');
+    await expect(kai.getByRole('heading', { name: 'What happens next' })).toBeVisible();
+    await expect(kai.getByRole('dialog')).toHaveCount(0);
+    await expect(kai.getByRole('heading', { name: 'Stop training and get urgent medical care now' })).toHaveCount(0);
+    await expect(kai.getByRole('heading', { name: 'Contact your clinician today' })).toHaveCount(0);
+    await expectNoSidewaysScroll(kai);
+    await keepScreenshot(kai, test.info(), 'athlete-report-routine');
   });
 
-  test('Luis logs a squat session, is told to keep going, and sees it charted in My week', async () => {
-    await luis.goto('/athlete');
-    await expectHome(luis, HOME_HEADING.athlete);
-    await luis.getByRole('link', { name: 'Log a session' }).click();
-    await expectHome(luis, 'Log a session');
+  test('Kai logs a squat session, is told to keep going, and sees it charted in My week', async () => {
+    await kai.goto('/athlete');
+    await expectHome(kai, HOME_HEADING.athlete);
+    await kai.getByRole('link', { name: 'Log a session' }).click();
+    await expectHome(kai, 'Log a session');
     // The organization's today, which on a phone in Sydney is often not the phone's own date.
-    await expect(luis.getByLabel('Session date', { exact: true })).toHaveValue(isoDay(0));
+    await expect(kai.getByLabel('Session date', { exact: true })).toHaveValue(isoDay(0));
 
-    await luis.getByLabel('Duration (minutes)').fill('60');
-    await luis.getByLabel('Session effort (0–10)').fill('5');
-    await pickScore(luis, 'Pain before', 2);
-    await pickScore(luis, 'Pain during', 3);
-    await luis.getByRole('button', { name: 'Add a set' }).click();
-    const set = luis.getByRole('group', { name: 'Set 1', exact: true });
+    await kai.getByLabel('Duration (minutes)').fill('60');
+    await kai.getByLabel('Session effort (0–10)').fill('5');
+    await pickScore(kai, 'Pain before', 2);
+    await pickScore(kai, 'Pain during', 3);
+    await kai.getByRole('button', { name: 'Add a set' }).click();
+    const set = kai.getByRole('group', { name: 'Set 1', exact: true });
     await expect(set.getByLabel('Exercise', { exact: true })).toBeFocused();
     await set.getByLabel('Exercise', { exact: true }).fill('Back squat');
-    // Luis weighs in kg in the demo (foundation.spec.ts switches him to lb, but runs after this file).
+    // Kai weighs in kg (server/src/test/e2e-athletes.ts).
     await expect(set.getByLabel('Load', { exact: true })).toHaveAccessibleDescription('kg');
     await set.getByLabel('Load', { exact: true }).fill('60');
     await set.getByLabel('Reps', { exact: true }).fill('5');
-    await expectNoSidewaysScroll(luis);
-    await luis.getByRole('button', { name: 'Save session' }).click();
+    await expectNoSidewaysScroll(kai);
+    await kai.getByRole('button', { name: 'Save session' }).click();
 
-    await expect(luis.getByRole('heading', { name: 'Session saved' })).toBeFocused();
-    // 3/10 during is under the default ceiling of 5 (Luis has no plan): the pain rule says keep.
-    await expect(luis.getByRole('status').filter({ hasText: 'Pain stayed within your limits. Keep going as planned.' })).toBeVisible();
-    await expect(luis.getByText('60 min · effort 5')).toBeVisible();
-    await expectNoSidewaysScroll(luis);
+    await expect(kai.getByRole('heading', { name: 'Session saved' })).toBeFocused();
+    // 3/10 during is under the default ceiling of 5 (Kai has no plan): the pain rule says keep.
+    await expect(kai.getByRole('status').filter({ hasText: 'Pain stayed within your limits. Keep going as planned.' })).toBeVisible();
+    await expect(kai.getByText('60 min · effort 5')).toBeVisible();
+    await expectNoSidewaysScroll(kai);
 
-    await luis.getByRole('link', { name: 'My week' }).click();
-    await expectHome(luis, 'My week');
-    const painAndLoad = luis.getByRole('region', { name: 'Pain and load' });
+    await kai.getByRole('link', { name: 'My week' }).click();
+    await expectHome(kai, 'My week');
+    const painAndLoad = kai.getByRole('region', { name: 'Pain and load' });
     await expect(painAndLoad.getByRole('heading', { name: 'Pain and load' })).toBeVisible();
     await expect(painAndLoad).toContainText('1 training day; pain during went past the ceiling on none of them.');
     // recharts draws into an <svg class="recharts-surface">; the key's little swatches are SVGs too.
     await expect(painAndLoad.locator('svg.recharts-surface')).toBeVisible();
-    await expect(luis.getByRole('region', { name: 'Weekly load' }).locator('svg.recharts-surface')).toBeVisible();
-    await expect(luis.getByRole('region', { name: 'Sessions' })).toContainText('Back squat');
-    await expectNoSidewaysScroll(luis);
-    await keepScreenshot(luis, test.info(), 'athlete-my-week');
+    await expect(kai.getByRole('region', { name: 'Weekly load' }).locator('svg.recharts-surface')).toBeVisible();
+    await expect(kai.getByRole('region', { name: 'Sessions' })).toContainText('Back squat');
+    await expectNoSidewaysScroll(kai);
+    await keepScreenshot(kai, test.info(), 'athlete-my-week');
 
     // Today's session waits for its pain after the session (this evening) on the home page: one tap
     // answers it. The next-morning question waits for the organization's tomorrow (e2e/pain-rule.spec.ts).
-    await luis.getByRole('link', { name: '← My page' }).click();
-    await expect(luis.getByRole('heading', { name: 'How is the pain now, after your session?' })).toBeVisible();
-    await expect(luis.getByRole('heading', { name: 'How is the pain this morning?' })).toHaveCount(0);
-    await luis.getByRole('button', { name: 'Pain after the session 2', exact: true }).click();
-    await expect(luis.getByRole('heading', { name: 'Thanks — pain after your session: 2/10' })).toBeVisible();
-    await expect(luis.getByRole('status').filter({ hasText: 'Keep going as planned.' })).toBeVisible();
+    await kai.getByRole('link', { name: '← My page' }).click();
+    await expect(kai.getByRole('heading', { name: 'How is the pain now, after your session?' })).toBeVisible();
+    await expect(kai.getByRole('heading', { name: 'How is the pain this morning?' })).toHaveCount(0);
+    await kai.getByRole('button', { name: 'Pain after the session 2', exact: true }).click();
+    await expect(kai.getByRole('heading', { name: 'Thanks — pain after your session: 2/10' })).toBeVisible();
+    await expect(kai.getByRole('status').filter({ hasText: 'Keep going as planned.' })).toBeVisible();
   });
 
   test('Ava answers yes to an emergency warning sign and the first thing she sees is to get urgent care', async ({ page }, testInfo) => {
@@ -216,14 +216,14 @@ test.describe.serial('an athlete reports pain and logs a session on a phone; the
     }
   });
 
-  test('Rosa acknowledges Luis’s pain-report flag and opens his workload', async ({ browser }, testInfo) => {
+  test('Rosa acknowledges Kai’s pain-report flag and opens his workload', async ({ browser }, testInfo) => {
     const rosa = await newDesktopPage(browser, testInfo);
     try {
       await signIn(rosa, DEMO.coachRosa.email);
       await expectHome(rosa, HOME_HEADING.coach);
       await rosa.getByRole('link', { name: 'Flags', exact: true }).click();
       await expectHome(rosa, 'Flags');
-      const flag = rosa.getByRole('row').filter({ hasText: LUIS_REPORT_FLAG });
+      const flag = rosa.getByRole('row').filter({ hasText: KAI_REPORT_FLAG });
       await expect(flag).toHaveCount(1);
       await expect(flag).toContainText('Read the report; the clinician decides on any change.');
       await flag.getByRole('button', { name: 'Acknowledge' }).click();
@@ -233,10 +233,10 @@ test.describe.serial('an athlete reports pain and logs a session on a phone; the
       await expect(flag).toContainText(`By ${DEMO.coachRosa.name}`);
       await expect(flag.getByRole('button', { name: 'Acknowledge' })).toHaveCount(0);
 
-      await flag.getByRole('link', { name: DEMO.luis.name }).click();
+      await flag.getByRole('link', { name: CLEAN.kai.name }).click();
       await expectHome(rosa, 'Workload');
       await expect(rosa).toHaveURL(/\/staff\/athletes\/[0-9a-f-]{36}\/workload$/);
-      await expect(rosa.getByRole('main')).toContainText(DEMO.luis.name);
+      await expect(rosa.getByRole('main')).toContainText(CLEAN.kai.name);
       await expect(rosa.getByRole('region', { name: 'Pain and load' }).locator('svg.recharts-surface')).toBeVisible();
       await keepScreenshot(rosa, testInfo, 'coach-workload');
     } finally {

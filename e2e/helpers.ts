@@ -27,6 +27,7 @@ export const DEMO = {
 export const CLEAN = {
   nora: { email: at('nora.ellis'), name: 'Nora Ellis' },
   ruth: { email: at('ruth.ellis'), name: 'Ruth Ellis' },
+  kai: { email: at('kai.moreno'), name: 'Kai Moreno' },
 } as const;
 
 /** The heading each role's home opens with. */

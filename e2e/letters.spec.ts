@@ -147,7 +147,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
       await expect(page.getByRole('heading', { level: 1, name: 'Check a clearance letter' })).toBeVisible();
       const answer = checkAnswer(page, 'Valid');
       await expect(answer).toBeVisible();
-      await expect(answer).toContainText('M. T.');
+      await expect(answer).toContainText('N. E.');
       await expect(answer).toContainText(ORG_NAME);
       await expect(answer).toContainText('Full participation');
       await expect(page.getByRole('button', { name: 'Sign out' })).toHaveCount(0);
@@ -166,7 +166,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
       await page.getByRole('button', { name: 'Check' }).click();
       await expect(page).toHaveURL(new RegExp(`/check/${MADE_UP_CODE}$`));
       await expect(checkAnswer(page, 'Not found')).toBeVisible();
-      await expect(page.getByText('M. T.')).toHaveCount(0);
+      await expect(page.getByText('N. E.')).toHaveCount(0);
 
       // Typed back by hand — lower case, no dashes — the real code still checks.
       await page.getByLabel('Verification code').fill(firstCode.replaceAll('-', '').toLowerCase());
@@ -237,7 +237,7 @@ test.describe.serial('a clinician signs a clearance letter; the family, the publ
       const answer = checkAnswer(page, 'Superseded');
       await expect(answer).toBeVisible();
       await expect(answer).toContainText('a later letter has replaced it');
-      await expect(answer).toContainText('M. T.');
+      await expect(answer).toContainText('N. E.');
       await page.goto(`/check/${secondCode}`);
       await expect(checkAnswer(page, 'Valid')).toBeVisible();
     } finally {
