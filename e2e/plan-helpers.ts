@@ -50,9 +50,19 @@ export function stageFieldset(page: Page, number: number): Locator {
   return page.getByRole('group', { name: `Stage ${number}`, exact: true });
 }
 
-/** Sets one movement pattern's mode in a stage, then its caps (the inputs appear once it is Capped). */
+/**
+ * Sets one movement pattern's mode in a stage, then its caps (the inputs appear once it is Capped). A
+ * stage shows only its limited patterns, so a pattern listed as "no limit" is first brought in with
+ * "Add a limit for another movement" (setting one listed there to Free changes nothing).
+ */
 export async function setPattern(stage: Locator, pattern: string, mode: Mode, caps: Caps = {}): Promise<void> {
   const group = stage.getByRole('group', { name: `${pattern} mode`, exact: true });
+  if ((await group.count()) === 0) {
+    if (mode === 'Free') return;
+    await stage.getByLabel('Add a limit for another movement', { exact: true }).selectOption({ label: pattern });
+    await stage.getByRole('button', { name: 'Add limit', exact: true }).click();
+    await expect(group).toBeVisible();
+  }
   // The radios are drawn as a segmented control (the inputs are visually hidden): press the segment.
   await group
     .locator('label')

@@ -1,14 +1,16 @@
 import { useId } from 'react';
+import {
+  CLINICIAN_RECORD_CAUTION,
+  PAIN_CEILING_CAUTION,
+  STANDING_CAUTION,
+  TEAM_RECORD_CAUTION,
+  type Caution,
+} from '../../../policies/cautions';
 import { WARNING_TIERS } from '../../../policies/red-flags';
 
 /** The standing caution, on every page. Short, in plain words, never behind a click. */
 export function CareCaution() {
-  return (
-    <p className="text-xs text-ink-2">
-      Loadline keeps a record of decisions made by the athlete&apos;s licensed clinician. It does not diagnose or treat, and it is no
-      substitute for professional care. Follow local law, your sport&apos;s governing body and your organization&apos;s policies.
-    </p>
-  );
+  return <p className="text-xs text-ink-2">{STANDING_CAUTION}</p>;
 }
 
 /**
@@ -55,7 +57,7 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
           )}
         </section>
       ))}
-      <p className="mt-3">During a session, stop and tell your clinician if pain climbs past the ceiling your clinician set.</p>
+      <p className="mt-3">{PAIN_CEILING_CAUTION}</p>
     </section>
   );
 }
@@ -65,13 +67,22 @@ export function RedFlagCaution({ emergencyNumber }: { emergencyNumber?: string |
  * read. It is part of the page, not a dialog: it never needs a click to be read.
  */
 export function ClinicalRecordCaution({ audience = 'clinician', className }: { audience?: 'clinician' | 'team'; className?: string }) {
+  const caution = audience === 'clinician' ? CLINICIAN_RECORD_CAUTION : TEAM_RECORD_CAUTION;
   return (
     <p className={`rounded-md border border-rule border-l-4 border-l-line bg-sheet px-3 py-2 text-sm text-ink-2 ${className ?? ''}`}>
-      <span className="font-semibold text-ink">
-        {audience === 'clinician' ? 'A record of your decisions, not a diagnosis.' : "The clinician's limits, not a diagnosis."}
-      </span>{' '}
-      Loadline records what the athlete&apos;s licensed clinician decides; it does not diagnose, treat or replace professional care. Follow
-      local law, your governing body&apos;s rules and your organization&apos;s policies.
+      <span className="font-semibold text-ink">{caution.lead}</span> {caution.text}
+    </p>
+  );
+}
+
+/**
+ * A short caution beside an action that acts on the clinician's decisions (publishing a program,
+ * deciding an exception), so it is read where the choice is made and not only in the footer.
+ */
+export function ActionCaution({ caution, className }: { caution: Caution; className?: string }) {
+  return (
+    <p role="note" aria-label="Caution" className={`border-l-4 border-l-line pl-2 text-xs text-ink-2 ${className ?? ''}`}>
+      <span className="font-semibold text-ink">{caution.lead}</span> {caution.text}
     </p>
   );
 }

@@ -5,6 +5,20 @@ import { cx } from './cx';
 
 const SCORES = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10] as const;
 
+/** The mark of "past the ceiling": a hatched band, kept off the number so the number always sits on a solid fill. */
+const HATCH = 'bg-[repeating-linear-gradient(135deg,var(--color-rule-strong)_0_2px,var(--color-sheet)_2px_5px)]';
+
+/**
+ * Fill and text of one score. Chosen is decided here, not by stacked `peer-checked:` and `hover:`
+ * classes, because a hover fill declared later in the style sheet used to win over the chosen fill
+ * (light text on a light fill, about 1.1:1). Every text/fill pair here is at least 4.5:1 (WCAG 2.1
+ * success criterion 1.4.3): paper on ink 14.9:1, paper on line-deep 6.0:1, ink on shade 13.3:1, ink on sheet 16.2:1.
+ */
+function scoreLook(chosen: boolean, over: boolean, invalid: boolean): string {
+  if (chosen) return over ? 'border-line-deep bg-line-deep text-paper' : 'border-ink bg-ink text-paper';
+  return cx('bg-sheet text-ink hover:bg-shade', invalid ? 'border-line-deep border-2' : 'border-rule-strong');
+}
+
 export interface ScoreScaleProps {
   /** Names the group; each choice is named "<label> <n>", e.g. "Pain now 3". */
   label: string;
@@ -16,7 +30,7 @@ export interface ScoreScaleProps {
   high: string;
   hint?: ReactNode;
   error?: string;
-  /** Marks a limit on the row (e.g. the clinician's pain ceiling): scores past it are hatched. */
+  /** Marks a limit on the row (e.g. the clinician's pain ceiling): scores past it carry a hatched band. */
   limit?: number;
   className?: string;
 }
@@ -52,13 +66,14 @@ export function ScoreScale({ label, value, onChange, onBlur, low, high, hint, er
       <div className="mt-2 grid grid-cols-6 gap-1.5 sm:grid-cols-11">
         {SCORES.map((n) => {
           const over = limit !== undefined && n > limit;
+          const chosen = value === n;
           return (
             <label key={n} className="relative block">
               <input
                 type="radio"
                 name={id}
                 value={n}
-                checked={value === n}
+                checked={chosen}
                 onChange={() => onChange(n)}
                 onBlur={onBlur}
                 aria-label={`${label} ${n}`}
@@ -66,17 +81,17 @@ export function ScoreScale({ label, value, onChange, onBlur, low, high, hint, er
               />
               <span
                 aria-hidden="true"
+                data-score={n}
                 className={cx(
-                  'flex min-h-12 cursor-pointer items-center justify-center rounded-md border text-lg font-semibold tabular-nums',
-                  'peer-checked:border-ink peer-checked:bg-ink peer-checked:text-paper',
+                  'relative flex min-h-12 cursor-pointer items-center justify-center overflow-hidden rounded-md border text-lg font-semibold tabular-nums',
                   'peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-line',
-                  message ? 'border-line-deep border-2' : 'border-rule-strong',
-                  over
-                    ? 'bg-[repeating-linear-gradient(135deg,var(--color-shade)_0_4px,var(--color-sheet)_4px_8px)]'
-                    : 'bg-sheet hover:bg-shade',
+                  scoreLook(chosen, over, Boolean(message)),
                 )}
               >
                 {n}
+                {over && (
+                  <span className={cx('absolute inset-x-0 bottom-0 h-2 border-t', HATCH, chosen ? 'border-paper' : 'border-rule-strong')} />
+                )}
               </span>
             </label>
           );
@@ -88,10 +103,7 @@ export function ScoreScale({ label, value, onChange, onBlur, low, high, hint, er
       </p>
       {limit !== undefined && (
         <p className="text-sm text-ink-2">
-          <span
-            aria-hidden="true"
-            className="mr-1 inline-block h-3 w-4 border border-rule-strong bg-[repeating-linear-gradient(135deg,var(--color-shade)_0_3px,var(--color-sheet)_3px_6px)] align-middle"
-          />
+          <span aria-hidden="true" className={cx('mr-1 inline-block h-3 w-4 border border-rule-strong align-middle', HATCH)} />
           Past your clinician&apos;s ceiling of {limit}/10.
         </p>
       )}

@@ -2,6 +2,8 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { ExceptionDto, ExerciseDto, ProgramSessionDto } from '../../../../../policies/dto';
 import type { PlannedLoad } from '../../../../../policies/load/compliance';
+import { EXCEPTION_DECISION_CAUTION } from '../../../../../policies/cautions';
+import { ActionCaution } from '../../../components/Cautions';
 import { formatLoad, fromUnit } from '../../../../../policies/load/units';
 import { ExceptionDecisionSchema, type ExceptionDecisionInput, type Unit } from '../../../../../policies/schemas';
 import { Button } from '../../../components/ui/Button';
@@ -148,6 +150,7 @@ export function ExceptionCard({
           {...register('note')}
         />
         {decide.isError && <ErrorNotice error={decide.error} />}
+        <ActionCaution caution={EXCEPTION_DECISION_CAUTION} />
         <div className="flex flex-wrap gap-2">
           <Button
             busy={decide.isPending && decide.variables?.decision === 'grant'}

@@ -54,9 +54,12 @@ export function YesNo({
             <span
               className={cx(
                 'flex min-h-12 cursor-pointer items-center justify-center rounded-md border text-base font-semibold',
-                'peer-checked:border-ink peer-checked:bg-ink peer-checked:text-paper',
                 'peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-line',
-                error ? 'border-2 border-line-deep bg-sheet' : 'border-rule-strong bg-sheet hover:bg-shade',
+                // Chosen is decided here, not by `peer-checked:` beside `hover:`: the hover fill won and left
+                // light text on a light fill (about 1.1:1, under WCAG 2.1 success criterion 1.4.3's 4.5:1).
+                value === o.v
+                  ? 'border-ink bg-ink text-paper'
+                  : cx('bg-sheet text-ink hover:bg-shade', error ? 'border-2 border-line-deep' : 'border-rule-strong'),
               )}
             >
               {o.label}

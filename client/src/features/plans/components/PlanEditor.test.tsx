@@ -80,8 +80,11 @@ describe('PlanEditor', () => {
     const onSaved = vi.fn();
     renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="lb" onSaved={onSaved} onCancel={vi.fn()} />);
 
+    // A blank stage limits nothing; Hinge is brought in as Capped.
+    fireEvent.change(within(stage(1)).getByLabelText('Add a limit for another movement'), { target: { value: 'hinge' } });
+    fireEvent.click(within(stage(1)).getByRole('button', { name: 'Add limit' }));
     const hingeMode = within(stage(1)).getByRole('group', { name: 'Hinge mode' });
-    fireEvent.click(within(hingeMode).getByRole('radio', { name: 'Capped' }));
+    expect(within(hingeMode).getByRole('radio', { name: 'Capped' })).toBeChecked();
     fireEvent.change(within(stage(1)).getByLabelText('Hinge max load'), { target: { value: '100' } });
     fireEvent.change(within(stage(1)).getByLabelText('Hinge impact allowed'), { target: { value: 'no' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
@@ -134,5 +137,51 @@ describe('PlanEditor', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
     await waitFor(() => expect(onSaved).toHaveBeenCalled());
     expect(sentBodies('PUT')[0].stages[0].patterns.squat.caps.maxLoadKg).toBe(27.2155);
+  });
+
+  it('shows only the limited patterns with their controls, and lists the others as "no limit"', () => {
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" plan={planDto(2)} onSaved={vi.fn()} onCancel={vi.fn()} />);
+    const s1 = stage(1);
+    expect(within(s1).getByRole('group', { name: 'Hinge mode' })).toBeInTheDocument();
+    expect(within(s1).getByRole('group', { name: 'Jump / landing mode' })).toBeInTheDocument();
+    expect(within(s1).getAllByRole('group', { name: / mode$/ })).toHaveLength(2);
+    expect(within(s1).queryByRole('group', { name: 'Squat mode' })).not.toBeInTheDocument();
+    expect(within(s1).getByText(/^No limit:/).parentElement).toHaveTextContent(
+      'No limit: Squat, Lunge / single-leg, Horizontal push, Vertical push, Horizontal pull, Vertical pull, Carry, Rotation / anti-rotation, Sprint, Throw, Swing.',
+    );
+    const add = within(s1).getByLabelText('Add a limit for another movement');
+    expect(within(add).queryByRole('option', { name: 'Hinge' })).not.toBeInTheDocument();
+    expect(within(s1).getByRole('button', { name: 'Add limit' })).toBeDisabled();
+  });
+
+  it('saves the same plan as before when nothing is touched, and a limit added for another movement is saved with it', async () => {
+    fetchMock.mockImplementation(async () => jsonResponse(200, planDto(3)));
+    const onSaved = vi.fn();
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" plan={planDto(2)} onSaved={onSaved} onCancel={vi.fn()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
+    await waitFor(() => expect(onSaved).toHaveBeenCalledTimes(1));
+    expect(sentBodies('PUT')[0].stages[0].patterns).toEqual(planDto(2).current.stages[0].patterns);
+
+    const s1 = stage(1);
+    fireEvent.change(within(s1).getByLabelText('Add a limit for another movement'), { target: { value: 'sprint' } });
+    fireEvent.click(within(s1).getByRole('button', { name: 'Add limit' }));
+    const sprintMode = within(s1).getByRole('group', { name: 'Sprint mode' });
+    fireEvent.click(within(sprintMode).getByRole('radio', { name: 'Blocked' }));
+    expect(within(s1).getByText(/^No limit:/).parentElement).not.toHaveTextContent('Sprint');
+    fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
+    await waitFor(() => expect(onSaved).toHaveBeenCalledTimes(2));
+    expect(sentBodies('PUT')[1].stages[0].patterns).toEqual({ ...planDto(2).current.stages[0].patterns, sprint: { mode: 'blocked' } });
+  });
+
+  it('keeps a row in view when its limit is taken off, and sends that pattern as free', async () => {
+    fetchMock.mockImplementation(async () => jsonResponse(200, planDto(3)));
+    const onSaved = vi.fn();
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" plan={planDto(2)} onSaved={onSaved} onCancel={vi.fn()} />);
+    const jumpMode = within(stage(1)).getByRole('group', { name: 'Jump / landing mode' });
+    fireEvent.click(within(jumpMode).getByRole('radio', { name: 'Free' }));
+    expect(within(stage(1)).getByRole('group', { name: 'Jump / landing mode' })).toBeInTheDocument();
+    fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
+    await waitFor(() => expect(onSaved).toHaveBeenCalled());
+    expect(sentBodies('PUT')[0].stages[0].patterns).toEqual({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } });
   });
 });

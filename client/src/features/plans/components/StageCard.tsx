@@ -1,14 +1,13 @@
 import { useId } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
 import type { Unit } from '../../../../../policies/schemas';
-import { MOVEMENT_PATTERNS } from '../../../../../policies/load/patterns';
 import { ceilingWarning } from '../../../../../policies/load/pain-rule';
 import { Button } from '../../../components/ui/Button';
 import { cx } from '../../../components/ui/cx';
 import { fieldSentence } from '../../../lib/form-errors';
 import { TextField } from '../../../components/ui/Field';
 import { liveStageIssues, type PlanForm } from './plan-form';
-import { PatternRuleHeader, PatternRuleRow } from './PatternRuleRow';
+import { StagePatterns } from './StagePatterns';
 import { daysInclusive } from './plan-words';
 
 /**
@@ -27,7 +26,7 @@ function useLiveIssues(index: number, count: number) {
   };
 }
 
-/** One stage: its dates, review and pain ceiling, then the rule for every movement pattern. */
+/** One stage: its dates, review and pain ceiling, then the movement patterns it limits (StagePatterns). */
 export function StageCard({
   index,
   count,
@@ -142,10 +141,7 @@ export function StageCard({
         <p className="mb-2 text-xs text-muted">
           Free: no limits. Blocked: not allowed. Capped: allowed up to every cap you fill in (at least one). Empty caps do not limit.
         </p>
-        <PatternRuleHeader unit={unit} />
-        {MOVEMENT_PATTERNS.map((pattern) => (
-          <PatternRuleRow key={pattern} stageIndex={index} pattern={pattern} unit={unit} />
-        ))}
+        <StagePatterns stageIndex={index} unit={unit} />
       </div>
     </fieldset>
   );

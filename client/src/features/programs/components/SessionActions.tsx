@@ -1,6 +1,8 @@
 import { useId, useState } from 'react';
 import type { ProgramSessionDto } from '../../../../../policies/dto';
 import type { Breach } from '../../../../../policies/load/compliance';
+import { PROGRAM_CAUTION } from '../../../../../policies/cautions';
+import { ActionCaution } from '../../../components/Cautions';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { useDeleteSession, usePublishSession, useUnpublishSession } from '../api/sessions';
@@ -174,6 +176,7 @@ export function SessionActions({
           )}
         </p>
       </div>
+      <ActionCaution caution={PROGRAM_CAUTION} />
       {dirty && asking && <p className="text-sm text-ink-2">Save first: the clinician decides on the sets as saved.</p>}
       {asking && !dirty && (
         <ExceptionRequestForm

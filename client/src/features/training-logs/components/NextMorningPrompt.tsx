@@ -62,9 +62,10 @@ function OneTapScore({
             disabled={busy}
             onClick={() => onPick(n)}
             className={cx(
-              'min-h-12 rounded-md border border-rule-strong bg-sheet text-lg font-semibold tabular-nums hover:bg-shade',
+              'min-h-12 rounded-md border text-lg font-semibold tabular-nums',
               'disabled:cursor-wait disabled:opacity-60',
-              busy && chosen === n && 'border-ink bg-ink text-paper',
+              // One fill per state: a hover fill beside the chosen one used to win (light text on a light fill).
+              busy && chosen === n ? 'border-ink bg-ink text-paper' : 'border-rule-strong bg-sheet hover:bg-shade',
             )}
           >
             {n}
