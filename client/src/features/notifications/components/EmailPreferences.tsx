@@ -34,7 +34,7 @@ export function EmailPreferences({ orgId }: { orgId: string }) {
                 type="checkbox"
                 className="mt-0.5 size-5 shrink-0 accent-ink"
                 checked={p.email}
-                disabled={p.fixed || update.isPending}
+                disabled={p.fixed}
                 aria-describedby={p.fixed ? `${id}-fixed` : undefined}
                 onChange={(e) => toggle(p, e.target.checked)}
               />
