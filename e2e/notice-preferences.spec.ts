@@ -1,8 +1,9 @@
+import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Browser, type BrowserContextOptions, type Page } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
 import type { SessionDto } from '../policies/dto';
 import { jargonIn } from '../policies/plain-words';
-import { DEMO, expectHome, expectNoSidewaysScroll, NEW_PASSWORD, signIn } from './helpers';
+import { DEMO, expectHome, expectNoSidewaysScroll, keepScreenshot, NEW_PASSWORD, signIn } from './helpers';
 import { BROWSER_ZONE, contextOptions, isoDay } from './plan-helpers';
 import { apiWrite } from './uploads-helpers';
 
@@ -146,5 +147,10 @@ test.describe.serial('notices in their own words, and e-mail per kind', () => {
         .getByRole('region', { name: 'E-mail me about' })
         .getByRole('checkbox', { name: 'A change of training status (Out, Limited, Full)' }),
     ).toBeChecked();
+    // WCAG 2.1 AA (axe-core): the switches, the fixed emergency one and its words, on a 375 px phone.
+    const { violations } = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+    expect(violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help}`)).toEqual([]);
+    await expectNoSidewaysScroll(page);
+    await keepScreenshot(page, test.info(), 'guardian-notices-email-choices');
   });
 });
