@@ -111,6 +111,7 @@ describe('a status change and a new plan version, each audience in its own words
     expect(coach).toContain('effort RPE 6 or easier');
     expect(coach).toContain('no more than 40 kg');
     expect(coach).toContain('Rotation / anti-rotation: at most 2 sets a session');
+    expect(coach).toContain('Stage 1 (Protect), 9 June 2026 to 30 June 2026:');
 
     const athlete = by(org.athlete.membershipId);
     expect(athlete).toMatch(/^Your training limits have been set\nYour clinician set out what you may do in training\./);

@@ -140,16 +140,16 @@ export interface PlanNoticeInput {
 
 /** A new plan version (the first, or a revision), told to the athlete, their coaches and guardians; stages already over are left out. */
 export async function tellPlanVersion(ctx: NoticeCtx, athleteId: string, version: number, input: PlanNoticeInput): Promise<void> {
-  const stages = [...input.stages].filter((s) => s.endDate >= ctx.today).sort((a, b) => (a.startDate < b.startDate ? -1 : 1));
+  // Stages keep their number in the plan (in date order) even when earlier ones are over and left out.
+  const numbered = [...input.stages].sort((a, b) => (a.startDate < b.startDate ? -1 : 1)).map((s, i) => ({ ...s, n: i + 1 }));
+  const stages = numbered.filter((s) => s.endDate >= ctx.today);
   const first = version === 1;
-  const span = (s: PlanStage) => `From ${describeDate(s.startDate)} to ${describeDate(s.endDate)}`;
+  const dates = (s: PlanStage) => `${describeDate(s.startDate)} to ${describeDate(s.endDate)}`;
   await tell(ctx, athleteId, 'plan_changed', 'routine', (audience, unit, name) => {
     if (audience === 'coach') {
       const lines = [`The clinician ${first ? 'wrote' : 'changed'} ${name}'s restriction plan (version ${version}).`];
       if (input.changeNote) lines.push(`Change note: ${input.changeNote}`);
-      stages.forEach((s, i) =>
-        lines.push(`Stage ${i + 1}${s.label ? ` (${s.label})` : ''}, ${span(s).toLowerCase()}:`, ...staffLines(s, unit)),
-      );
+      for (const s of stages) lines.push(`Stage ${s.n}${s.label ? ` (${s.label})` : ''}, ${dates(s)}:`, ...staffLines(s, unit));
       if (stages.length === 0) lines.push('Every stage of this version is already over.');
       return { title: `${name}: restriction plan version ${version}`, lines };
     }
@@ -159,7 +159,7 @@ export async function tellPlanVersion(ctx: NoticeCtx, athleteId: string, version
         ? `Your clinician ${first ? 'set out' : 'changed'} what you may do in training.`
         : `${name}'s clinician ${first ? 'set out' : 'changed'} what ${name} may do in training.`,
     ];
-    for (const s of stages) lines.push(`${span(s)}:`, ...plainLimitLines(s, unit));
+    for (const s of stages) lines.push(`From ${dates(s)}:`, ...plainLimitLines(s, unit));
     if (stages.length === 0) lines.push('These limits are for days already past; nothing changes from today.');
     if (input.guidance.trim()) lines.push(`${you ? "Your clinician's" : "The clinician's"} advice: ${input.guidance.trim()}`);
     return {
