@@ -7,3 +7,4 @@ export type * from './reports';
 export type * from './programs';
 export type * from './letters';
 export type * from './uploads';
+export type * from './notice-preferences';

@@ -8,3 +8,4 @@ export * from './programs';
 export * from './letters';
 export * from './uploads';
 export * from './account-security';
+export * from './notice-preferences';

@@ -27,6 +27,7 @@ import { painReportRoutes } from './routes/pain-reports/pain-reports.router';
 import { trainingRoutes } from './routes/training/training.router';
 import { flagRoutes } from './routes/flags/flags.router';
 import { notificationRoutes } from './routes/notifications/notifications.router';
+import { noticePreferenceRoutes } from './routes/notice-preferences/notice-preferences.router';
 import { exerciseRoutes } from './routes/programs/exercises.router';
 import { programRoutes } from './routes/programs/programs.router';
 import { exceptionRoutes } from './routes/programs/exceptions.router';
@@ -125,6 +126,7 @@ export function buildApp(base: AppDeps) {
     ...trainingRoutes,
     ...flagRoutes,
     ...notificationRoutes,
+    ...noticePreferenceRoutes,
     ...exerciseRoutes,
     ...programRoutes,
     ...exceptionRoutes,

@@ -46,7 +46,8 @@ export const emails = {
     return {
       subject: d.title,
       greeting: `Hello ${d.name},`,
-      paragraphs: [d.body, 'Sign in to Loadline to see the details.'],
+      // A body written in lines (one limit per line) keeps its lines as paragraphs.
+      paragraphs: [...d.body.split('\n').filter((l) => l.trim() !== ''), 'Sign in to Loadline to see the details.'],
       action: { label: 'Open Loadline', url: d.url },
     };
   },

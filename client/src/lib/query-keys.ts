@@ -36,6 +36,7 @@ export const queryKeys = {
   flagsAll: (orgId: string) => ['orgs', orgId, 'flags'] as const,
   flags: (orgId: string, filters: { athleteId?: string; state: string }) => ['orgs', orgId, 'flags', filters] as const,
   notifications: (orgId: string) => ['orgs', orgId, 'notifications'] as const,
+  noticePreferences: (orgId: string) => ['orgs', orgId, 'notice-preferences'] as const,
   lettersAll: (orgId: string) => ['orgs', orgId, 'letters'] as const,
   letters: (orgId: string, athleteId: string | null) => ['orgs', orgId, 'letters', { athleteId }] as const,
   outbox: (orgId: string) => ['orgs', orgId, 'outbox'] as const,

@@ -10,6 +10,7 @@ import { AppError } from '../core/errors';
 import { listCases, statusHistory } from '../queries/cases';
 import { listPainReports } from '../queries/reports';
 import { redact } from '../services/audit';
+import { tellStatusChange } from '../services/change-notices';
 import { requireMemberWithRole } from '../services/org-members';
 import { updateVersioned } from '../services/versioned';
 import { callWithin } from './run';
@@ -124,6 +125,7 @@ export const setStatus = orgCommand({
       },
     });
     await ctx.limitsChanged({ athleteIds: [c.athleteId], reason: limitsReason(input) });
+    await tellStatusChange(ctx, c.athleteId, input);
     return saved;
   },
 });

@@ -5,6 +5,7 @@ import { authorize } from '../core/authorize';
 import { orgCommand } from '../core/command';
 import { AppError, versionConflict } from '../core/errors';
 import { planDto, planVersions } from '../queries/plans';
+import { tellPlanVersion } from '../services/change-notices';
 import { isUniqueViolation } from '../services/org-members';
 
 /** The clinician writes the restriction plan of an open case (version 1); the athlete's sessions are checked against it. */
@@ -45,6 +46,7 @@ export const createPlan = orgCommand({
       after: { version: 1, stages: input.stages, guidance: input.guidance },
     });
     await ctx.limitsChanged({ athleteIds: [c.athleteId], reason: 'The clinician wrote a restriction plan.' });
+    await tellPlanVersion(ctx, c.athleteId, 1, input);
     return planDto(m, ability, saved);
   },
 });
@@ -87,6 +89,7 @@ export const revisePlan = orgCommand({
       after: { version: next, stages: input.stages, guidance: input.guidance, changeNote: input.changeNote ?? null },
     });
     await ctx.limitsChanged({ athleteIds: [p.athleteId], reason: 'The clinician changed the restriction plan.' });
+    await tellPlanVersion(ctx, p.athleteId, next, input);
     return planDto(m, ability, { ...p, version: next });
   },
 });

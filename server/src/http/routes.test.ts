@@ -107,6 +107,8 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/notifications  ⇒  member: read Notification",
         "POST   /api/orgs/:orgId/notifications/:id/read  ⇒  member: update Notification",
         "POST   /api/orgs/:orgId/notifications/read-all  ⇒  member: update Notification",
+        "GET    /api/orgs/:orgId/notice-preferences  ⇒  member: read Notification",
+        "PATCH  /api/orgs/:orgId/notice-preferences  ⇒  member: update Notification",
         "GET    /api/orgs/:orgId/exercises  ⇒  member: read Exercise",
         "POST   /api/orgs/:orgId/exercises  ⇒  member: create Exercise",
         "PATCH  /api/orgs/:orgId/exercises/:id  ⇒  member: update Exercise",

@@ -3,18 +3,11 @@ import { Notification } from '../entities';
 import { getNoticeQueue } from '../jobs/queue';
 import { enqueueEmail } from '../mail/deliveries';
 import { emails } from '../../../templates/email/messages';
+import { ALWAYS_EMAILED_KINDS, EMAILED_KIND_IDS } from '../../../policies/notice-kinds';
 
-/** Notices that also go out by e-mail: the ones someone must act on, not routine news. */
-const EMAILED_KINDS = new Set([
-  'red_flag_emergency',
-  'red_flag_emergency_guardian',
-  'red_flag_urgent',
-  'status_out',
-  'sessions_on_hold',
-  'exception_requested',
-  'exception_granted',
-  'exception_refused',
-]);
+/** Notices that also go out by e-mail: the ones someone must act on or be told of (policies/notice-kinds.ts). */
+const EMAILED_KINDS = new Set<string>(EMAILED_KIND_IDS);
+const ALWAYS_EMAILED = new Set<string>(ALWAYS_EMAILED_KINDS);
 
 export interface AthleteCircle {
   clinicians: string[];
@@ -70,9 +63,11 @@ export async function notify(m: EntityManager, recipientIds: string[], input: No
   );
   const queue = getNoticeQueue();
   if (!queue || !EMAILED_KINDS.has(notice.kind)) return;
+  // Each person's choice is respected, except for emergencies, which always go (a stored row is ignored).
   const people: { id: string; email: string; name: string }[] = await m.query(
-    `SELECT m.id, u.email, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.id = ANY($1)`,
-    [unique],
+    `SELECT m.id, u.email, u.display_name AS name FROM memberships m JOIN users u ON u.id = m.user_id
+      WHERE m.id = ANY($1) AND ($3 OR NOT EXISTS (SELECT 1 FROM notice_email_opt_outs o WHERE o.member_id = m.id AND o.kind = $2))`,
+    [unique, notice.kind, ALWAYS_EMAILED.has(notice.kind)],
   );
   for (const p of people) {
     await enqueueEmail(m, queue, {

@@ -1,8 +1,9 @@
 import { useNotifications } from '../../features/notifications/api/get-notifications';
+import { EmailPreferences } from '../../features/notifications/components/EmailPreferences';
 import { NoticeList } from '../../features/notifications/components/NoticeList';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { ErrorNotice } from '../../components/ui/Notice';
-import { Loading, PageHeader } from '../../components/ui/Panel';
+import { Loading, PageHeader, Panel } from '../../components/ui/Panel';
 import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 
@@ -22,6 +23,9 @@ export function NoticesPage() {
       ) : (
         <NoticeList orgId={orgId} notices={notices.data} emergencyNumber={organization.data?.emergencyNumber} />
       )}
+      <Panel title="E-mail me about">
+        <EmailPreferences orgId={orgId} />
+      </Panel>
     </div>
   );
 }
