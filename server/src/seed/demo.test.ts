@@ -5,6 +5,7 @@ import { signedIn, useHarness } from '../test/harness';
 import { DEMO_PASSWORD, loadDemo } from './demo';
 import { DEMO_TIME_ZONE } from './demo-zone';
 import { SEASON_DAYS } from './demo-season';
+import { jargonIn } from '../../../policies/plain-words';
 
 const at = (local: string) => `${local}@harborpoint.example`;
 
@@ -117,5 +118,24 @@ describe('the demo scenario', () => {
       [organizationId, today, addDays(today, 7)],
     );
     expect(ahead).toHaveLength(5);
+  });
+});
+
+describe('the demo scenario, as the family hears it', () => {
+  const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
+
+  it("tells Maya's mother that Maya is Limited, and of each plan version, in plain words with no trade jargon", async () => {
+    await loadDemo(h.ds, { config: h.config, bcryptCost: 4 });
+    const notices: { kind: string; title: string; body: string }[] = await h.ds.query(
+      `SELECT n.kind, n.title, n.body FROM notifications n JOIN memberships m ON m.id = n.recipient_id JOIN users u ON u.id = m.user_id
+        WHERE u.email = $1 ORDER BY n.created_at`,
+      [at('elena.torres')],
+    );
+    const kinds = notices.map((n) => n.kind);
+    expect(kinds).toContain('status_changed');
+    expect(kinds.filter((k) => k === 'plan_changed')).toHaveLength(2);
+    for (const n of notices.filter((x) => x.kind === 'status_changed' || x.kind === 'plan_changed')) {
+      expect(jargonIn(`${n.title} ${n.body}`), n.title).toEqual([]);
+    }
   });
 });
