@@ -10,6 +10,7 @@ import { AddRateLimits1765400000000 } from './1765400000000-add-rate-limits';
 import { AddOrganizationTimeZone1765500000000 } from './1765500000000-add-organization-time-zone';
 import { AddRefusalCounters1765610000000 } from './1765610000000-add-refusal-counters';
 import { AddTrainingLogPainAfter1765720000000 } from './1765720000000-add-training-log-pain-after';
+import { AddLetterPaperAndBasis1765830000000 } from './1765830000000-add-letter-paper-and-basis';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -25,4 +26,5 @@ export const MIGRATIONS = [
   AddOrganizationTimeZone1765500000000,
   AddRefusalCounters1765610000000,
   AddTrainingLogPainAfter1765720000000,
+  AddLetterPaperAndBasis1765830000000,
 ];

@@ -65,6 +65,7 @@ const draft: LetterDto = {
   signedAt: null,
   status: 'draft',
   supersededBy: null,
+  outOfDate: false,
   pdfSha256: null,
   version: 1,
   createdAt: '2026-03-12T14:00:00.000Z',

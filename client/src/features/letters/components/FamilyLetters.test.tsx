@@ -27,6 +27,7 @@ const letter = (over: Partial<LetterDto> = {}): LetterDto => ({
   signedAt: '2026-03-12T15:00:00.000Z',
   status: 'signed',
   supersededBy: null,
+  outOfDate: false,
   pdfSha256: 'ab',
   version: 2,
   createdAt: '2026-03-12T14:00:00.000Z',

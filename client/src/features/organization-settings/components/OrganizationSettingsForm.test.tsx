@@ -18,6 +18,8 @@ const settings: OrganizationSettingsDto = {
   emergencyNumber: '911',
   guardiansSeeClips: false,
   timeZone: 'America/Los_Angeles',
+  letterPaper: null,
+  letterPaperInUse: 'letter',
   version: 3,
 };
 
