@@ -1,11 +1,30 @@
 import { describe, expect, it } from 'vitest';
-import { letterStanding, nameWithCredential } from './letters';
+import { MOVEMENT_PATTERNS, type MovementPattern, type PatternRule } from './load/patterns';
+import { letterLimitLines, letterStanding, nameWithCredential } from './letters';
 
 describe('nameWithCredential', () => {
   it('adds the credential once', () => {
     expect(nameWithCredential('Priya Raman', 'ATC')).toBe('Priya Raman, ATC');
     expect(nameWithCredential('Priya Raman, ATC', 'ATC')).toBe('Priya Raman, ATC');
     expect(nameWithCredential('Marcus Bell, DPT', 'atc')).toBe('Marcus Bell, DPT, atc');
+  });
+
+  it('prints no part of the credential twice when the form’s example is followed and the name already carries it', () => {
+    expect(nameWithCredential('Priya Raman, ATC', 'Athletic trainer, ATC')).toBe('Priya Raman, ATC, Athletic trainer');
+    expect(nameWithCredential('Priya Raman', 'Physiotherapist, PT')).toBe('Priya Raman, Physiotherapist, PT');
+    expect(nameWithCredential('Priya Raman', 'PT, pt')).toBe('Priya Raman, PT');
+    expect(nameWithCredential('Priya Raman', ' ')).toBe('Priya Raman');
+  });
+});
+
+describe('letterLimitLines', () => {
+  const free = Object.fromEntries(MOVEMENT_PATTERNS.map((p) => [p, { mode: 'free' }])) as Record<MovementPattern, PatternRule>;
+  it('prints one line per limited movement, loads in the family’s unit rounded down (NIST SP 811: 1 lb = 0.45359237 kg)', () => {
+    const patterns = { ...free, squat: { mode: 'capped' as const, caps: { maxLoadKg: 20 } }, jump: { mode: 'blocked' as const } };
+    // 20 kg = 44.0924… lb → 44.09 lb.
+    expect(letterLimitLines(patterns, 'lb')).toEqual(['Squat: no more than 44.09 lb', 'Jump / landing: not allowed for now']);
+    expect(letterLimitLines(patterns, 'kg')).toEqual(['Squat: no more than 20 kg', 'Jump / landing: not allowed for now']);
+    expect(letterLimitLines(free, 'kg')).toEqual([]);
   });
 });
 

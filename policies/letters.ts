@@ -1,13 +1,38 @@
+import { describeRule } from './load/describe';
+import { MOVEMENT_PATTERNS, type MovementPattern, type PatternRule } from './load/patterns';
+import type { Unit } from './schemas/common';
+
+const credentialParts = (s: string) =>
+  s
+    .split(',')
+    .map((p) => p.trim())
+    .filter(Boolean);
+
 /**
- * "Priya Raman, ATC": the clinician's name with the credential, without repeating a credential the
- * name already carries (people often keep it in their display name).
+ * "Priya Raman, ATC": the clinician's name with the credential, printed once. People often keep a
+ * credential in their display name ("Priya Raman, ATC") and then type it again in the letter form
+ * ("Athletic trainer, ATC", as the form's example reads): each comma-separated part of the credential
+ * that the name already carries is left out, so no part is printed twice.
  */
 export function nameWithCredential(name: string, credential: string): string {
-  const has = name
-    .split(',')
-    .map((p) => p.trim().toLowerCase())
-    .includes(credential.trim().toLowerCase());
-  return has || !credential.trim() ? name : `${name}, ${credential}`;
+  const has = new Set(credentialParts(name).map((p) => p.toLowerCase()));
+  const extra = credentialParts(credential).filter((p) => {
+    const key = p.toLowerCase();
+    if (has.has(key)) return false;
+    has.add(key);
+    return true;
+  });
+  return extra.length ? `${name}, ${extra.join(', ')}` : name;
+}
+
+/**
+ * The limit lines a clearance letter prints: one line for each movement pattern that is not free, in
+ * the family's unit (loads rounded down, so a line never allows more than the cap). The letter's
+ * wording lives here and only here, so a plainer wording changes every letter, its preview and the
+ * updated-letter form at once.
+ */
+export function letterLimitLines(patterns: Record<MovementPattern, PatternRule>, unit: Unit): string[] {
+  return MOVEMENT_PATTERNS.filter((p) => patterns[p].mode !== 'free').map((p) => describeRule(p, patterns[p], unit));
 }
 
 /**

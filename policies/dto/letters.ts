@@ -23,6 +23,11 @@ export interface LetterDto {
   status: 'draft' | 'scheduled' | 'signed' | 'expired' | 'superseded';
   /** The letter that took over from this one; null until that letter's start date has come. */
   supersededBy: string | null;
+  /**
+   * In force (or scheduled) but no longer stating what is in force: the plan or status changed after
+   * it was signed. Worked out on each read; signing the updated letter ends it.
+   */
+  outOfDate: boolean;
   pdfSha256: string | null;
   version: number;
   createdAt: string;
@@ -44,6 +49,22 @@ export interface LetterCheckDto {
   validUntil?: string | null;
   organizationName?: string;
   issuedOn?: string;
+  /** The clinician has made a newer decision than this letter states (no detail of what it is). */
+  newerDecision?: boolean;
+}
+/** The updated letter's form, filled in from the status and limits in force today. */
+export interface LetterPrefillDto {
+  athleteId: string;
+  /** The athlete's participation status today. */
+  status: 'out' | 'limited' | 'full';
+  /** Null while the athlete is Out: a clearance letter clears for full or limited participation. */
+  decision: 'full' | 'limited' | null;
+  effectiveFrom: string;
+  validUntil: string | null;
+  /** The limit lines the letter will print, in the family's unit. */
+  limits: string[];
+  credential: string;
+  licenceNumber: string;
 }
 export interface OutboxMessageDto {
   id: string;

@@ -26,6 +26,10 @@ export interface OrganizationSettingsDto extends OrganizationDto {
   guardiansSeeClips: boolean;
   /** The organization's IANA time zone: which day counts as today for everyone in it (policies/today.ts). */
   timeZone: string;
+  /** Paper for clearance letters as chosen; null: by the time zone's country. */
+  letterPaper: 'letter' | 'a4' | null;
+  /** The paper letters are printed on now (the choice, or the country's). */
+  letterPaperInUse: 'letter' | 'a4';
   version: number;
 }
 export interface ErrorBody {

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { isTimeZone } from '../today';
 import { IsoDateSchema, UuidSchema, VersionSchema, isStorableText, text } from './common';
+import { LETTER_PAPERS } from '../letter-paper';
 
 const line = (max: number) =>
   text(max)
@@ -55,6 +56,8 @@ export const OrganizationSettingsSchema = z.strictObject({
     // One check, so a bad value gets the one sentence (the column holds 64 characters).
     .refine((v) => v.length <= 64 && isStorableText(v) && isTimeZone(v), { message: 'must be an IANA time zone such as America/Chicago' })
     .optional(),
+  /** Paper for clearance letters; null: the paper of the time zone's country (policies/letter-paper.ts). */
+  letterPaper: z.enum(LETTER_PAPERS, { message: 'must be letter or a4 (or empty: by country)' }).nullable().optional(),
   version: VersionSchema,
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

@@ -49,7 +49,9 @@ describe('the clearance letter PDF, rendered from its sample data', () => {
       '• Hinge: up to 60% of your best lift, effort RPE 7 or easier',
       '• Jump / landing: not allowed for now',
       'Sample note for the family.',
-      'Sample Clinician — 2026-12-01 09:00 UTC',
+      'Born 1 June 2010',
+      'Sample Clinician — 1 December 2026, 09:00 (UTC)',
+      'Contact: clinician@sample.example',
       'Sample Clinician, ATC, licence AT-000000',
       'Verification code: ABCD-EFGH-JKMN-PQRS-TVWX',
       'http://127.0.0.1:3000/check/ABCD-EFGH-JKMN-PQRS-TVWX',
@@ -107,7 +109,7 @@ describe('the clearance letter PDF, rendered from its sample data', () => {
     expect(text).not.toContain(SAMPLE_LETTER.verificationCode);
     expect(text).not.toContain('Verification code');
     expect(text).not.toContain('/check/');
-    expect(text).not.toContain('2026-12-01 09:00 UTC');
+    expect(text).not.toContain('09:00 (UTC)');
     // Still the decision, dates and caution: a draft is checked before it is signed.
     expect(text).toContain('Limited participation from 1 December 2026');
     expect(text).toContain(oneLine(LETTER_CAUTION));

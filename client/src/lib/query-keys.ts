@@ -39,6 +39,7 @@ export const queryKeys = {
   noticePreferences: (orgId: string) => ['orgs', orgId, 'notice-preferences'] as const,
   lettersAll: (orgId: string) => ['orgs', orgId, 'letters'] as const,
   letters: (orgId: string, athleteId: string | null) => ['orgs', orgId, 'letters', { athleteId }] as const,
+  letterPrefill: (orgId: string, athleteId: string) => ['orgs', orgId, 'letters', 'prefill', athleteId] as const,
   outbox: (orgId: string) => ['orgs', orgId, 'outbox'] as const,
   // Uploads. Documents hang off a case; clips off an athlete's logged sessions.
   caseDocuments: (orgId: string, caseId: string) => ['orgs', orgId, 'cases', caseId, 'documents'] as const,

@@ -11,7 +11,8 @@ import { publicBaseUrl } from '../core/public-url';
 import { enqueueEmail } from '../mail/deliveries';
 import { lettersFor } from '../queries/letters';
 import { memberContacts, memberName } from '../queries/members';
-import { hashCode, letterPdfData, limitsInForce, newVerificationCode } from '../services/letters';
+import { basisOfLetter, letterLinesOn } from '../services/letter-staleness';
+import { hashCode, letterPdfData, letterPrintContext, newVerificationCode } from '../services/letters';
 import { athleteCircle } from '../services/notify';
 import { updateVersioned } from '../services/versioned';
 
@@ -28,13 +29,13 @@ async function letterToChange(ctx: OrgCommandCtx, id: string): Promise<Clearance
   return l;
 }
 
-/** A draft; for a limited decision without limits given, the limits in force on its start date, in plain words. */
+/** A draft; for a limited decision without limits given, the limits in force on its start date, in the family's words and unit. */
 export const draftLetter = orgCommand<LetterCreateInput, LetterDto>({
   name: 'letters.draft',
   async run(ctx, input) {
     const { m, actor } = ctx;
     authorize(ctx.ability, 'create', 'Letter', { id: '', organizationId: actor.organizationId, athleteId: input.athleteId });
-    const limits = input.decision === 'full' ? [] : (input.limits ?? (await limitsInForce(m, input.athleteId, input.effectiveFrom)));
+    const limits = input.decision === 'full' ? [] : (input.limits ?? (await letterLinesOn(m, input.athleteId, input.effectiveFrom)));
     const saved = await m.save(
       m.create(ClearanceLetter, {
         organizationId: actor.organizationId,
@@ -77,7 +78,8 @@ export const editLetter = orgCommand<{ id: string } & LetterUpdateInput, LetterD
 
 /**
  * Signs a draft: freezes it, renders its PDF once (stored with its SHA-256), keeps only the hash of
- * the verification code, records that it replaces the athlete's earlier signed letters, and queues
+ * the verification code, records the status and limits it rests on (so a later change marks it out of
+ * date), records that it replaces the athlete's earlier signed letters, and queues
  * the e-mails to the athlete, their guardians and coaches. All of it commits in this one transaction,
  * so the letter row and its e-mail jobs commit together or not at all (the transactional outbox).
  * Links in the PDF and the e-mails come from configuration, never from the request.
@@ -95,11 +97,12 @@ export const signLetter = orgCommand<
       throw new AppError('version_conflict', 'Someone changed this letter after you opened it. Reload it, check it, then sign.');
     const code = newVerificationCode();
     const base = publicBaseUrl(ctx.deps.config);
-    const athleteName = await memberName(m, l.athleteId, '');
     // The letter names whoever signs it, also when another clinician of the team drafted it.
     const clinicianName = await memberName(m, actor.membershipId, '');
+    const print = await letterPrintContext(m, actor.organizationId, l.athleteId, actor.membershipId);
+    const athleteName = print.athleteName;
     const pdf = await renderLetterPdf({
-      ...letterPdfData({ ...l, clinicianName }, actor.organizationName, athleteName),
+      ...letterPdfData({ ...l, clinicianName }, print),
       signature,
       signedAt: ctx.now.toISOString(),
       verificationCode: code,
@@ -119,6 +122,7 @@ export const signLetter = orgCommand<
         pdf,
         pdfSha256: sha,
         clinicianName,
+        limitsBasis: (await basisOfLetter(m, l, ctx.today)) as never,
         updatedAt: () => 'now()',
       },
       'letter',

@@ -5,6 +5,7 @@ import type { LimitsChange, RecheckSummary } from '../core/command';
 import { engineContext, engineSets } from '../services/programs';
 import { athleteCircle, notify } from '../services/notify';
 import { memberNames } from '../queries/members';
+import { noticeStaleLetters } from '../services/letter-staleness';
 
 /**
  * The one "limits changed" path. Whatever changes what an athlete may do — a plan, a status, a case
@@ -38,6 +39,7 @@ export async function applyLimitsChange(
     if (released.length) summary.released.push({ athleteId, sessionIds: released });
   }
   if (heldByAthlete.size) await tellCoaches(m, organizationId, heldByAthlete, change.reason);
+  await noticeStaleLetters(m, organizationId, today, athleteIds);
   return summary;
 }
 

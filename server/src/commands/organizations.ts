@@ -7,8 +7,8 @@ import { updateVersioned } from '../services/versioned';
 import { loadOrganization, toSettingsDto } from '../queries/organizations';
 
 /**
- * An admin changes the organization's name, emergency number, whether guardians may watch clips, or
- * its time zone (whose calendar day is everyone's "today" from the next request on). The edit names
+ * An admin changes the organization's name, emergency number, whether guardians may watch clips, the
+ * clearance letters' paper, or its time zone (whose calendar day is everyone's "today" from the next request on). The edit names
  * the version it was made against (409 when someone changed the settings meanwhile) and the entry
  * records every setting before and after.
  */
@@ -24,6 +24,7 @@ export const updateOrganizationSettings = orgCommand({
       emergencyNumber: org.emergencyNumber,
       guardiansSeeClips: org.guardiansSeeClips,
       timeZone: org.timeZone,
+      letterPaper: org.letterPaper,
     };
     await ctx.audit({
       action: 'organization.settings_changed',

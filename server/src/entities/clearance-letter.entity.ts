@@ -1,3 +1,4 @@
+import type { LetterBasis } from '../../../policies/letter-basis';
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn, VersionColumn } from 'typeorm';
 
 /**
@@ -27,6 +28,10 @@ export class ClearanceLetter {
 
   @Column('jsonb', { default: () => "'[]'" })
   limits: string[];
+
+  /** The status and limits the letter rests on, recorded when it is signed (policies/letter-basis.ts). */
+  @Column('jsonb', { name: 'limits_basis', nullable: true })
+  limitsBasis: LetterBasis | null;
 
   @Column('varchar', { name: 'clinician_name', length: 120 })
   clinicianName: string;

@@ -1,3 +1,4 @@
+import type { LetterPaper } from '../../../policies/letter-paper';
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, VersionColumn } from 'typeorm';
 
 @Entity({ name: 'organizations' })
@@ -19,6 +20,10 @@ export class Organization {
   /** IANA zone whose calendar day is "today" for everyone in the organization (policies/today.ts). */
   @Column('varchar', { name: 'time_zone', length: 64, default: 'UTC' })
   timeZone: string;
+
+  /** Paper for clearance letters; null: the paper of the time zone's country (policies/letter-paper.ts). */
+  @Column('varchar', { name: 'letter_paper', length: 6, nullable: true })
+  letterPaper: LetterPaper | null;
 
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;

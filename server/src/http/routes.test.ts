@@ -132,6 +132,7 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/roster  ⇒  member: read Athlete",
         "GET    /api/orgs/:orgId/athletes/:id/today  ⇒  member: read Program",
         "GET    /api/orgs/:orgId/letters  ⇒  member: read Letter",
+        "GET    /api/orgs/:orgId/letters/prefill  ⇒  member: create Letter",
         "POST   /api/orgs/:orgId/letters  ⇒  member: create Letter",
         "PATCH  /api/orgs/:orgId/letters/:id  ⇒  member: update Letter",
         "GET    /api/orgs/:orgId/letters/:id/preview  ⇒  member: update Letter",

@@ -11,6 +11,7 @@ import { AddOrganizationTimeZone1765500000000 } from './1765500000000-add-organi
 import { AddRefusalCounters1765610000000 } from './1765610000000-add-refusal-counters';
 import { AddTrainingLogPainAfter1765720000000 } from './1765720000000-add-training-log-pain-after';
 import { CreateNoticeEmailOptOuts1765813000000 } from './1765813000000-create-notice-email-opt-outs';
+import { AddLetterPaperAndBasis1765830000000 } from './1765830000000-add-letter-paper-and-basis';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -27,4 +28,5 @@ export const MIGRATIONS = [
   AddRefusalCounters1765610000000,
   AddTrainingLogPainAfter1765720000000,
   CreateNoticeEmailOptOuts1765813000000,
+  AddLetterPaperAndBasis1765830000000,
 ];

@@ -1,13 +1,15 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { asSubject, type AppAbility } from '../../../policies/access';
-import type { LetterCheckDto, LetterDto } from '../../../policies/dto';
+import type { LetterCheckDto, LetterDto, LetterPrefillDto } from '../../../policies/dto';
+import type { LetterBasis } from '../../../policies/letter-basis';
 import { dayIn, orgToday } from '../../../policies/today';
 import { decisionWords, renderLetterPdf } from '../../../templates/letter/clearance-letter';
 import { ClearanceLetter } from '../entities';
 import { accessibleWhere } from '../core/accessible';
 import { authorize } from '../core/authorize';
 import { orgQuery, publicQuery } from '../core/command';
-import { hashCode, initials, letterPdfData, signedLetterDates, standingToday } from '../services/letters';
+import { outOfDateLetters, updatedLetterPrefill } from '../services/letter-staleness';
+import { hashCode, initials, letterPdfData, letterPrintContext, signedLetterDates, standingToday } from '../services/letters';
 import { memberName, memberNames } from './members';
 
 type Db = DataSource | EntityManager;
@@ -61,8 +63,16 @@ export async function lettersFor(
   );
   const names = await memberNames(db, [...letters.map((l) => l.athleteId), ...acks.map((a) => a.guardian_id)]);
   const dates = await signedLetterDates(db, [...new Set(letters.filter((l) => l.status !== 'draft').map((l) => l.athleteId))]);
+  const standings = new Map(
+    letters.map((l) => [l.id, l.status === 'draft' ? { status: 'draft' as const, supersededBy: null } : standingToday(l, dates, today)]),
+  );
+  const stale = await outOfDateLetters(
+    db,
+    letters.map((l) => ({ ...l, standing: standings.get(l.id)!.status })),
+    today,
+  );
   return letters.map((l) => {
-    const standing = l.status === 'draft' ? { status: 'draft' as const, supersededBy: null } : standingToday(l, dates, today);
+    const standing = standings.get(l.id)!;
     const seeDeliveries = ability.can(
       'read',
       asSubject('Letter', { id: l.id, organizationId: l.organizationId, athleteId: l.athleteId }),
@@ -84,6 +94,7 @@ export async function lettersFor(
       signedAt: l.signedAt ? l.signedAt.toISOString() : null,
       status: standing.status,
       supersededBy: standing.supersededBy,
+      outOfDate: stale.has(l.id),
       pdfSha256: l.pdfSha256,
       version: l.version,
       createdAt: l.createdAt.toISOString(),
@@ -118,6 +129,28 @@ export const letters = orgQuery<{ athleteId?: string }, LetterDto[]>({
   run: ({ db, ability, actor, today }, where) => lettersFor(db, ability, actor.organizationId, today, where),
 });
 
+/**
+ * The updated letter's form for an athlete, filled in from the status and limits in force today, with
+ * the credential and licence of the athlete's latest signed letter: for those who may write letters.
+ */
+export const letterPrefill = orgQuery<{ athleteId: string }, LetterPrefillDto>({
+  name: 'letters.prefill',
+  async run({ db, ability, actor, today }, { athleteId }) {
+    authorize(ability, 'create', 'Letter', { id: '', organizationId: actor.organizationId, athleteId });
+    const [previous]: { credential: string; licence_number: string }[] = await db.query(
+      `SELECT credential, licence_number FROM clearance_letters
+        WHERE organization_id = $1 AND athlete_id = $2 AND status <> 'draft' ORDER BY signed_at DESC LIMIT 1`,
+      [actor.organizationId, athleteId],
+    );
+    return updatedLetterPrefill(
+      db,
+      athleteId,
+      today,
+      previous ? { credential: previous.credential, licenceNumber: previous.licence_number } : null,
+    );
+  },
+});
+
 /** A draft as a PDF marked DRAFT, without a code or check link: for the clinicians who may sign it. */
 export const letterPreview = orgQuery<{ id: string }, { pdf: Buffer; filename: string }>({
   name: 'letters.preview',
@@ -125,7 +158,7 @@ export const letterPreview = orgQuery<{ id: string }, { pdf: Buffer; filename: s
     const l = await db.getRepository(ClearanceLetter).findOne({ where: { id, organizationId: actor.organizationId } });
     authorize(ability, 'update', 'Letter', l);
     const pdf = await renderLetterPdf({
-      ...letterPdfData(l, actor.organizationName, await memberName(db, l.athleteId, '')),
+      ...letterPdfData(l, await letterPrintContext(db, actor.organizationId, l.athleteId, actor.membershipId)),
       draft: true,
       verificationCode: '',
       checkUrl: '',
@@ -138,7 +171,8 @@ export const letterPreview = orgQuery<{ id: string }, { pdf: Buffer; filename: s
 
 /**
  * The public check of a verification code: the standing on the issuing organization's today, with
- * dates, decision and initials only — never the athlete's name, notes or limits.
+ * dates, decision and initials only — never the athlete's name, notes or limits — and whether the
+ * clinician has since made a newer decision (never which).
  */
 export async function letterCheck(db: Db, code: string, now: Date): Promise<LetterCheckDto> {
   const rows: {
@@ -148,10 +182,11 @@ export async function letterCheck(db: Db, code: string, now: Date): Promise<Lett
     effective_from: string;
     valid_until: string | null;
     signed_at: Date;
+    limits_basis: LetterBasis | null;
     org: string;
     time_zone: string;
   }[] = await db.query(
-    `SELECT l.id, l.athlete_id, l.decision, l.effective_from, l.valid_until, l.signed_at, o.name AS org, o.time_zone
+    `SELECT l.id, l.athlete_id, l.decision, l.effective_from, l.valid_until, l.signed_at, l.limits_basis, o.name AS org, o.time_zone
        FROM clearance_letters l JOIN organizations o ON o.id = l.organization_id
       WHERE l.code_hash = $1 AND l.status <> 'draft'`,
     [hashCode(code)],
@@ -159,7 +194,13 @@ export async function letterCheck(db: Db, code: string, now: Date): Promise<Lett
   const r = rows[0];
   if (!r) return { status: 'unknown' };
   const dates = await signedLetterDates(db, [r.athlete_id]);
-  const standing = standingToday({ id: r.id, athleteId: r.athlete_id }, dates, orgToday(r.time_zone, now));
+  const today = orgToday(r.time_zone, now);
+  const standing = standingToday({ id: r.id, athleteId: r.athlete_id }, dates, today);
+  const stale = await outOfDateLetters(
+    db,
+    [{ id: r.id, athleteId: r.athlete_id, effectiveFrom: r.effective_from, limitsBasis: r.limits_basis, standing: standing.status }],
+    today,
+  );
   return {
     status: standing.status === 'signed' ? 'valid' : standing.status,
     athleteInitials: initials(await memberName(db, r.athlete_id, '')),
@@ -168,6 +209,8 @@ export async function letterCheck(db: Db, code: string, now: Date): Promise<Lett
     validUntil: r.valid_until,
     organizationName: r.org,
     issuedOn: dayIn(r.time_zone, new Date(r.signed_at)),
+    // Only that a newer decision exists: never what it is (the check page carries no medical detail).
+    ...(stale.has(r.id) ? { newerDecision: true } : {}),
   };
 }
 

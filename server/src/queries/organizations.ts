@@ -1,5 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { OrganizationDto, OrganizationSettingsDto } from '../../../policies/dto';
+import { letterPaperOf } from '../../../policies/letter-paper';
 import { Organization } from '../entities';
 import { authorize } from '../core/authorize';
 import { orgQuery } from '../core/command';
@@ -9,7 +10,13 @@ export function toOrganizationDto(org: Organization): OrganizationDto {
 }
 
 export function toSettingsDto(org: Organization): OrganizationSettingsDto {
-  return { ...toOrganizationDto(org), guardiansSeeClips: org.guardiansSeeClips, version: org.version };
+  return {
+    ...toOrganizationDto(org),
+    guardiansSeeClips: org.guardiansSeeClips,
+    letterPaper: org.letterPaper,
+    letterPaperInUse: letterPaperOf(org),
+    version: org.version,
+  };
 }
 
 export function loadOrganization(db: DataSource | EntityManager, id: string): Promise<Organization | null> {

@@ -1,11 +1,9 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
-import { describeRule } from '../../../policies/load/describe';
-import { inForceOn } from '../../../policies/load/in-force';
-import { MOVEMENT_PATTERNS } from '../../../policies/load/patterns';
+import { letterPaperOf, type LetterPaper } from '../../../policies/letter-paper';
 import { letterStanding, type LetterStanding, type SignedLetterDates } from '../../../policies/letters';
 import type { LetterData } from '../../../templates/letter/clearance-letter';
-import { activePlans } from './cases';
+import { memberContacts } from '../queries/members';
 
 const CROCKFORD = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
 
@@ -28,13 +26,6 @@ export function normalizeCode(code: string): string {
 }
 
 export const hashCode = (code: string) => createHash('sha256').update(normalizeCode(code)).digest('hex');
-
-/** The limits in force on a date, in the plain words athletes and families read. */
-export async function limitsInForce(m: EntityManager, athleteId: string, date: string): Promise<string[]> {
-  const plans = (await activePlans(m, [athleteId], date)).get(athleteId) ?? [];
-  const inForce = inForceOn(plans, date);
-  return MOVEMENT_PATTERNS.filter((p) => inForce.patterns[p].mode !== 'free').map((p) => describeRule(p, inForce.patterns[p], 'kg'));
-}
 
 export function initials(name: string): string {
   return name
@@ -75,18 +66,52 @@ export function standingToday(
   return letterStanding(self, all, today);
 }
 
+/** What the PDF prints besides the letter row: whom it is about, who signs, and the organization's paper and clock. */
+export interface LetterPrintContext {
+  organizationName: string;
+  athleteName: string;
+  athleteDateOfBirth: string | null;
+  clinicianContact: string;
+  paper: LetterPaper;
+  timeZone: string;
+}
+
+/** The print context of a letter about `athleteId`, signed (or to be signed) by `clinicianId`. */
+export async function letterPrintContext(
+  db: DataSource | EntityManager,
+  organizationId: string,
+  athleteId: string,
+  clinicianId: string,
+): Promise<LetterPrintContext> {
+  const [org]: { name: string; time_zone: string; letter_paper: LetterPaper | null }[] = await db.query(
+    `SELECT name, time_zone, letter_paper FROM organizations WHERE id = $1`,
+    [organizationId],
+  );
+  const [profile]: { date_of_birth: string | null }[] = await db.query(
+    `SELECT date_of_birth FROM athlete_profiles WHERE membership_id = $1`,
+    [athleteId],
+  );
+  const people = await memberContacts(db, [athleteId, clinicianId]);
+  return {
+    organizationName: org.name,
+    athleteName: people.get(athleteId)?.name ?? '',
+    athleteDateOfBirth: profile?.date_of_birth ?? null,
+    clinicianContact: people.get(clinicianId)?.email ?? '',
+    paper: letterPaperOf({ letterPaper: org.letter_paper, timeZone: org.time_zone }),
+    timeZone: org.time_zone,
+  };
+}
+
 /** What a letter's PDF says of a letter row; the caller adds the signature, signing instant, code and check link. */
 export function letterPdfData(
   l: Pick<
     LetterData,
     'decision' | 'effectiveFrom' | 'validUntil' | 'limits' | 'clinicianName' | 'credential' | 'licenceNumber' | 'familyNote'
   >,
-  organizationName: string,
-  athleteName: string,
+  context: LetterPrintContext,
 ): Omit<LetterData, 'signature' | 'signedAt' | 'verificationCode' | 'checkUrl'> {
   return {
-    organizationName,
-    athleteName,
+    ...context,
     decision: l.decision,
     effectiveFrom: l.effectiveFrom,
     validUntil: l.validUntil,

@@ -129,6 +129,28 @@ describe('public letter check', () => {
     expect(screen.queryByRole('heading', { name: 'Valid' })).not.toBeInTheDocument();
   });
 
+  it('says a newer decision exists for a valid letter the clinician has since changed, and nothing of what it is', async () => {
+    fetchMock.mockResolvedValue(
+      jsonResponse(200, {
+        status: 'valid',
+        athleteInitials: 'M. T.',
+        decision: 'Limited participation from 1 April 2026',
+        effectiveFrom: '2026-04-01',
+        validUntil: null,
+        organizationName: 'Harbor Point Performance',
+        issuedOn: '2026-03-30',
+        newerDecision: true,
+      }),
+    );
+    renderCheck(`/check/${CODE}`);
+    expect(await screen.findByRole('heading', { name: 'Valid' })).toBeInTheDocument();
+    expect(
+      screen.getByText(
+        'A newer decision exists: the clinician has changed this decision since the letter was signed. Ask Harbor Point Performance for the updated letter.',
+      ),
+    ).toBeInTheDocument();
+  });
+
   it('explains a code that cannot be right without sending it', async () => {
     renderCheck('/check');
     expect(screen.getByRole('heading', { name: 'Check a clearance letter' })).toBeInTheDocument();

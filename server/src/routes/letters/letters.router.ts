@@ -16,7 +16,7 @@ import type { Deps } from '../../http/context';
 import { sendPdf } from '../../http/downloads';
 import { orgRoute, publicRoute, type RouteDef } from '../../http/route';
 import { limitStore } from '../../http/security';
-import { letterCheckQuery, letterPreview, letters } from '../../queries/letters';
+import { letterCheckQuery, letterPrefill, letterPreview, letters } from '../../queries/letters';
 import { deliveries, outboxMessages } from '../../queries/outbox';
 
 export function letterRoutes(deps: Deps): RouteDef[] {
@@ -39,6 +39,16 @@ export function letterRoutes(deps: Deps): RouteDef[] {
       body: NothingSchema,
       query: z.strictObject({ athleteId: UuidSchema.optional() }),
       handler: ({ read, query }) => read(letters, query),
+    }),
+    orgRoute({
+      method: 'get',
+      path: '/orgs/:orgId/letters/prefill',
+      summary: "The updated letter's form, filled in from the status and limits in force today",
+      access: { kind: 'org', action: 'create', subject: 'Letter' },
+      params: OrgParamsSchema,
+      body: NothingSchema,
+      query: z.strictObject({ athleteId: UuidSchema }),
+      handler: ({ read, query }) => read(letterPrefill, query),
     }),
     orgRoute({
       method: 'post',

@@ -28,6 +28,8 @@ describe("the organization's time zone, in the admin's settings", () => {
       emergencyNumber: '911',
       timeZone: 'UTC',
       guardiansSeeClips: false,
+      letterPaper: null,
+      letterPaperInUse: 'a4',
       version: 1,
     });
   });

@@ -23,6 +23,8 @@ export function pickCheckFields(raw: unknown): LetterCheckDto {
     validUntil: text(body.validUntil) ?? null,
     organizationName: text(body.organizationName),
     issuedOn: text(body.issuedOn),
+    // Only the fact, as a boolean: never what the newer decision is.
+    ...(body.newerDecision === true ? { newerDecision: true } : {}),
   };
 }
 

@@ -115,6 +115,12 @@ export function CheckResult({ result }: { result: LetterCheckDto }) {
         </h2>
       </div>
       <p className="mt-3 text-base">{answer.text(result)}</p>
+      {result.newerDecision && (
+        <p className="mt-3 rounded-md border border-l-8 border-line px-4 py-3 text-base font-semibold">
+          A newer decision exists: the clinician has changed this decision since the letter was signed. Ask{' '}
+          {result.organizationName ?? 'the issuing organization'} for the updated letter.
+        </p>
+      )}
       {result.status !== 'unknown' && (
         <div className="mt-4">
           <Facts

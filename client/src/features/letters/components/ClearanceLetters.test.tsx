@@ -65,6 +65,7 @@ const draft: LetterDto = {
   signedAt: null,
   status: 'draft',
   supersededBy: null,
+  outOfDate: false,
   pdfSha256: null,
   version: 1,
   createdAt: '2026-03-12T14:00:00.000Z',
@@ -210,5 +211,52 @@ describe('ClearanceLetters', () => {
     expect(record.querySelector('svg[data-shape="expired"]')).not.toBeNull();
     expect(screen.queryByRole('img', { name: /Letter status: Signed/ })).not.toBeInTheDocument();
     expect(container.querySelectorAll('article')).toHaveLength(1);
+  });
+
+  it('marks an out-of-date letter, and one click opens the updated letter filled in from what is in force today', async () => {
+    const signed: LetterDto = {
+      ...draft,
+      status: 'signed',
+      signature: 'Priya Raman',
+      signedAt: '2026-03-12T15:00:00.000Z',
+      outOfDate: true,
+    };
+    fetchMock.mockImplementation(async (input) => {
+      if (String(input).includes('/letters/prefill')) {
+        return jsonResponse(200, {
+          athleteId: MAYA,
+          status: 'limited',
+          decision: 'limited',
+          effectiveFrom: '2026-03-20',
+          validUntil: '2026-04-20',
+          limits: ['Hinge: up to 50% of your best lift'],
+          credential: 'PT',
+          licenceNumber: 'PT-448812',
+        });
+      }
+      return jsonResponse(200, [signed]);
+    });
+    renderSection();
+    expect(await screen.findByText('Out of date')).toBeInTheDocument();
+    expect(screen.getByText('Out of date: the plan or status changed after this letter was signed')).toBeInTheDocument();
+
+    fireEvent.click(screen.getByRole('button', { name: 'Write the updated letter' }));
+    const form = await screen.findByRole('form', { name: 'Write a clearance letter for Maya Torres' });
+    expect(within(form).getByRole('radio', { name: 'Limited participation' })).toBeChecked();
+    expect(within(form).getByLabelText('From')).toHaveValue('2026-03-20');
+    expect(within(form).getByLabelText('Valid until (next review)')).toHaveValue('2026-04-20');
+    expect(within(form).getByLabelText('Credential')).toHaveValue('PT');
+    expect(within(form).getByText('Hinge: up to 50% of your best lift')).toBeInTheDocument();
+    expect(String(fetchMock.mock.calls.find(([i]) => String(i).includes('prefill'))?.[0])).toBe(
+      `/api/orgs/${ORG}/letters/prefill?athleteId=${MAYA}`,
+    );
+  });
+
+  it('shows no out-of-date mark on a letter that still states what is in force', async () => {
+    fetchMock.mockResolvedValue(jsonResponse(200, [{ ...draft, status: 'signed', signedAt: '2026-03-12T15:00:00.000Z' }]));
+    renderSection();
+    expect(await screen.findByRole('img', { name: /Letter status: Signed/ })).toBeInTheDocument();
+    expect(screen.queryByText('Out of date')).not.toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Write the updated letter' })).not.toBeInTheDocument();
   });
 });

@@ -6,12 +6,43 @@ import { useCurrentMembership } from '../../../lib/membership-context';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { Loading, Panel } from '../../../components/ui/Panel';
+import { useLetterPrefill } from '../api/get-letter-prefill';
 import { currentLetter, expiredLetter, scheduledLetters, useLetters } from '../api/get-letters';
 import { DraftLetter } from './DraftLetter';
 import { LetterCaution } from './LetterCaution';
 import { LetterRecord } from './LetterRecord';
 import { VerificationCodeNotice } from './VerificationCodeNotice';
 import { WriteLetterForm } from './WriteLetterForm';
+
+/** The updated letter's form, once the server has filled it in from what is in force today. */
+function UpdatedLetterForm({
+  orgId,
+  athleteId,
+  athleteName,
+  signer,
+  onDone,
+}: {
+  orgId: string;
+  athleteId: string;
+  athleteName: string;
+  signer: { credential: string; licenceNumber: string };
+  onDone: () => void;
+}) {
+  const prefill = useLetterPrefill(orgId, athleteId);
+  if (prefill.isPending) return <Loading what="what is in force today" />;
+  if (prefill.isError) return <ErrorNotice error={prefill.error} />;
+  return (
+    <WriteLetterForm
+      orgId={orgId}
+      athleteId={athleteId}
+      athleteName={athleteName}
+      signer={signer}
+      prefill={prefill.data}
+      onSaved={onDone}
+      onCancel={onDone}
+    />
+  );
+}
 
 /**
  * The clinician's "Clearance letters" section for one athlete: drafts (editable, previewable,
@@ -22,7 +53,8 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
   const { user } = useCurrentMembership();
   const ability = useAppAbility();
   const letters = useLetters(orgId, athleteId, { followDeliveries: true });
-  const [writing, setWriting] = useState(false);
+  // 'updated': the updated letter, filled in from what is in force today (the letter in force is out of date).
+  const [writing, setWriting] = useState<false | 'new' | 'updated'>(false);
   // Held here, not in the draft: the draft becomes a signed letter the moment the list refreshes.
   const [justSigned, setJustSigned] = useState<LetterDto | null>(null);
   const scope = { organizationId: orgId, athleteId };
@@ -37,6 +69,8 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
   const earlier = all.filter((l) => l.status === 'superseded');
   const mine = all.find((l) => l.clinicianName === user.displayName);
   const byId = new Map(all.map((l) => [l.id, l]));
+  // One updated letter at a time: not while writing, nor while a draft waits to be signed.
+  const updatable = canWrite && !writing && drafts.length === 0;
 
   return (
     <Panel
@@ -44,7 +78,7 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
       actions={
         canWrite &&
         !writing && (
-          <Button onClick={() => setWriting(true)} variant="primary">
+          <Button onClick={() => setWriting('new')} variant="primary">
             Write a clearance letter
           </Button>
         )
@@ -57,15 +91,27 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
         )}
         {writing && (
           <section aria-label="New clearance letter" className="rounded-md border border-rule-strong p-3 sm:p-4">
-            <h3 className="mb-3 text-base font-bold">New clearance letter for {athleteName}</h3>
-            <WriteLetterForm
-              orgId={orgId}
-              athleteId={athleteId}
-              athleteName={athleteName}
-              signer={{ credential: mine?.credential ?? '', licenceNumber: mine?.licenceNumber ?? '' }}
-              onSaved={() => setWriting(false)}
-              onCancel={() => setWriting(false)}
-            />
+            <h3 className="mb-3 text-base font-bold">
+              {writing === 'updated' ? 'Updated' : 'New'} clearance letter for {athleteName}
+            </h3>
+            {writing === 'updated' ? (
+              <UpdatedLetterForm
+                orgId={orgId}
+                athleteId={athleteId}
+                athleteName={athleteName}
+                signer={{ credential: mine?.credential ?? '', licenceNumber: mine?.licenceNumber ?? '' }}
+                onDone={() => setWriting(false)}
+              />
+            ) : (
+              <WriteLetterForm
+                orgId={orgId}
+                athleteId={athleteId}
+                athleteName={athleteName}
+                signer={{ credential: mine?.credential ?? '', licenceNumber: mine?.licenceNumber ?? '' }}
+                onSaved={() => setWriting(false)}
+                onCancel={() => setWriting(false)}
+              />
+            )}
           </section>
         )}
         {letters.isPending ? (
@@ -93,9 +139,11 @@ export function ClearanceLetters({ orgId, athleteId, athleteName }: { orgId: str
               ),
             )}
             {upcoming.map((l) => (
-              <LetterRecord key={l.id} orgId={orgId} letter={l} />
+              <LetterRecord key={l.id} orgId={orgId} letter={l} onWriteUpdated={updatable ? () => setWriting('updated') : undefined} />
             ))}
-            {current && <LetterRecord orgId={orgId} letter={current} />}
+            {current && (
+              <LetterRecord orgId={orgId} letter={current} onWriteUpdated={updatable ? () => setWriting('updated') : undefined} />
+            )}
             {expired && <LetterRecord orgId={orgId} letter={expired} />}
             {earlier.length > 0 && (
               <details className="rounded-md border border-rule">

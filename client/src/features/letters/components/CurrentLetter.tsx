@@ -69,6 +69,13 @@ function LetterSummary({ orgId, letter, audience }: { orgId: string; letter: Let
           </p>
         </>
       )}
+      {letter.outOfDate && (
+        <p className={audience === 'athlete' ? 'text-base font-semibold' : 'text-sm font-semibold'}>
+          A newer decision exists: the clinician has changed what {audience === 'athlete' ? 'you may' : 'this athlete may'} do since signing
+          this letter, and an updated letter will follow.{' '}
+          {audience === 'athlete' ? 'Follow your plan as it is now.' : 'Program under the limits in force now.'}
+        </p>
+      )}
       {letter.decision === 'limited' && <LimitsList limits={letter.limits} large={audience === 'athlete'} />}
       {audience === 'athlete' && letter.familyNote && (
         <div className="text-base">

@@ -27,6 +27,7 @@ const letter = (over: Partial<LetterDto> = {}): LetterDto => ({
   signedAt: '2026-03-12T15:00:00.000Z',
   status: 'signed',
   supersededBy: null,
+  outOfDate: false,
   pdfSha256: 'ab',
   version: 2,
   createdAt: '2026-03-12T14:00:00.000Z',
@@ -120,5 +121,20 @@ describe('FamilyLetters', () => {
       ),
     ).toBeInTheDocument();
     expect(screen.queryByRole('img', { name: /Letter status: Signed/ })).not.toBeInTheDocument();
+  });
+
+  it('says a newer decision exists when the letter in force is out of date, without what it is', async () => {
+    fetchMock.mockResolvedValue(jsonResponse(200, [letter({ outOfDate: true })]));
+    renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
+    const card = await screen.findByRole('article', { name: 'Clearance letter for Maya' });
+    expect(within(card).getByText('A newer decision exists')).toBeInTheDocument();
+    expect(within(card).getByText(/The clinician has changed what Maya may do since signing this letter/)).toBeInTheDocument();
+  });
+
+  it('says nothing of a newer decision while the letter is current', async () => {
+    fetchMock.mockResolvedValue(jsonResponse(200, [letter()]));
+    renderWithProviders(<FamilyLetters orgId="org-1" guardianId="m-elena" athletes={[{ id: 'm-maya', name: 'Maya' }]} />);
+    await screen.findByRole('article', { name: 'Clearance letter for Maya' });
+    expect(screen.queryByText('A newer decision exists')).not.toBeInTheDocument();
   });
 });

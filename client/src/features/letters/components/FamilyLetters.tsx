@@ -133,6 +133,15 @@ function FamilyLetter({
         {name}: {DECISION_WORDS[letter.decision].toLowerCase()}
       </p>
       <p className="text-base tabular-nums">{letterDates(letter)}.</p>
+      {letter.outOfDate && (
+        <div className="rounded-md border border-l-8 border-line bg-sheet px-4 py-3 text-base">
+          <p className="font-semibold">A newer decision exists</p>
+          <p className="mt-1">
+            The clinician has changed what {name} may do since signing this letter. An updated letter will follow; until then, ask the
+            clinician or coach what applies today.
+          </p>
+        </div>
+      )}
       {letter.status === 'expired' && (
         <p className="text-base font-semibold">
           {validUntilWords(letter)} and has expired: it no longer clears {name}. The clinician needs to sign a new letter.

@@ -2,14 +2,29 @@ import { useId } from 'react';
 import type { LetterDto } from '../../../../../policies/dto';
 import { describeDate } from '../../../../../policies/load/describe';
 import { formatDateTime } from '../../../lib/format';
+import { Button } from '../../../components/ui/Button';
 import { cx } from '../../../components/ui/cx';
 import { Facts } from '../../../components/ui/Panel';
 import { letterPdfHref } from '../api/get-letters';
 import { LetterStatusMark } from './LetterMarks';
 import { DECISION_WORDS, dayOf, deliveryWords, takesEffect, validUntilWords, type Delivery } from './letter-words';
 
-/** A signed, scheduled, expired or superseded letter as the care team's record: contents, who it went to, who has read it. */
-export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; letter: LetterDto; supersededBy?: LetterDto | null }) {
+/**
+ * A signed, scheduled, expired or superseded letter as the care team's record: contents, who it went
+ * to, who has read it — and, when the plan or status has changed since it was signed, that it is out
+ * of date, with the one click that writes the updated letter (`onWriteUpdated`, for those who may).
+ */
+export function LetterRecord({
+  orgId,
+  letter,
+  supersededBy,
+  onWriteUpdated,
+}: {
+  orgId: string;
+  letter: LetterDto;
+  supersededBy?: LetterDto | null;
+  onWriteUpdated?: () => void;
+}) {
   const headingId = useId();
   return (
     <article
@@ -24,8 +39,25 @@ export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; l
           {DECISION_WORDS[letter.decision]}{' '}
           <span className="font-normal text-ink-2 tabular-nums">from {describeDate(letter.effectiveFrom)}</span>
         </h3>
-        <LetterStatusMark status={letter.status} />
+        <span className="flex flex-wrap items-center gap-3">
+          {letter.outOfDate && <OutOfDateMark />}
+          <LetterStatusMark status={letter.status} />
+        </span>
       </header>
+      {letter.outOfDate && (
+        <div className="mb-3 rounded-md border border-l-8 border-line bg-sheet px-4 py-3 text-sm">
+          <p className="font-semibold">Out of date: the plan or status changed after this letter was signed</p>
+          <p className="mt-1 text-ink-2">
+            It no longer states what {letter.athleteName || 'the athlete'} may do now. The family and anyone checking its code are told that
+            a newer decision exists, without any detail. Signing the updated letter replaces this one.
+          </p>
+          {onWriteUpdated && (
+            <Button className="mt-2" onClick={onWriteUpdated}>
+              Write the updated letter
+            </Button>
+          )}
+        </div>
+      )}
       {letter.status === 'scheduled' && (
         <p className="mb-3 text-sm text-ink-2">{takesEffect(letter)}. Until then, any earlier letter stays in force.</p>
       )}
@@ -69,6 +101,20 @@ export function LetterRecord({ orgId, letter, supersededBy }: { orgId: string; l
         </div>
       </div>
     </article>
+  );
+}
+
+/** "Out of date" as a word with a broken-line glyph: never colour alone. */
+export function OutOfDateMark() {
+  return (
+    <span className="inline-flex items-center gap-1.5 font-semibold whitespace-nowrap text-line-deep">
+      <svg width="16" height="16" viewBox="0 0 24 24" aria-hidden="true" focusable="false">
+        <path d="M12 3 L22 20 H2 Z" fill="none" stroke="currentColor" strokeWidth="2.2" strokeLinejoin="round" />
+        <path d="M12 9.5 V14" stroke="currentColor" strokeWidth="2.4" strokeLinecap="round" />
+        <circle cx="12" cy="17" r="1.3" fill="currentColor" />
+      </svg>
+      <span>Out of date</span>
+    </span>
   );
 }
 

@@ -60,7 +60,7 @@ export function LetterFields<T extends LetterFieldValues>({
         />
         <TextField
           label="Credential"
-          hint="As printed under your signature, e.g. “Physiotherapist, PT”."
+          hint="As printed after your name, e.g. “PT” or “ATC”. Leave out what your name already shows."
           autoComplete="off"
           error={errors.credential?.message}
           {...r('credential')}

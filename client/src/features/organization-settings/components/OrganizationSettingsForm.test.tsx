@@ -18,6 +18,8 @@ const settings: OrganizationSettingsDto = {
   emergencyNumber: '911',
   guardiansSeeClips: false,
   timeZone: 'America/Los_Angeles',
+  letterPaper: null,
+  letterPaperInUse: 'letter',
   version: 3,
 };
 
@@ -48,5 +50,18 @@ describe('OrganizationSettingsForm', () => {
     expect(choices).toEqual(expect.arrayContaining(['UTC', 'Etc/GMT+8', 'America/Los_Angeles', 'Australia/Sydney', 'Europe/Berlin']));
     expect(new Set(choices).size).toBe(choices.length);
     expect(choices).toEqual([...choices].sort());
+  });
+
+  it('ISO 216 / ANSI: offers By country, US Letter and A4 for letters, saying which is in use, and sends the choice', async () => {
+    fetchMock.mockImplementation(async () => jsonResponse(200, { ...settings, letterPaper: 'a4', letterPaperInUse: 'a4', version: 4 }));
+    renderWithProviders(<OrganizationSettingsForm orgId="org-1" settings={settings} />);
+    const paper = screen.getByRole('combobox', { name: 'Paper for clearance letters' });
+    expect(paper).toHaveValue('');
+    expect(paper).toHaveAccessibleDescription(/Letters print on US Letter \(8\.5 × 11 in\) now/);
+    expect(screen.getByRole('option', { name: 'A4 (210 × 297 mm)' })).toBeInTheDocument();
+    fireEvent.change(paper, { target: { value: 'a4' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save settings' }));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+    expect(JSON.parse(fetchMock.mock.calls[0][1]?.body as string)).toMatchObject({ letterPaper: 'a4', version: 3 });
   });
 });

@@ -4,6 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { OrganizationSettingsDto } from '../../../../../policies/dto';
+import { LETTER_PAPERS, PAPER_LABELS } from '../../../../../policies/letter-paper';
 import { OrganizationSettingsSchema } from '../../../../../policies/schemas';
 import { Button } from '../../../components/ui/Button';
 import { SelectField, TextField } from '../../../components/ui/Field';
@@ -22,10 +23,11 @@ const startingValues = (s: OrganizationSettingsDto): Input => ({
   emergencyNumber: s.emergencyNumber,
   guardiansSeeClips: s.guardiansSeeClips,
   timeZone: s.timeZone,
+  letterPaper: s.letterPaper,
   version: s.version,
 });
 
-/** Name, local emergency number, time zone and who watches clips; saved with the version it was read at. */
+/** Name, local emergency number, time zone, letter paper and who watches clips; saved with the version it was read at. */
 export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; settings: OrganizationSettingsDto }) {
   const queryClient = useQueryClient();
   const update = useUpdateOrganizationSettings(orgId);
@@ -45,7 +47,8 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
   const stale = isApiError(update.error) && (update.error.code === 'version_conflict' || update.error.status === 409);
   const onSubmit = handleSubmit((values) =>
     update.mutate(values, {
-      onError: (error) => applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'timeZone', 'guardiansSeeClips']),
+      onError: (error) =>
+        applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'timeZone', 'guardiansSeeClips', 'letterPaper']),
     }),
   );
 
@@ -88,6 +91,19 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
         {zones.map((zone) => (
           <option key={zone} value={zone}>
             {timeZoneLabel(zone)}
+          </option>
+        ))}
+      </SelectField>
+      <SelectField
+        label="Paper for clearance letters"
+        hint={`By country: the paper of the time zone's country (US Letter in the United States, Canada, Mexico, the Philippines and parts of Latin America; A4 elsewhere). Letters print on ${PAPER_LABELS[settings.letterPaperInUse]} now. Letters already signed keep their paper.`}
+        error={errors.letterPaper?.message}
+        {...register('letterPaper', { setValueAs: (v: string | null) => (v ? v : null) })}
+      >
+        <option value="">By country</option>
+        {LETTER_PAPERS.map((paper) => (
+          <option key={paper} value={paper}>
+            {PAPER_LABELS[paper]}
           </option>
         ))}
       </SelectField>

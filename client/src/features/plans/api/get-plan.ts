@@ -32,4 +32,6 @@ export function refreshAfterPlanChange(queryClient: QueryClient, orgId: string, 
   void queryClient.invalidateQueries({ queryKey: queryKeys.caseload(orgId) });
   void queryClient.invalidateQueries({ queryKey: queryKeys.inForceAll(orgId) });
   void queryClient.invalidateQueries({ queryKey: queryKeys.audit(orgId) });
+  // A letter in force may now be out of date (worked out by the server on each read).
+  void queryClient.invalidateQueries({ queryKey: queryKeys.lettersAll(orgId) });
 }
