@@ -1,0 +1,72 @@
+import { describe, expect, it } from 'vitest';
+import { checkSets } from './compliance';
+import { ctx, plan, stage } from './compliance-fixtures';
+import { dayInWords } from './day-words';
+import { inForceOn } from './in-force';
+import { loggedEngineSets, loggedSetIndex, overLimitWords, type LoggedSet } from './logged-sets';
+
+const byName: Record<string, string> = { deadlift: 'dl', 'back squat': 'sq', 'box jump': 'bj' };
+const resolve = (s: LoggedSet) => s.exerciseId ?? byName[s.exercise.trim().toLowerCase()] ?? null;
+const hinge80 = plan(stage({ hinge: { mode: 'capped', caps: { maxLoadKg: 80 } }, jump: { mode: 'blocked' } }));
+
+describe('logged sets through the same engine as planned sets', () => {
+  it('Deadlift 100 kg × 5 under an 80 kg hinge cap is one breach, said as "over the limit … max 80 kg" (common practice)', () => {
+    const sets: LoggedSet[] = [
+      { exercise: 'Deadlift', exerciseId: 'dl', loadKg: 80, reps: 5 },
+      { exercise: 'Deadlift', exerciseId: 'dl', loadKg: 100, reps: 5 },
+    ];
+    const breaches = checkSets(loggedEngineSets({ sessionKey: 'log1', date: '2026-03-03', sets }, resolve), ctx(hinge80));
+    expect(breaches.map((b) => [b.rule, loggedSetIndex(b)])).toEqual([['absolute_load', 1]]);
+    expect(overLimitWords(breaches[0], sets[1], 'Deadlift', 'kg')).toBe(
+      'Deadlift 100 kg × 5 is over the limit for lifting from the floor and bending at the hips (hinge): max 80 kg.',
+    );
+  });
+
+  it('the set at the limit passes; a set of no library exercise, or of 0 reps, is not checked', () => {
+    const sets: LoggedSet[] = [
+      { exercise: 'deadlift ', loadKg: 80, reps: 5 },
+      { exercise: 'Farmer walk with a sandbag', loadKg: 200, reps: 1 },
+      { exercise: 'Deadlift', loadKg: 120, reps: 0 },
+    ];
+    const engineSets = loggedEngineSets({ sessionKey: 'log2', date: '2026-03-03', sets }, resolve);
+    expect(engineSets.map((s) => s.order)).toEqual([0]);
+    expect(checkSets(engineSets, ctx(hinge80))).toEqual([]);
+  });
+
+  it('a blocked movement is said in everyday words, with the date in words (never ISO inside a sentence)', () => {
+    const sets: LoggedSet[] = [{ exercise: 'Box jump', loadKg: 0, reps: 5 }];
+    const [b] = checkSets(loggedEngineSets({ sessionKey: 'log3', date: '2026-03-03', sets }, resolve), ctx(hinge80));
+    expect(overLimitWords(b, sets[0], 'Box jump', 'kg')).toBe(
+      'Box jump × 5: jumping and landing (jump / landing) is not allowed on 3 March 2026.',
+    );
+  });
+
+  it('the load is said in the reader unit: 100 kg = 220.46 lb (NIST SP 811)', () => {
+    const sets: LoggedSet[] = [{ exercise: 'Deadlift', loadKg: 100, reps: 5, rpe: 8 }];
+    const [b] = checkSets(loggedEngineSets({ sessionKey: 'log4', date: '2026-03-03', sets }, resolve), ctx(hinge80, {}, { unit: 'lb' }));
+    expect(overLimitWords(b, sets[0], 'Deadlift', 'lb')).toBe(
+      'Deadlift 220.46 lb × 5 at RPE 8 is over the limit for lifting from the floor and bending at the hips (hinge): max 176.36 lb.',
+    );
+  });
+});
+
+describe('a day in the athlete words', () => {
+  it('a capped load reads as a load on the bar: 45 kg → "up to 95 lb" (NIST SP 811; 5-lb steps, common practice)', () => {
+    const day = inForceOn(
+      plan(stage({ hinge: { mode: 'capped', caps: { maxLoadKg: 45, maxRpe: 7 } }, jump: { mode: 'blocked' } })),
+      '2026-03-03',
+    );
+    const words = dayInWords(day, 'limited', 'lb');
+    expect(words.withLimits).toEqual(['lifting from the floor and bending at the hips (hinge): up to 95 lb, effort RPE 7 or easier']);
+    expect(words.mayNot).toEqual(['jumping and landing (jump / landing)']);
+    expect(words.pain).toBe('Stop and tell your clinician if pain goes past 5/10.');
+    expect(words.free).toMatch(/^No limit on everything else: squatting, /);
+    expect(JSON.stringify(words)).not.toMatch(/99\.2/);
+  });
+
+  it('a day no stage covers has no limits; Out with no plan means no training', () => {
+    const none = inForceOn(plan(stage({ hinge: { mode: 'blocked' } })), '2026-04-30');
+    expect(dayInWords(none, 'full', 'kg')).toEqual({ headline: 'No limits.', mayNot: [], withLimits: [], free: null, pain: null });
+    expect(dayInWords(none, 'out', 'kg').headline).toBe('Out: no training until your clinician says what you may do.');
+  });
+});
