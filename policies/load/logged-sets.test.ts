@@ -3,7 +3,7 @@ import { checkSets } from './compliance';
 import { ctx, plan, stage } from './compliance-fixtures';
 import { dayInWords } from './day-words';
 import { inForceOn } from './in-force';
-import { loggedEngineSets, loggedSetIndex, overLimitWords, type LoggedSet } from './logged-sets';
+import { knownOverLimit, loggedEngineSets, loggedSetIndex, overLimitWords, type LoggedSet } from './logged-sets';
 
 const byName: Record<string, string> = { deadlift: 'dl', 'back squat': 'sq', 'box jump': 'bj' };
 const resolve = (s: LoggedSet) => s.exerciseId ?? byName[s.exercise.trim().toLowerCase()] ?? null;
@@ -47,6 +47,26 @@ describe('logged sets through the same engine as planned sets', () => {
     expect(overLimitWords(b, sets[0], 'Deadlift', 'lb')).toBe(
       'Deadlift 220.46 lb × 5 at RPE 8 is over the limit for lifting from the floor and bending at the hips (hinge): max 176.36 lb.',
     );
+  });
+});
+
+describe('only what is known to be over a limit is told', () => {
+  const rpe7 = plan(stage({ hinge: { mode: 'capped', caps: { maxRpe: 7, maxPercent1RM: 60 } } }));
+  const sets: LoggedSet[] = [
+    { exercise: 'Deadlift', loadKg: 60, reps: 5 },
+    { exercise: 'Deadlift', loadKg: 60, reps: 5, rpe: 9 },
+  ];
+  const engineSets = loggedEngineSets({ sessionKey: 'log5', date: '2026-03-03', sets }, resolve);
+
+  it('with no RPE given and no best lift, the engine fails closed, but the log is not "over": only the RPE 9 set is told', () => {
+    const breaches = checkSets(engineSets, ctx(rpe7));
+    expect(breaches.filter(knownOverLimit).map((b) => [b.rule, loggedSetIndex(b)])).toEqual([['rpe', 1]]);
+    expect(breaches.some((b) => b.rule === 'no_baseline')).toBe(true);
+  });
+
+  it('with a best lift of 100 kg, 60 kg × 5 is 60% and RPE is estimated (Baechle & Earle 2008 table) — told only when over', () => {
+    const breaches = checkSets(engineSets, ctx(rpe7, { dl: 100 })).filter(knownOverLimit);
+    expect(breaches.map((b) => [b.rule, loggedSetIndex(b)])).toEqual([['rpe', 1]]);
   });
 });
 

@@ -46,6 +46,20 @@ export function loggedEngineSets(
   return out;
 }
 
+/**
+ * Whether a breach of a logged set says the set was over a limit. A plan fails closed on what it
+ * does not know (no RPE and no best lift to estimate one, no best lift for a % cap), so the coach
+ * fixes it before publishing; a log records what happened, and an RPE the athlete did not give is
+ * not a set over the RPE limit. Only what is known to be over is told to the care team.
+ */
+export function knownOverLimit(breach: Pick<Breach, 'rule' | 'planned'>): boolean {
+  if (breach.rule === 'no_baseline' || breach.rule === 'unreadable') return false;
+  return !(breach.rule === 'rpe' && breach.planned === NO_TARGET_RPE);
+}
+
+/** What the engine says of a set with no RPE and nothing to estimate one from (compliance.ts). */
+const NO_TARGET_RPE = 'no target RPE';
+
 /** The position in the log of the set a breach of loggedEngineSets names. */
 export const loggedSetIndex = (breach: Pick<Breach, 'setId'>) => Number(breach.setId.slice(breach.setId.lastIndexOf('/') + 1));
 
@@ -66,10 +80,6 @@ export function overLimitWords(breach: Breach, set: LoggedSet, exerciseName: str
       return `${what}: the athlete is Out on ${day} and no plan says what they may train.`;
     case 'impact':
       return `${what}: no jumping, landing or other impact is allowed for ${where} on ${day}.`;
-    case 'no_baseline':
-      return `${what} could not be checked against the limit for ${where} (${breach.limit}): no best lift on record.`;
-    case 'unreadable':
-      return `${what} could not be checked: ${breach.message}`;
     case 'sets_per_session':
       return `${exerciseName} ${breach.planned} is over the limit for ${where}: ${breach.limit}.`;
     case 'hard_sets_per_week':

@@ -10,6 +10,7 @@ import { AddRateLimits1765400000000 } from './1765400000000-add-rate-limits';
 import { AddOrganizationTimeZone1765500000000 } from './1765500000000-add-organization-time-zone';
 import { AddRefusalCounters1765610000000 } from './1765610000000-add-refusal-counters';
 import { AddTrainingLogPainAfter1765720000000 } from './1765720000000-add-training-log-pain-after';
+import { AddTrainingLogSession1765836000000 } from './1765836000000-add-training-log-session';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -25,4 +26,5 @@ export const MIGRATIONS = [
   AddOrganizationTimeZone1765500000000,
   AddRefusalCounters1765610000000,
   AddTrainingLogPainAfter1765720000000,
+  AddTrainingLogSession1765836000000,
 ];
