@@ -3,7 +3,15 @@ import { checkSets } from './compliance';
 import { ctx, plan, stage } from './compliance-fixtures';
 import { dayInWords } from './day-words';
 import { inForceOn } from './in-force';
-import { knownOverLimit, loggedEngineSets, loggedSetIndex, overLimitWords, type LoggedSet } from './logged-sets';
+import {
+  knownOverLimit,
+  loadCapKg,
+  loggedEngineSets,
+  loggedSetIndex,
+  overLimitForAthlete,
+  overLimitWords,
+  type LoggedSet,
+} from './logged-sets';
 
 const byName: Record<string, string> = { deadlift: 'dl', 'back squat': 'sq', 'box jump': 'bj' };
 const resolve = (s: LoggedSet) => s.exerciseId ?? byName[s.exercise.trim().toLowerCase()] ?? null;
@@ -47,6 +55,35 @@ describe('logged sets through the same engine as planned sets', () => {
     expect(overLimitWords(b, sets[0], 'Deadlift', 'lb')).toBe(
       'Deadlift 220.46 lb × 5 at RPE 8 is over the limit for lifting from the floor and bending at the hips (hinge): max 176.36 lb.',
     );
+  });
+});
+
+describe('the athlete is told in their unit, a load limit as a load on the bar', () => {
+  it('45 kg cap, pounds: "up to 95 lb", not 99.2 lb (NIST SP 811; 5-lb steps, common practice)', () => {
+    const sets: LoggedSet[] = [{ exercise: 'Deadlift', loadKg: 100, reps: 5 }];
+    const c = ctx(plan(stage({ hinge: { mode: 'capped', caps: { maxLoadKg: 45 } } })));
+    const [b] = checkSets(loggedEngineSets({ sessionKey: 'log6', date: '2026-03-03', sets }, resolve), c);
+    expect(loadCapKg(b, c)).toBe(45);
+    expect(overLimitForAthlete(b, sets[0], 'Deadlift', 'lb', c)).toBe(
+      'Deadlift 220.46 lb × 5 was more than your limit for lifting from the floor and bending at the hips (hinge) on 3 March 2026: up to 95 lb.',
+    );
+  });
+
+  it('60% of a 140 kg best lift = 84 kg → "up to 82.5 kg" on the exercise 2.5 kg steps (REFERENCES §9: round down under a cap)', () => {
+    const sets: LoggedSet[] = [{ exercise: 'Deadlift', loadKg: 87.5, reps: 3, rpe: 6 }];
+    const c = ctx(plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } })), { dl: 140 });
+    const [b] = checkSets(loggedEngineSets({ sessionKey: 'log7', date: '2026-03-03', sets }, resolve), c);
+    expect(b.rule).toBe('percent_1rm');
+    expect(loadCapKg(b, c)).toBeCloseTo(84, 9);
+    expect(overLimitForAthlete(b, sets[0], 'Deadlift', 'kg', c)).toMatch(/: up to 82\.5 kg\.$/);
+  });
+
+  it('a limit that is not a load reads as the care team reads it', () => {
+    const sets: LoggedSet[] = [{ exercise: 'Box jump', loadKg: 0, reps: 5 }];
+    const c = ctx(hinge80);
+    const [b] = checkSets(loggedEngineSets({ sessionKey: 'log8', date: '2026-03-03', sets }, resolve), c);
+    expect(loadCapKg(b, c)).toBeNull();
+    expect(overLimitForAthlete(b, sets[0], 'Box jump', 'kg', c)).toBe(overLimitWords(b, sets[0], 'Box jump', 'kg'));
   });
 });
 

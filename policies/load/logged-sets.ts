@@ -1,7 +1,11 @@
 import type { Unit } from '../schemas/common';
+import { barStepFor, capOnTheBarWords } from './bar-cap';
 import type { Breach } from './breach';
+import type { EngineContext } from './compliance';
 import { describeDate } from './describe';
 import { patternInWords } from './day-words';
+import { exerciseRules } from './exercise-rules';
+import { inForceOn } from './in-force';
 import type { EngineSet } from './sets';
 import { formatLoad } from './units';
 
@@ -87,4 +91,33 @@ export function overLimitWords(breach: Breach, set: LoggedSet, exerciseName: str
     default:
       return `${what} is over the limit for ${where}: ${breach.limit}.`;
   }
+}
+
+/**
+ * The load cap (kg) a load breach was over, read from the same rules the engine used: the tightest
+ * absolute cap of the exercise's patterns, or the tightest % of the athlete's best lift. Null for
+ * other breaches, or when it cannot be known.
+ */
+export function loadCapKg(breach: Pick<Breach, 'rule' | 'exerciseId' | 'date'>, ctx: EngineContext): number | null {
+  const ex = ctx.exercises[breach.exerciseId];
+  if (!ex) return null;
+  const rules = exerciseRules(ex, inForceOn(ctx.plans, breach.date));
+  if (breach.rule === 'absolute_load') return rules.abs?.value ?? null;
+  const oneRm = ctx.baselines[ex.referenceId ?? ex.id];
+  if (breach.rule === 'percent_1rm' && rules.pct && oneRm > 0) return (rules.pct.value / 100) * oneRm;
+  return null;
+}
+
+/**
+ * The same for the athlete who logged it, in their unit: a load limit as a load they can put on the
+ * bar ("up to 95 lb", never "99.2 lb"), rounded down on the exercise's own increments when they are
+ * in that unit, otherwise 2.5 kg / 5 lb (bar-cap.ts); other limits as the care team reads them.
+ */
+export function overLimitForAthlete(breach: Breach, set: LoggedSet, exerciseName: string, unit: Unit, ctx: EngineContext): string {
+  const capKg = loadCapKg(breach, ctx);
+  if (capKg === null) return overLimitWords(breach, set, exerciseName, unit);
+  const load = set.loadKg > 0 ? ` ${formatLoad(set.loadKg, unit)}` : '';
+  const where = breach.pattern ? patternInWords(breach.pattern) : 'this exercise';
+  const step = barStepFor(ctx.exercises[breach.exerciseId]?.steps, unit);
+  return `${exerciseName}${load} × ${set.reps} was more than your limit for ${where} on ${describeDate(breach.date)}: ${capOnTheBarWords(capKg, unit, step)}.`;
 }

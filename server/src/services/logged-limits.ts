@@ -1,7 +1,15 @@
 import type { EntityManager } from 'typeorm';
 import { checkSets } from '../../../policies/load/compliance';
 import { describeDate } from '../../../policies/load/describe';
-import { knownOverLimit, loggedEngineSets, loggedSetIndex, overLimitWords, type LoggedSet } from '../../../policies/load/logged-sets';
+import {
+  knownOverLimit,
+  loggedEngineSets,
+  loggedSetIndex,
+  overLimitForAthlete,
+  overLimitWords,
+  type LoggedSet,
+} from '../../../policies/load/logged-sets';
+import type { Unit } from '../../../policies/schemas/common';
 import { Exercise, Flag, TrainingLog } from '../entities';
 import { AppError } from '../core/errors';
 import type { AuditFn } from '../core/tx';
@@ -33,7 +41,8 @@ const sessionKey = (l: Pick<TrainingLog, 'createdAt' | 'id'>) => `${new Date(l.c
  * the log's date (the plan stages covering it and the participation status); the earlier logs of
  * the same week count toward the weekly hard-set limits. A set over a limit is recorded as logged —
  * it happened — and raises one flag with a notice to the care team's clinicians and coaches, saying
- * what is over which limit. Returns those sentences (empty when everything was within the limits).
+ * what is over which limit, in each reader's unit. Returns the athlete's own sentences (empty when
+ * everything was within the limits), load limits as a load they can put on the bar.
  */
 export async function flagLoggedSetsOverLimits(m: EntityManager, log: TrainingLog, athleteName: string, audit: AuditFn): Promise<string[]> {
   if (log.sets.length === 0) return [];
@@ -55,34 +64,39 @@ export async function flagLoggedSetsOverLimits(m: EntityManager, log: TrainingLo
   const breaches = checkSets(sets, ctx).filter((b) => b.sessionId === mine && knownOverLimit(b));
   if (breaches.length === 0) return [];
 
-  const words = [
-    ...new Set(
-      breaches.map((b) => {
-        const set = log.sets[loggedSetIndex(b)];
-        return overLimitWords(b, set, byId.get(b.exerciseId)?.name ?? set.exercise, 'kg');
-      }),
-    ),
-  ];
-  const message = `${athleteName} logged a session on ${describeDate(log.date)} with sets over the limits in force that day (recorded as done): ${words.join(' ')}`;
+  const setOf = (b: (typeof breaches)[number]) => log.sets[loggedSetIndex(b)];
+  const nameOf = (b: (typeof breaches)[number]) => byId.get(b.exerciseId)?.name ?? setOf(b).exercise;
+  const staffMessage = (unit: Unit) =>
+    `${athleteName} logged a session on ${describeDate(log.date)} with sets over the limits in force that day (recorded as done): ${[
+      ...new Set(breaches.map((b) => overLimitWords(b, setOf(b), nameOf(b), unit))),
+    ].join(' ')}`;
   await m.insert(Flag, {
     organizationId: log.organizationId,
     athleteId: log.athleteId,
     kind: 'over_limit',
     severity: 'routine',
-    message,
+    // One flag for the whole care team, in kg (stored units); each notice below is in its reader's unit.
+    message: staffMessage('kg'),
     suggestedAction: null,
     sourceType: 'TrainingLog',
     sourceId: log.id,
   });
   const circle = await athleteCircle(m, log.athleteId);
-  await notify(m, [...circle.clinicians, ...circle.coaches], {
-    organizationId: log.organizationId,
-    athleteId: log.athleteId,
-    kind: 'over_limit',
-    severity: 'routine',
-    title: `Logged over a limit: ${athleteName}`,
-    body: message,
-  });
+  const units = await unitsOf(m, [log.athleteId, ...circle.clinicians, ...circle.coaches]);
+  for (const unit of ['kg', 'lb'] as const) {
+    await notify(
+      m,
+      [...circle.clinicians, ...circle.coaches].filter((id) => (units.get(id) ?? 'kg') === unit),
+      {
+        organizationId: log.organizationId,
+        athleteId: log.athleteId,
+        kind: 'over_limit',
+        severity: 'routine',
+        title: `Logged over a limit: ${athleteName}`,
+        body: staffMessage(unit),
+      },
+    );
+  }
   await audit({
     action: 'training_log.over_limit',
     subjectType: 'TrainingLog',
@@ -90,5 +104,15 @@ export async function flagLoggedSetsOverLimits(m: EntityManager, log: TrainingLo
     athleteId: log.athleteId,
     after: { breaches: breaches.map((b) => ({ set: loggedSetIndex(b) + 1, rule: b.rule, pattern: b.pattern, limit: b.limit })) },
   });
-  return words;
+  const athleteUnit = units.get(log.athleteId) ?? 'kg';
+  return [...new Set(breaches.map((b) => overLimitForAthlete(b, setOf(b), nameOf(b), athleteUnit, ctx)))];
+}
+
+/** Each member's display unit (their user's preference). */
+async function unitsOf(m: EntityManager, membershipIds: string[]): Promise<Map<string, Unit>> {
+  const rows: { id: string; unit: Unit }[] = await m.query(
+    `SELECT mm.id, u.unit_pref AS unit FROM memberships mm JOIN users u ON u.id = mm.user_id WHERE mm.id = ANY($1)`,
+    [membershipIds],
+  );
+  return new Map(rows.map((r) => [r.id, r.unit]));
 }

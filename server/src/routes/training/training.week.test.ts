@@ -159,7 +159,11 @@ describe('the athlete week and logging from the plan', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.log.sets[1]).toMatchObject({ loadKg: 100, reps: 5 });
     const said = 'Deadlift 100 kg × 5 is over the limit for lifting from the floor and bending at the hips (hinge): max 45 kg.';
-    expect(res.body.overLimits).toEqual([said]);
+    // The athlete (who reads pounds) is told in their unit, the limit as a load on the bar: 45 kg = 99.2 lb → 95 lb
+    // (NIST SP 811; 5-lb steps, common practice); 100 kg = 220.46 lb.
+    expect(res.body.overLimits).toEqual([
+      'Deadlift 220.46 lb × 5 was more than your limit for lifting from the floor and bending at the hips (hinge) on 3 December 2026: up to 95 lb.',
+    ]);
 
     const flags = await h.ds.query(`SELECT kind, severity, message FROM flags WHERE source_id = $1`, [res.body.log.id]);
     expect(flags).toHaveLength(1);
