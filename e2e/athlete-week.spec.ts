@@ -114,6 +114,8 @@ test('an athlete sees the coming week with limits on the bar, and logs a planned
     // My week: seven days from the organization's today.
     const me = athlete.page;
     await me.goto('/athlete');
+    // Today's limits on the home page are a load on the bar too.
+    await expect(me.getByText('Hinge: up to 95 lb', { exact: true })).toBeVisible();
     await me.getByRole('link', { name: 'My week' }).click();
     await expectHome(me, 'My week');
     const week = me.getByRole('region', { name: 'The coming week' });

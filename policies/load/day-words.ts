@@ -1,8 +1,8 @@
 import type { Unit } from '../schemas/common';
 import { capOnTheBarWords } from './bar-cap';
-import { describeCaps } from './describe';
+import { describeCaps, describeRule } from './describe';
 import type { InForce } from './in-force';
-import { MOVEMENT_PATTERNS, PATTERN_LABELS, type Caps, type MovementPattern, type ParticipationStatus } from './patterns';
+import { MOVEMENT_PATTERNS, PATTERN_LABELS, type Caps, type MovementPattern, type ParticipationStatus, type PatternRule } from './patterns';
 
 /** Each movement pattern as an athlete says it; the trade's name stays in brackets for talking to the coach. */
 const EVERYDAY: Record<MovementPattern, string> = {
@@ -40,6 +40,17 @@ export function capsOnTheBar(caps: Caps | undefined, unit: Unit, step?: number):
   if (!caps) return [];
   const rest = describeCaps({ ...caps, maxLoadKg: undefined }, unit, 'athlete');
   return caps.maxLoadKg === undefined ? rest : [capOnTheBarWords(caps.maxLoadKg, unit, step), ...rest];
+}
+
+/**
+ * describeRule (describe.ts) for the athlete's and family's screens of today: the same words, with a
+ * load cap as a load they can put on the bar ("Hinge: up to 95 lb", not "no more than 99.2 lb").
+ */
+export function describeRuleOnTheBar(pattern: MovementPattern, rule: PatternRule, unit: Unit): string {
+  const name = PATTERN_LABELS[pattern];
+  if (rule.mode !== 'capped') return describeRule(pattern, rule, unit);
+  const parts = capsOnTheBar(rule.caps, unit);
+  return parts.length ? `${name}: ${parts.join(', ')}` : `${name}: allowed with care`;
 }
 
 /**

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkSets } from './compliance';
 import { ctx, plan, stage } from './compliance-fixtures';
-import { dayInWords } from './day-words';
+import { dayInWords, describeRuleOnTheBar } from './day-words';
 import { inForceOn } from './in-force';
 import {
   knownOverLimit,
@@ -119,6 +119,15 @@ describe('a day in the athlete words', () => {
     expect(words.pain).toBe('Stop and tell your clinician if pain goes past 5/10.');
     expect(words.free).toMatch(/^No limit on everything else: squatting, /);
     expect(JSON.stringify(words)).not.toMatch(/99\.2/);
+  });
+
+  it('today on the athlete home: "Hinge: up to 95 lb" for a 45 kg cap; other rules read as before (NIST SP 811; 5-lb steps)', () => {
+    expect(describeRuleOnTheBar('hinge', { mode: 'capped', caps: { maxLoadKg: 45, maxRpe: 7 } }, 'lb')).toBe(
+      'Hinge: up to 95 lb, effort RPE 7 or easier',
+    );
+    expect(describeRuleOnTheBar('hinge', { mode: 'capped', caps: { maxPercent1RM: 55 } }, 'kg')).toBe('Hinge: up to 55% of your best lift');
+    expect(describeRuleOnTheBar('jump', { mode: 'blocked' }, 'kg')).toBe('Jump / landing: not allowed for now');
+    expect(describeRuleOnTheBar('squat', { mode: 'capped', caps: {} }, 'kg')).toBe('Squat: allowed with care');
   });
 
   it('a day no stage covers has no limits; Out with no plan means no training', () => {
