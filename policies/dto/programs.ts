@@ -1,5 +1,6 @@
 /** Programming: exercises, baselines, programs, sessions, exceptions, roster and today. Response shapes shared by server and client; types only. */
 import type { Breach } from '../load/compliance';
+import type { DayInWords } from '../load/day-words';
 import type { MovementPattern, ParticipationStatus } from '../load/patterns';
 import type { LoadSteps } from '../load/steps';
 import type { Unit } from '../schemas/common';
@@ -84,4 +85,20 @@ export interface TodayDto {
   date: string;
   unit: Unit;
   sessions: (ProgramSessionDto & { onHold: boolean; exerciseNames: Record<string, string>; loadsKg: Record<string, number | null> })[];
+}
+/** "My week": the coming seven days from the organization's today, each with its sessions and limits in the athlete's words. */
+export interface AthleteWeekDto {
+  athleteId: string;
+  from: string;
+  to: string;
+  unit: Unit;
+  days: {
+    date: string;
+    status: ParticipationStatus;
+    /** The plan stages covering the day; none on a day no plan covers. */
+    stages: { label: string | null; startDate: string; endDate: string }[];
+    painCeiling: number;
+    limits: DayInWords;
+    sessions: TodayDto['sessions'];
+  }[];
 }

@@ -61,8 +61,10 @@ export interface TrainingLogDto {
   painAfter: number | null;
   painNextMorning: number | null;
   painCeiling: number;
-  sets: { exercise: string; loadKg: number; reps: number; rpe?: number | null }[];
+  sets: { exercise: string; exerciseId?: string | null; loadKg: number; reps: number; rpe?: number | null }[];
   notes: string | null;
+  /** The planned session this log records, when it was logged from one. */
+  sessionId: string | null;
   version: number;
 }
 export interface PainRuleDto {
@@ -73,6 +75,8 @@ export interface PainRuleDto {
 export interface TrainingLogOutcomeDto {
   log: TrainingLogDto;
   painRule: PainRuleDto;
+  /** Logged sets over a limit in force that day, in words; the clinician and coach were told. */
+  overLimits: string[];
 }
 export interface WorkloadDto {
   athleteId: string;
@@ -89,7 +93,7 @@ export interface FlagDto {
   id: string;
   athleteId: string;
   athleteName: string;
-  kind: 'red_flag_emergency' | 'red_flag_urgent' | 'pain_report' | 'pain_rule';
+  kind: 'red_flag_emergency' | 'red_flag_urgent' | 'pain_report' | 'pain_rule' | 'over_limit';
   severity: 'emergency' | 'urgent' | 'routine';
   message: string;
   suggestedAction: 'keep' | 'reduce' | null;

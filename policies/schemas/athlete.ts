@@ -85,6 +85,8 @@ export type CheckInInput = z.infer<typeof CheckInSchema>;
 
 export const LoggedSetSchema = z.strictObject({
   exercise: text(120).min(1, { message: 'is required' }),
+  /** The library exercise, when the set comes from a planned session: the limits check reads its patterns. */
+  exerciseId: UuidSchema.nullable().optional(),
   /** Kilograms; the client converts from the athlete's unit. 0 for bodyweight. */
   loadKg: z
     .number({ message: 'must be a number' })
@@ -114,6 +116,8 @@ export const TrainingLogCreateSchema = z.strictObject({
   painAfter: PainScoreSchema.optional(),
   sets: z.array(LoggedSetSchema).max(200, { message: 'must be at most 200 sets' }).default([]),
   notes: text(1000).optional(),
+  /** The published session this log records ("Log this session"); absent for unplanned training. */
+  sessionId: UuidSchema.optional(),
 });
 export type TrainingLogCreateInput = z.infer<typeof TrainingLogCreateSchema>;
 

@@ -7,6 +7,7 @@ import { AppError, versionConflict } from '../core/errors';
 import { memberName } from '../queries/members';
 import { toCheckInDto, toLogDto } from '../queries/training';
 import { requireMemberWithRole } from '../services/org-members';
+import { flagLoggedSetsOverLimits, requirePlannedSession } from '../services/logged-limits';
 import { createTrainingLog, recordNextMorning, recordPainAfter, shiftDate } from '../services/training-logs';
 
 /** A log or check-in records what happened: a day after the organization's today is refused (common practice). */
@@ -19,7 +20,8 @@ function notInTheFuture(ctx: OrgCommandCtx, date: string) {
 /**
  * An athlete logs a session; the pain rule runs on it (Silbernagel et al. 2007, AJSM 35:897–906).
  * Its sets become 'logged' baselines, which are strength history only: the engine's 1RM is the
- * latest tested or estimated baseline (services/programs.ts), so a log changes no limit.
+ * latest tested or estimated baseline (services/programs.ts), so a log changes no limit. Its sets are
+ * checked against the limits in force that day: over a limit is recorded and told, never refused.
  */
 export const logTraining = orgCommand({
   name: 'logTraining',
@@ -28,9 +30,11 @@ export const logTraining = orgCommand({
     authorize(ctx.ability, 'create', 'TrainingLog', { id: '', organizationId: org, athleteId: input.athleteId });
     notInTheFuture(ctx, input.date);
     await requireMemberWithRole(ctx.m, org, input.athleteId, 'athlete', 'athleteId');
+    if (input.sessionId) await requirePlannedSession(ctx.m, org, input.athleteId, input.sessionId);
     const athleteName = await memberName(ctx.m, input.athleteId, 'The athlete');
     const { log, painRule } = await createTrainingLog(ctx.m, input, { organizationId: org, athleteName }, ctx.audit);
-    return { log: toLogDto(log), painRule };
+    const overLimits = await flagLoggedSetsOverLimits(ctx.m, log, athleteName, ctx.audit);
+    return { log: toLogDto(log), painRule, overLimits };
   },
 });
 
@@ -55,7 +59,7 @@ export const recordAfterSessionPain = orgCommand({
     const athleteName = await memberName(ctx.m, log.athleteId, 'The athlete');
     const painRule = await recordPainAfter(ctx.m, log, input.painAfter, athleteName, ctx.audit);
     const saved = await ctx.m.save(log);
-    return { log: toLogDto(saved), painRule };
+    return { log: toLogDto(saved), painRule, overLimits: [] };
   },
 });
 
@@ -83,7 +87,7 @@ export const recordNextMorningPain = orgCommand({
     const athleteName = await memberName(ctx.m, log.athleteId, 'The athlete');
     const painRule = await recordNextMorning(ctx.m, log, input.painNextMorning, athleteName, ctx.audit);
     const saved = await ctx.m.save(log);
-    return { log: toLogDto(saved), painRule };
+    return { log: toLogDto(saved), painRule, overLimits: [] };
   },
 });
 

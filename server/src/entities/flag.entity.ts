@@ -1,6 +1,6 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 
-export type FlagKind = 'red_flag_emergency' | 'red_flag_urgent' | 'pain_report' | 'pain_rule';
+export type FlagKind = 'red_flag_emergency' | 'red_flag_urgent' | 'pain_report' | 'pain_rule' | 'over_limit';
 
 /** Something the care team must look at: a red-flag report, a new pain report, a pain-rule breach. */
 @Entity({ name: 'flags' })

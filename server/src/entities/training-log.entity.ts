@@ -39,8 +39,12 @@ export class TrainingLog {
   @Column('smallint', { name: 'pain_ceiling' })
   painCeiling: number;
 
+  /** The planned session this log was made from ("Log this session"); null for unplanned training. */
+  @Column('uuid', { name: 'session_id', nullable: true })
+  sessionId: string | null;
+
   @Column('jsonb', { default: () => "'[]'" })
-  sets: { exercise: string; loadKg: number; reps: number; rpe?: number | null }[];
+  sets: { exercise: string; exerciseId?: string | null; loadKg: number; reps: number; rpe?: number | null }[];
 
   @Column('text', { nullable: true })
   notes: string | null;

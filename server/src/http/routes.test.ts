@@ -131,6 +131,7 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/exceptions/:id/decide  ⇒  member: update ProgramException",
         "GET    /api/orgs/:orgId/roster  ⇒  member: read Athlete",
         "GET    /api/orgs/:orgId/athletes/:id/today  ⇒  member: read Program",
+        "GET    /api/orgs/:orgId/athletes/:id/week  ⇒  member: read Program",
         "GET    /api/orgs/:orgId/letters  ⇒  member: read Letter",
         "GET    /api/orgs/:orgId/letters/prefill  ⇒  member: create Letter",
         "POST   /api/orgs/:orgId/letters  ⇒  member: create Letter",

@@ -12,6 +12,7 @@ import { AddRefusalCounters1765610000000 } from './1765610000000-add-refusal-cou
 import { AddTrainingLogPainAfter1765720000000 } from './1765720000000-add-training-log-pain-after';
 import { CreateNoticeEmailOptOuts1765813000000 } from './1765813000000-create-notice-email-opt-outs';
 import { AddLetterPaperAndBasis1765830000000 } from './1765830000000-add-letter-paper-and-basis';
+import { AddTrainingLogSession1765836000000 } from './1765836000000-add-training-log-session';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -29,4 +30,5 @@ export const MIGRATIONS = [
   AddTrainingLogPainAfter1765720000000,
   CreateNoticeEmailOptOuts1765813000000,
   AddLetterPaperAndBasis1765830000000,
+  AddTrainingLogSession1765836000000,
 ];

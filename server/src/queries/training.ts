@@ -26,6 +26,7 @@ export function toLogDto(l: TrainingLog): TrainingLogDto {
     painCeiling: l.painCeiling,
     sets: l.sets,
     notes: l.notes,
+    sessionId: l.sessionId,
     version: l.version,
   };
 }

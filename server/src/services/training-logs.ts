@@ -92,6 +92,7 @@ export async function createTrainingLog(
       painCeiling,
       sets: input.sets,
       notes: input.notes ?? null,
+      sessionId: input.sessionId ?? null,
     }),
   );
   await recordLoggedBaselines(m, log);

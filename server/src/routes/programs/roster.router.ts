@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { IsoDateSchema, NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../../policies/schemas';
 import { orgRoute, type RouteDef } from '../../http/route';
 import { athleteDay, roster } from '../../queries/roster';
+import { athleteWeek } from '../../queries/week';
 
 export const rosterRoutes: RouteDef[] = [
   orgRoute({
@@ -26,6 +27,18 @@ export const rosterRoutes: RouteDef[] = [
     query: z.strictObject({ date: IsoDateSchema.optional() }),
     async handler({ read, user, params, query }) {
       return read(athleteDay, { athleteId: params.id, date: query.date, unit: user.unitPref });
+    },
+  }),
+  orgRoute({
+    method: 'get',
+    path: '/orgs/:orgId/athletes/:id/week',
+    summary: "An athlete's coming seven days: published sessions and what they may and may not do each day",
+    access: { kind: 'org', action: 'read', subject: 'Program' },
+    params: OrgItemParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
+    async handler({ read, user, params }) {
+      return read(athleteWeek, { athleteId: params.id, unit: user.unitPref });
     },
   }),
 ];

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { BODY_REGION_LABELS } from '../../../../../policies/body-regions';
 import { useCheckIns } from '../../../features/check-ins/api/get-check-ins';
+import { ComingWeek } from '../../../features/programs/components/ComingWeek';
 import { CheckInList } from '../../../features/check-ins/components/CheckInList';
 import { usePainReports } from '../../../features/pain-reports/api/get-pain-reports';
 import { useTrainingLogs } from '../../../features/training-logs/api/get-training-logs';
@@ -16,7 +17,7 @@ import { formatDate, formatDateTime } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { useDocumentTitle } from '../../../lib/use-document-title';
 import { RoleGate } from '../../layout/RoleGate';
-import { ATHLETE_CHECK_IN, ATHLETE_CLIPS, ATHLETE_HOME, ATHLETE_LOG, athleteNewClipHref } from './paths';
+import { ATHLETE_CHECK_IN, ATHLETE_CLIPS, ATHLETE_HOME, ATHLETE_LOG, athleteLogSessionHref, athleteNewClipHref } from './paths';
 
 /** Two weeks of sessions and check-ins; the weekly chart looks back four weeks. */
 const DAYS = 14;
@@ -47,7 +48,8 @@ function MyWeek() {
         <Link to={ATHLETE_HOME}>← My page</Link>
       </p>
       <PageHeader title="My week">
-        Your last two weeks: sessions, how the pain responded, and your check-ins. Your coach and clinician see the same numbers.
+        The coming seven days, then your last two weeks: sessions, how the pain responded, and your check-ins. Your coach and clinician see
+        the same numbers.
       </PageHeader>
       <div className="flex flex-col gap-2 sm:flex-row">
         <ButtonLink to={ATHLETE_LOG} variant="primary" size="lg">
@@ -60,6 +62,14 @@ function MyWeek() {
           My clips
         </ButtonLink>
       </div>
+
+      <ComingWeek
+        orgId={orgId}
+        athleteId={membership.id}
+        today={today}
+        logHref={athleteLogSessionHref}
+        loggedSessionIds={new Set((logs.data ?? []).flatMap((l) => (l.sessionId ? [l.sessionId] : [])))}
+      />
 
       {workload.isPending ? (
         <Loading what="your charts" />

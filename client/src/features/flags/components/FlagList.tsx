@@ -14,6 +14,7 @@ const KIND_WORDS: Record<FlagDto['kind'], string> = {
   red_flag_urgent: 'Warning sign',
   pain_report: 'Pain report',
   pain_rule: 'Pain rule',
+  over_limit: 'Logged over a limit',
 };
 
 /** The next step in plain words: the server's suggestion when it made one, otherwise by kind. */
@@ -29,6 +30,8 @@ export function suggestedAction(flag: FlagDto): string {
       return 'Read the report; the clinician decides on any change.';
     case 'pain_rule':
       return 'Review the pain response before the next session.';
+    case 'over_limit':
+      return 'Talk it through with the athlete before the next session; the clinician decides any change to the limits.';
   }
 }
 

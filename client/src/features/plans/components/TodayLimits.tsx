@@ -2,7 +2,8 @@ import { useId } from 'react';
 import type { InForceDto } from '../../../../../policies/dto';
 import type { Unit } from '../../../../../policies/schemas';
 import { MOVEMENT_PATTERNS } from '../../../../../policies/load/patterns';
-import { describeDate, describeRule } from '../../../../../policies/load/describe';
+import { describeDate } from '../../../../../policies/load/describe';
+import { describeRuleOnTheBar } from '../../../../../policies/load/day-words';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { restrictedPatterns } from './InForceSummary';
 import { patternList } from './plan-words';
@@ -53,7 +54,7 @@ export function TodayLimits({ inForce, unit, name }: { inForce: InForceDto; unit
             <ul className="space-y-2">
               {restricted.map((p) => (
                 <li key={p} className="flex min-h-11 items-center rounded-md border border-rule border-l-4 border-l-line px-3 py-2">
-                  {describeRule(p, inForce.patterns[p], unit)}
+                  {describeRuleOnTheBar(p, inForce.patterns[p], unit)}
                 </li>
               ))}
             </ul>

@@ -14,4 +14,5 @@ export const programKeys = {
   baselines: (orgId: string, athleteId: string) => ['orgs', orgId, 'athletes', athleteId, 'baselines'] as const,
   exceptions: (orgId: string) => ['orgs', orgId, 'exceptions'] as const,
   today: (orgId: string, athleteId: string, date: string) => ['orgs', orgId, 'athletes', athleteId, 'today', date] as const,
+  week: (orgId: string, athleteId: string, from: string) => ['orgs', orgId, 'athletes', athleteId, 'week', from] as const,
 };

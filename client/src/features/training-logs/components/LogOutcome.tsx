@@ -2,6 +2,7 @@ import { useEffect, useRef } from 'react';
 import type { TrainingLogOutcomeDto } from '../../../../../policies/dto';
 import { formatDate } from '../../../lib/format';
 import { Button, ButtonLink } from '../../../components/ui/Button';
+import { Notice } from '../../../components/ui/Notice';
 import { LineBar } from '../../../components/ui/LineBar';
 import { PainRuleMessage } from './PainRuleMessage';
 import { effortWords } from './effort-words';
@@ -27,6 +28,16 @@ export function LogOutcome({
         Session saved
       </h2>
       <PainRuleMessage painRule={painRule} />
+      {outcome.overLimits?.length > 0 && (
+        <Notice tone="caution" title="Some sets were over your limits for that day">
+          <p>They are saved as you did them. Your clinician and coach have been told, so they can talk it through with you:</p>
+          <ul className="mt-1 ml-5 list-disc">
+            {outcome.overLimits.map((o) => (
+              <li key={o}>{o}</li>
+            ))}
+          </ul>
+        </Notice>
+      )}
       <div className="space-y-3 rounded-lg border border-rule bg-sheet p-4">
         <p className="text-sm text-ink-2 tabular-nums">
           {formatDate(log.date)} · {log.durationMinutes} min · effort {log.sessionRpe} ({effortWords(log.sessionRpe).toLowerCase()}) ·

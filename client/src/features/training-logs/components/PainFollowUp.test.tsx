@@ -23,6 +23,7 @@ const logOn = (date: string, over: Partial<TrainingLogDto> = {}): TrainingLogDto
   painCeiling: 5,
   sets: [],
   notes: null,
+  sessionId: null,
   version: 1,
   ...over,
 });

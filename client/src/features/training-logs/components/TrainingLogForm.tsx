@@ -10,7 +10,7 @@ import { TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice } from '../../../components/ui/Notice';
 import { ScoreField } from '../../../components/ui/ScoreScale';
 import { useCreateTrainingLog } from '../api/create-training-log';
-import { EMPTY_SET, logFormResolver, toNumber, toNumberOrNull, type LogFormValues } from './log-form';
+import { EMPTY_SET, logFormResolver, toNumber, toNumberOrNull, type LogFormValues, type SetRow } from './log-form';
 import { SessionEffortField } from './SessionEffortField';
 
 const FIELDS = ['date', 'durationMinutes', 'sessionRpe', 'painBefore', 'painDuring', 'painAfter', 'sets', 'notes'] as const;
@@ -24,6 +24,7 @@ export function TrainingLogForm({
   athleteId,
   unit,
   painCeiling,
+  plan,
   onSaved,
 }: {
   orgId: string;
@@ -31,6 +32,8 @@ export function TrainingLogForm({
   unit: Unit;
   /** The clinician's ceiling in force today, when known; pain scores past it are marked. */
   painCeiling?: number;
+  /** "Log this session": the planned session's sets, pre-filled to be edited to what was done. */
+  plan?: { sessionId: string; sets: SetRow[] };
   onSaved: (outcome: TrainingLogOutcomeDto) => void;
 }) {
   const save = useCreateTrainingLog(orgId);
@@ -47,7 +50,7 @@ export function TrainingLogForm({
     formState: { errors, isSubmitted },
   } = useForm<LogFormValues, unknown, TrainingLogCreateInput>({
     resolver: logFormResolver(unit),
-    defaultValues: { athleteId, date: today, sets: [] },
+    defaultValues: { athleteId, date: today, sets: plan?.sets ?? [], ...(plan ? { sessionId: plan.sessionId } : {}) },
   });
   const sets = useFieldArray({ control, name: 'sets' });
   const effort = useWatch({ control, name: 'sessionRpe' });
@@ -151,6 +154,8 @@ export function TrainingLogForm({
                       label="Exercise"
                       large
                       autoComplete="off"
+                      // A set from the plan names its library exercise: the limits are checked against it.
+                      readOnly={!!field.exerciseId}
                       className="col-span-3"
                       error={rowErrors?.exercise?.message}
                       ref={(el) => {
@@ -202,9 +207,23 @@ export function TrainingLogForm({
           })}
         </ol>
         {errors.sets?.message && <p className="text-sm font-semibold text-line-deep">Sets {errors.sets.message}</p>}
-        <Button variant="secondary" size="lg" onClick={addSet}>
-          Add a set
-        </Button>
+        <div className="flex flex-col gap-2 sm:flex-row">
+          <Button variant="secondary" size="lg" onClick={addSet}>
+            Add a set
+          </Button>
+          {plan && (
+            <Button
+              variant="secondary"
+              size="lg"
+              onClick={() => {
+                focusNewSet.current = true;
+                sets.append(EMPTY_SET, { shouldFocus: false });
+              }}
+            >
+              Add another exercise
+            </Button>
+          )}
+        </div>
       </fieldset>
 
       <TextAreaField

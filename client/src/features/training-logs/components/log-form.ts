@@ -6,6 +6,8 @@ import { fromUnit } from '../../../../../policies/load/units';
 /** One set as typed: the load in the athlete's own unit. Numbers are undefined until typed. */
 export interface SetRow {
   exercise: string;
+  /** The library exercise, for a set that comes from a planned session. */
+  exerciseId?: string | null;
   load: number | undefined;
   reps: number | undefined;
   rpe: number | null | undefined;
@@ -22,6 +24,8 @@ export interface LogFormValues {
   painAfter?: number;
   sets: SetRow[];
   notes?: string;
+  /** The planned session this log records ("Log this session"). */
+  sessionId?: string;
 }
 
 export const EMPTY_SET: SetRow = { exercise: '', load: undefined, reps: undefined, rpe: null };

@@ -1,0 +1,160 @@
+import type { AthleteWeekDto } from '../../../../../policies/dto';
+import { formatLoad } from '../../../../../policies/load/units';
+import type { Unit } from '../../../../../policies/schemas';
+import { ButtonLink } from '../../../components/ui/Button';
+import { ErrorNotice, Notice } from '../../../components/ui/Notice';
+import { Loading } from '../../../components/ui/Panel';
+import { StatusMark } from '../../../components/ui/StatusMark';
+import { formatDate } from '../../../lib/format';
+import { useWeek } from '../api/get-week';
+
+type Day = AthleteWeekDto['days'][number];
+type WeekSession = Day['sessions'][number];
+
+/** Consecutive identical sets in one line: "2 sets of 5 reps at 40 kg · RPE 6". */
+function setLines(session: WeekSession, exercise: WeekSession['content']['exercises'][number], unit: Unit): string[] {
+  const lines: { words: string; count: number }[] = [];
+  for (const set of exercise.sets) {
+    const kg = session.loadsKg[set.id] ?? null;
+    const load =
+      set.load.kind === 'bodyweight' ? 'body weight' : kg === null ? `${set.load.value}% of your best lift` : `${formatLoad(kg, unit)}`;
+    const words = `${set.reps} reps at ${load}${set.targetRpe != null ? ` · RPE ${set.targetRpe}` : ''}${set.warmUp ? ' (warm-up)' : ''}`;
+    const last = lines.at(-1);
+    if (last?.words === words) last.count++;
+    else lines.push({ words, count: 1 });
+  }
+  return lines.map((l) => (l.count > 1 ? `${l.count} sets of ${l.words}` : `1 set of ${l.words}`));
+}
+
+/**
+ * "My week" looking ahead: the seven days from the organization's today, each with what is planned
+ * and what the athlete may and may not do that day, in their words (load caps as a load they can put
+ * on the bar). A session on hold shows no loads and cannot be logged from.
+ */
+export function ComingWeek({
+  orgId,
+  athleteId,
+  today,
+  logHref,
+  loggedSessionIds,
+}: {
+  orgId: string;
+  athleteId: string;
+  today: string;
+  logHref: (sessionId: string, date: string) => string;
+  loggedSessionIds: ReadonlySet<string>;
+}) {
+  const week = useWeek(orgId, athleteId, today);
+  if (week.isPending) return <Loading what="your coming week" />;
+  if (week.isError) return <ErrorNotice error={week.error} title="Your coming week is not available" />;
+  return (
+    <section aria-labelledby="coming-week-heading" className="space-y-3">
+      <h2 id="coming-week-heading" className="text-xl font-bold">
+        The coming week
+      </h2>
+      <p className="text-sm text-ink-2">
+        {formatDate(week.data.from)} to {formatDate(week.data.to)}: what is planned, and what you may do each day. Loads are what you can
+        put on the bar, rounded down.
+      </p>
+      <ol className="space-y-3">
+        {week.data.days.map((d) => (
+          <OneDay
+            key={d.date}
+            day={d}
+            isToday={d.date === today}
+            unit={week.data.unit}
+            logHref={logHref}
+            loggedSessionIds={loggedSessionIds}
+          />
+        ))}
+      </ol>
+    </section>
+  );
+}
+
+function OneDay({
+  day,
+  isToday,
+  unit,
+  logHref,
+  loggedSessionIds,
+}: {
+  day: Day;
+  isToday: boolean;
+  unit: Unit;
+  logHref: (sessionId: string, date: string) => string;
+  loggedSessionIds: ReadonlySet<string>;
+}) {
+  const title = `${isToday ? 'Today, ' : ''}${formatDate(day.date)}`;
+  const { limits } = day;
+  return (
+    <li aria-label={title} className="rounded-lg border border-rule bg-sheet p-4">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h3 className="text-base font-bold">{title}</h3>
+        <StatusMark status={day.status} />
+      </div>
+      <div className="mt-2 space-y-1 text-base">
+        <p className="font-semibold">{limits.headline}</p>
+        {limits.mayNot.length > 0 && (
+          <div>
+            <p>Not allowed:</p>
+            <ul className="ml-5 list-disc">
+              {limits.mayNot.map((m) => (
+                <li key={m}>{m}</li>
+              ))}
+            </ul>
+          </div>
+        )}
+        {limits.withLimits.length > 0 && (
+          <div>
+            <p>Allowed within limits:</p>
+            <ul className="ml-5 list-disc">
+              {limits.withLimits.map((m) => (
+                <li key={m}>{m}</li>
+              ))}
+            </ul>
+          </div>
+        )}
+        {limits.free && <p className="text-sm text-ink-2">{limits.free}</p>}
+        {limits.pain && <p className="text-sm font-semibold">{limits.pain}</p>}
+      </div>
+      <div className="mt-3 space-y-3">
+        {day.sessions.length === 0 ? (
+          <p className="text-sm text-ink-2">Nothing planned.</p>
+        ) : (
+          day.sessions.map((s) => (
+            <article key={s.id} aria-label={s.title} className="rounded-md border border-rule p-3">
+              <h4 className="font-semibold">{s.title}</h4>
+              {s.onHold ? (
+                <Notice tone="caution" title="On hold until your coach updates it" className="mt-2">
+                  <p>Your limits changed after this session was written. Don&apos;t do it yet: your coach has been told.</p>
+                </Notice>
+              ) : (
+                <>
+                  <ul className="mt-1 space-y-1 text-sm">
+                    {s.content.exercises.map((e) => (
+                      <li key={e.id}>
+                        <span className="font-semibold">{s.exerciseNames[e.exerciseId] ?? 'Exercise'}</span>:{' '}
+                        {setLines(s, e, unit).join('; ')}
+                      </li>
+                    ))}
+                  </ul>
+                  {loggedSessionIds.has(s.id) ? (
+                    <p className="mt-2 text-sm font-semibold">Logged.</p>
+                  ) : (
+                    // A session is logged once done: from its day on, never ahead of it.
+                    isToday && (
+                      <ButtonLink to={logHref(s.id, day.date)} size="md" className="mt-2" aria-label={`Log this session: ${s.title}`}>
+                        Log this session
+                      </ButtonLink>
+                    )
+                  )}
+                </>
+              )}
+            </article>
+          ))
+        )}
+      </div>
+    </li>
+  );
+}
