@@ -1,3 +1,4 @@
+import { jargonIn } from './plain-words';
 import { describe, expect, it } from 'vitest';
 import { MOVEMENT_PATTERNS, type MovementPattern, type PatternRule } from './load/patterns';
 import { letterLimitLines, letterStanding, nameWithCredential } from './letters';
@@ -19,11 +20,18 @@ describe('nameWithCredential', () => {
 
 describe('letterLimitLines', () => {
   const free = Object.fromEntries(MOVEMENT_PATTERNS.map((p) => [p, { mode: 'free' }])) as Record<MovementPattern, PatternRule>;
-  it('prints one line per limited movement, loads in the family’s unit rounded down (NIST SP 811: 1 lb = 0.45359237 kg)', () => {
+  it('prints one line per limited movement in plain words, loads in the family’s unit rounded down (NIST SP 811: 1 lb = 0.45359237 kg)', () => {
     const patterns = { ...free, squat: { mode: 'capped' as const, caps: { maxLoadKg: 20 } }, jump: { mode: 'blocked' as const } };
-    // 20 kg = 44.0924… lb → 44.09 lb.
-    expect(letterLimitLines(patterns, 'lb')).toEqual(['Squat: no more than 44.09 lb', 'Jump / landing: not allowed for now']);
-    expect(letterLimitLines(patterns, 'kg')).toEqual(['Squat: no more than 20 kg', 'Jump / landing: not allowed for now']);
+    // 20 kg = 44.0924… lb → 40 lb on the bar (5-lb steps, common practice).
+    expect(letterLimitLines(patterns, 'lb')).toEqual([
+      'Squatting down and standing back up with weight: nothing heavier than 40 lb.',
+      'No jumping or landing.',
+    ]);
+    expect(letterLimitLines(patterns, 'kg')).toEqual([
+      'Squatting down and standing back up with weight: nothing heavier than 20 kg.',
+      'No jumping or landing.',
+    ]);
+    for (const line of letterLimitLines(patterns, 'lb')) expect(jargonIn(line)).toEqual([]);
     expect(letterLimitLines(free, 'kg')).toEqual([]);
   });
 });

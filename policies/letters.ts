@@ -1,4 +1,4 @@
-import { describeRule } from './load/describe';
+import { plainPatternLimit } from './plain-words';
 import { MOVEMENT_PATTERNS, type MovementPattern, type PatternRule } from './load/patterns';
 import type { Unit } from './schemas/common';
 
@@ -27,12 +27,13 @@ export function nameWithCredential(name: string, credential: string): string {
 
 /**
  * The limit lines a clearance letter prints: one line for each movement pattern that is not free, in
- * the family's unit (loads rounded down, so a line never allows more than the cap). The letter's
+ * plain everyday words (policies/plain-words.ts: a letter is read by the family, never "hinge" or
+ * "RPE") and in the family's unit (loads rounded down, so a line never allows more than the cap). The letter's
  * wording lives here and only here, so a plainer wording changes every letter, its preview and the
  * updated-letter form at once.
  */
 export function letterLimitLines(patterns: Record<MovementPattern, PatternRule>, unit: Unit): string[] {
-  return MOVEMENT_PATTERNS.filter((p) => patterns[p].mode !== 'free').map((p) => describeRule(p, patterns[p], unit));
+  return MOVEMENT_PATTERNS.filter((p) => patterns[p].mode !== 'free').map((p) => plainPatternLimit(p, patterns[p], unit));
 }
 
 /**

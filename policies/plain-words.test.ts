@@ -66,11 +66,12 @@ describe('plain words for families (issue 13 §4)', () => {
     expect(plainCap('maxRpe', 10, 'kg')).toBe('hard efforts are allowed, up to the most that can be done');
   });
 
-  it('NIST SP 811 (1 lb = 0.45359237 kg): a weight cap in the family’s unit, rounded down — 20 kg = 44.09 lb', () => {
+  it('NIST SP 811 (1 lb = 0.45359237 kg): a weight cap in the family’s unit, rounded down to a load on the bar — 20 kg = 44.09 lb → 40 lb', () => {
+    // Steps of 2.5 kg / 5 lb (common practice: the smallest common plate pair), never rounded up past the cap.
     expect(plainCap('maxLoadKg', 20, 'kg')).toBe('nothing heavier than 20 kg');
-    expect(plainCap('maxLoadKg', 20, 'lb')).toBe('nothing heavier than 44.09 lb');
+    expect(plainCap('maxLoadKg', 20, 'lb')).toBe('nothing heavier than 40 lb');
     // 61.23 kg ≈ 134.99 lb (135 lb = 61.23 kg, REFERENCES.md §10): rounded down, never up to 135.
-    expect(plainCap('maxLoadKg', 61.23, 'lb')).toBe('nothing heavier than 134.98 lb');
+    expect(plainCap('maxLoadKg', 61.23, 'lb')).toBe('nothing heavier than 130 lb');
   });
 
   it('common practice: a share of the heaviest single lift said as a common fraction, rounded down', () => {
@@ -102,8 +103,8 @@ describe('plain words for families (issue 13 §4)', () => {
     expect(plainLimitLines({ patterns: {}, painCeiling: 5 }, 'kg')[0]).toBe('No limit on any kind of movement.');
   });
 
-  it('a cap that cannot be read is said as 0, as the engine reads it (nothing passes)', () => {
-    expect(plainCap('maxLoadKg', Number.NaN, 'kg')).toBe('nothing heavier than 0 kg');
+  it('a cap that cannot be read is said as less than one step, as the engine reads it (nothing passes)', () => {
+    expect(plainCap('maxLoadKg', Number.NaN, 'kg')).toBe('less than 2.5 kg — ask your coach what to use');
     expect(plainCap('maxSetsPerSession', -1, 'kg')).toBe('none of it in a training day');
   });
 });

@@ -20,7 +20,7 @@ import type { Unit } from './schemas/common';
 import { isFiniteNumber } from './load/guard';
 import { readPainCeiling } from './load/in-force';
 import { MOVEMENT_PATTERNS, type CapKey, type MovementPattern, type ParticipationStatus, type PatternRule } from './load/patterns';
-import { formatLoad } from './load/units';
+import { capOnTheBarWords } from './load/bar-cap';
 
 export interface PlainPattern {
   /** The activity, to start a sentence: "Lifting things from the floor or bending forward at the hips". */
@@ -132,8 +132,11 @@ export function plainCap(key: CapKey, value: number | boolean, unit: Unit): stri
           ? 'weights up to the most that can be lifted once'
           : `weights no heavier than ${words} of the most that can be lifted once`;
     }
-    case 'maxLoadKg':
-      return `nothing heavier than ${formatLoad(n, unit, 'down')}`;
+    case 'maxLoadKg': {
+      // A load that can go on the bar, rounded down to the common plate steps (policies/load/bar-cap.ts).
+      const words = capOnTheBarWords(n, unit);
+      return words.startsWith('up to ') ? `nothing heavier than ${words.slice('up to '.length)}` : words;
+    }
     case 'maxRpe': {
       const inReserve = Math.ceil(10 - Math.min(10, n));
       if (inReserve === 0) return 'hard efforts are allowed, up to the most that can be done';

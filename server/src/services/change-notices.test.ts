@@ -121,9 +121,9 @@ describe('a status change and a new plan version, each audience in its own words
     const family = by(org.guardian.membershipId);
     expect(family).toContain(`${org.athlete.name}'s training limits have been set`);
     expect(family).toContain('No lifting heavy things from the floor or bending forward with weight.');
-    // Common practice: effort as what is left in reserve — RPE 6 = 4 in reserve (Zourdos et al. 2016); 40 kg = 88.18 lb (NIST SP 811), rounded down.
+    // Common practice: effort as what is left in reserve — RPE 6 = 4 in reserve (Zourdos et al. 2016); 40 kg = 88.18 lb (NIST SP 811), rounded down to a load on the bar (5-lb steps, common practice): 85 lb.
     expect(family).toContain('keep it at a comfortable effort, able to do 4 more');
-    expect(family).toContain('nothing heavier than 88.18 lb');
+    expect(family).toContain('nothing heavier than 85 lb');
     expect(family).toContain('From 9 June 2026 to 30 June 2026:');
   });
 

@@ -147,7 +147,9 @@ describe('the updated letter', () => {
       decision: 'limited',
       effectiveFrom: today(),
       validUntil: null,
-      limits: ['Hinge: up to 50% of your best lift'],
+      limits: [
+        'Lifting things from the floor or bending forward at the hips: weights no heavier than half of the most that can be lifted once.',
+      ],
       credential: 'ATC',
       licenceNumber: 'AT-12345',
     });
@@ -176,11 +178,11 @@ describe('the updated letter', () => {
       w.org.guardian.membershipId,
     ]);
     try {
-      // 40 kg = 88.1849… lb: 88.18 lb, never more than the cap.
+      // 40 kg = 88.1849… lb: 85 lb on the bar (5-lb steps, common practice), never more than the cap.
       const prefill = await (await w.as('clinician')).get(`${w.base}/letters/prefill?athleteId=${s.athlete.membershipId}`);
-      expect(prefill.body.limits).toEqual(['Squat: no more than 88.18 lb']);
+      expect(prefill.body.limits).toEqual(['Squatting down and standing back up with weight: nothing heavier than 85 lb.']);
       const draft = await draftLetter(w, s.athlete.membershipId, { decision: 'limited', effectiveFrom: today(), validUntil: null });
-      expect(draft.limits).toEqual(['Squat: no more than 88.18 lb']);
+      expect(draft.limits).toEqual(['Squatting down and standing back up with weight: nothing heavier than 85 lb.']);
     } finally {
       await h.ds.query(`UPDATE users SET unit_pref = 'kg' WHERE id = (SELECT user_id FROM memberships WHERE id = $1)`, [
         w.org.guardian.membershipId,

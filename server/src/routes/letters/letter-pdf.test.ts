@@ -183,7 +183,10 @@ describe('a limited letter', () => {
       effectiveFrom: '2026-03-05',
       validUntil: '2026-03-20',
     });
-    const expected = ['Hinge: up to 60% of your best lift, effort RPE 7 or easier', 'Jump / landing: not allowed for now'];
+    const expected = [
+      'Lifting things from the floor or bending forward at the hips: weights no heavier than three fifths of the most that can be lifted once; keep it at a moderate effort, able to do 3 more.',
+      'No jumping or landing.',
+    ];
     expect(draft.limits).toEqual(expected);
     const signed = await signLetter(w, draft);
     const text = await pdfText((await binary(clin.get(`${w.base}/letters/${signed.id}/pdf`))).body as Buffer);
@@ -196,7 +199,9 @@ describe('a limited letter', () => {
 
     // A later start date picks up the later stage.
     const later = await draftLetter(w, athlete.membershipId, { decision: 'limited', effectiveFrom: '2026-03-25', validUntil: null });
-    expect(later.limits).toEqual(['Hinge: up to 80% of your best lift']);
+    expect(later.limits).toEqual([
+      'Lifting things from the floor or bending forward at the hips: weights no heavier than four fifths of the most that can be lifted once.',
+    ]);
     // A full decision carries no limits, whatever is in force.
     const full = await draftLetter(w, athlete.membershipId, { decision: 'full', effectiveFrom: '2026-03-05' });
     expect(full.limits).toEqual([]);
