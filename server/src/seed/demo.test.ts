@@ -138,4 +138,14 @@ describe('the demo scenario, as the family hears it', () => {
       expect(jargonIn(`${n.title} ${n.body}`), n.title).toEqual([]);
     }
   });
+
+  it("told Maya's clinician that the plan change left the signed letter out of date, and sent the updated letter to the family", async () => {
+    await loadDemo(h.ds, { config: h.config, bcryptCost: 4 });
+    const [stale] = await h.ds.query(
+      `SELECT n.title FROM notifications n JOIN memberships m ON m.id = n.recipient_id JOIN users u ON u.id = m.user_id
+        WHERE u.email = $1 AND n.kind = 'letter_out_of_date'`,
+      [at('priya.raman')],
+    );
+    expect(stale.title).toBe("Maya Torres's clearance letter is out of date");
+  });
 });
