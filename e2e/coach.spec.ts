@@ -123,7 +123,7 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     // Checked in the browser as it is typed: nothing has been saved yet.
     const breaches = set.getByRole('list', { name: 'Breaches' });
     await expect(breaches.getByRole('listitem')).toHaveCount(1);
-    await expect(breaches).toContainText('max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps');
+    await expect(breaches).toContainText('max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg increments');
     const publish = editor.getByRole('button', { name: 'Publish', exact: true });
     await expect(publish).toBeDisabled();
     await expect(editor.getByText('Publish is off until they fit')).toBeVisible();
@@ -221,7 +221,7 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     const editor = sessionEditor(rosa);
     await expect(editor.getByText(`On hold for ${DEMO.sam.name} — update it to fit`)).toBeVisible();
     await expect(editor.getByRole('list', { name: `Why it is on hold for ${DEMO.sam.name}` })).toContainText(
-      'max 50% of 140 kg = 70 kg: planned 82.5 kg; 70 kg fits on 2.5 kg steps',
+      'max 50% of 140 kg = 70 kg: planned 82.5 kg; 70 kg fits on 2.5 kg increments',
     );
 
     // Sam sees the session without its loads, and is told not to do it yet.

@@ -5,6 +5,7 @@ import type { LimitsChange, RecheckSummary } from '../core/command';
 import { engineContext, engineSets } from '../services/programs';
 import { athleteCircle, notify } from '../services/notify';
 import { memberNames } from '../queries/members';
+import { humanDate } from '../../../policies/words/dates';
 
 /**
  * The one "limits changed" path. Whatever changes what an athlete may do — a plan, a status, a case
@@ -116,7 +117,7 @@ async function tellCoaches(
       (a) =>
         `${nameOf.get(a) ?? 'An athlete'}: ${heldByAthlete
           .get(a)!
-          .map((s) => s.date)
+          .map((s) => humanDate(s.date))
           .join(', ')}`,
     );
     const who = athletes.length === 1 ? (nameOf.get(athletes[0]) ?? 'An athlete') : `${athletes.length} athletes`;

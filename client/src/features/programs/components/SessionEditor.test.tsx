@@ -109,7 +109,7 @@ describe('SessionEditor live check', () => {
 
     const breaches = within(setOne()).getByRole('list', { name: 'Breaches' });
     const item = within(breaches).getByRole('listitem');
-    expect(item).toHaveTextContent('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps.');
+    expect(item).toHaveTextContent('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg increments.');
     expect(screen.queryByRole('alert')).not.toBeInTheDocument();
     // The line: bar at the planned load, past the 84 kg cap.
     expect(within(setOne()).getByRole('meter')).toHaveAttribute('aria-valuetext', '87.5 kg, over the line by 3.5 kg (limit 84 kg)');
@@ -146,10 +146,10 @@ describe('SessionEditor live check', () => {
       pattern: 'hinge',
       limit: 'max 50% of 140 kg = 70 kg',
       planned: '80 kg',
-      fits: '70 kg fits on 2.5 kg steps',
+      fits: '70 kg fits on 2.5 kg increments',
       fittingKg: 70,
       waived: false,
-      message: 'Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg steps.',
+      message: 'Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg increments.',
     };
     let published = false;
     fetchMock.mockImplementation(async (input) => {
@@ -172,7 +172,7 @@ describe('SessionEditor live check', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Publish' }));
 
     const list = await screen.findByRole('list', { name: 'Breaches the server found for Sam Whitfield' });
-    expect(list).toHaveTextContent('Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg steps.');
+    expect(list).toHaveTextContent('Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg increments.');
     expect(screen.getByRole('alert')).toHaveTextContent('This session cannot be published: 1 planned set goes past a cap.');
   });
 });
