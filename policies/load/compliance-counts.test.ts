@@ -76,7 +76,7 @@ describe('sets per session and hard sets per week', () => {
       setId: 'h2',
       rule: 'hard_sets_per_week',
       limit: 'max 1 hard sets per week',
-      planned: 'hard set 2 of the week of 2026-03-02',
+      planned: 'hard set 2 of the week of Mon 2 Mar 2026',
     });
   });
 

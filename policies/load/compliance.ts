@@ -369,10 +369,10 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           'hard_sets_per_week',
           c.pattern,
           `max ${c.maxHard} hard sets per week`,
-          `hard set ${wCount} of the week of ${week}`,
+          `hard set ${wCount} of the week of ${humanDate(week)}`,
           `${c.maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
           null,
-          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${week}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
+          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${humanDate(week)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
         );
       }
     }

@@ -35,7 +35,7 @@ describe('publishing sessions', () => {
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('unprocessable');
     expect(res.body.error.message).toBe(
-      'This session cannot be published: 1 planned set goes past a cap. Each breach below says which cap, by how much, and what would fit.',
+      'This session cannot be published: 1 planned set goes past a cap. Each line below says which limit, by how much, and what would fit.',
     );
     expect(res.body.error.details.breaches).toEqual([
       {

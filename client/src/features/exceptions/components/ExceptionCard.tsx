@@ -39,7 +39,7 @@ function requestedSets(
       return {
         setId,
         label: `Set ${j + 1} of ${name}`,
-        planned: `${s.reps} reps × ${loadWords(s.load, unit)}${s.targetRpe != null ? ` at RPE ${s.targetRpe}` : ''}`,
+        planned: `${loadWords(s.load, unit)} × ${s.reps}${s.targetRpe != null ? ` at RPE ${s.targetRpe}` : ''}`,
       };
     }
     return { setId, label: 'A set no longer in the session', planned: 'changed or removed since the request' };

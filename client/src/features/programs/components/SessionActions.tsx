@@ -157,7 +157,7 @@ export function SessionActions({
         <p id={whyId} aria-live="polite" className="text-sm tabular-nums">
           {breachCount > 0 ? (
             <span className="font-semibold text-line-deep">
-              ▲ {plural(setCount, 'set')} {setCount === 1 ? 'goes' : 'go'} past a cap ({plural(breachCount, 'breach', 'breaches')}).{' '}
+              ▲ {plural(setCount, 'set')} {setCount === 1 ? 'is' : 'are'} over a limit ({plural(breachCount, 'limit')} crossed).{' '}
               {published ? 'Changes are refused until they fit.' : 'Publish is off until they fit, or the clinician grants an exception.'}
             </span>
           ) : empty ? (
@@ -209,7 +209,7 @@ export function SessionActions({
           {refusal.results.map((r) => (
             <BreachList
               key={r.athleteId}
-              label={`Breaches the server found for ${r.athleteName}`}
+              label={`Over a limit, as the server checked, for ${r.athleteName}`}
               items={r.breaches.map((breach) => ({
                 athleteId: r.athleteId,
                 athleteName: refusal.results.length > 1 || athletes.length > 1 ? r.athleteName : null,
