@@ -135,7 +135,7 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     await expect(set.getByLabel('Load', { exact: true })).toHaveValue('82.5');
     await expect(set.getByLabel('Load unit')).toHaveValue('kg');
     await expect(set.getByRole('list', { name: 'Over a limit' })).toHaveCount(0);
-    await expect(editor).toContainText('Every set fits the limits in force on this date.');
+    await expect(editor).toContainText('Every set is within the limits for this date.');
 
     await expect(publish).toBeEnabled();
     await publish.click();
@@ -173,7 +173,7 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     await editor.getByRole('button', { name: 'Remove Box jump' }).click();
     await expect(setGroup(editor, 'Box jump')).toHaveCount(0);
     await expect(editor.getByRole('list', { name: 'Over a limit' })).toHaveCount(0);
-    await expect(editor).toContainText('Every set fits the limits in force on this date.');
+    await expect(editor).toContainText('Every set is within the limits for this date.');
     await expect(editor.getByRole('button', { name: 'Ask for an exception' })).toHaveCount(0);
   });
 

@@ -130,7 +130,7 @@ export function ExceptionCard({
                       ))}
                     </ul>
                   ) : (
-                    !breaches.isPending && <p className="pl-7 text-sm text-ink-2">Fits the limits in force on that date as planned now.</p>
+                    !breaches.isPending && <p className="pl-7 text-sm text-ink-2">Within the limits for that date as planned now.</p>
                   )}
                 </li>
               );

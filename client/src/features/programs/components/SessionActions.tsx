@@ -167,8 +167,8 @@ export function SessionActions({
               {checking
                 ? 'Checking against the limits…'
                 : waivedSets > 0
-                  ? `Every set fits the limits in force on this date, or is covered by a granted exception (${plural(waivedSets, 'set')}).`
-                  : 'Every set fits the limits in force on this date.'}
+                  ? `Every set is within the limits for this date, or is covered by a granted exception (${plural(waivedSets, 'set')}).`
+                  : 'Every set is within the limits for this date.'}
               {dirty && ' Unsaved changes.'}
             </span>
           )}
