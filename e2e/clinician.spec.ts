@@ -110,7 +110,7 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     await expect(view2.getByRole('row', { name: /Jump/ })).toHaveCount(0);
     await expect(plan).toContainText(GUIDANCE);
 
-    const inForce = priya.getByRole('region', { name: 'In force on' });
+    const inForce = priya.getByRole('region', { name: 'What is allowed on' });
     await inForce.getByLabel('Date to check').fill(IN_STAGE_2);
     await expect(inForce).toContainText('Hinge: up to 75% of estimated 1RM');
     await expect(inForce).not.toContainText('Jump / landing: not allowed');
@@ -159,7 +159,7 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
     await expect(status).toContainText('Lower back');
     await expect(status).toContainText(FAMILY_NOTE);
 
-    const limits = page.getByRole('region', { name: 'Limits in force' });
+    const limits = page.getByRole('region', { name: 'What is allowed today' });
     await expect(limits).toContainText('Hinge: up to 55% of estimated 1RM, effort RPE 7 or easier');
     await expect(limits).toContainText('Jump / landing: not allowed for now');
     await expect(limits).toContainText(GUIDANCE);
@@ -246,8 +246,8 @@ test.describe.serial('a clinician opens a case and writes a plan; every role see
       expect(shown).not.toContain(DIAGNOSIS);
     }
 
-    await page.getByRole('button', { name: 'Check the chain' }).click();
-    await expect(page.getByText(/^Intact — \d+ entries checked$/)).toBeVisible();
+    await page.getByRole('button', { name: 'Verify the audit trail' }).click();
+    await expect(page.getByText(/^The audit trail is intact: \d+ entries verified, none changed or missing\.$/)).toBeVisible();
   });
 
   test('a save from a stale editor is refused and overwrites nothing', async ({ browser }, testInfo) => {

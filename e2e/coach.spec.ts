@@ -1,6 +1,7 @@
 import { expect, test, type BrowserContext, type Locator, type Page, type Request } from '@playwright/test';
 import { DEMO, HOME_HEADING, expectHome, keepScreenshot, signIn } from './helpers';
 import { BROWSER_ZONE, contextOptions, isoDay, stageFieldset } from './plan-helpers';
+import { humanDate } from '../policies/words/dates';
 
 /**
  * Programming against a restriction plan, end to end, on Sam's demo case (right ankle, stage 1
@@ -121,9 +122,9 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     await set.getByLabel('Target RPE').fill('6');
 
     // Checked in the browser as it is typed: nothing has been saved yet.
-    const breaches = set.getByRole('list', { name: 'Breaches' });
+    const breaches = set.getByRole('list', { name: 'Over a limit' });
     await expect(breaches.getByRole('listitem')).toHaveCount(1);
-    await expect(breaches).toContainText('max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps');
+    await expect(breaches).toContainText('max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg increments');
     const publish = editor.getByRole('button', { name: 'Publish', exact: true });
     await expect(publish).toBeDisabled();
     await expect(editor.getByText('Publish is off until they fit')).toBeVisible();
@@ -133,8 +134,8 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     await breaches.getByRole('button', { name: 'Use 82.5 kg' }).click();
     await expect(set.getByLabel('Load', { exact: true })).toHaveValue('82.5');
     await expect(set.getByLabel('Load unit')).toHaveValue('kg');
-    await expect(set.getByRole('list', { name: 'Breaches' })).toHaveCount(0);
-    await expect(editor).toContainText('Every set fits the limits in force on this date.');
+    await expect(set.getByRole('list', { name: 'Over a limit' })).toHaveCount(0);
+    await expect(editor).toContainText('Every set is within the limits for this date.');
 
     await expect(publish).toBeEnabled();
     await publish.click();
@@ -162,17 +163,17 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     await expect(boxJump).toHaveAccessibleDescription(/blocked on this date/);
     await boxJump.click();
     const set = setGroup(editor, 'Box jump');
-    const breaches = set.getByRole('list', { name: 'Breaches' });
-    await expect(breaches).toContainText(`Jump / landing is blocked on ${TODAY}: Box jump cannot be programmed.`);
+    const breaches = set.getByRole('list', { name: 'Over a limit' });
+    await expect(breaches).toContainText(`Jump / landing is blocked on ${humanDate(TODAY)}: Box jump cannot be programmed.`);
     await expect(editor.getByRole('button', { name: 'Ask for an exception' })).toBeVisible();
     await expect(editor).toContainText('Changes are refused until they fit.');
     // The deadlift set is untouched by it.
-    await expect(setGroup(editor, 'Deadlift').getByRole('list', { name: 'Breaches' })).toHaveCount(0);
+    await expect(setGroup(editor, 'Deadlift').getByRole('list', { name: 'Over a limit' })).toHaveCount(0);
 
     await editor.getByRole('button', { name: 'Remove Box jump' }).click();
     await expect(setGroup(editor, 'Box jump')).toHaveCount(0);
-    await expect(editor.getByRole('list', { name: 'Breaches' })).toHaveCount(0);
-    await expect(editor).toContainText('Every set fits the limits in force on this date.');
+    await expect(editor.getByRole('list', { name: 'Over a limit' })).toHaveCount(0);
+    await expect(editor).toContainText('Every set is within the limits for this date.');
     await expect(editor.getByRole('button', { name: 'Ask for an exception' })).toHaveCount(0);
   });
 
@@ -184,7 +185,7 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     await expect(session).toBeVisible();
     await expect(session).toContainText(PROGRAM);
     await expect(session.getByRole('heading', { name: 'Deadlift', exact: true })).toBeVisible();
-    await expect(session).toContainText('Set 1: 5 reps × 82.5 kg · RPE 6');
+    await expect(session).toContainText('Set 1: 82.5 kg × 5 · RPE 6');
     await expect(session).toContainText(/On a 20 kg bar, each side: 25 \+ 5\b/);
     await expect(session).not.toContainText('On hold');
     await keepScreenshot(sam, test.info(), 'athlete-today-session');
@@ -221,7 +222,7 @@ test.describe.serial('a coach programs within the limits; a tighter plan puts th
     const editor = sessionEditor(rosa);
     await expect(editor.getByText(`On hold for ${DEMO.sam.name} — update it to fit`)).toBeVisible();
     await expect(editor.getByRole('list', { name: `Why it is on hold for ${DEMO.sam.name}` })).toContainText(
-      'max 50% of 140 kg = 70 kg: planned 82.5 kg; 70 kg fits on 2.5 kg steps',
+      'max 50% of 140 kg = 70 kg: planned 82.5 kg; 70 kg fits on 2.5 kg increments',
     );
 
     // Sam sees the session without its loads, and is told not to do it yet.

@@ -2,6 +2,7 @@ import { expect, test } from '@playwright/test';
 import { expectHome, expectNoSidewaysScroll, keepScreenshot } from './helpers';
 import { BROWSER_ZONE, contextOptions, isoDay } from './plan-helpers';
 import { apiWrite, castForUploads, recordWebmClip, tinyPdf, videoTime, type UploadsCast } from './uploads-helpers';
+import { humanDate } from '../policies/words/dates';
 
 /**
  * Uploads end to end, with people of its own (see uploads-helpers): the athlete films a set in the
@@ -270,9 +271,7 @@ test.describe.serial('clips and case documents', () => {
   });
 });
 
-/** The page heading's date, as the app writes it ("2 Dec 2026"). */
+/** The page heading's date, as the app writes it ("Wed 2 Dec 2026", policies/words/dates.ts). */
 function dayWords(iso: string): string {
-  const [y, m, d] = iso.split('-').map(Number);
-  const month = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'][m - 1];
-  return `${d} ${month} ${y}`;
+  return humanDate(iso);
 }

@@ -12,7 +12,7 @@ describe('RPE caps', () => {
     // 83.33% allows 6.83 reps → 1.83 in reserve → RPE 8.17 → 8 on half steps.
     const [b] = checkSets([set({ exerciseId: 'sq', load: { kind: 'kg', value: 100 }, targetRpe: null })], ctx(rpe7, { sq: 120 }));
     expect(b).toMatchObject({ rule: 'rpe', pattern: 'squat', limit: 'max RPE 7', planned: 'RPE 8 (estimated from 83.33% × 5)' });
-    // RPE 7 with 5 reps = 8 reps possible = 80% of 120 = 96 kg → 95 kg on 2.5 kg steps.
+    // RPE 7 with 5 reps = 8 reps possible = 80% of 120 = 96 kg → 95 kg on 2.5 kg increments.
     expect(b.fittingKg).toBe(95);
     expect(b.fits).toBe('95 kg × 5 fits');
     expect(checkSets([set({ exerciseId: 'sq', load: { kind: 'kg', value: 95 }, targetRpe: null })], ctx(rpe7, { sq: 120 }))).toEqual([]);
@@ -76,7 +76,7 @@ describe('sets per session and hard sets per week', () => {
       setId: 'h2',
       rule: 'hard_sets_per_week',
       limit: 'max 1 hard sets per week',
-      planned: 'hard set 2 of the week of 2026-03-02',
+      planned: 'hard set 2 of the week of Mon 2 Mar 2026',
     });
   });
 

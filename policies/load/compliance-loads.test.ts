@@ -12,7 +12,7 @@ describe('status Out', () => {
     expect(rest).toEqual([]);
     expect(b).toMatchObject({ rule: 'status_out', pattern: null, fits: null, fittingKg: null, planned: 'Deadlift' });
     expect(b.message).toBe(
-      'The athlete is Out on 2026-03-02 and no restriction plan says what they may train. Ask the clinician for a plan or an exception.',
+      'The athlete is Out on Mon 2 Mar 2026 and no restriction plan says what they may train. Ask the clinician for a plan or an exception.',
     );
   });
 
@@ -37,7 +37,7 @@ describe('blocked and impact', () => {
   it('a blocked pattern names the pattern and the date, with nothing that fits', () => {
     const [b] = checkSets([set({ date: '2026-03-10' })], ctx(plan(stage({ hinge: { mode: 'blocked' } }))));
     expect(b).toMatchObject({ rule: 'blocked', pattern: 'hinge', limit: 'Hinge is blocked', planned: 'Deadlift', fits: null });
-    expect(b.message).toBe('Hinge is blocked on 2026-03-10: Deadlift cannot be programmed. Swap to an exercise that fits.');
+    expect(b.message).toBe('Hinge is blocked on Tue 10 Mar 2026: Deadlift cannot be programmed. Swap to an exercise that fits.');
   });
 
   it('impact off stops a ballistic exercise only; a non-ballistic lift of the same pattern passes', () => {
@@ -70,10 +70,10 @@ describe('% of 1RM caps', () => {
       pattern: 'hinge',
       limit: 'max 60% of 140 kg = 84 kg',
       planned: '91 kg',
-      fits: '82.5 kg fits on 2.5 kg steps',
+      fits: '82.5 kg fits on 2.5 kg increments',
       fittingKg: 82.5,
     });
-    expect(b.message).toBe('Hinge: max 60% of 140 kg = 84 kg: planned 91 kg; 82.5 kg fits on 2.5 kg steps.');
+    expect(b.message).toBe('Hinge: max 60% of 140 kg = 84 kg: planned 91 kg; 82.5 kg fits on 2.5 kg increments.');
   });
 
   it('exactly at the cap is allowed (60% of 140 kg; 84 kg)', () => {
@@ -88,7 +88,7 @@ describe('% of 1RM caps', () => {
     expect(b.limit).toBe('max 60% of 308.65 lb = 185.18 lb');
     expect(b.planned).toBe('190 lb');
     expect(b.fittingKg).toBe(82.5);
-    expect(b.fits).toBe('181.88 lb fits on 2.5 kg steps');
+    expect(b.fits).toBe('181.88 lb fits on 2.5 kg increments');
     expect(checkSets([set({ load: { kind: 'lb', value: 185 } })], ctx(hinge60, { dl: 140 }))).toEqual([]); // 83.91 kg
   });
 
@@ -117,15 +117,15 @@ describe('absolute load caps', () => {
       pattern: 'horizontal_push',
       limit: 'max 84 kg',
       planned: '85 kg',
-      fits: '82.5 kg fits on 2.5 kg steps',
+      fits: '82.5 kg fits on 2.5 kg increments',
       fittingKg: 82.5,
     });
-    expect(b.message).toBe('Horizontal push: max 84 kg: planned 85 kg; 82.5 kg fits on 2.5 kg steps.');
+    expect(b.message).toBe('Horizontal push: max 84 kg: planned 85 kg; 82.5 kg fits on 2.5 kg increments.');
   });
 
-  it('a pound load against a kg cap, on 5 lb steps: 190 lb (86.18 kg) over 84 kg; 185 lb fits (NIST SP 811)', () => {
+  it('a pound load against a kg cap, on 5 lb increments: 190 lb (86.18 kg) over 84 kg; 185 lb fits (NIST SP 811)', () => {
     const [b] = checkSets([set({ exerciseId: 'bplb', load: { kind: 'lb', value: 190 } })], ctx(cap84, {}, { unit: 'lb' }));
-    expect(b).toMatchObject({ rule: 'absolute_load', limit: 'max 185.18 lb', planned: '190 lb', fits: '185 lb fits on 5 lb steps' });
+    expect(b).toMatchObject({ rule: 'absolute_load', limit: 'max 185.18 lb', planned: '190 lb', fits: '185 lb fits on 5 lb increments' });
     expect(b.fittingKg!).toBeCloseTo(185 * 0.45359237, 5);
     const kgView = checkSets([set({ exerciseId: 'bplb', load: { kind: 'lb', value: 190 } })], ctx(cap84))[0];
     expect(kgView.planned).toBe('86.18 kg');

@@ -68,13 +68,13 @@ const ctx = (plans: PlanInput[], baselines: Record<string, number> = {}, more: P
 });
 
 describe('checkSets', () => {
-  it('a clinician cap of 60% of a 140 kg 1RM = 84 kg: 87.5 kg breaches; 82.5 kg fits on 2.5 kg steps (common practice: under a cap, round down)', () => {
+  it('a clinician cap of 60% of a 140 kg 1RM = 84 kg: 87.5 kg breaches; 82.5 kg fits on 2.5 kg increments (common practice: under a cap, round down)', () => {
     const plans = plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } }));
     const [b, ...rest] = checkSets([set({ load: { kind: 'kg', value: 87.5 }, targetRpe: 6 })], ctx(plans, { rdl: 140 }));
     expect(rest).toEqual([]);
     expect(b.rule).toBe('percent_1rm');
     expect(b.fittingKg).toBe(82.5);
-    expect(b.message).toBe('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps.');
+    expect(b.message).toBe('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg increments.');
     expect(checkSets([set({ load: { kind: 'kg', value: 82.5 }, targetRpe: 6 })], ctx(plans, { rdl: 140 }))).toEqual([]);
   });
 

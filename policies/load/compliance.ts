@@ -10,6 +10,7 @@ import { MOVEMENT_PATTERNS, PATTERN_LABELS, type MovementPattern, type Participa
 import { HARD_SET_RPE, isHardSet, mondayOf, plannedKg, type EngineSet } from './sets';
 import { describeSteps, type LoadSteps } from './steps';
 import { formatLoad } from './units';
+import { humanDate } from '../words/dates';
 
 /**
  * The compliance engine: every planned set checked on its own date against the restriction plans
@@ -185,7 +186,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
         `${name}`,
         null,
         null,
-        `The athlete is Out on ${set.date} and no restriction plan says what they may train. Ask the clinician for a plan or an exception.`,
+        `The athlete is Out on ${humanDate(set.date)} and no restriction plan says what they may train. Ask the clinician for a plan or an exception.`,
       );
       continue;
     }
@@ -198,7 +199,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
         name,
         null,
         null,
-        `${label} is blocked on ${set.date}: ${name} cannot be programmed. Swap to an exercise that fits.`,
+        `${label} is blocked on ${humanDate(set.date)}: ${name} cannot be programmed. Swap to an exercise that fits.`,
       );
       continue;
     }
@@ -210,7 +211,7 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
         `${name} (impact)`,
         null,
         null,
-        `${PATTERN_LABELS[r.impactOff]}: no impact allowed on ${set.date}; ${name} is ballistic. Swap to a non-impact exercise.`,
+        `${PATTERN_LABELS[r.impactOff]}: no impact allowed on ${humanDate(set.date)}; ${name} is ballistic. Swap to a non-impact exercise.`,
       );
     }
 
@@ -368,10 +369,10 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
           'hard_sets_per_week',
           c.pattern,
           `max ${c.maxHard} hard sets per week`,
-          `hard set ${wCount} of the week of ${week}`,
+          `hard set ${wCount} of the week of ${humanDate(week)}`,
           `${c.maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
           null,
-          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${week}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
+          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${humanDate(week)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
         );
       }
     }

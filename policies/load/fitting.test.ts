@@ -125,7 +125,7 @@ describe('property: every suggested load passes checkSets', () => {
     );
   });
 
-  it('on 2.5 kg steps the suggestion is the heaviest that passes: one step more breaches (random caps)', () => {
+  it('on 2.5 kg increments the suggestion is the heaviest that passes: one step more breaches (random caps)', () => {
     fc.assert(
       fc.property(capsArb, fc.integer({ min: 20, max: 300 }), fc.integer({ min: 1, max: 40 }), (caps, oneRm, reps) => {
         const plans = plan(stage({ hinge: { mode: 'capped', caps } }));

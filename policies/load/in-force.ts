@@ -1,5 +1,6 @@
 import { isFiniteNumber } from './guard';
 import { DEFAULT_PAIN_CEILING, MOVEMENT_PATTERNS, type Caps, type MovementPattern, type PatternRule } from './patterns';
+import { humanDate } from '../words/dates';
 
 /** One stage of a restriction plan. Dates are 'YYYY-MM-DD'; both ends are inclusive. */
 export interface PlanStage {
@@ -43,7 +44,7 @@ export function stageIssues(stages: Pick<PlanStage, 'startDate' | 'endDate' | 'r
     if (cur.s.startDate <= prev.s.endDate) {
       issues.push({
         path: [cur.i, 'startDate'],
-        message: `overlaps stage ${prev.i + 1} (which ends ${prev.s.endDate}); a day can belong to one stage only`,
+        message: `overlaps stage ${prev.i + 1} (which ends ${humanDate(prev.s.endDate)}); a day can belong to one stage only`,
       });
     }
   }

@@ -34,8 +34,8 @@ describe('diffPlans', () => {
     };
     const changes = diffPlans(before, after);
     expect(changes).toContainEqual({ where: 'Plan', what: 'guidance', before: 'x', after: 'y' });
-    expect(changes).toContainEqual({ where: 'Stage 2', what: 'stage removed', before: '2026-03-15 – 2026-03-31', after: null });
-    expect(changes).toContainEqual({ where: 'Stage 2', what: 'stage added', before: null, after: '2026-03-11 – 2026-04-01' });
+    expect(changes).toContainEqual({ where: 'Stage 2', what: 'stage removed', before: 'Sun 15 Mar 2026 – Tue 31 Mar 2026', after: null });
+    expect(changes).toContainEqual({ where: 'Stage 2', what: 'stage added', before: null, after: 'Wed 11 Mar 2026 – Wed 1 Apr 2026' });
     expect(changes).toContainEqual({ where: 'Stage 1', what: 'end date', before: '2026-03-14', after: '2026-03-10' });
     expect(changes).toContainEqual({ where: 'Stage 1', what: 'Hinge: mode', before: 'capped', after: 'blocked' });
     expect(changes).toContainEqual({ where: 'Stage 1', what: 'Hinge: max % of estimated 1RM', before: '60', after: null });

@@ -1,5 +1,6 @@
 import type { PlanStage } from './in-force';
 import { CAP_KEYS, MOVEMENT_PATTERNS, PATTERN_LABELS, type CapKey, type PatternRule } from './patterns';
+import { humanDate } from '../words/dates';
 
 export interface PlanSnapshot {
   stages: PlanStage[];
@@ -47,13 +48,18 @@ export function diffPlans(before: PlanSnapshot, after: PlanSnapshot): PlanChange
   const newIds = new Set(after.stages.map((s) => s.id));
   before.stages.forEach((s, i) => {
     if (!newIds.has(s.id))
-      changes.push({ where: stageName(s, i), what: 'stage removed', before: `${s.startDate} – ${s.endDate}`, after: null });
+      changes.push({
+        where: stageName(s, i),
+        what: 'stage removed',
+        before: `${humanDate(s.startDate)} – ${humanDate(s.endDate)}`,
+        after: null,
+      });
   });
   after.stages.forEach((s, i) => {
     const old = oldById.get(s.id);
     const where = stageName(s, i);
     if (!old) {
-      changes.push({ where, what: 'stage added', before: null, after: `${s.startDate} – ${s.endDate}` });
+      changes.push({ where, what: 'stage added', before: null, after: `${humanDate(s.startDate)} – ${humanDate(s.endDate)}` });
       return;
     }
     if (old.i !== i) changes.push({ where, what: 'position', before: String(old.i + 1), after: String(i + 1) });

@@ -12,7 +12,7 @@ const loaded = (...args: Parameters<typeof platesPerSide>) => platesPerSide(...a
 const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
 
 describe('kettlebell sizes (competition kettlebells, IWF/IKSFA sizes, confirmed only through a reproduction)', () => {
-  it('are 8–32 kg in 4 kg steps, and 36–48 kg also', () => {
+  it('are 8–32 kg in 4 kg increments, and 36–48 kg also', () => {
     const competition = [8, 12, 16, 20, 24, 28, 32];
     expect(KETTLEBELL_KG.slice(0, competition.length)).toEqual(competition);
     expect(KETTLEBELL_KG.slice(competition.length)).toEqual([36, 40, 44, 48]);
@@ -28,7 +28,7 @@ describe('kettlebell sizes (competition kettlebells, IWF/IKSFA sizes, confirmed 
   });
 });
 
-describe('5 lb steps (NIST SP 811: 1 lb = 0.45359237 kg exactly)', () => {
+describe('5 lb increments (NIST SP 811: 1 lb = 0.45359237 kg exactly)', () => {
   it('135 lb = 61.23 kg, and a cap of exactly that fits 135 lb, not 130 lb', () => {
     const cap = lbToKg(135);
     expect(cap).toBeCloseTo(61.23, 2);
@@ -37,13 +37,13 @@ describe('5 lb steps (NIST SP 811: 1 lb = 0.45359237 kg exactly)', () => {
     expect(fit).toBeLessThanOrEqual(cap + 1e-6);
   });
 
-  it('a kg cap between two 5 lb steps takes the lower one: 84 kg (185.19 lb) → 185 lb', () => {
+  it('a kg cap between two 5 lb increments takes the lower one: 84 kg (185.19 lb) → 185 lb', () => {
     expect(kgToLb(84)).toBeCloseTo(185.19, 2);
     expect(kgToLb(largestFitting(84, fiveLb)!)).toBeCloseTo(185, 5);
-    expect(describeSteps(fiveLb)).toBe('5 lb steps');
+    expect(describeSteps(fiveLb)).toBe('5 lb increments');
   });
 
-  it('every fitting load is a whole number of 5 lb steps, never over the cap, and the next step is (property)', () => {
+  it('every fitting load is a whole number of 5 lb increments, never over the cap, and the next step is (property)', () => {
     fc.assert(
       fc.property(fc.double({ min: 2.3, max: 500, noNaN: true }), (capKg) => {
         const fit = largestFitting(capKg, fiveLb);
@@ -129,7 +129,7 @@ describe('platesPerSide', () => {
     expect(r.total).toBeGreaterThan(15);
   });
 
-  it('any kg load on a whole kg above the bar, and any lb load on 5 lb steps, is made exactly, sides equal (property)', () => {
+  it('any kg load on a whole kg above the bar, and any lb load on 5 lb increments, is made exactly, sides equal (property)', () => {
     fc.assert(
       fc.property(fc.integer({ min: 0, max: 300 }), fc.boolean(), (k, collars) => {
         const collarsEach = collars ? 2.5 : 0;

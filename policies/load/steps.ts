@@ -95,5 +95,5 @@ export function heaviestPassing(steps: LoadSteps, upperKg: number, ok: (kg: numb
 
 export function describeSteps(steps: LoadSteps): string {
   if (steps.kind === 'list') return 'the available implements';
-  return isFiniteNumber(steps.step) && steps.step > 0 ? `${steps.step} ${steps.unit} steps` : 'the available steps';
+  return isFiniteNumber(steps.step) && steps.step > 0 ? `${steps.step} ${steps.unit} increments` : 'the available increments';
 }

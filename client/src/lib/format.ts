@@ -1,12 +1,18 @@
-import { format, isValid, parseISO } from 'date-fns';
-import { zoneDiffers } from '../../../policies/today';
+import { isValid, parseISO } from 'date-fns';
+import { dayIn, zoneDiffers } from '../../../policies/today';
+import { humanDate, humanDateTime } from '../../../policies/words/dates';
 import { currentOrgTimeZone } from './dates';
 
-/** '2025-03-14' → '14 Mar 2025'. Calendar dates are parsed as local dates, never shifted by a zone. */
+/**
+ * '2026-12-03' → 'Thu 3 Dec 2026': the client's one way of showing a calendar day (policies/words/dates.ts,
+ * which notices and e-mails use too). A day is never shifted by a zone.
+ */
 export function formatDate(isoDate: string | null | undefined): string {
   if (!isoDate) return '—';
+  if (isoDate.length <= 10) return humanDate(isoDate);
+  // An instant given where a day is meant: the reader's calendar day of it.
   const parsed = parseISO(isoDate);
-  return isValid(parsed) ? format(parsed, 'd MMM yyyy') : isoDate;
+  return isValid(parsed) ? humanDate(dayIn(readerTimeZone(), parsed)) : isoDate;
 }
 
 /** The zone the reader's browser is in. */
@@ -21,7 +27,7 @@ function zoneName(timeZone: string, instant: Date): string {
 }
 
 /**
- * An instant → '14 Mar 2025, 09:30' in the reader's own time zone. When the reader's clock differs
+ * An instant → '14 Mar 2025, 09:30' in the reader's own time zone (policies/words/dates.ts). When the reader's clock differs
  * from the organization's, the zone is named ('14 Mar 2025, 17:30 UTC'), so nobody takes it for
  * the organization's time. `orgZone` defaults to the organization in view (lib/dates.ts).
  */
@@ -29,8 +35,8 @@ export function formatDateTime(isoInstant: string | null | undefined, orgZone: s
   if (!isoInstant) return '—';
   const parsed = parseISO(isoInstant);
   if (!isValid(parsed)) return isoInstant;
-  const shown = format(parsed, 'd MMM yyyy, HH:mm');
   const reader = readerTimeZone();
+  const shown = humanDateTime(parsed, reader);
   return orgZone && zoneDiffers(reader, orgZone, parsed) ? `${shown} ${zoneName(reader, parsed)}` : shown;
 }
 

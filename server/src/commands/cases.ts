@@ -14,6 +14,7 @@ import { tellStatusChange } from '../services/change-notices';
 import { requireMemberWithRole } from '../services/org-members';
 import { updateVersioned } from '../services/versioned';
 import { callWithin } from './run';
+import { humanDate } from '../../../policies/words/dates';
 
 async function loadCase(m: EntityManager, id: string, organizationId: string) {
   return m.findOne(CaseRecord, { where: { id, organizationId } });
@@ -49,9 +50,9 @@ const CAUSE_WORDS: Record<StatusCause['kind'], string> = {
 function limitsReason(input: SetStatusInput): string {
   switch (input.cause.kind) {
     case 'clinician':
-      return `The clinician set the status to ${input.status} from ${input.effectiveFrom}.`;
+      return `The clinician set the status to ${input.status} from ${humanDate(input.effectiveFrom)}.`;
     case 'case_opened':
-      return `The clinician opened a case with the status ${input.status} from ${input.effectiveFrom}.`;
+      return `The clinician opened a case with the status ${input.status} from ${humanDate(input.effectiveFrom)}.`;
     case 'emergency_report':
       return 'The athlete reported an emergency warning sign and is Out.';
   }

@@ -8,6 +8,7 @@ import { exceptionDtos } from '../queries/exceptions';
 import { memberName } from '../queries/members';
 import { athleteCircle, notify } from '../services/notify';
 import { authorizeProgram, setFingerprint } from '../services/programs';
+import { humanDate } from '../../../policies/words/dates';
 
 /** The coach asks the athlete's clinicians to let named sets of a session go past a cap for one athlete. */
 export const requestException = orgCommand({
@@ -54,7 +55,7 @@ export const requestException = orgCommand({
       kind: 'exception_requested',
       severity: 'routine',
       title: `Exception requested by ${me}`,
-      body: `${me} asks to go past a cap on ${input.setIds.length} set(s) on ${session!.date} ("${session!.title}"): ${input.reason}`,
+      body: `${me} asks to go past a cap on ${input.setIds.length} set(s) on ${humanDate(session!.date)} ("${session!.title}"): ${input.reason}`,
     });
     return (await exceptionDtos(m, ctx.ability, actor.organizationId, { id: saved.id }))[0];
   },
@@ -115,7 +116,7 @@ export const decideException = orgCommand({
           kind: `exception_${x.status}`,
           severity: 'routine',
           title: `Exception ${x.status} by ${me}`,
-          body: `${session.date} "${session.title}": ${x.status === 'granted' ? `granted for ${granted.length} set(s)` : 'refused'}. Note: ${input.note}`,
+          body: `${humanDate(session.date)} "${session.title}": ${x.status === 'granted' ? `granted for ${granted.length} set(s)` : 'refused'}. Note: ${input.note}`,
         },
       );
     }

@@ -6,6 +6,7 @@ import { engineContext, engineSets } from '../services/programs';
 import { athleteCircle, notify } from '../services/notify';
 import { memberNames } from '../queries/members';
 import { noticeStaleLetters } from '../services/letter-staleness';
+import { humanDate } from '../../../policies/words/dates';
 
 /**
  * The one "limits changed" path. Whatever changes what an athlete may do — a plan, a status, a case
@@ -118,7 +119,7 @@ async function tellCoaches(
       (a) =>
         `${nameOf.get(a) ?? 'An athlete'}: ${heldByAthlete
           .get(a)!
-          .map((s) => s.date)
+          .map((s) => humanDate(s.date))
           .join(', ')}`,
     );
     const who = athletes.length === 1 ? (nameOf.get(athletes[0]) ?? 'An athlete') : `${athletes.length} athletes`;

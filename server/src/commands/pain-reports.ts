@@ -12,6 +12,7 @@ import { athleteCircle, notify } from '../services/notify';
 import { requireMemberWithRole } from '../services/org-members';
 import { setStatus } from './cases';
 import { callWithin } from './run';
+import { coachFlagLine } from '../../../policies/words/flag-lines';
 
 /** What the athlete reads first, by the report's route (NICE NG59 2016, updated 2020). */
 const MESSAGES = {
@@ -204,14 +205,17 @@ export const reportPain = orgCommand({
         sourceType: 'PainReport',
         sourceId: report.id,
       });
-      await notify(m, [...circle.clinicians, ...circle.coaches], {
+      const notice = {
         organizationId: org,
         athleteId: input.athleteId,
         kind: 'pain_report',
-        severity: 'routine',
+        severity: 'routine' as const,
         title: `New pain report: ${athleteName}`,
-        body: message,
-      });
+      };
+      await notify(m, circle.clinicians, { ...notice, body: message });
+      // Coaches read what it means for training, not the scores or places (minimum necessary).
+      const coachesOnly = circle.coaches.filter((c) => !circle.clinicians.includes(c));
+      await notify(m, coachesOnly, { ...notice, body: coachFlagLine('pain_report', athleteName) });
     }
     if (!statusSetToOut) ctx.limitsUnchanged();
     const { emergencyNumber } = await m.findOneByOrFail(Organization, { id: org });

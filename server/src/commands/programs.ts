@@ -26,7 +26,7 @@ function refuseBreaches(results: { athleteId: string; breaches: Breach[] }[], wh
     const count = blocking.reduce((a, r) => a + r.breaches.length, 0);
     throw new AppError(
       'unprocessable',
-      `This session cannot be ${what}: ${count} planned set${count > 1 ? 's go' : ' goes'} past a cap. Each breach below says which cap, by how much, and what would fit.`,
+      `This session cannot be ${what}: ${count} planned set${count > 1 ? 's go' : ' goes'} past a cap. Each line below says which limit, by how much, and what would fit.`,
       undefined,
       { breaches: blocking },
     );

@@ -9,6 +9,7 @@ import { toCheckInDto, toLogDto } from '../queries/training';
 import { requireMemberWithRole } from '../services/org-members';
 import { flagLoggedSetsOverLimits, requirePlannedSession } from '../services/logged-limits';
 import { createTrainingLog, recordNextMorning, recordPainAfter, shiftDate } from '../services/training-logs';
+import { humanDate } from '../../../policies/words/dates';
 
 /** A log or check-in records what happened: a day after the organization's today is refused (common practice). */
 function notInTheFuture(ctx: OrgCommandCtx, date: string) {
@@ -52,8 +53,8 @@ export const recordAfterSessionPain = orgCommand({
     if (ctx.today !== log.date) {
       throw new AppError(
         'unprocessable',
-        `Pain after the session can be recorded only on the session's day (${log.date}); today is ${ctx.today}.`,
-        { painAfter: [`can be recorded only on ${log.date}, the day of the session`] },
+        `Pain after the session can be recorded only on the session's day (${humanDate(log.date)}); today is ${humanDate(ctx.today)}.`,
+        { painAfter: [`can be recorded only on ${humanDate(log.date)}, the day of the session`] },
       );
     }
     const athleteName = await memberName(ctx.m, log.athleteId, 'The athlete');
@@ -78,9 +79,9 @@ export const recordNextMorningPain = orgCommand({
     if (ctx.today <= log.date) {
       throw new AppError(
         'unprocessable',
-        `Next-morning pain can be recorded from the morning after the session (${shiftDate(log.date, 1)}).`,
+        `Next-morning pain can be recorded from the morning after the session (${humanDate(shiftDate(log.date, 1))}).`,
         {
-          painNextMorning: [`can be recorded from ${shiftDate(log.date, 1)}, the morning after the session`],
+          painNextMorning: [`can be recorded from ${humanDate(shiftDate(log.date, 1))}, the morning after the session`],
         },
       );
     }

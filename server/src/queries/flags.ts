@@ -3,8 +3,14 @@ import type { z } from 'zod';
 import type { FlagListQuerySchema } from '../../../policies/schemas';
 import { accessibleWhere } from '../core/accessible';
 import { orgQuery } from '../core/command';
+import { humanizeIsoDates } from '../../../policies/words/dates';
+import { coachFlagLine } from '../../../policies/words/flag-lines';
 
-/** Red-flag reports, pain reports and pain-rule flags of the reader's athletes, newest first. */
+/**
+ * Red-flag reports, pain reports and pain-rule flags of the reader's athletes, newest first. A clinician
+ * of the athlete reads the flag's own message; anyone else on the care team (a coach) reads a line
+ * about training only, without scores, places or warning-sign answers (ASVS 5.0 V8.2.3).
+ */
 export const flagsQuery = orgQuery({
   name: 'flags',
   async run(ctx, input: z.infer<typeof FlagListQuerySchema>): Promise<FlagDto[]> {
@@ -27,11 +33,13 @@ export const flagsQuery = orgQuery({
         'f.acknowledged_at AS "acknowledgedAt"',
         'ku.display_name AS "acknowledgedByName"',
         `CASE WHEN f.source_type = 'PainReport' THEN f.source_id END AS "painReportId"`,
+        `to_char(tl.date, 'YYYY-MM-DD') AS "sessionDate"`,
       ])
       .from('flags', 'f')
       .innerJoin('memberships', 'am', 'am.id = f.athlete_id')
       .innerJoin('users', 'au', 'au.id = am.user_id')
       .leftJoin('users', 'ku', 'ku.id = f.acknowledged_by')
+      .leftJoin('training_logs', 'tl', `f.source_type = 'TrainingLog' AND tl.id = f.source_id`)
       .where('f.organization_id = :org', { org: ctx.actor.organizationId })
       .andWhere(acl.sql, acl.params)
       .orderBy('f.created_at', 'DESC')
@@ -40,8 +48,10 @@ export const flagsQuery = orgQuery({
     if (input.state === 'open') qb.andWhere('f.acknowledged_at IS NULL');
     if (input.state === 'acknowledged') qb.andWhere('f.acknowledged_at IS NOT NULL');
     const rows = await qb.getRawMany();
-    return rows.map((r): FlagDto => ({
+    const clinicianOf = new Set(ctx.actor.clinicianOf);
+    return rows.map(({ sessionDate, ...r }): FlagDto => ({
       ...r,
+      message: clinicianOf.has(r.athleteId) ? humanizeIsoDates(r.message) : coachFlagLine(r.kind, r.athleteName, sessionDate),
       createdAt: new Date(r.createdAt).toISOString(),
       acknowledgedAt: r.acknowledgedAt ? new Date(r.acknowledgedAt).toISOString() : null,
     }));

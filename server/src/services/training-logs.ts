@@ -8,6 +8,7 @@ import { estimateOneRm } from '../../../policies/load/one-rm';
 import type { AuditFn } from '../core/tx';
 import { activePlans } from './cases';
 import { athleteCircle, notify } from './notify';
+import { humanDate } from '../../../policies/words/dates';
 
 const iso = (d: Date) => formatISO(d, { representation: 'date' });
 export const shiftDate = (date: string, days: number) => iso(addDays(parseISO(date), days));
@@ -48,7 +49,7 @@ const CONDITION_NAMES: Record<PainFlagKind, string> = {
  */
 async function raiseFlags(m: EntityManager, log: TrainingLog, result: PainRuleResult, athleteName: string) {
   if (result.action !== 'reduce') return;
-  const message = `${athleteName}, session of ${log.date}: ${result.flags.map((f) => f.message).join(' ')} Suggested: reduce the next session.`;
+  const message = `${athleteName}, session of ${humanDate(log.date)}: ${result.flags.map((f) => f.message).join(' ')} Suggested: reduce the next session.`;
   await m.insert(Flag, {
     organizationId: log.organizationId,
     athleteId: log.athleteId,
@@ -67,7 +68,7 @@ async function raiseFlags(m: EntityManager, log: TrainingLog, result: PainRuleRe
   await notify(m, circle.coaches, {
     ...notice,
     title,
-    body: `${athleteName}, session of ${log.date}: reduce the next session (${conditions}).`,
+    body: `${athleteName}, session of ${humanDate(log.date)}: reduce the next session (${conditions}).`,
   });
 }
 

@@ -44,7 +44,9 @@ describe('opening a case re-checks the athlete’s published sessions', () => {
       {
         recipient_id: w.org.coach.membershipId,
         title: `${w.org.athlete.name}: 2 sessions on hold`,
-        body: expect.stringMatching(/^The clinician opened a case with the status out from 2026-06-10\. .*2026-06-10, 2026-06-11\.$/),
+        body: expect.stringMatching(
+          /^The clinician opened a case with the status out from Wed 10 Jun 2026\. .*Wed 10 Jun 2026, Thu 11 Jun 2026\.$/,
+        ),
       },
     ]);
     // The coach reads it among their own notices.

@@ -1,6 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { RED_FLAG_ITEMS } from '../../../../policies/red-flags';
 import { dayIn } from '../../../../policies/today';
+import { humanDate } from '../../../../policies/words/dates';
 import { useHarness } from '../../test/harness';
 import { heldSessions, onHoldNotices, pinClock, publishSession, unpinClock, zonedWorld } from '../cases/clock-world';
 
@@ -70,7 +71,7 @@ describe('an emergency pain report in the evening, west of UTC (NICE NG59: stop 
       const [notice] = await onHoldNotices(h.ds, w.org.id);
       expect(notice).toMatchObject({ recipient_id: w.org.coach.membershipId, title: `${w.org.athlete.name}: 2 sessions on hold` });
       expect(notice.body).toMatch(/^The athlete reported an emergency warning sign and is Out\. /);
-      expect(notice.body).toContain(`${c.day}, ${c.next}`);
+      expect(notice.body).toContain(`${humanDate(c.day)}, ${humanDate(c.next)}`);
     });
   }
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
 import { addDays, content, pinClock, programWorld, TODAY } from './test-world';
+import { humanDate } from '../../../../policies/words/dates';
 
 /**
  * An exercise's movement patterns and impact flag decide which limits its sets count toward. Editing
@@ -85,7 +86,7 @@ describe('library edits and the limits of the athletes whose sessions use the ex
         athlete_id: w.athlete,
         severity: 'urgent',
         title: `${w.org.athlete.name}: 1 session on hold`,
-        body: `The exercise Sled drag changed in the library (movement patterns). These published sessions now go past a limit and are on hold until you update them: ${w.org.athlete.name}: ${DATE}.`,
+        body: `The exercise Sled drag changed in the library (movement patterns). These published sessions now go past a limit and are on hold until you update them: ${w.org.athlete.name}: ${humanDate(DATE)}.`,
       },
     ]);
     const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [published.id]);

@@ -35,7 +35,7 @@ describe('publishing sessions', () => {
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe('unprocessable');
     expect(res.body.error.message).toBe(
-      'This session cannot be published: 1 planned set goes past a cap. Each breach below says which cap, by how much, and what would fit.',
+      'This session cannot be published: 1 planned set goes past a cap. Each line below says which limit, by how much, and what would fit.',
     );
     expect(res.body.error.details.breaches).toEqual([
       {
@@ -50,10 +50,10 @@ describe('publishing sessions', () => {
             pattern: 'hinge',
             limit: 'max 60% of 140 kg = 84 kg',
             planned: '87.5 kg',
-            fits: '82.5 kg fits on 2.5 kg steps',
+            fits: '82.5 kg fits on 2.5 kg increments',
             fittingKg: 82.5,
             waived: false,
-            message: 'Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps.',
+            message: 'Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg increments.',
           },
         ],
       },

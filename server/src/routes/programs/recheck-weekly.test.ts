@@ -4,6 +4,7 @@ import { weekOf } from '../../../../policies/load/compliance';
 import { useHarness } from '../../test/harness';
 import { recheckWorld } from './recheck-world';
 import { addDays, pinClock, put, TODAY } from './test-world';
+import { humanDate } from '../../../../policies/words/dates';
 
 describe('published sessions are checked again against the weekly hard-set limit', () => {
   const h = useHarness();
@@ -48,7 +49,7 @@ describe('published sessions are checked again against the weekly hard-set limit
     expect(await w.held()).toEqual([todays]);
     const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [todays]);
     expect(hold.breaches.map((b: { rule: string; planned: string }) => [b.rule, b.planned])).toEqual([
-      ['hard_sets_per_week', `hard set 5 of the week of ${weekOf(TODAY)}`],
+      ['hard_sets_per_week', `hard set 5 of the week of ${humanDate(weekOf(TODAY))}`],
     ]);
   });
 

@@ -4,6 +4,7 @@ import { signedIn, useHarness } from '../../test/harness';
 import { createMember, TEST_PASSWORD } from '../../test/factories';
 import { oneSet, recheckWorld } from './recheck-world';
 import { addDays, cheapen, pinClock, TODAY } from './test-world';
+import { humanDate } from '../../../../policies/words/dates';
 
 describe('published sessions are checked again when what they depend on changes', () => {
   const h = useHarness();
@@ -61,7 +62,7 @@ describe('published sessions are checked again when what they depend on changes'
     for (const n of notices) {
       expect(n).toMatchObject({ athlete_id: w.athlete, severity: 'urgent', title: `${w.org.athlete.name}: 2 sessions on hold` });
       expect(n.body).toBe(
-        `The clinician changed the restriction plan. These published sessions now go past a limit and are on hold until you update them: ${w.org.athlete.name}: ${d1}, ${d2}.`,
+        `The clinician changed the restriction plan. These published sessions now go past a limit and are on hold until you update them: ${w.org.athlete.name}: ${humanDate(d1)}, ${humanDate(d2)}.`,
       );
     }
     // What the coach reads through the API.
@@ -118,7 +119,7 @@ describe('published sessions are checked again when what they depend on changes'
     const [hold] = await h.ds.query(`SELECT breaches FROM session_holds WHERE session_id = $1`, [after]);
     expect(hold.breaches.map((b: { rule: string }) => b.rule)).toEqual(['status_out']);
     const [n] = await w.notices();
-    expect(n.body).toMatch(new RegExp(`^The clinician set the status to out from ${addDays(TODAY, 5)}\\. `));
+    expect(n.body).toMatch(new RegExp(`^The clinician set the status to out from ${humanDate(addDays(TODAY, 5))}\\. `));
   });
 
   it('a new baseline re-checks % caps both ways: a lower max holds, a higher one releases', async () => {

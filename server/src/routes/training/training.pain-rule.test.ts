@@ -61,7 +61,7 @@ describe("next-morning pain is the next calendar day's question in the organizat
     ).post(`${w.base}/training-logs/${saved.id}/next-morning`, { painNextMorning: 1, version: 1 });
     expect(early.status, JSON.stringify(early.body)).toBe(422);
     expect(early.body.error.code).toBe('unprocessable');
-    expect(early.body.error.fields).toEqual({ painNextMorning: ['can be recorded from 2026-01-15, the morning after the session'] });
+    expect(early.body.error.fields).toEqual({ painNextMorning: ['can be recorded from Thu 15 Jan 2026, the morning after the session'] });
     expect((await h.ds.query('SELECT pain_next_morning, version FROM training_logs WHERE id = $1', [saved.id]))[0]).toEqual({
       pain_next_morning: null,
       version: 1,
@@ -115,7 +115,7 @@ describe('pain after the session, that evening (Silbernagel et al. 2007, AJSM 35
     pinClock(NEXT_MORNING);
     const late = await (await w.as(w.org.athlete)).post(`${w.base}/training-logs/${second.log.id}/after`, { painAfter: 3, version: 1 });
     expect(late.status, JSON.stringify(late.body)).toBe(422);
-    expect(late.body.error.fields).toEqual({ painAfter: ['can be recorded only on 2026-01-14, the day of the session'] });
+    expect(late.body.error.fields).toEqual({ painAfter: ['can be recorded only on Wed 14 Jan 2026, the day of the session'] });
   });
 
   it('worked sequence: before 1, during 3, evening 5, next morning 3 → not settled by the next morning, one flag (Silbernagel et al. 2007)', async () => {

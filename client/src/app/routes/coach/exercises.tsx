@@ -25,7 +25,7 @@ function Library() {
         <Link to="/coach">← My athletes</Link>
       </p>
       <PageHeader title="Exercise library">
-        Patterns decide which limits apply to an exercise; load steps decide what a fix rounds down to.
+        Patterns decide which limits apply to an exercise; the available weight increments decide what a fix rounds down to.
       </PageHeader>
       <ExerciseLibrary orgId={orgId} canEdit={ability.can('update', 'Exercise')} />
     </div>

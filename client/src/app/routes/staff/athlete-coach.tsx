@@ -82,7 +82,7 @@ function CoachSections({ row }: { row: CaseloadRowDto }) {
       </Panel>
 
       {!(inForce.isError && isNoAccess(inForce.error)) && (
-        <Panel title="Limits in force">
+        <Panel title="What is allowed today">
           <p className="mb-3 text-sm text-muted">Today, {formatDate(today)}. Program under these; the clinician sets them.</p>
           {inForce.isPending ? (
             <Loading what="the limits" />

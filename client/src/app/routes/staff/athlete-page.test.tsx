@@ -78,10 +78,10 @@ describe("a coach's page for an athlete", () => {
     expect(screen.getByRole('link', { name: 'Workload and pain' })).toHaveAttribute('href', '/staff/athletes/m-maya/workload');
     expect(screen.getByText(/Softball · 16 years/)).toBeInTheDocument();
 
-    expect(await screen.findByText('Today, 9 Mar 2026. Program under these; the clinician sets them.')).toBeInTheDocument();
+    expect(await screen.findByText('Today, Mon 9 Mar 2026. Program under these; the clinician sets them.')).toBeInTheDocument();
     expect(queriesTo(`/orgs/${ORG}/athletes/m-maya/in-force`).map((q) => q.get('date'))).toEqual(['2026-03-09']);
 
-    for (const name of ['Status', 'Limits in force', 'Clearance letter', 'Upcoming stages', 'Programs', 'Baselines'])
+    for (const name of ['Status', 'What is allowed today', 'Clearance letter', 'Upcoming stages', 'Programs', 'Baselines'])
       expect(region(name), name).toBeInTheDocument();
     const status = region('Status')!;
     expect(await within(status).findByText('Lower back')).toBeInTheDocument();
@@ -117,13 +117,15 @@ describe("a clinician's page for an athlete", () => {
     expect(await screen.findByRole('heading', { level: 1, name: 'Maya Torres' })).toBeInTheDocument();
     expect(screen.getByRole('link', { name: '← My caseload' })).toHaveAttribute('href', '/clinician');
     expect(screen.getByRole('img', { name: /^Participation status: Limited/ })).toBeInTheDocument();
-    expect(screen.getByText('since 2 Mar 2026')).toBeInTheDocument();
+    expect(screen.getByText('since Mon 2 Mar 2026')).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Open a case' })).toBeInTheDocument();
     expect(await screen.findByRole('region', { name: 'Open cases' })).toBeInTheDocument();
 
+    expect(region('What is allowed on')).toBeInTheDocument();
     expect(screen.getByLabelText('Date to check')).toHaveValue('2026-03-09');
     expect(screen.queryByRole('button', { name: 'Back to today' })).not.toBeInTheDocument();
-    for (const name of ['Limits in force', 'Status', 'Programs', 'Baselines']) expect(region(name), name).not.toBeInTheDocument();
+    for (const name of ['What is allowed today', 'Limits in force', 'In force on', 'Status', 'Programs', 'Baselines'])
+      expect(region(name), name).not.toBeInTheDocument();
   });
 
   it('says so when the athlete is not in the clinician’s caseload', async () => {

@@ -44,9 +44,12 @@ describe('AuditTrail', () => {
     serve({ intact: true, entries: 41, firstBrokenId: null, reason: null });
     renderWithProviders(<AuditTrail orgId={ORG} athletes={[{ id: MAYA, name: 'Maya Torres' }]} />);
     expect(await screen.findByRole('cell', { name: 'Maya Torres' })).toBeInTheDocument();
+    // A sentence with the actor and the athlete, not the code (the code stays in the details).
+    expect(screen.getByRole('cell', { name: "Priya Raman wrote Maya Torres's restriction plan (version 1)." })).toBeInTheDocument();
+    expect(screen.queryByRole('cell', { name: 'plan.created' })).not.toBeInTheDocument();
     expect(screen.getByRole('link', { name: 'Download the trail as CSV' })).toHaveAttribute('href', `/api/orgs/${ORG}/audit/export`);
-    // Only admins check the chain.
-    expect(screen.queryByRole('button', { name: 'Check the chain' })).not.toBeInTheDocument();
+    // Only admins verify the trail.
+    expect(screen.queryByRole('button', { name: 'Verify the audit trail' })).not.toBeInTheDocument();
 
     fireEvent.change(screen.getByLabelText('Athlete'), { target: { value: MAYA } });
     fireEvent.click(screen.getByRole('button', { name: 'Apply filters' }));
@@ -59,14 +62,14 @@ describe('AuditTrail', () => {
   it('says where the chain breaks', async () => {
     serve({ intact: false, entries: 7, firstBrokenId: '7', reason: 'contents do not match the stored hash' });
     renderWithProviders(<AuditTrail orgId={ORG} canVerify />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Check the chain' }));
-    expect(await screen.findByText('Broken at entry #7: contents do not match the stored hash')).toBeInTheDocument();
+    fireEvent.click(await screen.findByRole('button', { name: 'Verify the audit trail' }));
+    expect(await screen.findByText('The audit trail is broken at entry #7: contents do not match the stored hash')).toBeInTheDocument();
   });
 
   it('says how many entries an intact chain has', async () => {
     serve({ intact: true, entries: 41, firstBrokenId: null, reason: null });
     renderWithProviders(<AuditTrail orgId={ORG} canVerify />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Check the chain' }));
-    expect(await screen.findByText('Intact — 41 entries checked')).toBeInTheDocument();
+    fireEvent.click(await screen.findByRole('button', { name: 'Verify the audit trail' }));
+    expect(await screen.findByText('The audit trail is intact: 41 entries verified, none changed or missing.')).toBeInTheDocument();
   });
 });

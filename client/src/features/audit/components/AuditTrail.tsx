@@ -12,6 +12,7 @@ import { Loading } from '../../../components/ui/Panel';
 import { emptyToUndefined } from '../../../lib/form-values';
 import { auditExportHref, useAudit, type AuditFilters } from '../api/get-audit';
 import { useVerifyChain } from '../api/verify-chain';
+import { auditSentence } from '../../../../../policies/words/audit-sentences';
 
 type Input = z.input<typeof AuditQuerySchema>;
 type Output = z.output<typeof AuditQuerySchema>;
@@ -72,7 +73,7 @@ export function AuditTrail({
         )}
         <TextField
           label="Action"
-          hint="e.g. invitation.created"
+          hint="A code from the details, e.g. plan.revised"
           className="w-full sm:w-56"
           error={errors.action?.message}
           {...register('action', { setValueAs: emptyToUndefined })}
@@ -122,26 +123,20 @@ export function AuditTrail({
                     When
                   </th>
                   <th scope="col" className="px-3 py-2">
-                    Who
+                    What happened
                   </th>
                   <th scope="col" className="px-3 py-2">
                     Athlete
                   </th>
                   <th scope="col" className="px-3 py-2">
-                    Action
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Subject
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Change
+                    Details
                   </th>
                 </tr>
               </thead>
               <tbody>
                 {entries.length === 0 ? (
                   <tr>
-                    <td colSpan={6} className="px-3 py-4 text-ink-2">
+                    <td colSpan={4} className="px-3 py-4 text-ink-2">
                       {filtered ? 'No entries match these filters.' : 'Nothing has been recorded yet.'}
                     </td>
                   </tr>
@@ -168,51 +163,49 @@ function AuditRow({ entry }: { entry: AuditEntryDto }) {
   return (
     <tr className="border-b border-rule align-top last:border-b-0">
       <td className="px-3 py-2 whitespace-nowrap tabular-nums">{formatDateTime(entry.occurredAt)}</td>
-      <td className="px-3 py-2">{entry.actorName ?? <span className="text-muted">System</span>}</td>
+      <td className="px-3 py-2">{auditSentence(entry)}</td>
       <td className="px-3 py-2">{entry.athleteName ?? <span className="text-muted">—</span>}</td>
-      <td className="px-3 py-2 font-mono text-xs">{entry.action}</td>
       <td className="px-3 py-2">
-        {entry.subjectType}
-        {entry.subjectId && <span className="block font-mono text-xs text-muted">{entry.subjectId.slice(0, 8)}</span>}
-      </td>
-      <td className="px-3 py-2">
-        {hasChange ? (
-          <details>
-            <summary className="cursor-pointer">Before and after</summary>
+        {/* The code, record id and before/after stay available for whoever exports or investigates. */}
+        <details>
+          <summary className="cursor-pointer">{hasChange ? 'Before and after' : 'Record'}</summary>
+          <p className="mt-2 text-xs text-muted">
+            <span className="font-mono">{entry.action}</span> · {entry.subjectType}
+            {entry.subjectId && <span className="font-mono"> {entry.subjectId.slice(0, 8)}</span>}
+          </p>
+          {hasChange && (
             <div className="mt-2 grid gap-2 md:grid-cols-2">
               <ChangeBlock title="Before" value={entry.before} />
               <ChangeBlock title="After" value={entry.after} />
             </div>
-          </details>
-        ) : (
-          <span className="text-muted">—</span>
-        )}
+          )}
+        </details>
       </td>
     </tr>
   );
 }
 
-/** Re-checks every link of the organization's hash chain and says plainly what it found. */
+/** Verifies every entry of the organization's audit trail (its hash chain) and says plainly what it found. */
 function ChainCheck({ orgId }: { orgId: string }) {
   const verify = useVerifyChain(orgId);
   const report = verify.data;
   return (
     <div className="flex flex-wrap items-center gap-3">
       <Button variant="secondary" size="sm" busy={verify.isPending} onClick={() => verify.mutate()}>
-        Check the chain
+        Verify the audit trail
       </Button>
       <div aria-live="polite" className="text-sm">
         {report &&
           (report.intact ? (
             <Notice tone="done" className="py-1.5">
               <p className="tabular-nums">
-                Intact — {report.entries} {report.entries === 1 ? 'entry' : 'entries'} checked
+                The audit trail is intact: {report.entries} {report.entries === 1 ? 'entry' : 'entries'} verified, none changed or missing.
               </p>
             </Notice>
           ) : (
             <Notice tone="problem" className="py-1.5">
               <p className="font-semibold">
-                Broken at entry #{report.firstBrokenId}: {report.reason}
+                The audit trail is broken at entry #{report.firstBrokenId}: {report.reason}
               </p>
               <p>Entries from there on cannot be trusted as recorded. Export the trail and contact your Loadline operator.</p>
             </Notice>

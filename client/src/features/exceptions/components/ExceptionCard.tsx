@@ -41,7 +41,7 @@ function requestedSets(
       return {
         setId,
         label: `Set ${j + 1} of ${name}`,
-        planned: `${s.reps} reps × ${loadWords(s.load, unit)}${s.targetRpe != null ? ` at RPE ${s.targetRpe}` : ''}`,
+        planned: `${loadWords(s.load, unit)} × ${s.reps}${s.targetRpe != null ? ` at RPE ${s.targetRpe}` : ''}`,
       };
     }
     return { setId, label: 'A set no longer in the session', planned: 'changed or removed since the request' };
@@ -132,7 +132,7 @@ export function ExceptionCard({
                       ))}
                     </ul>
                   ) : (
-                    !breaches.isPending && <p className="pl-7 text-sm text-ink-2">Fits the limits in force on that date as planned now.</p>
+                    !breaches.isPending && <p className="pl-7 text-sm text-ink-2">Within the limits for that date as planned now.</p>
                   )}
                 </li>
               );

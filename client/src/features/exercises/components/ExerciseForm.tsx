@@ -95,14 +95,14 @@ export function ExerciseForm({
         )}
       />
       <fieldset className="space-y-2">
-        <legend className="text-sm font-semibold">Load steps</legend>
-        <p className="text-sm text-muted">The loads this exercise can really be set to; a fix for a breach rounds down onto them.</p>
+        <legend className="text-sm font-semibold">Available weight increments</legend>
+        <p className="text-sm text-muted">The loads this exercise can really be set to; a load over a limit is rounded down onto them.</p>
         <Controller
           control={control}
           name="stepsKind"
           render={({ field }) => (
             <RadioGroup
-              legend="Kind of steps"
+              legend="Kind of increments"
               name={field.name}
               options={[
                 { value: 'increment', label: 'A fixed increment' },

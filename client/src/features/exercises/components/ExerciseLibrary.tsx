@@ -33,16 +33,16 @@ export function ExerciseLibrary({ orgId, canEdit }: { orgId: string; canEdit: bo
       }),
       column.accessor((e) => patternsWords(e), { id: 'patterns', header: 'Patterns' }),
       column.accessor((e) => equipmentWords(e.equipment), { id: 'equipment', header: 'Equipment' }),
-      column.accessor((e) => (e.ballistic ? 'Yes' : 'No'), { id: 'impact', header: 'Impact' }),
+      column.accessor((e) => (e.ballistic ? 'Yes' : 'No'), { id: 'impact', header: 'Jumps or impact' }),
       column.accessor((e) => stepsWords(e.steps), {
         id: 'steps',
-        header: 'Load steps',
+        header: 'Available weight increments',
         cell: (info) => <span className="tabular-nums">{info.getValue()}</span>,
       }),
       column.accessor((e) => (e.referenceId ? (names.get(e.referenceId) ?? '—') : ''), {
         id: 'reference',
-        header: '1RM from',
-        cell: (info) => info.getValue() || <span className="text-muted">itself</span>,
+        header: '% loads based on',
+        cell: (info) => info.getValue() || <span className="text-muted">its own 1RM</span>,
       }),
       ...(canEdit
         ? [

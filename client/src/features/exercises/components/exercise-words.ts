@@ -22,7 +22,7 @@ export function equipmentWords(equipment: string): string {
 
 export function stepsWords(steps: LoadSteps): string {
   return steps.kind === 'increment'
-    ? `${steps.step} ${steps.unit} steps`
+    ? `every ${steps.step} ${steps.unit}`
     : `${steps.valuesKg.length} fixed sizes, ${steps.valuesKg.join(', ')} kg`;
 }
 

@@ -13,7 +13,7 @@ const KIND_WORDS: Record<FlagDto['kind'], string> = {
   red_flag_emergency: 'Warning sign (emergency)',
   red_flag_urgent: 'Warning sign',
   pain_report: 'Pain report',
-  pain_rule: 'Pain rule',
+  pain_rule: 'Pain response to training',
   over_limit: 'Logged over a limit',
 };
 
@@ -123,7 +123,7 @@ export function FlagList({
         columns={columns}
         caption={caption}
         getRowId={(f) => f.id}
-        empty="No flags here. New pain reports and pain-rule flags for your athletes appear on this page."
+        empty="No flags here. New pain reports and pain responses to training for your athletes appear on this page."
         noun={{ one: 'flag', many: 'flags' }}
         initialSorting={[{ id: 'createdAt', desc: true }]}
         filter={{ label: 'Find an athlete', text: (f) => `${f.athleteName} ${f.message}` }}

@@ -35,7 +35,7 @@ export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; a
       <p className="text-sm text-ink-2">
         {audience === 'athlete'
           ? 'No clearance letter yet. When your clinician signs one, it appears here and is e-mailed to you.'
-          : 'No signed clearance letter. Program under the limits in force.'}
+          : 'No signed clearance letter. Program under the limits the clinician has set.'}
       </p>
     );
   }

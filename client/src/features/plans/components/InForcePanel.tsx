@@ -6,7 +6,7 @@ import { todayLocal } from '../../../lib/dates';
 import { useInForce } from '../api/get-in-force';
 import { InForceSummary } from './InForceSummary';
 
-/** "What's in force on <date>" for the care team: pick any day, past or coming. */
+/** "What is allowed on <date>" for the care team: pick any day, past or coming. */
 export function InForcePanel({ orgId, athleteId, unit }: { orgId: string; athleteId: string; unit: Unit }) {
   const headingId = useId();
   const dateId = useId();
@@ -18,7 +18,7 @@ export function InForcePanel({ orgId, athleteId, unit }: { orgId: string; athlet
     <section aria-labelledby={headingId} className="rounded-lg border border-rule bg-sheet p-4 sm:p-5">
       <div className="mb-3 flex flex-wrap items-center gap-x-3 gap-y-2">
         <h2 id={headingId} className="text-lg font-bold">
-          In force on
+          What is allowed on
         </h2>
         <label htmlFor={dateId} className="sr-only">
           Date to check
@@ -39,7 +39,7 @@ export function InForcePanel({ orgId, athleteId, unit }: { orgId: string; athlet
       {!valid ? (
         <p className="text-sm text-muted">Pick a date.</p>
       ) : inForce.isPending ? (
-        <Loading what="what is in force" />
+        <Loading what="what is allowed" />
       ) : inForce.isError ? (
         <ErrorNotice error={inForce.error} />
       ) : (

@@ -91,9 +91,9 @@ export const PatternRuleRow = memo(function PatternRuleRow({
                       aria-describedby={described}
                       {...register(`${base}.caps.impactAllowed`)}
                     >
-                      <option value="">—</option>
-                      <option value="yes">Yes</option>
-                      <option value="no">No</option>
+                      <option value="">No limit</option>
+                      <option value="yes">Allowed</option>
+                      <option value="no">Not allowed</option>
                     </select>
                   ) : (
                     <span className="mt-0.5 flex items-center gap-1 lg:mt-0">

@@ -67,7 +67,7 @@ describe('PlanEditor', () => {
     fireEvent.change(within(stage(2)).getByLabelText('Start date'), { target: { value: '2026-03-10' } });
 
     // Said as soon as the dates clash, before any save is tried.
-    expect(within(stage(2)).getByText(/Start date overlaps stage 1 \(which ends 2026-03-15\)/)).toBeInTheDocument();
+    expect(within(stage(2)).getByText(/Start date overlaps stage 1 \(which ends Sun 15 Mar 2026\)/)).toBeInTheDocument();
 
     fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
     const summary = await screen.findByRole('alert');

@@ -139,7 +139,8 @@ export function StageCard({
       <div className="mt-4">
         <p className="mb-1 text-sm font-semibold">Movement patterns</p>
         <p className="mb-2 text-xs text-muted">
-          Free: no limits. Blocked: not allowed. Capped: allowed up to every cap you fill in (at least one). Empty caps do not limit.
+          Free: no limits. Blocked: not allowed. Capped: allowed within the limits you fill in (at least one); a box left empty sets no
+          limit.
         </p>
         <StagePatterns stageIndex={index} unit={unit} />
       </div>

@@ -44,8 +44,8 @@ export function AthletePrograms({
                 </span>
                 <span className="flex flex-wrap gap-x-3 text-ink-2 tabular-nums">
                   {held > 0 && <span className="font-semibold text-line-deep">▲ {plural(held, 'session')} on hold</span>}
-                  <span>{plural(drafts, 'draft')} ahead</span>
-                  <span>{next ? `next ${formatDate(next.date)}` : 'nothing published ahead'}</span>
+                  {drafts > 0 && <span>{plural(drafts, 'draft session')} still to publish</span>}
+                  <span>{next ? `next ${formatDate(next.date)}` : 'nothing published yet'}</span>
                 </span>
               </li>
             );

@@ -9,11 +9,12 @@ import { formatDate } from '../../../lib/format';
 import { currentOneRms, useBaselines } from '../api/baselines';
 import { useLibrary } from '../api/get-library';
 import { BaselineForm } from './BaselineForm';
+import { loadTimesReps } from '../../../../../policies/words/loads';
 
 /** How a 1RM came about, in words: "tested", "100 kg × 5 at RPE 8". */
 export function baselineSource(b: BaselineDto, unit: Unit): string {
   if (b.kind === 'tested') return 'tested single';
-  const set = `${formatLoad(b.loadKg, unit)} × ${b.reps}${b.rpe !== null ? ` at RPE ${b.rpe}` : ''}`;
+  const set = `${loadTimesReps(b.loadKg, unit, b.reps)}${b.rpe !== null ? ` at RPE ${b.rpe}` : ''}`;
   return b.kind === 'logged' ? `logged ${set}` : `estimated from ${set}`;
 }
 

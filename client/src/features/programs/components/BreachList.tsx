@@ -2,6 +2,7 @@ import type { ExerciseDto } from '../../../../../policies/dto';
 import type { Breach, EngineExercise } from '../../../../../policies/load/compliance';
 import { Button } from '../../../components/ui/Button';
 import { fixFor } from './program-words';
+import { breachHeadline } from '../../../../../policies/words/breach-words';
 
 export interface SetBreach {
   athleteId: string;
@@ -22,10 +23,13 @@ export function BreachList({
   swapsFor,
   onUseLoad,
   onSwap,
-  label = 'Breaches',
+  reps,
+  label = 'Over a limit',
 }: {
   items: SetBreach[];
   exercise?: ExerciseDto;
+  /** The set's planned reps, for the headline "Back squat 120 kg × 5 is over …". */
+  reps?: number;
   swapsFor?: (item: SetBreach) => EngineExercise[];
   /** Applies a fix: the load, and the reps when the fix is to cut them. */
   onUseLoad?: (value: number, unit: 'kg' | 'lb', reps?: number) => void;
@@ -38,6 +42,7 @@ export function BreachList({
       {items.map((item) => {
         const { breach } = item;
         const fix = breach.fittingKg !== null && !breach.waived ? fixFor(breach.fittingKg, exercise) : null;
+        const headline = exercise ? breachHeadline(breach, exercise.name, reps) : null;
         const swaps = !breach.waived && (breach.rule === 'blocked' || breach.rule === 'impact') ? (swapsFor?.(item) ?? []) : [];
         return (
           <li
@@ -54,6 +59,7 @@ export function BreachList({
               </span>
               <span className="tabular-nums">
                 {item.athleteName && <span className="font-semibold">{item.athleteName}: </span>}
+                {headline && <span className="block font-semibold">{headline}</span>}
                 {breach.message}
                 {breach.waived && <span className="font-semibold"> Covered by a granted exception.</span>}
               </span>

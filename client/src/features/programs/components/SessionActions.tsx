@@ -159,7 +159,7 @@ export function SessionActions({
         <p id={whyId} aria-live="polite" className="text-sm tabular-nums">
           {breachCount > 0 ? (
             <span className="font-semibold text-line-deep">
-              ▲ {plural(setCount, 'set')} {setCount === 1 ? 'goes' : 'go'} past a cap ({plural(breachCount, 'breach', 'breaches')}).{' '}
+              ▲ {plural(setCount, 'set')} {setCount === 1 ? 'is' : 'are'} over a limit ({plural(breachCount, 'limit')} crossed).{' '}
               {published ? 'Changes are refused until they fit.' : 'Publish is off until they fit, or the clinician grants an exception.'}
             </span>
           ) : empty ? (
@@ -169,8 +169,8 @@ export function SessionActions({
               {checking
                 ? 'Checking against the limits…'
                 : waivedSets > 0
-                  ? `Every set fits the limits in force on this date, or is covered by a granted exception (${plural(waivedSets, 'set')}).`
-                  : 'Every set fits the limits in force on this date.'}
+                  ? `Every set is within the limits for this date, or is covered by a granted exception (${plural(waivedSets, 'set')}).`
+                  : 'Every set is within the limits for this date.'}
               {dirty && ' Unsaved changes.'}
             </span>
           )}
@@ -212,7 +212,7 @@ export function SessionActions({
           {refusal.results.map((r) => (
             <BreachList
               key={r.athleteId}
-              label={`Breaches the server found for ${r.athleteName}`}
+              label={`Over a limit, as the server checked, for ${r.athleteName}`}
               items={r.breaches.map((breach) => ({
                 athleteId: r.athleteId,
                 athleteName: refusal.results.length > 1 || athletes.length > 1 ? r.athleteName : null,

@@ -103,13 +103,15 @@ const setOne = () => screen.getByRole('group', { name: 'Set 1 of Deadlift' });
 describe('SessionEditor live check', () => {
   it('shows a breach as soon as a load over the cap is typed, and clears it with the one-click fix', () => {
     renderEditor();
-    expect(within(setOne()).queryByRole('list', { name: 'Breaches' })).not.toBeInTheDocument();
+    expect(within(setOne()).queryByRole('list', { name: 'Over a limit' })).not.toBeInTheDocument();
 
     fireEvent.change(within(setOne()).getByLabelText('Load'), { target: { value: '87.5' } });
 
-    const breaches = within(setOne()).getByRole('list', { name: 'Breaches' });
+    const breaches = within(setOne()).getByRole('list', { name: 'Over a limit' });
     const item = within(breaches).getByRole('listitem');
-    expect(item).toHaveTextContent('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg steps.');
+    expect(item).toHaveTextContent('Hinge: max 60% of 140 kg = 84 kg: planned 87.5 kg; 82.5 kg fits on 2.5 kg increments.');
+    // What is over which limit, first, in the coach's words.
+    expect(item).toHaveTextContent('Deadlift 87.5 kg × 5 is over the 84 kg limit (60% of 140 kg) for hinging.');
     expect(screen.queryByRole('alert')).not.toBeInTheDocument();
     // The line: bar at the planned load, past the 84 kg cap.
     expect(within(setOne()).getByRole('meter')).toHaveAttribute('aria-valuetext', '87.5 kg, over the line by 3.5 kg (limit 84 kg)');
@@ -118,7 +120,7 @@ describe('SessionEditor live check', () => {
 
     expect(within(setOne()).getByLabelText('Load')).toHaveValue('82.5');
     expect(within(setOne()).getByLabelText('Load unit')).toHaveValue('kg');
-    expect(within(setOne()).queryByRole('list', { name: 'Breaches' })).not.toBeInTheDocument();
+    expect(within(setOne()).queryByRole('list', { name: 'Over a limit' })).not.toBeInTheDocument();
   });
 
   it('keeps Publish off while an unwaived breach shows', () => {
@@ -128,9 +130,9 @@ describe('SessionEditor live check', () => {
 
     fireEvent.change(within(setOne()).getByLabelText('Load unit'), { target: { value: 'percent' } });
     fireEvent.change(within(setOne()).getByLabelText('Load'), { target: { value: '65' } });
-    expect(within(setOne()).getByRole('list', { name: 'Breaches' })).toHaveTextContent('max 60% of 140 kg = 84 kg: planned 91 kg');
+    expect(within(setOne()).getByRole('list', { name: 'Over a limit' })).toHaveTextContent('max 60% of 140 kg = 84 kg: planned 91 kg');
     expect(publish).toBeDisabled();
-    expect(screen.getByText(/1 set goes past a cap/)).toBeInTheDocument();
+    expect(screen.getByText(/1 set is over a limit \(1 limit crossed\)/)).toBeInTheDocument();
 
     fireEvent.click(within(setOne()).getByRole('button', { name: 'Use 82.5 kg' }));
     expect(publish).toBeEnabled();
@@ -146,10 +148,10 @@ describe('SessionEditor live check', () => {
       pattern: 'hinge',
       limit: 'max 50% of 140 kg = 70 kg',
       planned: '80 kg',
-      fits: '70 kg fits on 2.5 kg steps',
+      fits: '70 kg fits on 2.5 kg increments',
       fittingKg: 70,
       waived: false,
-      message: 'Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg steps.',
+      message: 'Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg increments.',
     };
     let published = false;
     fetchMock.mockImplementation(async (input) => {
@@ -171,8 +173,8 @@ describe('SessionEditor live check', () => {
     renderEditor();
     fireEvent.click(screen.getByRole('button', { name: 'Publish' }));
 
-    const list = await screen.findByRole('list', { name: 'Breaches the server found for Sam Whitfield' });
-    expect(list).toHaveTextContent('Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg steps.');
+    const list = await screen.findByRole('list', { name: 'Over a limit, as the server checked, for Sam Whitfield' });
+    expect(list).toHaveTextContent('Hinge: max 50% of 140 kg = 70 kg: planned 80 kg; 70 kg fits on 2.5 kg increments.');
     expect(screen.getByRole('alert')).toHaveTextContent('This session cannot be published: 1 planned set goes past a cap.');
   });
 });

@@ -58,6 +58,7 @@ export function SetRow({
   const error = (field: 'reps' | 'load' | 'loadUnit' | 'targetRpe' | 'rest' | 'notes') =>
     getFieldState(`${base}.${field}`, formState).error?.message;
   const loadUnit = useWatch({ control, name: `${base}.loadUnit` });
+  const plannedReps = Number(useWatch({ control, name: `${base}.reps` }));
   const warmUpId = useId();
 
   /** The breach's fix: the load that fits, and fewer reps when no load fits the planned ones. */
@@ -133,6 +134,7 @@ export function SetRow({
         <BreachList
           items={breaches}
           exercise={exercise}
+          reps={Number.isInteger(plannedReps) && plannedReps > 0 ? plannedReps : undefined}
           swapsFor={swapsFor}
           onUseLoad={readOnly ? undefined : applyFix}
           onSwap={readOnly ? undefined : onSwap}

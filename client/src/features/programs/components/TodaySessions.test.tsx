@@ -111,7 +111,7 @@ describe('TodaySessions', () => {
     renderToday(todayWith(false), [squat]);
     expect(screen.getByRole('heading', { name: "Today's session" })).toBeInTheDocument();
     expect(await screen.findByText('Back squat')).toBeInTheDocument();
-    expect(screen.getAllByText(/5 reps × 70 kg/)).toHaveLength(2);
+    expect(screen.getAllByText(/70 kg × 5/)).toHaveLength(2);
     expect(await screen.findAllByText('25 kg')).toHaveLength(1);
   });
 

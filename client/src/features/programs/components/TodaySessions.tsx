@@ -1,5 +1,5 @@
 import type { ExerciseDto, TodayDto } from '../../../../../policies/dto';
-import { formatLoad } from '../../../../../policies/load/units';
+import { loadTimesReps } from '../../../../../policies/words/loads';
 import type { Unit } from '../../../../../policies/schemas';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading } from '../../../components/ui/Panel';
@@ -17,10 +17,12 @@ function restWords(seconds: number): string {
   return seconds >= 60 && seconds % 30 === 0 ? `rest ${seconds / 60} min` : `rest ${seconds} s`;
 }
 
-function loadWords(set: PlannedSet, loadKg: number | null, unit: Unit): string {
-  if (set.load.kind === 'bodyweight') return 'bodyweight';
-  if (loadKg === null) return `${set.load.value}% of your best — work out the load with your coach (no best lift on record)`;
-  const shown = formatLoad(loadKg, unit);
+/** A planned set as the trade writes it, "70 kg × 5", with the % of best beside it when it came from one. */
+function setWords(set: PlannedSet, loadKg: number | null, unit: Unit): string {
+  if (set.load.kind === 'bodyweight') return loadTimesReps(null, unit, set.reps);
+  if (loadKg === null)
+    return `${set.reps} reps at ${set.load.value}% of your best — work out the load with your coach (no best lift on record)`;
+  const shown = loadTimesReps(loadKg, unit, set.reps);
   return set.load.kind === 'percent' ? `${shown} (${set.load.value}% of your best)` : shown;
 }
 
@@ -92,7 +94,7 @@ function OneSession({ session, unit, exercises }: { session: TodaySession; unit:
                   return (
                     <li key={set.id} className="text-base">
                       <p className="tabular-nums">
-                        <span className="font-semibold">Set {j + 1}:</span> {set.reps} reps × {loadWords(set, loadKg, unit)}
+                        <span className="font-semibold">Set {j + 1}:</span> {setWords(set, loadKg, unit)}
                         {set.targetRpe != null && <span className="text-ink-2"> · RPE {set.targetRpe}</span>}
                         {set.restSeconds != null && <span className="text-ink-2"> · {restWords(set.restSeconds)}</span>}
                       </p>

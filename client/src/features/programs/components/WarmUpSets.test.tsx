@@ -123,12 +123,12 @@ describe('warm-up sets in the program builder', () => {
   it('marking the first set as a warm-up takes it out of the weekly hard-set count, and the breach on the working set clears', () => {
     renderEditor();
     // Unmarked, the first set's unknown effort counts as hard: the RPE 8 set is hard set 2 of a limit of 1.
-    expect(within(setRow(2)).getByRole('list', { name: 'Breaches' })).toHaveTextContent('max 1 hard sets (RPE 7+)');
+    expect(within(setRow(2)).getByRole('list', { name: 'Over a limit' })).toHaveTextContent('max 1 hard sets (RPE 7+)');
     expect(screen.getByRole('button', { name: 'Publish' })).toBeDisabled();
 
     fireEvent.click(within(setRow(1)).getByRole('checkbox', { name: 'Warm-up' }));
 
-    expect(within(setRow(2)).queryByRole('list', { name: 'Breaches' })).not.toBeInTheDocument();
+    expect(within(setRow(2)).queryByRole('list', { name: 'Over a limit' })).not.toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Publish' })).toBeEnabled();
   });
 
@@ -136,7 +136,7 @@ describe('warm-up sets in the program builder', () => {
     renderEditor();
     fireEvent.click(within(setRow(1)).getByRole('checkbox', { name: 'Warm-up' }));
     fireEvent.change(within(setRow(1)).getByLabelText('Target RPE'), { target: { value: '8' } });
-    expect(within(setRow(2)).getByRole('list', { name: 'Breaches' })).toHaveTextContent('this is hard set 2');
+    expect(within(setRow(2)).getByRole('list', { name: 'Over a limit' })).toHaveTextContent('this is hard set 2');
   });
 
   it('saves the mark on the set (only on the marked one), and a set added after it is a working set', async () => {

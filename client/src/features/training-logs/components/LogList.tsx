@@ -1,21 +1,20 @@
 import type { ReactNode } from 'react';
 import type { TrainingLogDto } from '../../../../../policies/dto';
 import type { Unit } from '../../../../../policies/schemas';
-import { formatLoad } from '../../../../../policies/load/units';
 import { formatDate } from '../../../lib/format';
 import { LineBar } from '../../../components/ui/LineBar';
 import { effortWords } from './effort-words';
+import { setsOf } from '../../../../../policies/words/loads';
 
-/** "Back squat 3 × 5 at 60 kg": identical consecutive sets are folded into one line. */
+/** "Back squat: 3 sets of 60 kg × 5" (policies/words/loads.ts): identical consecutive sets are folded into one line. */
 export function setsSummary(sets: TrainingLogDto['sets'], unit: Unit): string[] {
-  const lines: { text: string; count: number }[] = [];
+  const lines: { exercise: string; loadKg: number; reps: number; count: number }[] = [];
   for (const s of sets) {
-    const text = `${s.exercise} — ${s.reps} reps at ${s.loadKg === 0 ? 'body weight' : formatLoad(s.loadKg, unit)}`;
     const last = lines.at(-1);
-    if (last && last.text === text) last.count += 1;
-    else lines.push({ text, count: 1 });
+    if (last && last.exercise === s.exercise && last.loadKg === s.loadKg && last.reps === s.reps) last.count += 1;
+    else lines.push({ exercise: s.exercise, loadKg: s.loadKg, reps: s.reps, count: 1 });
   }
-  return lines.map((l) => (l.count > 1 ? `${l.count} sets: ${l.text}` : l.text));
+  return lines.map((l) => `${l.exercise}: ${setsOf(l.count, l.loadKg, unit, l.reps)}`);
 }
 
 /**
