@@ -17,9 +17,13 @@ interface Row {
   after: Record<string, unknown>;
 }
 
-/** Polls for entries written after the response (refusals are audited off the request path); counts tries, not time, so a pinned clock cannot stall it. */
+/**
+ * Polls for entries written after the response (refusals are audited off the request path); counts
+ * tries, not time, so a pinned clock cannot stall it. Up to 30 s: on a busy 2-core machine with the
+ * other test worker at full load, 100 refusals once took more than 10 s to be counted.
+ */
 async function until<T>(probe: () => Promise<T | undefined>): Promise<T> {
-  for (let i = 0; i < 200; i++) {
+  for (let i = 0; i < 600; i++) {
     const value = await probe();
     if (value !== undefined) return value;
     await new Promise((r) => setTimeout(r, 50));
