@@ -45,7 +45,7 @@ describe('the clearance letter PDF, rendered from its sample data', () => {
       'Sample Athlete',
       'Limited participation from 1 December 2026',
       'Valid until 31 December 2026 (next review).',
-      'Limits in force',
+      'Limits on training',
       '• Hinge: up to 60% of your best lift, effort RPE 7 or easier',
       '• Jump / landing: not allowed for now',
       'Sample note for the family.',
@@ -120,7 +120,7 @@ describe('the clearance letter PDF, rendered from its sample data', () => {
     const { text } = await readPdf(await renderLetterPdf(full));
     expect(text).toContain('Full participation from 1 December 2026');
     expect(text).toContain('Valid until a clinician changes it.');
-    expect(text).not.toContain('Limits in force');
+    expect(text).not.toContain('Limits on training');
     expect(text).not.toContain('Hinge');
     expect(text).not.toContain('A note for the family');
   });

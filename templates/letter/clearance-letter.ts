@@ -149,7 +149,7 @@ export async function renderLetterPdf(d: LetterData): Promise<Buffer> {
     .text(d.validUntil ? `Valid until ${day(d.validUntil)} (next review).` : 'Valid until a clinician changes it.');
   if (d.decision === 'limited' && d.limits.length) {
     doc.moveDown(0.6);
-    doc.font('Bold').fontSize(12).text('Limits in force');
+    doc.font('Bold').fontSize(12).text('Limits on training');
     doc.font('Body').fontSize(11);
     for (const l of d.limits) writeText(doc, 'Body', `•  ${l}`, { indent: 6 });
   }

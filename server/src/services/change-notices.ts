@@ -115,7 +115,7 @@ export async function tellStatusChange(ctx: NoticeCtx, athleteId: string, input:
       if (input.status === 'limited')
         lines.push(
           ...(limited
-            ? [`Limits in force on ${describeDate(day)}:`, ...staffLines(inForce, unit)]
+            ? [`What is allowed on ${describeDate(day)}:`, ...staffLines(inForce, unit)]
             : ['No restriction plan is in force yet.']),
         );
       return { title: `${name}: ${label} from ${date}`, lines };

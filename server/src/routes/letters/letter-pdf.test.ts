@@ -192,7 +192,7 @@ describe('a limited letter', () => {
     const text = await pdfText((await binary(clin.get(`${w.base}/letters/${signed.id}/pdf`))).body as Buffer);
     expect(text).toContain('Limited participation from 5 March 2026');
     expect(text).toContain('Valid until 20 March 2026');
-    expect(text).toContain('Limits in force');
+    expect(text).toContain('Limits on training');
     for (const l of expected) expect(text).toContain(`• ${l}`);
     // The athlete's words, not the staff's: no "estimated 1RM" on a letter.
     expect(text).not.toContain('1RM');
