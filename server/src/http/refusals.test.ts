@@ -28,7 +28,7 @@ async function until<T>(probe: () => Promise<T | undefined>): Promise<T> {
     if (value !== undefined) return value;
     await new Promise((r) => setTimeout(r, 50));
   }
-  throw new Error('timed out waiting');
+  throw new Error(`timed out waiting; last probe: ${JSON.stringify(await probe())}`);
 }
 
 describe('refusals are audited, summarised per actor, route and minute (ASVS 5.0 V16.3.1, V16.3.2)', () => {
@@ -82,6 +82,40 @@ describe('refusals are audited, summarised per actor, route and minute (ASVS 5.0
       // Before: one transaction per refusal, all at once, each waiting on the same counter row.
       expect(most).toBe(1);
       expect(await entries(`organization_id = $1 AND after->>'route' = $2`, [org.id, route])).toHaveLength(1);
+    } finally {
+      spy.mockRestore();
+    }
+  });
+
+  it('a refusal queued while the writer is finishing its summary pass is still written, without waiting for another refusal', async () => {
+    const org = await createOrg(h.ds);
+    const deps = { ds: h.ds, logger: pino({ level: 'silent' }) };
+    const refusal = (route: string) => ({
+      organizationIds: [org.id],
+      actorUserId: org.coach.userId,
+      address: null,
+      action: 'access.refused',
+      method: 'GET',
+      route,
+      path: route,
+      requestId: null,
+    });
+    const [first, late] = [`/api/first/${randomUUID()}`, `/api/late/${randomUUID()}`];
+    const original = h.ds.transaction.bind(h.ds);
+    let calls = 0;
+    // The writer's second transaction is its summary pass (the first wrote the first refusal): the
+    // late refusal arrives just then, while the writer is still running.
+    const spy = vi.spyOn(h.ds, 'transaction').mockImplementation((async (...args: unknown[]) => {
+      if (++calls === 2) auditRefusal(deps, refusal(late));
+      return (original as (...a: unknown[]) => Promise<unknown>)(...args);
+    }) as typeof h.ds.transaction);
+    try {
+      auditRefusal(deps, refusal(first));
+      const written = await until(async () => {
+        const rows: { route: string }[] = await h.ds.query(`SELECT route FROM refusal_counters WHERE route = $1`, [`GET ${late}`]);
+        return rows.length ? rows : undefined;
+      });
+      expect(written).toHaveLength(1);
     } finally {
       spy.mockRestore();
     }

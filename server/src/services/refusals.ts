@@ -185,21 +185,25 @@ export function auditRefusal(deps: { ds: DataSource; logger: Logger }, r: Refusa
 async function drain(ds: DataSource, logger: Logger, q: Queue): Promise<void> {
   q.running = true;
   try {
-    for (let first = q.items.entries().next(); !first.done; first = q.items.entries().next()) {
-      const [k, item] = first.value;
-      q.items.delete(k);
-      if (!ds.isInitialized) continue;
-      try {
-        await recordRefusal(ds, await item.make(), item.now, item.hits);
-      } catch (err) {
-        logger.error({ err }, 'could not audit a refusal');
+    // Refusals queued while the closing flush runs are written by the next turn of this loop: before,
+    // they waited for the next refusal of the process, which may never come.
+    while (q.items.size > 0) {
+      for (let first = q.items.entries().next(); !first.done; first = q.items.entries().next()) {
+        const [k, item] = first.value;
+        q.items.delete(k);
+        if (!ds.isInitialized) continue;
+        try {
+          await recordRefusal(ds, await item.make(), item.now, item.hits);
+        } catch (err) {
+          logger.error({ err }, 'could not audit a refusal');
+        }
       }
+      if (q.dropped) {
+        logger.warn({ dropped: q.dropped }, 'refusals not audited: too many waiting');
+        q.dropped = 0;
+      }
+      if (ds.isInitialized) await flushRefusals(ds, new Date(), true).catch((err) => logger.warn({ err }, 'could not summarise refusals'));
     }
-    if (q.dropped) {
-      logger.warn({ dropped: q.dropped }, 'refusals not audited: too many waiting');
-      q.dropped = 0;
-    }
-    if (ds.isInitialized) await flushRefusals(ds, new Date(), true).catch((err) => logger.warn({ err }, 'could not summarise refusals'));
   } finally {
     q.running = false;
   }
