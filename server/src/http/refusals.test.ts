@@ -42,6 +42,19 @@ describe('refusals are audited, summarised per actor, route and minute (ASVS 5.0
       params,
     );
 
+  const quietDeps = () => ({ ds: h.ds, logger: pino({ level: 'silent' }) });
+  /** The organization's coach refused on a GET of `route`, as the error handler reports it. */
+  const coachRefusedOn = (org: { id: string; coach: { userId: string } }, route: string) => ({
+    organizationIds: [org.id],
+    actorUserId: org.coach.userId,
+    address: null,
+    action: 'access.refused',
+    method: 'GET',
+    route,
+    path: route,
+    requestId: null,
+  });
+
   it('a flood of refusals is written one at a time and coalesced: it never takes the pool the requests need', async () => {
     const org = await createOrg(h.ds);
     const original = h.ds.transaction.bind(h.ds);
@@ -57,21 +70,7 @@ describe('refusals are audited, summarised per actor, route and minute (ASVS 5.0
     }) as typeof h.ds.transaction);
     try {
       const route = `/api/flood/${randomUUID()}`;
-      for (let i = 0; i < 500; i++) {
-        auditRefusal(
-          { ds: h.ds, logger: pino({ level: 'silent' }) },
-          {
-            organizationIds: [org.id],
-            actorUserId: org.coach.userId,
-            address: null,
-            action: 'access.refused',
-            method: 'GET',
-            route,
-            path: route,
-            requestId: null,
-          },
-        );
-      }
+      for (let i = 0; i < 500; i++) auditRefusal(quietDeps(), coachRefusedOn(org, route));
       const counted = await until(async () => {
         const [c]: { hits: number }[] = await h.ds.query(`SELECT sum(hits)::int AS hits FROM refusal_counters WHERE route = $1`, [
           `GET ${route}`,
@@ -89,17 +88,8 @@ describe('refusals are audited, summarised per actor, route and minute (ASVS 5.0
 
   it('a refusal queued while the writer is finishing its summary pass is still written, without waiting for another refusal', async () => {
     const org = await createOrg(h.ds);
-    const deps = { ds: h.ds, logger: pino({ level: 'silent' }) };
-    const refusal = (route: string) => ({
-      organizationIds: [org.id],
-      actorUserId: org.coach.userId,
-      address: null,
-      action: 'access.refused',
-      method: 'GET',
-      route,
-      path: route,
-      requestId: null,
-    });
+    const deps = quietDeps();
+    const refusal = (route: string) => coachRefusedOn(org, route);
     const [first, late] = [`/api/first/${randomUUID()}`, `/api/late/${randomUUID()}`];
     const original = h.ds.transaction.bind(h.ds);
     let calls = 0;
