@@ -51,7 +51,9 @@ export const flagsQuery = orgQuery({
     const clinicianOf = new Set(ctx.actor.clinicianOf);
     return rows.map(({ sessionDate, ...r }): FlagDto => ({
       ...r,
-      message: clinicianOf.has(r.athleteId) ? humanizeIsoDates(r.message) : coachFlagLine(r.kind, r.athleteName, sessionDate),
+      message: clinicianOf.has(r.athleteId)
+        ? humanizeIsoDates(r.message)
+        : coachFlagLine(r.kind, r.athleteName, sessionDate, humanizeIsoDates(r.message)),
       createdAt: new Date(r.createdAt).toISOString(),
       acknowledgedAt: r.acknowledgedAt ? new Date(r.acknowledgedAt).toISOString() : null,
     }));

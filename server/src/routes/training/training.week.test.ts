@@ -178,11 +178,13 @@ describe('the athlete week and logging from the plan', () => {
     expect(notices.map((n) => n.recipient_id).sort()).toEqual([w.org.clinician.membershipId, w.org.coach.membershipId].sort());
     for (const n of notices) expect(n.body).toContain(said);
 
-    // The coach and the clinician both see the flag on their lists.
+    // The coach and the clinician both see the flag on their lists, saying what is over which limit
+    // (training, not a clinical account: the coach reads it too).
     for (const staff of [w.coach, w.clinician]) {
       const list = await staff.get(`${w.base}/flags?athleteId=${w.athlete}`);
       expect(list.status).toBe(200);
-      expect(list.body.map((f: { kind: string }) => f.kind)).toContain('over_limit');
+      const flag = list.body.find((f: { kind: string }) => f.kind === 'over_limit');
+      expect(flag?.message).toContain(said);
     }
     const audit = await w.audit('training_log.over_limit', res.body.log.id);
     expect(audit[0].after).toMatchObject({ breaches: [{ set: 2, rule: 'absolute_load', pattern: 'hinge', limit: 'max 45 kg' }] });
