@@ -70,7 +70,7 @@ describe('plain words for families (issue 13 §4)', () => {
     // Steps of 2.5 kg / 5 lb (common practice: the smallest common plate pair), never rounded up past the cap.
     expect(plainCap('maxLoadKg', 20, 'kg')).toBe('nothing heavier than 20 kg');
     expect(plainCap('maxLoadKg', 20, 'lb')).toBe('nothing heavier than 40 lb');
-    // 61.23 kg ≈ 134.99 lb (135 lb = 61.23 kg, REFERENCES.md §10): rounded down, never up to 135.
+    // 61.23 kg ≈ 134.99 lb (135 lb = 61.23 kg, NIST SP 811): rounded down, never up to 135.
     expect(plainCap('maxLoadKg', 61.23, 'lb')).toBe('nothing heavier than 130 lb');
   });
 

@@ -14,7 +14,7 @@ describe('a cap as a load the athlete can put on the bar (rounded down, never to
     [20, 'lb', 5, 40],
     // 135 lb stored in kg (61.23496995) reads back as exactly 135 lb, not 130 (NIST SP 811: 135 lb = 61.23 kg).
     [135 * KG_PER_LB, 'lb', 5, 135],
-    // 60% of a 140 kg 1RM = 84 kg → 82.5 kg on 2.5 kg steps (REFERENCES §9: round down under a cap).
+    // 60% of a 140 kg 1RM = 84 kg → 82.5 kg on 2.5 kg steps (common practice: under a cap, round down, never to nearest).
     [84, 'kg', 2.5, 82.5],
     // A cap already on a step stays: 80 kg → 80 kg.
     [80, 'kg', 2.5, 80],

@@ -69,7 +69,7 @@ describe('the athlete is told in their unit, a load limit as a load on the bar',
     );
   });
 
-  it('60% of a 140 kg best lift = 84 kg → "up to 82.5 kg" on the exercise 2.5 kg steps (REFERENCES §9: round down under a cap)', () => {
+  it('60% of a 140 kg best lift = 84 kg → "up to 82.5 kg" on the exercise 2.5 kg steps (common practice: under a cap, round down, never to nearest)', () => {
     const sets: LoggedSet[] = [{ exercise: 'Deadlift', loadKg: 87.5, reps: 3, rpe: 6 }];
     const c = ctx(plan(stage({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60 } } })), { dl: 140 });
     const [b] = checkSets(loggedEngineSets({ sessionKey: 'log7', date: '2026-03-03', sets }, resolve), c);
