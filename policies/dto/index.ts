@@ -8,3 +8,4 @@ export type * from './programs';
 export type * from './letters';
 export type * from './uploads';
 export type * from './notice-preferences';
+export type * from './teams';

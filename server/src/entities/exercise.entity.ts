@@ -33,6 +33,10 @@ export class Exercise {
   @Column('boolean', { default: false })
   archived: boolean;
 
+  /** Library exercises to use instead when this one is not allowed, in order of preference. */
+  @Column('uuid', { name: 'use_instead', array: true, default: () => "'{}'" })
+  useInstead: string[];
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 

@@ -29,6 +29,7 @@ import { Clip } from './clip.entity';
 import { ClipNote } from './clip-note.entity';
 import { PasswordResetToken } from './password-reset-token.entity';
 import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
+import { Group, GroupMember } from './group.entity';
 
 export {
   Organization,
@@ -60,6 +61,7 @@ export {
 };
 export { CaseDocument, Clip, ClipNote };
 export { PasswordResetToken, UserTotp, TotpRecoveryCode };
+export { Group, GroupMember };
 
 export const ENTITIES = [
   Organization,
@@ -94,4 +96,6 @@ export const ENTITIES = [
   PasswordResetToken,
   UserTotp,
   TotpRecoveryCode,
+  Group,
+  GroupMember,
 ];

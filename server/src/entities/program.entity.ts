@@ -16,6 +16,14 @@ export class Program {
   @Column('uuid', { name: 'athlete_ids', array: true })
   athleteIds: string[];
 
+  /** A team program: written once for this group; it has no athletes of its own (athleteIds is empty). */
+  @Column('uuid', { name: 'group_id', nullable: true })
+  groupId: string | null;
+
+  /** One athlete's program of fitted versions of this team program's sessions. */
+  @Column('uuid', { name: 'team_program_id', nullable: true })
+  teamProgramId: string | null;
+
   @Column('uuid', { name: 'created_by', nullable: true })
   createdBy: string | null;
 

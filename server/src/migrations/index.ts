@@ -13,6 +13,7 @@ import { AddTrainingLogPainAfter1765720000000 } from './1765720000000-add-traini
 import { CreateNoticeEmailOptOuts1765813000000 } from './1765813000000-create-notice-email-opt-outs';
 import { AddLetterPaperAndBasis1765830000000 } from './1765830000000-add-letter-paper-and-basis';
 import { AddTrainingLogSession1765836000000 } from './1765836000000-add-training-log-session';
+import { CreateGroupsAndTeamPrograms1765900000000 } from './1765900000000-create-groups-and-team-programs';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -31,4 +32,5 @@ export const MIGRATIONS = [
   CreateNoticeEmailOptOuts1765813000000,
   AddLetterPaperAndBasis1765830000000,
   AddTrainingLogSession1765836000000,
+  CreateGroupsAndTeamPrograms1765900000000,
 ];
