@@ -11,6 +11,8 @@ export interface EngineExercise {
   steps: LoadSteps;
   /** The lift whose 1RM sets this exercise's intensity; itself when null. */
   referenceId?: string | null;
+  /** Library exercises to use instead when this one is not allowed, in order of preference (team fitting). */
+  useInstead?: string[];
 }
 
 export interface TightestCap {

@@ -50,7 +50,15 @@ export function setFingerprint(exerciseId: string, set: PlannedSetInput, date: s
 }
 
 export function toEngineExercise(e: Exercise): EngineExercise {
-  return { id: e.id, name: e.name, patterns: e.patterns, ballistic: e.ballistic, steps: e.steps, referenceId: e.referenceId };
+  return {
+    id: e.id,
+    name: e.name,
+    patterns: e.patterns,
+    ballistic: e.ballistic,
+    steps: e.steps,
+    referenceId: e.referenceId,
+    useInstead: e.useInstead ?? [],
+  };
 }
 
 /** The engine's sets of a session, warm-up marks included (one reading of session content for both sides). */
