@@ -6,6 +6,7 @@ import { engineContext, engineSets } from '../services/programs';
 import { athleteCircle, notify } from '../services/notify';
 import { memberNames } from '../queries/members';
 import { noticeStaleLetters } from '../services/letter-staleness';
+import { refitTeamVersions } from '../services/team-fit';
 import { humanDate } from '../../../policies/words/dates';
 
 /**
@@ -16,7 +17,9 @@ import { humanDate } from '../../../policies/words/dates';
  * 1. every published session of each affected athlete from the organization's today on is checked
  *    again by the engine (this week's earlier sessions count toward weekly limits, as on publish);
  * 2. sessions that now breach go on hold; held sessions that fit again are released;
- * 3. each coach of an athlete with newly held sessions gets one notice for the change.
+ * 3. each of their team-program versions from today on is fitted again: a different fit waits as a
+ *    proposal and the version needs the coach's review (services/team-fit.ts);
+ * 4. each coach of an athlete with newly held sessions gets one notice for the change.
  *
  * Commands never call this directly: they call `ctx.limitsChanged(change)` (commands/run.ts), which
  * also records that they did, so a command declared as changing limits cannot forget it.
@@ -39,6 +42,7 @@ export async function applyLimitsChange(
     }
     if (released.length) summary.released.push({ athleteId, sessionIds: released });
   }
+  await refitTeamVersions(m, organizationId, today, athleteIds);
   if (heldByAthlete.size) await tellCoaches(m, organizationId, heldByAthlete, change.reason);
   await noticeStaleLetters(m, organizationId, today, athleteIds);
   return summary;

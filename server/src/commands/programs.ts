@@ -162,7 +162,14 @@ export const editSession = orgCommand({
       ProgramSession,
       session.id,
       input.version,
-      { date: next.date, title: next.title, content: next.content as never, updatedAt: () => 'now()' },
+      {
+        date: next.date,
+        title: next.title,
+        content: next.content as never,
+        updatedAt: () => 'now()',
+        // An athlete's version of a team session edited by hand: the team session no longer rewrites it.
+        ...(session.teamSessionId ? { overridden: true, needsReview: false, proposal: null, reviewedAt: () => 'now()' } : {}),
+      },
       'session',
     );
     // A published session that fits again comes off hold.

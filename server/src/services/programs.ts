@@ -9,6 +9,7 @@ import type { Unit } from '../../../policies/schemas/common';
 import type { PlannedSetInput } from '../../../policies/schemas/programs';
 import { Exercise, ProgramSession, type Program } from '../entities';
 import { authorize } from '../core/authorize';
+import { AppError } from '../core/errors';
 import type { ActorWithOrg } from './actor';
 import { activePlans } from './cases';
 
@@ -22,8 +23,11 @@ export function authorizeProgram(
   ability: AppAbility,
   actor: ActorWithOrg,
   action: Action,
-  program: Pick<Program, 'id' | 'athleteIds'> | null,
+  program: (Pick<Program, 'id' | 'athleteIds'> & { groupId?: string | null }) | null,
 ): asserts program is Program {
+  // A team program has no athletes of its own, so the loop below would let anyone through: it is
+  // authorised by its group (services/team-access.ts) and never through the routes of one athlete's program.
+  if (program?.groupId) throw new AppError('not_found', 'That program was not found.');
   const rec = (athleteId: string) => ({ id: program?.id ?? '', organizationId: actor.organizationId, athleteId });
   if (program && action === 'read' && actor.roles.includes('athlete') && program.athleteIds.includes(actor.membershipId)) {
     authorize(ability, 'read', 'Program', rec(actor.membershipId));
@@ -77,7 +81,7 @@ export async function currentBaselines(m: EntityManager, athleteId: string): Pro
 }
 
 /** Participation status by date: per open case, the most recently recorded change in effect (as statusesOn). */
-async function statusLookup(m: EntityManager, athleteId: string): Promise<(date: string) => ParticipationStatus> {
+export async function statusLookup(m: EntityManager, athleteId: string): Promise<(date: string) => ParticipationStatus> {
   const rows: { case_id: string; status: ParticipationStatus; effective_from: string; created_at: Date }[] = await m.query(
     `SELECT s.case_id, s.status, s.effective_from, s.created_at FROM participation_status_changes s
        JOIN cases c ON c.id = s.case_id AND c.closed_on IS NULL
@@ -141,7 +145,12 @@ export async function engineContext(
 }
 
 /** Published sessions of the athlete (any program) in the ISO weeks of the given dates, for weekly counts. */
-async function publishedInWeeks(m: EntityManager, athleteId: string, dates: string[], exceptIds: string[]): Promise<ProgramSession[]> {
+export async function publishedInWeeks(
+  m: EntityManager,
+  athleteId: string,
+  dates: string[],
+  exceptIds: string[],
+): Promise<ProgramSession[]> {
   if (dates.length === 0) return [];
   return m
     .createQueryBuilder(ProgramSession, 's')
