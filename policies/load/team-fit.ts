@@ -1,0 +1,304 @@
+import type { Unit } from '../schemas/common';
+import type { PlannedSetInput, SessionContent } from '../schemas/programs';
+import type { Breach, BreachRule } from './breach';
+import { blockingBreaches, checkSets, type EngineContext } from './compliance';
+import { exerciseRules, suggestSwaps, type EngineExercise, type ExerciseRules } from './exercise-rules';
+import { suggestPercent } from './fitting';
+import { inForceOn, type InForce } from './in-force';
+import { PATTERN_LABELS } from './patterns';
+import { plannedKg, sessionEngineSets, type EngineSet } from './sets';
+import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
+import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
+
+/**
+ * One athlete's version of a team session (team programming, issue 14). The team session is resolved
+ * against the athlete's baselines (% of 1RM → a load on the exercise's steps; not a change) and then
+ * checked by the compliance engine on its date, with the athlete's other published sets of the same
+ * weeks counted toward weekly limits. Each set the engine blocks is fitted, in this order:
+ *   (a) the largest load that fits, never rounded up (the engine's own fit, suggestFit);
+ *   (b) fewer reps where reps are capped (a rep cap, or an RPE cap no load fits at the planned reps),
+ *       fewer sets where sets are capped (per session, hard sets per week — the sets the engine
+ *       counts beyond the cap are cut);
+ *   (c) a swap of the exercise row: first the exercise's "use instead" list in order, then library
+ *       exercises sharing a movement pattern that are allowed on the date, then exercises with no
+ *       pattern (allowed everywhere: a non-impact conditioning piece for a blocked sprint). The load
+ *       is resolved again for the new exercise;
+ *   (d) otherwise the set is dropped, with a note.
+ * The loop checks again after each round of fixes until the engine blocks none of the session's sets;
+ * a set still blocked after the last round is dropped, so what is returned always passes the engine.
+ *
+ * Decisions: an athlete Out on the date gets an empty session, state 'out' and no changes (the grid
+ * says "Out"; there is nothing to review line by line). A target RPE over an RPE cap is lowered to the
+ * cap, and a set with no RPE to read under an RPE cap gets the cap as its target (the engine's own
+ * fix) — both reported as 'load_lowered'. Granted exceptions play no part. The team's row and set ids
+ * are kept; a swap changes the whole row (a row has one exercise).
+ */
+export function fitTeamSession(
+  team: { id: string; date: string; content: SessionContent },
+  ctx: EngineContext,
+  opts: { otherSets?: EngineSet[] } = {},
+): FittedSession {
+  if (ctx.statusOn?.(team.date) === 'out') return { content: { exercises: [] }, changes: [], state: 'out' };
+  const engine: EngineContext = { ...ctx, waivedSetIds: undefined };
+  const unit = ctx.unit ?? 'kg';
+  const rows = team.content.exercises.map((r) => newRow(r, ctx));
+  if (ctx.plans.length === 0 && rows.every((r) => r.ex)) {
+    // No plan: nothing can be capped or blocked, only unreadable sets can breach.
+    fitLoop(team, rows, engine, []);
+    return finish(rows, unit, ctx);
+  }
+  const day = inForceOn(ctx.plans, team.date);
+  // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
+  const weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
+  const others = weekly ? (opts.otherSets ?? []).filter((s) => s.sessionId !== team.id) : [];
+  fitLoop(team, rows, engine, others, day);
+  return finish(rows, unit, ctx);
+}
+
+interface Slot {
+  team: PlannedSetInput;
+  /** The set as it stands now; null once removed. */
+  set: PlannedSetInput | null;
+  removed: 'sets_cut' | 'dropped' | null;
+  repsCut: boolean;
+  notes: string[];
+}
+
+interface Row {
+  id: string;
+  teamExerciseId: string;
+  exerciseId: string;
+  ex: EngineExercise | undefined;
+  notes: string | null | undefined;
+  slots: Slot[];
+  swaps: string[] | null;
+  swapNotes: string[];
+}
+
+function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
+  const ex = ctx.exercises[r.exerciseId];
+  return {
+    id: r.id,
+    teamExerciseId: r.exerciseId,
+    exerciseId: r.exerciseId,
+    ex,
+    notes: r.notes,
+    slots: r.sets.map((s) => ({
+      team: s,
+      set: ex ? { ...s, load: resolveLoad(s.load, ex, ctx.baselines) } : { ...s },
+      removed: null,
+      repsCut: false,
+      notes: [],
+    })),
+    swaps: null,
+    swapNotes: [],
+  };
+}
+
+function contentOf(rows: Row[]): SessionContent {
+  const exercises: SessionContent['exercises'] = [];
+  for (const r of rows) {
+    const sets = r.slots.filter((s) => s.set !== null).map((s) => s.set!);
+    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+  }
+  return { exercises };
+}
+
+const SWAP_RULES = new Set<BreachRule>(['blocked', 'impact', 'no_baseline']);
+const LOAD_RULES = new Set<BreachRule>(['percent_1rm', 'absolute_load', 'rpe']);
+const COUNT_RULES = new Set<BreachRule>(['sets_per_session', 'hard_sets_per_week']);
+const MAX_ROUNDS = 12;
+const MAX_SWAP_CANDIDATES = 8;
+
+const noteOf = (b: Breach) => (b.pattern ? `${PATTERN_LABELS[b.pattern]}: ${b.limit}` : b.message);
+
+/** Rounds of check-and-fix; the number of rounds run. */
+function fitLoop(team: { id: string; date: string }, rows: Row[], ctx: EngineContext, others: EngineSet[], day?: InForce): number {
+  const rulesCache = new Map<string, ExerciseRules>();
+  const rulesOf = (ex: EngineExercise) => {
+    let r = rulesCache.get(ex.id);
+    if (!r && day) rulesCache.set(ex.id, (r = exerciseRules(ex, day)));
+    return r;
+  };
+  for (let round = 0; ; round++) {
+    const sets = sessionEngineSets({ id: team.id, date: team.date, content: contentOf(rows) });
+    const ours = new Set(sets.map((s) => s.id));
+    const breaches = blockingBreaches(checkSets(others.length ? [...sets, ...others] : sets, ctx)).filter((b) => ours.has(b.setId));
+    if (breaches.length === 0) return round;
+    const bySet = new Map<string, Breach[]>();
+    for (const b of breaches) bySet.set(b.setId, [...(bySet.get(b.setId) ?? []), b]);
+    const last = round >= MAX_ROUNDS;
+    // Counted limits are read last: lighter or swapped sets may no longer count toward them.
+    const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
+    for (const row of rows) {
+      let swapRow = false;
+      const swapWhy: string[] = [];
+      for (const slot of row.slots) {
+        const bs = slot.set && bySet.get(slot.set.id);
+        if (!bs) continue;
+        if (last) {
+          drop(slot, bs.map(noteOf));
+          continue;
+        }
+        const action = fixSet(slot, bs, row, ctx, rulesOf, onlyCounts);
+        if (action === 'swap') {
+          swapRow = true;
+          swapWhy.push(...bs.filter((b) => !COUNT_RULES.has(b.rule)).map(noteOf));
+        }
+      }
+      if (swapRow) swapOrDrop(row, swapWhy, ctx, day, bySet);
+    }
+  }
+}
+
+/** One round's fix of one set; 'swap' when only another exercise can help. */
+function fixSet(
+  slot: Slot,
+  bs: Breach[],
+  row: Row,
+  ctx: EngineContext,
+  rulesOf: (ex: EngineExercise) => ExerciseRules | undefined,
+  onlyCounts: boolean,
+): 'fixed' | 'swap' | 'none' {
+  const set = slot.set!;
+  const ex = ctx.exercises[row.exerciseId];
+  if (!ex || bs.some((b) => b.rule === 'unreadable' || b.rule === 'status_out')) {
+    drop(slot, bs.map(noteOf));
+    return 'fixed';
+  }
+  if (bs.some((b) => SWAP_RULES.has(b.rule))) return 'swap';
+  let next: PlannedSetInput = { ...set };
+  const notes: string[] = [];
+  const repCap = bs.find((b) => b.rule === 'reps_per_set');
+  const capValue = repCap && rulesOf(ex)?.reps?.value;
+  if (repCap && capValue !== undefined && capValue !== null && capValue >= 1) {
+    next.reps = Math.min(next.reps, Math.floor(capValue));
+    slot.repsCut = true;
+    notes.push(noteOf(repCap));
+  } else if (repCap) return 'swap';
+  const loads = bs.filter((b) => LOAD_RULES.has(b.rule));
+  if (loads.length > 0 && !repCap) {
+    const fix = loadFix(next, loads, ex, ctx, rulesOf);
+    if (fix === null) return 'swap';
+    if (fix.reps < next.reps) slot.repsCut = true;
+    next = fix;
+    notes.push(...loads.map(noteOf));
+  }
+  if (notes.length > 0) {
+    slot.set = next;
+    slot.notes.push(...notes);
+    return 'fixed';
+  }
+  const counts = bs.filter((b) => COUNT_RULES.has(b.rule));
+  if (counts.length > 0 && onlyCounts) {
+    slot.set = null;
+    slot.removed = 'sets_cut';
+    slot.notes.push(...counts.map(noteOf));
+    return 'fixed';
+  }
+  return 'none';
+}
+
+/** (a) and the reps part of (b) for the load caps: the engine's fit, a lower target RPE, or a lower %. Null when no load fits. */
+function loadFix(
+  set: PlannedSetInput,
+  loads: Breach[],
+  ex: EngineExercise,
+  ctx: EngineContext,
+  rulesOf: (ex: EngineExercise) => ExerciseRules | undefined,
+): PlannedSetInput | null {
+  const withFit = loads.filter((b) => b.fittingKg !== null);
+  if (withFit.length > 0) {
+    const kg = Math.min(...withFit.map((b) => b.fittingKg!));
+    const reps = Math.min(set.reps, ...withFit.map((b) => b.fittingReps ?? set.reps));
+    return { ...set, reps, load: loadOnSteps(kg, ex.steps) };
+  }
+  const rpeCap = rulesOf(ex)?.rpe?.value;
+  if (loads.every((b) => b.rule === 'rpe') && rpeCap !== undefined && rpeCap >= 1) {
+    if (set.targetRpe != null) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
+    const oneRm = oneRmFor(ex, ctx.baselines);
+    if (set.load.kind === 'percent' && oneRm === undefined) {
+      const p = suggestPercent(set.reps, rpeCap, rulesOf(ex)?.pct?.value ?? null);
+      return p && { ...set, reps: p.reps, load: { kind: 'percent', value: p.percent } };
+    }
+    if (plannedKg(set.load, oneRm) === null || oneRm === undefined) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
+  }
+  return null;
+}
+
+function drop(slot: Slot, notes: string[]) {
+  slot.set = null;
+  slot.removed = 'dropped';
+  slot.notes.push(...notes);
+}
+
+/** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
+function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
+  const original = ctx.exercises[row.teamExerciseId];
+  if (row.swaps === null) {
+    const library = Object.values(ctx.exercises);
+    const preferred = (original?.useInstead ?? []).filter((id) => id !== row.teamExerciseId && ctx.exercises[id]);
+    const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
+    row.swaps = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
+  }
+  row.swapNotes.push(...why);
+  const nextId = row.swaps.shift();
+  if (nextId === undefined) {
+    for (const slot of row.slots) if (slot.set && bySet.has(slot.set.id)) drop(slot, why);
+    return;
+  }
+  const ex = ctx.exercises[nextId];
+  row.exerciseId = nextId;
+  row.ex = ex;
+  const fromOneRm = original ? oneRmFor(original, ctx.baselines) : undefined;
+  const toOneRm = oneRmFor(ex, ctx.baselines);
+  for (const slot of row.slots) {
+    if (slot.removed === 'sets_cut') continue;
+    let load = slot.team.load;
+    // An absolute load keeps its intensity when both exercises have a 1RM: the same % of the new one.
+    if ((load.kind === 'kg' || load.kind === 'lb') && fromOneRm !== undefined && toOneRm !== undefined)
+      load = { kind: 'percent', value: Math.min(110, (plannedKg(load, undefined)! / fromOneRm) * 100) };
+    slot.set = { ...slot.team, load: resolveLoad(load, ex, ctx.baselines) };
+    slot.removed = null;
+    slot.repsCut = false;
+  }
+}
+
+function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
+  const changes: FitChange[] = [];
+  for (const row of rows) {
+    const teamEx = ctx.exercises[row.teamExerciseId];
+    const swapped = row.exerciseId !== row.teamExerciseId;
+    const ex = ctx.exercises[row.exerciseId];
+    for (const slot of row.slots) {
+      const asWritten = teamEx ? { ...slot.team, load: resolveLoad(slot.team.load, teamEx, ctx.baselines) } : slot.team;
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${setWords(asWritten, unit)}`;
+      const base = { teamExerciseRowId: row.id, teamSetId: slot.team.id, exerciseId: row.teamExerciseId, before };
+      const note = [...new Set([...(swapped ? row.swapNotes : []), ...slot.notes])].join('; ');
+      if (slot.set === null) {
+        changes.push({ ...base, kind: slot.removed ?? 'dropped', after: null, note: note || 'Nothing allowed fits this set' });
+        continue;
+      }
+      if (swapped) {
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${setWords(slot.set, unit)}`;
+        changes.push({ ...base, kind: 'swapped', swappedToExerciseId: row.exerciseId, after, note });
+        continue;
+      }
+      if (sameSet(slot.set, asWritten)) continue;
+      // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
+      const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
+      const kgNow = plannedKg(slot.set.load, undefined);
+      const onlyRounded =
+        floor !== null &&
+        kgNow !== null &&
+        kgNow >= floor - 1e-6 &&
+        slot.set.reps === asWritten.reps &&
+        (slot.set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
+      if (onlyRounded) continue;
+      const kind: FitChangeKind = slot.repsCut || slot.set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
+      changes.push({ ...base, kind, after: setWords(slot.set, unit), note });
+    }
+  }
+  const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
+  return { content: contentOf(rows), changes, state };
+}
