@@ -6,7 +6,7 @@ import type { Unit } from '../../../policies/schemas/common';
 import type { SessionContent } from '../../../policies/schemas/programs';
 import { Program, ProgramSession } from '../entities';
 import { breachesFor, engineContext, engineSets, publishedInWeeks } from './programs';
-import { fitTeamSession } from './team-fit-engine';
+import { fitTeamSession } from '../../../policies/load/team-fit';
 
 /**
  * Each athlete's version of a team session: an ordinary session of the athlete's own program
@@ -107,9 +107,11 @@ export async function fitFor(
   today: string,
 ): Promise<FittedSession> {
   const others = await publishedInWeeks(m, athleteId, [team.date], version ? [version.id, team.id] : [team.id]);
-  const probe = { id: version?.id ?? team.id, date: team.date, content: withAthleteIds(team.content, athleteId) };
-  const ctx = await engineContext(m, organizationId, athleteId, [probe, ...(version ? [version] : []), ...others], unit, today);
-  return fitTeamSession(probe, ctx, { otherSets: others.flatMap(engineSets) });
+  // Fitted on the team's ids (the changes name the team's rows and sets), then given the athlete's own.
+  const probe = { id: version?.id ?? team.id, date: team.date, content: team.content };
+  const ctx = await engineContext(m, organizationId, athleteId, [...(version ? [version] : []), ...others], unit, today);
+  const fitted = fitTeamSession(probe, ctx, { otherSets: others.flatMap(engineSets) });
+  return { ...fitted, content: withAthleteIds(fitted.content, athleteId) };
 }
 
 export interface FitOutcome {
