@@ -38,6 +38,8 @@ describe('the one "limits changed" path', () => {
         "DELETE /api/orgs/:orgId/sessions/:id  ⇒  sessions.delete!",
         "POST   /api/orgs/:orgId/sessions/:id/unpublish  ⇒  sessions.unpublish!",
         "POST   /api/orgs/:orgId/exceptions/:id/decide  ⇒  exceptions.decide!",
+        "PATCH  /api/orgs/:orgId/team-sessions/:id  ⇒  team_sessions.update!",
+        "DELETE /api/orgs/:orgId/team-sessions/:id  ⇒  team_sessions.delete!",
       ]
     `);
   });
