@@ -2,36 +2,10 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { checkSets, type EngineSet } from './compliance';
 import { ctx, library, plan, stage } from './compliance-fixtures';
-import { MOVEMENT_PATTERNS } from './patterns';
+import { baselinesArb as baselinesOf, loadArb, plansArb } from './engine-arbitraries';
 
 // The compliance engine as a whole: the same answer in any input order, and a program-sized input (fixtures in compliance-fixtures.ts).
 describe('determinism', () => {
-  const capsArb = fc.record(
-    {
-      maxPercent1RM: fc.integer({ min: 40, max: 90 }),
-      maxLoadKg: fc.integer({ min: 20, max: 150 }),
-      maxRpe: fc.constantFrom(6, 7, 8, 9),
-      maxSetsPerSession: fc.integer({ min: 1, max: 5 }),
-      maxRepsPerSet: fc.integer({ min: 3, max: 12 }),
-      maxHardSetsPerWeek: fc.integer({ min: 0, max: 8 }),
-      impactAllowed: fc.boolean(),
-    },
-    { requiredKeys: [] },
-  );
-  const ruleArb = fc.oneof(
-    fc.constant({ mode: 'blocked' as const }),
-    fc.constant({ mode: 'free' as const }),
-    capsArb.map((caps) => ({ mode: 'capped' as const, caps })),
-  );
-  const plansArb = fc
-    .array(fc.tuple(fc.constantFrom(...MOVEMENT_PATTERNS), ruleArb), { maxLength: 5 })
-    .map((entries) => plan(stage(Object.fromEntries(entries), '2026-03-02', '2026-03-22')));
-  const loadArb = fc.oneof(
-    fc.integer({ min: 0, max: 200 }).map((v) => ({ kind: 'kg' as const, value: v })),
-    fc.integer({ min: 0, max: 400 }).map((v) => ({ kind: 'lb' as const, value: v })),
-    fc.integer({ min: 30, max: 100 }).map((v) => ({ kind: 'percent' as const, value: v })),
-    fc.constant({ kind: 'bodyweight' as const }),
-  );
   const setsArb = fc
     .array(
       fc.record({
@@ -60,7 +34,7 @@ describe('determinism', () => {
         };
       }),
     );
-  const baselinesArb = fc.dictionary(fc.constantFrom(...library.map((e) => e.id)), fc.integer({ min: 40, max: 250 }));
+  const baselinesArb = baselinesOf(library);
 
   it('the same sets give the same breaches, in any input order (property)', () => {
     fc.assert(
