@@ -105,6 +105,34 @@ describe('team programs: fitting, the grid and publishing', () => {
     expect((await w.publish(p.id, [team.id])).status).toBe(200);
   });
 
+  it("the team's sets as written are published once the clinician grants an exception on the athlete's version (the existing exception routes)", async () => {
+    const w = await teamWorld(h);
+    const p = await w.createProgram();
+    const team = await w.addSession(p.id);
+    await w.versionAction(team.id, w.sprint, 'accept', (await w.version(team.id, w.sprint)).version.version);
+    const v = await w.version(team.id, w.hinge);
+    const asWritten = await w.versionAction(team.id, w.hinge, 'as-written', v.version.version);
+    const setIds = (asWritten.body.breaches as { setId: string }[]).map((b) => b.setId);
+    expect(setIds).toHaveLength(3);
+    const req = await w.coach.post(`${w.base}/sessions/${asWritten.body.version.id}/exceptions`, {
+      athleteId: w.hinge,
+      setIds,
+      reason: 'Team test day agreed with the physio',
+    });
+    expect(req.status, JSON.stringify(req.body)).toBe(201);
+    const granted = await w.clinician.post(`${w.base}/exceptions/${req.body.id}/decide`, {
+      decision: 'grant',
+      note: 'Agreed for the test day',
+    });
+    expect(granted.status, JSON.stringify(granted.body)).toBe(200);
+    const after = await w.version(team.id, w.hinge);
+    expect(after.breaches.every((b) => b.waived)).toBe(true);
+    const ok = await w.publish(p.id, [team.id]);
+    expect(ok.status, JSON.stringify(ok.body)).toBe(200);
+    const deadlift = (await w.version(team.id, w.hinge)).version.content.exercises.find((e) => e.exerciseId === w.ex('Deadlift'))!;
+    expect(deadlift.sets.map((s) => s.load)).toEqual([1, 2, 3].map(() => ({ kind: 'percent', value: 75 })));
+  });
+
   it('editing the team session re-fits every version not edited by hand; a hand edit is kept and marked for review', async () => {
     const w = await teamWorld(h);
     const p = await w.createProgram();
