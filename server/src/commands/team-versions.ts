@@ -68,7 +68,11 @@ export const publishTeamSessions = orgCommand({
       );
       for (const { team, version } of mine) {
         const words = breaches.filter((b) => b.sessionId === version.id).map((b) => b.message);
-        if (version.fitState === 'needs_decision' && !version.overridden && !version.reviewedAt)
+        if (version.content.exercises.length === 0)
+          words.unshift(
+            'Nothing is left in this version (it was fitted while the athlete was Out, or everything was dropped): reset it to fit again, or edit it.',
+          );
+        else if (version.fitState === 'needs_decision' && !version.overridden && !version.reviewedAt)
           words.unshift(
             `Something could not be made to fit and was dropped: ${version.fitChanges
               .filter((c) => c.kind === 'dropped')

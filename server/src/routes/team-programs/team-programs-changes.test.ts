@@ -51,6 +51,29 @@ describe('team programs: changes flow, and who may do what', () => {
     expect(w.cell(await w.grid(p.id), w.hinge)).toMatchObject({ needsReview: false, held: false, published: true });
   });
 
+  it('an athlete back from Out gets a proposal of the full session to review; until then publishing names their empty version', async () => {
+    const w = await teamWorld(h);
+    const p = await w.createProgram();
+    const team = await w.addSession(p.id);
+    await w.versionAction(team.id, w.sprint, 'accept', (await w.version(team.id, w.sprint)).version.version);
+    const back = await w.clinician.post(`${w.base}/cases/${w.outCase.id}/status`, {
+      status: 'full',
+      effectiveFrom: TODAY,
+      version: w.outCase.version,
+    });
+    expect(back.status, JSON.stringify(back.body)).toBe(201);
+    const v = await w.version(team.id, w.out);
+    expect(v).toMatchObject({ state: 'out', needsReview: true });
+    expect(v.proposal!.state).toBe('as_written');
+    const refused = await w.publish(p.id, [team.id]);
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.details.problems.map((x: { athleteId: string }) => x.athleteId)).toEqual([w.out]);
+    expect((await w.versionAction(team.id, w.out, 'accept', v.version.version)).status).toBe(200);
+    const ok = await w.publish(p.id, [team.id]);
+    expect(ok.status, JSON.stringify(ok.body)).toBe(200);
+    expect(ok.body).toEqual({ published: 8, outSkipped: [] });
+  });
+
   it('ASVS 5.0 V8.2.2: a coach of another group is told a team program was not found; a clinician of a group athlete reads but may not change (403); an athlete gets 404', async () => {
     const { w, p, team } = await published();
     const other = await w.as(w.org.otherCoach);

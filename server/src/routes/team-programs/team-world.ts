@@ -37,17 +37,15 @@ export async function teamWorld(h: Harness) {
   const out = extra[0].membershipId;
   const athletes = [hinge, sprint, ...extra.map((a) => a.membershipId)];
   const plainAthlete = extra[1];
-  await h.ds
-    .getRepository(CareTeamAssignment)
-    .save([
-      ...athletes.slice(1).map((a) => ({ organizationId: org.id, athleteId: a, memberId: org.coach.membershipId, role: 'coach' as const })),
-      ...[sprint, out].map((a) => ({
-        organizationId: org.id,
-        athleteId: a,
-        memberId: org.clinician.membershipId,
-        role: 'clinician' as const,
-      })),
-    ]);
+  await h.ds.getRepository(CareTeamAssignment).save([
+    ...athletes.slice(1).map((a) => ({ organizationId: org.id, athleteId: a, memberId: org.coach.membershipId, role: 'coach' as const })),
+    ...[sprint, out].map((a) => ({
+      organizationId: org.id,
+      athleteId: a,
+      memberId: org.clinician.membershipId,
+      role: 'clinician' as const,
+    })),
+  ]);
   const [group] = (await h.ds.query(
     `INSERT INTO groups (organization_id, name, kind, version) VALUES ($1, 'Infield', 'team', 1) RETURNING id`,
     [org.id],
@@ -112,6 +110,7 @@ export async function teamWorld(h: Harness) {
     hinge,
     sprint,
     out,
+    outCase: outCase.body as { id: string; version: number },
     plainAthlete,
     extra,
     hingePlan,
