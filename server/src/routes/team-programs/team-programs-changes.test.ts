@@ -113,6 +113,20 @@ describe('team programs: changes flow, and who may do what', () => {
     expect((await w.coach.get(`${w.base}/programs`)).body.map((x: { id: string }) => x.id)).not.toContain(p.id);
   });
 
+  it('ASVS 5.0 V8.2.2: publishing names only sessions of the program in the path; a version is reached only for an athlete of the group', async () => {
+    const { w, p, team } = await published();
+    const second = await w.createProgram();
+    const res = await w.publish(second.id, [team.id]);
+    expect(res.status).toBe(404);
+    expect(res.body.error.fields).toEqual({ teamSessionIds: ['must all be sessions of this team program'] });
+    const stranger = w.org.guardian.membershipId;
+    expect((await w.coach.get(`${w.base}/team-sessions/${team.id}/versions/${stranger}`)).status).toBe(404);
+    expect((await w.versionAction(team.id, stranger, 'reset', 1)).status).toBe(404);
+    const list = await w.coach.get(`${w.base}/team-programs?groupId=${w.group.id}`);
+    expect(list.body.map((x: { id: string }) => x.id).sort()).toEqual([p.id, second.id].sort());
+    expect(list.body.find((x: { id: string }) => x.id === p.id)).toMatchObject({ groupName: 'Infield', sessions: 1 });
+  });
+
   it("renaming carries to the athletes' programs; deleting a team session takes its versions with it", async () => {
     const w = await teamWorld(h);
     const p = await w.createProgram();
