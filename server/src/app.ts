@@ -32,6 +32,7 @@ import { exerciseRoutes } from './routes/programs/exercises.router';
 import { programRoutes } from './routes/programs/programs.router';
 import { exceptionRoutes } from './routes/programs/exceptions.router';
 import { teamProgramRoutes } from './routes/team-programs/team-programs.router';
+import { groupRoutes } from './routes/groups/groups.router';
 import { rosterRoutes } from './routes/programs/roster.router';
 import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
@@ -132,6 +133,7 @@ export function buildApp(base: AppDeps) {
     ...programRoutes,
     ...exceptionRoutes,
     ...teamProgramRoutes,
+    ...groupRoutes,
     ...rosterRoutes,
     ...letterRoutes(deps),
     ...documentRoutes,
