@@ -15,7 +15,8 @@ import { updateVersioned } from '../services/versioned';
  * care-team coach does (services/actor.ts), so every change of who is in a group changes who sees
  * whom on the next request, and who must be told of an athlete's held sessions: those commands go
  * through the one "limits changed" path (commands/limits.ts), as care-team changes do. Only admins
- * decide who coaches a group; its coaches keep its name and its athletes.
+ * decide who coaches a group and may add any athlete; its coaches keep its name and its athletes,
+ * adding only athletes they already coach.
  */
 
 const DUPLICATE = 'A group with that name already exists in this organization.';
@@ -30,6 +31,19 @@ async function requireMembers(ctx: OrgCommandCtx, ids: string[], role: Role, fie
   if (rows.length !== ids.length)
     throw new AppError('validation_failed', `Please check the form: ${field} must all be ${role}s in this organization.`, {
       [field]: [`must all be ${role}s in this organization`],
+    });
+}
+
+/**
+ * A coach who is not an admin adds only athletes they already coach (through a care team or another
+ * group of theirs): otherwise naming any athlete's id would open that athlete's records to them.
+ * Ids they do not coach are refused like ids that are no athletes at all, revealing nothing.
+ */
+function requireCoached(ctx: OrgCommandCtx, added: string[]): void {
+  if (ctx.actor.roles.includes('admin')) return;
+  if (added.some((id) => !ctx.actor.coachOf.includes(id)))
+    throw new AppError('validation_failed', 'Please check the form: athleteIds must all be athletes you coach.', {
+      athleteIds: ['must all be athletes you coach; an admin can add others'],
     });
 }
 
@@ -73,6 +87,7 @@ export const createGroup = orgCommand({
     authorize(ctx.ability, 'create', 'Group', { id: '', organizationId: org, coachIds, athleteIds: input.athleteIds });
     await requireMembers(ctx, coachIds, 'coach', 'coachIds');
     await requireMembers(ctx, input.athleteIds, 'athlete', 'athleteIds');
+    requireCoached(ctx, input.athleteIds);
     let group: Group;
     try {
       group = await ctx.m.save(ctx.m.create(Group, { organizationId: org, name: input.name, kind: input.kind, createdBy: ctx.userId }));
@@ -128,6 +143,7 @@ export const setGroupMembers = orgCommand({
     if (coachesChanged && !ctx.actor.roles.includes('admin')) throw onlyAdminsSetCoaches();
     await requireMembers(ctx, minus(input.coachIds, members.coachIds), 'coach', 'coachIds');
     await requireMembers(ctx, minus(input.athleteIds, members.athleteIds), 'athlete', 'athleteIds');
+    requireCoached(ctx, minus(input.athleteIds, members.athleteIds));
     await updateVersioned(ctx.m, Group, group.id, input.version, { updatedAt: () => 'now()' }, 'group');
 
     // Rows of members no longer active are not on `members`: replace both lists whole.

@@ -136,6 +136,27 @@ describe('groups', () => {
     expect(await audit(g.id)).toEqual(['group.created', 'group.archived']);
   });
 
+  it('a coach adds only athletes they already coach: naming any other id opens nobody to them', async () => {
+    const res = await create(coach, { name: uniqueName('Grab'), kind: 'team', athleteIds: [org.otherAthlete.membershipId] });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.athleteIds).toEqual(['must all be athletes you coach; an admin can add others']);
+    const g = (await create(coach, { name: uniqueName('Keep'), kind: 'team', athleteIds: [] })).body as GroupDto;
+    const add = await put(coach, `${base}/groups/${g.id}/members`, {
+      coachIds: [org.coach.membershipId],
+      athleteIds: [org.otherAthlete.membershipId],
+      version: g.version,
+    });
+    expect(add.status).toBe(400);
+    expect((await coach.get(`${base}/athletes/${org.otherAthlete.membershipId}`)).status).toBe(404);
+    // Their own care-team athlete is fine.
+    const own = await put(coach, `${base}/groups/${g.id}/members`, {
+      coachIds: [org.coach.membershipId],
+      athleteIds: [org.athlete.membershipId],
+      version: g.version,
+    });
+    expect(own.status, JSON.stringify(own.body)).toBe(200);
+  });
+
   it('an athlete may be in several groups', async () => {
     const a = await create(admin, { name: uniqueName('Team'), kind: 'team', athleteIds: [org.otherAthlete.membershipId] });
     const b = await create(admin, { name: uniqueName('Position'), kind: 'position', athleteIds: [org.otherAthlete.membershipId] });
