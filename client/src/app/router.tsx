@@ -30,6 +30,7 @@ import { StaffFlagsPage } from './routes/staff/flags';
 import { NoticesPage } from './routes/notices';
 import { AdminLayout } from './routes/admin/admin-layout';
 import { PeoplePage } from './routes/admin/people';
+import { GroupPage, GroupsPage } from './routes/groups';
 import { PersonPage } from './routes/admin/person';
 import { InvitationsPage } from './routes/admin/invitations';
 import { AuditPage } from './routes/admin/audit';
@@ -69,6 +70,8 @@ export const routes = [
               { path: 'settings', element: <OrganizationSettingsPage /> },
             ],
           },
+          { path: '/groups', element: <GroupsPage /> },
+          { path: '/groups/:groupId', element: <GroupPage /> },
           { path: '/coach', element: <CoachHome /> },
           { path: '/coach/athletes/:athleteId', element: <CoachAthletePage /> },
           { path: '/coach/exercises', element: <CoachExercisesPage /> },

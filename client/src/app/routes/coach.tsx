@@ -31,6 +31,9 @@ function CoachRoster() {
         title="My athletes"
         actions={
           <>
+            <ButtonLink to="/groups" variant="secondary">
+              Groups
+            </ButtonLink>
             <ButtonLink to="/coach/exercises" variant="secondary">
               Exercise library
             </ButtonLink>

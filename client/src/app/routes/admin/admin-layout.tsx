@@ -4,6 +4,7 @@ import { RoleGate } from '../../layout/RoleGate';
 
 const LINKS = [
   { to: '/admin/people', label: 'People' },
+  { to: '/groups', label: 'Groups' },
   { to: '/admin/invitations', label: 'Invitations' },
   { to: '/admin/audit', label: 'Audit trail' },
   { to: '/admin/outbox', label: 'Outbox' },
