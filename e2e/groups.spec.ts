@@ -30,5 +30,9 @@ test('an admin creates a group of demo athletes, changes its members and archive
 
   await page.getByRole('button', { name: 'Archive this group' }).click();
   await page.getByRole('button', { name: `Archive ${name}` }).click();
-  await expect(page.getByText('Archived', { exact: true })).toBeVisible();
+  await expect(page.getByRole('main')).toContainText('Archived');
+  // Kept for the record, and changed no more.
+  await expect(page.getByRole('form', { name: 'Members' })).toHaveCount(0);
+  await expect(page.getByRole('region', { name: 'Team programs' })).toHaveCount(0);
+  await expect(page.getByText(`Athletes: ${DEMO.ava.name}, ${DEMO.luis.name}, ${DEMO.sam.name}`)).toBeVisible();
 });

@@ -134,9 +134,12 @@ export function GroupPage() {
         {GROUP_KIND_WORDS[g.kind]} · {g.athletes.length} {g.athletes.length === 1 ? 'athlete' : 'athletes'}{' '}
         {g.archived && <Badge tone="warn">Archived</Badge>}
       </PageHeader>
-      <Panel title="Team programs">
-        <GroupTeamPrograms orgId={orgId} groupId={g.id} canStart={g.canManage} />
-      </Panel>
+      {/* Team programs are the coaches' work (read through Program): an admin who does not coach sees none. */}
+      {ability.can('read', 'Program') && (
+        <Panel title="Team programs">
+          <GroupTeamPrograms orgId={orgId} groupId={g.id} canStart={g.canManage && ability.can('create', 'Program')} />
+        </Panel>
+      )}
       <Panel title="Members">
         {g.canManage ? (
           candidates.pending ? (
