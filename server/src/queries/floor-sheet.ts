@@ -84,9 +84,16 @@ export async function floorSheetFor(m: EntityManager, actor: ActorWithOrg, teamS
         insteadOf: swap ? nameOf(swap.exerciseId) : null,
       };
     });
-    const dropped = [
-      ...new Set(changes.filter((c) => c.kind === 'dropped').map((c) => `${nameOf(c.exerciseId)}${c.note ? ` (${c.note})` : ''}`)),
-    ];
+    // Dropped sets, counted per exercise and reason: "Sprint 20 m, 4 sets (Sprint: Sprint is blocked)".
+    const droppedBy = new Map<string, number>();
+    for (const c of changes.filter((x) => x.kind === 'dropped')) {
+      const key = `${nameOf(c.exerciseId)}\u0000${c.note}`;
+      droppedBy.set(key, (droppedBy.get(key) ?? 0) + 1);
+    }
+    const dropped = [...droppedBy].map(([key, count]) => {
+      const [name, note] = key.split('\u0000');
+      return `${name}, ${count} ${count === 1 ? 'set' : 'sets'}${note ? ` (${note})` : ''}`;
+    });
     rows.push(
       floorRow({
         athleteName: names.get(athleteId) ?? 'Unknown athlete',
