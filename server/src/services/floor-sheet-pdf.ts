@@ -71,10 +71,10 @@ function setsLines(row: FloorRow): { title: string; plates: string; marked: bool
 function rowHeight(doc: PDFKit.PDFDocument, row: FloorRow, c: ReturnType<typeof columnsFor>): number {
   const setsWidth = c.sets - 2 * PAD - 10;
   const sets = setsLines(row).reduce(
-    (sum, l) => sum + height(doc, 'Body', 9.5, l.title, setsWidth) + height(doc, 'Body', 8.5, l.plates, setsWidth) + 3,
+    (sum, l) => sum + height(doc, 'Body', 11, l.title, setsWidth) + height(doc, 'Body', 9.5, l.plates, setsWidth) + 3,
     0,
   );
-  const athlete = height(doc, 'Bold', 10, row.athleteName, c.athlete - 2 * PAD) + 12;
+  const athlete = height(doc, 'Bold', 11.5, row.athleteName, c.athlete - 2 * PAD) + 12;
   const state = height(doc, 'Bold', 9.5, row.stateWords, c.state - 2 * PAD);
   const note = height(doc, 'Body', 8.5, row.note, c.note - 2 * PAD);
   return Math.max(sets, athlete, state, note, 14) + 2 * PAD;
@@ -133,15 +133,15 @@ function drawHeader(doc: PDFKit.PDFDocument, sheet: FloorSheet, c: ReturnType<ty
 
 function drawRow(doc: PDFKit.PDFDocument, row: FloorRow, c: ReturnType<typeof columnsFor>, top: number, h: number) {
   if (row.marked) diamond(doc, c.x.mark + 7, top + PAD + 6, 5);
-  cellText(doc, 'Bold', 10, INK, row.athleteName, c.x.athlete + PAD, top + PAD, c.athlete - 2 * PAD);
+  cellText(doc, 'Bold', 11.5, INK, row.athleteName, c.x.athlete + PAD, top + PAD, c.athlete - 2 * PAD);
   cellText(doc, 'Body', 8.5, GREY, `Loads in ${row.unit}`, c.x.athlete + PAD, doc.y, c.athlete - 2 * PAD);
   cellText(doc, 'Bold', 9.5, row.marked ? ACCENT : INK, row.stateWords, c.x.state + PAD, top + PAD, c.state - 2 * PAD);
   let y = top + PAD;
   const setsWidth = c.sets - 2 * PAD - 10;
   for (const l of setsLines(row)) {
-    if (l.marked) diamond(doc, c.x.sets + PAD + 3, y + 6, 3);
-    y = cellText(doc, 'Body', 9.5, INK, l.title, c.x.sets + PAD + 10, y, setsWidth);
-    if (l.plates) y = cellText(doc, 'Body', 8.5, GREY, l.plates, c.x.sets + PAD + 10, y, setsWidth);
+    if (l.marked) diamond(doc, c.x.sets + PAD + 3, y + 7, 3.5);
+    y = cellText(doc, 'Body', 11, INK, l.title, c.x.sets + PAD + 10, y, setsWidth);
+    if (l.plates) y = cellText(doc, 'Body', 9.5, GREY, l.plates, c.x.sets + PAD + 10, y, setsWidth);
     y += 3;
   }
   if (row.note) cellText(doc, 'Body', 8.5, INK, row.note, c.x.note + PAD, top + PAD, c.note - 2 * PAD);
