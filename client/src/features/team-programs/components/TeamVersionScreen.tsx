@@ -146,9 +146,9 @@ function Version({
       )}
 
       <div className="flex flex-wrap gap-2" role="group" aria-label="Decisions on this version">
-        {(dto.proposal || dto.needsReview) && (
+        {(dto.proposal || dto.needsReview || dto.state === 'needs_decision') && (
           <Button busy={action.isPending && action.variables?.action === 'accept'} onClick={() => run('accept')}>
-            {dto.proposal ? 'Accept the new fit' : 'Mark as reviewed'}
+            {dto.proposal ? 'Accept the new fit' : dto.state === 'needs_decision' ? 'Accept the drop' : 'Mark as reviewed'}
           </Button>
         )}
         <Button variant="secondary" onClick={() => setEditing((v) => !v)} aria-expanded={editing}>
