@@ -47,18 +47,18 @@ async function castTeam(): Promise<Cast> {
     const person = async (label: string, name: string, roles: string[]) => {
       const email = `e2e-team-${label}-${stamp}@harborpoint.example`;
       const { rows: u } = await db.query<{ id: string }>(
-        `INSERT INTO users (email, display_name, password_hash, unit_pref) VALUES ($1, $2, $3, 'kg') RETURNING id`,
+        `INSERT INTO users (email, display_name, password_hash, unit_pref, version) VALUES ($1, $2, $3, 'kg', 1) RETURNING id`,
         [email, name, hash],
       );
       const { rows: m } = await db.query<{ id: string }>(
-        `INSERT INTO memberships (organization_id, user_id, roles, active) VALUES ($1, $2, $3::text[], true) RETURNING id`,
+        `INSERT INTO memberships (organization_id, user_id, roles, active, version) VALUES ($1, $2, $3::text[], true, 1) RETURNING id`,
         [orgId, u[0].id, roles],
       );
       if (roles.includes('athlete'))
-        await db.query(`INSERT INTO athlete_profiles (membership_id, organization_id, date_of_birth, sport) VALUES ($1, $2, '2001-05-04', 'Rugby')`, [
-          m[0].id,
-          orgId,
-        ]);
+        await db.query(
+          `INSERT INTO athlete_profiles (membership_id, organization_id, date_of_birth, sport, version) VALUES ($1, $2, '2001-05-04', 'Rugby', 1)`,
+          [m[0].id, orgId],
+        );
       return { email, id: m[0].id, name };
     };
     const coach = await person('coach', `Squad Coach ${stamp}`, ['coach']);
@@ -213,6 +213,7 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     const lines = page.getByRole('region', { name: 'Line by line' });
     await expect(lines.getByRole('row').filter({ hasText: 'Sprint 20 m' })).toContainText('Left out');
     await page.getByRole('button', { name: 'Accept the drop' }).click();
+    await expect(page.getByRole('status').filter({ hasText: 'Drop accepted' })).toBeVisible();
     await expect(page.getByRole('button', { name: 'Accept the drop' })).toHaveCount(0);
     await page.getByRole('link', { name: '← The team program' }).click();
     await expectHome(page, PROGRAM);
@@ -239,6 +240,7 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
   await review.click();
   await expect(page.getByText('A new fit after a limit change')).toBeVisible();
   await page.getByRole('button', { name: 'Accept the new fit' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Accepted: the new fit' })).toBeVisible();
   await expect(page.getByText('A new fit after a limit change')).toHaveCount(0);
   await expect(page.getByLabel('State of this version')).not.toContainText('Needs review');
   await page.getByRole('link', { name: '← The team program' }).click();

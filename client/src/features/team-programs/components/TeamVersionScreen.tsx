@@ -99,8 +99,19 @@ function Version({
       )
     : [];
 
-  const run = (a: VersionAction, after?: () => void) =>
+  const [done, setDone] = useState<string | null>(null);
+  const run = (a: VersionAction, after?: () => void) => {
+    setDone(null);
     action.mutate({ action: a, version: dto.version.version }, { onSuccess: () => after?.() });
+  };
+  const accept = () => {
+    const words = dto.proposal
+      ? 'Accepted: the new fit is now this athlete’s version.'
+      : dto.state === 'needs_decision'
+        ? 'Drop accepted: this version can go out without what was left out.'
+        : 'Marked as reviewed.';
+    run('accept', () => setDone(words));
+  };
 
   const setLabel = (setId: string) => {
     for (const e of dto.version.content.exercises) {
@@ -146,8 +157,8 @@ function Version({
       )}
 
       <div className="flex flex-wrap gap-2" role="group" aria-label="Decisions on this version">
-        {(dto.proposal || dto.needsReview || dto.state === 'needs_decision') && (
-          <Button busy={action.isPending && action.variables?.action === 'accept'} onClick={() => run('accept')}>
+        {(dto.proposal || dto.needsReview || (dto.state === 'needs_decision' && !done)) && (
+          <Button busy={action.isPending && action.variables?.action === 'accept'} onClick={accept}>
             {dto.proposal ? 'Accept the new fit' : dto.state === 'needs_decision' ? 'Accept the drop' : 'Mark as reviewed'}
           </Button>
         )}
@@ -182,6 +193,7 @@ function Version({
           )}
         </Notice>
       )}
+      {done && <Notice tone="done" role="status" title={done} />}
       {sent && (
         <Notice tone="done" role="status" title="Exception requested">
           <p>The clinician decides. Until they grant it, this version keeps the session from being published.</p>
