@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { useHarness } from '../../test/harness';
 import { binary, pdfText } from '../letters/letter-fixtures';
 import { pinClock } from '../programs/test-world';
@@ -118,7 +119,10 @@ describe('team programs: the floor sheet', () => {
     ]);
     expect(of(w.out)).toEqual([[w.name(w.out), 'Out', '', 'kg', '', '', '', 'Out on this date: nothing planned.']]);
     const sprint = of(w.sprint);
-    expect(sprint.map((r) => r[1])).toEqual(['Needs a decision', 'Needs a decision']);
+    expect(sprint.map((r) => r.slice(1, 3))).toEqual([
+      ['Needs a decision', 'yes'],
+      ['Needs a decision', 'yes'],
+    ]);
     expect(sprint[0][7]).toMatch(/^Dropped: Sprint 20 m, 4 sets \(.*blocked/);
     expect(sprint[1][7]).toBe('');
     expect((await w.audit('floor_sheet.downloaded', w.team.id))[0].after).toMatchObject({ format: 'csv' });
@@ -145,11 +149,29 @@ describe('team programs: the floor sheet', () => {
       expect(res.status).toBe(404);
       expect(res.headers['content-disposition']).toBeUndefined();
     }
+    // An athlete's own version is not a team session: it has no floor sheet.
+    const versionId = w.cell(await w.grid(w.p.id), w.hinge).versionId!;
+    expect((await w.coach.get(`${w.base}/team-sessions/${versionId}/floor-sheet.pdf`)).status).toBe(404);
     const athlete = await w.as(w.org.athlete);
     expect((await athlete.get(w.pdfUrl)).status).toBe(404);
     expect((await athlete.get(w.csvUrl)).status).toBe(404);
     // Only the clinician's download was recorded.
     expect(await w.audit('floor_sheet.downloaded', w.team.id)).toHaveLength(1);
+  });
+
+  it("prints landscape on the organization's paper: A4, or US Letter when it chose Letter", async () => {
+    const w = await world();
+    const view = async () => {
+      const doc = await getDocument({ data: new Uint8Array((await binary(w.coach.get(w.pdfUrl))).body as Buffer), isEvalSupported: false })
+        .promise;
+      const v = (await doc.getPage(1)).view.map((x) => Math.round(x * 100) / 100);
+      await doc.destroy();
+      return v;
+    };
+    // ISO 216 A4 is 841.89 × 595.28 pt landscape; ANSI Letter 792 × 612 pt (the test organization's zone is UTC: A4).
+    expect(await view()).toEqual([0, 0, 841.89, 595.28]);
+    await h.ds.query(`UPDATE organizations SET letter_paper = 'letter' WHERE id = $1`, [w.org.id]);
+    expect(await view()).toEqual([0, 0, 792, 612]);
   });
 
   it('pages break with the header repeated on each page', async () => {
