@@ -1,8 +1,9 @@
+import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { useHarness } from '../../test/harness';
 import { binary, pdfText } from '../letters/letter-fixtures';
-import { pinClock } from '../programs/test-world';
+import { addDays, pinClock, put, TODAY } from '../programs/test-world';
 import { MONDAY, teamWorld } from './team-world';
 
 /**
@@ -159,6 +160,28 @@ describe('team programs: the floor sheet', () => {
     expect(await w.audit('floor_sheet.downloaded', w.team.id)).toHaveLength(1);
   });
 
+  it('after a limit change, a published row on hold prints no loads, only what to do', async () => {
+    const w = await world();
+    await w.versionAction(w.team.id, w.sprint, 'accept', (await w.version(w.team.id, w.sprint)).version.version);
+    expect((await w.publish(w.p.id, [w.team.id])).status).toBe(200);
+    const stage = {
+      id: randomUUID(),
+      startDate: addDays(TODAY, -30),
+      endDate: addDays(TODAY, 120),
+      painCeiling: 5,
+      patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 50 } } },
+    };
+    const revised = await put(w.clinician, `${w.base}/plans/${w.hingePlan.planId}`, { version: 1, stages: [stage], guidance: '' });
+    expect(revised.status, JSON.stringify(revised.body)).toBe(200);
+    const text = await pdfText((await binary(w.coach.get(w.pdfUrl))).body as Buffer);
+    expect(text).not.toContain('Not published yet');
+    // The held version (82.5 kg, over the new 50 % cap of 70 kg) shows no sets at all.
+    expect(text).toContain(`${w.name(w.hinge)} Loads in kg Fitted On hold: the limits changed after this was published.`);
+    expect(text).not.toContain('82.5 kg');
+    const records = parseCsv((await w.coach.get(w.csvUrl)).text).filter((r) => r[0] === w.name(w.hinge));
+    expect(records).toEqual([[w.name(w.hinge), 'Fitted', 'yes', 'kg', '', '', '', expect.stringMatching(/^On hold: /)]]);
+  });
+
   it("prints landscape on the organization's paper: A4, or US Letter when it chose Letter", async () => {
     const w = await world();
     const view = async () => {
@@ -182,8 +205,8 @@ describe('team programs: the floor sheet', () => {
     const many = {
       exercises: [...Array(8)].map(() => ({
         ...squat,
-        id: crypto.randomUUID(),
-        sets: squat.sets.map((s) => ({ ...s, id: crypto.randomUUID() })),
+        id: randomUUID(),
+        sets: squat.sets.map((s) => ({ ...s, id: randomUUID() })),
       })),
     };
     const tall = await w.addSession(w.p.id, many, MONDAY);
