@@ -83,6 +83,7 @@ describe('floor sheet: sets and rows', () => {
   it('a dropped set is noted; a held row shows no loads', () => {
     const r = floorRow({ ...base, state: 'needs_decision', dropped: ['Sprint 20 m: Sprint not allowed'] });
     expect(r.note).toBe('Dropped: Sprint 20 m: Sprint not allowed.');
+    expect(r.marked).toBe(true);
     const held = floorRow({ ...base, state: 'fitted', held: true });
     expect(held.lines).toEqual([]);
     expect(held.note).toMatch(/^On hold/);
@@ -110,8 +111,8 @@ describe('floor sheet: sets and rows', () => {
       rows: [row, out],
     });
     expect(records).toEqual([
-      ['A', 'Needs a decision', '', 'kg', 'Back squat', '2 sets of 75 kg × 5', '75 kg: 25 + 2.5 kg a side', 'Dropped: x.'],
-      ['A', 'Needs a decision', '', 'kg', 'Deadlift', '2 sets of 75 kg × 5', '75 kg: 25 + 2.5 kg a side', ''],
+      ['A', 'Needs a decision', 'yes', 'kg', 'Back squat', '2 sets of 75 kg × 5', '75 kg: 25 + 2.5 kg a side', 'Dropped: x.'],
+      ['A', 'Needs a decision', 'yes', 'kg', 'Deadlift', '2 sets of 75 kg × 5', '75 kg: 25 + 2.5 kg a side', ''],
       ['B', 'Out', '', 'kg', '', '', '', 'Out on this date: nothing planned.'],
     ]);
   });

@@ -160,7 +160,8 @@ export function floorRow(a: FloorAthleteInput): FloorRow {
     }));
   if (a.dropped.length) notes.push(`Dropped: ${a.dropped.join('; ')}.`);
   if (a.needsReview && !a.held) notes.push('Waiting for the coach’s review.');
-  const marked = a.state === 'fitted' || (a.state === 'needs_decision' && a.exercises.some((e) => e.changed));
+  // Any row the fitting changed is marked: lowered, cut or swapped (fitted), and dropped (needs a decision).
+  const marked = a.state === 'fitted' || a.state === 'needs_decision';
   return {
     athleteName: a.athleteName,
     unit: a.unit,

@@ -1,8 +1,7 @@
 import { In, type EntityManager } from 'typeorm';
 import { floorRow, type FloorExerciseInput, type FloorSheet, type FloorSetInput } from '../../../policies/load/floor-sheet';
 import { plannedKg } from '../../../policies/load/sets';
-import type { LetterPaper } from '../../../policies/letter-paper';
-import { letterPaperOf } from '../../../policies/letter-paper';
+import { letterPaperOf, type LetterPaper } from '../../../policies/letter-paper';
 import type { Unit } from '../../../policies/schemas/common';
 import type { SessionContent } from '../../../policies/schemas/programs';
 import { Exercise, Program, ProgramSession, SessionHold } from '../entities';

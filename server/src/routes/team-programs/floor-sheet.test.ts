@@ -1,7 +1,9 @@
+import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
+import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { useHarness } from '../../test/harness';
 import { binary, pdfText } from '../letters/letter-fixtures';
-import { pinClock } from '../programs/test-world';
+import { addDays, pinClock, put, TODAY } from '../programs/test-world';
 import { MONDAY, teamWorld } from './team-world';
 
 /**
@@ -118,7 +120,10 @@ describe('team programs: the floor sheet', () => {
     ]);
     expect(of(w.out)).toEqual([[w.name(w.out), 'Out', '', 'kg', '', '', '', 'Out on this date: nothing planned.']]);
     const sprint = of(w.sprint);
-    expect(sprint.map((r) => r[1])).toEqual(['Needs a decision', 'Needs a decision']);
+    expect(sprint.map((r) => r.slice(1, 3))).toEqual([
+      ['Needs a decision', 'yes'],
+      ['Needs a decision', 'yes'],
+    ]);
     expect(sprint[0][7]).toMatch(/^Dropped: Sprint 20 m, 4 sets \(.*blocked/);
     expect(sprint[1][7]).toBe('');
     expect((await w.audit('floor_sheet.downloaded', w.team.id))[0].after).toMatchObject({ format: 'csv' });
@@ -145,11 +150,51 @@ describe('team programs: the floor sheet', () => {
       expect(res.status).toBe(404);
       expect(res.headers['content-disposition']).toBeUndefined();
     }
+    // An athlete's own version is not a team session: it has no floor sheet.
+    const versionId = w.cell(await w.grid(w.p.id), w.hinge).versionId!;
+    expect((await w.coach.get(`${w.base}/team-sessions/${versionId}/floor-sheet.pdf`)).status).toBe(404);
     const athlete = await w.as(w.org.athlete);
     expect((await athlete.get(w.pdfUrl)).status).toBe(404);
     expect((await athlete.get(w.csvUrl)).status).toBe(404);
     // Only the clinician's download was recorded.
     expect(await w.audit('floor_sheet.downloaded', w.team.id)).toHaveLength(1);
+  });
+
+  it('after a limit change, a published row on hold prints no loads, only what to do', async () => {
+    const w = await world();
+    await w.versionAction(w.team.id, w.sprint, 'accept', (await w.version(w.team.id, w.sprint)).version.version);
+    expect((await w.publish(w.p.id, [w.team.id])).status).toBe(200);
+    const stage = {
+      id: randomUUID(),
+      startDate: addDays(TODAY, -30),
+      endDate: addDays(TODAY, 120),
+      painCeiling: 5,
+      patterns: { hinge: { mode: 'capped', caps: { maxPercent1RM: 50 } } },
+    };
+    const revised = await put(w.clinician, `${w.base}/plans/${w.hingePlan.planId}`, { version: 1, stages: [stage], guidance: '' });
+    expect(revised.status, JSON.stringify(revised.body)).toBe(200);
+    const text = await pdfText((await binary(w.coach.get(w.pdfUrl))).body as Buffer);
+    expect(text).not.toContain('Not published yet');
+    // The held version (82.5 kg, over the new 50 % cap of 70 kg) shows no sets at all.
+    expect(text).toContain(`${w.name(w.hinge)} Loads in kg Fitted On hold: the limits changed after this was published.`);
+    expect(text).not.toContain('82.5 kg');
+    const records = parseCsv((await w.coach.get(w.csvUrl)).text).filter((r) => r[0] === w.name(w.hinge));
+    expect(records).toEqual([[w.name(w.hinge), 'Fitted', 'yes', 'kg', '', '', '', expect.stringMatching(/^On hold: /)]]);
+  });
+
+  it("prints landscape on the organization's paper: A4, or US Letter when it chose Letter", async () => {
+    const w = await world();
+    const view = async () => {
+      const doc = await getDocument({ data: new Uint8Array((await binary(w.coach.get(w.pdfUrl))).body as Buffer), isEvalSupported: false })
+        .promise;
+      const v = (await doc.getPage(1)).view.map((x) => Math.round(x * 100) / 100);
+      await doc.destroy();
+      return v;
+    };
+    // ISO 216 A4 is 841.89 × 595.28 pt landscape; ANSI Letter 792 × 612 pt (the test organization's zone is UTC: A4).
+    expect(await view()).toEqual([0, 0, 841.89, 595.28]);
+    await h.ds.query(`UPDATE organizations SET letter_paper = 'letter' WHERE id = $1`, [w.org.id]);
+    expect(await view()).toEqual([0, 0, 792, 612]);
   });
 
   it('pages break with the header repeated on each page', async () => {
@@ -160,8 +205,8 @@ describe('team programs: the floor sheet', () => {
     const many = {
       exercises: [...Array(8)].map(() => ({
         ...squat,
-        id: crypto.randomUUID(),
-        sets: squat.sets.map((s) => ({ ...s, id: crypto.randomUUID() })),
+        id: randomUUID(),
+        sets: squat.sets.map((s) => ({ ...s, id: randomUUID() })),
       })),
     };
     const tall = await w.addSession(w.p.id, many, MONDAY);
