@@ -19,10 +19,12 @@ import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, 
  *   (b) fewer reps where reps are capped (a rep cap, or an RPE cap no load fits at the planned reps),
  *       fewer sets where sets are capped (per session, hard sets per week — the sets the engine
  *       counts beyond the cap are cut);
- *   (c) a swap of the exercise row: first the exercise's "use instead" list in order, then library
- *       exercises sharing a movement pattern that are allowed on the date, then exercises with no
- *       pattern (allowed everywhere: a non-impact conditioning piece for a blocked sprint). The load
- *       is resolved again for the new exercise;
+ *   (c) a swap of the exercise row: first the exercise's "use instead" list in order (which may name an
+ *       exercise with no pattern, allowed everywhere: a non-impact conditioning piece for a blocked
+ *       sprint), then library exercises sharing a movement pattern that are allowed on the date. An
+ *       exercise with no pattern is reached only through "use instead": as a mere fallback it would
+ *       turn any blocked lift into, say, arm bike intervals carrying the lift's kilograms. The load is
+ *       resolved again for the new exercise;
  *   (d) otherwise the set is dropped, with a note.
  * The loop checks again after each round of fixes until the engine blocks none of the session's sets;
  * a set still blocked after the last round is dropped, so what is returned always passes the engine.
@@ -236,7 +238,8 @@ function drop(slot: Slot, notes: string[]) {
 function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
   const original = ctx.exercises[row.teamExerciseId];
   if (row.swaps === null) {
-    const library = Object.values(ctx.exercises);
+    // The pattern family only: no-pattern exercises come from "use instead" (see (c) above).
+    const library = Object.values(ctx.exercises).filter((e) => e.patterns.length > 0);
     const preferred = (original?.useInstead ?? []).filter((id) => id !== row.teamExerciseId && ctx.exercises[id]);
     const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
     row.swaps = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
