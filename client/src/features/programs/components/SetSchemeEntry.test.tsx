@@ -101,6 +101,7 @@ describe('quick entry in the session editor', () => {
     ballistic: false,
     steps: { kind: 'increment', step: 2.5, unit: 'kg' },
     referenceId: null,
+    useInstead: [],
     archived: false,
     version: 1,
   };
