@@ -83,16 +83,19 @@ export async function floorSheetFor(m: EntityManager, actor: ActorWithOrg, teamS
         insteadOf: swap ? nameOf(swap.exerciseId) : null,
       };
     });
-    // Dropped sets, counted per exercise and reason: "Sprint 20 m, 4 sets (Sprint: Sprint is blocked)".
-    const droppedBy = new Map<string, number>();
+    // Dropped sets, counted per exercise and reason: "Sprint 20 m, 4 sets (Sprint: Sprint is blocked)"; a change
+    // about a whole exercise row (no set named) drops all of its sets.
+    const droppedBy = new Map<string, { name: string; note: string; sets: number; whole: boolean }>();
     for (const c of changes.filter((x) => x.kind === 'dropped')) {
-      const key = `${nameOf(c.exerciseId)}\u0000${c.note}`;
-      droppedBy.set(key, (droppedBy.get(key) ?? 0) + 1);
+      const key = `${c.teamExerciseRowId}\u0000${c.note}`;
+      const entry = droppedBy.get(key) ?? { name: nameOf(c.exerciseId), note: c.note, sets: 0, whole: false };
+      if (c.teamSetId === null) entry.whole = true;
+      else entry.sets++;
+      droppedBy.set(key, entry);
     }
-    const dropped = [...droppedBy].map(([key, count]) => {
-      const [name, note] = key.split('\u0000');
-      return `${name}, ${count} ${count === 1 ? 'set' : 'sets'}${note ? ` (${note})` : ''}`;
-    });
+    const dropped = [...droppedBy.values()].map(
+      (d) => `${d.name}, ${d.whole ? 'all sets' : `${d.sets} ${d.sets === 1 ? 'set' : 'sets'}`}${d.note ? ` (${d.note})` : ''}`,
+    );
     rows.push(
       floorRow({
         athleteName: names.get(athleteId) ?? 'Unknown athlete',
