@@ -293,9 +293,10 @@ export function fitAll(team: TeamSession[], athletes: Athlete[], states?: Map<Fi
       }
       const fitted = fitTeamSession(t, a.ctx, { otherSets: weekSets });
       if (states) states.set(fitted.state, (states.get(fitted.state) ?? 0) + 1);
-      const own = sessionEngineSets({ id: t.id, date: t.date, content: fitted.content });
-      weekSets = weekSets.concat(own);
-      for (const s of own) sets.push(s);
+      for (const s of sessionEngineSets({ id: t.id, date: t.date, content: fitted.content })) {
+        weekSets.push(s);
+        sets.push(s);
+      }
     }
     return sets;
   });

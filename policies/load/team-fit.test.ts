@@ -59,6 +59,25 @@ describe('fitTeamSession', () => {
     expect(fit.content.exercises[1]).toEqual(t.content.exercises[1]);
   });
 
+  it("an athlete whose plan touches none of the session's exercises gets the team session unchanged; an unreadable set is still dropped", () => {
+    const t = team([
+      { exerciseId: 'bp', sets: times(3, { reps: 8, load: { kind: 'kg', value: 60 }, targetRpe: 7 }) },
+      { exerciseId: 'bj', sets: times(2, { reps: 3, load: { kind: 'bodyweight' } }) },
+    ]);
+    // A hinge cap and a sprint block are in force: the bench press and the box jump are not theirs.
+    const ctx = c({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxHardSetsPerWeek: 2 } }, sprint: { mode: 'blocked' } });
+    expect(fitTeamSession(t, ctx)).toEqual({ content: t.content, changes: [], state: 'as_written' });
+    const bad = team([{ exerciseId: 'bp', sets: [{ reps: 0, load: { kind: 'kg', value: 60 } }] }]);
+    for (const ctxBad of [ctx, c({})]) {
+      const fit = fitTeamSession(bad, ctxBad);
+      expect(fit.state).toBe('needs_decision');
+      expect(fit.changes[0]).toMatchObject({
+        kind: 'dropped',
+        note: 'Bench press: this set cannot be checked: its reps are not a whole number of at least 1. Fix the set.',
+      });
+    }
+  });
+
   it('without a 1RM the % stays a % (resolution needs a baseline)', () => {
     const t = team([{ exerciseId: 'dl', sets: [{ reps: 5, load: { kind: 'percent', value: 75 } }] }]);
     expect(fitTeamSession(t, c({})).content).toEqual(t.content);

@@ -87,6 +87,17 @@ interface Row {
 
 function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
   const ex = ctx.exercises[r.exerciseId];
+  // A row's sets usually share their % of 1RM: resolved once per value (loads are never changed in place).
+  let lastPercent: number | null = null;
+  let lastLoad: PlannedSetInput['load'] | null = null;
+  const resolve = (load: PlannedSetInput['load']) => {
+    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, ctx.baselines) : load;
+    if (load.value !== lastPercent || lastLoad === null) {
+      lastPercent = load.value;
+      lastLoad = resolveLoad(load, ex, ctx.baselines);
+    }
+    return lastLoad;
+  };
   return {
     id: r.id,
     teamExerciseId: r.exerciseId,
@@ -94,7 +105,7 @@ function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row
     ex,
     notes: r.notes,
     slots: r.sets.map((s) => {
-      const asWritten = ex ? { ...s, load: resolveLoad(s.load, ex, ctx.baselines) } : { ...s };
+      const asWritten = ex ? { ...s, load: resolve(s.load) } : { ...s };
       return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: [] };
     }),
     swaps: null,
@@ -346,39 +357,55 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
 
 function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
   const changes: FitChange[] = [];
+  // The sets of a row are mostly alike: the words of the last set are kept for the next one like it.
+  const lastWords = (): ((set: PlannedSetInput) => string) => {
+    let last: PlannedSetInput | null = null;
+    let words = '';
+    return (set) => {
+      if (last === null || !sameSet(last, set)) words = setWords((last = set), unit);
+      return words;
+    };
+  };
+  const notesOf = (notes: string[]) => [...new Set(notes)].join('; ');
   for (const row of rows) {
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
+    const beforeWords = lastWords();
+    const afterWords = lastWords();
+    const rowNote = swapped ? notesOf(row.swapNotes) : '';
     for (const slot of row.slots) {
       // Untouched since it was resolved: as written (the words below are built only for a change).
       if (!swapped && slot.set === slot.asWritten) continue;
       const asWritten = slot.asWritten;
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${setWords(asWritten, unit)}`;
+      const set = slot.set;
+      if (!swapped && set !== null) {
+        if (sameSet(set, asWritten)) continue;
+        // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
+        const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
+        const kgNow = plannedKg(set.load, undefined);
+        const onlyRounded =
+          floor !== null &&
+          kgNow !== null &&
+          kgNow >= floor - 1e-6 &&
+          set.reps === asWritten.reps &&
+          (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
+        if (onlyRounded) continue;
+      }
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords(asWritten)}`;
       const base = { teamExerciseRowId: row.id, teamSetId: slot.team.id, exerciseId: row.teamExerciseId, before };
-      const note = [...new Set([...(swapped ? row.swapNotes : []), ...slot.notes])].join('; ');
-      if (slot.set === null) {
+      const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
+      if (set === null) {
         changes.push({ ...base, kind: slot.removed ?? 'dropped', after: null, note: note || 'Nothing allowed fits this set' });
         continue;
       }
       if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${setWords(slot.set, unit)}`;
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords(set)}`;
         changes.push({ ...base, kind: 'swapped', swappedToExerciseId: row.exerciseId, after, note });
         continue;
       }
-      if (sameSet(slot.set, asWritten)) continue;
-      // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
-      const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
-      const kgNow = plannedKg(slot.set.load, undefined);
-      const onlyRounded =
-        floor !== null &&
-        kgNow !== null &&
-        kgNow >= floor - 1e-6 &&
-        slot.set.reps === asWritten.reps &&
-        (slot.set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
-      if (onlyRounded) continue;
-      const kind: FitChangeKind = slot.repsCut || slot.set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ ...base, kind, after: setWords(slot.set, unit), note });
+      const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
+      changes.push({ ...base, kind, after: afterWords(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
