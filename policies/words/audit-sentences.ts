@@ -123,6 +123,10 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'team_version.accepted': (who, e) => `${who} reviewed ${whose(e, 'version of a team session')}`,
   'team_version.reset': (who, e) => `${who} fitted ${whose(e, 'version of a team session')} again from the team session`,
   'team_version.as_written': (who, e) => `${who} set ${whose(e, 'version of a team session')} to the team's sets as written`,
+  'floor_sheet.downloaded': (who, e) => {
+    const format = field(e.after, 'format');
+    return `${who} downloaded the floor sheet of a team session${format === 'csv' ? ' (CSV)' : format === 'pdf' ? ' (PDF)' : ''}`;
+  },
   'exception.requested': (who, e) => `${who} asked for an exception to ${whose(e, 'limits')}`,
   'exception.granted': (who, e) => `${who} granted an exception to ${whose(e, 'limits')}`,
   'exception.refused': (who, e) => `${who} refused an exception to ${whose(e, 'limits')}`,

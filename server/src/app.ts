@@ -31,6 +31,7 @@ import { noticePreferenceRoutes } from './routes/notice-preferences/notice-prefe
 import { exerciseRoutes } from './routes/programs/exercises.router';
 import { programRoutes } from './routes/programs/programs.router';
 import { exceptionRoutes } from './routes/programs/exceptions.router';
+import { floorSheetRoutes } from './routes/team-programs/floor-sheet.router';
 import { teamProgramRoutes } from './routes/team-programs/team-programs.router';
 import { groupRoutes } from './routes/groups/groups.router';
 import { rosterRoutes } from './routes/programs/roster.router';
@@ -133,6 +134,7 @@ export function buildApp(base: AppDeps) {
     ...programRoutes,
     ...exceptionRoutes,
     ...teamProgramRoutes,
+    ...floorSheetRoutes,
     ...groupRoutes,
     ...rosterRoutes,
     ...letterRoutes(deps),

@@ -142,6 +142,8 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/team-sessions/:id/versions/:athleteId/accept  ⇒  member: update Program",
         "POST   /api/orgs/:orgId/team-sessions/:id/versions/:athleteId/reset  ⇒  member: update Program",
         "POST   /api/orgs/:orgId/team-sessions/:id/versions/:athleteId/as-written  ⇒  member: update Program",
+        "GET    /api/orgs/:orgId/team-sessions/:id/floor-sheet.pdf  ⇒  member: read Program",
+        "GET    /api/orgs/:orgId/team-sessions/:id/floor-sheet.csv  ⇒  member: read Program",
         "GET    /api/orgs/:orgId/groups  ⇒  member: read Group",
         "POST   /api/orgs/:orgId/groups  ⇒  member: create Group",
         "GET    /api/orgs/:orgId/groups/:id  ⇒  member: read Group",
