@@ -246,6 +246,18 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
   await page.getByRole('link', { name: '← The team program' }).click();
   await expect(cellLink(page, hinge.name, 'Fitted \\(3 changes\\) · Published$')).toBeVisible();
 
+  // Two more (empty) team sessions, so the grid is wider than a phone.
+  const programId = new URL(page.url()).pathname.split('/')[3];
+  for (const [day, title] of [
+    [5, 'Squad speed (e2e)'],
+    [7, 'Squad lift B (e2e)'],
+  ] as const)
+    await apiWrite(page.request, 'post', `/orgs/${orgId}/team-programs/${programId}/sessions`, {
+      date: isoDay(day),
+      title,
+      content: { exercises: [] },
+    });
+
   // At 390 px the grid scrolls inside its own box, the athlete column stays put, and the page itself does not scroll sideways.
   const phoneContext = await browser.newContext(
     contextOptions(testInfo, { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true, userAgent: undefined }),
@@ -253,7 +265,7 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
   try {
     const phone = await phoneContext.newPage();
     await signIn(phone, cast.coachEmail, DEMO_PASSWORD);
-    await phone.goto(page.url());
+    await phone.goto(`/coach/team-programs/${programId}`);
     await expectHome(phone, PROGRAM);
     const grid = gridOf(phone);
     await grid.scrollIntoViewIfNeeded();
