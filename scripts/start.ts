@@ -8,6 +8,7 @@ import { createLogger } from '../server/src/logger';
 import { startServer } from '../server/src/server';
 import { createDataSource } from '../server/src/data-source';
 import { DEMO_PASSWORD, DEMO_PEOPLE, loadDemo } from '../server/src/seed/demo';
+import { SQUAD } from '../server/src/seed/demo-squad';
 import { auditSealKey, buildClient, migrate, openDatabase, sessionSecret } from './runtime';
 import { startFakeSmtp, type FakeSmtp } from '../server/src/mail/fake-smtp';
 
@@ -66,6 +67,7 @@ try {
   );
   console.log(`Demo accounts (password for all: ${DEMO_PASSWORD}):`);
   for (const p of DEMO_PEOPLE) console.log(`  ${p.email.padEnd(width)}  ${p.roles.join(', ').padEnd(9)}  ${p.name}`);
+  console.log(`  …and Maya's softball infield squad, e.g. ${SQUAD[0].email} (${SQUAD[0].name}), ${SQUAD.length} athletes in all.`);
   console.log('\nPress Ctrl-C to stop.\n');
 
   for (const signal of ['SIGINT', 'SIGTERM'] as const) {

@@ -14,6 +14,8 @@ export interface ExerciseDto {
   ballistic: boolean;
   steps: LoadSteps;
   referenceId: string | null;
+  /** Exercises to use instead when this one is not allowed, in order of preference (ids in this library). */
+  useInstead: string[];
   archived: boolean;
   version: number;
 }

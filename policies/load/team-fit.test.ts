@@ -7,7 +7,7 @@ import { fitTeamSession } from './team-fit';
 import type { SessionContent } from '../schemas/programs';
 
 // The fitting order of a team session for one athlete (team-fit.ts), one hand-built case per step.
-const sprint = ex('spr', 'Flying sprint', ['sprint'], { ballistic: true });
+const sprint = ex('spr', 'Flying sprint', ['sprint'], { ballistic: true, useInstead: ['bike'] });
 const bike = ex('bike', 'Assault bike intervals', []);
 const legPress = ex('lp', 'Leg press', ['squat']);
 const squatUse = ex('sq', 'Back squat', ['squat'], { useInstead: ['lp'] });
@@ -57,6 +57,25 @@ describe('fitTeamSession', () => {
       times(3, { reps: 5, load: { kind: 'kg', value: 107.5 } }).map((s) => s.load),
     );
     expect(fit.content.exercises[1]).toEqual(t.content.exercises[1]);
+  });
+
+  it("an athlete whose plan touches none of the session's exercises gets the team session unchanged; an unreadable set is still dropped", () => {
+    const t = team([
+      { exerciseId: 'bp', sets: times(3, { reps: 8, load: { kind: 'kg', value: 60 }, targetRpe: 7 }) },
+      { exerciseId: 'bj', sets: times(2, { reps: 3, load: { kind: 'bodyweight' } }) },
+    ]);
+    // A hinge cap and a sprint block are in force: the bench press and the box jump are not theirs.
+    const ctx = c({ hinge: { mode: 'capped', caps: { maxPercent1RM: 60, maxHardSetsPerWeek: 2 } }, sprint: { mode: 'blocked' } });
+    expect(fitTeamSession(t, ctx)).toEqual({ content: t.content, changes: [], state: 'as_written' });
+    const bad = team([{ exerciseId: 'bp', sets: [{ reps: 0, load: { kind: 'kg', value: 60 } }] }]);
+    for (const ctxBad of [ctx, c({})]) {
+      const fit = fitTeamSession(bad, ctxBad);
+      expect(fit.state).toBe('needs_decision');
+      expect(fit.changes[0]).toMatchObject({
+        kind: 'dropped',
+        note: 'Bench press: this set cannot be checked: its reps are not a whole number of at least 1. Fix the set.',
+      });
+    }
   });
 
   it('without a 1RM the % stays a % (resolution needs a baseline)', () => {
@@ -162,7 +181,7 @@ describe('fitTeamSession', () => {
     expect(passes(fit.content, blocked)).toEqual([]);
   });
 
-  it('(c) a sprint under a sprint block becomes a conditioning piece with no movement pattern (allowed everywhere)', () => {
+  it('(c) a sprint under a sprint block becomes its "use instead" conditioning piece with no movement pattern (allowed everywhere)', () => {
     const t = team([{ exerciseId: 'spr', sets: times(6, { reps: 1, load: { kind: 'bodyweight' } }) }]);
     const ctx = c({ sprint: { mode: 'blocked' } });
     const fit = fitTeamSession(t, ctx);
@@ -170,6 +189,18 @@ describe('fitTeamSession', () => {
     expect(fit.changes.every((x) => x.kind === 'swapped' && x.swappedToExerciseId === 'bike')).toBe(true);
     expect(fit.changes[0].note).toBe('Sprint: Sprint is blocked');
     expect(fit.state).toBe('fitted');
+  });
+
+  it('(c) an exercise with no pattern is not a fallback for a lift that does not name it: a blocked bench press is dropped, not turned into bike intervals', () => {
+    const t = team([{ exerciseId: 'bp', sets: [{ reps: 5, load: { kind: 'kg', value: 60 }, targetRpe: 6 }] }]);
+    const ctx = c({ horizontal_push: { mode: 'blocked' } });
+    const fit = fitTeamSession(t, ctx);
+    expect(fit.content.exercises.flatMap((e) => e.sets)).toEqual([]);
+    expect(fit.changes.map((x) => x.kind)).toEqual(['dropped']);
+    expect(fit.state).toBe('needs_decision');
+    // Named as its "use instead", the same bike is taken.
+    const named = { ...ctx, exercises: { ...exs, bp: { ...exs.bp, useInstead: ['bike'] } } };
+    expect(fitTeamSession(t, named).content.exercises[0].exerciseId).toBe('bike');
   });
 
   it('(d) nothing allowed fits: the set is dropped with a note and the session needs a decision', () => {

@@ -6,7 +6,9 @@ import { exerciseRules, suggestSwaps, type EngineExercise, type ExerciseRules } 
 import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
 import { PATTERN_LABELS } from './patterns';
-import { plannedKg, sessionEngineSets, type EngineSet } from './sets';
+import { isIsoDate } from './guard';
+import { unreadable } from './check-support';
+import { plannedKg, type EngineSet } from './sets';
 import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
 import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
 
@@ -19,10 +21,12 @@ import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, 
  *   (b) fewer reps where reps are capped (a rep cap, or an RPE cap no load fits at the planned reps),
  *       fewer sets where sets are capped (per session, hard sets per week — the sets the engine
  *       counts beyond the cap are cut);
- *   (c) a swap of the exercise row: first the exercise's "use instead" list in order, then library
- *       exercises sharing a movement pattern that are allowed on the date, then exercises with no
- *       pattern (allowed everywhere: a non-impact conditioning piece for a blocked sprint). The load
- *       is resolved again for the new exercise;
+ *   (c) a swap of the exercise row: first the exercise's "use instead" list in order (which may name an
+ *       exercise with no pattern, allowed everywhere: a non-impact conditioning piece for a blocked
+ *       sprint), then library exercises sharing a movement pattern that are allowed on the date. An
+ *       exercise with no pattern is reached only through "use instead": as a mere fallback it would
+ *       turn any blocked lift into, say, arm bike intervals carrying the lift's kilograms. The load is
+ *       resolved again for the new exercise;
  *   (d) otherwise the set is dropped, with a note.
  * The loop checks again after each round of fixes until the engine blocks none of the session's sets;
  * a set still blocked after the last round is dropped, so what is returned always passes the engine.
@@ -42,12 +46,16 @@ export function fitTeamSession(
   const engine: EngineContext = { ...ctx, waivedSetIds: undefined };
   const unit = ctx.unit ?? 'kg';
   const rows = team.content.exercises.map((r) => newRow(r, ctx));
-  if (ctx.plans.length === 0 && rows.every((r) => r.ex)) {
-    // No plan: nothing can be capped or blocked, only unreadable sets can breach.
-    fitLoop(team, rows, engine, []);
+  // No plan and every exercise known: the check runs with no day (nothing to read rules from).
+  const day = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : inForceOn(ctx.plans, team.date);
+  if (!day || day.stages.length === 0) {
+    // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
+    // unreadable set can breach. Most versions of a team session are this; when every set reads,
+    // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
+    if (allReadable(team, rows)) return finish(rows, unit, ctx);
+    fitLoop(team, rows, engine, [], day);
     return finish(rows, unit, ctx);
   }
-  const day = inForceOn(ctx.plans, team.date);
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   const weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
   const others = weekly ? (opts.otherSets ?? []).filter((s) => s.sessionId !== team.id) : [];
@@ -57,6 +65,8 @@ export function fitTeamSession(
 
 interface Slot {
   team: PlannedSetInput;
+  /** The team's set resolved for this athlete (a % of 1RM as a load on the steps): the set unchanged. */
+  asWritten: PlannedSetInput;
   /** The set as it stands now; null once removed. */
   set: PlannedSetInput | null;
   removed: 'sets_cut' | 'dropped' | null;
@@ -77,22 +87,87 @@ interface Row {
 
 function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
   const ex = ctx.exercises[r.exerciseId];
+  // A row's sets usually share their % of 1RM: resolved once per value (loads are never changed in place).
+  let lastPercent: number | null = null;
+  let lastLoad: PlannedSetInput['load'] | null = null;
+  const resolve = (load: PlannedSetInput['load']) => {
+    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, ctx.baselines) : load;
+    if (load.value !== lastPercent || lastLoad === null) {
+      lastPercent = load.value;
+      lastLoad = resolveLoad(load, ex, ctx.baselines);
+    }
+    return lastLoad;
+  };
   return {
     id: r.id,
     teamExerciseId: r.exerciseId,
     exerciseId: r.exerciseId,
     ex,
     notes: r.notes,
-    slots: r.sets.map((s) => ({
-      team: s,
-      set: ex ? { ...s, load: resolveLoad(s.load, ex, ctx.baselines) } : { ...s },
-      removed: null,
-      repsCut: false,
-      notes: [],
-    })),
+    slots: r.sets.map((s) => {
+      const asWritten = ex ? { ...s, load: resolve(s.load) } : { ...s };
+      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: [] };
+    }),
     swaps: null,
     swapNotes: [],
   };
+}
+
+/** Every exercise known and every set readable on the date, as the engine reads them (check-support's unreadable). */
+function allReadable(team: { id: string; date: string }, rows: Row[]): boolean {
+  if (!isIsoDate(team.date) || !rows.every((r) => r.ex)) return false;
+  const valid = (d: string) => d === team.date;
+  return engineSetsOf(team, rows).every((s) => unreadable(s, valid) === null);
+}
+
+/**
+ * The session's sets as the engine reads them: sessionEngineSets(contentOf(rows)) without building the
+ * content. `skip` leaves out a row's sets (numbered all the same, so the others keep their order).
+ */
+function engineSetsOf(team: { id: string; date: string }, rows: Row[], skip?: (row: Row) => boolean): EngineSet[] {
+  const out: EngineSet[] = [];
+  let order = 0;
+  for (const r of rows) {
+    const skipped = skip?.(r) ?? false;
+    for (const slot of r.slots) {
+      const s = slot.set;
+      if (s === null) continue;
+      if (skipped) {
+        order++;
+        continue;
+      }
+      out.push({
+        id: s.id,
+        sessionId: team.id,
+        date: team.date,
+        exerciseId: r.exerciseId,
+        reps: s.reps,
+        load: s.load,
+        targetRpe: s.targetRpe ?? null,
+        warmUp: s.warmUp ?? false,
+        order: order++,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * An exercise no rule in force touches (exerciseRules): not blocked, no impact rule it could break, no
+ * cap on load, % of 1RM, RPE or reps, no counted limit. The engine can find nothing against its
+ * readable sets, and they count toward no limit (only capped patterns are counted), so they need not
+ * be checked; a set that cannot be read is still checked (the engine says why).
+ */
+function untouched(ex: EngineExercise, r: ExerciseRules): boolean {
+  return (
+    r.blocked === null &&
+    (r.impactOff === null || !ex.ballistic) &&
+    r.pct === null &&
+    r.abs === null &&
+    r.rpe === null &&
+    r.reps === null &&
+    r.capped.every((c) => c.maxSets === undefined && c.maxHard === undefined)
+  );
 }
 
 function contentOf(rows: Row[]): SessionContent {
@@ -120,13 +195,28 @@ function fitLoop(team: { id: string; date: string }, rows: Row[], ctx: EngineCon
     if (!r && day) rulesCache.set(ex.id, (r = exerciseRules(ex, day)));
     return r;
   };
+  const valid = (d: string) => d === team.date;
+  const skip = (row: Row) => {
+    if (!row.ex || !day) return false;
+    const r = rulesOf(row.ex);
+    return r !== undefined && untouched(row.ex, r) && engineSetsOf(team, [row]).every((s) => unreadable(s, valid) === null);
+  };
+  const validDate = isIsoDate(team.date);
   for (let round = 0; ; round++) {
-    const sets = sessionEngineSets({ id: team.id, date: team.date, content: contentOf(rows) });
+    const sets = engineSetsOf(team, rows, validDate ? skip : undefined);
+    // Nothing left that a rule in force touches: the engine would find nothing against the session.
+    if (sets.length === 0) return round;
+    const all = checkSets(others.length ? [...sets, ...others] : sets, ctx);
+    if (all.length === 0) return round;
     const ours = new Set(sets.map((s) => s.id));
-    const breaches = blockingBreaches(checkSets(others.length ? [...sets, ...others] : sets, ctx)).filter((b) => ours.has(b.setId));
+    const breaches = blockingBreaches(all).filter((b) => ours.has(b.setId));
     if (breaches.length === 0) return round;
     const bySet = new Map<string, Breach[]>();
-    for (const b of breaches) bySet.set(b.setId, [...(bySet.get(b.setId) ?? []), b]);
+    for (const b of breaches) {
+      const list = bySet.get(b.setId);
+      if (list) list.push(b);
+      else bySet.set(b.setId, [b]);
+    }
     const last = round >= MAX_ROUNDS;
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
@@ -236,7 +326,8 @@ function drop(slot: Slot, notes: string[]) {
 function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
   const original = ctx.exercises[row.teamExerciseId];
   if (row.swaps === null) {
-    const library = Object.values(ctx.exercises);
+    // The pattern family only: no-pattern exercises come from "use instead" (see (c) above).
+    const library = Object.values(ctx.exercises).filter((e) => e.patterns.length > 0);
     const preferred = (original?.useInstead ?? []).filter((id) => id !== row.teamExerciseId && ctx.exercises[id]);
     const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
     row.swaps = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
@@ -266,37 +357,55 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
 
 function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
   const changes: FitChange[] = [];
+  // The sets of a row are mostly alike: the words of the last set are kept for the next one like it.
+  const lastWords = (): ((set: PlannedSetInput) => string) => {
+    let last: PlannedSetInput | null = null;
+    let words = '';
+    return (set) => {
+      if (last === null || !sameSet(last, set)) words = setWords((last = set), unit);
+      return words;
+    };
+  };
+  const notesOf = (notes: string[]) => [...new Set(notes)].join('; ');
   for (const row of rows) {
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
+    const beforeWords = lastWords();
+    const afterWords = lastWords();
+    const rowNote = swapped ? notesOf(row.swapNotes) : '';
     for (const slot of row.slots) {
-      const asWritten = teamEx ? { ...slot.team, load: resolveLoad(slot.team.load, teamEx, ctx.baselines) } : slot.team;
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${setWords(asWritten, unit)}`;
+      // Untouched since it was resolved: as written (the words below are built only for a change).
+      if (!swapped && slot.set === slot.asWritten) continue;
+      const asWritten = slot.asWritten;
+      const set = slot.set;
+      if (!swapped && set !== null) {
+        if (sameSet(set, asWritten)) continue;
+        // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
+        const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
+        const kgNow = plannedKg(set.load, undefined);
+        const onlyRounded =
+          floor !== null &&
+          kgNow !== null &&
+          kgNow >= floor - 1e-6 &&
+          set.reps === asWritten.reps &&
+          (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
+        if (onlyRounded) continue;
+      }
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords(asWritten)}`;
       const base = { teamExerciseRowId: row.id, teamSetId: slot.team.id, exerciseId: row.teamExerciseId, before };
-      const note = [...new Set([...(swapped ? row.swapNotes : []), ...slot.notes])].join('; ');
-      if (slot.set === null) {
+      const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
+      if (set === null) {
         changes.push({ ...base, kind: slot.removed ?? 'dropped', after: null, note: note || 'Nothing allowed fits this set' });
         continue;
       }
       if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${setWords(slot.set, unit)}`;
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords(set)}`;
         changes.push({ ...base, kind: 'swapped', swappedToExerciseId: row.exerciseId, after, note });
         continue;
       }
-      if (sameSet(slot.set, asWritten)) continue;
-      // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
-      const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
-      const kgNow = plannedKg(slot.set.load, undefined);
-      const onlyRounded =
-        floor !== null &&
-        kgNow !== null &&
-        kgNow >= floor - 1e-6 &&
-        slot.set.reps === asWritten.reps &&
-        (slot.set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
-      if (onlyRounded) continue;
-      const kind: FitChangeKind = slot.repsCut || slot.set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ ...base, kind, after: setWords(slot.set, unit), note });
+      const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
+      changes.push({ ...base, kind, after: afterWords(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';

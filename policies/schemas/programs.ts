@@ -33,6 +33,12 @@ export const LoadStepsSchema = z.discriminatedUnion(
   { message: 'must be an increment or a list of loads' },
 );
 
+/**
+ * "Use instead": the library exercises to use, in order of preference, when this one is not allowed for an
+ * athlete (the team fitting tries them before any other of the same pattern family). At most six.
+ */
+export const MAX_USE_INSTEAD = 6;
+
 /** An exercise's fields, each as sent: no defaults here, so neither schema below can invent a value. */
 const ExerciseFields = {
   name: text(120).min(1, { message: 'is required' }),
@@ -41,6 +47,10 @@ const ExerciseFields = {
   ballistic: z.boolean({ message: 'must be yes or no' }),
   steps: LoadStepsSchema,
   referenceId: UuidSchema.nullable(),
+  useInstead: z
+    .array(UuidSchema)
+    .max(MAX_USE_INSTEAD, { message: `must name at most ${MAX_USE_INSTEAD} exercises` })
+    .refine((ids) => new Set(ids.map((id) => id.toLowerCase())).size === ids.length, { message: 'must not name an exercise twice' }),
 };
 
 /** A new exercise: one that names no movement pattern counts toward none. */
@@ -48,6 +58,7 @@ export const ExerciseCreateSchema = z.strictObject({
   ...ExerciseFields,
   patterns: ExerciseFields.patterns.default([]),
   referenceId: ExerciseFields.referenceId.optional(),
+  useInstead: ExerciseFields.useInstead.default([]),
 });
 export type ExerciseCreateInput = z.infer<typeof ExerciseCreateSchema>;
 
@@ -63,6 +74,7 @@ export const ExerciseUpdateSchema = z.strictObject({
   ballistic: ExerciseFields.ballistic.optional(),
   steps: ExerciseFields.steps.optional(),
   referenceId: ExerciseFields.referenceId.optional(),
+  useInstead: ExerciseFields.useInstead.optional(),
   archived: z.boolean({ message: 'must be yes or no' }).optional(),
   version: VersionSchema,
 });

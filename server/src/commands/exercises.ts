@@ -17,6 +17,26 @@ async function checkReference(ctx: OrgCommandCtx, referenceId: string | null | u
     });
 }
 
+/**
+ * "Use instead" names exercises of this library, never the exercise itself. An id of another
+ * organization's exercise reads as unknown (the same 400 as one that does not exist), so nothing of
+ * another library shows through. The team fitting skips archived ones (services/programs.ts engineContext).
+ */
+async function checkUseInstead(ctx: OrgCommandCtx, ids: readonly string[] | undefined, self?: Pick<Exercise, 'id' | 'useInstead'>) {
+  if (!ids || ids.length === 0) return;
+  const bad = (message: string) =>
+    new AppError('validation_failed', `Please check the form: useInstead ${message}.`, { useInstead: [message] });
+  if (self && ids.some((id) => id.toLowerCase() === self.id.toLowerCase())) throw bad('cannot name the exercise itself');
+  const found: { id: string; archived: boolean }[] = await ctx.m.query(
+    `SELECT id, archived FROM exercises WHERE organization_id = $1 AND id = ANY($2::uuid[])`,
+    [ctx.actor.organizationId, ids],
+  );
+  if (found.length !== new Set(ids.map((id) => id.toLowerCase())).size) throw bad('must name exercises of this library');
+  // One archived since it was named may stay (an edit of the name still sends the list); a new one may not.
+  const kept = new Set((self?.useInstead ?? []).map((id) => id.toLowerCase()));
+  if (found.some((e) => e.archived && !kept.has(e.id))) throw bad('must not name an archived exercise');
+}
+
 const nameTaken = (name: string | undefined) =>
   new AppError('conflict', `The library already has an exercise named "${name}".`, { name: ['is already in the library'] });
 
@@ -25,6 +45,7 @@ export const createExercise = orgCommand({
   async run(ctx, input: ExerciseCreateInput): Promise<ExerciseDto> {
     authorize(ctx.ability, 'create', 'Exercise', { id: '', organizationId: ctx.actor.organizationId });
     await checkReference(ctx, input.referenceId);
+    await checkUseInstead(ctx, input.useInstead);
     try {
       const saved = await ctx.m.save(
         ctx.m.create(Exercise, { organizationId: ctx.actor.organizationId, ...input, referenceId: input.referenceId ?? null }),
@@ -63,6 +84,7 @@ export const editExercise = orgCommand({
     const ex = await ctx.m.findOne(Exercise, { where: { id, organizationId: ctx.actor.organizationId } });
     authorize(ctx.ability, 'update', 'Exercise', ex);
     await checkReference(ctx, changes.referenceId);
+    await checkUseInstead(ctx, changes.useInstead, ex);
     if (changes.referenceId === ex.id)
       throw new AppError('validation_failed', 'Please check the form: referenceId cannot be the exercise itself.', {
         referenceId: ['cannot be the exercise itself'],

@@ -74,10 +74,9 @@ export const publishTeamSessions = orgCommand({
           );
         else if (version.fitState === 'needs_decision' && !version.overridden && !version.reviewedAt)
           words.unshift(
-            `Something could not be made to fit and was dropped: ${version.fitChanges
-              .filter((c) => c.kind === 'dropped')
-              .map((c) => c.note)
-              .join('; ')}. Accept the drop, edit the version, or ask the clinician for an exception.`,
+            `Something could not be made to fit and was dropped: ${[
+              ...new Set(version.fitChanges.filter((c) => c.kind === 'dropped').map((c) => c.note)),
+            ].join('; ')}. Accept the drop, edit the version, or ask the clinician for an exception.`,
           );
         if (words.length)
           problems.push({

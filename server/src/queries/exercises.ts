@@ -14,6 +14,7 @@ export const toExerciseDto = (e: Exercise): ExerciseDto => ({
   ballistic: e.ballistic,
   steps: e.steps,
   referenceId: e.referenceId,
+  useInstead: e.useInstead ?? [],
   archived: e.archived,
   version: e.version,
 });

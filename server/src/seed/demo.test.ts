@@ -5,7 +5,9 @@ import { signedIn, useHarness } from '../test/harness';
 import { DEMO_PASSWORD, loadDemo } from './demo';
 import { DEMO_TIME_ZONE } from './demo-zone';
 import { SEASON_DAYS } from './demo-season';
+import { SQUAD } from './demo-squad';
 import { jargonIn } from '../../../policies/plain-words';
+import type { TeamGridDto, TeamVersionDto } from '../../../policies/dto/teams';
 
 const at = (local: string) => `${local}@harborpoint.example`;
 
@@ -53,9 +55,10 @@ describe('the demo scenario', () => {
               (SELECT count(*)::int FROM check_ins c WHERE c.athlete_id = a.membership_id) AS checkins,
               (SELECT min(date)::text FROM check_ins c WHERE c.athlete_id = a.membership_id) AS first
          FROM athlete_profiles a JOIN memberships m ON m.id = a.membership_id JOIN users u ON u.id = m.user_id
-        WHERE a.organization_id = $1`,
-      [organizationId],
+        WHERE a.organization_id = $1 AND NOT (u.email = ANY($2))`,
+      [organizationId, SQUAD.map((p) => p.email)],
     );
+    // The infield squad's team-mates joined the app with their group this week: the season is the first five's.
     expect(rows).toHaveLength(5);
     for (const r of rows) {
       expect(r.logs, r.athlete).toBeGreaterThanOrEqual(20);
@@ -117,7 +120,7 @@ describe('the demo scenario', () => {
         WHERE p.organization_id = $1 AND s.status = 'published' AND s.date > $2 AND s.date <= $3`,
       [organizationId, today, addDays(today, 7)],
     );
-    expect(ahead).toHaveLength(5);
+    expect(ahead).toHaveLength(5 + SQUAD.length);
   });
 });
 
@@ -147,5 +150,53 @@ describe('the demo scenario, as the family hears it', () => {
       [at('priya.raman')],
     );
     expect(stale.title).toBe("Maya Torres's clearance letter is out of date");
+  });
+});
+
+describe('the demo scenario, the softball infield squad', () => {
+  const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
+
+  it("gives Theo one team program for the nine infielders, with Maya's and Tessa's versions fitted to their own limits and the rest as written", async () => {
+    const { organizationId } = await loadDemo(h.ds, { config: h.config, bcryptCost: 4 });
+    const base = `/api/orgs/${organizationId}`;
+    const memberOf = async (local: string): Promise<string> =>
+      (
+        (await h.ds.query(`SELECT m.id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = $1`, [at(local)])) as {
+          id: string;
+        }[]
+      )[0].id;
+    const theo = await signedIn(h.app, at('theo.lindqvist'), DEMO_PASSWORD);
+    const programs = await theo.get(`${base}/team-programs`);
+    expect(programs.body.map((p: { name: string; groupName: string }) => [p.name, p.groupName])).toEqual([
+      ['Softball infield strength', 'Softball infield'],
+    ]);
+    const grid = (await theo.get(`${base}/team-programs/${programs.body[0].id}/grid`)).body as TeamGridDto;
+    expect(grid.athletes).toHaveLength(1 + SQUAD.length);
+    const [published, draft] = grid.sessions;
+    expect([published.status, draft.status]).toEqual(['published', 'draft']);
+    const maya = await memberOf('maya.torres');
+    const tessa = await memberOf('tessa.grant');
+    const cell = (athleteId: string, sessionId: string) =>
+      grid.cells.find((c) => c.athleteId === athleteId && c.teamSessionId === sessionId)!;
+    expect(cell(maya, published.id)).toMatchObject({ state: 'fitted', published: true });
+    expect(cell(tessa, published.id)).toMatchObject({ state: 'fitted', published: true });
+    for (const a of grid.athletes.filter((x) => x.id !== maya && x.id !== tessa))
+      expect(cell(a.id, published.id), a.name).toMatchObject({ state: 'as_written', changes: 0, published: true });
+    // Two days later Maya is in her Build back stage (hinge up to 75 %), so the draft's deadlift fits her as written.
+    expect(cell(maya, draft.id).state).toBe('as_written');
+    expect(cell(tessa, draft.id).state).toBe('fitted');
+
+    const mayaVersion = (await theo.get(`${base}/team-sessions/${published.id}/versions/${maya}`)).body as TeamVersionDto;
+    expect(mayaVersion.changes.length).toBeGreaterThan(0);
+    expect(mayaVersion.breaches.filter((b) => !b.waived)).toEqual([]);
+    // Tessa's sprints are blocked: the library's "use instead" list swaps them for bike intervals.
+    const tessaVersion = (await theo.get(`${base}/team-sessions/${published.id}/versions/${tessa}`)).body as TeamVersionDto;
+    const [bike] = (await h.ds.query(`SELECT id FROM exercises WHERE organization_id = $1 AND name = 'Bike intervals'`, [
+      organizationId,
+    ])) as {
+      id: string;
+    }[];
+    expect(tessaVersion.changes.filter((c) => c.kind === 'swapped').map((c) => c.swappedToExerciseId)).toContain(bike.id);
+    expect(tessaVersion.breaches.filter((b) => !b.waived)).toEqual([]);
   });
 });

@@ -28,6 +28,7 @@ import { createStorage } from '../storage';
 import { loadSeason } from './demo-season';
 import { DemoDirector, jordansClosedCase, mayasCase } from './demo-story';
 import { upcomingWeek } from './demo-week';
+import { SQUAD, squadBaselines, squadGroup, squadTeamProgram, tessasCase } from './demo-squad';
 
 export interface DemoOptions {
   /** The app's configuration: links in the story's letters and e-mails are built from it. */
@@ -116,6 +117,8 @@ const CARE_TEAMS: [athlete: string, member: string, role: 'coach' | 'clinician']
   ['ava', 'clinicianPriya', 'clinician'],
   ['luis', 'coachRosa', 'coach'],
   ['luis', 'clinicianPriya', 'clinician'],
+  // The infield squad's coach is Theo through their group (demo-squad.ts); Tessa's clinician is Marcus.
+  ['tessa', 'clinicianMarcus', 'clinician'],
 ];
 
 const GUARDIANS: [athlete: string, guardian: string][] = [
@@ -154,7 +157,7 @@ export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ cre
       const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911', timeZone: DEMO_TIME_ZONE }));
       const ids: Record<string, string> = {};
       const userIds: Record<string, string> = {};
-      for (const p of DEMO_PEOPLE) {
+      for (const p of [...DEMO_PEOPLE, ...SQUAD]) {
         const user = await m.save(
           m.create(User, { email: p.email, displayName: p.name, passwordHash: hash, unitPref: p.key === 'maya' ? 'lb' : 'kg' }),
         );
@@ -181,6 +184,10 @@ export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ cre
       await jordansClosedCase(director, ids);
       await mayasCase(director, ids, programs.get('maya')!);
       await upcomingWeek(director, programs);
+      const squadGroupId = await squadGroup(m, org.id, ids);
+      await squadBaselines(director, ids);
+      await tessasCase(director, ids);
+      await squadTeamProgram(director, squadGroupId);
       if (storage) {
         await attachDemoDocument(m, storage, {
           organizationId: org.id,
@@ -198,7 +205,7 @@ export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ cre
         action: 'demo.loaded',
         subjectType: 'Organization',
         subjectId: org.id,
-        after: { people: DEMO_PEOPLE.length, careTeamAssignments: CARE_TEAMS.length, guardianLinks: GUARDIANS.length },
+        after: { people: DEMO_PEOPLE.length + SQUAD.length, careTeamAssignments: CARE_TEAMS.length, guardianLinks: GUARDIANS.length },
       });
       return org.id;
     });

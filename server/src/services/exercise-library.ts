@@ -43,9 +43,40 @@ export const DEFAULT_LIBRARY: Entry[] = [
   ['Sled push', ['sprint', 'squat'], 'sled', false, kg(5)],
   ['Medicine ball rotational throw', ['throw', 'rotation'], 'medicine_ball', true, kg(1)],
   ['Medicine ball chest pass', ['throw', 'horizontal_push'], 'medicine_ball', true, kg(1)],
+  // Non-impact conditioning: no loaded movement pattern, so no pattern block or cap applies to them.
+  ['Bike intervals', [], 'machine', false, kg(2.5)],
+  ['Rowing machine intervals', [], 'machine', false, kg(2.5)],
+  ['Arm bike intervals', [], 'machine', false, kg(2.5)],
 ];
 
-/** Adds the starter library to an organization (existing names are kept as they are). */
+/**
+ * The starter library's "use instead" relations, in order of preference: what to do when an exercise is
+ * not allowed for an athlete. Common practice in return-to-training work (keep the session's intent with
+ * less impact or load on the restricted area), not a rule from a published source; each organization
+ * edits its copy, and the clinician's limits still decide what is allowed. Names only from DEFAULT_LIBRARY
+ * (a test checks it), at most six each, never the exercise itself.
+ */
+export const DEFAULT_USE_INSTEAD: Record<string, string[]> = {
+  'Sprint 20 m': ['Bike intervals', 'Arm bike intervals'],
+  'Sled push': ['Bike intervals', 'Arm bike intervals'],
+  'Box jump': ['Bike intervals', 'Arm bike intervals'],
+  'Broad jump': ['Bike intervals', 'Arm bike intervals'],
+  'Bike intervals': ['Arm bike intervals'],
+  'Rowing machine intervals': ['Bike intervals', 'Arm bike intervals'],
+  'Kettlebell swing': ['Romanian deadlift', 'Hip thrust'],
+  'Romanian deadlift': ['Hip thrust'],
+  'Power clean': ['Trap-bar deadlift', 'Hip thrust'],
+  'Medicine ball rotational throw': ['Pallof press', 'Dead bug'],
+  'Pallof press': ['Dead bug'],
+  'Medicine ball chest pass': ['Push-up', 'Dumbbell bench press'],
+  'Pull-up': ['Lat pulldown'],
+};
+
+/**
+ * Adds the starter library to an organization (existing names are kept as they are), then its reference
+ * lifts and "use instead" relations where the organization has not set them (an exercise missing from
+ * the organization's copy is left out of the list).
+ */
 export async function seedExerciseLibrary(m: EntityManager, organizationId: string): Promise<void> {
   await m
     .createQueryBuilder()
@@ -71,6 +102,15 @@ export async function seedExerciseLibrary(m: EntityManager, organizationId: stri
       `UPDATE exercises SET reference_id = (SELECT id FROM exercises WHERE organization_id = $1 AND name = $3)
         WHERE organization_id = $1 AND name = $2 AND reference_id IS NULL`,
       [organizationId, name, reference],
+    );
+  }
+  for (const [name, instead] of Object.entries(DEFAULT_USE_INSTEAD)) {
+    await m.query(
+      `UPDATE exercises SET use_instead = ARRAY(
+          SELECT x.id FROM unnest($3::text[]) WITH ORDINALITY AS n(name, ord)
+            JOIN exercises x ON x.organization_id = $1 AND x.name = n.name AND x.name <> $2 ORDER BY n.ord)
+        WHERE organization_id = $1 AND name = $2 AND use_instead = '{}'`,
+      [organizationId, name, instead],
     );
   }
 }

@@ -65,6 +65,12 @@ export function toEngineExercise(e: Exercise): EngineExercise {
   };
 }
 
+/** An archived exercise is no longer offered in place of another ("use instead"); its own old sessions still name it. */
+function withoutArchivedUseInstead(e: EngineExercise, archived: ReadonlySet<string>): EngineExercise {
+  if (!e.useInstead?.length || archived.size === 0) return e;
+  return { ...e, useInstead: e.useInstead.filter((id) => !archived.has(id)) };
+}
+
 /** The engine's sets of a session, warm-up marks included (one reading of session content for both sides). */
 export function engineSets(session: Pick<ProgramSession, 'id' | 'date' | 'content'>): EngineSet[] {
   return sessionEngineSets(session);
@@ -134,9 +140,10 @@ export async function engineContext(
   const plans = await activePlans(m, [athleteId], today);
   const statusOn = await statusLookup(m, athleteId);
   const waived = await waivedSets(m, athleteId, sessions);
+  const archived = new Set(exercises.filter((e) => e.archived).map((e) => e.id));
   return {
     plans: plans.get(athleteId) ?? [],
-    exercises: Object.fromEntries(exercises.map((e) => [e.id, toEngineExercise(e)])),
+    exercises: Object.fromEntries(exercises.map((e) => [e.id, withoutArchivedUseInstead(toEngineExercise(e), archived)])),
     baselines,
     statusOn,
     waivedSetIds: waived,

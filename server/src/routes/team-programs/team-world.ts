@@ -10,7 +10,7 @@ import { addDays, cheapen, programWorld, TODAY } from '../programs/test-world';
  * The team-program tests' world: a squad of eight athletes in one group coached by the org's coach,
  * each with a tested back squat of 100 kg and deadlift of 140 kg. Two are restricted by the clinician
  * — Hinge capped at 60 % of 1RM, and Sprint blocked — and one is Out. A team session of back squat
- * and deadlift 3 × 5 @ 75 % and 4 sprints follows on the next Monday.
+ * and deadlift 3 × 5 @ 75 % and 4 sprints follows on the next Monday; the sprint names nothing to use instead.
  */
 
 /** Monday of the week after the pinned Thursday (2026-12-03): inside every plan stage below. */
@@ -55,6 +55,9 @@ export async function teamWorld(h: Harness) {
      SELECT $1, m, r, $2 FROM unnest($3::uuid[], $4::text[]) AS x(m, r)`,
     [group.id, org.id, [org.coach.membershipId, ...athletes], ['coach', ...athletes.map(() => 'athlete')]],
   );
+  // This squad's sprint has nothing to use instead, so a blocked sprint is a set nothing fits ("needs a
+  // decision"); the starter library's sprint → bike intervals swap is tested in exercises-use-instead.test.ts.
+  await h.ds.query(`UPDATE exercises SET use_instead = '{}' WHERE organization_id = $1 AND name = 'Sprint 20 m'`, [org.id]);
   for (const a of athletes) {
     await w.baseline(a, 100, 'Back squat');
     await w.baseline(a, 140, 'Deadlift');

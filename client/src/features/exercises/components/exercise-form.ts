@@ -16,6 +16,8 @@ export interface ExerciseFormValues {
   stepUnit: 'kg' | 'lb';
   sizes: string[];
   referenceId: string;
+  /** Library exercise ids, in order of preference. */
+  useInstead: string[];
 }
 
 export const BLANK_EXERCISE: ExerciseFormValues = {
@@ -28,6 +30,7 @@ export const BLANK_EXERCISE: ExerciseFormValues = {
   stepUnit: 'kg',
   sizes: KETTLEBELL_KG.map(String),
   referenceId: '',
+  useInstead: [],
 };
 
 export function exerciseToForm(e: ExerciseDto): ExerciseFormValues {
@@ -41,6 +44,7 @@ export function exerciseToForm(e: ExerciseDto): ExerciseFormValues {
     stepUnit: e.steps.kind === 'increment' ? e.steps.unit : 'kg',
     sizes: e.steps.kind === 'list' ? e.steps.valuesKg.map(String) : KETTLEBELL_KG.map(String),
     referenceId: e.referenceId ?? '',
+    useInstead: e.useInstead ?? [],
   };
 }
 
@@ -56,6 +60,7 @@ export function toPayload(v: ExerciseFormValues): ExerciseCreateInput {
         ? { kind: 'increment', step: step as number, unit: v.stepUnit }
         : { kind: 'list', valuesKg: v.sizes.map(Number).sort((a, b) => a - b) },
     referenceId: v.referenceId === '' ? null : v.referenceId,
+    useInstead: v.useInstead,
   };
 }
 

@@ -12,6 +12,7 @@ const deadlift: ExerciseDto = {
   ballistic: false,
   steps: { kind: 'increment', step: 2.5, unit: 'kg' },
   referenceId: null,
+  useInstead: [],
   archived: false,
   version: 1,
 };

@@ -7,7 +7,8 @@ import { TextField } from '../../../components/ui/Field';
 import { Badge } from '../../../components/ui/Panel';
 import type { SetBreach } from './BreachList';
 import { patternWords } from './program-words';
-import { blankSet, type SessionForm } from './session-form';
+import { blankSet, schemeToSetForms, type SessionForm } from './session-form';
+import { SetSchemeEntry } from './SetSchemeEntry';
 import { SetRow, type SetLine } from './SetRow';
 
 const MAX_SETS = 30;
@@ -45,7 +46,7 @@ export function ExerciseBlock({
   hardSetHelpId?: string;
 }) {
   const { control, register, setValue, getValues } = useFormContext<SessionForm>();
-  const { fields, append, remove } = useFieldArray({ control, name: `exercises.${index}.sets` });
+  const { fields, append, remove, replace } = useFieldArray({ control, name: `exercises.${index}.sets` });
   const name = exercise?.name ?? 'Unknown exercise';
 
   return (
@@ -125,6 +126,11 @@ export function ExerciseBlock({
             + Set
           </Button>
           <TextField label={`Notes for ${name}`} className="min-w-[12rem] flex-1" {...register(`exercises.${index}.notes`)} />
+        </div>
+      )}
+      {!readOnly && (
+        <div className="mt-2">
+          <SetSchemeEntry exerciseName={name} onUse={(sets) => replace(schemeToSetForms(sets, getValues(`exercises.${index}.sets`)))} />
         </div>
       )}
     </li>

@@ -66,6 +66,7 @@ const squat: ExerciseDto = {
   ballistic: false,
   steps: { kind: 'increment', step: 2.5, unit: 'kg' },
   referenceId: null,
+  useInstead: [],
   archived: false,
   version: 1,
 };

@@ -38,6 +38,7 @@ const deadlift: ExerciseDto = {
   ballistic: false,
   steps: { kind: 'increment', step: 2.5, unit: 'kg' },
   referenceId: null,
+  useInstead: [],
   archived: false,
   version: 1,
 };

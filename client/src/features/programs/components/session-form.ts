@@ -4,6 +4,7 @@ import type { ProgramSessionDto } from '../../../../../policies/dto';
 import type { PlannedLoad } from '../../../../../policies/load/compliance';
 import { SessionCreateSchema, type SessionCreateInput, type Unit } from '../../../../../policies/schemas';
 import type { SessionContent } from '../../../../../policies/schemas/programs';
+import type { SchemeSet } from '../../../../../policies/load/set-scheme';
 
 /**
  * The session editor's own shape: what the inputs hold (text), with the load's unit chosen per set.
@@ -70,6 +71,28 @@ export function blankSet(unit: Unit, previous?: SetForm): SetForm {
   return previous
     ? { ...previous, setId: crypto.randomUUID(), warmUp: false }
     : { setId: crypto.randomUUID(), reps: '5', load: '', loadUnit: unit, targetRpe: '', rest: '', notes: '', warmUp: false };
+}
+
+/**
+ * The quick entry's sets in the form's shape, replacing `current`. Reps, load, unit and target RPE come
+ * from the scheme; the n-th new set keeps the n-th old set's id (as if each set had been edited in place,
+ * so a team set keeps the id its athletes' versions derive from) and its rest, or the last set's rest
+ * beyond them. Notes and warm-up marks are cleared: they described the sets that were replaced.
+ */
+export function schemeToSetForms(sets: readonly SchemeSet[], current: readonly SetForm[] = []): SetForm[] {
+  return sets.map((s, i) => {
+    const old = current[i];
+    return {
+      setId: old?.setId ?? crypto.randomUUID(),
+      reps: String(s.reps),
+      load: s.load.kind === 'bodyweight' ? '' : String(s.load.value),
+      loadUnit: s.load.kind,
+      targetRpe: text(s.targetRpe),
+      rest: (old ?? current[current.length - 1])?.rest ?? '',
+      notes: '',
+      warmUp: false,
+    };
+  });
 }
 
 export function blankExercise(exerciseId: string, unit: Unit): ExerciseForm {
