@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type APIRequestContext, type Locator, type Page } from '@playwright/test';
 import pg from 'pg';
 import type { ExerciseDto, SessionDto } from '../policies/dto';
@@ -108,6 +109,14 @@ const gridOf = (page: Page) => page.getByRole('region', { name: 'Review grid, sc
 const cellLink = (page: Page, athlete: string, words: string) =>
   gridOf(page).getByRole('link', { name: new RegExp(`^${athlete}, ${SESSION.replace(/[()]/g, '\\$&')}: ${words}`) });
 
+/** Serious and critical WCAG A/AA findings of axe on the page as it stands (as e2e/accessibility.spec.ts). */
+async function seriousAxe(page: Page): Promise<string[]> {
+  const { violations } = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+  return violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+}
+
 async function addExercise(editor: Locator, name: string) {
   await editor.getByRole('button', { name: 'Add exercise', exact: true }).click();
   await editor.getByRole('searchbox', { name: 'Find an exercise' }).fill(name);
@@ -197,6 +206,7 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     await expect(cellLink(page, sprint.name, 'Needs a decision$')).toBeVisible();
     for (const a of cast.athletes.slice(2)) await expect(cellLink(page, a.name, 'As written$')).toBeVisible();
     await keepScreenshot(page, testInfo, 'team-grid');
+    expect(await seriousAxe(page), 'axe on the team program screen').toEqual([]);
 
     // Publishing is all or nothing: the refusal lists who, which session and what.
     await page.getByRole('button', { name: `Publish ${SESSION} to the group` }).click();
@@ -212,6 +222,7 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     await expectHome(page, `${sprint.name} — ${SESSION}`);
     const lines = page.getByRole('region', { name: 'Line by line' });
     await expect(lines.getByRole('row').filter({ hasText: 'Sprint 20 m' })).toContainText('Left out');
+    expect(await seriousAxe(page), 'axe on the athlete version screen').toEqual([]);
     await page.getByRole('button', { name: 'Accept the drop' }).click();
     await expect(page.getByRole('status').filter({ hasText: 'Drop accepted' })).toBeVisible();
     await expect(page.getByRole('button', { name: 'Accept the drop' })).toHaveCount(0);
@@ -246,6 +257,18 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
   await page.getByRole('link', { name: '← The team program' }).click();
   await expect(cellLink(page, hinge.name, 'Fitted \\(3 changes\\) · Published$')).toBeVisible();
 
+  // Two more (empty) team sessions, so the grid is wider than a phone.
+  const programId = new URL(page.url()).pathname.split('/')[3];
+  for (const [day, title] of [
+    [5, 'Squad speed (e2e)'],
+    [7, 'Squad lift B (e2e)'],
+  ] as const)
+    await apiWrite(page.request, 'post', `/orgs/${orgId}/team-programs/${programId}/sessions`, {
+      date: isoDay(day),
+      title,
+      content: { exercises: [] },
+    });
+
   // At 390 px the grid scrolls inside its own box, the athlete column stays put, and the page itself does not scroll sideways.
   const phoneContext = await browser.newContext(
     contextOptions(testInfo, { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true, userAgent: undefined }),
@@ -253,7 +276,7 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
   try {
     const phone = await phoneContext.newPage();
     await signIn(phone, cast.coachEmail, DEMO_PASSWORD);
-    await phone.goto(page.url());
+    await phone.goto(`/coach/team-programs/${programId}`);
     await expectHome(phone, PROGRAM);
     const grid = gridOf(phone);
     await grid.scrollIntoViewIfNeeded();

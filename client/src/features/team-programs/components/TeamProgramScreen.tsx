@@ -19,6 +19,7 @@ import {
   type PublishResult,
 } from '../api/team-programs';
 import { AddTeamSessionForm } from './AddTeamSessionForm';
+import { FloorSheetLinks } from './FloorSheetLinks';
 import { PublishProblems } from './PublishProblems';
 import { ReviewGrid } from './ReviewGrid';
 import { TeamSessionEditor } from './TeamSessionEditor';
@@ -134,6 +135,7 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
               session={selected}
               library={library.data}
               athleteName={nameOf}
+              headerLinks={<FloorSheetLinks orgId={orgId} teamSessionId={selected.id} />}
               onSaved={() => undefined}
               onDeleted={() => select(null)}
               onReload={() => void reload()}

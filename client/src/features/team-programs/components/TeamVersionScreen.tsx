@@ -127,7 +127,7 @@ function Version({
         <span className="tabular-nums">{formatDate(dto.teamSession.date)}</span>. The team session as written, and {dto.athleteName}’s
         version of it fitted to their limits.
       </PageHeader>
-      <p className="flex flex-wrap items-center gap-3 text-sm" aria-label="State of this version">
+      <div role="group" className="flex flex-wrap items-center gap-3 text-sm" aria-label="State of this version">
         <span className="font-semibold">
           <span aria-hidden="true">{FIT_STATE_GLYPHS[dto.state]}</span> {state}
         </span>
@@ -136,7 +136,7 @@ function Version({
             <span aria-hidden="true">{MARKER_GLYPHS[m]}</span> {MARKER_WORDS[m]}
           </span>
         ))}
-      </p>
+      </div>
 
       {dto.proposal && (
         <Notice tone="caution" title="A new fit after a limit change">
