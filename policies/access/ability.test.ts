@@ -82,6 +82,13 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     CaseDocument: { id: `document-${relation}`, organizationId: org, athleteId, uploadedByUserId: actor.userId },
     Clip: { id: `clip-${relation}`, organizationId: org, athleteId, uploadedByUserId: actor.userId },
     ClipNote: { id: `clip-note-${relation}`, organizationId: org, athleteId, authorUserId: actor.userId },
+    // 'self': a group the actor is in (as its coach, or training in it); 'same-org': a group with nobody in it yet.
+    Group: {
+      id: `group-${relation}`,
+      organizationId: org,
+      coachIds: relation === 'self' ? [me] : relation === 'same-org' ? [] : [STAFF],
+      athleteIds: relation === 'self' ? [me] : relation === 'same-org' ? [] : [athleteId],
+    },
   };
   return records[subject] as SubjectShapes[K];
 }
@@ -345,6 +352,40 @@ describe('defineAbilityFor, beyond the matrix', () => {
     // …while each still holds the (empty) right, so the list answers [] and the record answers 404.
     expect(clinician.can('read', 'Letter')).toBe(true);
     expect(guardian.can('create', 'LetterAcknowledgement')).toBe(true);
+  });
+
+  it('groups: only the coaches of a group keep it; coaching or treating one of its athletes elsewhere opens nothing', () => {
+    const group = asSubject('Group', {
+      id: 'g',
+      organizationId: ORG,
+      coachIds: ['member-coach-2'],
+      athleteIds: [LINKED_ATHLETE, OTHER_ATHLETE],
+    });
+    const coach = defineAbilityFor(actorFor('coach'));
+    // The coach is on LINKED_ATHLETE's care team, but not a coach of this group.
+    expect(coach.can('read', group)).toBe(false);
+    expect(coach.can('update', group)).toBe(false);
+    const coachOfIt = defineAbilityFor({ ...actorFor('coach'), membershipId: 'member-coach-2' });
+    expect(coachOfIt.can('read', group)).toBe(true);
+    expect(coachOfIt.can('update', group)).toBe(true);
+    // A clinician of any one athlete in the group reads it, and never changes it.
+    const clinician = defineAbilityFor(actorFor('clinician'));
+    expect(clinician.can('read', group)).toBe(true);
+    expect(clinician.can('update', group)).toBe(false);
+    const elsewhere = defineAbilityFor({ ...actorFor('clinician'), clinicianOf: ['member-third'] });
+    expect(elsewhere.can('read', group)).toBe(false);
+    // The athlete in it sees nothing of it; the coach still holds the (empty) right to read groups, so a list answers [].
+    expect(defineAbilityFor({ ...actorFor('athlete') }).can('read', group)).toBe(false);
+    expect(coach.can('read', 'Group')).toBe(true);
+    // The same ids in another organization open nothing, not even for an admin.
+    const elsewhereOrg = asSubject('Group', {
+      id: 'g',
+      organizationId: OTHER_ORG,
+      coachIds: ['member-coach-2'],
+      athleteIds: [LINKED_ATHLETE],
+    });
+    for (const ability of [coachOfIt, clinician, defineAbilityFor(actorFor('admin'))])
+      for (const action of ACTIONS) expect(ability.can(action, elsewhereOrg), action).toBe(false);
   });
 
   it("asSubject does not tag the caller's object", () => {

@@ -16,6 +16,7 @@ import { athleteReportRules } from './athlete-reports';
 import { programRules } from './program';
 import { letterRules } from './letter';
 import { uploadRules } from './uploads';
+import { groupRules } from './group';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -32,6 +33,7 @@ const RULE_SETS: RuleSet[] = [
   programRules,
   letterRules,
   uploadRules,
+  groupRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

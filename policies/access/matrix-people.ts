@@ -106,4 +106,21 @@ export const PEOPLE_GRID: [SubjectName, Action, Relation, string][] = [
   ['AuditChain',         'read',   'other-org',       'n   n   n   n   n'],
   ['AuditChain',         'update', 'same-org',        'n   n   n   n   n'],
   ['AuditChain',         'delete', 'same-org',        'n   n   n   n   n'],
+
+  // Groups. 'self' is a group the actor is in (a coach coaching it, an athlete training in it);
+  // 'own-care-team' a group, coached by someone else, holding the athlete the actor is linked to;
+  // 'other-athlete' a group of another athlete; 'same-org' a new group with nobody in it yet.
+  // Being on an athlete's care team never opens the athlete's groups to a coach.
+  ['Group',              'read',   'self',            'n   Y   -   -   -'],
+  ['Group',              'read',   'own-care-team',   '-   n   Y   n   -'],
+  ['Group',              'read',   'other-athlete',   'n   n   n   n   Y'],
+  ['Group',              'read',   'same-org',        'n   n   n   n   Y'],
+  ['Group',              'read',   'other-org',       'n   n   n   n   n'],
+  ['Group',              'create', 'same-org',        'n   Y   n   n   Y'],
+  ['Group',              'create', 'other-org',       'n   n   n   n   n'],
+  ['Group',              'update', 'self',            'n   Y   -   -   -'],
+  ['Group',              'update', 'own-care-team',   '-   n   n   n   -'],
+  ['Group',              'update', 'other-athlete',   'n   n   n   n   Y'],
+  ['Group',              'update', 'other-org',       'n   n   n   n   n'],
+  ['Group',              'delete', 'other-athlete',   'n   n   n   n   n'],
 ];

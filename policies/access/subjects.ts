@@ -41,6 +41,8 @@ export interface SubjectShapes {
   Clip: { id: string; organizationId: string; athleteId: string; uploadedByUserId: string };
   /** A note pinned to a time in a clip. */
   ClipNote: { id: string; organizationId: string; athleteId: string; authorUserId: string };
+  /** A team, position group or training block, with its coaches' and athletes' membership ids. */
+  Group: { id: string; organizationId: string; coachIds: string[]; athleteIds: string[] };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -71,6 +73,7 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'CaseDocument',
   'Clip',
   'ClipNote',
+  'Group',
 ];
 
 type TaggedSubjects = {

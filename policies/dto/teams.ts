@@ -16,6 +16,10 @@ export interface GroupDto {
   athletes: GroupPersonDto[];
   /** Whether the reader may change the group and its membership (an admin, or one of its coaches). */
   canManage: boolean;
+  /** Whether the reader may change who coaches it (admins only). */
+  canSetCoaches: boolean;
+  /** An archived group is kept for the record: nobody coaches through it any more. */
+  archived: boolean;
   version: number;
 }
 

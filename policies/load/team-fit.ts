@@ -6,7 +6,9 @@ import { exerciseRules, suggestSwaps, type EngineExercise, type ExerciseRules } 
 import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
 import { PATTERN_LABELS } from './patterns';
-import { plannedKg, sessionEngineSets, type EngineSet } from './sets';
+import { isIsoDate } from './guard';
+import { unreadable } from './check-support';
+import { plannedKg, type EngineSet } from './sets';
 import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
 import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
 
@@ -44,12 +46,16 @@ export function fitTeamSession(
   const engine: EngineContext = { ...ctx, waivedSetIds: undefined };
   const unit = ctx.unit ?? 'kg';
   const rows = team.content.exercises.map((r) => newRow(r, ctx));
-  if (ctx.plans.length === 0 && rows.every((r) => r.ex)) {
-    // No plan: nothing can be capped or blocked, only unreadable sets can breach.
-    fitLoop(team, rows, engine, []);
+  // No plan and every exercise known: the check runs with no day (nothing to read rules from).
+  const day = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : inForceOn(ctx.plans, team.date);
+  if (!day || day.stages.length === 0) {
+    // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
+    // unreadable set can breach. Most versions of a team session are this; when every set reads,
+    // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
+    if (allReadable(team, rows)) return finish(rows, unit, ctx);
+    fitLoop(team, rows, engine, [], day);
     return finish(rows, unit, ctx);
   }
-  const day = inForceOn(ctx.plans, team.date);
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   const weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
   const others = weekly ? (opts.otherSets ?? []).filter((s) => s.sessionId !== team.id) : [];
@@ -59,6 +65,8 @@ export function fitTeamSession(
 
 interface Slot {
   team: PlannedSetInput;
+  /** The team's set resolved for this athlete (a % of 1RM as a load on the steps): the set unchanged. */
+  asWritten: PlannedSetInput;
   /** The set as it stands now; null once removed. */
   set: PlannedSetInput | null;
   removed: 'sets_cut' | 'dropped' | null;
@@ -85,16 +93,70 @@ function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row
     exerciseId: r.exerciseId,
     ex,
     notes: r.notes,
-    slots: r.sets.map((s) => ({
-      team: s,
-      set: ex ? { ...s, load: resolveLoad(s.load, ex, ctx.baselines) } : { ...s },
-      removed: null,
-      repsCut: false,
-      notes: [],
-    })),
+    slots: r.sets.map((s) => {
+      const asWritten = ex ? { ...s, load: resolveLoad(s.load, ex, ctx.baselines) } : { ...s };
+      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: [] };
+    }),
     swaps: null,
     swapNotes: [],
   };
+}
+
+/** Every exercise known and every set readable on the date, as the engine reads them (check-support's unreadable). */
+function allReadable(team: { id: string; date: string }, rows: Row[]): boolean {
+  if (!isIsoDate(team.date) || !rows.every((r) => r.ex)) return false;
+  const valid = (d: string) => d === team.date;
+  return engineSetsOf(team, rows).every((s) => unreadable(s, valid) === null);
+}
+
+/**
+ * The session's sets as the engine reads them: sessionEngineSets(contentOf(rows)) without building the
+ * content. `skip` leaves out a row's sets (numbered all the same, so the others keep their order).
+ */
+function engineSetsOf(team: { id: string; date: string }, rows: Row[], skip?: (row: Row) => boolean): EngineSet[] {
+  const out: EngineSet[] = [];
+  let order = 0;
+  for (const r of rows) {
+    const skipped = skip?.(r) ?? false;
+    for (const slot of r.slots) {
+      const s = slot.set;
+      if (s === null) continue;
+      if (skipped) {
+        order++;
+        continue;
+      }
+      out.push({
+        id: s.id,
+        sessionId: team.id,
+        date: team.date,
+        exerciseId: r.exerciseId,
+        reps: s.reps,
+        load: s.load,
+        targetRpe: s.targetRpe ?? null,
+        warmUp: s.warmUp ?? false,
+        order: order++,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * An exercise no rule in force touches (exerciseRules): not blocked, no impact rule it could break, no
+ * cap on load, % of 1RM, RPE or reps, no counted limit. The engine can find nothing against its
+ * readable sets, and they count toward no limit (only capped patterns are counted), so they need not
+ * be checked; a set that cannot be read is still checked (the engine says why).
+ */
+function untouched(ex: EngineExercise, r: ExerciseRules): boolean {
+  return (
+    r.blocked === null &&
+    (r.impactOff === null || !ex.ballistic) &&
+    r.pct === null &&
+    r.abs === null &&
+    r.rpe === null &&
+    r.reps === null &&
+    r.capped.every((c) => c.maxSets === undefined && c.maxHard === undefined)
+  );
 }
 
 function contentOf(rows: Row[]): SessionContent {
@@ -122,13 +184,28 @@ function fitLoop(team: { id: string; date: string }, rows: Row[], ctx: EngineCon
     if (!r && day) rulesCache.set(ex.id, (r = exerciseRules(ex, day)));
     return r;
   };
+  const valid = (d: string) => d === team.date;
+  const skip = (row: Row) => {
+    if (!row.ex || !day) return false;
+    const r = rulesOf(row.ex);
+    return r !== undefined && untouched(row.ex, r) && engineSetsOf(team, [row]).every((s) => unreadable(s, valid) === null);
+  };
+  const validDate = isIsoDate(team.date);
   for (let round = 0; ; round++) {
-    const sets = sessionEngineSets({ id: team.id, date: team.date, content: contentOf(rows) });
+    const sets = engineSetsOf(team, rows, validDate ? skip : undefined);
+    // Nothing left that a rule in force touches: the engine would find nothing against the session.
+    if (sets.length === 0) return round;
+    const all = checkSets(others.length ? [...sets, ...others] : sets, ctx);
+    if (all.length === 0) return round;
     const ours = new Set(sets.map((s) => s.id));
-    const breaches = blockingBreaches(checkSets(others.length ? [...sets, ...others] : sets, ctx)).filter((b) => ours.has(b.setId));
+    const breaches = blockingBreaches(all).filter((b) => ours.has(b.setId));
     if (breaches.length === 0) return round;
     const bySet = new Map<string, Breach[]>();
-    for (const b of breaches) bySet.set(b.setId, [...(bySet.get(b.setId) ?? []), b]);
+    for (const b of breaches) {
+      const list = bySet.get(b.setId);
+      if (list) list.push(b);
+      else bySet.set(b.setId, [b]);
+    }
     const last = round >= MAX_ROUNDS;
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
@@ -274,7 +351,9 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
     for (const slot of row.slots) {
-      const asWritten = teamEx ? { ...slot.team, load: resolveLoad(slot.team.load, teamEx, ctx.baselines) } : slot.team;
+      // Untouched since it was resolved: as written (the words below are built only for a change).
+      if (!swapped && slot.set === slot.asWritten) continue;
+      const asWritten = slot.asWritten;
       const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${setWords(asWritten, unit)}`;
       const base = { teamExerciseRowId: row.id, teamSetId: slot.team.id, exerciseId: row.teamExerciseId, before };
       const note = [...new Set([...(swapped ? row.swapNotes : []), ...slot.notes])].join('; ');

@@ -110,6 +110,10 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'session.deleted': (who, e) => `${who} deleted a session${e.athleteName ? ` of ${e.athleteName}` : ''}`,
   'session.published': (who, e) => `${who} published a session${e.athleteName ? ` for ${e.athleteName}` : ''}`,
   'session.unpublished': (who, e) => `${who} took back a published session${e.athleteName ? ` of ${e.athleteName}` : ''}`,
+  'group.created': (who, e) => `${who} started the group "${String(field(e.after, 'name') ?? '')}"`,
+  'group.updated': (who, e) => `${who} renamed or changed the kind of the group "${String(field(e.after, 'name') ?? '')}"`,
+  'group.members_changed': (who) => `${who} changed who is in a group`,
+  'group.archived': (who, e) => `${who} archived the group "${String(field(e.before, 'name') ?? '')}"`,
   'team_program.created': (who, e) => `${who} started the team program "${String(field(e.after, 'name') ?? '')}"`,
   'team_program.renamed': (who, e) => `${who} renamed a team program to "${String(field(e.after, 'name') ?? '')}"`,
   'team_session.created': (who) => `${who} planned a team session and fitted it to each athlete`,
@@ -119,6 +123,10 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'team_version.accepted': (who, e) => `${who} reviewed ${whose(e, 'version of a team session')}`,
   'team_version.reset': (who, e) => `${who} fitted ${whose(e, 'version of a team session')} again from the team session`,
   'team_version.as_written': (who, e) => `${who} set ${whose(e, 'version of a team session')} to the team's sets as written`,
+  'floor_sheet.downloaded': (who, e) => {
+    const format = field(e.after, 'format');
+    return `${who} downloaded the floor sheet of a team session${format === 'csv' ? ' (CSV)' : format === 'pdf' ? ' (PDF)' : ''}`;
+  },
   'exception.requested': (who, e) => `${who} asked for an exception to ${whose(e, 'limits')}`,
   'exception.granted': (who, e) => `${who} granted an exception to ${whose(e, 'limits')}`,
   'exception.refused': (who, e) => `${who} refused an exception to ${whose(e, 'limits')}`,

@@ -31,7 +31,9 @@ import { noticePreferenceRoutes } from './routes/notice-preferences/notice-prefe
 import { exerciseRoutes } from './routes/programs/exercises.router';
 import { programRoutes } from './routes/programs/programs.router';
 import { exceptionRoutes } from './routes/programs/exceptions.router';
+import { floorSheetRoutes } from './routes/team-programs/floor-sheet.router';
 import { teamProgramRoutes } from './routes/team-programs/team-programs.router';
+import { groupRoutes } from './routes/groups/groups.router';
 import { rosterRoutes } from './routes/programs/roster.router';
 import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
@@ -132,6 +134,8 @@ export function buildApp(base: AppDeps) {
     ...programRoutes,
     ...exceptionRoutes,
     ...teamProgramRoutes,
+    ...floorSheetRoutes,
+    ...groupRoutes,
     ...rosterRoutes,
     ...letterRoutes(deps),
     ...documentRoutes,

@@ -13,6 +13,7 @@ import { CoachHome } from './routes/coach';
 import { CoachAthletePage } from './routes/staff/athlete-coach';
 import { CoachExercisesPage } from './routes/coach/exercises';
 import { CoachProgramPage } from './routes/coach/program';
+import { CoachTeamProgramPage, CoachTeamVersionPage } from './routes/coach/team-program';
 import { ClinicianLayout } from './routes/clinician/clinician-layout';
 import { ClinicianHome } from './routes/clinician/caseload';
 import { ClinicianAthletePage } from './routes/staff/athlete-clinician';
@@ -73,6 +74,8 @@ export const routes = [
           { path: '/coach/athletes/:athleteId', element: <CoachAthletePage /> },
           { path: '/coach/exercises', element: <CoachExercisesPage /> },
           { path: '/coach/programs/:programId', element: <CoachProgramPage /> },
+          { path: '/coach/team-programs/:programId', element: <CoachTeamProgramPage /> },
+          { path: '/coach/team-programs/:programId/sessions/:sessionId/athletes/:athleteId', element: <CoachTeamVersionPage /> },
           {
             path: '/clinician',
             element: <ClinicianLayout />,

@@ -40,6 +40,9 @@ describe('the one "limits changed" path', () => {
         "POST   /api/orgs/:orgId/exceptions/:id/decide  ⇒  exceptions.decide!",
         "PATCH  /api/orgs/:orgId/team-sessions/:id  ⇒  team_sessions.update!",
         "DELETE /api/orgs/:orgId/team-sessions/:id  ⇒  team_sessions.delete!",
+        "POST   /api/orgs/:orgId/groups  ⇒  groups.create!",
+        "PUT    /api/orgs/:orgId/groups/:id/members  ⇒  groups.set_members!",
+        "POST   /api/orgs/:orgId/groups/:id/archive  ⇒  groups.archive!",
       ]
     `);
   });

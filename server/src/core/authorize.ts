@@ -30,6 +30,7 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   CaseDocument: 'document',
   Clip: 'clip',
   ClipNote: 'note',
+  Group: 'group',
 };
 
 /**
@@ -82,6 +83,7 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   CaseDocument: 'case documents',
   Clip: 'technique clips',
   ClipNote: 'notes on clips',
+  Group: 'groups',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

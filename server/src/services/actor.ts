@@ -15,8 +15,9 @@ export interface ActorRow {
 }
 
 /**
- * One query for everything the rules need about a user in each active membership. Care-team and
- * guardian links only count while the person still holds the matching role, and only for athletes
+ * One query for everything the rules need about a user in each active membership. A coach coaches
+ * the athletes of their care teams and of the (not archived) groups they coach, alike. Care-team,
+ * group and guardian links only count while the person still holds the matching role, and only for athletes
  * still active, so removing a role or a member takes effect on the very next request. Each linked
  * athlete's membership is looked up by its key (a join made PostgreSQL hash every membership of the
  * database on each request).
@@ -24,8 +25,14 @@ export interface ActorRow {
 const actorSql = (userId: string) => `
   SELECT m.id AS membership_id, m.organization_id, o.name AS organization_name, o.guardians_see_clips, o.time_zone, m.roles,
     CASE WHEN 'coach' = ANY(m.roles) THEN COALESCE((
-      SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
-      WHERE c.member_id = m.id AND c.role = 'coach' AND (SELECT a.active FROM memberships a WHERE a.id = c.athlete_id)), '{}') ELSE '{}' END AS coach_of,
+      SELECT array_agg(x.athlete_id ORDER BY x.athlete_id) FROM (
+        SELECT c.athlete_id FROM care_team_assignments c WHERE c.member_id = m.id AND c.role = 'coach'
+        UNION
+        SELECT ga.member_id FROM group_members gc
+          JOIN groups g ON g.id = gc.group_id AND NOT g.archived
+          JOIN group_members ga ON ga.group_id = gc.group_id AND ga.role = 'athlete'
+        WHERE gc.member_id = m.id AND gc.role = 'coach') x
+      WHERE (SELECT a.active FROM memberships a WHERE a.id = x.athlete_id)), '{}') ELSE '{}' END AS coach_of,
     CASE WHEN 'clinician' = ANY(m.roles) THEN COALESCE((
       SELECT array_agg(c.athlete_id ORDER BY c.athlete_id) FROM care_team_assignments c
       WHERE c.member_id = m.id AND c.role = 'clinician' AND (SELECT a.active FROM memberships a WHERE a.id = c.athlete_id)), '{}') ELSE '{}' END AS clinician_of,

@@ -15,12 +15,18 @@ export interface AthleteCircle {
   guardians: string[];
 }
 
-/** The active people around an athlete: care-team clinicians and coaches (holding that role) and guardians. */
+/** The active people around an athlete: care-team clinicians and coaches, the coaches of their groups (each holding that role) and guardians. */
 export async function athleteCircle(m: EntityManager, athleteId: string): Promise<AthleteCircle> {
   const rows: { member_id: string; role: 'coach' | 'clinician' | 'guardian' }[] = await m.query(
     `SELECT c.member_id, c.role FROM care_team_assignments c
        JOIN memberships mm ON mm.id = c.member_id AND mm.active AND c.role = ANY(mm.roles)
       WHERE c.athlete_id = $1
+     UNION ALL
+     SELECT gc.member_id, 'coach' FROM group_members ga
+       JOIN groups g ON g.id = ga.group_id AND NOT g.archived
+       JOIN group_members gc ON gc.group_id = ga.group_id AND gc.role = 'coach'
+       JOIN memberships cm ON cm.id = gc.member_id AND cm.active AND 'coach' = ANY(cm.roles)
+      WHERE ga.member_id = $1 AND ga.role = 'athlete'
      UNION ALL
      SELECT g.guardian_id, 'guardian' FROM guardian_links g
        JOIN memberships gm ON gm.id = g.guardian_id AND gm.active AND 'guardian' = ANY(gm.roles)

@@ -1,6 +1,7 @@
 import { useRoster } from '../../features/programs/api/get-roster';
 import { NewProgram } from '../../features/programs/components/NewProgramForm';
 import { RosterTable } from '../../features/programs/components/RosterTable';
+import { TeamProgramList } from '../../features/team-programs/components/TeamProgramList';
 import { ButtonLink } from '../../components/ui/Button';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { Loading, PageHeader } from '../../components/ui/Panel';
@@ -56,6 +57,7 @@ function CoachRoster() {
           athleteHref={coachAthleteHref}
         />
       )}
+      <TeamProgramList orgId={orgId} />
     </div>
   );
 }
