@@ -44,7 +44,7 @@ describe('update schemas write exactly the keys they were sent', () => {
     expect(ExerciseUpdateSchema.parse({ archived: false, version: 3 })).toEqual({ archived: false, version: 3 });
     // Why the update is not `ExerciseCreateSchema.partial()`: zod keeps a default through `.partial()`.
     const derived = ExerciseCreateSchema.partial().extend({ archived: z.boolean().optional() });
-    expect(derived.parse({ archived: true })).toEqual({ archived: true, patterns: [] });
+    expect(derived.parse({ archived: true })).toEqual({ archived: true, patterns: [], useInstead: [] });
   });
 
   it('create still fills patterns with [] when none are named, and the update accepts every field create does', () => {
@@ -55,6 +55,7 @@ describe('update schemas write exactly the keys they were sent', () => {
       steps: { kind: 'increment', step: 2, unit: 'kg' },
     });
     expect(created.patterns).toEqual([]);
+    expect(created.useInstead).toEqual([]);
     expect(Object.keys(ExerciseUpdateSchema.shape).sort()).toEqual(
       [...Object.keys(ExerciseCreateSchema.shape), 'archived', 'version'].sort(),
     );

@@ -11,6 +11,7 @@ import { ErrorNotice } from '../../../components/ui/Notice';
 import { useCreateExercise, useUpdateExercise } from '../api/exercises';
 import { BLANK_EXERCISE, exerciseFormResolver, exerciseToForm, type ExerciseFormValues } from './exercise-form';
 import { EQUIPMENT_LABELS } from './exercise-words';
+import { UseInsteadPicker } from './UseInsteadPicker';
 
 const STALE =
   'Someone changed this exercise after you opened it, so your changes were not saved. Close the form, open it again and redo your change.';
@@ -38,9 +39,12 @@ export function ExerciseForm({
   });
   const stepsKind = useWatch({ control, name: 'stepsKind' });
   const e = formState.errors;
+  // A list's error sits on the list (too many, twice the same) or on one of its entries (not an id).
+  const useInsteadError =
+    e.useInstead?.message ?? (Array.isArray(e.useInstead) ? e.useInstead.find((x) => x?.message)?.message : undefined);
 
   const onError = (error: unknown) =>
-    applyServerFieldErrors(error, setError, ['name', 'patterns', 'equipment', 'ballistic', 'referenceId']);
+    applyServerFieldErrors(error, setError, ['name', 'patterns', 'equipment', 'ballistic', 'referenceId', 'useInstead']);
   const onSubmit = handleSubmit((input) => {
     if (exercise) update.mutate({ id: exercise.id, input: { ...input, version: exercise.version } }, { onSuccess: onDone, onError });
     else create.mutate(input, { onSuccess: onDone, onError });
@@ -155,6 +159,13 @@ export function ExerciseForm({
             </option>
           ))}
       </SelectField>
+      <Controller
+        control={control}
+        name="useInstead"
+        render={({ field }) => (
+          <UseInsteadPicker value={field.value} onChange={field.onChange} library={library} selfId={exercise?.id} error={useInsteadError} />
+        )}
+      />
       {mutation.isError && <ErrorNotice error={mutation.error} wording={{ versionConflict: STALE }} />}
       <div className="flex flex-wrap gap-2">
         <Button type="submit" busy={mutation.isPending} disabled={stale}>
