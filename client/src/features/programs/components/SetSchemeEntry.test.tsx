@@ -77,7 +77,8 @@ describe('SetSchemeEntry on its own', () => {
   });
 });
 
-describe('quick entry in the session editor', () => {
+// The whole session editor renders and checks live; give it room on a busy machine.
+describe('quick entry in the session editor', { timeout: 15_000 }, () => {
   const fetchMock = vi.fn<typeof fetch>();
   beforeEach(() => {
     vi.stubGlobal('fetch', fetchMock);
