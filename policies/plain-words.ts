@@ -15,12 +15,14 @@
  * - `plainLimitLines(limits, unit)` — a plan stage (or the limits in force on a day) as sentences.
  * - `plainPainCeiling(ceiling)` — the stage's pain ceiling as a sentence.
  * - `plainStatus(status)` — what a participation status means for the day.
+ * - `plainCriterion(criterion)` / `plainCriterionProgress(result)` — what unlocks the next stage and how far along it is.
  */
 import type { Unit } from './schemas/common';
 import { isFiniteNumber } from './load/guard';
 import { readPainCeiling } from './load/in-force';
 import { MOVEMENT_PATTERNS, type CapKey, type MovementPattern, type ParticipationStatus, type PatternRule } from './load/patterns';
 import { capOnTheBarWords } from './load/bar-cap';
+import type { CriterionResult, StageCriterion } from './load/stage-criteria';
 
 export interface PlainPattern {
   /** The activity, to start a sentence: "Lifting things from the floor or bending forward at the hips". */
@@ -258,4 +260,39 @@ export function jargonIn(text: string): string[] {
       ? new RegExp(`(^|[^\\w-])${term.replace(/[-\s]/g, (c) => `\\${c === ' ' ? 's' : c}`)}($|[^\\w-])`, 'i').test(text)
       : text.includes(term),
   );
+}
+
+const times = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
+
+/**
+ * One exit criterion of a stage as the athlete and family read it: what has to happen before the next
+ * stage. A clinician's check is named in the clinician's own words (its label).
+ */
+export function plainCriterion(c: StageCriterion): string {
+  switch (c.kind) {
+    case 'record':
+      switch (c.rule) {
+        case 'pain_settled_sessions':
+          return `${times(c.count ?? 1, 'training day')} in a row with pain during training at ${c.maxPain ?? 0} out of 10 or less, and no worse the next morning than before training.`;
+        case 'no_red_flags':
+          return 'No warning signs reported since this stage began.';
+        case 'sessions_logged':
+          return `${times(c.count ?? 1, 'training day')} recorded in this stage.`;
+        case 'rpe_at_most':
+          return `${times(c.count ?? 1, 'planned training day')} in a row that felt no harder than ${c.maxRpe ?? 0} out of 10.`;
+      }
+      break;
+    case 'clinician':
+      return `A check with the clinician: ${c.label}.`;
+    case 'athlete':
+      return `Feeling ready to move on: at least ${c.threshold} out of 10 when asked.`;
+  }
+}
+
+/** How far along one criterion is, in plain words. */
+export function plainCriterionProgress(r: Pick<CriterionResult, 'state' | 'have' | 'need' | 'kind'>): string {
+  if (r.state === 'met') return 'Done.';
+  if (r.need > 1) return `${r.have} of ${r.need} so far.`;
+  if (r.state === 'waiting') return r.kind === 'athlete' ? 'Not answered yet in this stage.' : 'Not checked yet in this stage.';
+  return 'Not yet.';
 }

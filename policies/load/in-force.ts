@@ -1,6 +1,7 @@
 import { isFiniteNumber } from './guard';
 import { DEFAULT_PAIN_CEILING, MOVEMENT_PATTERNS, type Caps, type MovementPattern, type PatternRule } from './patterns';
 import { humanDate } from '../words/dates';
+import type { StageCriterion } from './stage-criteria';
 
 /** One stage of a restriction plan. Dates are 'YYYY-MM-DD'; both ends are inclusive. */
 export interface PlanStage {
@@ -12,6 +13,8 @@ export interface PlanStage {
   painCeiling: number;
   /** A pattern left out is free. */
   patterns: Partial<Record<MovementPattern, PatternRule>>;
+  /** Exit criteria (stage-criteria.ts); they never change what is in force. */
+  criteria?: StageCriterion[];
 }
 
 export interface PlanInput {

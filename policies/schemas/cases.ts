@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { BODY_REGIONS } from '../body-regions';
 import { CAP_KEYS, DEFAULT_PAIN_CEILING, MOVEMENT_PATTERNS, PARTICIPATION_STATUSES, PATTERN_MODES } from '../load/patterns';
 import { stageIssues } from '../load/in-force';
+import { StageCriteriaListSchema } from './stage-criteria';
 import { IsoDateSchema, UuidSchema, VersionSchema, text, wholeNumberText } from './common';
 
 export const ParticipationStatusSchema = z.enum(PARTICIPATION_STATUSES, { message: 'must be out, limited or full' });
@@ -101,6 +102,8 @@ export const PlanStageSchema = z.strictObject({
     .max(10, { message: 'must be 0–10' })
     .default(DEFAULT_PAIN_CEILING),
   patterns: z.partialRecord(z.enum(MOVEMENT_PATTERNS, { message: 'must be a movement pattern from the list' }), PatternRuleSchema),
+  /** Exit criteria (policies/load/stage-criteria.ts); none means the stage moves on by its dates. */
+  criteria: StageCriteriaListSchema.optional(),
 });
 export type PlanStageInput = z.infer<typeof PlanStageSchema>;
 
