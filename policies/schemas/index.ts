@@ -9,3 +9,4 @@ export * from './letters';
 export * from './uploads';
 export * from './account-security';
 export * from './notice-preferences';
+export * from './plan-templates';
