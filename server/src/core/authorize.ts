@@ -31,6 +31,7 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Clip: 'clip',
   ClipNote: 'note',
   Group: 'group',
+  PlanTemplate: 'plan template',
 };
 
 /**
@@ -84,6 +85,7 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Clip: 'technique clips',
   ClipNote: 'notes on clips',
   Group: 'groups',
+  PlanTemplate: 'plan templates',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {
