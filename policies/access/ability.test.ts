@@ -89,6 +89,8 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
       coachIds: relation === 'self' ? [me] : relation === 'same-org' ? [] : [STAFF],
       athleteIds: relation === 'self' ? [me] : relation === 'same-org' ? [] : [athleteId],
     },
+    // The injury report is about no athlete: only 'same-org' and 'other-org' apply.
+    InjuryReport: { organizationId: org },
   };
   return records[subject] as SubjectShapes[K];
 }

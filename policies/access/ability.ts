@@ -17,6 +17,7 @@ import { programRules } from './program';
 import { letterRules } from './letter';
 import { uploadRules } from './uploads';
 import { groupRules } from './group';
+import { injuryReportRules } from './injury-report';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -34,6 +35,7 @@ const RULE_SETS: RuleSet[] = [
   letterRules,
   uploadRules,
   groupRules,
+  injuryReportRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

@@ -43,6 +43,8 @@ export interface SubjectShapes {
   ClipNote: { id: string; organizationId: string; athleteId: string; authorUserId: string };
   /** A team, position group or training block, with its coaches' and athletes' membership ids. */
   Group: { id: string; organizationId: string; coachIds: string[]; athleteIds: string[] };
+  /** The organization's injury report: aggregates only, small cells suppressed. */
+  InjuryReport: { organizationId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -74,6 +76,7 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Clip',
   'ClipNote',
   'Group',
+  'InjuryReport',
 ];
 
 type TaggedSubjects = {

@@ -31,6 +31,7 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Clip: 'clip',
   ClipNote: 'note',
   Group: 'group',
+  InjuryReport: 'injury report',
 };
 
 /**
@@ -84,6 +85,7 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Clip: 'technique clips',
   ClipNote: 'notes on clips',
   Group: 'groups',
+  InjuryReport: 'the injury report',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {
