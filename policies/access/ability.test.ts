@@ -91,6 +91,8 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     },
     // 'self': a template the actor wrote; 'same-org': one another member of the organization wrote.
     PlanTemplate: { id: `template-${relation}`, organizationId: org, authorId: relation === 'self' ? me : STAFF },
+    // The injury report is about no athlete: only 'same-org' and 'other-org' apply.
+    InjuryReport: { organizationId: org },
   };
   return records[subject] as SubjectShapes[K];
 }

@@ -18,6 +18,7 @@ import { letterRules } from './letter';
 import { uploadRules } from './uploads';
 import { groupRules } from './group';
 import { planTemplateRules } from './plan-template';
+import { injuryReportRules } from './injury-report';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -36,6 +37,7 @@ const RULE_SETS: RuleSet[] = [
   uploadRules,
   groupRules,
   planTemplateRules,
+  injuryReportRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

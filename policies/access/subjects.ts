@@ -45,6 +45,8 @@ export interface SubjectShapes {
   Group: { id: string; organizationId: string; coachIds: string[]; athleteIds: string[] };
   /** A restriction plan written as days from its start, shared in the organization; `authorId` is the author's membership. */
   PlanTemplate: { id: string; organizationId: string; authorId: string };
+  /** The organization's injury report: aggregates only, small cells suppressed. */
+  InjuryReport: { organizationId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -77,6 +79,7 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'ClipNote',
   'Group',
   'PlanTemplate',
+  'InjuryReport',
 ];
 
 type TaggedSubjects = {

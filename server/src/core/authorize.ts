@@ -32,6 +32,7 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   ClipNote: 'note',
   Group: 'group',
   PlanTemplate: 'plan template',
+  InjuryReport: 'injury report',
 };
 
 /**
@@ -86,6 +87,7 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   ClipNote: 'notes on clips',
   Group: 'groups',
   PlanTemplate: 'plan templates',
+  InjuryReport: 'the injury report',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {
