@@ -304,6 +304,11 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     await grid.scrollIntoViewIfNeeded();
     await expect(cellLink(phone, sprint.name, 'Fitted, part left out')).toBeVisible();
     await expectNoSidewaysScroll(phone);
+    await keepScreenshot(phone, testInfo, 'team-program-390');
+    // Three sessions of at least 10rem beside the 8rem athlete column are wider than the phone: the grid's
+    // own box must overflow (if it did not, the scroll below would prove nothing and fail for that reason).
+    const overflow = await grid.evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth }));
+    expect(overflow.scroll, 'the review grid is wider than its box at 390 px').toBeGreaterThan(overflow.client);
     const athleteCell = grid.getByRole('rowheader', { name: new RegExp(hinge.name) });
     const before = await athleteCell.boundingBox();
     await grid.evaluate((el) => el.scrollBy({ left: 400 }));
@@ -315,6 +320,14 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     // A cell is a comfortable tap target and fully on screen once scrolled to.
     expect(box!.height).toBeGreaterThanOrEqual(24);
     await keepScreenshot(phone, testInfo, 'team-grid-390');
+
+    // The version screen at 390 px: the line-by-line table scrolls in its own box, the page does not.
+    await grid.evaluate((el) => el.scrollTo({ left: 0 }));
+    await cellLink(phone, sprint.name, 'Fitted, part left out').click();
+    await expectHome(phone, `${sprint.name} — ${SESSION}`);
+    await expect(phone.getByRole('status').filter({ hasText: 'Drop accepted' })).toBeVisible();
+    await expectNoSidewaysScroll(phone);
+    await keepScreenshot(phone, testInfo, 'team-version-390');
   } finally {
     await phoneContext.close();
   }
