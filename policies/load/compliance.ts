@@ -43,7 +43,9 @@ export interface EngineContext {
  * ~2,000 sets), so work that does not change from set to set is done once: the rules in force per
  * distinct combination of stages, what they mean per exercise, status and week per date; counts
  * are kept per pattern index rather than under built string keys. The results are the same, in the
- * same order, as checking every set from scratch.
+ * same order, as checking every set from scratch. `prepared` (prepareRules(ctx)) keeps the rules per
+ * day and per exercise across many checks of one athlete (team fitting); it is used only when it was
+ * prepared from this context's plans, library and status, and gives the same breaches as none.
  */
 export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: PreparedRules): Breach[] {
   const unit = ctx.unit ?? 'kg';

@@ -58,7 +58,8 @@ export class PreparedRules {
   on(date: string): DateRules | null {
     let r = this.byDate.get(date);
     if (r === undefined) {
-      r = isIsoDate(date) ? { stages: this.stagesOn(date), out: this.outOn(date), week: mondayOf(date) } : null;
+      const week = mondayOfDay(date);
+      r = week === null ? null : { stages: this.stagesOn(date), out: this.outOn(date), week };
       this.byDate.set(date, r);
     }
     return r;
@@ -78,6 +79,21 @@ export class PreparedRules {
     if (!v) this.byStages.set(key, (v = { day: inForceOn(this.plans, date), exercises: new Map() }));
     return v;
   }
+}
+
+/**
+ * The Monday of a calendar day, or null when the string is not one: isIsoDate and mondayOf, kept per
+ * date string (a squad's athletes share the program's dates; the answer depends on the string alone).
+ * Bounded: the table is emptied when it grows large.
+ */
+const mondays = new Map<string, string | null>();
+function mondayOfDay(date: string): string | null {
+  let m = mondays.get(date);
+  if (m === undefined) {
+    if (mondays.size >= 4096) mondays.clear();
+    mondays.set(date, (m = isIsoDate(date) ? mondayOf(date) : null));
+  }
+  return m;
 }
 
 /** The athlete's rules prepared for many checks (see PreparedRules). */

@@ -47,6 +47,12 @@ export function fitTeamSession(
   if (prepared.outOn(team.date)) return { content: { exercises: [] }, changes: [], state: 'out' };
   const engine: EngineContext = ctx.waivedSetIds === undefined ? ctx : { ...ctx, waivedSetIds: undefined };
   const unit = ctx.unit ?? 'kg';
+  // No stage in force on a calendar day (and not Out): most versions of a team session. When every
+  // exercise is known and every set reads, nothing can breach: the version is the session as written.
+  if (ctx.plans.length === 0 || prepared.on(team.date)?.stages.day.stages.length === 0) {
+    const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx) : null;
+    if (content) return { content, changes: [], state: 'as_written' };
+  }
   const rows = team.content.exercises.map((r) => newRow(r, ctx));
   // No plan and every exercise known: the check runs with no day (nothing to read rules from).
   const stages = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : stagesOn(prepared, team.date);
@@ -99,19 +105,52 @@ const addNotes = (slot: Slot, notes: readonly string[]) => {
   if (notes.length > 0) slot.notes = slot.notes.concat(notes);
 };
 
-function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
-  const ex = ctx.exercises[r.exerciseId];
-  // A row's sets usually share their % of 1RM: resolved once per value (loads are never changed in place).
+/**
+ * The team's sets of one row resolved for this athlete (a % of 1RM as a load on the steps): each set as
+ * written. A set whose load needs no resolving is its own version (sets are never changed in place).
+ */
+function asWrittenOf(ex: EngineExercise | undefined, baselines: Record<string, number>): (s: PlannedSetInput) => PlannedSetInput {
+  // A row's sets usually share their % of 1RM: resolved once per value.
   let lastPercent: number | null = null;
   let lastLoad: PlannedSetInput['load'] | null = null;
   const resolve = (load: PlannedSetInput['load']) => {
-    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, ctx.baselines) : load;
+    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, baselines) : load;
     if (load.value !== lastPercent || lastLoad === null) {
       lastPercent = load.value;
-      lastLoad = resolveLoad(load, ex, ctx.baselines);
+      lastLoad = resolveLoad(load, ex, baselines);
     }
     return lastLoad;
   };
+  return (s) => {
+    const load = resolve(s.load);
+    return load === s.load ? s : { ...s, load };
+  };
+}
+
+/**
+ * The session as written for this athlete (what finish returns when nothing changed), or null when an
+ * exercise is unknown or a set cannot be read (the fitting loop then says why). Only for a calendar day.
+ */
+function asWrittenContent(content: SessionContent, ctx: EngineContext): SessionContent | null {
+  const exercises: SessionContent['exercises'] = [];
+  for (const r of content.exercises) {
+    const ex = ctx.exercises[r.exerciseId];
+    if (!ex) return null;
+    const asWritten = asWrittenOf(ex, ctx.baselines);
+    const sets: PlannedSetInput[] = [];
+    for (const s of r.sets) {
+      const set = asWritten(s);
+      if (unreadableFields(set) !== null) return null;
+      sets.push(set);
+    }
+    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+  }
+  return { exercises };
+}
+
+function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
+  const ex = ctx.exercises[r.exerciseId];
+  const asWrittenSet = asWrittenOf(ex, ctx.baselines);
   return {
     id: r.id,
     teamExerciseId: r.exerciseId,
@@ -119,9 +158,7 @@ function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row
     ex,
     notes: r.notes,
     slots: r.sets.map((s) => {
-      // A set whose load needs no resolving is its own version as written (sets are never changed in place).
-      const load = ex ? resolve(s.load) : s.load;
-      const asWritten = load === s.load ? s : { ...s, load };
+      const asWritten = asWrittenSet(s);
       return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES };
     }),
     swaps: null,
