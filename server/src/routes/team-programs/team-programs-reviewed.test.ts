@@ -31,6 +31,11 @@ describe('team programs: a reviewed version stays reviewed while its fit is the 
     g = await w.grid(p.id);
     expect(w.cell(g, w.sprint)).toMatchObject({ state: 'needs_decision', reviewed: true });
     expect(g.cells.filter((c) => c.reviewed).map((c) => c.athleteId)).toEqual([w.sprint]);
+    // The floor sheet no longer asks for a decision on that row (its state column says what is left).
+    const csv = await w.coach.get(`${w.base}/team-sessions/${team.id}/floor-sheet.csv`);
+    expect(csv.status).toBe(200);
+    expect(csv.text).toContain('Fitted, part left out');
+    expect(csv.text).not.toContain('Needs a decision');
 
     // A new title alone does not change the fit: the acceptance stands.
     let res = await patchTeam({ version: team.version, title: 'Squad lift A' });
