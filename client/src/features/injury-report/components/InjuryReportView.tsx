@@ -107,7 +107,8 @@ export function InjuryReportView({ orgId }: { orgId: string }) {
                     cells={cells}
                     measure={measure}
                   />
-                  <div className="overflow-x-auto">
+                  {/* Scrolls sideways on a phone inside its own focusable region, as DataTable does. */}
+                  <div className="overflow-x-auto" role="region" aria-label={`Table by ${label.toLowerCase()}`} tabIndex={0}>
                     <table className="mt-3 w-full text-sm">
                       <caption className="text-left font-semibold">By {label.toLowerCase()}</caption>
                       <thead>
