@@ -1,5 +1,4 @@
 /** Plan templates: a plan's stages in days from its start, shared in the organization. Types only. */
-import type { PlanStage } from '../load/in-force';
 import type { TemplateStage } from '../load/plan-template';
 
 export interface PlanTemplateSummaryDto {
@@ -20,13 +19,5 @@ export interface PlanTemplateSummaryDto {
 
 export interface PlanTemplateDto extends PlanTemplateSummaryDto {
   stages: TemplateStage[];
-  guidance: string;
-}
-
-/** A new plan's stages from a template and a start date, to edit before saving. */
-export interface PlanFromTemplateDto {
-  templateId: string;
-  templateVersion: number;
-  stages: PlanStage[];
   guidance: string;
 }

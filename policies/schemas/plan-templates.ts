@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { templateStageIssues } from '../load/plan-template';
 import { PlanStageSchema } from './cases';
-import { IsoDateSchema, UuidSchema, VersionSchema, line, text } from './common';
+import { UuidSchema, VersionSchema, line, text } from './common';
 
 /**
  * Request shapes of plan templates: a restriction plan's stages counted in days from the plan's start
@@ -61,6 +61,3 @@ export const PlanTemplateCopySchema = z.strictObject({ name: TemplateName.option
 export type PlanTemplateCopyInput = z.infer<typeof PlanTemplateCopySchema>;
 
 export const PlanTemplateArchiveSchema = z.strictObject({ version: VersionSchema });
-
-/** The stages of a new plan from a template, dated from `startDate` (nothing is saved). */
-export const PlanTemplateStartQuerySchema = z.strictObject({ startDate: IsoDateSchema });

@@ -129,6 +129,10 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
     const format = field(e.after, 'format');
     return `${who} downloaded the floor sheet of a team session${format === 'csv' ? ' (CSV)' : format === 'pdf' ? ' (PDF)' : ''}`;
   },
+  'plan_template.created': (who, e) => `${who} saved the plan template "${String(field(e.after, 'name') ?? '')}"`,
+  'plan_template.updated': (who, e) => `${who} changed the plan template "${String(field(e.after, 'name') ?? '')}"`,
+  'plan_template.copied': (who, e) => `${who} copied a plan template as "${String(field(e.after, 'name') ?? '')}"`,
+  'plan_template.archived': (who, e) => `${who} archived the plan template "${String(field(e.before, 'name') ?? '')}"`,
   'exception.requested': (who, e) => `${who} asked for an exception to ${whose(e, 'limits')}`,
   'exception.granted': (who, e) => `${who} granted an exception to ${whose(e, 'limits')}`,
   'exception.refused': (who, e) => `${who} refused an exception to ${whose(e, 'limits')}`,

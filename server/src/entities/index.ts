@@ -30,6 +30,7 @@ import { ClipNote } from './clip-note.entity';
 import { PasswordResetToken } from './password-reset-token.entity';
 import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
 import { Group, GroupMember } from './group.entity';
+import { PlanTemplate } from './plan-template.entity';
 
 export {
   Organization,
@@ -62,6 +63,7 @@ export {
 export { CaseDocument, Clip, ClipNote };
 export { PasswordResetToken, UserTotp, TotpRecoveryCode };
 export { Group, GroupMember };
+export { PlanTemplate };
 
 export const ENTITIES = [
   Organization,
@@ -98,4 +100,5 @@ export const ENTITIES = [
   TotpRecoveryCode,
   Group,
   GroupMember,
+  PlanTemplate,
 ];

@@ -27,6 +27,7 @@ import { createLogger } from '../logger';
 import { createStorage } from '../storage';
 import { loadSeason } from './demo-season';
 import { DemoDirector, jordansClosedCase, mayasCase } from './demo-story';
+import { demoPlanTemplates } from './demo-templates';
 import { upcomingWeek } from './demo-week';
 import { SQUAD, squadBaselines, squadGroup, squadTeamProgram, tessasCase } from './demo-squad';
 import { loadInjurySeason } from './demo-injuries';
@@ -190,6 +191,7 @@ export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ cre
       await squadBaselines(director, ids);
       await tessasCase(director, ids);
       await squadTeamProgram(director, squadGroupId);
+      await demoPlanTemplates(director);
       if (storage) {
         await attachDemoDocument(m, storage, {
           organizationId: org.id,

@@ -15,6 +15,7 @@ import { getPlanQueryOptions } from '../api/get-plan';
 import { blankStage, copiedStages, planFormResolver, planToForm, type PlanForm } from './plan-form';
 import { CAP_COLUMNS } from './plan-words';
 import { StageCard } from './StageCard';
+import { StartFromTemplate } from '../../plan-templates/components/StartFromTemplate';
 
 export const STALE_PLAN =
   'Someone saved this plan after you opened it, so your changes were not saved. Load the latest version, check what changed, then make your edit again.';
@@ -102,7 +103,7 @@ export function PlanEditor({
       ? planToForm(plan.current.stages, plan.current.guidance, unit)
       : { stages: [blankStage()], guidance: '', changeNote: '' },
   });
-  const { control, register, handleSubmit, reset, getValues, formState } = methods;
+  const { control, register, handleSubmit, reset, getValues, setValue, formState } = methods;
   const { fields, append, remove, move, replace } = useFieldArray({ control, name: 'stages' });
 
   const stale = isApiError(update.error) && update.error.code === 'version_conflict';
@@ -149,6 +150,15 @@ export function PlanEditor({
           <p className="text-sm text-ink-2">
             Editing version {baseVersion}. Saving keeps every earlier version; the care team sees what changed.
           </p>
+        )}
+        {!plan && (
+          <StartFromTemplate
+            orgId={orgId}
+            onStages={(stages, guidance) => {
+              replace(copiedStages(stages, unit));
+              if (guidance && getValues('guidance').trim() === '') setValue('guidance', guidance);
+            }}
+          />
         )}
         {!plan && copySources.length > 0 && (
           <div className="flex flex-wrap items-end gap-2 rounded-md border border-rule p-3">

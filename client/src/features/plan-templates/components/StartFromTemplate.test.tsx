@@ -1,0 +1,66 @@
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import type { PlanTemplateDto } from '../../../../../policies/dto';
+import { setCsrfToken } from '../../../lib/api-client';
+import { jsonResponse, renderWithProviders } from '../../../test/render';
+import { PlanEditor } from '../../plans/components/PlanEditor';
+
+const ORG = '11111111-1111-4111-8111-111111111111';
+const CASE = '22222222-2222-4222-8222-222222222222';
+const TEMPLATE = '55555555-5555-4555-8555-555555555555';
+
+const template: PlanTemplateDto = {
+  id: TEMPLATE,
+  name: 'Low back, extension-related',
+  description: '',
+  authorId: 'm-priya',
+  authorName: 'Priya Raman',
+  stageCount: 2,
+  lengthDays: 28,
+  canEdit: true,
+  updatedAt: '2026-03-01T09:00:00.000Z',
+  version: 1,
+  guidance: 'Walk and cycle freely.',
+  stages: [
+    { label: 'Settle', startOffset: 0, endOffset: 13, painCeiling: 3, patterns: { jump: { mode: 'blocked' } } },
+    { label: 'Build', startOffset: 14, endOffset: 27, painCeiling: 4, patterns: {} },
+  ],
+};
+
+const fetchMock = vi.fn<typeof fetch>();
+beforeEach(() => {
+  vi.stubGlobal('fetch', fetchMock);
+  setCsrfToken('token-1');
+});
+afterEach(() => {
+  vi.unstubAllGlobals();
+  fetchMock.mockReset();
+});
+
+const stage = (n: number) => screen.getByRole('group', { name: `Stage ${n}` });
+
+describe('Start from a template (plan editor)', () => {
+  it('dates the stages from the chosen first day and leaves them editable; nothing is saved until Save plan', async () => {
+    fetchMock.mockImplementation(async (url) => {
+      const { stages: _s, guidance: _g, ...summary } = template;
+      return String(url).endsWith('/plan-templates') ? jsonResponse(200, [summary]) : jsonResponse(200, template);
+    });
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" onSaved={vi.fn()} onCancel={vi.fn()} />);
+    expect(fetchMock).not.toHaveBeenCalled();
+    fireEvent.click(screen.getByRole('button', { name: 'Start from a template' }));
+    const pick = await screen.findByLabelText('Template');
+    fireEvent.change(pick, { target: { value: TEMPLATE } });
+    fireEvent.change(screen.getByLabelText('First day of the plan'), { target: { value: '2026-12-24' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Use this template' }));
+
+    // Day 0–13 from 24 Dec 2026 is 24 Dec–6 Jan; day 14–27 is 7–20 Jan 2027 (calendar arithmetic by hand).
+    await waitFor(() => expect(within(stage(2)).getByLabelText('Start date')).toHaveValue('2027-01-07'));
+    expect(within(stage(1)).getByLabelText('Start date')).toHaveValue('2026-12-24');
+    expect(within(stage(1)).getByLabelText('End date')).toHaveValue('2027-01-06');
+    expect(within(stage(2)).getByLabelText('End date')).toHaveValue('2027-01-20');
+    expect(screen.getByLabelText('Guidance for the athlete and family')).toHaveValue('Walk and cycle freely.');
+    expect(screen.getByText(/Started from “Low back, extension-related”/)).toBeInTheDocument();
+    // Still a draft: only reads went out.
+    expect(fetchMock.mock.calls.every(([, init]) => (init?.method ?? 'GET') === 'GET')).toBe(true);
+  });
+});
