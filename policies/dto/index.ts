@@ -9,3 +9,4 @@ export type * from './letters';
 export type * from './uploads';
 export type * from './notice-preferences';
 export type * from './teams';
+export type * from './stage-criteria';

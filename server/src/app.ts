@@ -23,6 +23,7 @@ import { guardianLinkRoutes } from './routes/guardian-links/guardian-links.route
 import { auditRoutes } from './routes/audit/audit.router';
 import { caseRoutes } from './routes/cases/cases.router';
 import { planRoutes } from './routes/plans/plans.router';
+import { stageCriteriaRoutes } from './routes/stage-criteria/stage-criteria.router';
 import { painReportRoutes } from './routes/pain-reports/pain-reports.router';
 import { trainingRoutes } from './routes/training/training.router';
 import { flagRoutes } from './routes/flags/flags.router';
@@ -125,6 +126,7 @@ export function buildApp(base: AppDeps) {
     ...auditRoutes,
     ...caseRoutes,
     ...planRoutes,
+    ...stageCriteriaRoutes,
     ...painReportRoutes,
     ...trainingRoutes,
     ...flagRoutes,

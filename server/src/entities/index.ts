@@ -30,6 +30,7 @@ import { ClipNote } from './clip-note.entity';
 import { PasswordResetToken } from './password-reset-token.entity';
 import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
 import { Group, GroupMember } from './group.entity';
+import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
 
 export {
   Organization,
@@ -62,6 +63,7 @@ export {
 export { CaseDocument, Clip, ClipNote };
 export { PasswordResetToken, UserTotp, TotpRecoveryCode };
 export { Group, GroupMember };
+export { StageCriterionReading, StageDecision };
 
 export const ENTITIES = [
   Organization,
@@ -98,4 +100,6 @@ export const ENTITIES = [
   TotpRecoveryCode,
   Group,
   GroupMember,
+  StageCriterionReading,
+  StageDecision,
 ];
