@@ -11,6 +11,7 @@ import { usePlan } from '../api/get-plan';
 import { PlanEditor, type CopySource } from './PlanEditor';
 import { PlanStagesView } from './PlanStagesView';
 import { PlanVersions } from './PlanVersions';
+import { StageCriteriaPanel } from '../../stage-criteria/components/StageCriteriaPanel';
 
 export interface PlanSectionProps {
   orgId: string;
@@ -112,6 +113,7 @@ function ExistingPlan({ orgId, caseId, planId, unit, closed, canUpdate }: PlanSe
         )}
       </div>
       <PlanStagesView stages={current.stages} unit={unit} today={todayLocal()} />
+      {!closed && <StageCriteriaPanel orgId={orgId} planId={planId} />}
       <div>
         <p className="text-sm font-semibold">Guidance for the athlete and family</p>
         {current.guidance ? (
