@@ -8,7 +8,14 @@
  *   node --import tsx bench/team-fit.ts          (alone)
  *   npm run bench                                  (with the other benchmarks)
  */
-import { blockingBreaches, checkSets, type EngineContext, type EngineExercise, type EngineSet } from '../policies/load/compliance';
+import {
+  blockingBreaches,
+  checkSets,
+  prepareRules,
+  type EngineContext,
+  type EngineExercise,
+  type EngineSet,
+} from '../policies/load/compliance';
 import type { PlanInput, PlanStage } from '../policies/load/in-force';
 import type { ParticipationStatus } from '../policies/load/patterns';
 import { sessionEngineSets, type PlannedLoad } from '../policies/load/sets';
@@ -285,13 +292,15 @@ export function fitAll(team: TeamSession[], athletes: Athlete[], states?: Map<Fi
     const sets: EngineSet[] = [];
     let week = '';
     let weekSets: EngineSet[] = [];
+    // The athlete's rules worked out once for all their sessions (as a publish to the squad does).
+    const rules = prepareRules(a.ctx);
     for (const t of team) {
       const w = t.id.slice(0, t.id.indexOf('d'));
       if (w !== week) {
         week = w;
         weekSets = [];
       }
-      const fitted = fitTeamSession(t, a.ctx, { otherSets: weekSets });
+      const fitted = fitTeamSession(t, a.ctx, { otherSets: weekSets, rules });
       if (states) states.set(fitted.state, (states.get(fitted.state) ?? 0) + 1);
       for (const s of sessionEngineSets({ id: t.id, date: t.date, content: fitted.content })) {
         weekSets.push(s);

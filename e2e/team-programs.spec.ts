@@ -12,8 +12,8 @@ import { apiWrite } from './uploads-helpers';
  * a clinician and a squad of eight athletes made by SQL in the demo organization (no other spec reads
  * them), two of them restricted by the clinician — deadlift (hinge) capped at 60 % of 1RM, and sprinting
  * blocked. The coach writes one squad session, reviews the grid (the capped athlete "Fitted", the
- * blocked one "Needs a decision"), is refused a publish that lists who and what, accepts the drop, and
- * publishes to the group. The clinician then tightens the hinge cap; the grid says "Needs review" for
+ * blocked one "Needs a decision"), is refused a publish that lists who and what, accepts the drop (the
+ * grid then says "Drop accepted"), and publishes to the group. The clinician then tightens the hinge cap; the grid says "Needs review" for
  * that athlete until the coach accepts the new fit. Last, the grid at 390 px wide.
  */
 
@@ -238,10 +238,22 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     await expect(page.getByRole('button', { name: 'Accept the drop' })).toHaveCount(0);
     await page.getByRole('link', { name: '← The team program' }).click();
     await expectHome(page, PROGRAM);
+    // The grid keeps the decision: the cell no longer asks for one, and says the drop was accepted.
+    const accepted = cellLink(page, sprint.name, 'Fitted, part left out · Drop accepted$');
+    await expect(accepted).toBeVisible();
+    await expect(accepted).toContainText('Drop accepted');
+    // Opened again, the version screen still says so (read from the version, not from the click).
+    await accepted.click();
+    await expectHome(page, `${sprint.name} — ${SESSION}`);
+    await expect(page.getByRole('status').filter({ hasText: 'Drop accepted' })).toBeVisible();
+    await expect(page.getByRole('button', { name: 'Accept the drop' })).toHaveCount(0);
+    await page.getByRole('link', { name: '← The team program' }).click();
+    await expectHome(page, PROGRAM);
 
     await page.getByRole('button', { name: `Publish ${SESSION} to the group` }).click();
     await expect(page.getByRole('status').filter({ hasText: 'Published to the group' })).toContainText('8 athlete versions published.');
     await expect(cellLink(page, hinge.name, 'Fitted \\(3 changes\\) · Published$')).toBeVisible();
+    await expect(cellLink(page, sprint.name, 'Fitted, part left out · Drop accepted · Published$')).toBeVisible();
 
     // The clinician tightens the hinge cap to 50 %: the coach's grid asks for a review of that athlete.
     const current = (await (await clinician.request.get(`/api/orgs/${orgId}/plans/${hingePlan.id}`)).json()) as { version: number };
@@ -261,11 +273,11 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
   await review.click();
   await expect(page.getByText('A new fit after a limit change')).toBeVisible();
   await page.getByRole('button', { name: 'Accept the new fit' }).click();
-  await expect(page.getByRole('status').filter({ hasText: 'Accepted: the new fit' })).toBeVisible();
+  await expect(page.getByRole('status').filter({ hasText: 'Reviewed' })).toContainText('You accepted this fit');
   await expect(page.getByText('A new fit after a limit change')).toHaveCount(0);
   await expect(page.getByLabel('State of this version')).not.toContainText('Needs review');
   await page.getByRole('link', { name: '← The team program' }).click();
-  await expect(cellLink(page, hinge.name, 'Fitted \\(3 changes\\) · Published$')).toBeVisible();
+  await expect(cellLink(page, hinge.name, 'Fitted \\(3 changes\\) · Reviewed · Published$')).toBeVisible();
 
   // Two more (empty) team sessions, so the grid is wider than a phone.
   const programId = new URL(page.url()).pathname.split('/')[3];
@@ -290,8 +302,13 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     await expectHome(phone, PROGRAM);
     const grid = gridOf(phone);
     await grid.scrollIntoViewIfNeeded();
-    await expect(cellLink(phone, sprint.name, 'Needs a decision')).toBeVisible();
+    await expect(cellLink(phone, sprint.name, 'Fitted, part left out')).toBeVisible();
     await expectNoSidewaysScroll(phone);
+    await keepScreenshot(phone, testInfo, 'team-program-390');
+    // Three sessions of at least 10rem beside the 8rem athlete column are wider than the phone: the grid's
+    // own box must overflow (if it did not, the scroll below would prove nothing and fail for that reason).
+    const overflow = await grid.evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth }));
+    expect(overflow.scroll, 'the review grid is wider than its box at 390 px').toBeGreaterThan(overflow.client);
     const athleteCell = grid.getByRole('rowheader', { name: new RegExp(hinge.name) });
     const before = await athleteCell.boundingBox();
     await grid.evaluate((el) => el.scrollBy({ left: 400 }));
@@ -303,6 +320,14 @@ test('a coach writes one squad session, reviews every athlete’s version, publi
     // A cell is a comfortable tap target and fully on screen once scrolled to.
     expect(box!.height).toBeGreaterThanOrEqual(24);
     await keepScreenshot(phone, testInfo, 'team-grid-390');
+
+    // The version screen at 390 px: the line-by-line table scrolls in its own box, the page does not.
+    await grid.evaluate((el) => el.scrollTo({ left: 0 }));
+    await cellLink(phone, sprint.name, 'Fitted, part left out').click();
+    await expectHome(phone, `${sprint.name} — ${SESSION}`);
+    await expect(phone.getByRole('status').filter({ hasText: 'Drop accepted' })).toBeVisible();
+    await expectNoSidewaysScroll(phone);
+    await keepScreenshot(phone, testInfo, 'team-version-390');
   } finally {
     await phoneContext.close();
   }

@@ -89,6 +89,10 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
       coachIds: relation === 'self' ? [me] : relation === 'same-org' ? [] : [STAFF],
       athleteIds: relation === 'self' ? [me] : relation === 'same-org' ? [] : [athleteId],
     },
+    // 'self': a template the actor wrote; 'same-org': one another member of the organization wrote.
+    PlanTemplate: { id: `template-${relation}`, organizationId: org, authorId: relation === 'self' ? me : STAFF },
+    // The injury report is about no athlete: only 'same-org' and 'other-org' apply.
+    InjuryReport: { organizationId: org },
   };
   return records[subject] as SubjectShapes[K];
 }

@@ -17,6 +17,8 @@ import { programRules } from './program';
 import { letterRules } from './letter';
 import { uploadRules } from './uploads';
 import { groupRules } from './group';
+import { planTemplateRules } from './plan-template';
+import { injuryReportRules } from './injury-report';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -34,6 +36,8 @@ const RULE_SETS: RuleSet[] = [
   letterRules,
   uploadRules,
   groupRules,
+  planTemplateRules,
+  injuryReportRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

@@ -112,6 +112,20 @@ export const CARE_GRID: [SubjectName, Action, Relation, string][] = [
   ['Exercise',           'update', 'other-org',       'n   n   n   n   n'],
   ['Exercise',           'delete', 'same-org',        'n   n   n   n   n'],
 
+  // Plan templates: the clinicians' shared protocols, about no athlete. 'self' is a template the
+  // actor wrote (only clinicians write them); 'same-org' one another member wrote. Every clinician
+  // reads and copies any of them; only the author — or an admin — changes or archives one (an
+  // update). Coaches, athletes and guardians see none. Nobody deletes one.
+  ['PlanTemplate',       'read',   'self',            '-   -   Y   -   -'],
+  ['PlanTemplate',       'read',   'same-org',        'n   n   Y   n   Y'],
+  ['PlanTemplate',       'read',   'other-org',       'n   n   n   n   n'],
+  ['PlanTemplate',       'create', 'same-org',        'n   n   Y   n   n'],
+  ['PlanTemplate',       'create', 'other-org',       'n   n   n   n   n'],
+  ['PlanTemplate',       'update', 'self',            '-   -   Y   -   -'],
+  ['PlanTemplate',       'update', 'same-org',        'n   n   n   n   Y'],
+  ['PlanTemplate',       'update', 'other-org',       'n   n   n   n   n'],
+  ['PlanTemplate',       'delete', 'same-org',        'n   n   n   n   n'],
+
   // Strength baselines (tested or estimated 1RM): the care team records and reads them, the athlete
   // reads their own; guardians and admins none. Append-only: a new baseline replaces, never edits.
   ['Baseline',           'read',   'self',            'Y   -   -   -   -'],

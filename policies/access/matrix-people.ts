@@ -123,4 +123,9 @@ export const PEOPLE_GRID: [SubjectName, Action, Relation, string][] = [
   ['Group',              'update', 'other-athlete',   'n   n   n   n   Y'],
   ['Group',              'update', 'other-org',       'n   n   n   n   n'],
   ['Group',              'delete', 'other-athlete',   'n   n   n   n   n'],
+
+  // The injury report: aggregates of the whole organization, for admins and clinicians only.
+  ['InjuryReport',       'read',   'same-org',        'n   n   Y   n   Y'],
+  ['InjuryReport',       'read',   'other-org',       'n   n   n   n   n'],
+  ['InjuryReport',       'update', 'same-org',        'n   n   n   n   n'],
 ];

@@ -43,6 +43,10 @@ export interface SubjectShapes {
   ClipNote: { id: string; organizationId: string; athleteId: string; authorUserId: string };
   /** A team, position group or training block, with its coaches' and athletes' membership ids. */
   Group: { id: string; organizationId: string; coachIds: string[]; athleteIds: string[] };
+  /** A restriction plan written as days from its start, shared in the organization; `authorId` is the author's membership. */
+  PlanTemplate: { id: string; organizationId: string; authorId: string };
+  /** The organization's injury report: aggregates only, small cells suppressed. */
+  InjuryReport: { organizationId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -74,6 +78,8 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Clip',
   'ClipNote',
   'Group',
+  'PlanTemplate',
+  'InjuryReport',
 ];
 
 type TaggedSubjects = {

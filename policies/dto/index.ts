@@ -10,3 +10,4 @@ export type * from './uploads';
 export type * from './notice-preferences';
 export type * from './teams';
 export type * from './stage-criteria';
+export type * from './plan-templates';

@@ -48,6 +48,11 @@ export interface GridCellDto {
   changes: number;
   overridden: boolean;
   needsReview: boolean;
+  /**
+   * The coach accepted the current fit (a drop accepted, a re-fit or change looked at): the version's
+   * reviewedAt, cleared whenever the fit changes or the version needs review again.
+   */
+  reviewed: boolean;
   published: boolean;
   /** On hold after a limit change (published and now breaching). */
   held: boolean;
@@ -71,6 +76,8 @@ export interface TeamVersionDto {
   changes: FitChange[];
   overridden: boolean;
   needsReview: boolean;
+  /** The coach accepted the current fit (as on the grid cell). */
+  reviewed: boolean;
   /** A re-fit after a limit change, waiting for the coach to accept it. */
   proposal: FittedSession | null;
   /** What the engine says about the version as it stands (blocking ones stop publishing). */

@@ -22,6 +22,11 @@ export const bySessionThenOrder = (a: EngineSet, b: EngineSet) =>
 /** Why a set cannot be checked at all, in words; null when every field the check reads is usable. */
 export function unreadable(set: EngineSet, validDate: (date: string) => boolean): string | null {
   if (!validDate(set.date)) return 'its date is not a calendar day';
+  return unreadableFields(set);
+}
+
+/** unreadable for a set whose date is known to be a calendar day: its reps, load and target RPE. */
+export function unreadableFields(set: Pick<EngineSet, 'reps' | 'load' | 'targetRpe'>): string | null {
   if (!isFiniteNumber(set.reps) || !Number.isInteger(set.reps) || set.reps < 1) return 'its reps are not a whole number of at least 1';
   if (set.load.kind !== 'bodyweight' && (!isFiniteNumber(set.load.value) || set.load.value < 0)) return 'its load is not a number';
   if (set.targetRpe != null && !(isFiniteNumber(set.targetRpe) && set.targetRpe >= 1 && set.targetRpe <= 10))

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { blockingBreaches, checkSets, HARD_SET_RPE, plannedKg, suggestSwaps, weekOf } from './compliance';
-import { bench, ctx, kbSwing, library, plan, rules, set, stage, trapBar } from './compliance-fixtures';
+import { bench, boxJump, ctx, ex, kbSwing, library, plan, rules, set, stage, trapBar } from './compliance-fixtures';
 import { inForceOn } from './in-force';
 import type { ParticipationStatus } from './patterns';
 
@@ -180,5 +180,24 @@ describe('helpers', () => {
     // Sumo shares both patterns with the trap-bar lift; then one pattern each, by name.
     expect(suggestSwaps(trapBar, library, day).map((e) => e.id)).toEqual(['sumo', 'sq', 'dl']);
     expect(suggestSwaps(bench, library, day)).toEqual([]);
+  });
+
+  it('suggestSwaps: the exercise’s "use instead" list first in its order, and a no-pattern exercise only through it', () => {
+    const bike = ex('bike', 'Bike intervals', []);
+    const rower = ex('row', 'Rower', []);
+    const withCardio = [...library, bike, rower];
+    const plans = plan(stage({ hinge: { mode: 'capped', caps: { impactAllowed: false } }, jump: { mode: 'blocked' } }));
+    const day = inForceOn(plans, '2026-03-03');
+    // Without a list, nothing that has no pattern is offered: it shares nothing to judge it by.
+    expect(suggestSwaps(kbSwing, withCardio, day, 10).map((e) => e.id)).toEqual(['dl', 'rdl', 'sumo', 'tb']);
+    // The list comes first in the coach's order (the rower before the squat-and-hinge lifts), then the family.
+    const named = { ...kbSwing, useInstead: ['row', 'sumo', 'bike'] };
+    expect(suggestSwaps(named, withCardio, day, 10).map((e) => e.id)).toEqual(['row', 'sumo', 'bike', 'dl', 'rdl', 'tb']);
+    expect(suggestSwaps(named, withCardio, day).map((e) => e.id)).toEqual(['row', 'sumo', 'bike']);
+    // A listed exercise that is blocked that day, unknown to the library, or the exercise itself is skipped.
+    const jumpy = { ...kbSwing, useInstead: ['bj', 'gone', 'kbs', 'bike'] };
+    expect(suggestSwaps(jumpy, withCardio, day, 2).map((e) => e.id)).toEqual(['bike', 'dl']);
+    expect(suggestSwaps(boxJump, withCardio, day)).toEqual([]);
+    expect(suggestSwaps({ ...boxJump, useInstead: ['bike'] }, withCardio, day).map((e) => e.id)).toEqual(['bike']);
   });
 });

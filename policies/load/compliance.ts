@@ -1,13 +1,14 @@
 import type { Unit } from '../schemas/common';
 import type { Breach, BreachRule } from './breach';
-import { exerciseRules, type EngineExercise, type ExerciseRules } from './exercise-rules';
+import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import { overCap, percentOf, suggestFit, suggestPercent, type Fit, type LoadCaps } from './fitting';
 import { bySessionThenOrder, memo, n, unreadable } from './check-support';
-import { isFiniteNumber, isIsoDate } from './guard';
-import { inForceOn, type InForce, type PlanInput } from './in-force';
+import { isFiniteNumber } from './guard';
+import type { PlanInput } from './in-force';
 import { estimateRpe } from './intensity';
 import { MOVEMENT_PATTERNS, PATTERN_LABELS, type MovementPattern, type ParticipationStatus } from './patterns';
-import { HARD_SET_RPE, isHardSet, mondayOf, plannedKg, type EngineSet } from './sets';
+import { PreparedRules, type StageRules } from './prepared-rules';
+import { HARD_SET_RPE, isHardSet, plannedKg, type EngineSet } from './sets';
 import { describeSteps, type LoadSteps } from './steps';
 import { formatLoad } from './units';
 import { humanDate } from '../words/dates';
@@ -19,6 +20,7 @@ import { humanDate } from '../words/dates';
  */
 export type { Breach, BreachRule } from './breach';
 export { blockingBreaches } from './breach';
+export { PreparedRules, prepareRules } from './prepared-rules';
 export type { EngineExercise } from './exercise-rules';
 export { suggestSwaps } from './exercise-rules';
 export type { EngineSet, PlannedLoad } from './sets';
@@ -41,23 +43,17 @@ export interface EngineContext {
  * ~2,000 sets), so work that does not change from set to set is done once: the rules in force per
  * distinct combination of stages, what they mean per exercise, status and week per date; counts
  * are kept per pattern index rather than under built string keys. The results are the same, in the
- * same order, as checking every set from scratch.
+ * same order, as checking every set from scratch. `prepared` (prepareRules(ctx)) keeps the rules per
+ * day and per exercise across many checks of one athlete (team fitting); it is used only when it was
+ * prepared from this context's plans, library and status, and gives the same breaches as none.
  */
-export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
+export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: PreparedRules): Breach[] {
   const unit = ctx.unit ?? 'kg';
   const show = memo((kg: number) => formatLoad(kg, unit));
   const showCap = memo((kg: number) => formatLoad(kg, unit, 'down'));
   const num = memo(n);
-  // Days with the same stage of every plan in force share one InForce (only its date differs, which
-  // the check does not read) and one table of exercise rules.
-  const byStages = new Map<string, { day: InForce; exercises: Map<string, ExerciseRules> }>();
-  const dayOf = (date: string) => {
-    let key = '';
-    for (const plan of ctx.plans) key += `${plan.stages.findIndex((s) => s.startDate <= date && date <= s.endDate)},`;
-    let v = byStages.get(key);
-    if (!v) byStages.set(key, (v = { day: inForceOn(ctx.plans, date), exercises: new Map() }));
-    return v;
-  };
+  // The rules per day and per exercise: those prepared for this athlete, or worked out for this check.
+  const rules = prepared?.fits(ctx) ? prepared : new PreparedRules(ctx);
   const breaches: Breach[] = [];
   // Callers usually pass sets already in order; a stable sort would return them unchanged.
   let sorted = true;
@@ -74,8 +70,8 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
 
   let date: string | null = null;
   // Sets come sorted by date: a date is read once, when the loop moves to it (only valid dates become `date`).
-  const validDate = (d: string) => d === date || isIsoDate(d);
-  let stages!: { day: InForce; exercises: Map<string, ExerciseRules> };
+  const validDate = (d: string) => d === date || rules.on(d) !== null;
+  let stages!: StageRules;
   let out = false;
   let week = '';
   let weekCount: Int32Array | null = null;
@@ -169,14 +165,14 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext): Breach[] {
     }
     if (set.date !== date) {
       date = set.date;
-      stages = dayOf(date);
-      out = ctx.statusOn?.(date) === 'out';
-      week = mondayOf(date);
+      const d = rules.on(date)!;
+      stages = d.stages;
+      out = d.out;
+      week = d.week;
       weekCount = null;
     }
     const day = stages.day;
-    let r = stages.exercises.get(ex.id);
-    if (!r) stages.exercises.set(ex.id, (r = exerciseRules(ex, day)));
+    const r = rules.rulesFor(stages, ex);
 
     if (out && day.stages.length === 0) {
       push(

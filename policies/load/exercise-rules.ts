@@ -69,7 +69,12 @@ export function exerciseRules(ex: EngineExercise, day: Pick<InForce, 'patterns'>
   };
 }
 
-/** Library exercises that would fit where `exercise` does not: no blocked pattern, no impact if impact is off. */
+/**
+ * Library exercises that would fit where `exercise` does not: no blocked pattern, no impact if impact
+ * is off. The exercise's own "use instead" list comes first, in its order; then the exercises sharing
+ * a pattern with it, most shared first, then by name. An exercise without a pattern (a bike, a rower)
+ * shares nothing to judge it by, so it is offered only when the "use instead" list names it.
+ */
 export function suggestSwaps(
   exercise: EngineExercise,
   library: EngineExercise[],
@@ -82,9 +87,13 @@ export function suggestSwaps(
     if (e.ballistic && rules.some((r) => r.mode === 'capped' && r.caps?.impactAllowed === false)) return false;
     return true;
   };
+  const byId = new Map(library.map((e) => [e.id, e]));
+  const named = [...new Set(exercise.useInstead ?? [])]
+    .map((id) => byId.get(id))
+    .filter((e): e is EngineExercise => !!e && e.id !== exercise.id && allowed(e));
   const shared = (e: EngineExercise) => e.patterns.filter((p) => exercise.patterns.includes(p)).length;
-  return library
-    .filter((e) => e.id !== exercise.id && allowed(e) && (shared(e) > 0 || e.patterns.length === 0))
-    .sort((a, b) => shared(b) - shared(a) || a.name.localeCompare(b.name))
-    .slice(0, limit);
+  const family = library
+    .filter((e) => e.id !== exercise.id && !named.includes(e) && allowed(e) && shared(e) > 0)
+    .sort((a, b) => shared(b) - shared(a) || a.name.localeCompare(b.name));
+  return [...named, ...family].slice(0, limit);
 }

@@ -84,6 +84,10 @@ describe('floor sheet: sets and rows', () => {
     const r = floorRow({ ...base, state: 'needs_decision', dropped: ['Sprint 20 m: Sprint not allowed'] });
     expect(r.note).toBe('Dropped: Sprint 20 m: Sprint not allowed.');
     expect(r.marked).toBe(true);
+    expect(r.stateWords).toBe('Needs a decision');
+    // Once the coach accepted the drop, the sheet no longer asks for a decision; the row stays marked.
+    const accepted = floorRow({ ...base, state: 'needs_decision', dropped: ['x'], reviewed: true });
+    expect(accepted).toMatchObject({ stateWords: 'Fitted, part left out', marked: true, note: 'Dropped: x.' });
     const held = floorRow({ ...base, state: 'fitted', held: true });
     expect(held.lines).toEqual([]);
     expect(held.note).toMatch(/^On hold/);

@@ -48,6 +48,8 @@ export interface FloorAthleteInput {
   held: boolean;
   /** Edited by hand, or a re-fit is waiting for the coach. */
   needsReview: boolean;
+  /** The coach accepted the current fit: an accepted drop is no longer a decision to make. */
+  reviewed?: boolean;
 }
 
 export interface FloorLine {
@@ -166,7 +168,11 @@ export function floorRow(a: FloorAthleteInput): FloorRow {
     athleteName: a.athleteName,
     unit: a.unit,
     state: a.state,
-    stateWords: a.state ? STATE_WORDS[a.state] : 'Not fitted',
+    stateWords: !a.state
+      ? 'Not fitted'
+      : a.state === 'needs_decision' && a.reviewed && !a.needsReview
+        ? 'Fitted, part left out'
+        : STATE_WORDS[a.state],
     marked,
     lines,
     note: notes.join(' '),

@@ -2,12 +2,12 @@ import type { Unit } from '../schemas/common';
 import type { PlannedSetInput, SessionContent } from '../schemas/programs';
 import type { Breach, BreachRule } from './breach';
 import { blockingBreaches, checkSets, type EngineContext } from './compliance';
-import { exerciseRules, suggestSwaps, type EngineExercise, type ExerciseRules } from './exercise-rules';
+import { suggestSwaps, type EngineExercise, type ExerciseRules } from './exercise-rules';
 import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
 import { PATTERN_LABELS } from './patterns';
-import { isIsoDate } from './guard';
-import { unreadable } from './check-support';
+import { PreparedRules, type StageRules } from './prepared-rules';
+import { unreadableFields } from './check-support';
 import { plannedKg, type EngineSet } from './sets';
 import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
 import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
@@ -40,27 +40,41 @@ import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, 
 export function fitTeamSession(
   team: { id: string; date: string; content: SessionContent },
   ctx: EngineContext,
-  opts: { otherSets?: EngineSet[] } = {},
+  opts: { otherSets?: EngineSet[]; rules?: PreparedRules } = {},
 ): FittedSession {
-  if (ctx.statusOn?.(team.date) === 'out') return { content: { exercises: [] }, changes: [], state: 'out' };
-  const engine: EngineContext = { ...ctx, waivedSetIds: undefined };
+  // The athlete's rules, prepared once for all the sessions fitted to them (a squad's program), or for this one.
+  const prepared = opts.rules?.fits(ctx) ? opts.rules : new PreparedRules(ctx);
+  if (prepared.outOn(team.date)) return { content: { exercises: [] }, changes: [], state: 'out' };
+  const engine: EngineContext = ctx.waivedSetIds === undefined ? ctx : { ...ctx, waivedSetIds: undefined };
   const unit = ctx.unit ?? 'kg';
+  // No stage in force on a calendar day (and not Out): most versions of a team session. When every
+  // exercise is known and every set reads, nothing can breach: the version is the session as written.
+  if (ctx.plans.length === 0 || prepared.on(team.date)?.stages.day.stages.length === 0) {
+    const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx) : null;
+    if (content) return { content, changes: [], state: 'as_written' };
+  }
   const rows = team.content.exercises.map((r) => newRow(r, ctx));
   // No plan and every exercise known: the check runs with no day (nothing to read rules from).
-  const day = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : inForceOn(ctx.plans, team.date);
-  if (!day || day.stages.length === 0) {
+  const stages = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : stagesOn(prepared, team.date);
+  const day = stages?.day;
+  if (!stages || !day || day.stages.length === 0) {
     // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
     // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
-    if (allReadable(team, rows)) return finish(rows, unit, ctx);
-    fitLoop(team, rows, engine, [], day);
+    if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx);
+    fitLoop(team, rows, engine, [], prepared, stages);
     return finish(rows, unit, ctx);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   const weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
   const others = weekly ? (opts.otherSets ?? []).filter((s) => s.sessionId !== team.id) : [];
-  fitLoop(team, rows, engine, others, day);
+  fitLoop(team, rows, engine, others, prepared, stages);
   return finish(rows, unit, ctx);
+}
+
+/** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
+function stagesOn(prepared: PreparedRules, date: string): StageRules {
+  return prepared.on(date)?.stages ?? { day: inForceOn(prepared.plans, date), exercises: new Map() };
 }
 
 interface Slot {
@@ -71,7 +85,8 @@ interface Slot {
   set: PlannedSetInput | null;
   removed: 'sets_cut' | 'dropped' | null;
   repsCut: boolean;
-  notes: string[];
+  /** Why it changed; NO_NOTES (shared, frozen) until a note is added with addNotes. */
+  notes: readonly string[];
 }
 
 interface Row {
@@ -85,19 +100,57 @@ interface Row {
   swapNotes: string[];
 }
 
-function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
-  const ex = ctx.exercises[r.exerciseId];
-  // A row's sets usually share their % of 1RM: resolved once per value (loads are never changed in place).
+const NO_NOTES: readonly string[] = Object.freeze([]);
+const addNotes = (slot: Slot, notes: readonly string[]) => {
+  if (notes.length > 0) slot.notes = slot.notes.concat(notes);
+};
+
+/**
+ * The team's sets of one row resolved for this athlete (a % of 1RM as a load on the steps): each set as
+ * written. A set whose load needs no resolving is its own version (sets are never changed in place).
+ */
+function asWrittenOf(ex: EngineExercise | undefined, baselines: Record<string, number>): (s: PlannedSetInput) => PlannedSetInput {
+  // A row's sets usually share their % of 1RM: resolved once per value.
   let lastPercent: number | null = null;
   let lastLoad: PlannedSetInput['load'] | null = null;
   const resolve = (load: PlannedSetInput['load']) => {
-    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, ctx.baselines) : load;
+    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, baselines) : load;
     if (load.value !== lastPercent || lastLoad === null) {
       lastPercent = load.value;
-      lastLoad = resolveLoad(load, ex, ctx.baselines);
+      lastLoad = resolveLoad(load, ex, baselines);
     }
     return lastLoad;
   };
+  return (s) => {
+    const load = resolve(s.load);
+    return load === s.load ? s : { ...s, load };
+  };
+}
+
+/**
+ * The session as written for this athlete (what finish returns when nothing changed), or null when an
+ * exercise is unknown or a set cannot be read (the fitting loop then says why). Only for a calendar day.
+ */
+function asWrittenContent(content: SessionContent, ctx: EngineContext): SessionContent | null {
+  const exercises: SessionContent['exercises'] = [];
+  for (const r of content.exercises) {
+    const ex = ctx.exercises[r.exerciseId];
+    if (!ex) return null;
+    const asWritten = asWrittenOf(ex, ctx.baselines);
+    const sets: PlannedSetInput[] = [];
+    for (const s of r.sets) {
+      const set = asWritten(s);
+      if (unreadableFields(set) !== null) return null;
+      sets.push(set);
+    }
+    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+  }
+  return { exercises };
+}
+
+function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
+  const ex = ctx.exercises[r.exerciseId];
+  const asWrittenSet = asWrittenOf(ex, ctx.baselines);
   return {
     id: r.id,
     teamExerciseId: r.exerciseId,
@@ -105,8 +158,8 @@ function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row
     ex,
     notes: r.notes,
     slots: r.sets.map((s) => {
-      const asWritten = ex ? { ...s, load: resolve(s.load) } : { ...s };
-      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: [] };
+      const asWritten = asWrittenSet(s);
+      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES };
     }),
     swaps: null,
     swapNotes: [],
@@ -114,11 +167,12 @@ function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row
 }
 
 /** Every exercise known and every set readable on the date, as the engine reads them (check-support's unreadable). */
-function allReadable(team: { id: string; date: string }, rows: Row[]): boolean {
-  if (!isIsoDate(team.date) || !rows.every((r) => r.ex)) return false;
-  const valid = (d: string) => d === team.date;
-  return engineSetsOf(team, rows).every((s) => unreadable(s, valid) === null);
+function allReadable(team: { id: string; date: string }, rows: Row[], prepared: PreparedRules): boolean {
+  return prepared.on(team.date) !== null && rows.every((r) => r.ex && rowReadable(r));
 }
+
+/** Every set of the row readable, as the engine reads them (its date already known to be a calendar day). */
+const rowReadable = (row: Row) => row.slots.every((slot) => slot.set === null || unreadableFields(slot.set) === null);
 
 /**
  * The session's sets as the engine reads them: sessionEngineSets(contentOf(rows)) without building the
@@ -188,25 +242,29 @@ const MAX_SWAP_CANDIDATES = 8;
 const noteOf = (b: Breach) => (b.pattern ? `${PATTERN_LABELS[b.pattern]}: ${b.limit}` : b.message);
 
 /** Rounds of check-and-fix; the number of rounds run. */
-function fitLoop(team: { id: string; date: string }, rows: Row[], ctx: EngineContext, others: EngineSet[], day?: InForce): number {
-  const rulesCache = new Map<string, ExerciseRules>();
-  const rulesOf = (ex: EngineExercise) => {
-    let r = rulesCache.get(ex.id);
-    if (!r && day) rulesCache.set(ex.id, (r = exerciseRules(ex, day)));
-    return r;
-  };
-  const valid = (d: string) => d === team.date;
+function fitLoop(
+  team: { id: string; date: string },
+  rows: Row[],
+  ctx: EngineContext,
+  others: EngineSet[],
+  prepared: PreparedRules,
+  stages?: StageRules,
+): number {
+  const day = stages?.day;
+  const rulesOf = (ex: EngineExercise) => (stages ? prepared.rulesFor(stages, ex) : undefined);
   const skip = (row: Row) => {
     if (!row.ex || !day) return false;
     const r = rulesOf(row.ex);
-    return r !== undefined && untouched(row.ex, r) && engineSetsOf(team, [row]).every((s) => unreadable(s, valid) === null);
+    return r !== undefined && untouched(row.ex, r) && rowReadable(row);
   };
-  const validDate = isIsoDate(team.date);
+  const validDate = prepared.on(team.date) !== null;
   for (let round = 0; ; round++) {
     const sets = engineSetsOf(team, rows, validDate ? skip : undefined);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
-    const all = checkSets(others.length ? [...sets, ...others] : sets, ctx);
+    // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
+    // order of its input does not change its answer).
+    const all = checkSets(others.length ? [...others, ...sets] : sets, ctx, prepared);
     if (all.length === 0) return round;
     const ours = new Set(sets.map((s) => s.id));
     const breaches = blockingBreaches(all).filter((b) => ours.has(b.setId));
@@ -276,14 +334,14 @@ function fixSet(
   }
   if (notes.length > 0) {
     slot.set = next;
-    slot.notes.push(...notes);
+    addNotes(slot, notes);
     return 'fixed';
   }
   const counts = bs.filter((b) => COUNT_RULES.has(b.rule));
   if (counts.length > 0 && onlyCounts) {
     slot.set = null;
     slot.removed = 'sets_cut';
-    slot.notes.push(...counts.map(noteOf));
+    addNotes(slot, counts.map(noteOf));
     return 'fixed';
   }
   return 'none';
@@ -319,7 +377,7 @@ function loadFix(
 function drop(slot: Slot, notes: string[]) {
   slot.set = null;
   slot.removed = 'dropped';
-  slot.notes.push(...notes);
+  addNotes(slot, notes);
 }
 
 /** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
@@ -366,7 +424,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
       return words;
     };
   };
-  const notesOf = (notes: string[]) => [...new Set(notes)].join('; ');
+  const notesOf = (notes: readonly string[]) => [...new Set(notes)].join('; ');
   for (const row of rows) {
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
@@ -393,19 +451,40 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
         if (onlyRounded) continue;
       }
       const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords(asWritten)}`;
-      const base = { teamExerciseRowId: row.id, teamSetId: slot.team.id, exerciseId: row.teamExerciseId, before };
       const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
+      // Written out rather than spread from a common part: this runs for every changed set of a squad.
+      const teamExerciseRowId = row.id;
+      const teamSetId = slot.team.id;
+      const exerciseId = row.teamExerciseId;
       if (set === null) {
-        changes.push({ ...base, kind: slot.removed ?? 'dropped', after: null, note: note || 'Nothing allowed fits this set' });
+        const kind = slot.removed ?? 'dropped';
+        changes.push({
+          teamExerciseRowId,
+          teamSetId,
+          exerciseId,
+          before,
+          kind,
+          after: null,
+          note: note || 'Nothing allowed fits this set',
+        });
         continue;
       }
       if (swapped) {
         const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords(set)}`;
-        changes.push({ ...base, kind: 'swapped', swappedToExerciseId: row.exerciseId, after, note });
+        changes.push({
+          teamExerciseRowId,
+          teamSetId,
+          exerciseId,
+          before,
+          kind: 'swapped',
+          swappedToExerciseId: row.exerciseId,
+          after,
+          note,
+        });
         continue;
       }
       const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ ...base, kind, after: afterWords(set), note });
+      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';

@@ -10,3 +10,4 @@ export * from './uploads';
 export * from './account-security';
 export * from './notice-preferences';
 export * from './stage-criteria';
+export * from './plan-templates';

@@ -124,6 +124,8 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'group.updated': (who, e) => `${who} renamed or changed the kind of the group "${String(field(e.after, 'name') ?? '')}"`,
   'group.members_changed': (who) => `${who} changed who is in a group`,
   'group.archived': (who, e) => `${who} archived the group "${String(field(e.before, 'name') ?? '')}"`,
+  'team_session_hours.recorded': (who, e) =>
+    `${who} recorded ${String(field(e.after, 'minutes') ?? '')} minutes of ${String(field(e.after, 'kind') ?? 'practice')} for the group "${String(field(e.after, 'group') ?? '')}" on ${String(field(e.after, 'date') ?? '')}`,
   'team_program.created': (who, e) => `${who} started the team program "${String(field(e.after, 'name') ?? '')}"`,
   'team_program.renamed': (who, e) => `${who} renamed a team program to "${String(field(e.after, 'name') ?? '')}"`,
   'team_session.created': (who) => `${who} planned a team session and fitted it to each athlete`,

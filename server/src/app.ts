@@ -35,6 +35,7 @@ import { exceptionRoutes } from './routes/programs/exceptions.router';
 import { floorSheetRoutes } from './routes/team-programs/floor-sheet.router';
 import { teamProgramRoutes } from './routes/team-programs/team-programs.router';
 import { groupRoutes } from './routes/groups/groups.router';
+import { injuryReportRoutes } from './routes/injury-report/injury-report.router';
 import { rosterRoutes } from './routes/programs/roster.router';
 import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
@@ -138,6 +139,7 @@ export function buildApp(base: AppDeps) {
     ...teamProgramRoutes,
     ...floorSheetRoutes,
     ...groupRoutes,
+    ...injuryReportRoutes,
     ...rosterRoutes,
     ...letterRoutes(deps),
     ...documentRoutes,

@@ -35,6 +35,7 @@ import { GroupPage, GroupsPage } from './routes/groups';
 import { PersonPage } from './routes/admin/person';
 import { InvitationsPage } from './routes/admin/invitations';
 import { AuditPage } from './routes/admin/audit';
+import { InjuryReportPage } from './routes/staff/injury-report';
 import { OutboxPage } from './routes/admin/outbox';
 import { OrganizationSettingsPage } from './routes/admin/settings';
 import { ClipPage } from './routes/clip';
@@ -67,6 +68,7 @@ export const routes = [
               { path: 'people/:personId', element: <PersonPage /> },
               { path: 'invitations', element: <InvitationsPage /> },
               { path: 'audit', element: <AuditPage /> },
+              { path: 'injury-report', element: <InjuryReportPage /> },
               { path: 'outbox', element: <OutboxPage /> },
               { path: 'settings', element: <OrganizationSettingsPage /> },
             ],
@@ -88,6 +90,7 @@ export const routes = [
               { path: 'cases/:caseId', element: <ClinicianCasePage /> },
               { path: 'exceptions', element: <ClinicianExceptionsPage /> },
               { path: 'audit', element: <ClinicianAuditPage /> },
+              { path: 'injury-report', element: <InjuryReportPage /> },
             ],
           },
           { path: '/athlete', element: <AthleteHome /> },

@@ -31,6 +31,8 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Clip: 'clip',
   ClipNote: 'note',
   Group: 'group',
+  PlanTemplate: 'plan template',
+  InjuryReport: 'injury report',
 };
 
 /**
@@ -84,6 +86,8 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Clip: 'technique clips',
   ClipNote: 'notes on clips',
   Group: 'groups',
+  PlanTemplate: 'plan templates',
+  InjuryReport: 'the injury report',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

@@ -15,6 +15,7 @@ import { AddLetterPaperAndBasis1765830000000 } from './1765830000000-add-letter-
 import { AddTrainingLogSession1765836000000 } from './1765836000000-add-training-log-session';
 import { CreateGroupsAndTeamPrograms1765900000000 } from './1765900000000-create-groups-and-team-programs';
 import { CreateStageCriteria1766000000000 } from './1766000000000-create-stage-criteria';
+import { CreateTeamSessionHours1766200000000 } from './1766200000000-create-team-session-hours';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -35,4 +36,5 @@ export const MIGRATIONS = [
   AddTrainingLogSession1765836000000,
   CreateGroupsAndTeamPrograms1765900000000,
   CreateStageCriteria1766000000000,
+  CreateTeamSessionHours1766200000000,
 ];

@@ -9,7 +9,7 @@ import type { ActorWithOrg } from '../services/actor';
 import { currentBaselines } from '../services/programs';
 import { athleteRowId, groupAthletes } from '../services/team-fit';
 import { memberNames } from './members';
-import { teamSessionFor } from './team-programs';
+import { isReviewed, teamSessionFor } from './team-programs';
 
 /**
  * The floor sheet of one team session (issue 14 §6): every active athlete of the group, each with
@@ -105,6 +105,7 @@ export async function floorSheetFor(m: EntityManager, actor: ActorWithOrg, teamS
         dropped,
         held: !!v && holds.some((h) => h.sessionId === v.id && h.athleteId === athleteId),
         needsReview: !!v && (v.needsReview || v.proposal !== null),
+        reviewed: !!v && isReviewed(v),
       }),
     );
   }

@@ -34,6 +34,11 @@ export async function teamProgramDto(m: EntityManager, program: Program, group: 
   };
 }
 
+/** Whether the coach's acceptance still stands for the version's current fit. */
+export function isReviewed(v: Pick<ProgramSession, 'reviewedAt' | 'needsReview' | 'proposal'>): boolean {
+  return !!v.reviewedAt && !v.needsReview && !v.proposal;
+}
+
 /** A team session and its program, authorised through the group (404 for anyone outside it). */
 export async function teamSessionFor(
   m: EntityManager,
@@ -72,6 +77,7 @@ export async function teamVersionDto(
     changes: version.fitChanges,
     overridden: version.overridden,
     needsReview: version.needsReview,
+    reviewed: isReviewed(version),
     proposal: version.proposal,
     breaches: version.content.exercises.length ? await breachesFor(m, program.organizationId, athleteId, [version], unit, today) : [],
   };
@@ -152,6 +158,7 @@ export const teamGrid = orgQuery({
           changes: v?.fitChanges.length ?? 0,
           overridden: v?.overridden ?? false,
           needsReview: v?.needsReview ?? false,
+          reviewed: !!v && isReviewed(v),
           published: v?.status === 'published',
           held: !!v && holds.some((h) => h.sessionId === v.id && h.athleteId === athleteId),
         });

@@ -6,6 +6,8 @@ import { DEMO_PASSWORD, loadDemo } from './demo';
 import { DEMO_TIME_ZONE } from './demo-zone';
 import { SEASON_DAYS } from './demo-season';
 import { SQUAD } from './demo-squad';
+import { INJURY_SEASON_DAYS, PAST_INJURIES } from './demo-injuries';
+import type { InjuryReportDto } from '../../../policies/dto/injury-report';
 import { jargonIn } from '../../../policies/plain-words';
 import type { TeamGridDto, TeamVersionDto } from '../../../policies/dto/teams';
 
@@ -217,5 +219,23 @@ describe('the demo scenario, the softball infield squad', () => {
     }[];
     expect(tessaVersion.changes.filter((c) => c.kind === 'swapped').map((c) => c.swappedToExerciseId)).toContain(bike.id);
     expect(tessaVersion.breaches.filter((b) => !b.waived)).toEqual([]);
+  });
+
+  it("gives Dana a season's injury report for Harbor Point: a total to show, the infield's hours, small rows withheld", async () => {
+    // loadDemo loads once per database and answers the same organization after that.
+    const { organizationId } = await loadDemo(h.ds, { config: h.config, bcryptCost: 4 });
+    const base = `/api/orgs/${organizationId}`;
+    const dana = await signedIn(h.app, at('dana.okafor'), DEMO_PASSWORD);
+    const today = orgToday(DEMO_TIME_ZONE);
+    const res = await dana.get(`${base}/injury-report?from=${addDays(today, -INJURY_SEASON_DAYS)}&to=${today}`);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const r = res.body as InjuryReportDto;
+    // The eight past injuries of the infield, plus the cases of the story.
+    expect(r.total.hidden).toBeNull();
+    expect(r.total.injuries).toBeGreaterThanOrEqual(PAST_INJURIES.length);
+    expect(r.hoursByKind.practice).toBeGreaterThan(1000);
+    expect(r.hoursByKind.competition).toBeGreaterThan(100);
+    expect(r.breakdowns.group.find((c) => c.label === 'Softball infield')).toMatchObject({ hidden: null });
+    expect(r.breakdowns.bodyRegion.some((c) => c.injuriesText === '< 5')).toBe(true);
   });
 });

@@ -29,6 +29,7 @@ import { loadSeason } from './demo-season';
 import { DemoDirector, jordansClosedCase, mayasCase } from './demo-story';
 import { upcomingWeek } from './demo-week';
 import { SQUAD, squadBaselines, squadGroup, squadTeamProgram, tessasCase } from './demo-squad';
+import { loadInjurySeason } from './demo-injuries';
 
 export interface DemoOptions {
   /** The app's configuration: links in the story's letters and e-mails are built from it. */
@@ -185,6 +186,7 @@ export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ cre
       await mayasCase(director, ids, programs.get('maya')!);
       await upcomingWeek(director, programs);
       const squadGroupId = await squadGroup(m, org.id, ids);
+      await loadInjurySeason(m, org.id, today, squadGroupId, ids, ['maya', ...SQUAD.map((p) => p.key)]);
       await squadBaselines(director, ids);
       await tessasCase(director, ids);
       await squadTeamProgram(director, squadGroupId);

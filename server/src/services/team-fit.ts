@@ -149,7 +149,7 @@ export async function fitOneVersion(
     overridden: false,
     needsReview: false,
     proposal: null,
-    reviewedAt: null,
+    reviewedAt: null as Date | null,
   };
   if (!existing) {
     const program = await ensureAthleteProgram(m, teamProgram, athleteId);
@@ -165,14 +165,17 @@ export async function fitOneVersion(
     return { athleteId, version: saved, rewritten: true };
   }
   const rewritten = existing.date !== team.date || !sameContent(existing.content, fitted.content);
-  const unchanged =
+  const sameFit =
+    !force &&
     !rewritten &&
-    existing.title === team.title &&
     existing.fitState === fitted.state &&
     sameContent(existing.fitChanges, fitted.changes) &&
     !existing.needsReview &&
     !existing.proposal &&
     !existing.overridden;
+  const unchanged = sameFit && existing.title === team.title;
+  // A coach's acceptance (say of a drop) stands while the fit is the same (a new title alone keeps it); a reset clears it.
+  if (sameFit) fields.reviewedAt = existing.reviewedAt;
   if (!unchanged)
     await m
       .createQueryBuilder()

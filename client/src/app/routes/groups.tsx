@@ -8,6 +8,7 @@ import { useArchiveGroup, useGroup, useGroups } from '../../features/groups/api/
 import { GroupCreateForm } from '../../features/groups/components/GroupCreateForm';
 import { GroupMembersEditor } from '../../features/groups/components/GroupMembersEditor';
 import { GroupTeamPrograms } from '../../features/groups/components/GroupTeamPrograms';
+import { SessionHoursForm } from '../../features/groups/components/SessionHoursForm';
 import type { Candidate } from '../../features/groups/components/people-picks';
 import { Button, ButtonLink } from '../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../components/ui/Notice';
@@ -160,6 +161,11 @@ export function GroupPage() {
           </div>
         )}
       </Panel>
+      {g.canManage && !g.archived && g.athletes.length > 0 && (
+        <Panel title="Session hours">
+          <SessionHoursForm orgId={orgId} group={g} />
+        </Panel>
+      )}
       {g.canManage && <ArchiveGroup orgId={orgId} group={g} />}
     </div>
   );

@@ -7,6 +7,7 @@ const LINKS = [
   { to: '/groups', label: 'Groups' },
   { to: '/admin/invitations', label: 'Invitations' },
   { to: '/admin/audit', label: 'Audit trail' },
+  { to: '/admin/injury-report', label: 'Injury report' },
   { to: '/admin/outbox', label: 'Outbox' },
   { to: '/admin/settings', label: 'Organization settings' },
 ];

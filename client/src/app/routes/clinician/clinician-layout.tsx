@@ -7,6 +7,7 @@ const LINKS = [
   { to: '/staff/flags', label: 'Flags', end: false },
   { to: '/clinician/exceptions', label: 'Exception requests', end: false },
   { to: '/clinician/audit', label: 'Audit trail', end: false },
+  { to: '/clinician/injury-report', label: 'Injury report', end: false },
 ];
 
 /** The clinician's pages share one gate and a short menu. */

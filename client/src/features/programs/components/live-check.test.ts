@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import type { EngineExercise } from '../../../../../policies/load/compliance';
-import { liveBreaches, type AthleteEngine } from './live-check';
+import type { ExerciseDto } from '../../../../../policies/dto';
+import { inForceOn } from '../../../../../policies/load/in-force';
+import { suggestSwaps } from '../../../../../policies/load/compliance';
+import { engineLibrary, liveBreaches, type AthleteEngine } from './live-check';
 
 const SQUAT: EngineExercise = {
   id: 'squat',
@@ -49,5 +52,38 @@ describe("the live check uses the status of each set's own date, as the server d
   it("falls back to today's status when no history is loaded", () => {
     const { statusChanges: _unused, ...withoutHistory } = athlete;
     expect(run('2026-12-09', withoutHistory)).toContain('status_out');
+  });
+});
+
+describe('the editor’s swap suggestions', () => {
+  const dto = (id: string, name: string, patterns: ExerciseDto['patterns'], useInstead: string[] = []): ExerciseDto => ({
+    id,
+    name,
+    patterns,
+    equipment: 'barbell',
+    ballistic: false,
+    steps: { kind: 'increment', step: 2.5, unit: 'kg' },
+    referenceId: null,
+    useInstead,
+    archived: false,
+    version: 1,
+  });
+
+  it('carry the library’s "use instead" list, so a blocked exercise offers it first and a no-pattern exercise only through it', () => {
+    const library = engineLibrary([
+      dto('sq', 'Back squat', ['squat'], ['bike']),
+      dto('fs', 'Front squat', ['squat']),
+      dto('lp', 'Leg press', ['squat']),
+      dto('bike', 'Bike intervals', []),
+      dto('row', 'Rower', []),
+    ]);
+    const day = inForceOn([], '2026-12-01');
+    expect(library.sq.useInstead).toEqual(['bike']);
+    expect(suggestSwaps(library.sq, Object.values(library), day).map((e) => e.name)).toEqual([
+      'Bike intervals',
+      'Front squat',
+      'Leg press',
+    ]);
+    expect(suggestSwaps(library.fs, Object.values(library), day).map((e) => e.name)).toEqual(['Back squat', 'Leg press']);
   });
 });

@@ -31,7 +31,15 @@ export interface AthleteEngine {
 }
 
 export function toEngineExercise(e: ExerciseDto): EngineExercise {
-  return { id: e.id, name: e.name, patterns: e.patterns, ballistic: e.ballistic, steps: e.steps, referenceId: e.referenceId };
+  return {
+    id: e.id,
+    name: e.name,
+    patterns: e.patterns,
+    ballistic: e.ballistic,
+    steps: e.steps,
+    referenceId: e.referenceId,
+    useInstead: e.useInstead,
+  };
 }
 
 export function engineLibrary(library: ExerciseDto[]): Record<string, EngineExercise> {

@@ -4,7 +4,7 @@ import type { GridCellDto, TeamGridDto, TeamPublishProblemDto } from '../../../.
 import { ApiError } from '../../../lib/api-client';
 import { renderWithProviders } from '../../../test/render';
 import { publishProblems } from '../api/team-programs';
-import { cellWords } from './grid-words';
+import { cellNeedsAttention, cellWords, reviewedLine } from './grid-words';
 import { PublishProblems } from './PublishProblems';
 import { ReviewGrid } from './ReviewGrid';
 
@@ -16,6 +16,7 @@ const cell = (over: Partial<GridCellDto>): GridCellDto => ({
   changes: 0,
   overridden: false,
   needsReview: false,
+  reviewed: false,
   published: false,
   held: false,
   ...over,
@@ -53,10 +54,22 @@ const grid: TeamGridDto = {
   ],
 };
 
-function renderGrid(onPublish = vi.fn(), onChoose = vi.fn()) {
+/** The same grid with Ada's first session a drop the coach accepted, and her second a fit she reviewed. */
+const reviewedGrid: TeamGridDto = {
+  ...grid,
+  cells: grid.cells.map((c) =>
+    c.athleteId !== 'a1'
+      ? c
+      : c.teamSessionId === 's1'
+        ? { ...c, state: 'needs_decision', changes: 4, reviewed: true }
+        : { ...c, state: 'fitted', changes: 1, reviewed: true },
+  ),
+};
+
+function renderGrid(onPublish = vi.fn(), onChoose = vi.fn(), shown: TeamGridDto = grid) {
   renderWithProviders(
     <ReviewGrid
-      grid={grid}
+      grid={shown}
       hrefFor={(s, a) => `/coach/team-programs/p1/sessions/${s}/athletes/${a}`}
       chosen={new Set(['s1'])}
       onChoose={onChoose}
@@ -84,6 +97,39 @@ describe('cellWords', () => {
       'overridden',
       'published',
     ]);
+  });
+});
+
+describe('a version the coach accepted', () => {
+  it('an accepted drop no longer reads "Needs a decision": it says what is left and "Drop accepted"', () => {
+    const dropped = cell({ state: 'needs_decision', changes: 4, reviewed: true });
+    expect(cellWords(dropped)).toEqual({ state: 'Fitted, part left out', markers: ['drop_accepted'] });
+    expect(cellNeedsAttention(dropped)).toBe(false);
+    expect(cellNeedsAttention(cell({ state: 'needs_decision' }))).toBe(true);
+    expect(cellWords(cell({ state: 'fitted', changes: 2, reviewed: true, published: true })).markers).toEqual(['reviewed', 'published']);
+  });
+
+  it('a hand edit says "Edited by hand" alone, and a version that needs review again is not reviewed', () => {
+    expect(cellWords(cell({ overridden: true, reviewed: true })).markers).toEqual(['overridden']);
+    const again = cell({ state: 'needs_decision', reviewed: true, needsReview: true });
+    expect(cellWords(again)).toEqual({ state: 'Needs a decision', markers: ['needs_review'] });
+    expect(reviewedLine(again)).toBeNull();
+  });
+
+  it('the version screen’s lasting line says which decision was made', () => {
+    expect(reviewedLine({ state: 'needs_decision', reviewed: true, needsReview: false, overridden: false })?.title).toBe('Drop accepted');
+    expect(reviewedLine({ state: 'fitted', reviewed: true, needsReview: false, overridden: false })?.title).toBe('Reviewed');
+    expect(reviewedLine({ state: 'fitted', reviewed: false, needsReview: false, overridden: false })).toBeNull();
+  });
+
+  it('the grid shows the marker in words beside its glyph, in the cell’s name, and without the attention border', () => {
+    renderGrid(vi.fn(), vi.fn(), reviewedGrid);
+    const dropped = screen.getByRole('link', { name: 'Ada Stone, Squad strength: Fitted, part left out · Drop accepted' });
+    expect(dropped.textContent).toBe('◐Fitted, part left out⊖Drop accepted');
+    expect(dropped.className).not.toContain('border-2');
+    const reviewed = screen.getByRole('link', { name: 'Ada Stone, Speed: Fitted (1 change) · Reviewed · Published' });
+    expect(within(reviewed).getByText('Reviewed')).toBeInTheDocument();
+    expect(reviewed.textContent).toContain('☑Reviewed');
   });
 });
 

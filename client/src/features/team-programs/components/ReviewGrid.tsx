@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/Button';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { cx } from '../../../components/ui/cx';
 import { formatDate } from '../../../lib/format';
-import { cellNeedsAttention, cellSentence, cellWords, FIT_STATE_GLYPHS, MARKER_GLYPHS, MARKER_WORDS } from './grid-words';
+import { cellNeedsAttention, cellSentence, cellWords, MARKER_GLYPHS, MARKER_WORDS, stateGlyph } from './grid-words';
 
 /**
  * Athletes × team sessions. Each cell is a link to that athlete's version, saying its state in words
@@ -110,7 +110,7 @@ export function GridCell({ cell, href, label }: { cell: GridCellDto; href: strin
       )}
     >
       <span className="flex items-center gap-1 font-semibold text-ink">
-        <span aria-hidden="true">{FIT_STATE_GLYPHS[cell.state]}</span>
+        <span aria-hidden="true">{stateGlyph(cell)}</span>
         {state}
       </span>
       {markers.map((m) => (

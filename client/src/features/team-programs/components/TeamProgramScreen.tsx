@@ -21,6 +21,7 @@ import {
 import { AddTeamSessionForm } from './AddTeamSessionForm';
 import { FloorSheetLinks } from './FloorSheetLinks';
 import { PublishProblems } from './PublishProblems';
+import { RenameTeamProgram } from './RenameTeamProgram';
 import { ReviewGrid } from './ReviewGrid';
 import { TeamSessionEditor } from './TeamSessionEditor';
 
@@ -96,6 +97,7 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
         {program.athletes.length ? `: ${joinNames(program.athletes.map((a) => a.name))}.` : ' (no athletes yet).'} Write each session once;
         it is fitted to each athlete’s limits, and nothing reaches an athlete until you publish.
       </PageHeader>
+      <RenameTeamProgram orgId={orgId} program={program} onReload={reload} />
       {library.isError && <ErrorNotice error={library.error} />}
       <div className="grid gap-5 lg:grid-cols-[17rem_minmax(0,1fr)]">
         <div className="space-y-4">

@@ -18,7 +18,7 @@ import { useLibrary } from '../../programs/api/get-library';
 import { ExceptionRequestForm } from '../../programs/components/ExceptionRequestForm';
 import { SessionEditor } from '../../programs/components/SessionEditor';
 import { getTeamVersionQueryOptions, useTeamVersion, useVersionAction, type VersionAction } from '../api/team-programs';
-import { cellWords, FIT_STATE_GLYPHS, MARKER_GLYPHS, MARKER_WORDS } from './grid-words';
+import { cellWords, MARKER_GLYPHS, MARKER_WORDS, reviewedLine, stateGlyph } from './grid-words';
 import { teamProgramHref } from './TeamProgramScreen';
 import { versionLines } from './version-lines';
 
@@ -87,10 +87,12 @@ function Version({
     state: dto.state,
     changes: dto.changes.length,
     needsReview: dto.needsReview,
+    reviewed: dto.reviewed,
     overridden: dto.overridden,
     held,
     published,
   });
+  const reviewed = reviewedLine(dto);
   const blocking = blockingBreaches(dto.breaches);
   const lines = versionLines(dto.teamSession.content, dto.version.content, dto.changes, dto.overridden);
   const refusedBreaches = isApiError(action.error)
@@ -99,19 +101,10 @@ function Version({
       )
     : [];
 
-  const [done, setDone] = useState<string | null>(null);
   const run = (a: VersionAction, after?: () => void) => {
-    setDone(null);
     action.mutate({ action: a, version: dto.version.version }, { onSuccess: () => after?.() });
   };
-  const accept = () => {
-    const words = dto.proposal
-      ? 'Accepted: the new fit is now this athlete’s version.'
-      : dto.state === 'needs_decision'
-        ? 'Drop accepted: this version can go out without what was left out.'
-        : 'Marked as reviewed.';
-    run('accept', () => setDone(words));
-  };
+  const accept = () => run('accept');
 
   const setLabel = (setId: string) => {
     for (const e of dto.version.content.exercises) {
@@ -129,7 +122,7 @@ function Version({
       </PageHeader>
       <div role="group" className="flex flex-wrap items-center gap-3 text-sm" aria-label="State of this version">
         <span className="font-semibold">
-          <span aria-hidden="true">{FIT_STATE_GLYPHS[dto.state]}</span> {state}
+          <span aria-hidden="true">{stateGlyph(dto)}</span> {state}
         </span>
         {markers.map((m) => (
           <span key={m} className="rounded border border-rule-strong px-1.5 py-0.5 text-xs font-semibold">
@@ -157,7 +150,7 @@ function Version({
       )}
 
       <div className="flex flex-wrap gap-2" role="group" aria-label="Decisions on this version">
-        {(dto.proposal || dto.needsReview || (dto.state === 'needs_decision' && !done)) && (
+        {(dto.proposal || dto.needsReview || (dto.state === 'needs_decision' && !dto.reviewed)) && (
           <Button busy={action.isPending && action.variables?.action === 'accept'} onClick={accept}>
             {dto.proposal ? 'Accept the new fit' : dto.state === 'needs_decision' ? 'Accept the drop' : 'Mark as reviewed'}
           </Button>
@@ -193,7 +186,21 @@ function Version({
           )}
         </Notice>
       )}
-      {done && <Notice tone="done" role="status" title={done} />}
+      {/* Lasting: read from the version itself, so it is there whenever the screen is opened again. */}
+      <div role="status">
+        {reviewed && (
+          <Notice
+            tone="done"
+            title={
+              <>
+                <span aria-hidden="true">{MARKER_GLYPHS[reviewed.marker]}</span> {reviewed.title}
+              </>
+            }
+          >
+            <p>{reviewed.words}</p>
+          </Notice>
+        )}
+      </div>
       {sent && (
         <Notice tone="done" role="status" title="Exception requested">
           <p>The clinician decides. Until they grant it, this version keeps the session from being published.</p>
