@@ -9,4 +9,5 @@ export type * from './letters';
 export type * from './uploads';
 export type * from './notice-preferences';
 export type * from './teams';
+export type * from './stage-criteria';
 export type * from './plan-templates';

@@ -88,6 +88,16 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'status.changed': (who, e) => `${who} changed ${whose(e, 'participation status')}${statusWords(e)}`,
   'plan.created': (who, e) => `${who} wrote ${whose(e, 'restriction plan')}${version(e)}`,
   'plan.revised': (who, e) => `${who} changed ${whose(e, 'plan')}${version(e)}`,
+  'stage.assessed': (who, e) => `${who} recorded a stage check for ${athlete(e)}`,
+  'stage.readiness_rated': (who) => `${who} said how ready they feel for the next stage`,
+  'stage.advanced': (who, e) => {
+    const early = field(e.after, 'daysEarly');
+    const when =
+      typeof early === 'number' && early !== 0
+        ? ` (${Math.abs(early)} day${Math.abs(early) === 1 ? '' : 's'} ${early > 0 ? 'earlier' : 'later'} than planned)`
+        : '';
+    return `${who} moved ${athlete(e)} to the next stage of the plan${when}`;
+  },
   'baseline.recorded': (who, e) => `${who} recorded a best lift for ${athlete(e)}`,
   'pain_report.created': (who, e) => `${who} sent a pain report${e.athleteName && e.athleteName !== who ? ` for ${e.athleteName}` : ''}`,
   'painReport.viewed': (who, e) => `${who} read ${whose(e, 'pain report')}`,

@@ -24,6 +24,7 @@ import { auditRoutes } from './routes/audit/audit.router';
 import { caseRoutes } from './routes/cases/cases.router';
 import { planRoutes } from './routes/plans/plans.router';
 import { planTemplateRoutes } from './routes/plan-templates/plan-templates.router';
+import { stageCriteriaRoutes } from './routes/stage-criteria/stage-criteria.router';
 import { painReportRoutes } from './routes/pain-reports/pain-reports.router';
 import { trainingRoutes } from './routes/training/training.router';
 import { flagRoutes } from './routes/flags/flags.router';
@@ -128,6 +129,7 @@ export function buildApp(base: AppDeps) {
     ...caseRoutes,
     ...planRoutes,
     ...planTemplateRoutes,
+    ...stageCriteriaRoutes,
     ...painReportRoutes,
     ...trainingRoutes,
     ...flagRoutes,

@@ -31,6 +31,7 @@ describe('the one "limits changed" path', () => {
         "POST   /api/orgs/:orgId/cases/:id/close  ⇒  closeCase!",
         "POST   /api/orgs/:orgId/cases/:id/plan  ⇒  createPlan!",
         "PUT    /api/orgs/:orgId/plans/:id  ⇒  revisePlan!",
+        "POST   /api/orgs/:orgId/plans/:id/advance  ⇒  advanceStage!",
         "POST   /api/orgs/:orgId/pain-reports  ⇒  reportPain!",
         "PATCH  /api/orgs/:orgId/exercises/:id  ⇒  exercises.edit!",
         "POST   /api/orgs/:orgId/athletes/:id/baselines  ⇒  baselines.record!",

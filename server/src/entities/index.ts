@@ -31,6 +31,7 @@ import { PasswordResetToken } from './password-reset-token.entity';
 import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
 import { Group, GroupMember } from './group.entity';
 import { PlanTemplate } from './plan-template.entity';
+import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
 
 export {
   Organization,
@@ -64,6 +65,7 @@ export { CaseDocument, Clip, ClipNote };
 export { PasswordResetToken, UserTotp, TotpRecoveryCode };
 export { Group, GroupMember };
 export { PlanTemplate };
+export { StageCriterionReading, StageDecision };
 
 export const ENTITIES = [
   Organization,
@@ -101,4 +103,6 @@ export const ENTITIES = [
   Group,
   GroupMember,
   PlanTemplate,
+  StageCriterionReading,
+  StageDecision,
 ];

@@ -14,6 +14,7 @@ import { CreateNoticeEmailOptOuts1765813000000 } from './1765813000000-create-no
 import { AddLetterPaperAndBasis1765830000000 } from './1765830000000-add-letter-paper-and-basis';
 import { AddTrainingLogSession1765836000000 } from './1765836000000-add-training-log-session';
 import { CreateGroupsAndTeamPrograms1765900000000 } from './1765900000000-create-groups-and-team-programs';
+import { CreateStageCriteria1766000000000 } from './1766000000000-create-stage-criteria';
 import { CreatePlanTemplates1766100000000 } from './1766100000000-create-plan-templates';
 import { CreateTeamSessionHours1766200000000 } from './1766200000000-create-team-session-hours';
 
@@ -35,6 +36,7 @@ export const MIGRATIONS = [
   AddLetterPaperAndBasis1765830000000,
   AddTrainingLogSession1765836000000,
   CreateGroupsAndTeamPrograms1765900000000,
+  CreateStageCriteria1766000000000,
   CreatePlanTemplates1766100000000,
   CreateTeamSessionHours1766200000000,
 ];

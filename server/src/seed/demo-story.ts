@@ -11,6 +11,7 @@ import { acknowledgeLetter, draftLetter, signLetter } from '../commands/letters'
 import { viewPainReport } from '../commands/pain-report-reads';
 import { reportPain } from '../commands/pain-reports';
 import { createPlan, revisePlan } from '../commands/plans';
+import { rateReadiness, recordStageAssessment } from '../commands/stage-criteria';
 import { addSession, publishSession } from '../commands/programs';
 import { loadActor } from '../services/actor';
 
@@ -22,6 +23,7 @@ type Stage = {
   reviewDate: string;
   painCeiling: number;
   patterns: Record<string, { mode: 'blocked' } | { mode: 'capped'; caps: Record<string, number | boolean> }>;
+  criteria?: Record<string, unknown>[];
 };
 
 /**
@@ -143,8 +145,18 @@ export async function mayasCase(d: DemoDirector, ids: Record<string, string>, pr
     reviewDate: day(1),
     painReportId: report.report.id,
   });
+  // What unlocks Build back: settled pain over three sessions, no warning signs, Priya's check of
+  // bending, and Maya feeling ready (our own wording; criteria agreed with the athlete, Ardern et al. 2016).
+  const bendCheck = randomUUID();
+  const settleCriteria = [
+    { id: randomUUID(), kind: 'record', rule: 'pain_settled_sessions', count: 3, maxPain: 3 },
+    { id: randomUUID(), kind: 'record', rule: 'no_red_flags' },
+    { id: bendCheck, kind: 'clinician', label: 'Bends forward to touch the shins without pain', measure: 'yes_no' },
+    { id: randomUUID(), kind: 'athlete', threshold: 7 },
+  ];
   const settle = (hingePercent: number): Stage => ({
     id: settleId,
+    criteria: settleCriteria,
     label: 'Settle',
     startDate: day(-9),
     endDate: day(4),
@@ -228,6 +240,16 @@ export async function mayasCase(d: DemoDirector, ids: Record<string, string>, pr
     guidance: PLAN_GUIDANCE,
     changeNote: 'Bending is still sore at the review: lighter hinge work until the Build back stage.',
   });
+  // Part met: Priya's bending check passes at the review, but Maya does not feel ready yet (5 of the 7 asked).
+  await d.as('clinicianPriya', recordStageAssessment, {
+    planId: plan.id,
+    stageId: settleId,
+    criterionId: bendCheck,
+    date: day(0),
+    met: true,
+    note: 'Touches the shins; slight guarding on the way up.',
+  });
+  await d.as('maya', rateReadiness, { planId: plan.id, stageId: settleId, value: 5 });
   const updated = await d.as(
     'clinicianPriya',
     draftLetter,

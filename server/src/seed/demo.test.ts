@@ -108,6 +108,25 @@ describe('the demo scenario', () => {
     expect(holds).toEqual([{ title: 'Lower body (light hinge)' }]);
   });
 
+  it("shows Maya's stage criteria part met: the clinician's check done, her readiness not yet (issue 15)", async () => {
+    await load();
+    const maya = await member('maya.torres');
+    const readings = await h.ds.query(
+      `SELECT kind, met, value::float AS value FROM stage_criterion_readings WHERE athlete_id = $1 ORDER BY kind`,
+      [maya],
+    );
+    expect(readings).toEqual([
+      { kind: 'assessment', met: true, value: null },
+      { kind: 'readiness', met: null, value: 5 },
+    ]);
+    const [v] = await h.ds.query(
+      `SELECT v.stages->0->'criteria' AS criteria FROM restriction_plans p
+         JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version WHERE p.athlete_id = $1`,
+      [maya],
+    );
+    expect(v.criteria).toHaveLength(4);
+  });
+
   it('has one case closed with a Full letter, and published sessions in the coming week for every athlete', async () => {
     await load();
     const jordan = await member('jordan.pike');

@@ -4,6 +4,7 @@ import { CurrentLetter } from '../../features/letters/components/CurrentLetter';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
+import { NextStageUnlocks } from '../../features/stage-criteria/components/StageCriteriaPanel';
 import { TodaySessions } from '../../features/programs/components/TodaySessions';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
@@ -61,6 +62,9 @@ function MyToday({ athleteId }: { athleteId: string }) {
         <StatusToday inForce={inForce.data} />
       </section>
       <TodayLimits inForce={inForce.data} unit={user.unitPref} />
+      {inForce.data.stages.map((s) => (
+        <NextStageUnlocks key={s.planId} orgId={orgId} planId={s.planId} />
+      ))}
     </>
   );
 }

@@ -6,6 +6,7 @@ import { FamilyClips } from '../../features/clips/components/ClipsSection';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
+import { NextStageUnlocks } from '../../features/stage-criteria/components/StageCriteriaPanel';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { Loading, PageHeader } from '../../components/ui/Panel';
@@ -83,6 +84,9 @@ function WardToday({ athleteId, name }: { athleteId: string; name: string }) {
         <StatusToday inForce={inForce.data} name={name} />
       </section>
       <TodayLimits inForce={inForce.data} unit={user.unitPref} name={name} />
+      {inForce.data.stages.map((s) => (
+        <NextStageUnlocks key={s.planId} orgId={orgId} planId={s.planId} name={name} />
+      ))}
     </>
   );
 }

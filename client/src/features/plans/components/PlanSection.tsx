@@ -12,6 +12,7 @@ import { PlanEditor, type CopySource } from './PlanEditor';
 import { PlanStagesView } from './PlanStagesView';
 import { PlanVersions } from './PlanVersions';
 import { SaveAsTemplate } from '../../plan-templates/components/SaveAsTemplate';
+import { StageCriteriaPanel } from '../../stage-criteria/components/StageCriteriaPanel';
 
 export interface PlanSectionProps {
   orgId: string;
@@ -114,6 +115,7 @@ function ExistingPlan({ orgId, caseId, planId, unit, closed, canUpdate }: PlanSe
       </div>
       <PlanStagesView stages={current.stages} unit={unit} today={todayLocal()} />
       {canUpdate && <SaveAsTemplate orgId={orgId} planId={planId} />}
+      {!closed && <StageCriteriaPanel orgId={orgId} planId={planId} />}
       <div>
         <p className="text-sm font-semibold">Guidance for the athlete and family</p>
         {current.guidance ? (

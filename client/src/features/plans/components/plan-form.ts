@@ -11,6 +11,7 @@ import {
   type PatternRule,
 } from '../../../../../policies/load/patterns';
 import { fromUnit, toUnit } from '../../../../../policies/load/units';
+import type { StageCriterion } from '../../../../../policies/load/stage-criteria';
 import { addDaysIso, todayLocal } from '../../../lib/dates';
 
 /**
@@ -37,6 +38,8 @@ export interface StageForm {
   reviewDate: string;
   painCeiling: string;
   patterns: Record<MovementPattern, RuleForm>;
+  /** Exit criteria, kept as they came so an edit of the limits never drops them. */
+  criteria?: StageCriterion[];
 }
 
 export interface PlanForm {
@@ -97,6 +100,7 @@ export function stageToForm(stage: PlanStage, unit: Unit, stageId: string = stag
       MovementPattern,
       RuleForm
     >,
+    ...(stage.criteria?.length ? { criteria: stage.criteria } : {}),
   };
 }
 
@@ -162,6 +166,7 @@ export function toPayload(form: PlanForm, unit: Unit): PlanCreateInput {
       patterns: Object.fromEntries(
         MOVEMENT_PATTERNS.filter((p) => s.patterns[p].mode !== 'free').map((p) => [p, ruleToPayload(s.patterns[p], unit)]),
       ),
+      ...(s.criteria?.length ? { criteria: s.criteria } : {}),
     })),
     guidance: form.guidance,
     changeNote: form.changeNote.trim() === '' ? undefined : form.changeNote.trim(),
