@@ -99,10 +99,14 @@ export class JobQueue {
   }
 
   /** Builds record ZIPs one at a time: each reads a person's whole history and files. */
-  async workRecordExports(handler: (job: RecordExportJob) => Promise<void>): Promise<void> {
-    await this.boss.work<RecordExportJob>(RECORD_EXPORT_QUEUE, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
-      for (const job of jobs) await handler(job.data);
-    });
+  async workRecordExports(handler: (job: RecordExportJob, lastTry: boolean) => Promise<void>): Promise<void> {
+    await this.boss.work<RecordExportJob>(
+      RECORD_EXPORT_QUEUE,
+      { pollingIntervalSeconds: 1, batchSize: 1, includeMetadata: true },
+      async (jobs) => {
+        for (const job of jobs) await handler(job.data, job.retryCount >= job.retryLimit);
+      },
+    );
   }
 
   async work(handler: (job: EmailJob) => Promise<void>): Promise<void> {
