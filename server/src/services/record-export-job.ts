@@ -25,10 +25,27 @@ export const NO_LONGER_ALLOWED = 'You may no longer ask for this record, so no c
 export const COULD_NOT_PREPARE = 'The copy could not be prepared. Ask again; if it fails again, tell your organization.';
 
 /**
+ * Copies whose link has expired are removed from storage (the request row stays, for the account page
+ * and the trail): nobody may download them any more, so they are not kept. Run before each build.
+ */
+export async function sweepExpiredCopies(deps: CoreDeps, now = new Date()): Promise<number> {
+  const expired = await deps.ds.query<{ id: string; storage_key: string }[]>(
+    `SELECT id, storage_key FROM record_exports WHERE status = 'ready' AND storage_key IS NOT NULL AND expires_at <= $1 LIMIT 100`,
+    [now.toISOString()],
+  );
+  for (const r of expired) {
+    await deps.storage.delete(r.storage_key);
+    await deps.ds.query(`UPDATE record_exports SET storage_key = NULL WHERE id = $1`, [r.id]);
+  }
+  return expired.length;
+}
+
+/**
  * Builds one request's copy. `lastTry` is pg-boss's final attempt: a failure then marks the request
  * failed (so the account page stops saying "preparing") before it is rethrown for the log.
  */
 export async function buildRecordExport(deps: CoreDeps, exportId: string, lastTry = false): Promise<void> {
+  await sweepExpiredCopies(deps);
   const caller = { deps, requestId: `record-export-${exportId}`, userId: null };
   const r = await deps.ds.getRepository(RecordExport).findOne({ where: { id: exportId } });
   if (r?.status !== 'queued') return;

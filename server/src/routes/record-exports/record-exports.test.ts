@@ -4,7 +4,7 @@ import { strFromU8, unzipSync } from 'fflate';
 import type { RecordExportsDto } from '../../../../policies/dto';
 import { CaseDocument, CaseRecord, CheckIn, Clip, GuardianLink, PainReport, TrainingLog } from '../../entities';
 import { deliveriesWhere, mailTo, signLetter, waitFor } from '../../mail/mail-fixtures';
-import { NO_LONGER_ALLOWED, buildRecordExport } from '../../services/record-export-job';
+import { NO_LONGER_ALLOWED, buildRecordExport, sweepExpiredCopies } from '../../services/record-export-job';
 import { createStorage } from '../../storage';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
@@ -271,6 +271,17 @@ describe('the athlete asks for their own record', () => {
     expect(res.status).toBe(404);
     expect(JSON.parse(String(res.body)).error.message).toMatch(/^This link expired on .+\. Ask for a new copy on your account page\.$/);
     expect((await athlete.get(base())).body.requests[0]).toMatchObject({ id: exportId, state: 'expired' });
+  });
+
+  it('an expired copy is removed from storage; the request and its trail stay', async () => {
+    const storage = createStorage(h.config);
+    const [before] = await h.ds.query(`SELECT storage_key FROM record_exports WHERE id = $1`, [exportId]);
+    expect(await storage.exists(before.storage_key)).toBe(true);
+    expect(await sweepExpiredCopies({ ds: h.ds, config: h.config, logger, jobs: h.jobs!, storage })).toBeGreaterThanOrEqual(1);
+    expect(await storage.exists(before.storage_key)).toBe(false);
+    expect((await h.ds.query(`SELECT storage_key FROM record_exports WHERE id = $1`, [exportId]))[0].storage_key).toBeNull();
+    expect((await athlete.get(base())).body.requests[0]).toMatchObject({ id: exportId, state: 'expired' });
+    expect(await auditActions(exportId)).toEqual(['record_export.requested', 'record_export.ready', 'record_export.downloaded']);
   });
 });
 
