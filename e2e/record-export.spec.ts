@@ -57,6 +57,9 @@ async function downloadAndUnpack(page: Page): Promise<{ name: string; files: Rec
   return { name: download.suggestedFilename(), files };
 }
 
+// Each test waits for the server's queue to build a ZIP and its e-mail to arrive: minutes on a busy machine.
+test.describe.configure({ timeout: 180_000 });
+
 /** A link, as the browser would open it, but on this test's own origin (the e-mail's host is the configured one). */
 const onThisOrigin = (link: string) => {
   const u = new URL(link);
@@ -72,6 +75,7 @@ test('an athlete asks for their record on the account page, gets the e-mail, and
   const before = await lastMailId();
   await panel.getByRole('button', { name: 'Download my record' }).click();
   await expect(page.getByRole('status').filter({ hasText: 'Asked.' })).toBeVisible();
+  await expect(panel).toContainText('Preparing · Asked for');
   // The state moves on by itself while the page is open: preparing, then ready.
   await expect(panel).toContainText(/Ready · The link is in your e-mail\. It works until .+/, { timeout: 60_000 });
   await keepScreenshot(page, testInfo, 'record-export-account');

@@ -30,7 +30,13 @@ export function useRequestRecordExport(orgId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (athleteId: string) => requestRecordExport(orgId, athleteId),
-    onSuccess: () => void queryClient.invalidateQueries({ queryKey: recordExportsKey(orgId) }),
+    onSuccess: (created) => {
+      // Shown at once as the newest request (preparing), so an older copy's state never stands in for it.
+      queryClient.setQueryData<RecordExportsDto>(recordExportsKey(orgId), (old) =>
+        old ? { ...old, requests: [created, ...old.requests.filter((r) => r.id !== created.id)] } : old,
+      );
+      void queryClient.invalidateQueries({ queryKey: recordExportsKey(orgId) });
+    },
   });
 }
 
