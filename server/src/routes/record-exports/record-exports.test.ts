@@ -333,7 +333,7 @@ describe('a guardian', () => {
 });
 
 describe('who may not ask', () => {
-  it.each(['coach', 'clinician', 'admin'] as const)('a %s → 403 with a sentence, nothing recorded', async (role) => {
+  it.each(['coach', 'clinician', 'admin'] as const)('asked by the %s → 403 with a sentence, nothing recorded', async (role) => {
     const c = await signedIn(h.app, org[role].email, TEST_PASSWORD);
     const res = await c.post(base(), { athleteId: org.athlete.membershipId });
     expect(res.status).toBe(403);
