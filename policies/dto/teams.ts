@@ -61,7 +61,8 @@ export interface TeamGridDto {
   programId: string;
   programName: string;
   groupName: string;
-  sessions: { id: string; date: string; title: string; status: 'draft' | 'published'; version: number }[];
+  /** setCount: the team session's sets as written (0: nothing written yet, so nothing to fit). */
+  sessions: { id: string; date: string; title: string; status: 'draft' | 'published'; version: number; setCount: number }[];
   athletes: (GroupPersonDto & { statusToday: ParticipationStatus })[];
   cells: GridCellDto[];
 }

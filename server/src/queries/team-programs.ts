@@ -167,7 +167,14 @@ export const teamGrid = orgQuery({
       programId: program.id,
       programName: program.name,
       groupName: group.name,
-      sessions: sessions.map((s) => ({ id: s.id, date: s.date, title: s.title, status: s.status, version: s.version })),
+      sessions: sessions.map((s) => ({
+        id: s.id,
+        date: s.date,
+        title: s.title,
+        status: s.status,
+        version: s.version,
+        setCount: s.content.exercises.reduce((n, r) => n + r.sets.length, 0),
+      })),
       athletes: athletes.map((id, i) => ({ id, name: names.get(id) ?? 'Unknown athlete', statusToday: statusToday[i] })),
       cells,
     };

@@ -14,7 +14,7 @@ describe('team programs: fitting, the grid and publishing', () => {
     expect(p.athletes.map((a) => a.id).sort()).toEqual([...w.athletes].sort());
     const team = await w.addSession(p.id);
     const g = await w.grid(p.id);
-    expect(g.sessions).toEqual([{ id: team.id, date: MONDAY, title: 'Squad lift', status: 'draft', version: team.version }]);
+    expect(g.sessions).toEqual([{ id: team.id, date: MONDAY, title: 'Squad lift', status: 'draft', version: team.version, setCount: 10 }]);
     expect(g.cells).toHaveLength(8);
     expect(w.cell(g, w.plainAthlete.membershipId)).toMatchObject({ state: 'as_written', changes: 0, published: false });
     // 75 % of a 140 kg deadlift is 105 kg; the hinge cap of 60 % allows 84 kg, so 82.5 kg on 2.5 kg steps (never rounded up).
