@@ -29,6 +29,8 @@ export interface TeamProgramSummaryDto {
   groupId: string;
   groupName: string;
   sessions: number;
+  /** The group is archived: the program is kept for the record and changes no more. */
+  archived: boolean;
   version: number;
 }
 

@@ -192,4 +192,26 @@ describe('team programs: fitting, the grid and publishing', () => {
     expect((await athlete.get(`${w.base}/team-programs/${p.id}`)).status).toBe(404);
     expect((await athlete.get(`${w.base}/team-sessions/${team.id}/versions/${w.hinge}`)).status).toBe(404);
   });
+
+  it('an archived group keeps its team program for the record: readable, changed no more (409)', async () => {
+    const w = await teamWorld(h);
+    const p = await w.createProgram();
+    const team = await w.addSession(p.id);
+    const coach = w.coach;
+    const group = (await coach.get(`${w.base}/groups/${w.group.id}`)).body as { version: number };
+    expect((await coach.post(`${w.base}/groups/${w.group.id}/archive`, { version: group.version })).status).toBe(200);
+    const kept = await coach.get(`${w.base}/team-programs/${p.id}`);
+    expect(kept.status).toBe(200);
+    expect(kept.body.archived).toBe(true);
+    expect(p.archived).toBe(false);
+    expect((await w.grid(p.id)).sessions.map((s) => s.id)).toEqual([team.id]);
+    const add = await coach.post(`${w.base}/team-programs/${p.id}/sessions`, {
+      date: MONDAY,
+      title: 'Late lift',
+      content: w.squadContent(),
+    });
+    expect(add.status, JSON.stringify(add.body)).toBe(409);
+    expect(add.body.error.message).toContain('archived');
+    expect((await w.publish(p.id, [team.id])).status).toBe(409);
+  });
 });
