@@ -93,6 +93,8 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     PlanTemplate: { id: `template-${relation}`, organizationId: org, authorId: relation === 'self' ? me : STAFF },
     // The injury report is about no athlete: only 'same-org' and 'other-org' apply.
     InjuryReport: { organizationId: org },
+    // A request the actor made themself, about an athlete who is a minor (the factory's linked athlete is one).
+    RecordExport: { organizationId: org, athleteId, athleteIsMinor: true, requestedByUserId: actor.userId },
   };
   return records[subject] as SubjectShapes[K];
 }

@@ -128,4 +128,15 @@ export const PEOPLE_GRID: [SubjectName, Action, Relation, string][] = [
   ['InjuryReport',       'read',   'same-org',        'n   n   Y   n   Y'],
   ['InjuryReport',       'read',   'other-org',       'n   n   n   n   n'],
   ['InjuryReport',       'update', 'same-org',        'n   n   n   n   n'],
+
+  // A person's whole record: the athlete for themself, a guardian for a linked minor (the matrix's
+  // linked athlete is a minor); 'read' rows are about a request the actor made themself.
+  ['RecordExport',       'create', 'self',            'Y   n   n   n   n'],
+  ['RecordExport',       'create', 'own-care-team',   '-   n   n   Y   -'],
+  ['RecordExport',       'create', 'other-athlete',   'n   n   n   n   n'],
+  ['RecordExport',       'create', 'other-org',       'n   n   n   n   n'],
+  ['RecordExport',       'read',   'self',            'Y   n   n   n   n'],
+  ['RecordExport',       'read',   'own-care-team',   '-   n   n   Y   -'],
+  ['RecordExport',       'read',   'other-athlete',   'n   n   n   n   n'],
+  ['RecordExport',       'read',   'other-org',       'n   n   n   n   n'],
 ];

@@ -47,6 +47,11 @@ export interface SubjectShapes {
   PlanTemplate: { id: string; organizationId: string; authorId: string };
   /** The organization's injury report: aggregates only, small cells suppressed. */
   InjuryReport: { organizationId: string };
+  /**
+   * A person's whole record as a ZIP: who it is about, whether that athlete is a minor on the
+   * organization's today (a guardian may ask only then), and who asked (only they may download it).
+   */
+  RecordExport: { organizationId: string; athleteId: string; athleteIsMinor: boolean; requestedByUserId?: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -80,6 +85,7 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Group',
   'PlanTemplate',
   'InjuryReport',
+  'RecordExport',
 ];
 
 type TaggedSubjects = {

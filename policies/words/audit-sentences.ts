@@ -159,6 +159,11 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'case_document.uploaded': (who, e) => `${who} added a document to ${whose(e, 'case')}`,
   'case_document.downloaded': (who, e) => `${who} downloaded a document from ${whose(e, 'case')}`,
   'case_document.deleted': (who, e) => `${who} deleted a document from ${whose(e, 'case')}`,
+  'record_export.requested': (who, e) => `${who} asked for a copy of ${whose(e, 'whole record')}`,
+  // Written by the background job, in the requester's name: the copy they asked for is ready.
+  'record_export.ready': (_who, e) => `The copy of ${whose(e, 'whole record')} was prepared and its link e-mailed`,
+  'record_export.failed': (_who, e) => `The copy of ${whose(e, 'whole record')} could not be prepared`,
+  'record_export.downloaded': (who, e) => `${who} downloaded the copy of ${whose(e, 'whole record')}`,
 };
 
 /** Who did it, as a name: Loadline itself for its own entries (a sweep, an automatic status). */

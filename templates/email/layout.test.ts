@@ -21,7 +21,7 @@ const visibleText = (html: string) =>
 
 describe('e-mail templates, each rendered from its sample data', () => {
   it('the set of templates is the one these tests cover', () => {
-    expect(Object.keys(emails).sort()).toEqual(['invitation', 'letter', 'notice', 'passwordReset']);
+    expect(Object.keys(emails).sort()).toEqual(['invitation', 'letter', 'notice', 'passwordReset', 'recordExport']);
   });
 
   it.each(TEMPLATES)('%s: a subject, and the same greeting, paragraphs and action in the text and the HTML', (_name, content) => {
@@ -62,6 +62,8 @@ describe('e-mail templates, each rendered from its sample data', () => {
     expect(emails.letter().subject).toBe('Clearance letter for Sample Athlete');
     expect(emails.letter().paragraphs.join(' ')).toContain('Full participation from 1 December 2026');
     expect(emails.notice().greeting).toBe('Hello Sample,');
+    expect(emails.recordExport().subject).toBe("The copy of Sample Athlete's record is ready");
+    expect(emails.recordExport().paragraphs.join(' ')).toContain('works for you only');
   });
 });
 

@@ -70,4 +70,24 @@ export const emails = {
       action: { label: 'Open it in Loadline', url: d.url },
     };
   },
+  recordExport(
+    d: { name: string; athleteName: string; organizationName: string; link: string; expiresOn: string } = {
+      name: 'Sample',
+      athleteName: 'Sample Athlete',
+      organizationName: 'Sample Club',
+      link: 'http://127.0.0.1:3000/record-download?org=sample#sample',
+      expiresOn: '2026-12-11',
+    },
+  ): EmailContent {
+    return {
+      subject: `The copy of ${d.athleteName}'s record is ready`,
+      greeting: `Hello ${d.name},`,
+      paragraphs: [
+        `The copy you asked for of everything ${d.organizationName} keeps in Loadline about ${d.athleteName} is ready to download.`,
+        `The link works for you only, once you are signed in, until ${d.expiresOn}. After that, ask for a new copy on your account page.`,
+        'If you did not ask for this, tell your organization: nobody else can open the link.',
+      ],
+      action: { label: 'Download the record', url: d.link },
+    };
+  },
 };

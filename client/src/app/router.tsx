@@ -6,6 +6,7 @@ import { InvitePage } from './routes/invite';
 import { ForgotPasswordPage } from './routes/forgot-password';
 import { ResetPasswordPage } from './routes/reset-password';
 import { CheckPage } from './routes/check';
+import { RecordDownloadPage } from './routes/record-download';
 import { HomeRedirect } from './routes/home-redirect';
 import { AccountPage } from './routes/account';
 import { NotFoundPage } from './routes/not-found';
@@ -55,6 +56,8 @@ export const routes = [
       // Public: a letter's holder checks its code without signing in.
       { path: '/check', element: <CheckPage /> },
       { path: '/check/:code', element: <CheckPage /> },
+      // An e-mailed record link: the code in the fragment; signed out, it offers sign-in and comes back.
+      { path: '/record-download', element: <RecordDownloadPage /> },
       {
         element: <SignedInLayout />,
         children: [

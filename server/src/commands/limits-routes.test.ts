@@ -50,8 +50,13 @@ describe('the one "limits changed" path', () => {
 
   it('every write route declares its commands (the registry refuses one that does not)', () => {
     const bare = ROUTE_TABLE.filter((r) => r.method !== 'GET' && r.commands.length === 0).map((r) => `${r.method} ${r.path}`);
-    // Three POSTs write nothing: each is a POST only so a secret or a draft travels in the body.
-    expect(bare.sort()).toEqual(['POST /api/check', 'POST /api/invitations/preview', 'POST /api/orgs/:orgId/sessions/:id/check']);
+    // Four POSTs write nothing: each is a POST only so a secret or a draft travels in the body.
+    expect(bare.sort()).toEqual([
+      'POST /api/check',
+      'POST /api/invitations/preview',
+      'POST /api/orgs/:orgId/record-exports/link',
+      'POST /api/orgs/:orgId/sessions/:id/check',
+    ]);
   });
 
   it('a command declared as changing limits that reports nothing is rolled back, not committed', async () => {

@@ -33,6 +33,7 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Group: 'group',
   PlanTemplate: 'plan template',
   InjuryReport: 'injury report',
+  RecordExport: 'record download',
 };
 
 /**
@@ -88,6 +89,7 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Group: 'groups',
   PlanTemplate: 'plan templates',
   InjuryReport: 'the injury report',
+  RecordExport: 'downloads of a whole record',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

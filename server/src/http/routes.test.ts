@@ -190,6 +190,10 @@ describe('the route table', () => {
         "DELETE /api/orgs/:orgId/clips/:id  ⇒  member: read Clip",
         "POST   /api/orgs/:orgId/clips/:id/notes  ⇒  member: create ClipNote",
         "DELETE /api/orgs/:orgId/clips/:id/notes/:noteId  ⇒  member: read ClipNote",
+        "GET    /api/orgs/:orgId/record-exports  ⇒  member: read RecordExport",
+        "POST   /api/orgs/:orgId/record-exports  ⇒  member: create RecordExport",
+        "POST   /api/orgs/:orgId/record-exports/link  ⇒  member: read RecordExport",
+        "POST   /api/orgs/:orgId/record-exports/download  ⇒  member: read RecordExport",
       ]
     `);
   });

@@ -5,14 +5,21 @@ import type { Logger } from 'pino';
 export const EMAIL_QUEUE = 'email';
 /** The daily audit seal (services/audit-seal-job.ts): one job a day, from a pg-boss schedule. */
 export const AUDIT_SEAL_QUEUE = 'audit-seal';
+/** A person's whole record as a ZIP (services/record-export.ts): one job per request. */
+export const RECORD_EXPORT_QUEUE = 'record-export';
 
 const QUEUES = [
   { name: EMAIL_QUEUE, retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
   { name: AUDIT_SEAL_QUEUE, retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 },
+  { name: RECORD_EXPORT_QUEUE, retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 15 * 60 },
 ];
 
 export interface EmailJob {
   deliveryId: string;
+}
+
+export interface RecordExportJob {
+  exportId: string;
 }
 
 /**
@@ -78,6 +85,28 @@ export class JobQueue {
       retryBackoff: true,
       db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await m.query(text, values as unknown[]) }) },
     });
+  }
+
+  /** One job per record request (its id is the singleton key), in the caller's transaction. */
+  async sendRecordExport(m: EntityManager, exportId: string): Promise<void> {
+    await this.boss.send(RECORD_EXPORT_QUEUE, { exportId } satisfies RecordExportJob, {
+      singletonKey: exportId,
+      retryLimit: 3,
+      retryDelay: 10,
+      retryBackoff: true,
+      db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await m.query(text, values as unknown[]) }) },
+    });
+  }
+
+  /** Builds record ZIPs one at a time: each reads a person's whole history and files. */
+  async workRecordExports(handler: (job: RecordExportJob, lastTry: boolean) => Promise<void>): Promise<void> {
+    await this.boss.work<RecordExportJob>(
+      RECORD_EXPORT_QUEUE,
+      { pollingIntervalSeconds: 1, batchSize: 1, includeMetadata: true },
+      async (jobs) => {
+        for (const job of jobs) await handler(job.data, job.retryCount >= job.retryLimit);
+      },
+    );
   }
 
   async work(handler: (job: EmailJob) => Promise<void>): Promise<void> {

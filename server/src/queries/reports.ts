@@ -10,6 +10,8 @@ export async function listPainReports(
   ability: AppAbility,
   organizationId: string,
   where: { athleteId?: string; id?: string; caseId?: string },
+  /** The newest this many; the whole-record export asks for all of them. */
+  limit = 200,
 ): Promise<PainReportDto[]> {
   const acl = accessibleWhere(ability, 'read', 'PainReport', {
     organizationId: 'r.organization_id',
@@ -41,7 +43,7 @@ export async function listPainReports(
     .where('r.organization_id = :org', { org: organizationId })
     .andWhere(acl.sql, acl.params)
     .orderBy('r.reported_at', 'DESC')
-    .limit(200);
+    .limit(limit);
   if (where.athleteId) qb.andWhere('r.athlete_id = :athleteId', { athleteId: where.athleteId });
   if (where.id) qb.andWhere('r.id = :id', { id: where.id });
   if (where.caseId) qb.andWhere('r.case_id = :caseId', { caseId: where.caseId });

@@ -5,10 +5,16 @@ import { useTwoStepStatus } from '../../features/auth/api/two-step';
 import { Facts, PageHeader, Panel } from '../../components/ui/Panel';
 import { ROLE_LABELS } from '../../../../policies/roles';
 import { useDocumentTitle } from '../../lib/use-document-title';
+import { useContext } from 'react';
+import { useAppAbility } from '../../lib/ability';
+import { MembershipContext } from '../../lib/membership-context';
+import { RecordExportPanel } from '../../features/record-export/components/RecordExportPanel';
 
 export function AccountPage() {
   useDocumentTitle('Your account');
   const session = useSession();
+  const current = useContext(MembershipContext);
+  const ability = useAppAbility();
   const user = session.data?.user;
   if (!user) return null;
   const memberships = session.data?.memberships ?? [];
@@ -24,6 +30,8 @@ export function AccountPage() {
         </div>
         <AccountForm user={user} />
       </Panel>
+      {/* The athlete's own record, a guardian's minors': whoever the rules let ask in this organization. */}
+      {current && ability.can('create', 'RecordExport') ? <RecordExportPanel orgId={current.orgId} /> : null}
       {offerTwoStep ? <TwoStepSection /> : <TwoStepIfOn />}
       <Panel title="Organizations">
         {memberships.length === 0 ? (
