@@ -5,14 +5,22 @@ import type { Logger } from 'pino';
 export const EMAIL_QUEUE = 'email';
 /** The daily audit seal (services/audit-seal-job.ts): one job a day, from a pg-boss schedule. */
 export const AUDIT_SEAL_QUEUE = 'audit-seal';
+/** Roster imports (services/roster-import-job.ts): one job per uploaded file, worked in batches. */
+export const ROSTER_QUEUE = 'roster-import';
 
 const QUEUES = [
   { name: EMAIL_QUEUE, retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
   { name: AUDIT_SEAL_QUEUE, retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 },
+  // A large file takes minutes on a busy server; a retried job resumes where the last batch ended.
+  { name: ROSTER_QUEUE, retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 * 60 },
 ];
 
 export interface EmailJob {
   deliveryId: string;
+}
+
+export interface RosterJob {
+  importId: string;
 }
 
 /**
@@ -77,6 +85,23 @@ export class JobQueue {
       retryDelay: 2,
       retryBackoff: true,
       db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await m.query(text, values as unknown[]) }) },
+    });
+  }
+
+  /** One job per roster import (its id is the singleton key), in the caller's transaction. */
+  async sendRosterImport(m: EntityManager, importId: string): Promise<void> {
+    await this.boss.send(ROSTER_QUEUE, { importId } satisfies RosterJob, {
+      singletonKey: importId,
+      retryLimit: 3,
+      retryDelay: 10,
+      retryBackoff: true,
+      db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await m.query(text, values as unknown[]) }) },
+    });
+  }
+
+  async workRosterImports(handler: (job: RosterJob) => Promise<void>): Promise<void> {
+    await this.boss.work<RosterJob>(ROSTER_QUEUE, { pollingIntervalSeconds: 1 }, async (jobs) => {
+      for (const job of jobs) await handler(job.data);
     });
   }
 
