@@ -26,7 +26,7 @@ export function receiveTextFile(req: Request, maxBytes: number, kindWords: strin
   return new Promise((resolve, reject) => {
     let bb: busboy.Busboy;
     try {
-      bb = busboy({ headers: req.headers, limits: { files: 1, fields: 0, parts: 1, fileSize: maxBytes + 1 } });
+      bb = busboy({ headers: req.headers, limits: { files: 1, fields: 1, parts: 2, fileSize: maxBytes + 1 } });
     } catch {
       reject(new AppError('unsupported_media_type', 'Send the file as a multipart form (multipart/form-data) with a boundary.'));
       return;
@@ -61,7 +61,6 @@ export function receiveTextFile(req: Request, maxBytes: number, kindWords: strin
       });
     });
     bb.on('field', () => fail(badForm('send only the file')));
-    bb.on('fieldsLimit', () => fail(badForm('send only the file')));
     bb.on('filesLimit', () => fail(badForm('send one file at a time')));
     bb.on('partsLimit', () => fail(badForm('send one file at a time')));
     bb.on('error', () =>
