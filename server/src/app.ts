@@ -38,6 +38,7 @@ import { teamProgramRoutes } from './routes/team-programs/team-programs.router';
 import { groupRoutes } from './routes/groups/groups.router';
 import { injuryReportRoutes } from './routes/injury-report/injury-report.router';
 import { rosterRoutes } from './routes/programs/roster.router';
+import { rosterImportRoutes } from './routes/roster-imports/roster-imports.router';
 import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
 import { clipRoutes } from './routes/uploads/clips.router';
@@ -144,6 +145,7 @@ export function buildApp(base: AppDeps) {
     ...groupRoutes,
     ...injuryReportRoutes,
     ...rosterRoutes,
+    ...rosterImportRoutes,
     ...letterRoutes(deps),
     ...documentRoutes,
     ...clipRoutes,

@@ -33,6 +33,7 @@ import { Group, GroupMember } from './group.entity';
 import { PlanTemplate } from './plan-template.entity';
 import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
 import { RecordExport } from './record-export.entity';
+import { RosterImport } from './roster-import.entity';
 
 export {
   Organization,
@@ -68,6 +69,7 @@ export { Group, GroupMember };
 export { PlanTemplate };
 export { StageCriterionReading, StageDecision };
 export { RecordExport };
+export { RosterImport };
 
 export const ENTITIES = [
   Organization,
@@ -108,4 +110,5 @@ export const ENTITIES = [
   StageCriterionReading,
   StageDecision,
   RecordExport,
+  RosterImport,
 ];
