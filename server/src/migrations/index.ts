@@ -17,6 +17,7 @@ import { CreateGroupsAndTeamPrograms1765900000000 } from './1765900000000-create
 import { CreateStageCriteria1766000000000 } from './1766000000000-create-stage-criteria';
 import { CreatePlanTemplates1766100000000 } from './1766100000000-create-plan-templates';
 import { CreateTeamSessionHours1766200000000 } from './1766200000000-create-team-session-hours';
+import { CreateIdempotencyKeys1766500000000 } from './1766500000000-create-idempotency-keys';
 import { CreateRosterImports1766800000000 } from './1766800000000-create-roster-imports';
 import { CreateRecordExports1767000000000 } from './1767000000000-create-record-exports';
 
@@ -41,6 +42,7 @@ export const MIGRATIONS = [
   CreateStageCriteria1766000000000,
   CreatePlanTemplates1766100000000,
   CreateTeamSessionHours1766200000000,
+  CreateIdempotencyKeys1766500000000,
   CreateRosterImports1766800000000,
   CreateRecordExports1767000000000,
 ];

@@ -9,7 +9,8 @@ import { Brand } from './Brand';
 
 /**
  * Every page: a skip link, the session loaded before anything else (it carries the CSRF token),
- * and the standing caution in the footer.
+ * and the standing caution in the footer. Offline, the session kept from the last visit
+ * (lib/offline-copy.ts) stands in until the server answers.
  */
 export function RootLayout() {
   const session = useSession();
@@ -26,7 +27,7 @@ export function RootLayout() {
           <CenteredShell>
             <Loading what="Loadline" />
           </CenteredShell>
-        ) : session.isError ? (
+        ) : session.isError && !session.data ? (
           <CenteredShell>
             <ErrorNotice error={session.error} title="Loadline could not start" />
             <Button className="mt-3" variant="secondary" onClick={() => void session.refetch()}>
