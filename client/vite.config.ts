@@ -52,12 +52,11 @@ export default defineConfig({
     emptyOutDir: true,
     rolldownOptions: {
       output: {
-        // Libraries change less often than our code: separate chunks stay cached across releases.
+        // React and the router change less often than our code and every screen needs them: a chunk of
+        // their own stays cached across releases. Other libraries are not grouped, so each one (charts,
+        // the table, forms) goes with the lazily loaded screens that use it (issue 17, first load).
         codeSplitting: {
-          groups: [
-            { name: 'react', test: /node_modules[\\/](react|react-dom|react-router|react-router-dom|scheduler)[\\/]/ },
-            { name: 'vendor', test: /node_modules[\\/]/ },
-          ],
+          groups: [{ name: 'react', test: /node_modules[\\/](react|react-dom|react-router|react-router-dom|scheduler)[\\/]/ }],
         },
       },
     },

@@ -10,6 +10,7 @@ import type { JobQueue } from './jobs/queue';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { mountRoutes } from './http/route';
 import { hostCheck } from './http/host-check';
+import { serveClient } from './http/client-assets';
 import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
 import { healthRoutes } from './routes/health/health.router';
 import { sessionRoutes } from './routes/session/session.router';
@@ -156,11 +157,7 @@ export function buildApp(base: AppDeps) {
 
   const clientDist = config.CLIENT_DIST ?? path.join(ROOT, 'client', 'dist');
   if (existsSync(path.join(clientDist, 'index.html'))) {
-    app.use(express.static(clientDist, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => {
-      res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(path.join(clientDist, 'index.html'));
-    });
+    serveClient(app, clientDist);
   } else {
     app.get('/', (_req, res) => {
       res.type('text/plain').send('Loadline API is running. The client is not built: run `npm start` (or `npm run dev` for development).');
