@@ -36,3 +36,13 @@ export const OrganizationSignupConfirmSchema = z.strictObject({
   token: z.string({ message: 'is required' }).regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'is not a valid confirmation code' }),
 });
 export type OrganizationSignupConfirmInput = z.infer<typeof OrganizationSignupConfirmSchema>;
+
+/** `npm run org:create`: an operator makes an organization and invites its first admin. */
+export const OrganizationCreateSchema = z.strictObject({
+  name: line(200),
+  adminEmail: EmailSchema,
+  adminName: DisplayNameSchema.optional(),
+  country: CountrySchema.optional(),
+  timeZone: TimeZoneSchema.default('UTC'),
+});
+export type OrganizationCreateInput = z.infer<typeof OrganizationCreateSchema>;

@@ -6,7 +6,7 @@ import { seedExerciseLibrary } from './exercise-library';
 
 export interface NewOrganization {
   name: string;
-  country: string;
+  country: string | null;
   timeZone: string;
 }
 
@@ -27,7 +27,7 @@ export async function startOrganization(
       name: input.name,
       country: input.country,
       timeZone: input.timeZone,
-      emergencyNumber: emergencyNumberFor(input.country),
+      emergencyNumber: emergencyNumberFor(input.country ?? ''),
     }),
   );
   await seedExerciseLibrary(m, org.id);
