@@ -77,6 +77,9 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'athlete.updated': (who, e) => `${who} changed ${whose(e, 'details')}`,
   'audit.exported': (who) => `${who} downloaded the audit trail`,
   'demo.loaded': (who) => `${who} loaded the demo`,
+  'organization.signup_requested': () => 'Someone asked, on the public page, to start a new organization',
+  'organization.created': (who, e) =>
+    field(e.after, 'via') === 'operator' ? 'An operator created the organization' : `${who} started the organization`,
   'organization.settings_changed': (who) => `${who} changed the organization's settings`,
   'invitation.created': (who, e) => `${who} invited someone to join${rolesWords(e.after)}`,
   'invitation.revoked': (who) => `${who} withdrew an invitation`,

@@ -15,6 +15,7 @@ import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './
 import { healthRoutes } from './routes/health/health.router';
 import { sessionRoutes } from './routes/session/session.router';
 import { accountSecurityRoutes } from './routes/account-security/account-security.router';
+import { organizationSignupRoutes } from './routes/organization-signup/organization-signup.router';
 import { invitationRoutes } from './routes/invitations/invitations.router';
 import { organizationRoutes } from './routes/organizations/organizations.router';
 import { peopleRoutes } from './routes/people/people.router';
@@ -123,6 +124,7 @@ export function buildApp(base: AppDeps) {
     ...sessionRoutes(deps),
     ...accountSecurityRoutes(deps),
     ...invitationRoutes(deps),
+    ...organizationSignupRoutes(deps),
     ...organizationRoutes,
     ...peopleRoutes,
     ...athleteRoutes,

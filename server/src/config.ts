@@ -52,6 +52,16 @@ const ConfigSchema = z.object({
     .min(1)
     .max(24 * 14)
     .default(72),
+  /**
+   * Whether anyone may start an organization from the public page (issue 16). `closed` for a private
+   * installation: the page says so, the sign-up routes answer 404, and operators use `npm run org:create`.
+   */
+  ORG_SIGNUP: z.enum(['open', 'closed']).default('open'),
+  /** A sign-up's confirmation link works once and for this many hours. */
+  ORG_SIGNUP_TTL_HOURS: z.coerce.number().min(1).max(168).default(24),
+  /** Sign-up requests per IP address and per e-mail address typed, over SIGNIN_WINDOW_SECONDS. */
+  ORG_SIGNUP_MAX_PER_IP: z.coerce.number().int().min(1).default(10),
+  ORG_SIGNUP_MAX_PER_ACCOUNT: z.coerce.number().int().min(1).default(3),
   BCRYPT_COST: z.coerce.number().int().min(12).max(15).default(12),
   /** Password reset links work once and for this many minutes. */
   RESET_TTL_MINUTES: z.coerce

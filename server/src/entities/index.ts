@@ -34,6 +34,7 @@ import { PlanTemplate } from './plan-template.entity';
 import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
 import { RecordExport } from './record-export.entity';
 import { RosterImport } from './roster-import.entity';
+import { OrganizationSignup } from './organization-signup.entity';
 
 export {
   Organization,
@@ -70,6 +71,7 @@ export { PlanTemplate };
 export { StageCriterionReading, StageDecision };
 export { RecordExport };
 export { RosterImport };
+export { OrganizationSignup };
 
 export const ENTITIES = [
   Organization,
@@ -111,4 +113,5 @@ export const ENTITIES = [
   StageDecision,
   RecordExport,
   RosterImport,
+  OrganizationSignup,
 ];
