@@ -12,6 +12,7 @@ import { mountRoutes } from './http/route';
 import { hostCheck } from './http/host-check';
 import { serveClient } from './http/client-assets';
 import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
+import { ActorCache } from './http/actor-cache';
 import { healthRoutes } from './routes/health/health.router';
 import { sessionRoutes } from './routes/session/session.router';
 import { accountSecurityRoutes } from './routes/account-security/account-security.router';
@@ -55,7 +56,14 @@ export type AppDeps = Omit<Deps, 'passport' | 'jobs' | 'storage'> & { jobs?: Job
 /** Builds the Express app (no listen). The returned `close` ends the app's own pools. */
 export function buildApp(base: AppDeps) {
   const passport = buildPassport(base as Deps);
-  const deps: Deps = { ...base, jobs: base.jobs ?? null, passport, storage: base.storage ?? createStorage(base.config) };
+  const actorCache = new ActorCache(base.config.DATABASE_URL, base.logger, base.config.ACTOR_CACHE_SECONDS * 1000);
+  const deps: Deps = {
+    ...base,
+    jobs: base.jobs ?? null,
+    passport,
+    storage: base.storage ?? createStorage(base.config),
+    actorChanges: actorCache,
+  };
   const { config } = deps;
   const app = express();
   app.disable('x-powered-by');
@@ -102,7 +110,7 @@ export function buildApp(base: AppDeps) {
     }),
   );
 
-  const { middleware: sessionMiddleware, close: closeSessions } = buildSession(deps);
+  const { middleware: sessionMiddleware, close: closeSessions } = buildSession(deps, actorCache);
   const api = Router();
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
@@ -167,5 +175,6 @@ export function buildApp(base: AppDeps) {
   }
   app.use(errorHandler(deps));
 
-  return { app, close: closeSessions };
+  // `ready`: the actor cache listens for changes (until then it is off, and every request reads afresh).
+  return { app, ready: actorCache.start(), actorCache, close: closeSessions };
 }

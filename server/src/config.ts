@@ -47,6 +47,12 @@ const ConfigSchema = z.object({
   RATE_LIMIT_NAMESPACE: z.string().min(1).max(100).default('loadline'),
   SESSION_IDLE_MINUTES: z.coerce.number().min(1).max(30).default(30),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).max(12).default(12),
+  /**
+   * How long a server may reuse a signed-in person's session, user and memberships without reading
+   * them again (http/actor-cache.ts). Changes still apply on the next request: PostgreSQL notifies every
+   * server of them. 0 turns the cache off.
+   */
+  ACTOR_CACHE_SECONDS: z.coerce.number().min(0).max(300).default(30),
   INVITATION_TTL_HOURS: z.coerce
     .number()
     .min(1)

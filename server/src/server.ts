@@ -64,7 +64,8 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
     );
   }
   setNoticeQueue(jobs);
-  const { app, close } = buildApp({ ds, config, logger, jobs });
+  const { app, ready, close } = buildApp({ ds, config, logger, jobs });
+  await ready;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
     s.on('error', reject);
