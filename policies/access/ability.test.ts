@@ -93,6 +93,9 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     PlanTemplate: { id: `template-${relation}`, organizationId: org, authorId: relation === 'self' ? me : STAFF },
     // The injury report is about no athlete: only 'same-org' and 'other-org' apply.
     InjuryReport: { organizationId: org },
+    // 'self': the actor's own feed; any other relation: the feed of that relation's member.
+    CalendarFeed: { organizationId: org, membershipId: athleteId },
+    CaseExport: { organizationId: org, athleteId },
   };
   return records[subject] as SubjectShapes[K];
 }

@@ -19,6 +19,7 @@ import { uploadRules } from './uploads';
 import { groupRules } from './group';
 import { planTemplateRules } from './plan-template';
 import { injuryReportRules } from './injury-report';
+import { exportRules } from './exports';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -38,6 +39,7 @@ const RULE_SETS: RuleSet[] = [
   groupRules,
   planTemplateRules,
   injuryReportRules,
+  exportRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

@@ -47,6 +47,10 @@ export interface SubjectShapes {
   PlanTemplate: { id: string; organizationId: string; authorId: string };
   /** The organization's injury report: aggregates only, small cells suppressed. */
   InjuryReport: { organizationId: string };
+  /** A member's own private iCalendar feed (only the token's hash is stored). */
+  CalendarFeed: { organizationId: string; membershipId: string };
+  /** A case as a FHIR R4 Bundle for the clinician's health record. */
+  CaseExport: { organizationId: string; athleteId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -80,6 +84,8 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'Group',
   'PlanTemplate',
   'InjuryReport',
+  'CalendarFeed',
+  'CaseExport',
 ];
 
 type TaggedSubjects = {

@@ -11,3 +11,4 @@ export type * from './notice-preferences';
 export type * from './teams';
 export type * from './stage-criteria';
 export type * from './plan-templates';
+export type * from './exports';

@@ -11,3 +11,4 @@ export * from './account-security';
 export * from './notice-preferences';
 export * from './stage-criteria';
 export * from './plan-templates';
+export * from './exports';

@@ -41,6 +41,7 @@ import { rosterRoutes } from './routes/programs/roster.router';
 import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
 import { clipRoutes } from './routes/uploads/clips.router';
+import { calendarFeedRoutes } from './routes/exports/calendar-feed.router';
 import { createStorage } from './storage';
 import type { ObjectStorage } from './storage';
 
@@ -146,6 +147,7 @@ export function buildApp(base: AppDeps) {
     ...letterRoutes(deps),
     ...documentRoutes,
     ...clipRoutes,
+    ...calendarFeedRoutes(deps),
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

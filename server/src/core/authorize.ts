@@ -33,6 +33,8 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   Group: 'group',
   PlanTemplate: 'plan template',
   InjuryReport: 'injury report',
+  CalendarFeed: 'calendar feed',
+  CaseExport: 'case',
 };
 
 /**
@@ -88,6 +90,8 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   Group: 'groups',
   PlanTemplate: 'plan templates',
   InjuryReport: 'the injury report',
+  CalendarFeed: 'calendar feeds',
+  CaseExport: 'health-record exports of cases',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

@@ -32,6 +32,7 @@ import { UserTotp, TotpRecoveryCode } from './user-totp.entity';
 import { Group, GroupMember } from './group.entity';
 import { PlanTemplate } from './plan-template.entity';
 import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
+import { CalendarFeed } from './calendar-feed.entity';
 
 export {
   Organization,
@@ -66,6 +67,7 @@ export { PasswordResetToken, UserTotp, TotpRecoveryCode };
 export { Group, GroupMember };
 export { PlanTemplate };
 export { StageCriterionReading, StageDecision };
+export { CalendarFeed };
 
 export const ENTITIES = [
   Organization,
@@ -105,4 +107,5 @@ export const ENTITIES = [
   PlanTemplate,
   StageCriterionReading,
   StageDecision,
+  CalendarFeed,
 ];

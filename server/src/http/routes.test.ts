@@ -190,6 +190,10 @@ describe('the route table', () => {
         "DELETE /api/orgs/:orgId/clips/:id  ⇒  member: read Clip",
         "POST   /api/orgs/:orgId/clips/:id/notes  ⇒  member: create ClipNote",
         "DELETE /api/orgs/:orgId/clips/:id/notes/:noteId  ⇒  member: read ClipNote",
+        "GET    /api/orgs/:orgId/calendar-feed  ⇒  member: read CalendarFeed",
+        "POST   /api/orgs/:orgId/calendar-feed  ⇒  member: create CalendarFeed",
+        "DELETE /api/orgs/:orgId/calendar-feed  ⇒  member: delete CalendarFeed",
+        "GET    /api/calendar/:token.ics  ⇒  public",
       ]
     `);
   });

@@ -17,6 +17,7 @@ import { CreateGroupsAndTeamPrograms1765900000000 } from './1765900000000-create
 import { CreateStageCriteria1766000000000 } from './1766000000000-create-stage-criteria';
 import { CreatePlanTemplates1766100000000 } from './1766100000000-create-plan-templates';
 import { CreateTeamSessionHours1766200000000 } from './1766200000000-create-team-session-hours';
+import { CreateCalendarFeeds1766900000000 } from './1766900000000-create-calendar-feeds';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
 export const MIGRATIONS = [
@@ -39,4 +40,5 @@ export const MIGRATIONS = [
   CreateStageCriteria1766000000000,
   CreatePlanTemplates1766100000000,
   CreateTeamSessionHours1766200000000,
+  CreateCalendarFeeds1766900000000,
 ];
