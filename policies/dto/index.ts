@@ -13,3 +13,4 @@ export type * from './stage-criteria';
 export type * from './plan-templates';
 export type * from './record-export';
 export type * from './roster';
+export type * from './exports';

@@ -13,3 +13,4 @@ export * from './stage-criteria';
 export * from './plan-templates';
 export * from './record-export';
 export * from './organization-signup';
+export * from './exports';

@@ -150,6 +150,11 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
     const format = field(e.after, 'format');
     return `${who} downloaded the floor sheet of a team session${format === 'csv' ? ' (CSV)' : format === 'pdf' ? ' (PDF)' : ''}`;
   },
+  'calendar_feed.started': (who, e) =>
+    field(e.after, 'replaced') === true
+      ? `${who} made a new address for their private calendar feed, ending the old one`
+      : `${who} turned on their private calendar feed`,
+  'calendar_feed.stopped': (who) => `${who} turned off their private calendar feed`,
   'plan_template.created': (who, e) => `${who} saved the plan template "${String(field(e.after, 'name') ?? '')}"`,
   'plan_template.updated': (who, e) => `${who} changed the plan template "${String(field(e.after, 'name') ?? '')}"`,
   'plan_template.copied': (who, e) => `${who} copied a plan template as "${String(field(e.after, 'name') ?? '')}"`,

@@ -46,6 +46,7 @@ import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
 import { clipRoutes } from './routes/uploads/clips.router';
 import { recordExportRoutes } from './routes/record-exports/record-exports.router';
+import { calendarFeedRoutes } from './routes/exports/calendar-feed.router';
 import { createStorage } from './storage';
 import type { ObjectStorage } from './storage';
 
@@ -161,6 +162,7 @@ export function buildApp(base: AppDeps) {
     ...documentRoutes,
     ...clipRoutes,
     ...recordExportRoutes,
+    ...calendarFeedRoutes(deps),
   ]);
   api.use(apiNotFound);
   app.use('/api', api);

@@ -35,6 +35,7 @@ import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
 import { RecordExport } from './record-export.entity';
 import { RosterImport } from './roster-import.entity';
 import { OrganizationSignup } from './organization-signup.entity';
+import { CalendarFeed } from './calendar-feed.entity';
 
 export {
   Organization,
@@ -72,6 +73,7 @@ export { StageCriterionReading, StageDecision };
 export { RecordExport };
 export { RosterImport };
 export { OrganizationSignup };
+export { CalendarFeed };
 
 export const ENTITIES = [
   Organization,
@@ -114,4 +116,5 @@ export const ENTITIES = [
   RecordExport,
   RosterImport,
   OrganizationSignup,
+  CalendarFeed,
 ];

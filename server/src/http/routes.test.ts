@@ -197,6 +197,10 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/record-exports  ⇒  member: create RecordExport",
         "POST   /api/orgs/:orgId/record-exports/link  ⇒  member: read RecordExport",
         "POST   /api/orgs/:orgId/record-exports/download  ⇒  member: read RecordExport",
+        "GET    /api/orgs/:orgId/calendar-feed  ⇒  member: read CalendarFeed",
+        "POST   /api/orgs/:orgId/calendar-feed  ⇒  member: create CalendarFeed",
+        "DELETE /api/orgs/:orgId/calendar-feed  ⇒  member: delete CalendarFeed",
+        "GET    /api/calendar/:token.ics  ⇒  public",
       ]
     `);
   });

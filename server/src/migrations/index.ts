@@ -21,6 +21,7 @@ import { CreateIdempotencyKeys1766500000000 } from './1766500000000-create-idemp
 import { AddActorCacheNotices1766600000000 } from './1766600000000-add-actor-cache-notices';
 import { CreateOrganizationSignups1766700000000 } from './1766700000000-create-organization-signups';
 import { CreateRosterImports1766800000000 } from './1766800000000-create-roster-imports';
+import { CreateCalendarFeeds1766900000000 } from './1766900000000-create-calendar-feeds';
 import { CreateRecordExports1767000000000 } from './1767000000000-create-record-exports';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
@@ -48,5 +49,6 @@ export const MIGRATIONS = [
   AddActorCacheNotices1766600000000,
   CreateOrganizationSignups1766700000000,
   CreateRosterImports1766800000000,
+  CreateCalendarFeeds1766900000000,
   CreateRecordExports1767000000000,
 ];
