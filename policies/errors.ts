@@ -14,6 +14,8 @@ export const ERROR_CODES = [
   'version_conflict',
   'invitation_invalid',
   'reset_invalid',
+  /** An organization sign-up's confirmation link that cannot be used (one message for every reason). */
+  'signup_invalid',
   'payload_too_large',
   'unsupported_media_type',
   'range_not_satisfiable',
@@ -42,6 +44,7 @@ export function statusFor(code: ErrorCode): number {
     case 'not_found':
     case 'invitation_invalid':
     case 'reset_invalid':
+    case 'signup_invalid':
       return 404;
     case 'conflict':
     case 'version_conflict':

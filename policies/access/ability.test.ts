@@ -95,6 +95,9 @@ function recordFor<K extends SubjectName>(subject: K, relation: Relation, actor:
     InjuryReport: { organizationId: org },
     // A request the actor made themself, about an athlete who is a minor (the factory's linked athlete is one).
     RecordExport: { organizationId: org, athleteId, athleteIsMinor: true, requestedByUserId: actor.userId },
+    // 'self': the actor's own feed; any other relation: the feed of that relation's member.
+    CalendarFeed: { organizationId: org, membershipId: athleteId },
+    CaseExport: { organizationId: org, athleteId },
   };
   return records[subject] as SubjectShapes[K];
 }

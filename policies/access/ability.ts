@@ -20,6 +20,7 @@ import { groupRules } from './group';
 import { planTemplateRules } from './plan-template';
 import { injuryReportRules } from './injury-report';
 import { recordExportRules } from './record-export';
+import { exportRules } from './exports';
 
 const RULE_SETS: RuleSet[] = [
   organizationRules,
@@ -40,6 +41,7 @@ const RULE_SETS: RuleSet[] = [
   planTemplateRules,
   injuryReportRules,
   recordExportRules,
+  exportRules,
 ];
 
 /** The one rule set, used by the server to decide and by the client to show. Deny by default. */

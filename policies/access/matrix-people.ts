@@ -139,4 +139,22 @@ export const PEOPLE_GRID: [SubjectName, Action, Relation, string][] = [
   ['RecordExport',       'read',   'own-care-team',   '-   n   n   Y   -'],
   ['RecordExport',       'read',   'other-athlete',   'n   n   n   n   n'],
   ['RecordExport',       'read',   'other-org',       'n   n   n   n   n'],
+
+  // A private calendar feed: each athlete or coach turns on, reads and turns off only their own.
+  ['CalendarFeed',       'read',   'self',            'Y   Y   n   n   n'],
+  ['CalendarFeed',       'read',   'own-care-team',   '-   n   n   n   -'],
+  ['CalendarFeed',       'read',   'same-org',        'n   n   n   n   n'],
+  ['CalendarFeed',       'read',   'other-org',       'n   n   n   n   n'],
+  ['CalendarFeed',       'create', 'self',            'Y   Y   n   n   n'],
+  ['CalendarFeed',       'create', 'same-org',        'n   n   n   n   n'],
+  ['CalendarFeed',       'create', 'other-org',       'n   n   n   n   n'],
+  ['CalendarFeed',       'delete', 'self',            'Y   Y   n   n   n'],
+  ['CalendarFeed',       'delete', 'own-care-team',   '-   n   n   n   -'],
+  ['CalendarFeed',       'delete', 'other-org',       'n   n   n   n   n'],
+
+  // A case as a FHIR R4 Bundle (diagnosis, pain reports, the letter): the care team's clinicians only.
+  ['CaseExport',         'read',   'self',            'n   -   -   -   -'],
+  ['CaseExport',         'read',   'own-care-team',   '-   n   Y   n   -'],
+  ['CaseExport',         'read',   'other-athlete',   'n   n   n   n   n'],
+  ['CaseExport',         'read',   'other-org',       'n   n   n   n   n'],
 ];

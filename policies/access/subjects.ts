@@ -52,6 +52,10 @@ export interface SubjectShapes {
    * organization's today (a guardian may ask only then), and who asked (only they may download it).
    */
   RecordExport: { organizationId: string; athleteId: string; athleteIsMinor: boolean; requestedByUserId?: string };
+  /** A member's own private iCalendar feed (only the token's hash is stored). */
+  CalendarFeed: { organizationId: string; membershipId: string };
+  /** A case as a FHIR R4 Bundle for the clinician's health record. */
+  CaseExport: { organizationId: string; athleteId: string };
 }
 export type SubjectName = keyof SubjectShapes;
 export const SUBJECT_NAMES: SubjectName[] = [
@@ -86,6 +90,8 @@ export const SUBJECT_NAMES: SubjectName[] = [
   'PlanTemplate',
   'InjuryReport',
   'RecordExport',
+  'CalendarFeed',
+  'CaseExport',
 ];
 
 type TaggedSubjects = {

@@ -12,3 +12,5 @@ export type * from './teams';
 export type * from './stage-criteria';
 export type * from './plan-templates';
 export type * from './record-export';
+export type * from './roster';
+export type * from './exports';

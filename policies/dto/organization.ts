@@ -40,3 +40,18 @@ export interface HealthDto {
   status: 'ok' | 'degraded';
   database: 'up' | 'down';
 }
+/** Whether this installation lets anyone start an organization (off for a private installation). */
+export interface OrganizationSignupStatusDto {
+  open: boolean;
+}
+/** The one answer to every sign-up request, whether or not the address already has an account. */
+export interface OrganizationSignupRequestedDto {
+  message: string;
+}
+export interface OrganizationSignupConfirmedDto {
+  organizationId: string;
+  organizationName: string;
+  email: string;
+  /** The address already had an account: it signs in with its existing password (the form's was not used). */
+  existingAccount: boolean;
+}

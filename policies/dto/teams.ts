@@ -29,6 +29,8 @@ export interface TeamProgramSummaryDto {
   groupId: string;
   groupName: string;
   sessions: number;
+  /** The group is archived: the program is kept for the record and changes no more. */
+  archived: boolean;
   version: number;
 }
 
@@ -61,7 +63,8 @@ export interface TeamGridDto {
   programId: string;
   programName: string;
   groupName: string;
-  sessions: { id: string; date: string; title: string; status: 'draft' | 'published'; version: number }[];
+  /** setCount: the team session's sets as written (0: nothing written yet, so nothing to fit). */
+  sessions: { id: string; date: string; title: string; status: 'draft' | 'published'; version: number; setCount: number }[];
   athletes: (GroupPersonDto & { statusToday: ParticipationStatus })[];
   cells: GridCellDto[];
 }

@@ -12,3 +12,5 @@ export * from './notice-preferences';
 export * from './stage-criteria';
 export * from './plan-templates';
 export * from './record-export';
+export * from './organization-signup';
+export * from './exports';

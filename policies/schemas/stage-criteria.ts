@@ -14,7 +14,7 @@ const RecordCriterionSchema = z
     kind: z.literal('record'),
     rule: z.enum(RECORD_RULES, { message: 'must be a rule from the list' }),
     count: z
-      .number()
+      .number({ message: 'must be a number' })
       .int({ message: 'must be a whole number' })
       .min(1, { message: 'must be at least 1' })
       .max(50, { message: 'must be at most 50' })
@@ -24,15 +24,14 @@ const RecordCriterionSchema = z
   })
   .superRefine((c, ctx) => {
     const needsCount = c.rule !== 'no_red_flags';
-    if (needsCount && c.count === undefined)
-      ctx.addIssue({ code: 'custom', path: ['count'], message: 'says how many sessions are needed' });
+    if (needsCount && c.count === undefined) ctx.addIssue({ code: 'custom', path: ['count'], message: 'is needed: how many sessions' });
     if (!needsCount && c.count !== undefined) ctx.addIssue({ code: 'custom', path: ['count'], message: 'does not apply to this rule' });
     if (c.rule === 'pain_settled_sessions' && c.maxPain === undefined)
-      ctx.addIssue({ code: 'custom', path: ['maxPain'], message: 'says the highest pain during that still counts' });
+      ctx.addIssue({ code: 'custom', path: ['maxPain'], message: 'is needed: the highest pain during training that still counts' });
     if (c.rule !== 'pain_settled_sessions' && c.maxPain !== undefined)
       ctx.addIssue({ code: 'custom', path: ['maxPain'], message: 'does not apply to this rule' });
     if (c.rule === 'rpe_at_most' && c.maxRpe === undefined)
-      ctx.addIssue({ code: 'custom', path: ['maxRpe'], message: 'says the highest session effort that still counts' });
+      ctx.addIssue({ code: 'custom', path: ['maxRpe'], message: 'is needed: the highest session effort that still counts' });
     if (c.rule !== 'rpe_at_most' && c.maxRpe !== undefined)
       ctx.addIssue({ code: 'custom', path: ['maxRpe'], message: 'does not apply to this rule' });
   });
@@ -49,9 +48,9 @@ const ClinicianCriterionSchema = z
   })
   .superRefine((c, ctx) => {
     if (c.measure === 'threshold' && c.threshold === undefined)
-      ctx.addIssue({ code: 'custom', path: ['threshold'], message: 'a measured test needs a threshold' });
+      ctx.addIssue({ code: 'custom', path: ['threshold'], message: 'is needed for a measured test' });
     if (c.measure === 'yes_no' && c.threshold !== undefined)
-      ctx.addIssue({ code: 'custom', path: ['threshold'], message: 'a yes/no judgement has no threshold' });
+      ctx.addIssue({ code: 'custom', path: ['threshold'], message: 'does not apply to a yes/no judgement' });
   });
 
 const AthleteCriterionSchema = z.strictObject({

@@ -66,9 +66,20 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'auth.recovery_code_used': (who) => `${who} signed in with a recovery code`,
   'user.created': (who) => `${who}'s account was created`,
   'user.updated': (who) => `${who} changed their account details`,
+  'user.password_set': (who) => `${who} chose a password and can now sign in`,
+  'roster.previewed': (who, e) =>
+    `${who} uploaded a roster of ${String(field(e.after, 'rows') ?? '')} rows to check it (${String(field(e.after, 'skip') ?? 0)} with problems)`,
+  'roster.import_started': (who, e) => `${who} started importing a roster of ${String(field(e.after, 'rows') ?? '')} rows`,
+  'roster.row_imported': (who, e) => `${who} brought ${athlete(e)} in from a roster (line ${String(field(e.after, 'line') ?? '')})`,
+  'roster.imported': (who, e) =>
+    `${who}'s roster import finished: ${String(field(e.after, 'created') ?? 0)} added, ${String(field(e.after, 'updated') ?? 0)} completed, ${String(field(e.after, 'unchanged') ?? 0)} unchanged, ${String(field(e.after, 'skipped') ?? 0)} skipped`,
+  'roster.import_failed': (who, e) => `${who}'s roster import stopped after ${String(field(e.after, 'processed') ?? 0)} rows`,
   'athlete.updated': (who, e) => `${who} changed ${whose(e, 'details')}`,
   'audit.exported': (who) => `${who} downloaded the audit trail`,
   'demo.loaded': (who) => `${who} loaded the demo`,
+  'organization.signup_requested': () => 'Someone asked, on the public page, to start a new organization',
+  'organization.created': (who, e) =>
+    field(e.after, 'via') === 'operator' ? 'An operator created the organization' : `${who} started the organization`,
   'organization.settings_changed': (who) => `${who} changed the organization's settings`,
   'invitation.created': (who, e) => `${who} invited someone to join${rolesWords(e.after)}`,
   'invitation.revoked': (who) => `${who} withdrew an invitation`,
@@ -139,6 +150,11 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
     const format = field(e.after, 'format');
     return `${who} downloaded the floor sheet of a team session${format === 'csv' ? ' (CSV)' : format === 'pdf' ? ' (PDF)' : ''}`;
   },
+  'calendar_feed.started': (who, e) =>
+    field(e.after, 'replaced') === true
+      ? `${who} made a new address for their private calendar feed, ending the old one`
+      : `${who} turned on their private calendar feed`,
+  'calendar_feed.stopped': (who) => `${who} turned off their private calendar feed`,
   'plan_template.created': (who, e) => `${who} saved the plan template "${String(field(e.after, 'name') ?? '')}"`,
   'plan_template.updated': (who, e) => `${who} changed the plan template "${String(field(e.after, 'name') ?? '')}"`,
   'plan_template.copied': (who, e) => `${who} copied a plan template as "${String(field(e.after, 'name') ?? '')}"`,

@@ -10,10 +10,13 @@ import type { JobQueue } from './jobs/queue';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { mountRoutes } from './http/route';
 import { hostCheck } from './http/host-check';
+import { serveClient } from './http/client-assets';
 import { absoluteTimeout, buildPassport, buildSession, csrfProtection } from './http/security';
+import { ActorCache } from './http/actor-cache';
 import { healthRoutes } from './routes/health/health.router';
 import { sessionRoutes } from './routes/session/session.router';
 import { accountSecurityRoutes } from './routes/account-security/account-security.router';
+import { organizationSignupRoutes } from './routes/organization-signup/organization-signup.router';
 import { invitationRoutes } from './routes/invitations/invitations.router';
 import { organizationRoutes } from './routes/organizations/organizations.router';
 import { peopleRoutes } from './routes/people/people.router';
@@ -38,10 +41,12 @@ import { teamProgramRoutes } from './routes/team-programs/team-programs.router';
 import { groupRoutes } from './routes/groups/groups.router';
 import { injuryReportRoutes } from './routes/injury-report/injury-report.router';
 import { rosterRoutes } from './routes/programs/roster.router';
+import { rosterImportRoutes } from './routes/roster-imports/roster-imports.router';
 import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
 import { clipRoutes } from './routes/uploads/clips.router';
 import { recordExportRoutes } from './routes/record-exports/record-exports.router';
+import { calendarFeedRoutes } from './routes/exports/calendar-feed.router';
 import { createStorage } from './storage';
 import type { ObjectStorage } from './storage';
 
@@ -52,7 +57,14 @@ export type AppDeps = Omit<Deps, 'passport' | 'jobs' | 'storage'> & { jobs?: Job
 /** Builds the Express app (no listen). The returned `close` ends the app's own pools. */
 export function buildApp(base: AppDeps) {
   const passport = buildPassport(base as Deps);
-  const deps: Deps = { ...base, jobs: base.jobs ?? null, passport, storage: base.storage ?? createStorage(base.config) };
+  const actorCache = new ActorCache(base.config.DATABASE_URL, base.logger, base.config.ACTOR_CACHE_SECONDS * 1000);
+  const deps: Deps = {
+    ...base,
+    jobs: base.jobs ?? null,
+    passport,
+    storage: base.storage ?? createStorage(base.config),
+    actorChanges: actorCache,
+  };
   const { config } = deps;
   const app = express();
   app.disable('x-powered-by');
@@ -99,7 +111,7 @@ export function buildApp(base: AppDeps) {
     }),
   );
 
-  const { middleware: sessionMiddleware, close: closeSessions } = buildSession(deps);
+  const { middleware: sessionMiddleware, close: closeSessions } = buildSession(deps, actorCache);
   const api = Router();
   api.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
@@ -121,6 +133,7 @@ export function buildApp(base: AppDeps) {
     ...sessionRoutes(deps),
     ...accountSecurityRoutes(deps),
     ...invitationRoutes(deps),
+    ...organizationSignupRoutes(deps),
     ...organizationRoutes,
     ...peopleRoutes,
     ...athleteRoutes,
@@ -144,21 +157,19 @@ export function buildApp(base: AppDeps) {
     ...groupRoutes,
     ...injuryReportRoutes,
     ...rosterRoutes,
+    ...rosterImportRoutes,
     ...letterRoutes(deps),
     ...documentRoutes,
     ...clipRoutes,
     ...recordExportRoutes,
+    ...calendarFeedRoutes(deps),
   ]);
   api.use(apiNotFound);
   app.use('/api', api);
 
   const clientDist = config.CLIENT_DIST ?? path.join(ROOT, 'client', 'dist');
   if (existsSync(path.join(clientDist, 'index.html'))) {
-    app.use(express.static(clientDist, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => {
-      res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(path.join(clientDist, 'index.html'));
-    });
+    serveClient(app, clientDist);
   } else {
     app.get('/', (_req, res) => {
       res.type('text/plain').send('Loadline API is running. The client is not built: run `npm start` (or `npm run dev` for development).');
@@ -166,5 +177,6 @@ export function buildApp(base: AppDeps) {
   }
   app.use(errorHandler(deps));
 
-  return { app, close: closeSessions };
+  // `ready`: the actor cache listens for changes (until then it is off, and every request reads afresh).
+  return { app, ready: actorCache.start(), actorCache, close: closeSessions };
 }

@@ -47,11 +47,27 @@ const ConfigSchema = z.object({
   RATE_LIMIT_NAMESPACE: z.string().min(1).max(100).default('loadline'),
   SESSION_IDLE_MINUTES: z.coerce.number().min(1).max(30).default(30),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).max(12).default(12),
+  /**
+   * How long a server may reuse a signed-in person's session, user and memberships without reading
+   * them again (http/actor-cache.ts). Changes still apply on the next request: PostgreSQL notifies every
+   * server of them. 0 turns the cache off.
+   */
+  ACTOR_CACHE_SECONDS: z.coerce.number().min(0).max(300).default(30),
   INVITATION_TTL_HOURS: z.coerce
     .number()
     .min(1)
     .max(24 * 14)
     .default(72),
+  /**
+   * Whether anyone may start an organization from the public page (issue 16). `closed` for a private
+   * installation: the page says so, the sign-up routes answer 404, and operators use `npm run org:create`.
+   */
+  ORG_SIGNUP: z.enum(['open', 'closed']).default('open'),
+  /** A sign-up's confirmation link works once and for this many hours. */
+  ORG_SIGNUP_TTL_HOURS: z.coerce.number().min(1).max(168).default(24),
+  /** Sign-up requests per IP address and per e-mail address typed, over SIGNIN_WINDOW_SECONDS. */
+  ORG_SIGNUP_MAX_PER_IP: z.coerce.number().int().min(1).default(10),
+  ORG_SIGNUP_MAX_PER_ACCOUNT: z.coerce.number().int().min(1).default(3),
   BCRYPT_COST: z.coerce.number().int().min(12).max(15).default(12),
   /** Password reset links work once and for this many minutes. */
   RESET_TTL_MINUTES: z.coerce

@@ -12,6 +12,7 @@ import { createTransport, deliver } from './mail/deliveries';
 import { DEFAULT_AUDIT_SEAL_DIR } from './services/audit-seal';
 import { sealAll } from './services/audit-seal-job';
 import { buildRecordExport } from './services/record-export-job';
+import { runRosterImport } from './services/roster-import-job';
 import { createStorage } from './storage';
 
 export interface RunningServer {
@@ -46,6 +47,9 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
       // Copies of a person's whole record (services/record-export-job.ts), built one at a time.
       const exportDeps = { ds, config, logger, jobs, storage: createStorage(config) };
       await jobs.workRecordExports((job, lastTry) => buildRecordExport(exportDeps, job.exportId, lastTry));
+      // Roster imports (issue 16 §2): batches between which this process keeps serving requests.
+      const workerDeps = { ds, config, logger, jobs, storage: createStorage(config) };
+      await jobs.workRosterImports((job) => runRosterImport(workerDeps, job.importId));
       // The daily audit seal (ASVS 5.0 V16.4.3): pg-boss sends one job per day, worked by one server.
       if (config.AUDIT_SEAL_KEY) {
         const sealDeps = { ds, key: config.AUDIT_SEAL_KEY, dir: config.AUDIT_SEAL_DIR ?? DEFAULT_AUDIT_SEAL_DIR, queue: jobs, logger };
@@ -60,7 +64,8 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
     );
   }
   setNoticeQueue(jobs);
-  const { app, close } = buildApp({ ds, config, logger, jobs });
+  const { app, ready, close } = buildApp({ ds, config, logger, jobs });
+  await ready;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
     s.on('error', reject);

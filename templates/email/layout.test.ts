@@ -21,7 +21,7 @@ const visibleText = (html: string) =>
 
 describe('e-mail templates, each rendered from its sample data', () => {
   it('the set of templates is the one these tests cover', () => {
-    expect(Object.keys(emails).sort()).toEqual(['invitation', 'letter', 'notice', 'passwordReset', 'recordExport']);
+    expect(Object.keys(emails).sort()).toEqual(['invitation', 'letter', 'notice', 'organizationSignup', 'passwordReset', 'recordExport']);
   });
 
   it.each(TEMPLATES)('%s: a subject, and the same greeting, paragraphs and action in the text and the HTML', (_name, content) => {

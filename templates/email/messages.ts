@@ -21,6 +21,28 @@ export const emails = {
       action: { label: 'Accept the invitation', url: d.link },
     };
   },
+  organizationSignup(
+    d: { name: string; organizationName: string; link: string; hours: number; existingAccount: boolean } = {
+      name: 'Sample Admin',
+      organizationName: 'Sample Club',
+      link: 'http://127.0.0.1:3000/start/confirm#sample',
+      hours: 24,
+      existingAccount: false,
+    },
+  ): EmailContent {
+    return {
+      subject: `Confirm your e-mail to start ${d.organizationName} on Loadline`,
+      greeting: `Hello ${d.name},`,
+      paragraphs: [
+        `Someone, hopefully you, asked to start ${d.organizationName} on Loadline with this address as its first admin.`,
+        d.existingAccount
+          ? 'This address already has a Loadline account. Confirming adds the new organization to it: sign in with the password you already use (the password typed in the form is not used).'
+          : 'Confirming the address creates the organization and your account; then sign in with the password you chose.',
+        `The link works once, for the next ${d.hours} hours. If you did not ask for this, ignore this e-mail: nothing is created.`,
+      ],
+      action: { label: 'Confirm and start the organization', url: d.link },
+    };
+  },
   passwordReset(
     d: { name: string; link: string; minutes: number } = { name: 'Sample', link: 'http://127.0.0.1:3000/reset#sample', minutes: 30 },
   ): EmailContent {

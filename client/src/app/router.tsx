@@ -1,119 +1,94 @@
-import { Navigate, createBrowserRouter } from 'react-router-dom';
-import { RootLayout } from './layout/RootLayout';
-import { SignedInLayout } from './layout/SignedInLayout';
-import { SignInPage } from './routes/sign-in';
-import { InvitePage } from './routes/invite';
-import { ForgotPasswordPage } from './routes/forgot-password';
-import { ResetPasswordPage } from './routes/reset-password';
-import { CheckPage } from './routes/check';
-import { RecordDownloadPage } from './routes/record-download';
+import type { ComponentType } from 'react';
+import { Navigate, createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { RootLayout, StartingUp } from './layout/RootLayout';
+// Small, and it only picks where to go: loading it lazily would put a round trip before every home.
 import { HomeRedirect } from './routes/home-redirect';
-import { AccountPage } from './routes/account';
-import { NotFoundPage } from './routes/not-found';
-import { CoachHome } from './routes/coach';
-import { CoachAthletePage } from './routes/staff/athlete-coach';
-import { CoachExercisesPage } from './routes/coach/exercises';
-import { CoachProgramPage } from './routes/coach/program';
-import { CoachTeamProgramPage, CoachTeamVersionPage } from './routes/coach/team-program';
-import { ClinicianLayout } from './routes/clinician/clinician-layout';
-import { ClinicianHome } from './routes/clinician/caseload';
-import { ClinicianAthletePage } from './routes/staff/athlete-clinician';
-import { ClinicianCasePage } from './routes/clinician/case';
-import { ClinicianAuditPage } from './routes/clinician/audit';
-import { ClinicianExceptionsPage } from './routes/clinician/exceptions';
-import { AthleteHome } from './routes/athlete';
-import { GuardianHome } from './routes/guardian';
-import { ReportPainPage } from './routes/athlete/report';
-import { CheckInPage } from './routes/athlete/check-in';
-import { LogSessionPage } from './routes/athlete/log';
-import { MyWeekPage } from './routes/athlete/week';
-import { StaffWorkloadPage } from './routes/staff/workload';
-import { StaffFlagsPage } from './routes/staff/flags';
-import { NoticesPage } from './routes/notices';
-import { AdminLayout } from './routes/admin/admin-layout';
-import { PeoplePage } from './routes/admin/people';
-import { GroupPage, GroupsPage } from './routes/groups';
-import { PersonPage } from './routes/admin/person';
-import { InvitationsPage } from './routes/admin/invitations';
-import { AuditPage } from './routes/admin/audit';
-import { InjuryReportPage } from './routes/staff/injury-report';
-import { OutboxPage } from './routes/admin/outbox';
-import { OrganizationSettingsPage } from './routes/admin/settings';
-import { ClipPage } from './routes/clip';
-import { PainReportPage } from './routes/pain-report';
-import { MyClipsPage, NewClipPage } from './routes/athlete/clips';
-import { MyDocumentsPage } from './routes/athlete/documents';
 
-export const routes = [
+/**
+ * Every screen but the outer frame is loaded when first visited (issue 17, first load): the sign-in
+ * page and each role's home fetch only their own code, and the heavy parts (charts, the clip player,
+ * the plan editor, the program builder) come with the screens that use them. The router loads a
+ * route's code before it renders it, so a navigation keeps the current screen until the next is ready.
+ */
+function page<M extends Record<string, unknown>>(load: () => Promise<M>, name: keyof M & string): RouteObject['lazy'] {
+  return async () => ({ Component: (await load())[name] as ComponentType });
+}
+
+export const routes: RouteObject[] = [
   {
     element: <RootLayout />,
+    // Shown only while the first screen's code loads.
+    hydrateFallbackElement: <StartingUp />,
     children: [
-      { path: '/sign-in', element: <SignInPage /> },
-      { path: '/invite', element: <InvitePage /> },
-      { path: '/forgot-password', element: <ForgotPasswordPage /> },
+      { path: '/sign-in', lazy: page(() => import('./routes/sign-in'), 'SignInPage') },
+      { path: '/invite', lazy: page(() => import('./routes/invite'), 'InvitePage') },
+      { path: '/forgot-password', lazy: page(() => import('./routes/forgot-password'), 'ForgotPasswordPage') },
       // The reset token rides in the fragment (#…), which never reaches the server.
-      { path: '/reset', element: <ResetPasswordPage /> },
+      { path: '/reset', lazy: page(() => import('./routes/reset-password'), 'ResetPasswordPage') },
       // Public: a letter's holder checks its code without signing in.
-      { path: '/check', element: <CheckPage /> },
-      { path: '/check/:code', element: <CheckPage /> },
+      { path: '/check', lazy: page(() => import('./routes/check'), 'CheckPage') },
+      { path: '/check/:code', lazy: page(() => import('./routes/check'), 'CheckPage') },
       // An e-mailed record link: the code in the fragment; signed out, it offers sign-in and comes back.
-      { path: '/record-download', element: <RecordDownloadPage /> },
+      { path: '/record-download', lazy: page(() => import('./routes/record-download'), 'RecordDownloadPage') },
       {
-        element: <SignedInLayout />,
+        lazy: page(() => import('./layout/SignedInLayout'), 'SignedInLayout'),
         children: [
           { index: true, element: <HomeRedirect /> },
           {
             path: '/admin',
-            element: <AdminLayout />,
+            lazy: page(() => import('./routes/admin/admin-layout'), 'AdminLayout'),
             children: [
               { index: true, element: <Navigate to="/admin/people" replace /> },
-              { path: 'people', element: <PeoplePage /> },
-              { path: 'people/:personId', element: <PersonPage /> },
-              { path: 'invitations', element: <InvitationsPage /> },
-              { path: 'audit', element: <AuditPage /> },
-              { path: 'injury-report', element: <InjuryReportPage /> },
-              { path: 'outbox', element: <OutboxPage /> },
-              { path: 'settings', element: <OrganizationSettingsPage /> },
+              { path: 'people', lazy: page(() => import('./routes/admin/people'), 'PeoplePage') },
+              { path: 'people/:personId', lazy: page(() => import('./routes/admin/person'), 'PersonPage') },
+              { path: 'invitations', lazy: page(() => import('./routes/admin/invitations'), 'InvitationsPage') },
+              { path: 'audit', lazy: page(() => import('./routes/admin/audit'), 'AuditPage') },
+              { path: 'injury-report', lazy: page(() => import('./routes/staff/injury-report'), 'InjuryReportPage') },
+              { path: 'outbox', lazy: page(() => import('./routes/admin/outbox'), 'OutboxPage') },
+              { path: 'settings', lazy: page(() => import('./routes/admin/settings'), 'OrganizationSettingsPage') },
             ],
           },
-          { path: '/groups', element: <GroupsPage /> },
-          { path: '/groups/:groupId', element: <GroupPage /> },
-          { path: '/coach', element: <CoachHome /> },
-          { path: '/coach/athletes/:athleteId', element: <CoachAthletePage /> },
-          { path: '/coach/exercises', element: <CoachExercisesPage /> },
-          { path: '/coach/programs/:programId', element: <CoachProgramPage /> },
-          { path: '/coach/team-programs/:programId', element: <CoachTeamProgramPage /> },
-          { path: '/coach/team-programs/:programId/sessions/:sessionId/athletes/:athleteId', element: <CoachTeamVersionPage /> },
+          { path: '/groups', lazy: page(() => import('./routes/groups'), 'GroupsPage') },
+          { path: '/groups/:groupId', lazy: page(() => import('./routes/groups'), 'GroupPage') },
+          { path: '/coach', lazy: page(() => import('./routes/coach'), 'CoachHome') },
+          { path: '/coach/athletes/:athleteId', lazy: page(() => import('./routes/staff/athlete-coach'), 'CoachAthletePage') },
+          { path: '/coach/exercises', lazy: page(() => import('./routes/coach/exercises'), 'CoachExercisesPage') },
+          { path: '/coach/programs/:programId', lazy: page(() => import('./routes/coach/program'), 'CoachProgramPage') },
+          { path: '/coach/team-programs/:programId', lazy: page(() => import('./routes/coach/team-program'), 'CoachTeamProgramPage') },
+          {
+            path: '/coach/team-programs/:programId/sessions/:sessionId/athletes/:athleteId',
+            lazy: page(() => import('./routes/coach/team-program'), 'CoachTeamVersionPage'),
+          },
           {
             path: '/clinician',
-            element: <ClinicianLayout />,
+            lazy: page(() => import('./routes/clinician/clinician-layout'), 'ClinicianLayout'),
             children: [
-              { index: true, element: <ClinicianHome /> },
-              { path: 'athletes/:athleteId', element: <ClinicianAthletePage /> },
-              { path: 'cases/:caseId', element: <ClinicianCasePage /> },
-              { path: 'exceptions', element: <ClinicianExceptionsPage /> },
-              { path: 'audit', element: <ClinicianAuditPage /> },
-              { path: 'injury-report', element: <InjuryReportPage /> },
+              { index: true, lazy: page(() => import('./routes/clinician/caseload'), 'ClinicianHome') },
+              { path: 'athletes/:athleteId', lazy: page(() => import('./routes/staff/athlete-clinician'), 'ClinicianAthletePage') },
+              { path: 'cases/:caseId', lazy: page(() => import('./routes/clinician/case'), 'ClinicianCasePage') },
+              { path: 'exceptions', lazy: page(() => import('./routes/clinician/exceptions'), 'ClinicianExceptionsPage') },
+              { path: 'audit', lazy: page(() => import('./routes/clinician/audit'), 'ClinicianAuditPage') },
+              { path: 'injury-report', lazy: page(() => import('./routes/staff/injury-report'), 'InjuryReportPage') },
             ],
           },
-          { path: '/athlete', element: <AthleteHome /> },
-          { path: '/athlete/report', element: <ReportPainPage /> },
-          { path: '/athlete/check-in', element: <CheckInPage /> },
-          { path: '/athlete/log', element: <LogSessionPage /> },
-          { path: '/athlete/week', element: <MyWeekPage /> },
-          { path: '/athlete/clips', element: <MyClipsPage /> },
-          { path: '/athlete/clips/new', element: <NewClipPage /> },
-          { path: '/athlete/documents', element: <MyDocumentsPage /> },
+          { path: '/athlete', lazy: page(() => import('./routes/athlete'), 'AthleteHome') },
+          { path: '/athlete/report', lazy: page(() => import('./routes/athlete/report'), 'ReportPainPage') },
+          { path: '/athlete/check-in', lazy: page(() => import('./routes/athlete/check-in'), 'CheckInPage') },
+          { path: '/athlete/log', lazy: page(() => import('./routes/athlete/log'), 'LogSessionPage') },
+          { path: '/athlete/week', lazy: page(() => import('./routes/athlete/week'), 'MyWeekPage') },
+          { path: '/athlete/clips', lazy: page(() => import('./routes/athlete/clips'), 'MyClipsPage') },
+          { path: '/athlete/clips/new', lazy: page(() => import('./routes/athlete/clips'), 'NewClipPage') },
+          { path: '/athlete/documents', lazy: page(() => import('./routes/athlete/documents'), 'MyDocumentsPage') },
           // One clip page for everyone who may watch it; the server decides who that is.
-          { path: '/clips/:clipId', element: <ClipPage /> },
+          { path: '/clips/:clipId', lazy: page(() => import('./routes/clip'), 'ClipPage') },
           // One pain-report page for the athlete and their care team; the server decides the fields.
-          { path: '/pain-reports/:reportId', element: <PainReportPage /> },
-          { path: '/staff/athletes/:athleteId/workload', element: <StaffWorkloadPage /> },
-          { path: '/staff/flags', element: <StaffFlagsPage /> },
-          { path: '/notices', element: <NoticesPage /> },
-          { path: '/guardian', element: <GuardianHome /> },
-          { path: '/account', element: <AccountPage /> },
-          { path: '*', element: <NotFoundPage /> },
+          { path: '/pain-reports/:reportId', lazy: page(() => import('./routes/pain-report'), 'PainReportPage') },
+          { path: '/staff/athletes/:athleteId/workload', lazy: page(() => import('./routes/staff/workload'), 'StaffWorkloadPage') },
+          { path: '/staff/flags', lazy: page(() => import('./routes/staff/flags'), 'StaffFlagsPage') },
+          { path: '/notices', lazy: page(() => import('./routes/notices'), 'NoticesPage') },
+          { path: '/guardian', lazy: page(() => import('./routes/guardian'), 'GuardianHome') },
+          { path: '/account', lazy: page(() => import('./routes/account'), 'AccountPage') },
+          { path: '*', lazy: page(() => import('./routes/not-found'), 'NotFoundPage') },
         ],
       },
     ],

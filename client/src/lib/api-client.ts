@@ -114,6 +114,8 @@ export interface RequestOptions {
   body?: unknown;
   query?: Record<string, string | number | undefined | null>;
   signal?: AbortSignal;
+  /** Sent as `Idempotency-Key`: the server answers a repeat of the same request from its store (lib/offline-queue.ts). */
+  idempotencyKey?: string;
 }
 
 function withQuery(path: string, query: RequestOptions['query']): string {
@@ -131,6 +133,7 @@ export async function apiRequest<T>(method: HttpMethod, path: string, options: R
   if (method !== 'GET') {
     headers['Content-Type'] = 'application/json';
     if (csrfToken) headers['X-CSRF-Token'] = csrfToken;
+    if (options.idempotencyKey) headers['Idempotency-Key'] = options.idempotencyKey;
   }
   let response: Response;
   try {

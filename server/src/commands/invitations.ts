@@ -86,6 +86,22 @@ export const revokeInvitation = orgCommand({
 /** Creates the account, or checks an existing account's password (which must match). */
 async function accountFor(ctx: CommandCtx, inv: Invitation, input: InvitationAcceptInput): Promise<User> {
   const existing = await ctx.m.findOne(User, { where: { email: inv.email } });
+  if (existing && existing.passwordHash === '') {
+    // Made by a roster import (services/roster.ts) with no password: the invitation sets the first one.
+    assertAcceptablePassword(input.password);
+    existing.passwordHash = await hashPassword(input.password, ctx.deps.config.BCRYPT_COST);
+    existing.displayName = input.displayName;
+    const saved = await ctx.m.save(existing);
+    await ctx.audit({
+      organizationId: inv.organizationId,
+      actorUserId: saved.id,
+      action: 'user.password_set',
+      subjectType: 'User',
+      subjectId: saved.id,
+      after: { displayName: saved.displayName },
+    });
+    return saved;
+  }
   if (existing) {
     if (!(await bcrypt.compare(input.password, existing.passwordHash))) {
       throw new AppError(

@@ -1,8 +1,11 @@
 import type { OrganizationSettingsDto } from '../../../policies/dto';
-import type { OrganizationSettingsInput } from '../../../policies/schemas';
-import { Organization } from '../entities';
+import type { OrganizationCreateInput, OrganizationSettingsInput } from '../../../policies/schemas';
+import { Invitation, Organization } from '../entities';
 import { authorize } from '../core/authorize';
-import { orgCommand } from '../core/command';
+import { orgCommand, publicCommand } from '../core/command';
+import { publicBaseUrl } from '../core/public-url';
+import { newInvitationToken } from '../services/invitations';
+import { startOrganization } from '../services/organizations';
 import { updateVersioned } from '../services/versioned';
 import { loadOrganization, toSettingsDto } from '../queries/organizations';
 
@@ -34,5 +37,48 @@ export const updateOrganizationSettings = orgCommand({
       after: { ...before, ...changes },
     });
     return toSettingsDto((await loadOrganization(ctx.m, org.id))!);
+  },
+});
+
+/**
+ * An operator creates an organization from the command line (`npm run org:create`) and invites its
+ * first admin: the answer holds the one-time invitation link to hand over. The organization's chain
+ * starts with `organization.created` (by no signed-in person, `via: 'operator'`), then the
+ * invitation, as any admin's invitation is recorded. The link works once, for INVITATION_TTL_HOURS.
+ */
+export const createOrganizationByOperator = publicCommand({
+  name: 'createOrganizationByOperator',
+  async run(ctx, input: OrganizationCreateInput): Promise<{ organizationId: string; name: string; link: string; expiresAt: Date }> {
+    const org = await startOrganization(
+      ctx.m,
+      ctx.audit,
+      { name: input.name, country: input.country ?? null, timeZone: input.timeZone },
+      { via: 'operator', actorUserId: null },
+    );
+    const { token, tokenHash } = newInvitationToken();
+    const expiresAt = new Date(ctx.now.getTime() + ctx.deps.config.INVITATION_TTL_HOURS * 3_600_000);
+    const invitation = await ctx.m.save(
+      ctx.m.create(Invitation, {
+        organizationId: org.id,
+        email: input.adminEmail,
+        roles: ['admin'],
+        displayName: input.adminName ?? null,
+        dateOfBirth: null,
+        sport: null,
+        tokenHash,
+        expiresAt,
+        invitedBy: null,
+      }),
+    );
+    await ctx.audit({
+      organizationId: org.id,
+      actorUserId: null,
+      action: 'invitation.created',
+      subjectType: 'Invitation',
+      subjectId: invitation.id,
+      after: { email: invitation.email, roles: invitation.roles, expiresAt, via: 'operator' },
+    });
+    // The token rides in the fragment, which browsers never send to a server or in a Referer.
+    return { organizationId: org.id, name: org.name, link: `${publicBaseUrl(ctx.deps.config)}/invite#${token}`, expiresAt };
   },
 });

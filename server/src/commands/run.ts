@@ -70,12 +70,15 @@ function checkReported(cmd: Command<any, any, any>, tracker: Tracker) {
 
 /** Runs an organization command in a transaction of its own: the change, its audit entries and its holds commit together. */
 export async function runOrgCommand<I, O>(cmd: Command<I, O, OrgCommandCtx>, caller: OrgCaller, input: I): Promise<O> {
-  return caller.deps.ds.transaction(async (m) => {
+  const result = await caller.deps.ds.transaction(async (m) => {
     const tracker: Tracker = { reported: false };
     const out = await cmd.run(orgCtx(m, caller, tracker), input);
     checkReported(cmd, tracker);
     return out;
   });
+  // A changed role, care team or ended session applies to this server's very next request.
+  await caller.deps.actorChanges?.settle();
+  return result;
 }
 
 /**
@@ -97,12 +100,15 @@ export async function runPublicCommand<I, O>(
   input: I,
   organizationId: string | null = null,
 ): Promise<O> {
-  return caller.deps.ds.transaction(async (m) => {
+  const result = await caller.deps.ds.transaction(async (m) => {
     const tracker: Tracker = { reported: false };
     const out = await cmd.run(baseCtx(m, caller, organizationId, null, tracker), input);
     checkReported(cmd, tracker);
     return out;
   });
+  // A password reset's ended sessions are gone from this server's cache before it answers.
+  await caller.deps.actorChanges?.settle();
+  return result;
 }
 
 /**

@@ -34,6 +34,8 @@ const NOT_FOUND_WORDS: Record<SubjectName, string> = {
   PlanTemplate: 'plan template',
   InjuryReport: 'injury report',
   RecordExport: 'record download',
+  CalendarFeed: 'calendar feed',
+  CaseExport: 'case',
 };
 
 /**
@@ -90,6 +92,8 @@ const SUBJECT_WORDS: Record<SubjectName, string> = {
   PlanTemplate: 'plan templates',
   InjuryReport: 'the injury report',
   RecordExport: 'downloads of a whole record',
+  CalendarFeed: 'calendar feeds',
+  CaseExport: 'health-record exports of cases',
 };
 
 export function refusalMessage(action: Action, subject: SubjectName): string {

@@ -16,6 +16,11 @@ export interface CoreDeps {
   jobs: JobQueue | null;
   /** Where uploaded files live (local disk or the S3 API). */
   storage: ObjectStorage;
+  /**
+   * The server's cache of signed-in actors (http/actor-cache.ts): after a write commits, `settle` waits
+   * until the cache has heard of every change committed so far. Absent outside a running app.
+   */
+  actorChanges?: { settle(): Promise<void> };
 }
 
 /**

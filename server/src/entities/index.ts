@@ -33,6 +33,9 @@ import { Group, GroupMember } from './group.entity';
 import { PlanTemplate } from './plan-template.entity';
 import { StageCriterionReading, StageDecision } from './stage-criteria.entity';
 import { RecordExport } from './record-export.entity';
+import { RosterImport } from './roster-import.entity';
+import { OrganizationSignup } from './organization-signup.entity';
+import { CalendarFeed } from './calendar-feed.entity';
 
 export {
   Organization,
@@ -68,6 +71,9 @@ export { Group, GroupMember };
 export { PlanTemplate };
 export { StageCriterionReading, StageDecision };
 export { RecordExport };
+export { RosterImport };
+export { OrganizationSignup };
+export { CalendarFeed };
 
 export const ENTITIES = [
   Organization,
@@ -108,4 +114,7 @@ export const ENTITIES = [
   StageCriterionReading,
   StageDecision,
   RecordExport,
+  RosterImport,
+  OrganizationSignup,
+  CalendarFeed,
 ];

@@ -25,6 +25,10 @@ export class Organization {
   @Column('varchar', { name: 'letter_paper', length: 6, nullable: true })
   letterPaper: LetterPaper | null;
 
+  /** ISO 3166-1 alpha-2 (policies/countries.ts); null for organizations made before it was asked. */
+  @Column('varchar', { length: 2, nullable: true })
+  country: string | null;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 

@@ -7,6 +7,7 @@ import { loadActor } from '../services/actor';
 import { AppError, fromZod } from '../core/errors';
 import { refusalMessage } from '../core/authorize';
 import { loadedActor } from './security';
+import { idempotencyKeyOf, runIdempotent } from './idempotency';
 import { type AnyCommand, type BaseCtx, type Deps, type OrgCtx } from './context';
 import { runOrgCommand, runOrgQuery, runPublicCommand, runPublicQuery } from '../commands/run';
 
@@ -223,7 +224,20 @@ export function mountRoutes(router: Router, deps: Deps, defs: RouteDef[]): void 
         body,
         ...orgCtx,
       };
-      const result = await (def.handler as (c: typeof ctx) => Promise<unknown>)(ctx);
+      const handle = () => (def.handler as (c: typeof ctx) => Promise<unknown>)(ctx);
+      // An organization's write may carry an Idempotency-Key (the offline queue sends one): a replay
+      // gets the first answer and writes nothing (http/idempotency.ts). Uploads stream their body, so
+      // they have no fingerprint to compare and are left out.
+      const key = orgCtx && def.method !== 'get' && !def.multipart ? idempotencyKeyOf(req) : null;
+      if (key) {
+        const scope = { ds: deps.ds, organizationId: orgCtx!.actor.organizationId, userId: user!.id };
+        await runIdempotent(scope, key, req, res, async () => {
+          const result = await handle();
+          return result === undefined ? { status: def.status ?? 204, body: undefined } : { status: def.status ?? 200, body: result };
+        });
+        return;
+      }
+      const result = await handle();
       if (res.headersSent) return;
       if (result === undefined) res.status(def.status ?? 204).end();
       else res.status(def.status ?? 200).json(result);

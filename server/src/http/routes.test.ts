@@ -62,6 +62,9 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/invitations  ⇒  member: read Invitation",
         "POST   /api/orgs/:orgId/invitations  ⇒  member: create Invitation",
         "DELETE /api/orgs/:orgId/invitations/:id  ⇒  member: delete Invitation",
+        "GET    /api/org-signup  ⇒  public",
+        "POST   /api/org-signup  ⇒  public",
+        "POST   /api/org-signup/confirm  ⇒  public",
         "GET    /api/orgs/:orgId  ⇒  member: read Organization",
         "GET    /api/orgs/:orgId/settings  ⇒  member: update Organization",
         "PATCH  /api/orgs/:orgId/settings  ⇒  member: update Organization",
@@ -168,6 +171,10 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/roster  ⇒  member: read Athlete",
         "GET    /api/orgs/:orgId/athletes/:id/today  ⇒  member: read Program",
         "GET    /api/orgs/:orgId/athletes/:id/week  ⇒  member: read Program",
+        "GET    /api/orgs/:orgId/roster-imports/template.csv  ⇒  member: create Invitation",
+        "POST   /api/orgs/:orgId/roster-imports  ⇒  member: create Invitation",
+        "GET    /api/orgs/:orgId/roster-imports/:id  ⇒  member: create Invitation",
+        "POST   /api/orgs/:orgId/roster-imports/:id/start  ⇒  member: create Invitation",
         "GET    /api/orgs/:orgId/letters  ⇒  member: read Letter",
         "GET    /api/orgs/:orgId/letters/prefill  ⇒  member: create Letter",
         "POST   /api/orgs/:orgId/letters  ⇒  member: create Letter",
@@ -194,6 +201,10 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/record-exports  ⇒  member: create RecordExport",
         "POST   /api/orgs/:orgId/record-exports/link  ⇒  member: read RecordExport",
         "POST   /api/orgs/:orgId/record-exports/download  ⇒  member: read RecordExport",
+        "GET    /api/orgs/:orgId/calendar-feed  ⇒  member: read CalendarFeed",
+        "POST   /api/orgs/:orgId/calendar-feed  ⇒  member: create CalendarFeed",
+        "DELETE /api/orgs/:orgId/calendar-feed  ⇒  member: delete CalendarFeed",
+        "GET    /api/calendar/:token.ics  ⇒  public",
       ]
     `);
   });

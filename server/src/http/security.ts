@@ -8,6 +8,7 @@ import { User } from '../entities';
 import { actorsFromJson, actorsJsonSql, type ActorRow, type ActorWithOrg } from '../services/actor';
 import { AppError } from '../core/errors';
 import { attachCsrfKey, csrfKeyFor } from './csrf';
+import type { ActorCache } from './actor-cache';
 
 declare module 'express-session' {
   interface SessionData {
@@ -47,7 +48,10 @@ function sessionReadSql(deps: Deps): string {
     .columns.map((c, i) => `u."${c.databaseName}" AS u${i}`)
     .join(', ');
   const userId = `s.sess -> 'passport' ->> 'user'`;
-  return `SELECT s.sess, u.id AS user_id, ${columns}, CASE WHEN u.id IS NULL THEN NULL ELSE ${actorsJsonSql('u.id')} END AS actors
+  // The session and the actors as text: a cached row is parsed afresh for each request, so no request
+  // shares (and could change) another's objects. The expiry bounds how long the row may be cached.
+  return `SELECT s.sess::text AS sess, (extract(epoch FROM s.expire::timestamptz) * 1000)::float8 AS expire_ms, u.id AS user_id, ${columns},
+      (CASE WHEN u.id IS NULL THEN NULL ELSE ${actorsJsonSql('u.id')} END)::text AS actors
     FROM "session" s
     LEFT JOIN users u ON u.id = CASE WHEN ${userId} ~ '^[0-9a-fA-F]{8}-[0-9a-fA-F]{4}-[0-9a-fA-F]{4}-[0-9a-fA-F]{4}-[0-9a-fA-F]{12}$' THEN (${userId})::uuid END
     WHERE s.sid = $1 AND s.expire >= to_timestamp($2)`;
@@ -60,7 +64,7 @@ function toUser(deps: Deps, row: Record<string, unknown>): User {
   return user;
 }
 
-export function buildSession(deps: Deps): { middleware: RequestHandler; close: () => Promise<void> } {
+export function buildSession(deps: Deps, cache: ActorCache): { middleware: RequestHandler; close: () => Promise<void> } {
   const { config } = deps;
   const PgStore = connectPgSimple(session);
   // A small pool of its own, so session reads never queue behind long queries; errors are logged,
@@ -78,33 +82,60 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
     errorLog: (err: unknown) => deps.logger.warn({ err }, 'session store error'),
   });
   // The session row, its signed-in user and that user's memberships (the actor of each organization)
-  // in one query: a signed-in request then costs one round trip before its handler instead of three.
-  // All three are still read afresh on every request, so sign-out, a password reset that deletes
-  // sessions, a deactivated membership or a changed role or care team applies on the very next one.
+  // in one query, kept for a few seconds in the actor cache (http/actor-cache.ts), which every server
+  // empties of what changed when PostgreSQL notifies it: a signed-in request usually costs no round
+  // trip before its handler, and sign-out, a password reset that deletes sessions, a deactivated
+  // membership or a changed role or care team still applies on the next request, on every server.
   let readSql: string | null = null;
+  const fromRow = (sid: string, row: Record<string, unknown>, cb: (err: unknown, session?: session.SessionData | null) => void) => {
+    let sess: session.SessionData & { passport?: { user?: unknown } };
+    try {
+      sess = typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess;
+    } catch {
+      return store.destroy(sid, (err) => cb(err, null));
+    }
+    const userId = sess.passport?.user;
+    if (typeof userId === 'string') {
+      const user = row.user_id === null ? null : toUser(deps, row);
+      const actorRows = (typeof row.actors === 'string' ? JSON.parse(row.actors) : row.actors) as ActorRow[];
+      const actors = user ? actorsFromJson(user.id, actorRows) : [];
+      // A symbol key: never serialised, so it is never written back into the session row.
+      Object.defineProperty(sess.passport, LOADED, { value: { userId, user, actors } satisfies Loaded, enumerable: false });
+    }
+    cb(null, sess);
+  };
   store.get = (sid: string, cb: (err: unknown, session?: session.SessionData | null) => void) => {
+    const cached = cache.get(sid);
+    if (cached) return fromRow(sid, cached.row, cb);
     readSql ??= sessionReadSql(deps);
+    const token = cache.begin();
     // A named (prepared) statement: planning this query cost more than running it.
     pool.query({ name: 'loadline-session-read', text: readSql, values: [sid, Math.ceil(Date.now() / 1000)] }).then(
       ({ rows: [row] }) => {
         if (!row) return cb(null, null);
-        let sess: session.SessionData & { passport?: { user?: unknown } };
-        try {
-          sess = typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess;
-        } catch {
-          return store.destroy(sid, (err) => cb(err, null));
-        }
-        const userId = sess.passport?.user;
-        if (typeof userId === 'string') {
-          const user = row.user_id === null ? null : toUser(deps, row);
-          const actors = user ? actorsFromJson(user.id, row.actors as ActorRow[]) : [];
-          // A symbol key: never serialised, so it is never written back into the session row.
-          Object.defineProperty(sess.passport, LOADED, { value: { userId, user, actors } satisfies Loaded, enumerable: false });
-        }
-        cb(null, sess);
+        cache.put(sid, token, { row, expiresAt: Number(row.expire_ms) }, (row.user_id as string | null) ?? null);
+        fromRow(sid, row, cb);
       },
       (err: unknown) => cb(err),
     );
+  };
+  // A session this process changes or ends leaves the cache at once (other servers hear it by NOTIFY).
+  const set = store.set.bind(store);
+  store.set = (sid: string, sess: session.SessionData, cb?: (err?: unknown) => void) => {
+    cache.forget(sid);
+    set(sid, sess, (err?: unknown) => {
+      cache.forget(sid);
+      cb?.(err);
+    });
+  };
+  const destroy = store.destroy.bind(store);
+  store.destroy = (sid: string, cb?: (err?: unknown) => void) => {
+    cache.forget(sid);
+    destroy(sid, (err?: unknown) => {
+      cache.forget(sid);
+      // A sign-out answers once this server has heard the deletion's notice (the others hear it with it).
+      void cache.settle().then(() => cb?.(err));
+    });
   };
   // Rolling sessions would write the row's expiry on every request. Touch each session at most once a
   // minute instead: the stored expiry then lags by under a minute, so the server-side idle timeout
@@ -116,7 +147,10 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
     if (now - (lastTouch.get(sid) ?? 0) < touchEveryMs) return cb?.();
     if (lastTouch.size > 50_000) lastTouch.clear();
     lastTouch.set(sid, now);
-    touch(sid, sess, cb);
+    touch(sid, sess, (err?: unknown) => {
+      if (!err && sess.cookie?.expires) cache.extend(sid, new Date(sess.cookie.expires).getTime());
+      cb?.(err);
+    });
   };
   const sessions = session({
     name: SESSION_COOKIE,
@@ -144,6 +178,7 @@ export function buildSession(deps: Deps): { middleware: RequestHandler; close: (
   // The store's prune timer stops before its pool ends, so shutdown leaves nothing running.
   const close = async () => {
     store.close();
+    await cache.close();
     await pool.end();
   };
   return { middleware, close };

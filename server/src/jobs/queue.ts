@@ -7,11 +7,15 @@ export const EMAIL_QUEUE = 'email';
 export const AUDIT_SEAL_QUEUE = 'audit-seal';
 /** A person's whole record as a ZIP (services/record-export.ts): one job per request. */
 export const RECORD_EXPORT_QUEUE = 'record-export';
+/** Roster imports (services/roster-import-job.ts): one job per uploaded file, worked in batches. */
+export const ROSTER_QUEUE = 'roster-import';
 
 const QUEUES = [
   { name: EMAIL_QUEUE, retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
   { name: AUDIT_SEAL_QUEUE, retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 },
   { name: RECORD_EXPORT_QUEUE, retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 15 * 60 },
+  // A large file takes minutes on a busy server; a retried job resumes where the last batch ended.
+  { name: ROSTER_QUEUE, retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 * 60 },
 ];
 
 export interface EmailJob {
@@ -20,6 +24,10 @@ export interface EmailJob {
 
 export interface RecordExportJob {
   exportId: string;
+}
+
+export interface RosterJob {
+  importId: string;
 }
 
 /**
@@ -107,6 +115,23 @@ export class JobQueue {
         for (const job of jobs) await handler(job.data, job.retryCount >= job.retryLimit);
       },
     );
+  }
+
+  /** One job per roster import (its id is the singleton key), in the caller's transaction. */
+  async sendRosterImport(m: EntityManager, importId: string): Promise<void> {
+    await this.boss.send(ROSTER_QUEUE, { importId } satisfies RosterJob, {
+      singletonKey: importId,
+      retryLimit: 3,
+      retryDelay: 10,
+      retryBackoff: true,
+      db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await m.query(text, values as unknown[]) }) },
+    });
+  }
+
+  async workRosterImports(handler: (job: RosterJob) => Promise<void>): Promise<void> {
+    await this.boss.work<RosterJob>(ROSTER_QUEUE, { pollingIntervalSeconds: 1 }, async (jobs) => {
+      for (const job of jobs) await handler(job.data);
+    });
   }
 
   async work(handler: (job: EmailJob) => Promise<void>): Promise<void> {

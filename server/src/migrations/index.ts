@@ -17,6 +17,11 @@ import { CreateGroupsAndTeamPrograms1765900000000 } from './1765900000000-create
 import { CreateStageCriteria1766000000000 } from './1766000000000-create-stage-criteria';
 import { CreatePlanTemplates1766100000000 } from './1766100000000-create-plan-templates';
 import { CreateTeamSessionHours1766200000000 } from './1766200000000-create-team-session-hours';
+import { CreateIdempotencyKeys1766500000000 } from './1766500000000-create-idempotency-keys';
+import { AddActorCacheNotices1766600000000 } from './1766600000000-add-actor-cache-notices';
+import { CreateOrganizationSignups1766700000000 } from './1766700000000-create-organization-signups';
+import { CreateRosterImports1766800000000 } from './1766800000000-create-roster-imports';
+import { CreateCalendarFeeds1766900000000 } from './1766900000000-create-calendar-feeds';
 import { CreateRecordExports1767000000000 } from './1767000000000-create-record-exports';
 
 /** Listed explicitly: glob loading of .ts migrations fails under vitest. Append new ones in order. */
@@ -40,5 +45,10 @@ export const MIGRATIONS = [
   CreateStageCriteria1766000000000,
   CreatePlanTemplates1766100000000,
   CreateTeamSessionHours1766200000000,
+  CreateIdempotencyKeys1766500000000,
+  AddActorCacheNotices1766600000000,
+  CreateOrganizationSignups1766700000000,
+  CreateRosterImports1766800000000,
+  CreateCalendarFeeds1766900000000,
   CreateRecordExports1767000000000,
 ];

@@ -28,6 +28,7 @@ export async function teamProgramDto(m: EntityManager, program: Program, group: 
     groupId: group.id,
     groupName: group.name,
     sessions: sessions.length,
+    archived: group.archived,
     version: program.version,
     athletes: athletes.map((id) => ({ id, name: names.get(id) ?? 'Unknown athlete' })),
     teamSessions: await sessionDtos(m, sessions, program.name),
@@ -88,32 +89,32 @@ export const listTeamPrograms = orgQuery({
   async run(ctx, input: { groupId?: string }): Promise<TeamProgramSummaryDto[]> {
     const { actor } = ctx;
     // The rule of services/team-access.ts in SQL: admins; the group's coaches; clinicians of any of its athletes.
-    const rows: { id: string; name: string; group_id: string; group_name: string; sessions: string; version: number }[] = await managerOf(
-      ctx.db,
-    ).query(
-      `SELECT p.id, p.name, p.group_id, g.name AS group_name, p.version,
+    const rows: { id: string; name: string; group_id: string; group_name: string; archived: boolean; sessions: string; version: number }[] =
+      await managerOf(ctx.db).query(
+        `SELECT p.id, p.name, p.group_id, g.name AS group_name, g.archived, p.version,
               (SELECT count(*) FROM program_sessions s WHERE s.program_id = p.id) AS sessions
          FROM programs p JOIN groups g ON g.id = p.group_id AND g.organization_id = p.organization_id
         WHERE p.organization_id = $1 AND ($2::uuid IS NULL OR p.group_id = $2)
           AND ($3 OR EXISTS (SELECT 1 FROM group_members gm WHERE gm.group_id = g.id AND (
                 ($4 AND gm.role = 'coach' AND gm.member_id = $5) OR ($6 AND gm.role = 'athlete' AND gm.member_id = ANY($7::uuid[])))))
         ORDER BY g.name, p.created_at DESC`,
-      [
-        actor.organizationId,
-        input.groupId ?? null,
-        actor.roles.includes('admin'),
-        actor.roles.includes('coach'),
-        actor.membershipId,
-        actor.roles.includes('clinician'),
-        actor.clinicianOf,
-      ],
-    );
+        [
+          actor.organizationId,
+          input.groupId ?? null,
+          actor.roles.includes('admin'),
+          actor.roles.includes('coach'),
+          actor.membershipId,
+          actor.roles.includes('clinician'),
+          actor.clinicianOf,
+        ],
+      );
     return rows.map((r) => ({
       id: r.id,
       name: r.name,
       groupId: r.group_id,
       groupName: r.group_name,
       sessions: Number(r.sessions),
+      archived: r.archived,
       version: r.version,
     }));
   },
@@ -167,7 +168,14 @@ export const teamGrid = orgQuery({
       programId: program.id,
       programName: program.name,
       groupName: group.name,
-      sessions: sessions.map((s) => ({ id: s.id, date: s.date, title: s.title, status: s.status, version: s.version })),
+      sessions: sessions.map((s) => ({
+        id: s.id,
+        date: s.date,
+        title: s.title,
+        status: s.status,
+        version: s.version,
+        setCount: s.content.exercises.reduce((n, r) => n + r.sets.length, 0),
+      })),
       athletes: athletes.map((id, i) => ({ id, name: names.get(id) ?? 'Unknown athlete', statusToday: statusToday[i] })),
       cells,
     };

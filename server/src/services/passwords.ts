@@ -31,12 +31,14 @@ export function hashPassword(password: string, cost: number): Promise<string> {
 let dummyHash: Promise<string> | null = null;
 
 /**
- * Whether `password` matches `hash`. Without a hash (an unknown e-mail) the password is compared
+ * Whether `password` matches `hash`. Without a hash (an unknown e-mail, or an account with no password yet) the password is compared
  * against a dummy hash of the same cost, so both answers take the same time and the timing does not
  * tell which addresses have an account (ASVS 5.0 V6.3.8).
  */
 export async function passwordMatches(password: string, hash: string | null | undefined, cost: number): Promise<boolean> {
   dummyHash ??= bcrypt.hash(randomBytes(16).toString('hex'), cost);
-  const ok = await bcrypt.compare(password, hash ?? (await dummyHash));
+  // An empty hash is an account made by a roster import whose invitation is not yet accepted: it is
+  // compared like an unknown address, so it never matches and takes the same time.
+  const ok = await bcrypt.compare(password, hash || (await dummyHash));
   return ok && !!hash;
 }

@@ -22,6 +22,10 @@ export async function teamProgramFor(
   const group = program?.groupId ? await m.findOne(Group, { where: { id: program.groupId, organizationId: actor.organizationId } }) : null;
   if (!program || !group) throw new AppError('not_found', 'That team program was not found.');
   await authorizeGroupWork(m, actor, group, action, 'team program');
+  // An archived group is kept for the record and changes no more (commands/groups.ts): nor do its team
+  // programs. The versions already published stay in each athlete's own program.
+  if (action === 'update' && group.archived)
+    throw new AppError('conflict', 'That group is archived: its team programs are kept for the record and can no longer be changed.');
   return { program, group };
 }
 

@@ -8,6 +8,7 @@ import express, { type Express } from 'express';
 import type { DataSource } from 'typeorm';
 import pino from 'pino';
 import { buildApp } from '../app';
+import type { ActorCache } from '../http/actor-cache';
 import { loadConfig, type Config } from '../config';
 import { createDataSource } from '../data-source';
 import { startFakeSmtp, type FakeSmtp } from '../mail/fake-smtp';
@@ -25,6 +26,8 @@ export interface Harness {
   jobs?: JobQueue;
   /** This file's own upload folder (a temporary one), removed after the file's tests. */
   storageDir: string;
+  /** The app's actor cache (http/actor-cache.ts); off unless the file sets ACTOR_CACHE_SECONDS. */
+  actorCache: ActorCache;
 }
 
 /**
@@ -45,6 +48,10 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
       LOG_LEVEL: 'silent',
       STORAGE_DIR: h.storageDir,
       RATE_LIMIT_NAMESPACE: `test-${randomUUID()}`,
+      // Off by default: many files change memberships, care teams or sessions by plain SQL and expect
+      // the very next request to see it, which with the cache holds only once PostgreSQL has delivered
+      // the notice (commands wait for it; plain SQL does not). The cache's own tests turn it on.
+      ACTOR_CACHE_SECONDS: '0',
       ...(h.smtp ? { SMTP_URL: h.smtp.url, FAKE_MAIL: 'true' } : {}),
       ...overrides,
     });
@@ -57,6 +64,8 @@ export function useHarness(overrides: Record<string, string> = {}, opts: { mail?
       await h.jobs.work((job) => deliver(h.ds, transport, logger, job.deliveryId));
     }
     const built = buildApp({ ds: h.ds, config: h.config, logger, jobs: h.jobs ?? null });
+    await built.ready;
+    h.actorCache = built.actorCache;
     h.app = behindProxy(built.app, h.config.PUBLIC_URL);
     close = built.close;
   });

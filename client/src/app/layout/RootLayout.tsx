@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { Outlet } from 'react-router-dom';
+import { Outlet, useNavigation } from 'react-router-dom';
 import { useSession } from '../../features/auth/api/get-session';
 import { CareCaution } from '../../components/Cautions';
 import { Button } from '../../components/ui/Button';
@@ -9,12 +9,21 @@ import { Brand } from './Brand';
 
 /**
  * Every page: a skip link, the session loaded before anything else (it carries the CSRF token),
- * and the standing caution in the footer.
+ * and the standing caution in the footer. Offline, the session kept from the last visit
+ * (lib/offline-copy.ts) stands in until the server answers.
  */
 export function RootLayout() {
   const session = useSession();
+  const navigation = useNavigation();
   return (
     <div className="flex min-h-screen flex-col">
+      {/* The next screen's code is on its way; the current screen stays until it arrives. Present only
+          then, so it is never a second status beside a form's own. */}
+      {navigation.state === 'loading' && (
+        <p role="status" aria-live="polite" className="sr-only">
+          Loading…
+        </p>
+      )}
       <a
         href="#main"
         className="sr-only rounded bg-ink px-3 py-2 text-paper focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-10"
@@ -26,7 +35,7 @@ export function RootLayout() {
           <CenteredShell>
             <Loading what="Loadline" />
           </CenteredShell>
-        ) : session.isError ? (
+        ) : session.isError && !session.data ? (
           <CenteredShell>
             <ErrorNotice error={session.error} title="Loadline could not start" />
             <Button className="mt-3" variant="secondary" onClick={() => void session.refetch()}>
@@ -42,6 +51,19 @@ export function RootLayout() {
           <CareCaution />
         </div>
       </footer>
+    </div>
+  );
+}
+
+/** While the first screen's code loads: the same frame and words as while the session loads. */
+export function StartingUp() {
+  return (
+    <div className="flex min-h-screen flex-col">
+      <div className="flex-1">
+        <CenteredShell>
+          <Loading what="Loadline" />
+        </CenteredShell>
+      </div>
     </div>
   );
 }

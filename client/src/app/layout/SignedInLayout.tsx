@@ -5,6 +5,7 @@ import { defineAbilityFor } from '../../../../policies/access';
 import type { SessionDto, UserDto, MembershipSummaryDto } from '../../../../policies/dto';
 import { useSession } from '../../features/auth/api/get-session';
 import { useSignOut } from '../../features/auth/api/sign-out';
+import { useOutboxSync } from '../../features/offline/use-outbox-sync';
 import { setOrgTimeZone } from '../../lib/dates';
 import { MembershipContext } from '../../lib/membership-context';
 import { useActiveOrg } from '../active-org';
@@ -39,6 +40,7 @@ function Member({
   signOut: ReturnType<typeof useSignOut>;
 }) {
   const { membership, choose } = useActiveOrg(memberships);
+  useOutboxSync(user.id);
   // Set before the pages below render, so their "today" and their times count in this organization's zone.
   setOrgTimeZone(membership?.timeZone ?? null);
   const ability = useMemo(() => defineAbilityFor(membership?.actor ?? null), [membership]);

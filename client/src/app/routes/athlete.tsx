@@ -14,6 +14,9 @@ import { useCurrentMembership } from '../../lib/membership-context';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { RoleGate } from '../layout/RoleGate';
 import { AthleteActions } from './athlete/AthleteActions';
+import { LastUpdatedNote } from '../../features/offline/components/LastUpdatedNote';
+import { OutboxPanel } from '../../features/offline/components/OutboxPanel';
+import { useToday } from '../../features/programs/api/get-today';
 
 export function AthleteHome() {
   useDocumentTitle('My profile');
@@ -28,10 +31,15 @@ function AthleteProfile() {
   const { orgId, membership } = useCurrentMembership();
   const athlete = useAthlete(orgId, membership.id);
   const organization = useOrganization(orgId);
+  // The same cache entries the sections below read: only to tell whether they come from the last visit.
+  const today = useToday(orgId, membership.id, todayLocal());
+  const inForce = useInForce(orgId, membership.id, todayLocal());
 
   return (
     <div className="mx-auto max-w-xl space-y-5">
       <PageHeader title="My profile">What {membership.organizationName} has on record for you, and who looks after you.</PageHeader>
+      <LastUpdatedNote queries={[today, inForce, athlete]} />
+      <OutboxPanel />
       <AthleteActions orgId={orgId} athleteId={membership.id} />
       <TodaySessions athleteId={membership.id} />
       <MyToday athleteId={membership.id} />
@@ -41,7 +49,7 @@ function AthleteProfile() {
       <RedFlagCaution emergencyNumber={organization.data?.emergencyNumber} />
       {athlete.isPending ? (
         <Loading what="your profile" />
-      ) : athlete.isError ? (
+      ) : athlete.isError && !athlete.data ? (
         <ErrorNotice error={athlete.error} />
       ) : (
         <AthleteCard athlete={athlete.data} self />
@@ -55,7 +63,7 @@ function MyToday({ athleteId }: { athleteId: string }) {
   const { orgId, user } = useCurrentMembership();
   const inForce = useInForce(orgId, athleteId, todayLocal());
   if (inForce.isPending) return <Loading what="what you may do today" />;
-  if (inForce.isError) return isNoAccess(inForce.error) ? null : <ErrorNotice error={inForce.error} />;
+  if (inForce.isError && !inForce.data) return isNoAccess(inForce.error) ? null : <ErrorNotice error={inForce.error} />;
   return (
     <>
       <section aria-label="My status" className="rounded-lg border border-rule bg-sheet p-4 sm:p-5">

@@ -142,7 +142,7 @@ describe('groups in the browser', () => {
 
   it("lists the group's team programs as links and starts a new one, opening it", async () => {
     const programs: TeamProgramSummaryDto[] = [
-      { id: 'p-1', name: 'Preseason', groupId: GROUP_ID, groupName: 'Infield', sessions: 4, version: 1 },
+      { id: 'p-1', name: 'Preseason', groupId: GROUP_ID, groupName: 'Infield', sessions: 4, archived: false, version: 1 },
     ];
     const calls = api(['coach'], ['m-maya'], {
       [`GET /orgs/${ORG}/groups/${GROUP_ID}`]: () => jsonResponse(200, infield()),

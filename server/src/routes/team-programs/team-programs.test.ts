@@ -14,7 +14,7 @@ describe('team programs: fitting, the grid and publishing', () => {
     expect(p.athletes.map((a) => a.id).sort()).toEqual([...w.athletes].sort());
     const team = await w.addSession(p.id);
     const g = await w.grid(p.id);
-    expect(g.sessions).toEqual([{ id: team.id, date: MONDAY, title: 'Squad lift', status: 'draft', version: team.version }]);
+    expect(g.sessions).toEqual([{ id: team.id, date: MONDAY, title: 'Squad lift', status: 'draft', version: team.version, setCount: 10 }]);
     expect(g.cells).toHaveLength(8);
     expect(w.cell(g, w.plainAthlete.membershipId)).toMatchObject({ state: 'as_written', changes: 0, published: false });
     // 75 % of a 140 kg deadlift is 105 kg; the hinge cap of 60 % allows 84 kg, so 82.5 kg on 2.5 kg steps (never rounded up).
@@ -191,5 +191,27 @@ describe('team programs: fitting, the grid and publishing', () => {
     // Team routes are not the athlete's: not found, as for anything they may not see.
     expect((await athlete.get(`${w.base}/team-programs/${p.id}`)).status).toBe(404);
     expect((await athlete.get(`${w.base}/team-sessions/${team.id}/versions/${w.hinge}`)).status).toBe(404);
+  });
+
+  it('an archived group keeps its team program for the record: readable, changed no more (409)', async () => {
+    const w = await teamWorld(h);
+    const p = await w.createProgram();
+    const team = await w.addSession(p.id);
+    const coach = w.coach;
+    const group = (await coach.get(`${w.base}/groups/${w.group.id}`)).body as { version: number };
+    expect((await coach.post(`${w.base}/groups/${w.group.id}/archive`, { version: group.version })).status).toBe(200);
+    const kept = await coach.get(`${w.base}/team-programs/${p.id}`);
+    expect(kept.status).toBe(200);
+    expect(kept.body.archived).toBe(true);
+    expect(p.archived).toBe(false);
+    expect((await w.grid(p.id)).sessions.map((s) => s.id)).toEqual([team.id]);
+    const add = await coach.post(`${w.base}/team-programs/${p.id}/sessions`, {
+      date: MONDAY,
+      title: 'Late lift',
+      content: w.squadContent(),
+    });
+    expect(add.status, JSON.stringify(add.body)).toBe(409);
+    expect(add.body.error.message).toContain('archived');
+    expect((await w.publish(p.id, [team.id])).status).toBe(409);
   });
 });

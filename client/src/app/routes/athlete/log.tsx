@@ -6,6 +6,7 @@ import { useToday } from '../../../features/programs/api/get-today';
 import { setsFromPlan } from '../../../features/training-logs/components/from-plan';
 import { LogOutcome } from '../../../features/training-logs/components/LogOutcome';
 import { TrainingLogForm } from '../../../features/training-logs/components/TrainingLogForm';
+import { Button, ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { Loading, PageHeader } from '../../../components/ui/Panel';
 import { todayLocal } from '../../../lib/dates';
@@ -34,7 +35,16 @@ function LogSession() {
   const sessionId = params.get('session');
   const rawDate = params.get('date');
   const plannedDate = rawDate && ISO_DAY.test(rawDate) ? rawDate : todayLocal();
-  const [outcome, setOutcome] = useState<TrainingLogOutcomeDto | null>(null);
+  // 'kept': Loadline could not be reached and the log waits on the phone (lib/offline-queue.ts).
+  const [outcome, setOutcome] = useState<TrainingLogOutcomeDto | 'kept' | null>(null);
+  const another = () => {
+    setOutcome(null);
+    setRound((r) => r + 1);
+  };
+  const kept = () => {
+    setOutcome('kept');
+    window.scrollTo({ top: 0 });
+  };
   const [round, setRound] = useState(0);
 
   return (
@@ -45,16 +55,21 @@ function LogSession() {
       <PageHeader title="Log a session">
         What you did and how it felt. Your pain answers are checked against the ceiling your clinician set.
       </PageHeader>
-      {outcome ? (
-        <LogOutcome
-          outcome={outcome}
-          homeHref={ATHLETE_HOME}
-          weekHref={ATHLETE_WEEK}
-          onAnother={() => {
-            setOutcome(null);
-            setRound((r) => r + 1);
-          }}
-        />
+      {outcome === 'kept' ? (
+        <Notice tone="info" role="status" title="Saved on this phone">
+          <p>
+            Loadline can&apos;t be reached right now. Your session is sent as soon as it can be, in the order you logged it; your page shows
+            it until then.
+          </p>
+          <div className="mt-3 flex flex-wrap gap-2">
+            <ButtonLink to={ATHLETE_HOME}>Back to my page</ButtonLink>
+            <Button variant="secondary" onClick={another}>
+              Log another session
+            </Button>
+          </div>
+        </Notice>
+      ) : outcome ? (
+        <LogOutcome outcome={outcome} homeHref={ATHLETE_HOME} weekHref={ATHLETE_WEEK} onAnother={another} />
       ) : sessionId && round === 0 ? (
         <FromPlan
           orgId={orgId}
@@ -64,6 +79,7 @@ function LogSession() {
           unit={user.unitPref}
           painCeiling={inForce.data?.stages.length ? inForce.data.painCeiling : undefined}
           onSaved={setOutcome}
+          onKept={kept}
         />
       ) : (
         <TrainingLogForm
@@ -76,6 +92,7 @@ function LogSession() {
             setOutcome(saved);
             window.scrollTo({ top: 0 });
           }}
+          onKept={kept}
         />
       )}
     </div>
@@ -91,6 +108,7 @@ function FromPlan({
   unit,
   painCeiling,
   onSaved,
+  onKept,
 }: {
   orgId: string;
   athleteId: string;
@@ -99,6 +117,7 @@ function FromPlan({
   unit: 'kg' | 'lb';
   painCeiling: number | undefined;
   onSaved: (outcome: TrainingLogOutcomeDto) => void;
+  onKept: () => void;
 }) {
   const day = useToday(orgId, athleteId, date);
   if (day.isPending) return <Loading what="the planned session" />;
@@ -130,6 +149,7 @@ function FromPlan({
           onSaved(saved);
           window.scrollTo({ top: 0 });
         }}
+        onKept={onKept}
       />
     </>
   );

@@ -58,6 +58,7 @@ function ReportPain() {
         emergencyNumber={number}
         homeHref={ATHLETE_HOME}
         onOutcome={() => setSent(true)}
+        onKept={() => setSent(true)}
       />
     </div>
   );

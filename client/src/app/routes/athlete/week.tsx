@@ -2,6 +2,9 @@ import { Link } from 'react-router-dom';
 import { BODY_REGION_LABELS } from '../../../../../policies/body-regions';
 import { useCheckIns } from '../../../features/check-ins/api/get-check-ins';
 import { ComingWeek } from '../../../features/programs/components/ComingWeek';
+import { useWeek } from '../../../features/programs/api/get-week';
+import { LastUpdatedNote } from '../../../features/offline/components/LastUpdatedNote';
+import { OutboxPanel } from '../../../features/offline/components/OutboxPanel';
 import { CheckInList } from '../../../features/check-ins/components/CheckInList';
 import { usePainReports } from '../../../features/pain-reports/api/get-pain-reports';
 import { useTrainingLogs } from '../../../features/training-logs/api/get-training-logs';
@@ -40,6 +43,7 @@ function MyWeek() {
   const checkIns = useCheckIns(orgId, membership.id, range);
   const workload = useWorkload(orgId, membership.id, today, CHART_DAYS);
   const reports = usePainReports(orgId, membership.id);
+  const week = useWeek(orgId, membership.id, today);
   const recentReports = (reports.data ?? []).filter((r) => orgDayOf(r.reportedAt) >= range.from);
 
   return (
@@ -51,6 +55,8 @@ function MyWeek() {
         The coming seven days, then your last two weeks: sessions, how the pain responded, and your check-ins. Your coach and clinician see
         the same numbers.
       </PageHeader>
+      <LastUpdatedNote queries={[week, logs, checkIns, workload, reports]} />
+      <OutboxPanel />
       <div className="flex flex-col gap-2 sm:flex-row">
         <ButtonLink to={ATHLETE_LOG} variant="primary" size="lg">
           Log a session
@@ -73,7 +79,7 @@ function MyWeek() {
 
       {workload.isPending ? (
         <Loading what="your charts" />
-      ) : workload.isError ? (
+      ) : workload.isError && !workload.data ? (
         <ErrorNotice error={workload.error} title="Charts not available" />
       ) : (
         <PainLoadChart pain={workload.data.pain.filter((p) => p.date >= range.from)} />
@@ -83,7 +89,7 @@ function MyWeek() {
         <p className="mb-3 text-sm text-ink-2">Each bar is the pain during a session; the orange mark is the ceiling your clinician set.</p>
         {logs.isPending ? (
           <Loading what="your sessions" />
-        ) : logs.isError ? (
+        ) : logs.isError && !logs.data ? (
           <ErrorNotice error={logs.error} />
         ) : (
           <LogList
@@ -106,7 +112,7 @@ function MyWeek() {
       <Panel title="Check-ins">
         {checkIns.isPending ? (
           <Loading what="your check-ins" />
-        ) : checkIns.isError ? (
+        ) : checkIns.isError && !checkIns.data ? (
           <ErrorNotice error={checkIns.error} />
         ) : (
           <CheckInList checkIns={checkIns.data} empty="No check-ins in the last two weeks." />
@@ -116,7 +122,7 @@ function MyWeek() {
       <Panel title="Pain reports">
         {reports.isPending ? (
           <Loading what="your reports" />
-        ) : reports.isError ? (
+        ) : reports.isError && !reports.data ? (
           <ErrorNotice error={reports.error} />
         ) : recentReports.length === 0 ? (
           <p className="text-sm text-ink-2">No pain reports in the last two weeks.</p>

@@ -6,6 +6,7 @@ import { CurrentLetter } from '../../../features/letters/components/CurrentLette
 import { usePlans } from '../../../features/plans/api/get-plan';
 import { InForceSummary } from '../../../features/plans/components/InForceSummary';
 import { PlanStagesView } from '../../../features/plans/components/PlanStagesView';
+import { StageCriteriaPanel } from '../../../features/stage-criteria/components/StageCriteriaPanel';
 import { AthletePrograms } from '../../../features/programs/components/AthletePrograms';
 import { BaselinesPanel } from '../../../features/programs/components/BaselinesPanel';
 import { ClipsSection } from '../../../features/clips/components/ClipsSection';
@@ -97,6 +98,20 @@ function CoachSections({ row }: { row: CaseloadRowDto }) {
       <Panel title="Clearance letter">
         <CurrentLetter orgId={orgId} athleteId={row.athleteId} audience="coach" />
       </Panel>
+
+      {planIds.length > 0 && (
+        <Panel title="What unlocks the next stage">
+          <p className="mb-3 text-sm text-muted">
+            Read only: the clinician records the checks and moves the stage on with the athlete (and family). Tell them what you see in
+            training.
+          </p>
+          <div className="space-y-3">
+            {planIds.map((id) => (
+              <StageCriteriaPanel key={id} orgId={orgId} planId={id} />
+            ))}
+          </div>
+        </Panel>
+      )}
 
       <Panel title="Upcoming stages">
         {cases.isPending || plans.some((p) => p.isPending) ? (

@@ -123,11 +123,16 @@ export function CheckInForm({
         error={errors.painNow?.message}
       />
       <ErrorNotice error={save.error} title="Check-in not saved" />
-      {save.isSuccess && (
-        <Notice tone="done" role="status" title={`Checked in for ${formatDate(save.data.date)}. Thank you.`}>
-          <p>Your care team sees it. If pain is new or worse, report it too.</p>
-        </Notice>
-      )}
+      {save.isSuccess &&
+        ('sent' in save.data ? (
+          <Notice tone="done" role="status" title={`Checked in for ${formatDate(save.data.sent.date)}. Thank you.`}>
+            <p>Your care team sees it. If pain is new or worse, report it too.</p>
+          </Notice>
+        ) : (
+          <Notice tone="info" role="status" title="Saved on this phone">
+            <p>Loadline can&apos;t be reached right now. Your check-in is sent as soon as it can be; your page shows it until then.</p>
+          </Notice>
+        ))}
       <Button type="submit" size="lg" busy={save.isPending}>
         Save check-in
       </Button>

@@ -1,21 +1,19 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { PainReportOutcomeDto } from '../../../../../policies/dto';
 import type { PainReportCreateInput } from '../../../../../policies/schemas';
-import { api } from '../../../lib/api-client';
+import { sendOrKeep, useSignedInUserId } from '../../../lib/offline-queue';
 import { queryKeys } from '../../../lib/query-keys';
-
-export function createPainReport(orgId: string, input: PainReportCreateInput): Promise<PainReportOutcomeDto> {
-  return api.post<PainReportOutcomeDto>(`/orgs/${orgId}/pain-reports`, input);
-}
 
 /**
  * A report can set the athlete Out, open flags and send notices, so everything those touch is
- * refreshed afterwards.
+ * refreshed afterwards. Without signal it is kept on the phone and sent later (lib/offline-queue.ts).
  */
 export function useCreatePainReport(orgId: string) {
   const queryClient = useQueryClient();
+  const userId = useSignedInUserId();
   return useMutation({
-    mutationFn: (input: PainReportCreateInput) => createPainReport(orgId, input),
+    mutationFn: (input: PainReportCreateInput) =>
+      sendOrKeep<PainReportOutcomeDto>(userId, { orgId, kind: 'pain_report', path: `/orgs/${orgId}/pain-reports`, body: input }),
     onSuccess: () => {
       for (const queryKey of [
         queryKeys.painReportsAll(orgId),

@@ -17,7 +17,7 @@ import { ErrorNotice } from '../../../components/ui/Notice';
 import { ScoreField } from '../../../components/ui/ScoreScale';
 import { useCreatePainReport } from '../api/create-pain-report';
 import { BodyMap } from './BodyMap';
-import { EmergencyScreen, ReportOutcome } from './ReportOutcome';
+import { EmergencyScreen, KeptOutcome, ReportOutcome } from './ReportOutcome';
 import { PAIN_HIGH, PAIN_LOW, PATTERN_EXAMPLES } from './report-words';
 import { YesNo } from './YesNo';
 
@@ -55,6 +55,7 @@ export function PainReportForm({
   emergencyNumber,
   homeHref,
   onOutcome,
+  onKept,
 }: {
   orgId: string;
   athleteId: string;
@@ -62,6 +63,8 @@ export function PainReportForm({
   emergencyNumber: string | null | undefined;
   homeHref: string;
   onOutcome?: (outcome: PainReportOutcomeDto) => void;
+  /** Loadline could not be reached: the report is kept on the phone and sent later (lib/offline-queue.ts). */
+  onKept?: () => void;
 }) {
   const create = useCreatePainReport(orgId);
   const [step, setStep] = useState<1 | 2>(1);
@@ -69,6 +72,9 @@ export function PainReportForm({
   const [triedToSend, setTriedToSend] = useState(false);
   const [detailsIncomplete, setDetailsIncomplete] = useState(false);
   const [emergencyUnsent, setEmergencyUnsent] = useState<{ error: unknown; values: Output } | null>(null);
+  // Emergency answers show the stop-and-get-care screen at once, before (and without) the server's answer.
+  const [emergencyFirst, setEmergencyFirst] = useState<'sending' | 'kept' | null>(null);
+  const [kept, setKept] = useState<{ urgent: boolean } | null>(null);
   const stepHeading = useRef<HTMLHeadingElement>(null);
   const questionRefs = useRef(new Map<string, HTMLDivElement>());
   const today = todayLocal();
@@ -100,15 +106,25 @@ export function PainReportForm({
   }
 
   function send(values: Output) {
+    const route = routeReport(values.redFlags);
+    if (route === 'emergency') setEmergencyFirst('sending');
     create.mutate(values, {
       onSuccess: (result) => {
         setEmergencyUnsent(null);
-        setOutcome(result);
-        onOutcome?.(result);
+        if ('kept' in result) {
+          if (route === 'emergency') setEmergencyFirst('kept');
+          else setKept({ urgent: route === 'urgent' });
+          onKept?.();
+          return;
+        }
+        setEmergencyFirst(null);
+        setOutcome(result.sent);
+        onOutcome?.(result.sent);
       },
       onError: (error) => {
+        setEmergencyFirst(null);
         // The advice for emergency answers must not depend on the network: show it anyway.
-        if (routeReport(values.redFlags) === 'emergency') {
+        if (route === 'emergency') {
           setEmergencyUnsent({ error, values });
           return;
         }
@@ -138,6 +154,10 @@ export function PainReportForm({
   }
 
   if (outcome) return <ReportOutcome outcome={outcome} homeHref={homeHref} />;
+
+  if (emergencyFirst) return <EmergencyScreen emergencyNumber={emergencyNumber} delivery={emergencyFirst} homeHref={homeHref} />;
+
+  if (kept) return <KeptOutcome urgent={kept.urgent} emergencyNumber={emergencyNumber} homeHref={homeHref} />;
 
   if (emergencyUnsent) {
     return (

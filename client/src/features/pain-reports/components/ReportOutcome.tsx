@@ -44,6 +44,7 @@ export function EmergencyScreen({
   sendError,
   onRetry,
   retrying,
+  delivery,
   homeHref,
 }: {
   emergencyNumber: string | null | undefined;
@@ -53,6 +54,8 @@ export function EmergencyScreen({
   sendError?: unknown;
   onRetry?: () => void;
   retrying?: boolean;
+  /** Shown from the athlete's answers before the server's: the report is on its way, or kept on the phone for later. */
+  delivery?: 'sending' | 'kept';
   homeHref: string;
 }) {
   const heading = useFocusOnMount<HTMLHeadingElement>();
@@ -88,6 +91,18 @@ export function EmergencyScreen({
               </Button>
             )}
           </div>
+        ) : delivery === 'kept' ? (
+          <div role="status" className="mt-5 rounded-md border border-l-8 border-line-deep bg-sheet px-4 py-3">
+            <p className="font-semibold">Your report is kept on this phone.</p>
+            <p className="mt-1">
+              Loadline can&apos;t be reached right now; the report is sent as soon as it can be. Don&apos;t wait for it: get care first,
+              stop training, and tell your clinician and your coach yourself.
+            </p>
+          </div>
+        ) : delivery === 'sending' ? (
+          <p role="status" className="mt-5 text-base text-ink-2">
+            Sending your report to your care team…
+          </p>
         ) : (
           <>
             {message && <p className="mt-5 text-base">{message}</p>}
@@ -139,6 +154,34 @@ function WarningLine({ emergencyNumber }: { emergencyNumber: string }) {
       </a>
       .
     </p>
+  );
+}
+
+/**
+ * A report kept on the phone (no signal), not emergency: what happens next, and for warning signs
+ * that need a clinician today, to call them without waiting for the app.
+ */
+export function KeptOutcome({
+  urgent,
+  emergencyNumber,
+  homeHref,
+}: {
+  urgent: boolean;
+  emergencyNumber: string | null | undefined;
+  homeHref: string;
+}) {
+  return (
+    <OutcomeFrame heading="Your report is saved on this phone" homeHref={homeHref}>
+      <p className="text-base">
+        Loadline can&apos;t be reached right now. Your report is sent to your care team as soon as it can be; your page shows it until then.
+      </p>
+      {urgent && (
+        <p className="rounded-md border border-l-8 border-line bg-sheet px-4 py-3 text-base">
+          {URGENT_HEADING}. Some of your answers need your clinician today: call or message them yourself, don&apos;t wait for the app.
+        </p>
+      )}
+      {emergencyNumber && <WarningLine emergencyNumber={emergencyNumber} />}
+    </OutcomeFrame>
   );
 }
 

@@ -15,6 +15,7 @@ import { getPlanQueryOptions } from '../api/get-plan';
 import { blankStage, copiedStages, planFormResolver, planToForm, type PlanForm } from './plan-form';
 import { CAP_COLUMNS } from './plan-words';
 import { StageCard } from './StageCard';
+import { criterionFieldWords } from './StageCriteriaEditor';
 import { StartFromTemplate } from '../../plan-templates/components/StartFromTemplate';
 
 export const STALE_PLAN =
@@ -36,8 +37,33 @@ const STAGE_FIELD_WORDS: Record<string, string> = {
   stageId: 'Stage id',
 };
 
+/** Problems of the stages' exit criteria, each named by stage, criterion number and field. */
+function criteriaProblems(errors: FieldErrors<PlanForm>, values: PlanForm): string[] {
+  const out: string[] = [];
+  const stageErrors = (errors.stages ?? {}) as Record<string, { criteria?: unknown } | undefined>;
+  for (const [key, stage] of Object.entries(stageErrors)) {
+    if (!/^\d+$/.test(key) || !stage?.criteria) continue;
+    const i = Number(key);
+    const list = stage.criteria as Record<string, Record<string, { message?: string } | undefined> | undefined> & {
+      message?: string;
+      root?: { message?: string };
+    };
+    const listMessage = list.root?.message ?? list.message;
+    if (typeof listMessage === 'string') out.push(`Stage ${i + 1}: ${fieldSentence('Criteria', listMessage)}`);
+    for (const [ck, fieldsOf] of Object.entries(list)) {
+      if (!/^\d+$/.test(ck) || !fieldsOf) continue;
+      const kind = values.stages[i]?.criteria[Number(ck)]?.kind;
+      for (const [field, err] of Object.entries(fieldsOf)) {
+        if (err?.message)
+          out.push(`Stage ${i + 1}, criterion ${Number(ck) + 1}: ${fieldSentence(criterionFieldWords(kind, field), err.message)}`);
+      }
+    }
+  }
+  return out;
+}
+
 /** Every problem in one list by the Save button, in the words shown beside each field. */
-function errorSummary(errors: FieldErrors<PlanForm>): string[] {
+function errorSummary(errors: FieldErrors<PlanForm>, values: PlanForm): string[] {
   const out: string[] = [];
   const stagesRoot = errors.stages?.root?.message ?? errors.stages?.message;
   if (stagesRoot) out.push(fieldSentence('Stages', stagesRoot) ?? stagesRoot);
@@ -60,6 +86,7 @@ function errorSummary(errors: FieldErrors<PlanForm>): string[] {
       }
     }
   }
+  out.push(...criteriaProblems(errors, values));
   if (errors.guidance?.message) out.push(fieldSentence('Guidance', errors.guidance.message) ?? errors.guidance.message);
   if (errors.changeNote?.message) out.push(fieldSentence('Change note', errors.changeNote.message) ?? errors.changeNote.message);
   return out;
@@ -107,7 +134,7 @@ export function PlanEditor({
   const { fields, append, remove, move, replace } = useFieldArray({ control, name: 'stages' });
 
   const stale = isApiError(update.error) && update.error.code === 'version_conflict';
-  const problems = formState.submitCount > 0 ? errorSummary(formState.errors) : [];
+  const problems = formState.submitCount > 0 ? errorSummary(formState.errors, getValues()) : [];
 
   const onSubmit = handleSubmit((payload) => {
     if (plan) update.mutate({ ...payload, version: baseVersion }, { onSuccess: onSaved });

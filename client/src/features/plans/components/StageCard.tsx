@@ -8,6 +8,7 @@ import { fieldSentence } from '../../../lib/form-errors';
 import { TextField } from '../../../components/ui/Field';
 import { liveStageIssues, type PlanForm } from './plan-form';
 import { StagePatterns } from './StagePatterns';
+import { StageCriteriaEditor } from './StageCriteriaEditor';
 import { daysInclusive } from './plan-words';
 
 /**
@@ -144,6 +145,7 @@ export function StageCard({
         </p>
         <StagePatterns stageIndex={index} unit={unit} />
       </div>
+      <StageCriteriaEditor stageIndex={index} />
     </fieldset>
   );
 }

@@ -11,7 +11,7 @@ import {
   type PatternRule,
 } from '../../../../../policies/load/patterns';
 import { fromUnit, toUnit } from '../../../../../policies/load/units';
-import type { StageCriterion } from '../../../../../policies/load/stage-criteria';
+import type { CriterionKind, RecordRule, StageCriterion } from '../../../../../policies/load/stage-criteria';
 import { addDaysIso, todayLocal } from '../../../lib/dates';
 
 /**
@@ -38,8 +38,93 @@ export interface StageForm {
   reviewDate: string;
   painCeiling: string;
   patterns: Record<MovementPattern, RuleForm>;
-  /** Exit criteria, kept as they came so an edit of the limits never drops them. */
-  criteria?: StageCriterion[];
+  /** Exit criteria as the editor holds them (text in the inputs); `toPayload` turns them back exactly. */
+  criteria: CriterionForm[];
+}
+
+/**
+ * One exit criterion as the inputs hold it: every kind's fields are present, so switching a record
+ * rule keeps what was typed; only the fields of the criterion's kind (and rule) are sent.
+ */
+export interface CriterionForm {
+  id: string;
+  kind: CriterionKind;
+  rule: RecordRule;
+  count: string;
+  maxPain: string;
+  maxRpe: string;
+  label: string;
+  measure: 'threshold' | 'yes_no';
+  threshold: string;
+  direction: 'at_least' | 'at_most';
+  unit: string;
+}
+
+const numText = (v: number | undefined | null) => (v === undefined || v === null ? '' : String(v));
+
+export function criterionToForm(c: StageCriterion): CriterionForm {
+  const base = blankCriterion(c.kind, c.id);
+  switch (c.kind) {
+    case 'record':
+      return { ...base, rule: c.rule, count: numText(c.count), maxPain: numText(c.maxPain), maxRpe: numText(c.maxRpe) };
+    case 'clinician':
+      return {
+        ...base,
+        label: c.label,
+        measure: c.measure,
+        threshold: numText(c.threshold),
+        direction: c.direction ?? 'at_least',
+        unit: c.unit ?? '',
+      };
+    case 'athlete':
+      return { ...base, threshold: numText(c.threshold) };
+  }
+}
+
+/**
+ * A new criterion of one kind. The record rule starts at the issue's own example (pain during ≤ 2,
+ * three sessions in a row); thresholds start empty, so the clinician sets each one.
+ */
+export function blankCriterion(kind: CriterionKind, id: string = crypto.randomUUID()): CriterionForm {
+  return {
+    id,
+    kind,
+    rule: 'pain_settled_sessions',
+    count: kind === 'record' ? '3' : '',
+    maxPain: kind === 'record' ? '2' : '',
+    maxRpe: '',
+    label: '',
+    measure: 'threshold',
+    threshold: '',
+    direction: 'at_least',
+    unit: '',
+  };
+}
+
+/** The API's shape of one criterion: only its kind's fields; '' is "not given", so the schema names it. */
+export function criterionToPayload(f: CriterionForm): StageCriterion {
+  switch (f.kind) {
+    case 'record': {
+      const out: StageCriterion = { id: f.id, kind: 'record', rule: f.rule };
+      if (f.rule !== 'no_red_flags') out.count = numberOrUndefined(f.count);
+      if (f.rule === 'pain_settled_sessions') out.maxPain = numberOrUndefined(f.maxPain);
+      if (f.rule === 'rpe_at_most') out.maxRpe = numberOrUndefined(f.maxRpe);
+      for (const key of ['count', 'maxPain', 'maxRpe'] as const) if (out[key] === undefined) delete out[key];
+      return out;
+    }
+    case 'clinician': {
+      const out: StageCriterion = { id: f.id, kind: 'clinician', label: f.label.trim(), measure: f.measure };
+      if (f.measure === 'threshold') {
+        const threshold = numberOrUndefined(f.threshold);
+        if (threshold !== undefined) out.threshold = threshold;
+        out.direction = f.direction;
+        if (f.unit.trim() !== '') out.unit = f.unit.trim();
+      }
+      return out;
+    }
+    case 'athlete':
+      return { id: f.id, kind: 'athlete', threshold: numberOrUndefined(f.threshold) as number };
+  }
 }
 
 export interface PlanForm {
@@ -100,7 +185,7 @@ export function stageToForm(stage: PlanStage, unit: Unit, stageId: string = stag
       MovementPattern,
       RuleForm
     >,
-    ...(stage.criteria?.length ? { criteria: stage.criteria } : {}),
+    criteria: (stage.criteria ?? []).map(criterionToForm),
   };
 }
 
@@ -123,6 +208,7 @@ export function blankStage(previous?: Pick<StageForm, 'endDate'>): StageForm {
     reviewDate: '',
     painCeiling: String(DEFAULT_PAIN_CEILING),
     patterns: freePatterns(),
+    criteria: [],
   };
 }
 
@@ -166,7 +252,7 @@ export function toPayload(form: PlanForm, unit: Unit): PlanCreateInput {
       patterns: Object.fromEntries(
         MOVEMENT_PATTERNS.filter((p) => s.patterns[p].mode !== 'free').map((p) => [p, ruleToPayload(s.patterns[p], unit)]),
       ),
-      ...(s.criteria?.length ? { criteria: s.criteria } : {}),
+      ...(s.criteria.length ? { criteria: s.criteria.map(criterionToPayload) } : {}),
     })),
     guidance: form.guidance,
     changeNote: form.changeNote.trim() === '' ? undefined : form.changeNote.trim(),

@@ -46,7 +46,8 @@ export function ComingWeek({
 }) {
   const week = useWeek(orgId, athleteId, today);
   if (week.isPending) return <Loading what="your coming week" />;
-  if (week.isError) return <ErrorNotice error={week.error} title="Your coming week is not available" />;
+  // Kept answers from an earlier visit are shown even when refreshing them fails (lib/offline-copy.ts).
+  if (week.isError && !week.data) return <ErrorNotice error={week.error} title="Your coming week is not available" />;
   return (
     <section aria-labelledby="coming-week-heading" className="space-y-3">
       <h2 id="coming-week-heading" className="text-xl font-bold">

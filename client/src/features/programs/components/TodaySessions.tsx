@@ -46,7 +46,7 @@ export function TodaySessions({ athleteId }: { athleteId: string }) {
       <div className="mt-3 space-y-4">
         {today.isPending ? (
           <Loading what="today's session" />
-        ) : today.isError ? (
+        ) : today.isError && !today.data ? (
           <ErrorNotice error={today.error} />
         ) : today.data.sessions.length === 0 ? (
           <p className="text-base">Nothing is planned for you today.</p>

@@ -27,8 +27,8 @@ const grid: TeamGridDto = {
   programName: 'Pre-season',
   groupName: 'First team',
   sessions: [
-    { id: 's1', date: '2027-01-05', title: 'Squad strength', status: 'draft', version: 1 },
-    { id: 's2', date: '2027-01-07', title: 'Speed', status: 'published', version: 2 },
+    { id: 's1', date: '2027-01-05', title: 'Squad strength', status: 'draft', version: 1, setCount: 6 },
+    { id: 's2', date: '2027-01-07', title: 'Speed', status: 'published', version: 2, setCount: 4 },
   ],
   athletes: [
     { id: 'a1', name: 'Ada Stone', statusToday: 'full' },
@@ -147,6 +147,13 @@ describe('ReviewGrid', () => {
     expect(screen.getByRole('link', { name: 'Cy Moor, Squad strength: Out' })).toBeInTheDocument();
     // A cell without a version yet is said, not linked.
     expect(screen.getByText('Not fitted yet')).toBeInTheDocument();
+  });
+
+  it('a session with no sets yet says so instead of "As written" in every cell', () => {
+    renderGrid(vi.fn(), vi.fn(), { ...grid, sessions: [{ ...grid.sessions[0], setCount: 0 }, grid.sessions[1]] });
+    expect(screen.getByText('No sets yet: open the session to write them')).toBeInTheDocument();
+    expect(screen.getAllByText('Nothing written yet')).toHaveLength(3);
+    expect(screen.queryByRole('link', { name: /Squad strength: As written/ })).not.toBeInTheDocument();
   });
 
   it('each cell carries a glyph as well as its words, so it reads without colour', () => {

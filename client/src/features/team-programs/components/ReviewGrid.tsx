@@ -48,6 +48,9 @@ export function ReviewGrid({
                 <span className="block text-xs font-semibold">
                   {s.status === 'published' ? `${MARKER_GLYPHS.published} Published` : 'Draft'}
                 </span>
+                {s.setCount === 0 && (
+                  <span className="block text-xs font-normal text-ink-2">No sets yet: open the session to write them</span>
+                )}
                 {canPublish && (
                   <span className="mt-1 flex flex-col items-start gap-1 font-normal">
                     <label className="inline-flex items-center gap-1 text-xs">
@@ -80,7 +83,9 @@ export function ReviewGrid({
                 const cell = cellOf.get(`${s.id}:${a.id}`);
                 return (
                   <td key={s.id} className="border-b border-l border-rule px-2 py-2 align-top">
-                    {cell && cell.versionId ? (
+                    {s.setCount === 0 ? (
+                      <span className="text-ink-2">Nothing written yet</span>
+                    ) : cell && cell.versionId ? (
                       <GridCell cell={cell} href={hrefFor(s.id, a.id)} label={cellSentence(a.name, s.title, cell)} />
                     ) : (
                       <span className="text-ink-2">Not fitted yet</span>

@@ -97,13 +97,21 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
         {program.athletes.length ? `: ${joinNames(program.athletes.map((a) => a.name))}.` : ' (no athletes yet).'} Write each session once;
         it is fitted to each athlete’s limits, and nothing reaches an athlete until you publish.
       </PageHeader>
-      <RenameTeamProgram orgId={orgId} program={program} onReload={reload} />
+      {program.archived ? (
+        <Notice tone="info" title="Kept for the record">
+          <p>{program.groupName} is archived: this program can be read but no longer changed or published.</p>
+        </Notice>
+      ) : (
+        <RenameTeamProgram orgId={orgId} program={program} onReload={reload} />
+      )}
       {library.isError && <ErrorNotice error={library.error} />}
       <div className="grid gap-5 lg:grid-cols-[17rem_minmax(0,1fr)]">
         <div className="space-y-4">
-          <section aria-label="Add a team session" className="rounded-lg border border-rule bg-sheet p-3">
-            <AddTeamSessionForm orgId={orgId} programId={program.id} lastDate={lastDate} onAdded={(s) => select(s.id)} />
-          </section>
+          {!program.archived && (
+            <section aria-label="Add a team session" className="rounded-lg border border-rule bg-sheet p-3">
+              <AddTeamSessionForm orgId={orgId} programId={program.id} lastDate={lastDate} onAdded={(s) => select(s.id)} />
+            </section>
+          )}
           <nav aria-label="Team sessions" className="rounded-lg border border-rule bg-sheet p-3">
             <h2 className="mb-2 font-bold">Team sessions</h2>
             {sessions.length === 0 ? (
@@ -162,9 +170,11 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
               whole group at once, or nothing if any version needs attention.
             </p>
           </div>
-          <Button disabled={chosen.size === 0} busy={publish.isPending} onClick={() => runPublish([...chosen])}>
-            Publish the chosen sessions ({chosen.size})
-          </Button>
+          {!program.archived && (
+            <Button disabled={chosen.size === 0} busy={publish.isPending} onClick={() => runPublish([...chosen])}>
+              Publish the chosen sessions ({chosen.size})
+            </Button>
+          )}
         </div>
         {problems ? (
           <PublishProblems message={(publish.error as Error).message} problems={problems} hrefFor={hrefFor} />
@@ -199,7 +209,7 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
             }
             onPublish={runPublish}
             publishing={publish.isPending}
-            canPublish
+            canPublish={!program.archived}
           />
         )}
       </section>

@@ -1,12 +1,8 @@
 import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { TrainingLogOutcomeDto } from '../../../../../policies/dto';
 import type { TrainingLogCreateInput } from '../../../../../policies/schemas';
-import { api } from '../../../lib/api-client';
+import { sendOrKeep, useSignedInUserId } from '../../../lib/offline-queue';
 import { queryKeys } from '../../../lib/query-keys';
-
-export function createTrainingLog(orgId: string, input: TrainingLogCreateInput): Promise<TrainingLogOutcomeDto> {
-  return api.post<TrainingLogOutcomeDto>(`/orgs/${orgId}/training-logs`, input);
-}
 
 /** A log moves the workload, and the pain rule may raise a flag and send notices. */
 export function refreshAfterLog(queryClient: QueryClient, orgId: string) {
@@ -20,10 +16,13 @@ export function refreshAfterLog(queryClient: QueryClient, orgId: string) {
   }
 }
 
+/** Without signal the log is kept on the phone and sent later (lib/offline-queue.ts). */
 export function useCreateTrainingLog(orgId: string) {
   const queryClient = useQueryClient();
+  const userId = useSignedInUserId();
   return useMutation({
-    mutationFn: (input: TrainingLogCreateInput) => createTrainingLog(orgId, input),
+    mutationFn: (input: TrainingLogCreateInput) =>
+      sendOrKeep<TrainingLogOutcomeDto>(userId, { orgId, kind: 'training_log', path: `/orgs/${orgId}/training-logs`, body: input }),
     onSuccess: () => refreshAfterLog(queryClient, orgId),
   });
 }

@@ -26,6 +26,7 @@ export function TrainingLogForm({
   painCeiling,
   plan,
   onSaved,
+  onKept,
 }: {
   orgId: string;
   athleteId: string;
@@ -35,6 +36,8 @@ export function TrainingLogForm({
   /** "Log this session": the planned session's sets, pre-filled to be edited to what was done. */
   plan?: { sessionId: string; sets: SetRow[] };
   onSaved: (outcome: TrainingLogOutcomeDto) => void;
+  /** Loadline could not be reached: the log is kept on the phone and sent later (lib/offline-queue.ts). */
+  onKept?: () => void;
 }) {
   const save = useCreateTrainingLog(orgId);
   const today = todayLocal();
@@ -72,7 +75,7 @@ export function TrainingLogForm({
 
   const onSubmit = handleSubmit((values) =>
     save.mutate(values, {
-      onSuccess: onSaved,
+      onSuccess: (result) => ('sent' in result ? onSaved(result.sent) : onKept?.()),
       onError: (error) => applyServerFieldErrors(error, setError, [...FIELDS]),
     }),
   );

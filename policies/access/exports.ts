@@ -1,0 +1,21 @@
+import { hasRole } from './actor';
+import type { RuleSet } from './builder';
+
+/**
+ * Records leaving in open standards (issue 16 §3).
+ * - CalendarFeed: a member's own private iCalendar feed. Athletes (their sessions and stages) and
+ *   coaches (their athletes' sessions) turn one on, read its state and turn it off — only their own.
+ *   Guardians, clinicians and admins have none: their days are not a training calendar.
+ * - CaseExport: the FHIR R4 Bundle of a case carries the diagnosis, pain reports and the letter, so
+ *   only a clinician on the athlete's care team downloads it (minimum necessary, 45 CFR 164.502(b)).
+ */
+export const exportRules: RuleSet = ({ can }, actor) => {
+  const org = actor.organizationId;
+  if (hasRole(actor, 'athlete') || hasRole(actor, 'coach')) {
+    const own = { organizationId: org, membershipId: actor.membershipId };
+    can('read', 'CalendarFeed', own);
+    can('create', 'CalendarFeed', own);
+    can('delete', 'CalendarFeed', own);
+  }
+  if (hasRole(actor, 'clinician')) can('read', 'CaseExport', { organizationId: org, athleteId: { $in: actor.clinicianOf } });
+};

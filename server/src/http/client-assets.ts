@@ -1,0 +1,43 @@
+import path from 'node:path';
+import compression from 'compression';
+import express, { type Express } from 'express';
+
+/** A year, in seconds: the longest lifetime caches honour (RFC 9111 suggests no more). */
+const YEAR = 31_536_000;
+
+/**
+ * Serves the built client (issue 17, first load). Files under /assets carry a content hash in their
+ * names, so a browser may keep them for a year without asking again: a release makes new names. The
+ * page itself (index.html, which names those files) and anything else in the folder are asked for again
+ * each time (`no-cache`: a conditional request, a 304 when unchanged), so a release is seen at once.
+ *
+ * Text goes out compressed, brotli when the browser offers it, else gzip (the `compression` package,
+ * which honours Accept-Encoding and sets Vary); fonts, images and already-compressed files are left as
+ * they are, by the package's own choice of compressible types.
+ */
+export function serveClient(app: Express, clientDist: string): void {
+  const assets = path.join(clientDist, 'assets');
+  const shrink = compression();
+  app.use(
+    shrink,
+    express.static(clientDist, {
+      index: false,
+      // Set below per file: `maxAge` would give every file the same lifetime.
+      cacheControl: false,
+      setHeaders(res, file) {
+        res.setHeader('Cache-Control', path.dirname(file) === assets ? `public, max-age=${YEAR}, immutable` : 'no-cache');
+      },
+    }),
+  );
+  // A hashed file that is not there (a tab open across a release asking for an old screen's code) is a
+  // plain 404, never the page in its place, which the browser would refuse as a script anyway.
+  app.use('/assets', (_req, res) => {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.status(404).type('text/plain').send('Not found');
+  });
+  // Every other path is one of the client's own routes: the page, never cached, loads the right screen.
+  app.get('/{*splat}', shrink, (_req, res) => {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(path.join(clientDist, 'index.html'));
+  });
+}
