@@ -119,10 +119,12 @@ export const PlanCreateSchema = z.strictObject({
   stages: stagesSchema,
   guidance: PlainWords.default(''),
   changeNote: text(500).optional(),
+  /** The template the plan was started from, as the clinician loaded it: recorded in the creation's audit entry. */
+  fromTemplate: z.strictObject({ id: UuidSchema, version: VersionSchema }).optional(),
 });
 export type PlanCreateInput = z.infer<typeof PlanCreateSchema>;
 
-export const PlanUpdateSchema = PlanCreateSchema.extend({ version: VersionSchema });
+export const PlanUpdateSchema = PlanCreateSchema.omit({ fromTemplate: true }).extend({ version: VersionSchema });
 export type PlanUpdateInput = z.infer<typeof PlanUpdateSchema>;
 
 export const InForceQuerySchema = z.strictObject({ date: IsoDateSchema.optional() });

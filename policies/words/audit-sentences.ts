@@ -36,6 +36,14 @@ function version(e: Entry): string {
   return typeof v === 'number' ? ` (version ${v})` : '';
 }
 
+/** " from the template “Ankle, three stages” (version 2)" when a plan was started from one. */
+function fromTemplate(e: Entry): string {
+  const t = field(e.after, 'fromTemplate');
+  const name = field(t, 'name');
+  const v = field(t, 'version');
+  return typeof name === 'string' ? ` from the template “${name}”${typeof v === 'number' ? ` (version ${v})` : ''}` : '';
+}
+
 const STATUS_WORDS: Record<string, string> = { out: 'Out', limited: 'Limited', full: 'Full' };
 
 function statusWords(e: Entry): string {
@@ -97,7 +105,7 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'case.closed': (who, e) => `${who} closed ${whose(e, 'case')}`,
   'case.viewed': (who, e) => `${who} read ${whose(e, 'case')}`,
   'status.changed': (who, e) => `${who} changed ${whose(e, 'participation status')}${statusWords(e)}`,
-  'plan.created': (who, e) => `${who} wrote ${whose(e, 'restriction plan')}${version(e)}`,
+  'plan.created': (who, e) => `${who} wrote ${whose(e, 'restriction plan')}${version(e)}${fromTemplate(e)}`,
   'plan.revised': (who, e) => `${who} changed ${whose(e, 'plan')}${version(e)}`,
   'stage.assessed': (who, e) => `${who} recorded a stage check for ${athlete(e)}`,
   'stage.readiness_rated': (who) => `${who} said how ready they feel for the next stage`,

@@ -5,6 +5,7 @@ import { authorize } from '../core/authorize';
 import { orgCommand } from '../core/command';
 import { AppError, versionConflict } from '../core/errors';
 import { planDto, planVersions } from '../queries/plans';
+import { readableTemplate } from '../queries/plan-templates';
 import { tellPlanVersion } from '../services/change-notices';
 import { isUniqueViolation } from '../services/org-members';
 
@@ -18,6 +19,8 @@ export const createPlan = orgCommand({
     authorize(ability, 'read', 'Case', c);
     authorize(ability, 'create', 'RestrictionPlan', { id: '', organizationId: c.organizationId, athleteId: c.athleteId });
     if (c.closedOn) throw new AppError('conflict', 'This case is closed; open a new case to write a new plan.');
+    // A template the writer may read (404 otherwise), named in the audit entry with the version they started from.
+    const template = input.fromTemplate ? await readableTemplate(m, ability, ctx.actor.organizationId, input.fromTemplate.id) : null;
     let saved: RestrictionPlan;
     try {
       saved = await m.save(
@@ -43,7 +46,14 @@ export const createPlan = orgCommand({
       subjectType: 'RestrictionPlan',
       subjectId: saved.id,
       athleteId: c.athleteId,
-      after: { version: 1, stages: input.stages, guidance: input.guidance },
+      after: {
+        version: 1,
+        stages: input.stages,
+        guidance: input.guidance,
+        ...(template && input.fromTemplate
+          ? { fromTemplate: { id: template.id, version: input.fromTemplate.version, name: template.name } }
+          : {}),
+      },
     });
     await ctx.limitsChanged({ athleteIds: [c.athleteId], reason: 'The clinician wrote a restriction plan.' });
     await tellPlanVersion(ctx, c.athleteId, 1, input);

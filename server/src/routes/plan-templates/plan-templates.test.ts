@@ -140,6 +140,32 @@ describe('plan templates', () => {
     ]);
   });
 
+  it("a plan started from a template names the template (id, version, name) in its creation's audit entry", async () => {
+    const w = await world();
+    const clin = await w.as('clinician');
+    const t = (await clin.post(`${w.base}/plan-templates`, simple())).body as PlanTemplateDto;
+    const stages = planStagesFromTemplate(t.stages, '2026-01-05', () => crypto.randomUUID());
+    const caseId = await openCase(w);
+    const res = await clin.post(`${w.base}/cases/${caseId}/plan`, { stages, guidance: t.guidance, fromTemplate: { id: t.id, version: 1 } });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const [entry] = (await h.ds.query(`SELECT after FROM audit_entries WHERE action = 'plan.created' AND subject_id = $1`, [
+      res.body.id,
+    ])) as { after: { fromTemplate?: unknown } }[];
+    expect(entry.after.fromTemplate).toEqual({ id: t.id, version: 1, name: 'Ankle sprain, three stages' });
+
+    // A template that is not the organization's is a 404, and no plan is written.
+    const secondCase = await openCase(w);
+    const unknown = await clin.post(`${w.base}/cases/${secondCase}/plan`, {
+      stages,
+      fromTemplate: { id: crypto.randomUUID(), version: 1 },
+    });
+    expect(unknown.status).toBe(404);
+    expect(await h.ds.query(`SELECT 1 FROM restriction_plans WHERE case_id = $1`, [secondCase])).toEqual([]);
+    // An edit has no template to name: the field is refused there.
+    const edit = await put(clin, `${w.base}/plans/${res.body.id}`, { stages, version: 1, fromTemplate: { id: t.id, version: 1 } });
+    expect(edit.status).toBe(400);
+  });
+
   it('an admin may not write templates (403): they write no plans', async () => {
     const w = await world();
     expect((await (await w.as('admin')).post(`${w.base}/plan-templates`, simple())).status).toBe(403);
