@@ -128,7 +128,26 @@ function withQuery(path: string, query: RequestOptions['query']): string {
   return text ? `${path}?${text}` : path;
 }
 
+let sessionFromCopy = false;
+
+/**
+ * A page that started from the offline copy of the session (lib/offline-copy.ts) has no token until the
+ * session is read again: a write asks for one first rather than being refused.
+ */
+export function startedFromSessionCopy(): void {
+  sessionFromCopy = true;
+}
+
+async function ensureCsrfToken(): Promise<void> {
+  if (csrfToken || !sessionFromCopy) return;
+  const response = await fetch('/api/session', { headers: { Accept: 'application/json' }, credentials: 'same-origin' });
+  if (!response.ok) return;
+  const session = (await response.json()) as { csrfToken?: unknown };
+  if (typeof session.csrfToken === 'string') csrfToken = session.csrfToken;
+}
+
 export async function apiRequest<T>(method: HttpMethod, path: string, options: RequestOptions = {}): Promise<T> {
+  if (method !== 'GET') await ensureCsrfToken().catch(() => undefined);
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (method !== 'GET') {
     headers['Content-Type'] = 'application/json';

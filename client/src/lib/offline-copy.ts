@@ -1,5 +1,6 @@
 import type { Query, QueryClient, QueryKey } from '@tanstack/react-query';
 import type { SessionDto } from '../../../policies/dto';
+import { startedFromSessionCopy } from './api-client';
 import { sessionQueryKey } from './query-client';
 
 /**
@@ -85,7 +86,12 @@ export function installOfflineCopy(queryClient: QueryClient): () => void {
   if (!store) return () => {};
   const lastUser = store.getItem(LAST_USER);
   if (lastUser) {
-    for (const entry of readCopy(lastUser)) queryClient.setQueryData(entry.key, entry.data, { updatedAt: entry.updatedAt });
+    for (const entry of readCopy(lastUser)) {
+      queryClient.setQueryData(entry.key, entry.data, { updatedAt: entry.updatedAt });
+      // Shown at once, but asked for again on first use: a copy is never taken for a fresh answer.
+      void queryClient.invalidateQueries({ queryKey: entry.key, exact: true, refetchType: 'none' });
+      if (entry.key[0] === sessionQueryKey[0]) startedFromSessionCopy();
+    }
   }
   restoredAt = Date.now();
 
@@ -95,10 +101,9 @@ export function installOfflineCopy(queryClient: QueryClient): () => void {
     const session = queryClient.getQueryData<SessionDto>(sessionQueryKey);
     if (query.queryKey[0] === sessionQueryKey[0]) {
       const fresh = query.state.data as SessionDto | undefined;
-      if (!fresh?.user) {
-        clearOfflineCopies();
-        return;
-      }
+      // Signed out, someone else signed in, or no athlete to read offline: no copy is kept.
+      if (!fresh?.user || store.getItem(LAST_USER) !== fresh.user.id || ownAthleteIds(fresh).size === 0) clearOfflineCopies();
+      if (!fresh?.user || ownAthleteIds(fresh).size === 0) return;
       // The CSRF token is bound to the live session: never stored.
       save(fresh.user.id, { key: sessionQueryKey, data: { ...fresh, csrfToken: '' }, updatedAt: query.state.dataUpdatedAt });
       return;
