@@ -6,6 +6,7 @@ import { InvitePage } from './routes/invite';
 import { ForgotPasswordPage } from './routes/forgot-password';
 import { ResetPasswordPage } from './routes/reset-password';
 import { CheckPage } from './routes/check';
+import { ConfirmOrganizationPage, StartOrganizationPage } from './routes/start-organization';
 import { HomeRedirect } from './routes/home-redirect';
 import { AccountPage } from './routes/account';
 import { NotFoundPage } from './routes/not-found';
@@ -52,6 +53,9 @@ export const routes = [
       { path: '/forgot-password', element: <ForgotPasswordPage /> },
       // The reset token rides in the fragment (#…), which never reaches the server.
       { path: '/reset', element: <ResetPasswordPage /> },
+      { path: '/start', element: <StartOrganizationPage /> },
+      // The confirmation token rides in the fragment too.
+      { path: '/start/confirm', element: <ConfirmOrganizationPage /> },
       // Public: a letter's holder checks its code without signing in.
       { path: '/check', element: <CheckPage /> },
       { path: '/check/:code', element: <CheckPage /> },
