@@ -32,12 +32,3 @@ export function countryName(code: string, locale = 'en'): string {
     return code;
   }
 }
-
-/**
- * The IANA time zones this runtime knows, for a picker (the server checks a choice with `isTimeZone`,
- * policies/today.ts). "UTC" is listed first: some runtimes leave it out of their list.
- */
-export function timeZoneChoices(): string[] {
-  const zones = typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValuesOf('timeZone') : [];
-  return ['UTC', ...zones.filter((z) => z !== 'UTC')];
-}

@@ -104,6 +104,7 @@ try {
       LOG_LEVEL: 'warn',
       // Every browser test signs in from the same address; the per-IP limit is tested in vitest.
       SIGNIN_MAX_PER_IP: '1000',
+      ORG_SIGNUP_MAX_PER_IP: '1000',
       CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
       STORAGE_DIR: storageDir,
     });

@@ -25,6 +25,9 @@ export const routes: RouteObject[] = [
       { path: '/forgot-password', lazy: page(() => import('./routes/forgot-password'), 'ForgotPasswordPage') },
       // The reset token rides in the fragment (#…), which never reaches the server.
       { path: '/reset', lazy: page(() => import('./routes/reset-password'), 'ResetPasswordPage') },
+      { path: '/start', lazy: page(() => import('./routes/start-organization'), 'StartOrganizationPage') },
+      // The confirmation token rides in the fragment too.
+      { path: '/start/confirm', lazy: page(() => import('./routes/start-organization'), 'ConfirmOrganizationPage') },
       // Public: a letter's holder checks its code without signing in.
       { path: '/check', lazy: page(() => import('./routes/check'), 'CheckPage') },
       { path: '/check/:code', lazy: page(() => import('./routes/check'), 'CheckPage') },

@@ -1,7 +1,8 @@
 import { useState } from 'react';
 import { Link, Navigate, useLocation, useNavigate } from 'react-router-dom';
-import type { SessionDto } from '../../../../policies/dto';
+import type { OrganizationSignupConfirmedDto, SessionDto } from '../../../../policies/dto';
 import { useSession } from '../../features/auth/api/get-session';
+import { useSignupStatus } from '../../features/organization-signup/api/org-signup';
 import { SignInForm } from '../../features/auth/components/SignInForm';
 import { SecondStepForm } from '../../features/auth/components/SecondStepForm';
 import { Notice } from '../../components/ui/Notice';
@@ -28,6 +29,9 @@ export function SignInPage() {
     else setStartedOver(false);
   };
 
+  const signup = useSignupStatus();
+  const started = (location.state as { organizationStarted?: OrganizationSignupConfirmedDto } | null)?.organizationStarted;
+
   if (session.data?.user) return <Navigate to={returnTo} replace />;
 
   if (session.data?.secondStep && !startedOver) {
@@ -50,6 +54,15 @@ export function SignInPage() {
           <p>Your new password is saved, and any other device signed in to your account was signed out. Sign in with the new password.</p>
         </Notice>
       )}
+      {started && (
+        <Notice tone="done" role="status" className="mb-4" title={`${started.organizationName} is ready`}>
+          <p>
+            {started.existingAccount
+              ? `Sign in as ${started.email} with the password you already use: the new organization is now beside your others.`
+              : `Your address is confirmed. Sign in as ${started.email} with the password you chose.`}
+          </p>
+        </Notice>
+      )}
       <SignInForm onSignedIn={onSignedIn} />
       <p className="mt-4 text-sm">
         <Link to="/forgot-password">Forgot your password?</Link>
@@ -58,6 +71,11 @@ export function SignInPage() {
       <p className="mt-2 text-sm">
         <Link to="/invite">I have an invitation link</Link>
       </p>
+      {signup.data?.open && (
+        <p className="mt-2 text-sm">
+          <Link to="/start">Start an organization</Link>
+        </p>
+      )}
     </CenteredShell>
   );
 }
