@@ -15,7 +15,7 @@ import { applyRosterRow, loadRosterState, parseRosterCsv } from '../services/ros
  */
 
 /** Rows per transaction: small enough that no request waits long on the rows a batch locks. */
-export const ROSTER_BATCH = 50;
+export const ROSTER_BATCH = 25;
 
 function mayImport(ctx: OrgCommandCtx): void {
   authorize(ctx.ability, 'create', 'Invitation', { id: '', organizationId: ctx.actor.organizationId });
