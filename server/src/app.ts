@@ -42,6 +42,7 @@ import { letterRoutes } from './routes/letters/letters.router';
 import { documentRoutes } from './routes/uploads/documents.router';
 import { clipRoutes } from './routes/uploads/clips.router';
 import { calendarFeedRoutes } from './routes/exports/calendar-feed.router';
+import { caseFhirRoutes } from './routes/exports/case-fhir.router';
 import { createStorage } from './storage';
 import type { ObjectStorage } from './storage';
 
@@ -148,6 +149,7 @@ export function buildApp(base: AppDeps) {
     ...documentRoutes,
     ...clipRoutes,
     ...calendarFeedRoutes(deps),
+    ...caseFhirRoutes,
   ]);
   api.use(apiNotFound);
   app.use('/api', api);
