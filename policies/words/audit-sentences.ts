@@ -158,6 +158,7 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
     const format = field(e.after, 'format');
     return `${who} downloaded the floor sheet of a team session${format === 'csv' ? ' (CSV)' : format === 'pdf' ? ' (PDF)' : ''}`;
   },
+  'case.exported_fhir': (who, e) => `${who} downloaded ${whose(e, 'case')} as a health record (FHIR)`,
   'calendar_feed.started': (who, e) =>
     field(e.after, 'replaced') === true
       ? `${who} made a new address for their private calendar feed, ending the old one`

@@ -47,6 +47,7 @@ import { documentRoutes } from './routes/uploads/documents.router';
 import { clipRoutes } from './routes/uploads/clips.router';
 import { recordExportRoutes } from './routes/record-exports/record-exports.router';
 import { calendarFeedRoutes } from './routes/exports/calendar-feed.router';
+import { caseFhirRoutes } from './routes/exports/case-fhir.router';
 import { createStorage } from './storage';
 import type { ObjectStorage } from './storage';
 
@@ -163,6 +164,7 @@ export function buildApp(base: AppDeps) {
     ...clipRoutes,
     ...recordExportRoutes,
     ...calendarFeedRoutes(deps),
+    ...caseFhirRoutes,
   ]);
   api.use(apiNotFound);
   app.use('/api', api);
