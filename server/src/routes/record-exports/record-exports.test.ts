@@ -121,7 +121,8 @@ beforeAll(async () => {
   await signLetter(h.app, org);
   athlete = await signedIn(h.app, org.athlete.email, TEST_PASSWORD);
   guardian = await signedIn(h.app, org.guardian.email, TEST_PASSWORD);
-});
+  // Two organizations, a signed letter and three sign-ins at bcrypt's cost: slow on a busy machine.
+}, 180_000);
 
 const base = () => `/api/orgs/${org.id}/record-exports`;
 
@@ -174,7 +175,7 @@ describe('the athlete asks for their own record', () => {
     );
     expect(res.headers['cache-control']).toBe('no-store');
     files = unzipSync(new Uint8Array(res.body as Buffer));
-  });
+  }, 120_000);
 
   const json = (name: string) => JSON.parse(strFromU8(files[name])) as unknown;
 
