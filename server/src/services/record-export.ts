@@ -50,6 +50,16 @@ function readMe(contents: RecordContents, meta: RecordZipMeta): string {
   return lines.join('\n');
 }
 
+function missingNote(paths: string[]): string {
+  return [
+    'These files are listed in the data files but could not be read from storage when this copy was made:',
+    ...paths.map((p) => `- ${p}`),
+    '',
+    'Ask your organization about them.',
+    '',
+  ].join('\n');
+}
+
 /**
  * Writes the archive to a temporary file (so its size and SHA-256 are known before it is stored) and
  * returns them; the caller removes the folder. Stored files are streamed from storage one at a time,
@@ -83,10 +93,16 @@ export async function writeRecordZip(
     for (const [key, name] of DATA_FILES) add(`${JSON.stringify(contents.data[key], null, 2)}\n`, name);
     // PDFs and videos are compressed already: stored as they are.
     for (const l of contents.letterPdfs) add(l.pdf, l.path, true);
+    // A file gone from storage (removed by hand, a lost disk) must not keep the rest of the record
+    // from its owner: it is named in MISSING.txt instead, and the copy is still made.
+    const missing: string[] = [];
     for (const s of contents.stored) {
       await caughtUp();
-      add(await storage.get(s.storageKey), s.path, true);
+      const body = await storage.get(s.storageKey).catch(() => null);
+      if (body) add(body, s.path, true);
+      else missing.push(s.path);
     }
+    if (missing.length) add(missingNote(missing), 'MISSING.txt');
     await zip.finalize();
     await written;
     const hash = createHash('sha256');

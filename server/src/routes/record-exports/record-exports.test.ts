@@ -121,7 +121,8 @@ beforeAll(async () => {
   await signLetter(h.app, org);
   athlete = await signedIn(h.app, org.athlete.email, TEST_PASSWORD);
   guardian = await signedIn(h.app, org.guardian.email, TEST_PASSWORD);
-});
+  // Two organizations, a signed letter and three sign-ins at bcrypt's cost: slow on a busy machine.
+}, 180_000);
 
 const base = () => `/api/orgs/${org.id}/record-exports`;
 
@@ -174,7 +175,7 @@ describe('the athlete asks for their own record', () => {
     );
     expect(res.headers['cache-control']).toBe('no-store');
     files = unzipSync(new Uint8Array(res.body as Buffer));
-  });
+  }, 120_000);
 
   const json = (name: string) => JSON.parse(strFromU8(files[name])) as unknown;
 
@@ -329,6 +330,50 @@ describe('a guardian', () => {
     const [after] = await h.ds.query(`SELECT status, problem, storage_key FROM record_exports WHERE id = $1`, [row.id]);
     expect(after).toEqual({ status: 'failed', problem: NO_LONGER_ALLOWED, storage_key: null });
     expect(await auditActions(row.id)).toEqual(['record_export.failed']);
+  });
+});
+
+describe('a file gone from storage', () => {
+  it('is named in MISSING.txt, and the rest of the record is still made', async () => {
+    const o = await createOrg(h.ds);
+    const c = await h.ds.getRepository(CaseRecord).save({
+      organizationId: o.id,
+      athleteId: o.athlete.membershipId,
+      bodyRegions: ['knee_left'],
+      onsetDate: '2026-11-01',
+      diagnosis: null,
+      clinicalNotes: null,
+      reviewDate: null,
+      openedBy: null,
+    });
+    await h.ds.getRepository(CaseDocument).save({
+      organizationId: o.id,
+      athleteId: o.athlete.membershipId,
+      caseId: c.id,
+      title: 'Lost scan',
+      documentDate: '2026-11-06',
+      issuedBy: 'Clinic',
+      mediaType: 'application/pdf',
+      sizeBytes: '10',
+      sha256: 'c'.repeat(64),
+      storageKey: `test-record/${c.id}/never-stored`,
+      uploadedByUserId: o.athlete.userId,
+      uploadedByName: o.athlete.name,
+    });
+    const [row] = await h.ds.query(
+      `INSERT INTO record_exports (organization_id, athlete_id, requested_by) VALUES ($1, $2, $3) RETURNING id`,
+      [o.id, o.athlete.membershipId, o.athlete.userId],
+    );
+    const storage = createStorage(h.config);
+    await buildRecordExport({ ds: h.ds, config: h.config, logger, jobs: h.jobs!, storage }, row.id);
+    const [after] = await h.ds.query(`SELECT status, storage_key FROM record_exports WHERE id = $1`, [row.id]);
+    expect(after.status).toBe('ready');
+    const chunks: Buffer[] = [];
+    for await (const chunk of await storage.get(after.storage_key)) chunks.push(chunk as Buffer);
+    const files = unzipSync(new Uint8Array(Buffer.concat(chunks)));
+    expect(Object.keys(files).filter((n) => n.startsWith('documents/'))).toEqual([]);
+    expect(strFromU8(files['MISSING.txt'])).toMatch(/^These files are listed .+\n- documents\/2026-11-06-lost-scan-[0-9a-f]{8}\.pdf\n/);
+    expect(JSON.parse(strFromU8(files['data/documents.json']))).toEqual([expect.objectContaining({ title: 'Lost scan' })]);
   });
 });
 
