@@ -12,6 +12,8 @@ export function useCreateCheckIn(orgId: string) {
   const queryClient = useQueryClient();
   const userId = useSignedInUserId();
   return useMutation({
+    // Runs without signal too: sendOrKeep keeps it on the phone then (react-query would only pause it).
+    networkMode: 'always',
     mutationFn: (input: CheckInInput) =>
       sendOrKeep<CheckInDto>(userId, { orgId, kind: 'check_in', path: `/orgs/${orgId}/check-ins`, body: input }),
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: queryKeys.checkInsAll(orgId) }),

@@ -12,6 +12,8 @@ export function useCreatePainReport(orgId: string) {
   const queryClient = useQueryClient();
   const userId = useSignedInUserId();
   return useMutation({
+    // Runs without signal too: sendOrKeep keeps it on the phone then (react-query would only pause it).
+    networkMode: 'always',
     mutationFn: (input: PainReportCreateInput) =>
       sendOrKeep<PainReportOutcomeDto>(userId, { orgId, kind: 'pain_report', path: `/orgs/${orgId}/pain-reports`, body: input }),
     onSuccess: () => {

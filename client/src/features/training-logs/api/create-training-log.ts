@@ -21,6 +21,8 @@ export function useCreateTrainingLog(orgId: string) {
   const queryClient = useQueryClient();
   const userId = useSignedInUserId();
   return useMutation({
+    // Runs without signal too: sendOrKeep keeps it on the phone then (react-query would only pause it).
+    networkMode: 'always',
     mutationFn: (input: TrainingLogCreateInput) =>
       sendOrKeep<TrainingLogOutcomeDto>(userId, { orgId, kind: 'training_log', path: `/orgs/${orgId}/training-logs`, body: input }),
     onSuccess: () => refreshAfterLog(queryClient, orgId),
