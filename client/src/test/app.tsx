@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, vi } from 'vitest';
-import { configure, render } from '@testing-library/react';
+import { render } from '@testing-library/react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider, createMemoryRouter } from 'react-router-dom';
 import type { Actor } from '../../../policies/access';
@@ -9,14 +9,11 @@ import { routes } from '../app/router';
 import { setOrgTimeZone } from '../lib/dates';
 import { createQueryClient } from '../lib/query-client';
 import { jsonResponse } from './render';
+import { loadAllScreens } from './lazy-routes';
 
 /** The whole app in memory, as a signed-in person sees it, with the API answered by path. */
 
-// Each screen's code is loaded on its first visit, as in the browser (router.tsx); in vitest that is a
-// cold transform of the screen and its imports, which on a busy machine takes longer than the default
-// one second the find* queries wait, and the first test of a file can pass vitest's five.
-configure({ asyncUtilTimeout: 10_000 });
-vi.setConfig({ testTimeout: 20_000 });
+await loadAllScreens(routes);
 
 export const ORG = '11111111-1111-4111-8111-111111111111';
 export const fetchMock = vi.fn<typeof fetch>();
