@@ -171,7 +171,15 @@ function report(results: Record<'signIn' | 'athlete' | 'floor', Load[]>) {
   console.log(row('sign-in page', results.signIn));
   console.log(row("athlete's home (demo athlete)", results.athlete));
   console.log(`| floor: static page, same server | 0 | 0 | 0 | ${floorLcp.toFixed(0)} | 1.00 |`);
-  console.log(`\nJS before the athlete's home is usable: ${results.athlete[0].scripts.map((s) => path.basename(s)).join(', ')}`);
+  for (const [name, loads] of [
+    ['sign-in page', results.signIn],
+    ["athlete's home", results.athlete],
+  ] as const) {
+    const largest = [...loads[0].scripts].sort((a, b) => gzippedSize(b) - gzippedSize(a)).slice(0, 5);
+    console.log(
+      `\nLargest JS before the ${name} is usable: ${largest.map((s) => `${path.basename(s)} ${kB(gzippedSize(s))} kB`).join(', ')}`,
+    );
+  }
 }
 
 async function main() {
