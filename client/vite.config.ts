@@ -51,6 +51,10 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
     rolldownOptions: {
+      // The shared rules and schemas only define things: a screen that uses one schema need not load
+      // every schema file the barrel (policies/schemas/index.ts) names. Zod's calls at the top of those
+      // files look like side effects to the bundler, which would otherwise keep them all (issue 17).
+      treeshake: { moduleSideEffects: [{ test: /[\\/]policies[\\/].*\.ts$/, sideEffects: false }] },
       output: {
         // React and the router change less often than our code and every screen needs them: a chunk of
         // their own stays cached across releases. Other libraries are not grouped, so each one (charts,

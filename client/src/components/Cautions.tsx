@@ -1,17 +1,9 @@
 import { useId } from 'react';
-import {
-  CLINICIAN_RECORD_CAUTION,
-  PAIN_CEILING_CAUTION,
-  STANDING_CAUTION,
-  TEAM_RECORD_CAUTION,
-  type Caution,
-} from '../../../policies/cautions';
+import { CLINICIAN_RECORD_CAUTION, PAIN_CEILING_CAUTION, TEAM_RECORD_CAUTION, type Caution } from '../../../policies/cautions';
 import { WARNING_TIERS } from '../../../policies/red-flags';
 
-/** The standing caution, on every page. Short, in plain words, never behind a click. */
-export function CareCaution() {
-  return <p className="text-xs text-ink-2">{STANDING_CAUTION}</p>;
-}
+// In a file of its own so the frame of every page does not load the warning signs with it (issue 17).
+export { CareCaution } from './CareCaution';
 
 /**
  * The warning signs, in the same two tiers and with the same items the pain report routes by

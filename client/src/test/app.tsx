@@ -9,9 +9,11 @@ import { routes } from '../app/router';
 import { setOrgTimeZone } from '../lib/dates';
 import { createQueryClient } from '../lib/query-client';
 import { jsonResponse } from './render';
+import { loadAllScreens } from './lazy-routes';
 
 /** The whole app in memory, as a signed-in person sees it, with the API answered by path. */
 
+await loadAllScreens(routes);
 
 export const ORG = '11111111-1111-4111-8111-111111111111';
 export const fetchMock = vi.fn<typeof fetch>();

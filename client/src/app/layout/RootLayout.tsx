@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { Outlet, useNavigation } from 'react-router-dom';
 import { useSession } from '../../features/auth/api/get-session';
-import { CareCaution } from '../../components/Cautions';
+import { CareCaution } from '../../components/CareCaution';
 import { Button } from '../../components/ui/Button';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { Loading } from '../../components/ui/Panel';

@@ -5,7 +5,10 @@ import { RouterProvider, createMemoryRouter } from 'react-router-dom';
 import type { SessionDto } from '../../../../policies/dto';
 import { createQueryClient } from '../../lib/query-client';
 import { jsonResponse } from '../../test/render';
+import { loadAllScreens } from '../../test/lazy-routes';
 import { routes } from '../router';
+
+await loadAllScreens(routes);
 
 const fetchMock = vi.fn<typeof fetch>();
 beforeEach(() => vi.stubGlobal('fetch', fetchMock));

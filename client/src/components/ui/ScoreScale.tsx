@@ -1,4 +1,3 @@
-import { Controller, type Control, type FieldPath, type FieldValues } from 'react-hook-form';
 import { useId, type ReactNode } from 'react';
 import { fieldSentence } from '../../lib/form-errors';
 import { cx } from './cx';
@@ -114,20 +113,5 @@ export function ScoreScale({ label, value, onChange, onBlur, low, high, hint, er
         </p>
       )}
     </div>
-  );
-}
-
-/** A ScoreScale bound to a react-hook-form field. */
-export function ScoreField<T extends FieldValues>({
-  control,
-  name,
-  ...scale
-}: Omit<ScoreScaleProps, 'value' | 'onChange' | 'onBlur'> & { control: Control<T, any, any>; name: FieldPath<T> }) {
-  return (
-    <Controller
-      control={control}
-      name={name}
-      render={({ field }) => <ScoreScale {...scale} value={field.value} onChange={field.onChange} onBlur={field.onBlur} />}
-    />
   );
 }

@@ -8,7 +8,7 @@ import { formatDate } from '../../../lib/format';
 import { Button } from '../../../components/ui/Button';
 import { TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
-import { ScoreField } from '../../../components/ui/ScoreScale';
+import { ScoreField } from '../../../components/ui/ScoreField';
 import { useCreateCheckIn } from '../api/create-check-in';
 
 type Input = z.input<typeof CheckInSchema>;

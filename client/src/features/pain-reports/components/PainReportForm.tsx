@@ -14,7 +14,7 @@ import { todayLocal } from '../../../lib/dates';
 import { Button } from '../../../components/ui/Button';
 import { CheckboxGroup, TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice } from '../../../components/ui/Notice';
-import { ScoreField } from '../../../components/ui/ScoreScale';
+import { ScoreField } from '../../../components/ui/ScoreField';
 import { useCreatePainReport } from '../api/create-pain-report';
 import { BodyMap } from './BodyMap';
 import { EmergencyScreen, KeptOutcome, ReportOutcome } from './ReportOutcome';

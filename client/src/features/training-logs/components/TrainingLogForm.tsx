@@ -8,7 +8,7 @@ import { todayLocal } from '../../../lib/dates';
 import { Button } from '../../../components/ui/Button';
 import { TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice } from '../../../components/ui/Notice';
-import { ScoreField } from '../../../components/ui/ScoreScale';
+import { ScoreField } from '../../../components/ui/ScoreField';
 import { useCreateTrainingLog } from '../api/create-training-log';
 import { EMPTY_SET, logFormResolver, toNumber, toNumberOrNull, type LogFormValues, type SetRow } from './log-form';
 import { SessionEffortField } from './SessionEffortField';
