@@ -19,6 +19,7 @@ import { ClinicianHome } from './routes/clinician/caseload';
 import { ClinicianAthletePage } from './routes/staff/athlete-clinician';
 import { ClinicianCasePage } from './routes/clinician/case';
 import { ClinicianAuditPage } from './routes/clinician/audit';
+import { ADMIN_TEMPLATES_PATH, CLINICIAN_TEMPLATES_PATH, PlanTemplatePage, PlanTemplatesPage } from './routes/staff/plan-templates';
 import { ClinicianExceptionsPage } from './routes/clinician/exceptions';
 import { AthleteHome } from './routes/athlete';
 import { GuardianHome } from './routes/guardian';
@@ -69,6 +70,8 @@ export const routes = [
               { path: 'invitations', element: <InvitationsPage /> },
               { path: 'audit', element: <AuditPage /> },
               { path: 'injury-report', element: <InjuryReportPage /> },
+              { path: 'plan-templates', element: <PlanTemplatesPage base={ADMIN_TEMPLATES_PATH} /> },
+              { path: 'plan-templates/:templateId', element: <PlanTemplatePage base={ADMIN_TEMPLATES_PATH} /> },
               { path: 'outbox', element: <OutboxPage /> },
               { path: 'settings', element: <OrganizationSettingsPage /> },
             ],
@@ -91,6 +94,8 @@ export const routes = [
               { path: 'exceptions', element: <ClinicianExceptionsPage /> },
               { path: 'audit', element: <ClinicianAuditPage /> },
               { path: 'injury-report', element: <InjuryReportPage /> },
+              { path: 'plan-templates', element: <PlanTemplatesPage base={CLINICIAN_TEMPLATES_PATH} /> },
+              { path: 'plan-templates/:templateId', element: <PlanTemplatePage base={CLINICIAN_TEMPLATES_PATH} /> },
             ],
           },
           { path: '/athlete', element: <AthleteHome /> },

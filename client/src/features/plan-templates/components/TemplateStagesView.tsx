@@ -23,8 +23,8 @@ export function TemplateStagesView({ stages, unit }: { stages: TemplateStage[]; 
             </h3>
             <p className="mt-0.5 text-sm text-ink-2 tabular-nums">
               {dayRange(stage.startOffset, stage.endOffset)} ({stage.endOffset - stage.startOffset + 1} days)
-              {typeof stage.reviewOffset === 'number' && <> · review on day {stage.reviewOffset + 1}</>} · pain ceiling{' '}
-              {stage.painCeiling}/10
+              {typeof stage.reviewOffset === 'number' && <> · review on day {stage.reviewOffset + 1}</>} · pain ceiling {stage.painCeiling}
+              /10
             </p>
             {limited.length > 0 && (
               <table className="mt-2 w-full border-collapse text-left text-sm">
@@ -53,7 +53,9 @@ export function TemplateStagesView({ stages, unit }: { stages: TemplateStage[]; 
               </table>
             )}
             <p className="mt-1 text-sm text-muted">
-              {limited.length === 0 ? 'Every movement pattern is free in this stage.' : free.length > 0 && `No limits: ${patternList(free)}.`}
+              {limited.length === 0
+                ? 'Every movement pattern is free in this stage.'
+                : free.length > 0 && `No limits: ${patternList(free)}.`}
             </p>
             {stage.criteria && stage.criteria.length > 0 && (
               <div className="mt-2 text-sm">
