@@ -14,6 +14,16 @@ function page<M extends Record<string, unknown>>(load: () => Promise<M>, name: k
   return async () => ({ Component: (await load())[name] as ComponentType });
 }
 
+/** The plan templates' pages, the same for clinicians and admins under their own base path. */
+function templatesPage(who: 'admin' | 'clinician', which: 'list' | 'one'): RouteObject['lazy'] {
+  return async () => {
+    const m = await import('./routes/staff/plan-templates');
+    const base = who === 'admin' ? m.ADMIN_TEMPLATES_PATH : m.CLINICIAN_TEMPLATES_PATH;
+    const Page = which === 'list' ? m.PlanTemplatesPage : m.PlanTemplatePage;
+    return { Component: () => <Page base={base} /> };
+  };
+}
+
 export const routes: RouteObject[] = [
   {
     element: <RootLayout />,
@@ -49,6 +59,8 @@ export const routes: RouteObject[] = [
               { path: 'injury-report', lazy: page(() => import('./routes/staff/injury-report'), 'InjuryReportPage') },
               { path: 'outbox', lazy: page(() => import('./routes/admin/outbox'), 'OutboxPage') },
               { path: 'settings', lazy: page(() => import('./routes/admin/settings'), 'OrganizationSettingsPage') },
+              { path: 'plan-templates', lazy: templatesPage('admin', 'list') },
+              { path: 'plan-templates/:templateId', lazy: templatesPage('admin', 'one') },
             ],
           },
           { path: '/groups', lazy: page(() => import('./routes/groups'), 'GroupsPage') },
@@ -72,6 +84,8 @@ export const routes: RouteObject[] = [
               { path: 'exceptions', lazy: page(() => import('./routes/clinician/exceptions'), 'ClinicianExceptionsPage') },
               { path: 'audit', lazy: page(() => import('./routes/clinician/audit'), 'ClinicianAuditPage') },
               { path: 'injury-report', lazy: page(() => import('./routes/staff/injury-report'), 'InjuryReportPage') },
+              { path: 'plan-templates', lazy: templatesPage('clinician', 'list') },
+              { path: 'plan-templates/:templateId', lazy: templatesPage('clinician', 'one') },
             ],
           },
           { path: '/athlete', lazy: page(() => import('./routes/athlete'), 'AthleteHome') },

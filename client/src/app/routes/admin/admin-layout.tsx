@@ -8,6 +8,7 @@ const LINKS = [
   { to: '/admin/invitations', label: 'Invitations' },
   { to: '/admin/audit', label: 'Audit trail' },
   { to: '/admin/injury-report', label: 'Injury report' },
+  { to: '/admin/plan-templates', label: 'Plan templates' },
   { to: '/admin/outbox', label: 'Outbox' },
   { to: '/admin/settings', label: 'Organization settings' },
 ];

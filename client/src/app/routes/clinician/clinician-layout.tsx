@@ -8,6 +8,7 @@ const LINKS = [
   { to: '/clinician/exceptions', label: 'Exception requests', end: false },
   { to: '/clinician/audit', label: 'Audit trail', end: false },
   { to: '/clinician/injury-report', label: 'Injury report', end: false },
+  { to: '/clinician/plan-templates', label: 'Plan templates', end: false },
 ];
 
 /** The clinician's pages share one gate and a short menu. */

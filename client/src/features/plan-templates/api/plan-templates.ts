@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PlanTemplateDto, PlanTemplateSummaryDto } from '../../../../../policies/dto';
-import type { PlanTemplateFromPlanInput } from '../../../../../policies/schemas';
+import type { PlanTemplateFromPlanInput, PlanTemplateUpdateInput } from '../../../../../policies/schemas';
 import { api } from '../../../lib/api-client';
 
 /** Keys under the organization, so anything that refreshes the organization refreshes these too. */
@@ -37,5 +37,32 @@ export function useCopyPlanTemplate(orgId: string) {
   return useMutation({
     mutationFn: (id: string) => api.post<PlanTemplateDto>(`/orgs/${orgId}/plan-templates/${id}/copy`, {}),
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: keys.list(orgId) }),
+  });
+}
+
+export function usePlanTemplate(orgId: string, id: string) {
+  return useQuery(planTemplateQueryOptions(orgId, id));
+}
+
+/** Changes a template against the version its editor saw (409 when someone saved since). */
+export function useUpdatePlanTemplate(orgId: string, id: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: PlanTemplateUpdateInput) => api.put<PlanTemplateDto>(`/orgs/${orgId}/plan-templates/${id}`, input),
+    onSuccess: (dto) => {
+      queryClient.setQueryData(keys.one(orgId, id), dto);
+      void queryClient.invalidateQueries({ queryKey: keys.list(orgId), exact: true });
+    },
+  });
+}
+
+export function useArchivePlanTemplate(orgId: string, id: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (version: number) => api.post<PlanTemplateDto>(`/orgs/${orgId}/plan-templates/${id}/archive`, { version }),
+    onSuccess: (dto) => {
+      queryClient.setQueryData(keys.one(orgId, id), dto);
+      void queryClient.invalidateQueries({ queryKey: keys.list(orgId), exact: true });
+    },
   });
 }

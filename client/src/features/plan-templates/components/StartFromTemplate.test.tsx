@@ -63,4 +63,31 @@ describe('Start from a template (plan editor)', () => {
     // Still a draft: only reads went out.
     expect(fetchMock.mock.calls.every(([, init]) => (init?.method ?? 'GET') === 'GET')).toBe(true);
   });
+
+  it('names the template and the version it was started from when the plan is saved', async () => {
+    fetchMock.mockImplementation(async (url, init) => {
+      const { stages: _s, guidance: _g, ...summary } = template;
+      if (init?.method === 'POST') return jsonResponse(201, {});
+      return String(url).endsWith('/plan-templates') ? jsonResponse(200, [summary]) : jsonResponse(200, template);
+    });
+    const onSaved = vi.fn();
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" onSaved={onSaved} onCancel={vi.fn()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Start from a template' }));
+    fireEvent.change(await screen.findByLabelText('Template'), { target: { value: TEMPLATE } });
+    fireEvent.change(screen.getByLabelText('First day of the plan'), { target: { value: '2026-12-24' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Use this template' }));
+    await waitFor(() => expect(within(stage(2)).getByLabelText('Start date')).toHaveValue('2027-01-07'));
+    // Edited before saving: stage 1 ends a day later.
+    fireEvent.change(within(stage(2)).getByLabelText('Start date'), { target: { value: '2027-01-08' } });
+    fireEvent.change(within(stage(1)).getByLabelText('End date'), { target: { value: '2027-01-07' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save plan' }));
+    await waitFor(() => expect(onSaved).toHaveBeenCalled());
+    const post = fetchMock.mock.calls.find(([, init]) => init?.method === 'POST')!;
+    const body = JSON.parse(String(post[1]?.body));
+    expect(body.fromTemplate).toEqual({ id: TEMPLATE, version: template.version });
+    expect(body.stages.map((x: { startDate: string; endDate: string }) => [x.startDate, x.endDate])).toEqual([
+      ['2026-12-24', '2027-01-07'],
+      ['2027-01-08', '2027-01-20'],
+    ]);
+  });
 });

@@ -16,7 +16,7 @@ export function StartFromTemplate({
   onStages,
 }: {
   orgId: string;
-  onStages: (stages: PlanStage[], guidance: string, templateName: string) => void;
+  onStages: (stages: PlanStage[], guidance: string, template: { id: string; version: number; name: string }) => void;
 }) {
   const queryClient = useQueryClient();
   // Asked for only when wanted: most plans are written from a blank stage or an earlier plan.
@@ -47,7 +47,7 @@ export function StartFromTemplate({
     onStages(
       planStagesFromTemplate(t.stages, startDate, () => crypto.randomUUID()),
       t.guidance,
-      t.name,
+      { id: t.id, version: t.version, name: t.name },
     );
     setMessage(
       `Started from “${t.name}”: ${t.stages.length} ${t.stages.length === 1 ? 'stage' : 'stages'} dated from the start you chose. ` +

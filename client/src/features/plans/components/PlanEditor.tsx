@@ -118,6 +118,8 @@ export function PlanEditor({
   const [baseVersion, setBaseVersion] = useState(plan?.version ?? 0);
   const [copyFrom, setCopyFrom] = useState('');
   const [copied, setCopied] = useState<string | null>(null);
+  // The template the stages came from, named in the plan's creation audit entry (cleared by copying another plan's stages).
+  const [fromTemplate, setFromTemplate] = useState<{ id: string; version: number } | null>(null);
   const create = useCreatePlan(orgId, caseId);
   const update = useUpdatePlan(orgId, plan?.id ?? '');
   const save = plan ? update : create;
@@ -138,7 +140,7 @@ export function PlanEditor({
 
   const onSubmit = handleSubmit((payload) => {
     if (plan) update.mutate({ ...payload, version: baseVersion }, { onSuccess: onSaved });
-    else create.mutate(payload, { onSuccess: onSaved });
+    else create.mutate(fromTemplate ? { ...payload, fromTemplate } : payload, { onSuccess: onSaved });
   });
 
   async function loadLatest() {
@@ -159,6 +161,7 @@ export function PlanEditor({
       return;
     }
     replace(copiedStages(other.current.stages, unit));
+    setFromTemplate(null);
     setCopied(
       `Copied ${other.current.stages.length} ${other.current.stages.length === 1 ? 'stage' : 'stages'} from ${source.label}. ` +
         'Their dates are as they were there: check each one.',
@@ -181,8 +184,9 @@ export function PlanEditor({
         {!plan && (
           <StartFromTemplate
             orgId={orgId}
-            onStages={(stages, guidance) => {
+            onStages={(stages, guidance, template) => {
               replace(copiedStages(stages, unit));
+              setFromTemplate({ id: template.id, version: template.version });
               if (guidance && getValues('guidance').trim() === '') setValue('guidance', guidance);
             }}
           />
