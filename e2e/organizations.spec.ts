@@ -11,6 +11,9 @@ import { SLOW_HASH_MS, createInvitation, expectHome, expectNoSidewaysScroll, kee
 
 const PASSWORD = 'north-shore-boathouse-2026';
 
+// Each test hashes several passwords at the production bcrypt cost (sign-up, confirm, sign-in).
+test.describe.configure({ timeout: 180_000 });
+
 /** The newest sign-up confirmation e-mail to `to` for `organizationName`. */
 async function confirmLinkFor(to: string, organizationName: string): Promise<string> {
   const url = process.env.E2E_DATABASE_URL;
@@ -47,7 +50,7 @@ async function startOrganization(page: Page, o: { name: string; email: string; a
   await page.getByLabel('E-mail').fill(o.email);
   await page.getByLabel('Password').fill(PASSWORD);
   await page.getByRole('button', { name: 'Start the organization' }).click();
-  await expect(page.getByRole('status')).toContainText('we sent a link to that address');
+  await expect(page.getByRole('status')).toContainText('we sent a link to that address', { timeout: SLOW_HASH_MS });
 }
 
 /** Opens the e-mailed link and confirms; answers on the sign-in page that follows. */
@@ -56,7 +59,7 @@ async function confirm(page: Page, email: string, name: string) {
   await expect(page.getByRole('heading', { name: 'Confirm your e-mail' })).toBeVisible();
   await page.getByRole('button', { name: 'Confirm and start the organization' }).click();
   await expect(page.getByRole('heading', { name: 'Sign in to Loadline' })).toBeVisible({ timeout: SLOW_HASH_MS });
-  await expect(page.getByRole('status')).toContainText(`${name} is ready`);
+  await expect(page.getByRole('status')).toContainText(`${name} is ready`, { timeout: SLOW_HASH_MS });
   // The address bar no longer holds the used link.
   expect(page.url()).not.toContain('#');
 }

@@ -38,6 +38,8 @@ export const requestOrganizationSignup = publicCommand({
     const { token, tokenHash } = newInvitationToken();
     const passwordHash = await hashPassword(input.password, ctx.deps.config.BCRYPT_COST);
     const existingAccount = await ctx.m.exists(User, { where: { email: input.email } });
+    // Password hashes of links that expired unused are not kept: each new request clears them.
+    await ctx.m.query(`UPDATE organization_signups SET password_hash = NULL WHERE password_hash IS NOT NULL AND expires_at < now()`);
     const hours = ctx.deps.config.ORG_SIGNUP_TTL_HOURS;
     const signup = await ctx.m.save(
       ctx.m.create(OrganizationSignup, {

@@ -186,6 +186,10 @@ describe('starting an organization from the public page', () => {
 
     const made = await c.post('/api/org-signup/confirm', { token: 'x'.repeat(43) });
     expect(made.status).toBe(404);
+    // The next request anyone makes clears the expired request's password hash.
+    await requestToken(h.app, h.ds, form());
+    const [lateRow] = await h.ds.query(`SELECT password_hash FROM organization_signups WHERE email = $1`, [late.email]);
+    expect(lateRow.password_hash).toBeNull();
   });
 
   it('an address that already has an account keeps its password and gains the new organization beside its old one', async () => {
