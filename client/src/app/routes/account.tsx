@@ -5,6 +5,7 @@ import { useTwoStepStatus } from '../../features/auth/api/two-step';
 import { Facts, PageHeader, Panel } from '../../components/ui/Panel';
 import { ROLE_LABELS } from '../../../../policies/roles';
 import { useDocumentTitle } from '../../lib/use-document-title';
+import { CalendarFeedPanel } from '../../features/calendar-feed/components/CalendarFeedPanel';
 
 export function AccountPage() {
   useDocumentTitle('Your account');
@@ -13,6 +14,7 @@ export function AccountPage() {
   if (!user) return null;
   const memberships = session.data?.memberships ?? [];
   // Offered to anyone who holds clinical or admin rights anywhere; shown to anyone who already has it on.
+  const feedMemberships = memberships.filter((m) => m.roles.includes('athlete') || m.roles.includes('coach'));
   const offerTwoStep = memberships.some((m) => m.roles.includes('clinician') || m.roles.includes('admin'));
 
   return (
@@ -25,6 +27,15 @@ export function AccountPage() {
         <AccountForm user={user} />
       </Panel>
       {offerTwoStep ? <TwoStepSection /> : <TwoStepIfOn />}
+      {/* Athletes and coaches have a training calendar; one feed per organization. */}
+      {feedMemberships.map((m) => (
+        <CalendarFeedPanel
+          key={m.id}
+          orgId={m.organizationId}
+          organizationName={feedMemberships.length > 1 ? m.organizationName : undefined}
+          timeZone={m.timeZone}
+        />
+      ))}
       <Panel title="Organizations">
         {memberships.length === 0 ? (
           <p className="text-sm text-ink-2">You are not part of any organization.</p>
