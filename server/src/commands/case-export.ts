@@ -35,8 +35,8 @@ export const downloadCaseFhir = orgCommand<{ id: string }, { body: string; filen
          JOIN restriction_plan_versions v ON v.plan_id = p.id AND v.version = p.version WHERE p.case_id = $1`,
       [kase.id],
     );
-    // The athlete's signed letters from the case's opening (to its closing): letters are the athlete's,
-    // not the case's, so the case's dates choose them.
+    // The athlete's signed letters taking effect from the case's onset (to its closing): letters are the
+    // athlete's, not the case's, so the case's dates choose them.
     const letters: {
       id: string;
       status: 'signed' | 'superseded';
@@ -52,9 +52,9 @@ export const downloadCaseFhir = orgCommand<{ id: string }, { body: string; filen
       `SELECT id, status, signed_at, effective_from, created_by, decision, pdf, credential, licence_number, clinician_name
          FROM clearance_letters
         WHERE athlete_id = $1 AND organization_id = $2 AND status IN ('signed', 'superseded') AND pdf IS NOT NULL
-          AND signed_at >= $3 AND ($4::date IS NULL OR effective_from <= $4::date)
+          AND effective_from >= $3::date AND ($4::date IS NULL OR effective_from <= $4::date)
         ORDER BY signed_at, id`,
-      [kase.athleteId, actor.organizationId, kase.openedAt, kase.closedOn],
+      [kase.athleteId, actor.organizationId, kase.onsetDate, kase.closedOn],
     );
     const authorIds = [
       ...new Set([ctx.userId, kase.openedBy, plan?.created_by, ...letters.map((l) => l.created_by)].filter((x): x is string => !!x)),
@@ -66,7 +66,12 @@ export const downloadCaseFhir = orgCommand<{ id: string }, { body: string; filen
     const practitioners: FhirCaseInput['practitioners'] = people.map((p) => {
       // A letter names its signer's credential and licence as they signed it: the latest letter's words.
       const signed = letters.filter((l) => l.created_by === p.id).at(-1);
-      return { userId: p.id, name: signed?.clinician_name ?? p.name, credential: signed?.credential, licenceNumber: signed?.licence_number };
+      return {
+        userId: p.id,
+        name: signed?.clinician_name ?? p.name,
+        credential: signed?.credential,
+        licenceNumber: signed?.licence_number,
+      };
     });
     const bundle = caseBundle({
       now: ctx.now,
@@ -85,7 +90,9 @@ export const downloadCaseFhir = orgCommand<{ id: string }, { body: string; filen
       },
       practitioners,
       painReports: painReports.map((r) => ({ id: r.id, reportedAt: r.reported_at, painNow: r.pain_now, bodyRegions: r.body_regions })),
-      plan: plan ? { id: plan.id, version: plan.version, stages: plan.stages, createdBy: plan.created_by, createdAt: plan.created_at } : null,
+      plan: plan
+        ? { id: plan.id, version: plan.version, stages: plan.stages, createdBy: plan.created_by, createdAt: plan.created_at }
+        : null,
       letters: letters.map((l) => ({
         id: l.id,
         status: l.status,

@@ -205,6 +205,7 @@ describe('the route table', () => {
         "POST   /api/orgs/:orgId/calendar-feed  ⇒  member: create CalendarFeed",
         "DELETE /api/orgs/:orgId/calendar-feed  ⇒  member: delete CalendarFeed",
         "GET    /api/calendar/:token.ics  ⇒  public",
+        "GET    /api/orgs/:orgId/cases/:id/fhir  ⇒  member: read CaseExport",
       ]
     `);
   });

@@ -22,7 +22,11 @@ import type { Unit } from '../../../policies/schemas/common';
  * the tests validate every Bundle with FHIR.js's R4 definitions.
  */
 
-export const PAIN_LOINC = { system: 'http://loinc.org', code: '72514-3', display: 'Pain severity - 0-10 verbal numeric rating [Score] - Reported' };
+export const PAIN_LOINC = {
+  system: 'http://loinc.org',
+  code: '72514-3',
+  display: 'Pain severity - 0-10 verbal numeric rating [Score] - Reported',
+};
 const CONDITION_CLINICAL = 'http://terminology.hl7.org/CodeSystem/condition-clinical';
 const OBSERVATION_CATEGORY = 'http://terminology.hl7.org/CodeSystem/observation-category';
 const CONDITION_CATEGORY = 'http://terminology.hl7.org/CodeSystem/condition-category';
@@ -106,7 +110,13 @@ function carePlan(input: FhirCaseInput, plan: NonNullable<FhirCaseInput['plan']>
     for (const p of MOVEMENT_PATTERNS) {
       if (stage.patterns[p]?.mode !== 'blocked') continue;
       activity.push({
-        detail: { status, doNotPerform: true, code: text(PATTERN_LABELS[p]), scheduledPeriod: period, description: `${PATTERN_LABELS[p]}: not allowed in this stage` },
+        detail: {
+          status,
+          doNotPerform: true,
+          code: text(PATTERN_LABELS[p]),
+          scheduledPeriod: period,
+          description: `${PATTERN_LABELS[p]}: not allowed in this stage`,
+        },
       });
     }
   });

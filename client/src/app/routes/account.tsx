@@ -9,6 +9,7 @@ import { useContext } from 'react';
 import { useAppAbility } from '../../lib/ability';
 import { MembershipContext } from '../../lib/membership-context';
 import { RecordExportPanel } from '../../features/record-export/components/RecordExportPanel';
+import { CalendarFeedPanel } from '../../features/calendar-feed/components/CalendarFeedPanel';
 
 export function AccountPage() {
   useDocumentTitle('Your account');
@@ -19,6 +20,7 @@ export function AccountPage() {
   if (!user) return null;
   const memberships = session.data?.memberships ?? [];
   // Offered to anyone who holds clinical or admin rights anywhere; shown to anyone who already has it on.
+  const feedMemberships = memberships.filter((m) => m.roles.includes('athlete') || m.roles.includes('coach'));
   const offerTwoStep = memberships.some((m) => m.roles.includes('clinician') || m.roles.includes('admin'));
 
   return (
@@ -33,6 +35,15 @@ export function AccountPage() {
       {/* The athlete's own record, a guardian's minors': whoever the rules let ask in this organization. */}
       {current && ability.can('create', 'RecordExport') ? <RecordExportPanel orgId={current.orgId} /> : null}
       {offerTwoStep ? <TwoStepSection /> : <TwoStepIfOn />}
+      {/* Athletes and coaches have a training calendar; one feed per organization. */}
+      {feedMemberships.map((m) => (
+        <CalendarFeedPanel
+          key={m.id}
+          orgId={m.organizationId}
+          organizationName={feedMemberships.length > 1 ? m.organizationName : undefined}
+          timeZone={m.timeZone}
+        />
+      ))}
       <Panel title="Organizations">
         {memberships.length === 0 ? (
           <p className="text-sm text-ink-2">You are not part of any organization.</p>

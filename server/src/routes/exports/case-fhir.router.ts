@@ -10,7 +10,8 @@ export const caseFhirRoutes: RouteDef[] = [
   orgRoute({
     method: 'get',
     path: '/orgs/:orgId/cases/:id/fhir',
-    summary: "The case as a FHIR R4 Bundle: patient, condition, pain scores, the restriction plan and the signed letter (clinicians on the care team; audited, never cached)",
+    summary:
+      'The case as a FHIR R4 Bundle: patient, condition, pain scores, the restriction plan and the signed letter (clinicians on the care team; audited, never cached)',
     access: { kind: 'org', action: 'read', subject: 'CaseExport' },
     command: downloadCaseFhir,
     params: OrgItemParamsSchema,

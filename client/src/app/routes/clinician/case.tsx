@@ -10,6 +10,7 @@ import { StatusTimeline } from '../../../features/cases/components/StatusTimelin
 import { regionsText } from '../../../features/cases/components/case-words';
 import { InForcePanel } from '../../../features/plans/components/InForcePanel';
 import { ClearanceLetters } from '../../../features/letters/components/ClearanceLetters';
+import { CaseFhirExport } from '../../../features/case-export/components/CaseFhirExport';
 import { PlanSection } from '../../../features/plans/components/PlanSection';
 import { CaseDocuments } from '../../../features/documents/components/CaseDocuments';
 import { ClinicalRecordCaution } from '../../../components/Cautions';
@@ -53,6 +54,7 @@ function CaseScreen({ detail }: { detail: CaseDetailDto }) {
   const canSetStatus = canUpdate && ability.can('create', asSubject('ParticipationStatus', scope));
   const canCreatePlan = ability.can('create', asSubject('RestrictionPlan', { id: '', ...scope }));
   const canUpdatePlan = ability.can('update', asSubject('RestrictionPlan', { id: detail.planId ?? '', ...scope }));
+  const canExport = ability.can('read', asSubject('CaseExport', scope));
   const open = !detail.closedOn;
   const copySources = (cases.data ?? [])
     .filter((c) => c.id !== detail.id && c.planId)
@@ -128,6 +130,8 @@ function CaseScreen({ detail }: { detail: CaseDetailDto }) {
       <InForcePanel orgId={orgId} athleteId={detail.athleteId} unit={user.unitPref} />
 
       <ClearanceLetters orgId={orgId} athleteId={detail.athleteId} athleteName={detail.athleteName} />
+
+      {canExport && <CaseFhirExport orgId={orgId} caseId={detail.id} />}
 
       {canUpdate && open && (
         <Panel title="Close the case">
