@@ -35,12 +35,14 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
   pool.on('error', (err) => logger.warn({ err }, 'database pool: idle client error'));
   // E-mail goes through the queue; this process also works the queue unless told not to.
   let jobs: JobQueue | null = null;
+  let closeTransport = () => {};
   if (config.SMTP_URL) {
     jobs = new JobQueue(config.DATABASE_URL, logger);
     await jobs.start();
     if (config.RUN_WORKERS === 'true') {
-      const transport = createTransport(config.SMTP_URL);
-      await jobs.work((job) => deliver(ds, transport, logger, job.deliveryId));
+      const transport = createTransport(config.SMTP_URL, config.MAIL_CONCURRENCY);
+      closeTransport = () => transport.close();
+      await jobs.work((job) => deliver(ds, transport, logger, job.deliveryId), { concurrency: config.MAIL_CONCURRENCY });
       // The daily audit seal (ASVS 5.0 V16.4.3): pg-boss sends one job per day, worked by one server.
       if (config.AUDIT_SEAL_KEY) {
         const sealDeps = { ds, key: config.AUDIT_SEAL_KEY, dir: config.AUDIT_SEAL_DIR ?? DEFAULT_AUDIT_SEAL_DIR, queue: jobs, logger };
@@ -103,6 +105,7 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
         });
         // Then the queue: pg-boss stops fetching and waits for the job in hand (graceful stop).
         await jobs?.stop();
+        closeTransport();
         await close();
         await ds.destroy();
         logger.info('stopped');
