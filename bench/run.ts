@@ -1,7 +1,7 @@
-/** `npm run bench`: the engine timings, the team fitting beside the engine, then the HTTP benchmark. */
+/** `npm run bench`: the engine timings, the team fitting beside the engine, the letter PDF, e-mail throughput, then the HTTP benchmark. */
 import { spawnSync } from 'node:child_process';
 
-for (const file of ['bench/engine.ts', 'bench/team-fit.ts', 'bench/http.ts']) {
+for (const file of ['bench/engine.ts', 'bench/team-fit.ts', 'bench/letter-pdf.ts', 'bench/mail.ts', 'bench/http.ts']) {
   console.log(`\n=== ${file} ===`);
   const r = spawnSync('node', ['--import', 'tsx', file], { stdio: 'inherit' });
   if (r.status !== 0) process.exit(r.status ?? 1);
