@@ -95,6 +95,11 @@ const ConfigSchema = z.object({
   FAKE_MAIL: z.enum(['true', 'false']).default('false'),
   /** Run the e-mail worker in this process (one or more app servers may do so). */
   RUN_WORKERS: z.enum(['true', 'false']).default('true'),
+  /**
+   * E-mails this server's worker sends at once (each holds an SMTP connection of a shared pool and,
+   * briefly, a database connection). 8 sends well over 50 a second to the local fake SMTP (bench/mail.ts).
+   */
+  MAIL_CONCURRENCY: z.coerce.number().int().min(1).max(50).default(8),
   /** Uploaded files on local disk (default `<repo>/.data/uploads`); unused when S3_BUCKET is set. */
   STORAGE_DIR: z.string().optional(),
   /** Upload size limits in MB (fractions allowed, so tests can use small ones). */

@@ -100,7 +100,11 @@ export const LOG_REDACT = {
 
 export const LOG_SERIALIZERS = { err: serializeErr };
 
-/** The process's logger; `destination` lets a test capture what would be written. */
+/**
+ * The process's logger; `destination` lets a test capture what would be written. Otherwise lines go
+ * to standard output asynchronously (a request's log line no longer waits for its write; pino flushes
+ * what is pending when the process exits, process.exit included).
+ */
 export function createLogger(level: string, destination?: DestinationStream): Logger {
   const options = {
     level,
@@ -110,5 +114,5 @@ export function createLogger(level: string, destination?: DestinationStream): Lo
     redact: LOG_REDACT,
     hooks: { logMethod },
   };
-  return destination ? pino(options, destination) : pino(options);
+  return pino(options, destination ?? pino.destination({ dest: 1, sync: false }));
 }

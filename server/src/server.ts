@@ -38,12 +38,14 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
   pool.on('error', (err) => logger.warn({ err }, 'database pool: idle client error'));
   // E-mail goes through the queue; this process also works the queue unless told not to.
   let jobs: JobQueue | null = null;
+  let closeTransport = () => {};
   if (config.SMTP_URL) {
     jobs = new JobQueue(config.DATABASE_URL, logger);
     await jobs.start();
     if (config.RUN_WORKERS === 'true') {
-      const transport = createTransport(config.SMTP_URL);
-      await jobs.work((job) => deliver(ds, transport, logger, job.deliveryId));
+      const transport = createTransport(config.SMTP_URL, config.MAIL_CONCURRENCY);
+      closeTransport = () => transport.close();
+      await jobs.work((job) => deliver(ds, transport, logger, job.deliveryId), { concurrency: config.MAIL_CONCURRENCY });
       // Copies of a person's whole record (services/record-export-job.ts), built one at a time.
       const exportDeps = { ds, config, logger, jobs, storage: createStorage(config) };
       await jobs.workRecordExports((job, lastTry) => buildRecordExport(exportDeps, job.exportId, lastTry));
@@ -112,6 +114,7 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
         });
         // Then the queue: pg-boss stops fetching and waits for the job in hand (graceful stop).
         await jobs?.stop();
+        closeTransport();
         await close();
         await ds.destroy();
         logger.info('stopped');

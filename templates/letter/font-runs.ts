@@ -1,4 +1,6 @@
+import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
+import { woffToSfnt } from './woff';
 
 const require = createRequire(import.meta.url);
 
@@ -47,13 +49,22 @@ export function fontRuns(text: string): FontRun[] {
 
 export type Weight = 'Body' | 'Bold';
 
-export function fontFiles(): { name: string; file: string }[] {
-  return (['Body', 'Bold'] as const).flatMap((weight) =>
+/**
+ * The fonts to register with pdfkit: each subset's WOFF file from the package, unwrapped once per
+ * process into the plain font inside it (woff.ts: fontkit would otherwise inflate the glyph table
+ * again for every glyph of every document).
+ */
+let loaded: { name: string; file: Buffer }[] | null = null;
+export function fontFiles(): { name: string; file: Buffer }[] {
+  loaded ??= (['Body', 'Bold'] as const).flatMap((weight) =>
     SUBSETS.map((subset) => ({
       name: fontName(weight, subset),
-      file: require.resolve(`@fontsource/public-sans/files/public-sans-${subset}-${weight === 'Body' ? 400 : 700}-normal.woff`),
+      file: woffToSfnt(
+        readFileSync(require.resolve(`@fontsource/public-sans/files/public-sans-${subset}-${weight === 'Body' ? 400 : 700}-normal.woff`)),
+      ),
     })),
   );
+  return loaded;
 }
 
 export function fontName(weight: Weight, subset: Subset): string {

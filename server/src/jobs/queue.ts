@@ -134,9 +134,23 @@ export class JobQueue {
     });
   }
 
-  async work(handler: (job: EmailJob) => Promise<void>): Promise<void> {
-    await this.boss.work<EmailJob>(EMAIL_QUEUE, { pollingIntervalSeconds: 0.5 }, async (jobs) => {
-      for (const job of jobs) await handler(job.data);
+  /**
+   * Works e-mail jobs: up to `batchSize` fetched at once, up to `concurrency` of them sent at a time
+   * (one at a time, with the poll's half-second pause between fetches, made ≈ 2 messages a second).
+   * Each job succeeds or fails on its own: a failed one is handed back to pg-boss for its retry with
+   * back-off, the others of its batch complete. A crash leaves the fetched jobs active until they
+   * expire, then pg-boss retries them: a message sent but not yet marked sent can go twice, as before.
+   */
+  async work(handler: (job: EmailJob) => Promise<void>, { concurrency = 8, batchSize = 50 } = {}): Promise<void> {
+    await this.boss.work<EmailJob>(EMAIL_QUEUE, { pollingIntervalSeconds: 0.5, batchSize }, async (jobs) => {
+      await eachBounded(jobs, concurrency, async (job) => {
+        try {
+          await handler(job.data);
+        } catch (err) {
+          // pg-boss completes the batch's jobs still active; this one is in `retry` (or `failed`) by then.
+          await this.boss.fail(EMAIL_QUEUE, job.id, { message: (err as Error)?.message?.slice(0, 500) ?? 'failed' });
+        }
+      });
     });
   }
 
@@ -145,6 +159,15 @@ export class JobQueue {
     await this.boss.stop({ graceful: true, wait: true, timeout: 10_000 });
     this.started = false;
   }
+}
+
+/** Runs `fn` over `items` with at most `limit` at a time; resolves when all have settled. */
+async function eachBounded<T>(items: T[], limit: number, fn: (item: T) => Promise<void>): Promise<void> {
+  let next = 0;
+  const lane = async () => {
+    while (next < items.length) await fn(items[next++]);
+  };
+  await Promise.all(Array.from({ length: Math.min(limit, items.length) }, lane));
 }
 
 /**

@@ -46,6 +46,21 @@ describe('with the worker running', () => {
     await waitFor('the committed e-mail', async () => (await mailTo(h.ds, [to])).length === 1);
   });
 
+  it('a batch queued at once (a squad notice) goes out concurrently, each message exactly once', async () => {
+    const tag = randomUUID();
+    const to = Array.from({ length: 30 }, (_, i) => `batch-${i}-${tag}@test.example`);
+    const ids = await h.ds.transaction(async (m) => {
+      const out: string[] = [];
+      for (const address of to) out.push((await enqueueEmail(m, h.jobs!, sample(address)))!);
+      return out;
+    });
+    await waitFor('the whole batch', async () => (await deliveriesWhere(h.ds, `id = ANY($1) AND status = 'sent'`, [ids])).length === 30);
+    const mail = await mailTo(h.ds, to);
+    expect(mail.map((x) => x.envelope_to[0]).sort()).toEqual([...to].sort());
+    expect((await deliveriesWhere(h.ds, 'id = ANY($1)', [ids])).every((r) => r.attempts === 1)).toBe(true);
+    await waitFor('their jobs completed', async () => (await jobsFor(h.ds, ids)).every((j) => j.state === 'completed'));
+  });
+
   it('CR or LF in a recipient address or subject is refused, and nothing is queued', async () => {
     const tag = randomUUID();
     for (const input of [

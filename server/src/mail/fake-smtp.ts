@@ -15,7 +15,8 @@ export interface FakeSmtp {
  * Never used when SMTP_URL points at a real provider.
  */
 export async function startFakeSmtp(databaseUrl: string, port = 0): Promise<FakeSmtp> {
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 3 });
+  // Enough connections for the worker's concurrent sends (MAIL_CONCURRENCY, bench/mail.ts).
+  const pool = new pg.Pool({ connectionString: databaseUrl, max: 10 });
   pool.on('error', () => undefined);
   const server = new SMTPServer({
     authOptional: true,
