@@ -24,6 +24,8 @@ const ORG_FREE_IDENTIFIERS = [
   'signupStatusKey',
   '[PREVIEW_KEY, token]',
   'queryKeys.letterCheck(code)',
+  // The offline copy puts back keys it saved from the queries themselves (already organization-keyed).
+  'entry.key',
 ];
 
 type Factory = (...args: unknown[]) => readonly unknown[];
