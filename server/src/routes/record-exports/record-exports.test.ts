@@ -1,15 +1,15 @@
-import { Readable } from 'node:stream';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { strFromU8, unzipSync } from 'fflate';
 import type { RecordExportsDto } from '../../../../policies/dto';
-import { CaseDocument, CaseRecord, CheckIn, Clip, GuardianLink, PainReport, TrainingLog } from '../../entities';
+import { CaseDocument, CaseRecord, GuardianLink } from '../../entities';
 import { deliveriesWhere, mailTo, signLetter, waitFor } from '../../mail/mail-fixtures';
 import { NO_LONGER_ALLOWED, buildRecordExport, sweepExpiredCopies } from '../../services/record-export-job';
 import { createStorage } from '../../storage';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { PDF, webm } from '../uploads/fixtures';
+import { PDF } from '../uploads/fixtures';
 import pino from 'pino';
+import { CLINICAL_NOTE, DIAGNOSIS, OTHER_PERSON, PAIN_NARRATIVE, plantRecord } from './record-export-fixtures';
 
 /**
  * A person's whole record (issue 16, part 3): asked for over HTTP, built by the real pg-boss worker,
@@ -18,95 +18,10 @@ import pino from 'pino';
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' }, { mail: true });
 const logger = pino({ level: 'silent' });
 
-/** Strings planted in records the ZIP must or must not carry. */
-const CLINICAL_NOTE = 'CLINICAL-NOTE-ONLY-FOR-THE-CARE-TEAM';
-const DIAGNOSIS = 'Patellar tendinopathy, left';
-const PAIN_NARRATIVE = 'ATHLETE-PAIN-NARRATIVE';
-const OTHER_PERSON = 'ANOTHER-ATHLETES-LOG';
-
 let org: TestOrg;
 let orgB: TestOrg;
 let athlete: Client;
 let guardian: Client;
-
-async function plantRecord(ds: typeof h.ds, o: TestOrg) {
-  const a = o.athlete.membershipId;
-  const c = await ds.getRepository(CaseRecord).save({
-    organizationId: o.id,
-    athleteId: a,
-    bodyRegions: ['knee_left'],
-    onsetDate: '2026-11-01',
-    diagnosis: DIAGNOSIS,
-    clinicalNotes: CLINICAL_NOTE,
-    reviewDate: null,
-    openedBy: null,
-  });
-  await ds.getRepository(PainReport).save({
-    organizationId: o.id,
-    athleteId: a,
-    reportedBy: o.athlete.userId,
-    bodyRegions: ['knee_left'],
-    painNow: 3,
-    painWorst24h: 4,
-    onsetDate: '2026-11-01',
-    aggravatingPatterns: [],
-    startedInTraining: true,
-    note: PAIN_NARRATIVE,
-    redFlags: {},
-    route: 'routine',
-    caseId: c.id,
-  });
-  await ds
-    .getRepository(CheckIn)
-    .save({ organizationId: o.id, athleteId: a, date: '2026-11-20', sleepHours: 7.5, soreness: 2, readiness: 4, painNow: 2 });
-  const log = await ds.getRepository(TrainingLog).save({
-    organizationId: o.id,
-    athleteId: a,
-    date: '2026-11-30',
-    durationMinutes: 60,
-    sessionRpe: 6,
-    painBefore: 0,
-    painDuring: 1,
-    painNextMorning: null,
-    painCeiling: 3,
-    sets: [{ exercise: 'Back squat', loadKg: 60, reps: 5 }],
-    notes: 'felt fine',
-  });
-  // Another athlete's log in the same organization: it must never leave in this record.
-  await ds.getRepository(TrainingLog).save({ ...log, id: undefined, athleteId: o.otherAthlete.membershipId, notes: OTHER_PERSON });
-  const storage = createStorage(h.config);
-  await storage.put(`test-record/${c.id}/doc`, Readable.from(PDF), { size: PDF.length, contentType: 'application/pdf' });
-  await ds.getRepository(CaseDocument).save({
-    organizationId: o.id,
-    athleteId: a,
-    caseId: c.id,
-    title: 'MRI report',
-    documentDate: '2026-11-05',
-    issuedBy: 'Imaging centre',
-    mediaType: 'application/pdf',
-    sizeBytes: String(PDF.length),
-    sha256: 'a'.repeat(64),
-    storageKey: `test-record/${c.id}/doc`,
-    uploadedByUserId: o.athlete.userId,
-    uploadedByName: o.athlete.name,
-  });
-  const video = webm(2000);
-  await storage.put(`test-record/${c.id}/clip`, Readable.from(video), { size: video.length, contentType: 'video/webm' });
-  await ds.getRepository(Clip).save({
-    organizationId: o.id,
-    athleteId: a,
-    trainingLogId: log.id,
-    exercise: 'Back squat',
-    caption: 'top set',
-    mediaType: 'video/webm',
-    sizeBytes: String(video.length),
-    sha256: 'b'.repeat(64),
-    storageKey: `test-record/${c.id}/clip`,
-    uploadedByUserId: o.athlete.userId,
-    uploadedByName: o.athlete.name,
-  });
-  return { caseId: c.id, video };
-}
 
 let planted: Awaited<ReturnType<typeof plantRecord>>;
 
@@ -117,7 +32,7 @@ beforeAll(async () => {
   );
   org = await createOrg(h.ds);
   orgB = await createOrg(h.ds);
-  planted = await plantRecord(h.ds, org);
+  planted = await plantRecord(h.ds, h.config, org);
   await signLetter(h.app, org);
   athlete = await signedIn(h.app, org.athlete.email, TEST_PASSWORD);
   guardian = await signedIn(h.app, org.guardian.email, TEST_PASSWORD);
