@@ -30,8 +30,11 @@ export function refreshAfterPlanChange(queryClient: QueryClient, orgId: string, 
   void queryClient.invalidateQueries({ queryKey: queryKeys.planVersions(orgId, plan.id) });
   // What hangs under the plan (its stage criteria, read against the plan's thresholds) is read again;
   // the plan itself was just set above.
-  const planKey = queryKeys.plan(orgId, plan.id);
-  void queryClient.invalidateQueries({ queryKey: planKey, predicate: (q) => q.queryKey.length > planKey.length });
+  const planKeyLength = queryKeys.plan(orgId, plan.id).length;
+  void queryClient.invalidateQueries({
+    queryKey: queryKeys.plan(orgId, plan.id),
+    predicate: (q) => q.queryKey.length > planKeyLength,
+  });
   void queryClient.invalidateQueries({ queryKey: queryKeys.caseLists(orgId) });
   void queryClient.invalidateQueries({ queryKey: queryKeys.caseload(orgId) });
   void queryClient.invalidateQueries({ queryKey: queryKeys.inForceAll(orgId) });
