@@ -19,6 +19,28 @@ const launchOptions = {
   ],
 };
 
+/**
+ * The phone project runs the specs whose subject is a phone screen: the athlete's and the guardian's
+ * flows, offline use, the phone layouts (sideways scroll, the plan editor at 375 px), and the pages'
+ * accessibility for the people who use Loadline on a phone. Staff flows run on the desktop project and
+ * open a phone inside them where a phone is part of the story (uploads, team programs, letters…).
+ * This keeps the browser tests to one pass per screen rather than two of everything.
+ */
+const PHONE_SPECS = [
+  'accessibility',
+  'answer-contrast',
+  'athlete',
+  'athlete-week',
+  'demo',
+  'offline',
+  'organizations',
+  'pain-rule',
+  'plan-editor-phone',
+  'record-export',
+].map((name) => `**/${name}.spec.ts`);
+/** Specs about the phone alone: nothing to run on the desktop project. */
+const PHONE_ONLY_SPECS = ['athlete', 'plan-editor-phone'].map((name) => `**/${name}.spec.ts`);
+
 export default defineConfig({
   testDir: 'e2e',
   fullyParallel: false,
@@ -33,7 +55,11 @@ export default defineConfig({
     trace: 'off',
   },
   projects: [
-    { name: 'desktop', use: { ...devices['Desktop Chrome'], launchOptions } },
-    { name: 'phone', use: { viewport: { width: 375, height: 740 }, isMobile: true, hasTouch: true, launchOptions } },
+    { name: 'desktop', testIgnore: PHONE_ONLY_SPECS, use: { ...devices['Desktop Chrome'], launchOptions } },
+    {
+      name: 'phone',
+      testMatch: PHONE_SPECS,
+      use: { viewport: { width: 375, height: 740 }, isMobile: true, hasTouch: true, launchOptions },
+    },
   ],
 });
