@@ -93,6 +93,7 @@ test.describe('words on screens', () => {
       await expectNoIsoDate(page, path);
     }
     await page.getByRole('button', { name: 'Sign out' }).click();
+    await expect(page.getByRole('heading', { name: 'Sign in to Loadline' })).toBeVisible();
 
     await signIn(page, DEMO.elena.email);
     await expectHome(page, HOME_HEADING.guardian);

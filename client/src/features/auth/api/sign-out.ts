@@ -16,10 +16,14 @@ export function useSignOut() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signOut,
-    onSuccess: (session) => {
-      // A shared phone keeps nobody's records after a sign-out: the offline copies and outboxes go too.
+    // A shared phone keeps nobody's records after a sign-out: the offline copies and outboxes go as soon
+    // as it is asked for, so a page closed or left before the server answers cannot bring them back
+    // (and with them the last person's screens) on the next start.
+    onMutate: () => {
       clearOfflineCopies();
       clearAllOutboxes();
+    },
+    onSuccess: (session) => {
       queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== sessionQueryKey[0] });
       queryClient.setQueryData(sessionQueryKey, session);
     },
