@@ -32,14 +32,12 @@ describe('a started roster import', () => {
   });
 
   it('when done, sums up what was created, left unchanged and left out, and the invitations queued', () => {
-    show(
-      importDto({ status: 'done', totalRows: 6, processed: 6, created: 4, updated: 1, unchanged: 0, skipped: 1, invitations: 5 }),
-    );
+    show(importDto({ status: 'done', totalRows: 6, processed: 6, created: 4, updated: 1, unchanged: 0, skipped: 1, invitations: 5 }));
     expect(screen.getByRole('status')).toHaveTextContent('The import of roster.csv is done');
     const summary = within(screen.getByTestId('roster-summary'));
     const value = (label: string) => summary.getByText(label).nextSibling;
     expect(value('Rows in the file')).toHaveTextContent('6');
-    expect(value('People added')).toHaveTextContent('4');
+    expect(value('Athletes added')).toHaveTextContent('4');
     expect(value('Already here, completed')).toHaveTextContent('1');
     expect(value('Already here, unchanged')).toHaveTextContent('0');
     expect(value('Left out (problems)')).toHaveTextContent('1');

@@ -49,7 +49,7 @@ const counts = () => within(screen.getByTestId('roster-counts'));
 describe('the roster preview', () => {
   it('counts new, already here and problem rows, and names each problem’s column in a sentence', () => {
     renderWithProviders(<RosterPreview preview={MIXED} onImport={() => {}} importing={false} error={null} />);
-    expect(counts().getByText('New people').nextSibling).toHaveTextContent('1');
+    expect(counts().getByText('New athletes').nextSibling).toHaveTextContent('1');
     expect(counts().getByText('Already here, with something to add').nextSibling).toHaveTextContent('1');
     expect(counts().getByText('Already here, unchanged').nextSibling).toHaveTextContent('1');
     expect(counts().getByText('With problems').nextSibling).toHaveTextContent('3');

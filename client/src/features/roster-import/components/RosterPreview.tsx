@@ -36,7 +36,7 @@ export function RosterPreview({
         <Facts
           items={[
             { label: 'Rows in the file', value: counts.rows.toLocaleString('en-US') },
-            { label: 'New people', value: counts.create.toLocaleString('en-US') },
+            { label: 'New athletes', value: counts.create.toLocaleString('en-US') },
             { label: 'Already here, with something to add', value: counts.update.toLocaleString('en-US') },
             { label: 'Already here, unchanged', value: counts.unchanged.toLocaleString('en-US') },
             { label: 'With problems', value: counts.skip.toLocaleString('en-US') },

@@ -45,7 +45,7 @@ export function summaryFacts(r: RosterImportDto): Array<{ label: string; value: 
   const n = (v: number) => v.toLocaleString('en-US');
   return [
     { label: 'Rows in the file', value: n(r.totalRows) },
-    { label: 'People added', value: n(r.created) },
+    { label: 'Athletes added', value: n(r.created) },
     { label: 'Already here, completed', value: n(r.updated) },
     { label: 'Already here, unchanged', value: n(r.unchanged) },
     { label: 'Left out (problems)', value: n(r.skipped) },
