@@ -27,6 +27,8 @@ async function check(page: Page, body: string) {
   await page.getByLabel('Roster file (CSV)').setInputFiles({ name: 'roster.csv', mimeType: 'text/csv', buffer: Buffer.from(body) });
   await page.getByRole('button', { name: 'Check the file' }).click();
   await expect(page.getByRole('heading', { name: 'What importing roster.csv would do' })).toBeVisible();
+  // The result takes the focus, so a keyboard or screen reader user lands on it (WCAG 2.4.3, focus order).
+  await expect(page.getByTestId('roster-preview')).toBeFocused();
 }
 
 const count = (page: Page, label: string) =>
@@ -36,6 +38,7 @@ const summary = (page: Page, label: string) =>
 
 async function importAndWait(page: Page, rows: number) {
   await page.getByRole('button', { name: `Import ${rows} rows` }).click();
+  await expect(page.getByTestId('roster-progress')).toBeFocused();
   // The queue's worker polls every second and imports 25 rows per batch: a few seconds here.
   await expect(page.getByRole('status').filter({ hasText: 'The import of roster.csv is done' })).toBeVisible({ timeout: 20_000 });
 }

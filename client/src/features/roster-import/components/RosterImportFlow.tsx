@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import type { RosterPreviewDto } from '../../../../../policies/dto';
 import { Button } from '../../../components/ui/Button';
@@ -17,13 +17,20 @@ export function RosterImportFlow({ orgId }: { orgId: string }) {
   const [params, setParams] = useSearchParams();
   const importId = params.get(IMPORT_PARAM);
   const [preview, setPreview] = useState<RosterPreviewDto | null>(null);
+  const [startedHere, setStartedHere] = useState(false);
   const start = useStartRosterImport(orgId);
+  // A new preview appears below the form: focus moves to it, so a keyboard or screen reader user lands on the result.
+  const previewRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (preview) previewRef.current?.focus();
+  }, [preview]);
 
   if (importId)
     return (
       <StartedImport
         orgId={orgId}
         importId={importId}
+        takeFocus={startedHere}
         onAnother={() => {
           setPreview(null);
           start.reset();
@@ -43,21 +50,45 @@ export function RosterImportFlow({ orgId }: { orgId: string }) {
         />
       </Panel>
       {preview && (
-        <Panel title={`What importing ${preview.import.fileName ?? 'the file'} would do`}>
-          <RosterPreview
-            preview={preview}
-            importing={start.isPending}
-            error={start.error}
-            onImport={() => start.mutate(preview.import.id, { onSuccess: (started) => setParams({ [IMPORT_PARAM]: started.id }) })}
-          />
-        </Panel>
+        <div ref={previewRef} tabIndex={-1} data-testid="roster-preview" className="outline-none">
+          <Panel title={`What importing ${preview.import.fileName ?? 'the file'} would do`}>
+            <RosterPreview
+              preview={preview}
+              importing={start.isPending}
+              error={start.error}
+              onImport={() =>
+                start.mutate(preview.import.id, {
+                  onSuccess: (started) => {
+                    setStartedHere(true);
+                    setParams({ [IMPORT_PARAM]: started.id });
+                  },
+                })
+              }
+            />
+          </Panel>
+        </div>
       )}
     </>
   );
 }
 
-function StartedImport({ orgId, importId, onAnother }: { orgId: string; importId: string; onAnother: () => void }) {
+function StartedImport({
+  orgId,
+  importId,
+  takeFocus,
+  onAnother,
+}: {
+  orgId: string;
+  importId: string;
+  /** The import button that was pressed is gone: its place in the focus order passes to the progress. */
+  takeFocus: boolean;
+  onAnother: () => void;
+}) {
   const state = useRosterImport(orgId, importId);
+  const panelRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (takeFocus) panelRef.current?.focus();
+  }, [takeFocus]);
   const resume = useStartRosterImport(orgId);
   const refresh = useRefreshAfterImport(orgId);
   const status = state.data?.status;
@@ -70,23 +101,25 @@ function StartedImport({ orgId, importId, onAnother }: { orgId: string; importId
     </Button>
   );
   return (
-    <Panel title="Importing">
-      {state.isPending ? (
-        <Loading what="the import" />
-      ) : state.isError ? (
-        <div className="space-y-3">
-          <ErrorNotice error={state.error} />
-          {another}
-        </div>
-      ) : (
-        <RosterImportProgress
-          state={state.data}
-          onResume={() => resume.mutate(importId)}
-          resuming={resume.isPending}
-          resumeError={resume.error}
-          after={another}
-        />
-      )}
-    </Panel>
+    <div ref={panelRef} tabIndex={-1} data-testid="roster-progress" className="outline-none">
+      <Panel title="Importing">
+        {state.isPending ? (
+          <Loading what="the import" />
+        ) : state.isError ? (
+          <div className="space-y-3">
+            <ErrorNotice error={state.error} />
+            {another}
+          </div>
+        ) : (
+          <RosterImportProgress
+            state={state.data}
+            onResume={() => resume.mutate(importId)}
+            resuming={resume.isPending}
+            resumeError={resume.error}
+            after={another}
+          />
+        )}
+      </Panel>
+    </div>
   );
 }
