@@ -71,6 +71,14 @@ test('Dana brings a roster: the template, the problems, the fix, the import, and
   expect(template[0]).toBe(HEADER);
   expect(template[1]).toMatch(/^Sam Example,sam@example\.org,/);
 
+  // A file the server cannot read as a roster is refused whole, with the reason on the file field.
+  await page
+    .getByLabel('Roster file (CSV)')
+    .setInputFiles({ name: 'notes.csv', mimeType: 'text/csv', buffer: Buffer.from('first,second\r\n1,2') });
+  await page.getByRole('button', { name: 'Check the file' }).click();
+  await expect(page.getByRole('alert').filter({ hasText: 'The file was not checked' })).toContainText('Unknown columns: first, second.');
+  await expect(page.getByLabel('Roster file (CSV)')).toHaveAttribute('aria-invalid', 'true');
+
   // A file with two problems: the preview names them (lines count the header as line 1).
   await check(page, csv(rows));
   await expect(count(page, 'New athletes')).toHaveText('4');
