@@ -111,6 +111,7 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
     await sweep(page, testInfo, [
       { path: '/admin/people', heading: 'People' },
       { path: '/admin/invitations', heading: 'Invitations', then: submitEmpty('Create invitation') },
+      { path: '/admin/roster-import', heading: 'Bring a roster', then: submitEmpty('Check the file') },
       { path: '/admin/audit' },
       { path: '/admin/outbox' },
       { path: '/admin/settings' },

@@ -55,6 +55,7 @@ export const routes: RouteObject[] = [
               { path: 'people', lazy: page(() => import('./routes/admin/people'), 'PeoplePage') },
               { path: 'people/:personId', lazy: page(() => import('./routes/admin/person'), 'PersonPage') },
               { path: 'invitations', lazy: page(() => import('./routes/admin/invitations'), 'InvitationsPage') },
+              { path: 'roster-import', lazy: page(() => import('./routes/admin/roster-import'), 'RosterImportPage') },
               { path: 'audit', lazy: page(() => import('./routes/admin/audit'), 'AuditPage') },
               { path: 'injury-report', lazy: page(() => import('./routes/staff/injury-report'), 'InjuryReportPage') },
               { path: 'outbox', lazy: page(() => import('./routes/admin/outbox'), 'OutboxPage') },

@@ -6,6 +6,7 @@ const LINKS = [
   { to: '/admin/people', label: 'People' },
   { to: '/groups', label: 'Groups' },
   { to: '/admin/invitations', label: 'Invitations' },
+  { to: '/admin/roster-import', label: 'Bring a roster' },
   { to: '/admin/audit', label: 'Audit trail' },
   { to: '/admin/injury-report', label: 'Injury report' },
   { to: '/admin/plan-templates', label: 'Plan templates' },

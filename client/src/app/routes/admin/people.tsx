@@ -21,9 +21,12 @@ export function PeoplePage() {
         title="People"
         actions={
           ability.can('create', 'Invitation') && (
-            <ButtonLink to="/admin/invitations" variant="primary">
-              Invite someone
-            </ButtonLink>
+            <>
+              <ButtonLink to="/admin/invitations" variant="primary">
+                Invite someone
+              </ButtonLink>
+              <ButtonLink to="/admin/roster-import">Bring a roster</ButtonLink>
+            </>
           )
         }
       >
