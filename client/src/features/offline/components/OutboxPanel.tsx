@@ -7,6 +7,7 @@ import { formatDate, formatDateTime } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
 import { discardOutboxItem, flushOutbox, retryOutboxItem, useOutbox, type OutboxItem, type OutboxKind } from '../../../lib/offline-queue';
 import { queryKeys } from '../../../lib/query-keys';
+import { WaitingMark } from './WaitingMark';
 
 const KIND_WORDS: Record<OutboxKind, string> = {
   pain_report: 'Pain report',
@@ -55,9 +56,7 @@ export function OutboxPanel() {
             <ul className="space-y-1 text-sm">
               {waiting.map((i) => (
                 <li key={i.key} className="rounded-md border border-rule px-3 py-2">
-                  <span aria-hidden="true" className="mr-1">
-                    ⧗
-                  </span>
+                  <WaitingMark />
                   {describe(i)}
                 </li>
               ))}
