@@ -127,4 +127,16 @@ describe('the offline copy on a later day', () => {
     expect(todayDays.sort()).toEqual(['2026-12-02', '2026-12-03', '2026-12-04']);
     expect(saved.some((e) => e.key[2] === 'organization')).toBe(true);
   });
+
+  it("keeps the athlete's own clearance letters for reading offline, never anyone else's", () => {
+    const friday = openApp(FRIDAY_EVENING);
+    friday.setQueryData(['orgs', ORG, 'letters', { athleteId: ATHLETE }], [{ id: 'letter-1', decision: 'limited' }]);
+    friday.setQueryData(['orgs', ORG, 'letters', { athleteId: 'someone-else' }], [{ id: 'letter-2' }]);
+    friday.setQueryData(['orgs', ORG, 'letters', { athleteId: null }], [{ id: 'letter-3' }]);
+
+    const saturday = openApp(SATURDAY_MORNING);
+    expect(saturday.getQueryData(['orgs', ORG, 'letters', { athleteId: ATHLETE }])).toEqual([{ id: 'letter-1', decision: 'limited' }]);
+    expect(saturday.getQueryData(['orgs', ORG, 'letters', { athleteId: 'someone-else' }])).toBeUndefined();
+    expect(saturday.getQueryData(['orgs', ORG, 'letters', { athleteId: null }])).toBeUndefined();
+  });
 });

@@ -5,8 +5,8 @@ import { sessionQueryKey } from './query-client';
 
 /**
  * The athlete's own screens from the last visit, readable without signal: the answers of a short list
- * of queries (the session, the organization, today's sessions and limits, the week, the logs, check-ins
- * and reports) are copied to this browser's storage under the signed-in person's id, and put back into
+ * of queries (the session, the organization, today's sessions and limits, the week, the logs, check-ins,
+ * reports and the clearance letters) are copied to this browser's storage under the signed-in person's id, and put back into
  * the query cache when the app starts. Only queries about one of the person's own athlete memberships
  * (or the organization as a whole) are copied: a coach's roster or another athlete's record never is.
  * A sign-out, or a session found ended, removes every copy. The service worker caches the app's files
@@ -19,7 +19,16 @@ const copyKey = (userId: string) => `${PREFIX}user.${userId}`;
 /** Parts of the key (['orgs', orgId, part, …]) of queries about the organization as a whole. */
 const ORG_WIDE = new Set(['organization', 'exercises']);
 /** Parts of the key of queries about one athlete, copied only when that athlete is the person signed in. */
-const ABOUT_AN_ATHLETE = new Set(['athletes', 'in-force', 'training-logs', 'check-ins', 'workload', 'pain-reports']);
+const ABOUT_AN_ATHLETE = new Set(['athletes', 'in-force', 'training-logs', 'check-ins', 'workload', 'pain-reports', 'letters']);
+
+/** The athlete ids a key names: plain parts, and the `athleteId` of an object part (`{ athleteId }` of letters). */
+function namesAthlete(key: QueryKey, athleteIds: Set<string>): boolean {
+  return key.some((part) => {
+    if (typeof part === 'string') return athleteIds.has(part);
+    const id = part && typeof part === 'object' ? (part as { athleteId?: unknown }).athleteId : undefined;
+    return typeof id === 'string' && athleteIds.has(id);
+  });
+}
 
 /**
  * Many copied queries are keyed by a day (today's sessions, what is in force on a date, the week from
@@ -74,7 +83,7 @@ function ownAthleteIds(session: SessionDto | undefined): Set<string> {
 function shouldCopy(key: QueryKey, athleteIds: Set<string>): boolean {
   if (key[0] !== 'orgs' || typeof key[2] !== 'string') return false;
   if (ORG_WIDE.has(key[2])) return athleteIds.size > 0;
-  return ABOUT_AN_ATHLETE.has(key[2]) && key.some((part) => typeof part === 'string' && athleteIds.has(part));
+  return ABOUT_AN_ATHLETE.has(key[2]) && namesAthlete(key, athleteIds);
 }
 
 export function clearOfflineCopies(): void {
