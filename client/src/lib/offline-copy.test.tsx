@@ -139,4 +139,17 @@ describe('the offline copy on a later day', () => {
     expect(saturday.getQueryData(['orgs', ORG, 'letters', { athleteId: 'someone-else' }])).toBeUndefined();
     expect(saturday.getQueryData(['orgs', ORG, 'letters', { athleteId: null }])).toBeUndefined();
   });
+
+  it('marks a later day filled from a copy saved during this same visit (the app left open past midnight)', () => {
+    const client = openApp(FRIDAY_EVENING);
+    client.setQueryData(todayKey('2026-12-04'), todayOf('2026-12-04'));
+    vi.setSystemTime(SATURDAY_MORNING);
+    const read = firstRead(client, todayKey('2026-12-05'));
+    expect(read.data).toEqual(todayOf('2026-12-04'));
+    expect(oldestCopyShown([read])).toBe(FRIDAY_EVENING.getTime());
+    // A fresh answer for the day is no copy.
+    client.setQueryData(todayKey('2026-12-05'), todayOf('2026-12-05'));
+    const fresh = client.getQueryState(todayKey('2026-12-05'))!;
+    expect(oldestCopyShown([{ data: fresh.data, dataUpdatedAt: fresh.dataUpdatedAt }])).toBeNull();
+  });
 });

@@ -67,6 +67,8 @@ interface Entry {
 
 /** When this page load put the copies back: anything not refreshed since is shown from the copy. */
 let restoredAt = 0;
+/** Answers put in for a later day's key (even from a copy saved during this visit): always marked. */
+const fromEarlierDay = new WeakSet<object>();
 
 function storage(): Storage | null {
   try {
@@ -175,6 +177,7 @@ export function installOfflineCopy(queryClient: QueryClient): () => void {
     if (!owner || queryClient.getQueryData<SessionDto>(sessionQueryKey)?.user?.id !== owner) return;
     const entry = copyOfEarlierDay(readCopy(owner), query.queryKey);
     if (!entry) return;
+    if (entry.data !== null && typeof entry.data === 'object') fromEarlierDay.add(entry.data);
     filling = true;
     try {
       queryClient.setQueryData(query.queryKey, entry.data, { updatedAt: entry.updatedAt });
@@ -211,6 +214,11 @@ export function installOfflineCopy(queryClient: QueryClient): () => void {
  * yet: the time of the oldest such answer, else null.
  */
 export function oldestCopyShown(queries: { data: unknown; dataUpdatedAt: number }[]): number | null {
-  const fromCopy = queries.filter((q) => q.data !== undefined && q.dataUpdatedAt > 0 && q.dataUpdatedAt < restoredAt);
+  const fromCopy = queries.filter(
+    (q) =>
+      q.data !== undefined &&
+      q.dataUpdatedAt > 0 &&
+      (q.dataUpdatedAt < restoredAt || (q.data !== null && typeof q.data === 'object' && fromEarlierDay.has(q.data))),
+  );
   return fromCopy.length ? Math.min(...fromCopy.map((q) => q.dataUpdatedAt)) : null;
 }
