@@ -184,7 +184,8 @@ export function installOfflineCopy(queryClient: QueryClient): () => void {
     } finally {
       filling = false;
     }
-    void queryClient.invalidateQueries({ queryKey: query.queryKey, exact: true, refetchType: 'none' });
+    // Shown at once, but asked for again on first use, as a restored copy is.
+    query.invalidate();
   };
 
   return queryClient.getQueryCache().subscribe((event) => {
