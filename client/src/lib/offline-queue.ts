@@ -23,8 +23,10 @@ export interface OutboxItem {
   /** When the athlete made it (ISO instant). */
   madeAt: string;
   state: 'waiting' | 'rejected';
-  /** The server's sentence, when it refused it. */
+  /** The sentence the athlete reads, when Loadline refused it on arrival. */
   reason?: string;
+  /** The fields the refusal named (e.g. `sessionId`), so the screen can offer the way out that fits. */
+  refusedFields?: string[];
 }
 
 export type SendOutcome<T> = { sent: T } | { kept: OutboxItem };
@@ -115,6 +117,22 @@ export async function sendOrKeep<T>(
   }
 }
 
+/**
+ * What the athlete reads for a refusal on arrival: the server's sentence, except where it names a field
+ * the athlete never typed (the planned session a log was made from).
+ */
+export function rejectionReason(item: Pick<OutboxItem, 'kind'>, error: unknown): string {
+  if (!isApiError(error)) return 'Loadline did not accept it.';
+  if (item.kind === 'training_log' && error.fields.sessionId)
+    return 'The planned session it was logged against is no longer in your program: your coach may have moved or removed it.';
+  return error.message;
+}
+
+/** A session log refused only because its planned session is gone can still be sent as a session of its own. */
+export function canSendWithoutPlan(item: OutboxItem): boolean {
+  return item.kind === 'training_log' && item.state === 'rejected' && (item.refusedFields ?? []).includes('sessionId');
+}
+
 /** Worth another try later: no answer, a server fault, a limit, the same key still running, or signed out. */
 function tryLater(error: unknown): boolean {
   if (!isApiError(error)) return true;
@@ -155,7 +173,8 @@ export function flushOutbox(userId: string, onSent?: (item: OutboxItem) => void)
         update(userId, item.key, (i) => ({
           ...i,
           state: 'rejected',
-          reason: isApiError(error) ? error.message : 'It was not accepted.',
+          reason: rejectionReason(i, error),
+          refusedFields: isApiError(error) ? Object.keys(error.fields) : [],
         }));
       }
     }
@@ -165,9 +184,17 @@ export function flushOutbox(userId: string, onSent?: (item: OutboxItem) => void)
   return run;
 }
 
-/** Back in the queue, in its old place, for the next send. */
-export function retryOutboxItem(userId: string, key: string): void {
-  update(userId, key, (i) => ({ ...i, state: 'waiting', reason: undefined }));
+/**
+ * Back in the queue, in its old place, for the next send. Sent without its planned session, it is another
+ * request, so it gets a new Idempotency-Key (the server refuses one key reused with another body).
+ */
+export function retryOutboxItem(userId: string, key: string, options: { withoutPlan?: boolean } = {}): void {
+  update(userId, key, (i) => {
+    const again: OutboxItem = { ...i, state: 'waiting', reason: undefined, refusedFields: undefined };
+    if (!options.withoutPlan) return again;
+    const { sessionId: _dropped, ...body } = (i.body ?? {}) as Record<string, unknown>;
+    return { ...again, key: newKey(), body };
+  });
 }
 
 const snapshots = new Map<string, { raw: string; items: OutboxItem[] }>();

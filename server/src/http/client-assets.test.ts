@@ -16,6 +16,11 @@ mkdirSync(path.join(dist, 'assets'));
 writeFileSync(path.join(dist, 'index.html'), page);
 writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js'), script);
 writeFileSync(path.join(dist, 'favicon.svg'), '<svg xmlns="http://www.w3.org/2000/svg"/>');
+// What vite-plugin-pwa writes beside the page (client/vite.config.ts): the service worker, its workbox
+// runtime (named with a hash, but outside /assets) and the web app manifest.
+writeFileSync(path.join(dist, 'sw.js'), "importScripts('/workbox-5f3e2a1b.js');\n");
+writeFileSync(path.join(dist, 'workbox-5f3e2a1b.js'), 'self.workbox = {};\n');
+writeFileSync(path.join(dist, 'manifest.webmanifest'), JSON.stringify({ name: 'Loadline', start_url: '/' }));
 
 /** The bytes as they cross the wire, not decoded (supertest would decode them for us). */
 function raw(base: string, urlPath: string, acceptEncoding: string) {
@@ -78,6 +83,43 @@ describe('the built client: compressed, hashed files cached for a year, the page
     const res = await request(h.app).get('/favicon.svg');
     expect(res.status).toBe(200);
     expect(res.headers['cache-control']).toBe('no-cache');
+  });
+
+  // A service worker script kept by an HTTP cache would hold every phone on an old release: W3C Service
+  // Workers (update checks) and RFC 9111 section 5.2.2.4 — `no-cache` makes each check ask the server.
+  it('asks again for the service worker, its workbox runtime and the manifest, and only hashed assets are immutable', async () => {
+    const sw = await request(h.app).get('/sw.js');
+    expect(sw.status).toBe(200);
+    expect(sw.headers['content-type']).toMatch(/javascript/);
+    expect(sw.headers['cache-control']).toBe('no-cache');
+
+    const runtime = await request(h.app).get('/workbox-5f3e2a1b.js');
+    expect(runtime.status).toBe(200);
+    expect(runtime.headers['cache-control']).toBe('no-cache');
+
+    // W3C Web App Manifest, section "Media type registration": application/manifest+json.
+    const manifest = await request(h.app).get('/manifest.webmanifest');
+    expect(manifest.status).toBe(200);
+    expect(manifest.headers['content-type']).toMatch(/^application\/manifest\+json/);
+    expect(manifest.headers['cache-control']).toBe('no-cache');
+
+    const index = await request(h.app).get('/index.html');
+    expect(index.headers['cache-control']).toBe('no-cache');
+    const hashed = await request(h.app).get('/assets/index-Ab12Cd34.js');
+    expect(hashed.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+  });
+
+  it('answers a missing service worker or manifest with a 404, never the page read as code', async () => {
+    rmSync(path.join(dist, 'sw.js'));
+    try {
+      for (const file of ['/sw.js', '/workbox-00000000.js', '/manifest.json.webmanifest']) {
+        const res = await request(h.app).get(file);
+        expect(res.status, file).toBe(404);
+        expect(res.headers['content-type'], file).toMatch(/^text\/plain/);
+      }
+    } finally {
+      writeFileSync(path.join(dist, 'sw.js'), "importScripts('/workbox-5f3e2a1b.js');\n");
+    }
   });
 
   it('answers a hashed file that is not there with a 404, not the page', async () => {

@@ -35,6 +35,12 @@ export function serveClient(app: Express, clientDist: string): void {
     res.setHeader('Cache-Control', 'no-cache');
     res.status(404).type('text/plain').send('Not found');
   });
+  // A script, style sheet or manifest that is not there (the service worker of a removed release) is a
+  // 404 as well: the page in its place would be read as code of the wrong type.
+  app.get(/\.(?:m?js|css|map|webmanifest)$/, (_req, res) => {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.status(404).type('text/plain').send('Not found');
+  });
   // Every other path is one of the client's own routes: the page, never cached, loads the right screen.
   app.get('/{*splat}', shrink, (_req, res) => {
     res.setHeader('Cache-Control', 'no-cache');

@@ -1,5 +1,6 @@
 import { useAthlete } from '../../features/athletes/api/get-athlete';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
+import { useLetters } from '../../features/letters/api/get-letters';
 import { CurrentLetter } from '../../features/letters/components/CurrentLetter';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
@@ -34,11 +35,12 @@ function AthleteProfile() {
   // The same cache entries the sections below read: only to tell whether they come from the last visit.
   const today = useToday(orgId, membership.id, todayLocal());
   const inForce = useInForce(orgId, membership.id, todayLocal());
+  const letters = useLetters(orgId, membership.id);
 
   return (
     <div className="mx-auto max-w-xl space-y-5">
       <PageHeader title="My profile">What {membership.organizationName} has on record for you, and who looks after you.</PageHeader>
-      <LastUpdatedNote queries={[today, inForce, athlete]} />
+      <LastUpdatedNote queries={[today, inForce, athlete, letters]} />
       <OutboxPanel />
       <AthleteActions orgId={orgId} athleteId={membership.id} />
       <TodaySessions athleteId={membership.id} />

@@ -121,7 +121,8 @@ function FromPlan({
 }) {
   const day = useToday(orgId, athleteId, date);
   if (day.isPending) return <Loading what="the planned session" />;
-  if (day.isError) return <ErrorNotice error={day.error} title="The planned session is not available" />;
+  // Without signal, the copy kept from the last visit still serves (lib/offline-copy.ts).
+  if (day.isError && !day.data) return <ErrorNotice error={day.error} title="The planned session is not available" />;
   const session = day.data.sessions.find((s) => s.id === sessionId);
   if (!session || session.onHold) {
     return (

@@ -20,7 +20,8 @@ import { describeDate } from '../../../../../policies/load/describe';
 export function CurrentLetter({ orgId, athleteId, audience }: { orgId: string; athleteId: string; audience: 'athlete' | 'coach' }) {
   const letters = useLetters(orgId, athleteId);
   if (letters.isPending) return <Loading what="the clearance letter" />;
-  if (letters.isError) {
+  // Without signal, the athlete's copy from the last visit still serves (lib/offline-copy.ts).
+  if (letters.isError && !letters.data) {
     return isApiError(letters.error) && (letters.error.status === 403 || letters.error.status === 404) ? null : (
       <ErrorNotice error={letters.error} />
     );

@@ -1,17 +1,28 @@
 import { Notice } from '../../../components/ui/Notice';
-import { formatDateTime } from '../../../lib/format';
+import { orgDayOf, todayLocal } from '../../../lib/dates';
+import { formatDate, formatDateTime } from '../../../lib/format';
 import { oldestCopyShown } from '../../../lib/offline-copy';
 
 /**
  * Marks a screen shown from the copy of an earlier visit (lib/offline-copy.ts) with when that copy
- * was made; nothing when everything on it was refreshed during this visit.
+ * was made; nothing when everything on it was refreshed during this visit. A copy saved on an earlier
+ * day than today says so plainly: what it shows for "today" is that day's, and the clinician's word
+ * comes first.
  */
 export function LastUpdatedNote({ queries }: { queries: { data: unknown; dataUpdatedAt: number }[] }) {
   const at = oldestCopyShown(queries);
   if (at === null) return null;
+  const instant = new Date(at).toISOString();
+  const savedDay = orgDayOf(instant);
   return (
-    <Notice tone="caution" role="status" title={`Last updated ${formatDateTime(new Date(at).toISOString())}`}>
+    <Notice tone="caution" role="status" title={`Last updated ${formatDateTime(instant)}`}>
       <p>Loadline can&apos;t be reached right now, so this is what your phone kept from your last visit. It may have changed since.</p>
+      {savedDay < todayLocal() && (
+        <p>
+          It was saved on {formatDate(savedDay)}, so what it shows for today may be out of date. Check with your clinician before you train
+          on it.
+        </p>
+      )}
     </Notice>
   );
 }

@@ -5,8 +5,17 @@ import { Notice } from '../../../components/ui/Notice';
 import { Panel } from '../../../components/ui/Panel';
 import { formatDate, formatDateTime } from '../../../lib/format';
 import { useCurrentMembership } from '../../../lib/membership-context';
-import { discardOutboxItem, flushOutbox, retryOutboxItem, useOutbox, type OutboxItem, type OutboxKind } from '../../../lib/offline-queue';
+import {
+  canSendWithoutPlan,
+  discardOutboxItem,
+  flushOutbox,
+  retryOutboxItem,
+  useOutbox,
+  type OutboxItem,
+  type OutboxKind,
+} from '../../../lib/offline-queue';
 import { queryKeys } from '../../../lib/query-keys';
+import { WaitingMark } from './WaitingMark';
 
 const KIND_WORDS: Record<OutboxKind, string> = {
   pain_report: 'Pain report',
@@ -55,9 +64,7 @@ export function OutboxPanel() {
             <ul className="space-y-1 text-sm">
               {waiting.map((i) => (
                 <li key={i.key} className="rounded-md border border-rule px-3 py-2">
-                  <span aria-hidden="true" className="mr-1">
-                    ⧗
-                  </span>
+                  <WaitingMark />
                   {describe(i)}
                 </li>
               ))}
@@ -72,6 +79,18 @@ export function OutboxPanel() {
             <p>{i.reason}</p>
             <p>It stays here until you send it again or discard it.</p>
             <div className="mt-2 flex flex-wrap gap-2">
+              {canSendWithoutPlan(i) && (
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  onClick={() => {
+                    retryOutboxItem(user.id, i.key, { withoutPlan: true });
+                    sendNow();
+                  }}
+                >
+                  Send as a session of its own
+                </Button>
+              )}
               <Button
                 variant="secondary"
                 size="sm"

@@ -42,7 +42,10 @@ export function TodaySessions({ athleteId }: { athleteId: string }) {
       <h2 id="today-session-heading" className="text-lg font-bold">
         Today&apos;s session
       </h2>
-      <p className="text-sm text-ink-2 tabular-nums">{formatDate(date)}</p>
+      <p className="text-sm text-ink-2 tabular-nums">
+        {/* A copy of an earlier day, shown offline (lib/offline-copy.ts), names its own day, never today's. */}
+        {today.data && today.data.date !== date ? `${formatDate(today.data.date)}, as saved on this phone` : formatDate(date)}
+      </p>
       <div className="mt-3 space-y-4">
         {today.isPending ? (
           <Loading what="today's session" />
