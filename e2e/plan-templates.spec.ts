@@ -91,7 +91,14 @@ test('a clinician saves a plan as a template, another copies but cannot edit it,
   const first = await newCase();
   await apiWrite(priya.request, 'post', `/orgs/${orgId}/cases/${first.id}/plan`, {
     stages: [
-      { id: randomUUID(), label: 'Calm', startDate: isoDay(-2), endDate: isoDay(7), painCeiling: 3, patterns: { jump: { mode: 'blocked' } } },
+      {
+        id: randomUUID(),
+        label: 'Calm',
+        startDate: isoDay(-2),
+        endDate: isoDay(7),
+        painCeiling: 3,
+        patterns: { jump: { mode: 'blocked' } },
+      },
       { id: randomUUID(), label: 'Load', startDate: isoDay(8), endDate: isoDay(25), painCeiling: 4, patterns: {} },
     ],
     guidance: 'Cycling is fine; no jumping yet.',
@@ -140,7 +147,7 @@ test('a clinician saves a plan as a template, another copies but cannot edit it,
   await editor.getByLabel('Template', { exact: true }).selectOption({ label: `${name} (2 stages, 28 days)` });
   await editor.getByLabel('First day of the plan').fill(isoDay(5));
   await editor.getByRole('button', { name: 'Use this template' }).click();
-  await expect(editor.getByRole('status')).toContainText(`Started from “${name}”`);
+  await expect(editor.getByRole('status').filter({ hasText: `Started from “${name}”` })).toBeVisible();
   // Stage 2 runs days 10–27 from the first day: isoDay(5 + 10) to isoDay(5 + 27).
   const stage1 = stageFieldset(priya, 1);
   const stage2 = stageFieldset(priya, 2);
