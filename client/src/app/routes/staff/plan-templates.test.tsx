@@ -4,6 +4,7 @@ import type { PlanTemplateDto, PlanTemplateSummaryDto } from '../../../../../pol
 import type { Role } from '../../../../../policies/roles';
 import { ORG, fetchMock, renderAt, sessionFor, stubFetch } from '../../../test/app';
 import { jsonResponse } from '../../../test/render';
+import { STALE_TEMPLATE } from '../../../features/plan-templates/components/TemplateEditor';
 
 /**
  * The plan templates' pages as each person sees them: the list (empty, filled, closed to a coach) and
@@ -149,9 +150,35 @@ describe('one plan template', () => {
     expect(fetchMock.mock.calls.some(([, init]) => init?.method === 'PUT')).toBe(false);
   });
 
+  it('a save refused because someone saved first says so, and reopens the editor on the latest version', async () => {
+    let version = 3;
+    serveApi(['clinician'], {
+      [PUT]: { status: 409, body: { error: { code: 'version_conflict', message: 'Changed since.' }, requestId: 'r' } },
+    });
+    const answer = fetchMock.getMockImplementation()!;
+    fetchMock.mockImplementation(async (input, init) =>
+      `${init?.method ?? 'GET'} ${String(input).replace(/^\/api/, '')}` === ONE
+        ? jsonResponse(200, full({ authorId: ME, canEdit: true, version }))
+        : answer(input, init),
+    );
+    renderAt('/clinician/plan-templates/t-ankle');
+    fireEvent.click(await screen.findByRole('button', { name: 'Edit template' }));
+    version = 4;
+    fireEvent.click(screen.getByRole('button', { name: 'Save template' }));
+    const alert = await screen.findByRole('alert');
+    expect(alert).toHaveTextContent('Template not saved');
+    expect(alert).toHaveTextContent(STALE_TEMPLATE);
+    expect(screen.getByRole('button', { name: 'Save template' })).toBeDisabled();
+    fireEvent.click(within(alert).getByRole('button', { name: 'Load the latest version' }));
+    expect(await screen.findByText(/Editing version 4\./)).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Save template' })).toBeEnabled();
+  });
+
   it('a coach is told templates are not for them', async () => {
     serveApi(['coach'], { [LIST]: [summary()] });
     renderAt('/clinician/plan-templates');
     expect(await screen.findByRole('alert')).toHaveTextContent("You can't do that");
+    // Nothing is asked for that the server would refuse anyway.
+    expect(fetchMock.mock.calls.some(([input]) => String(input).includes('/plan-templates'))).toBe(false);
   });
 });
