@@ -19,6 +19,9 @@ const TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
 const BLOCKING = new Set(['serious', 'critical']);
 const A11Y_PROGRAM = 'Accessibility check (e2e)';
 const A11Y_SESSION = 'Accessibility session';
+/** The demo's two plan templates (server/src/seed/demo-templates.ts): Priya's and Marcus's. */
+const BACK_TEMPLATE = 'Low back, extension-related, young athlete (three stages)';
+const ANKLE_TEMPLATE = 'Lateral ankle sprain (two stages)';
 
 test.use({ timezoneId: BROWSER_ZONE });
 
@@ -115,11 +118,19 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
       { path: '/admin/audit' },
       { path: '/admin/outbox' },
       { path: '/admin/settings' },
+      { path: '/admin/injury-report', heading: 'Injury report' },
+      { path: '/admin/plan-templates', heading: 'Plan templates' },
       { path: '/account' },
     ]);
     await page.goto('/admin/people');
     const person = await follow(page, DEMO.maya.name, DEMO.maya.name);
-    await sweep(page, testInfo, [{ path: person, heading: DEMO.maya.name }]);
+    await page.goto('/admin/plan-templates');
+    const template = await follow(page, BACK_TEMPLATE, `Plan template: ${BACK_TEMPLATE}`);
+    await sweep(page, testInfo, [
+      { path: person, heading: DEMO.maya.name },
+      // An admin may change any template: its editor is checked open (never saved).
+      { path: template, heading: `Plan template: ${BACK_TEMPLATE}`, then: open('Edit template', 'Edit the plan template') },
+    ]);
   });
 
   test('coach', async ({ page }, testInfo) => {
@@ -197,7 +208,15 @@ test.describe('accessibility (axe, WCAG 2.1 A and AA)', () => {
       { path: '/clinician/audit' },
       { path: '/notices' },
       { path: '/staff/flags' },
+      { path: '/clinician/injury-report', heading: 'Injury report' },
+      { path: '/clinician/plan-templates', heading: 'Plan templates' },
       { path: '/account' },
+    ]);
+    // Marcus's own template (the demo's), with its editor open, never saved.
+    await page.goto('/clinician/plan-templates');
+    const template = await follow(page, ANKLE_TEMPLATE, `Plan template: ${ANKLE_TEMPLATE}`);
+    await sweep(page, testInfo, [
+      { path: template, heading: `Plan template: ${ANKLE_TEMPLATE}`, then: open('Edit template', 'Edit the plan template') },
     ]);
     await page.goto('/clinician');
     const athlete = await follow(page, DEMO.sam.name, DEMO.sam.name);

@@ -27,27 +27,67 @@ async function openCase(ctx: OrgCommandCtx, caseId: string) {
   return c;
 }
 
-async function currentStages(ctx: OrgCommandCtx, plan: RestrictionPlan) {
-  const [v] = await planVersions(ctx.m, plan.id, plan.version);
-  return v;
-}
-
 const readBack = (ctx: OrgCommandCtx, planId: string): Promise<StageCriteriaDto> =>
   stageCriteriaQuery.run(
     { db: ctx.m, deps: ctx.deps, userId: ctx.userId, actor: ctx.actor, ability: ctx.ability, now: ctx.now, today: ctx.today },
     { planId },
   );
 
+/**
+ * The plan the input names, checked by `mayAct` (which throws a 403/404), on an open case, with its
+ * current version. Every stage command starts here, so each refuses the same way in the same order.
+ */
+async function openPlan(ctx: OrgCommandCtx, planId: string, mayAct: (plan: RestrictionPlan) => void) {
+  const plan = await loadPlan(ctx, planId);
+  mayAct(plan);
+  await openCase(ctx, plan.caseId);
+  const [v] = await planVersions(ctx.m, plan.id, plan.version);
+  return { plan, v };
+}
+
+type PlanVersion = Awaited<ReturnType<typeof openPlan>>['v'];
+
+function stageOf(v: PlanVersion, stageId: string) {
+  const stage = v.stages.find((s) => s.id === stageId);
+  if (!stage) throw invalid('stageId', 'is not a stage of this plan');
+  return stage;
+}
+
+/** An audit entry about the plan, in the same transaction as the change it records. */
+const auditPlan = (ctx: OrgCommandCtx, plan: RestrictionPlan, action: string, after: Record<string, unknown>) =>
+  ctx.audit({ action, subjectType: 'RestrictionPlan', subjectId: plan.id, athleteId: plan.athleteId, after });
+
+type ReadingFields = Pick<StageCriterionReading, 'kind' | 'criterionId' | 'readingDate' | 'value' | 'met' | 'note'>;
+
+/** Saves one reading of a stage with its audit entry (`after` gets the row), and answers with the criteria as they now stand. */
+async function saveReading(
+  ctx: OrgCommandCtx,
+  plan: RestrictionPlan,
+  stageId: string,
+  fields: ReadingFields,
+  action: string,
+  after: (row: StageCriterionReading) => Record<string, unknown>,
+): Promise<StageCriteriaDto> {
+  const row = await ctx.m.save(
+    ctx.m.create(StageCriterionReading, {
+      organizationId: plan.organizationId,
+      planId: plan.id,
+      athleteId: plan.athleteId,
+      stageId,
+      ...fields,
+      recordedBy: ctx.userId,
+    }),
+  );
+  await auditPlan(ctx, plan, action, { readingId: row.id, stageId, ...after(row) });
+  return readBack(ctx, plan.id);
+}
+
 /** The clinician records a measured test or a yes/no judgement for one criterion of a stage. */
 export const recordStageAssessment = orgCommand({
   name: 'recordStageAssessment',
   async run(ctx, input: StageAssessmentInput & { planId: string }): Promise<StageCriteriaDto> {
-    const plan = await loadPlan(ctx, input.planId);
-    authorize(ctx.ability, 'update', 'RestrictionPlan', plan);
-    await openCase(ctx, plan.caseId);
-    const v = await currentStages(ctx, plan);
-    const stage = v.stages.find((s) => s.id === input.stageId);
-    if (!stage) throw invalid('stageId', 'is not a stage of this plan');
+    const { plan, v } = await openPlan(ctx, input.planId, (p) => authorize(ctx.ability, 'update', 'RestrictionPlan', p));
+    const stage = stageOf(v, input.stageId);
     const criterion = stage.criteria?.find((c) => c.id === input.criterionId);
     if (!criterion || criterion.kind !== 'clinician') throw invalid('criterionId', "is not one of this stage's clinician criteria");
     if (input.date > ctx.today) throw invalid('date', 'cannot be in the future');
@@ -56,29 +96,20 @@ export const recordStageAssessment = orgCommand({
     const met = input.met ?? null;
     if (criterion.measure === 'threshold' && value === null) throw invalid('value', 'is needed for a measured test');
     if (criterion.measure === 'yes_no' && met === null) throw invalid('met', 'is needed for a yes/no judgement');
-    const row = await ctx.m.save(
-      ctx.m.create(StageCriterionReading, {
-        organizationId: plan.organizationId,
-        planId: plan.id,
-        athleteId: plan.athleteId,
-        stageId: stage.id,
-        kind: 'assessment',
-        criterionId: criterion.id,
-        readingDate: input.date,
-        value: criterion.measure === 'threshold' ? value : null,
-        met: criterion.measure === 'yes_no' ? met : null,
-        note: input.note ?? null,
-        recordedBy: ctx.userId,
-      }),
-    );
-    await ctx.audit({
-      action: 'stage.assessed',
-      subjectType: 'RestrictionPlan',
-      subjectId: plan.id,
-      athleteId: plan.athleteId,
-      after: { readingId: row.id, stageId: stage.id, criterionId: criterion.id, date: input.date, value: row.value, met: row.met },
-    });
-    return readBack(ctx, plan.id);
+    const fields: ReadingFields = {
+      kind: 'assessment',
+      criterionId: criterion.id,
+      readingDate: input.date,
+      value: criterion.measure === 'threshold' ? value : null,
+      met: criterion.measure === 'yes_no' ? met : null,
+      note: input.note ?? null,
+    };
+    return saveReading(ctx, plan, stage.id, fields, 'stage.assessed', (row) => ({
+      criterionId: criterion.id,
+      date: input.date,
+      value: row.value,
+      met: row.met,
+    }));
   },
 });
 
@@ -86,36 +117,20 @@ export const recordStageAssessment = orgCommand({
 export const rateReadiness = orgCommand({
   name: 'rateReadiness',
   async run(ctx, input: ReadinessRatingInput & { planId: string }): Promise<StageCriteriaDto> {
-    const plan = await loadPlan(ctx, input.planId);
-    authorize(ctx.ability, 'create', 'CheckIn', { organizationId: plan.organizationId, athleteId: plan.athleteId });
-    await openCase(ctx, plan.caseId);
-    const v = await currentStages(ctx, plan);
-    const stage = v.stages.find((s) => s.id === input.stageId);
-    if (!stage) throw invalid('stageId', 'is not a stage of this plan');
-    if (!(stage.startDate <= ctx.today && ctx.today <= stage.endDate)) throw invalid('stageId', 'is not the stage in force today');
-    const row = await ctx.m.save(
-      ctx.m.create(StageCriterionReading, {
-        organizationId: plan.organizationId,
-        planId: plan.id,
-        athleteId: plan.athleteId,
-        stageId: stage.id,
-        kind: 'readiness',
-        criterionId: null,
-        readingDate: ctx.today,
-        value: input.value,
-        met: null,
-        note: null,
-        recordedBy: ctx.userId,
-      }),
+    const { plan, v } = await openPlan(ctx, input.planId, (p) =>
+      authorize(ctx.ability, 'create', 'CheckIn', { organizationId: p.organizationId, athleteId: p.athleteId }),
     );
-    await ctx.audit({
-      action: 'stage.readiness_rated',
-      subjectType: 'RestrictionPlan',
-      subjectId: plan.id,
-      athleteId: plan.athleteId,
-      after: { readingId: row.id, stageId: stage.id, value: input.value, date: ctx.today },
-    });
-    return readBack(ctx, plan.id);
+    const stage = stageOf(v, input.stageId);
+    if (!(stage.startDate <= ctx.today && ctx.today <= stage.endDate)) throw invalid('stageId', 'is not the stage in force today');
+    const fields: ReadingFields = {
+      kind: 'readiness',
+      criterionId: null,
+      readingDate: ctx.today,
+      value: input.value,
+      met: null,
+      note: null,
+    };
+    return saveReading(ctx, plan, stage.id, fields, 'stage.readiness_rated', () => ({ value: input.value, date: ctx.today }));
   },
 });
 
@@ -129,12 +144,9 @@ export const advanceStage = orgCommand({
   name: 'advanceStage',
   changesLimits: true,
   async run(ctx, input: StageAdvanceInput & { planId: string }): Promise<StageCriteriaDto> {
-    const plan = await loadPlan(ctx, input.planId);
-    authorize(ctx.ability, 'update', 'RestrictionPlan', plan);
-    await openCase(ctx, plan.caseId);
+    const { plan, v } = await openPlan(ctx, input.planId, (p) => authorize(ctx.ability, 'update', 'RestrictionPlan', p));
     if (plan.version !== input.version) throw versionConflict('plan');
     if (input.effectiveDate < ctx.today) throw invalid('effectiveDate', 'cannot be before today');
-    const v = await currentStages(ctx, plan);
     const move = moveToNextStage(v.stages, input.fromStageId, input.effectiveDate);
     if (!move.ok) throw invalid(move.field, move.message);
     const from = v.stages.find((s) => s.id === input.fromStageId)!;
@@ -145,7 +157,6 @@ export const advanceStage = orgCommand({
       today: ctx.today,
       timeZone: ctx.actor.timeZone,
     });
-    const total = from.criteria?.length ?? 0;
     const when =
       move.daysEarly > 0
         ? `${move.daysEarly} days earlier than planned`
@@ -159,42 +170,29 @@ export const advanceStage = orgCommand({
       guidance: v.guidance,
       changeNote: `Moved to the next stage from ${humanDate(input.effectiveDate)} (${when}); agreed with ${input.agreedBy.join(', ')}.`,
     });
+    // What was decided, said once: the decision's row and its audit entry carry the same facts.
+    const decided = {
+      fromStageId: from.id,
+      toStageId: move.toStageId,
+      effectiveDate: input.effectiveDate,
+      plannedDate: move.plannedStart,
+      daysEarly: move.daysEarly,
+      agreedBy: input.agreedBy,
+      criteriaMet: evaluated.metCount,
+      criteriaTotal: from.criteria?.length ?? 0,
+    };
     const decision = await ctx.m.save(
       ctx.m.create(StageDecision, {
         organizationId: plan.organizationId,
         planId: plan.id,
         athleteId: plan.athleteId,
-        fromStageId: from.id,
-        toStageId: move.toStageId,
-        effectiveDate: input.effectiveDate,
-        plannedDate: move.plannedStart,
-        daysEarly: move.daysEarly,
-        agreedBy: input.agreedBy,
-        criteriaMet: evaluated.metCount,
-        criteriaTotal: total,
+        ...decided,
         planVersion: input.version + 1,
         note: input.note ?? null,
         decidedBy: ctx.userId,
       }),
     );
-    await ctx.audit({
-      action: 'stage.advanced',
-      subjectType: 'RestrictionPlan',
-      subjectId: plan.id,
-      athleteId: plan.athleteId,
-      after: {
-        decisionId: decision.id,
-        fromStageId: from.id,
-        toStageId: move.toStageId,
-        effectiveDate: input.effectiveDate,
-        plannedDate: move.plannedStart,
-        daysEarly: move.daysEarly,
-        agreedBy: input.agreedBy,
-        criteriaMet: evaluated.metCount,
-        criteriaTotal: total,
-        version: input.version + 1,
-      },
-    });
+    await auditPlan(ctx, plan, 'stage.advanced', { decisionId: decision.id, ...decided, version: input.version + 1 });
     return readBack(ctx, plan.id);
   },
 });

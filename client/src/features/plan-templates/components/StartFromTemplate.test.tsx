@@ -91,3 +91,45 @@ describe('Start from a template (plan editor)', () => {
     ]);
   });
 });
+
+describe('Start from a template: what the dialog says before anything is dated', () => {
+  it('says the organization has none yet, and where one comes from', async () => {
+    fetchMock.mockResolvedValue(jsonResponse(200, []));
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" onSaved={vi.fn()} onCancel={vi.fn()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Start from a template' }));
+    expect(
+      await screen.findByText('Your organization has no plan templates yet. Save a plan as a template from its case.'),
+    ).toBeInTheDocument();
+    // The blank first stage is still there to write from.
+    expect(stage(1)).toBeInTheDocument();
+  });
+
+  it('waits for a template and a whole first day before it dates anything', async () => {
+    const { stages: _s, guidance: _g, ...summary } = template;
+    fetchMock.mockResolvedValue(jsonResponse(200, [summary]));
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" onSaved={vi.fn()} onCancel={vi.fn()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Start from a template' }));
+    const use = () => screen.getByRole('button', { name: 'Use this template' });
+    expect(await screen.findByRole('option', { name: 'Low back, extension-related (2 stages, 28 days)' })).toBeInTheDocument();
+    expect(use()).toBeDisabled();
+    fireEvent.change(screen.getByLabelText('Template'), { target: { value: TEMPLATE } });
+    expect(use()).toBeEnabled();
+    fireEvent.change(screen.getByLabelText('First day of the plan'), { target: { value: '' } });
+    expect(use()).toBeDisabled();
+  });
+
+  it('says so when the chosen template cannot be loaded, and leaves the stages as they were', async () => {
+    const { stages: _s, guidance: _g, ...summary } = template;
+    fetchMock.mockImplementation(async (url) =>
+      String(url).endsWith('/plan-templates')
+        ? jsonResponse(200, [summary])
+        : jsonResponse(404, { error: { code: 'not_found', message: 'No such template.' }, requestId: 'r' }),
+    );
+    renderWithProviders(<PlanEditor orgId={ORG} caseId={CASE} unit="kg" onSaved={vi.fn()} onCancel={vi.fn()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Start from a template' }));
+    fireEvent.change(await screen.findByLabelText('Template'), { target: { value: TEMPLATE } });
+    fireEvent.click(screen.getByRole('button', { name: 'Use this template' }));
+    expect(await screen.findByText(/^That template could not be loaded\./)).toHaveAttribute('role', 'status');
+    expect(screen.queryByRole('group', { name: 'Stage 2' })).not.toBeInTheDocument();
+  });
+});

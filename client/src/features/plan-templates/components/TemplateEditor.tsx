@@ -1,6 +1,6 @@
-import { useMemo, useState } from 'react';
-import { FormProvider, useFieldArray, useForm } from 'react-hook-form';
-import type { PlanCreateInput, Unit } from '../../../../../policies/schemas';
+import { useState } from 'react';
+import { FormProvider } from 'react-hook-form';
+import type { Unit } from '../../../../../policies/schemas';
 import type { PlanTemplateDto } from '../../../../../policies/dto';
 import type { PlanStage } from '../../../../../policies/load/in-force';
 import { planStagesFromTemplate, templateStagesFromPlan } from '../../../../../policies/load/plan-template';
@@ -10,8 +10,8 @@ import { formatDate } from '../../../lib/format';
 import { Button } from '../../../components/ui/Button';
 import { TextAreaField, TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
-import { blankStage, planFormResolver, planToForm, type PlanForm } from '../../plans/components/plan-form';
-import { StageCard } from '../../plans/components/StageCard';
+import { planToForm } from '../../plans/components/plan-form';
+import { GuidanceField, StageCards, StaleNotice, usePlanStagesForm } from '../../plans/components/PlanStagesForm';
 import { useUpdatePlanTemplate } from '../api/plan-templates';
 
 export const STALE_TEMPLATE =
@@ -43,12 +43,10 @@ export function TemplateEditor({
   const [name, setName] = useState(template.name);
   const [description, setDescription] = useState(template.description);
   const update = useUpdatePlanTemplate(orgId, template.id);
-  const resolver = useMemo(() => planFormResolver(unit), [unit]);
   const toForm = (t: PlanTemplateDto) =>
     planToForm(planStagesFromTemplate(t.stages, start, () => crypto.randomUUID()) as PlanStage[], t.guidance, unit);
-  const methods = useForm<PlanForm, unknown, PlanCreateInput>({ resolver, reValidateMode: 'onChange', defaultValues: toForm(template) });
-  const { control, register, handleSubmit, reset, getValues, formState } = methods;
-  const { fields, append, remove, move } = useFieldArray({ control, name: 'stages' });
+  const { methods, stages } = usePlanStagesForm(unit, toForm(template));
+  const { handleSubmit, reset, formState } = methods;
   const stale = isApiError(update.error) && update.error.code === 'version_conflict';
   const fieldError = (f: string) => (isApiError(update.error) ? update.error.fields?.[f]?.[0] : undefined);
 
@@ -91,35 +89,10 @@ export function TemplateEditor({
           onChange={(e) => setDescription(e.target.value)}
           error={fieldError('description')}
         />
-        <div className="space-y-4">
-          {fields.map((field, index) => (
-            <StageCard
-              key={field.id}
-              index={index}
-              count={fields.length}
-              unit={unit}
-              onMove={(to) => move(index, to)}
-              onRemove={() => remove(index)}
-            />
-          ))}
-        </div>
-        <Button variant="secondary" disabled={fields.length >= 20} onClick={() => append(blankStage(getValues('stages').at(-1)))}>
-          Add stage
-        </Button>
-        <TextAreaField
-          label="Guidance for the athlete and family"
-          hint="Copied into each plan started from this template, where it can be changed."
-          rows={3}
-          error={formState.errors.guidance?.message}
-          {...register('guidance')}
-        />
+        <StageCards stages={stages} unit={unit} />
+        <GuidanceField hint="Copied into each plan started from this template, where it can be changed." />
         {stale ? (
-          <Notice tone="problem" role="alert" title="Template not saved">
-            <p>{STALE_TEMPLATE}</p>
-            <Button variant="secondary" size="sm" className="mt-2" onClick={() => void loadLatest()}>
-              Load the latest version
-            </Button>
-          </Notice>
+          <StaleNotice title="Template not saved" message={STALE_TEMPLATE} onLoadLatest={() => void loadLatest()} />
         ) : (
           update.error &&
           !fieldError('name') &&

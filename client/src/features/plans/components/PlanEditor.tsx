@@ -1,20 +1,20 @@
-import { useId, useMemo, useState } from 'react';
-import { FormProvider, useFieldArray, useForm, type FieldErrors } from 'react-hook-form';
+import { useId, useState } from 'react';
+import { FormProvider, type FieldErrors } from 'react-hook-form';
 import { useQueryClient } from '@tanstack/react-query';
-import type { PlanCreateInput, Unit } from '../../../../../policies/schemas';
+import type { Unit } from '../../../../../policies/schemas';
 import type { PlanDto } from '../../../../../policies/dto';
 import { PATTERN_LABELS, MOVEMENT_PATTERNS } from '../../../../../policies/load/patterns';
 import { isApiError } from '../../../lib/api-client';
 import { fieldSentence } from '../../../lib/form-errors';
 import { Button } from '../../../components/ui/Button';
-import { TextAreaField, TextField } from '../../../components/ui/Field';
+import { TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
 import { useCreatePlan } from '../api/create-plan';
 import { useUpdatePlan } from '../api/update-plan';
 import { getPlanQueryOptions } from '../api/get-plan';
-import { blankStage, copiedStages, planFormResolver, planToForm, type PlanForm } from './plan-form';
+import { blankStage, copiedStages, planToForm, type PlanForm } from './plan-form';
 import { CAP_COLUMNS } from './plan-words';
-import { StageCard } from './StageCard';
+import { GuidanceField, StageCards, StaleNotice, usePlanStagesForm } from './PlanStagesForm';
 import { criterionFieldWords } from './StageCriteriaEditor';
 import { StartFromTemplate } from '../../plan-templates/components/StartFromTemplate';
 
@@ -25,8 +25,6 @@ export interface CopySource {
   planId: string;
   label: string;
 }
-
-const MAX_STAGES = 20;
 
 const STAGE_FIELD_WORDS: Record<string, string> = {
   label: 'Label',
@@ -124,16 +122,12 @@ export function PlanEditor({
   const update = useUpdatePlan(orgId, plan?.id ?? '');
   const save = plan ? update : create;
 
-  const resolver = useMemo(() => planFormResolver(unit), [unit]);
-  const methods = useForm<PlanForm, unknown, PlanCreateInput>({
-    resolver,
-    reValidateMode: 'onChange',
-    defaultValues: plan
-      ? planToForm(plan.current.stages, plan.current.guidance, unit)
-      : { stages: [blankStage()], guidance: '', changeNote: '' },
-  });
-  const { control, register, handleSubmit, reset, getValues, setValue, formState } = methods;
-  const { fields, append, remove, move, replace } = useFieldArray({ control, name: 'stages' });
+  const { methods, stages } = usePlanStagesForm(
+    unit,
+    plan ? planToForm(plan.current.stages, plan.current.guidance, unit) : { stages: [blankStage()], guidance: '', changeNote: '' },
+  );
+  const { register, handleSubmit, reset, getValues, setValue, formState } = methods;
+  const { replace } = stages;
 
   const stale = isApiError(update.error) && update.error.code === 'version_conflict';
   const problems = formState.submitCount > 0 ? errorSummary(formState.errors, getValues()) : [];
@@ -222,29 +216,9 @@ export function PlanEditor({
           </div>
         )}
 
-        <div className="space-y-4">
-          {fields.map((field, index) => (
-            <StageCard
-              key={field.id}
-              index={index}
-              count={fields.length}
-              unit={unit}
-              onMove={(to) => move(index, to)}
-              onRemove={() => remove(index)}
-            />
-          ))}
-        </div>
-        <Button variant="secondary" disabled={fields.length >= MAX_STAGES} onClick={() => append(blankStage(getValues('stages').at(-1)))}>
-          Add stage
-        </Button>
+        <StageCards stages={stages} unit={unit} />
 
-        <TextAreaField
-          label="Guidance for the athlete and family"
-          hint="Plain words shown with the limits to the athlete, their family and the coach, e.g. “Walk and cycle freely; no running until the review.”"
-          rows={3}
-          error={formState.errors.guidance?.message}
-          {...register('guidance')}
-        />
+        <GuidanceField hint="Plain words shown with the limits to the athlete, their family and the coach, e.g. “Walk and cycle freely; no running until the review.”" />
         <TextField
           label="Change note (optional)"
           hint="For the care team: why this version. It appears in Versions."
@@ -253,12 +227,7 @@ export function PlanEditor({
         />
 
         {stale ? (
-          <Notice tone="problem" role="alert" title="Plan not saved">
-            <p>{STALE_PLAN}</p>
-            <Button variant="secondary" size="sm" className="mt-2" onClick={() => void loadLatest()}>
-              Load the latest version
-            </Button>
-          </Notice>
+          <StaleNotice title="Plan not saved" message={STALE_PLAN} onLoadLatest={() => void loadLatest()} />
         ) : (
           <ErrorNotice error={save.error} title="Plan not saved" />
         )}
