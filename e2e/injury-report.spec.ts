@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { DEMO, signIn } from './helpers';
+import { DEMO, expectNoSidewaysScroll, signIn } from './helpers';
 
 /**
  * Issue 15 §3 in the browser: Dana (admin) reads Harbor Point's season injury report — totals with
@@ -21,6 +21,10 @@ test("an admin reads the season's injury report with small rows withheld and dow
   const download = page.waitForEvent('download');
   await page.getByRole('link', { name: 'Download CSV' }).click();
   expect((await download).suggestedFilename()).toMatch(/^loadline-injury-report-\d{4}-\d\d-\d\d-to-\d{4}-\d\d-\d\d\.csv$/);
+  // On a phone the long labels of the totals wrap: nothing pushes the page sideways.
+  await page.setViewportSize({ width: 375, height: 740 });
+  await expect(whole).toContainText('Time-loss injuries');
+  await expectNoSidewaysScroll(page);
 });
 
 test('a coach records a practice for the group in one step, with an absentee unticked', async ({ page }) => {

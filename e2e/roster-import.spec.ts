@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import { expect, test, type Page } from '@playwright/test';
-import { DEMO, expectHome, keepScreenshot, signIn } from './helpers';
+import { DEMO, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
 
 /**
  * Issue 16 §2 in the browser: Dana, the demo admin, downloads the roster template, checks a file with
@@ -63,6 +63,11 @@ test('Dana brings a roster: the template, the problems, the fix, the import, and
   await signIn(page, DEMO.admin.email);
   await page.getByRole('navigation', { name: 'Administration' }).getByRole('link', { name: 'Bring a roster' }).click();
   await expectHome(page, 'Bring a roster');
+  // The columns' explanation wraps to a phone's width.
+  const desk = page.viewportSize()!;
+  await page.setViewportSize({ width: 375, height: 740 });
+  await expectNoSidewaysScroll(page);
+  await page.setViewportSize(desk);
 
   // The template comes from the server, with the columns it reads.
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download the template' }).click()]);

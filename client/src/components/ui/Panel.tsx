@@ -75,14 +75,17 @@ export function Badge({ children, tone = 'plain' }: { children: ReactNode; tone?
   );
 }
 
-/** Definition list for a record's facts: label, value. */
+/**
+ * Definition list for a record's facts: label, value. A long label wraps within 60 % of the width
+ * rather than pushing the values off a phone's screen.
+ */
 export function Facts({ items }: { items: Array<{ label: string; value: ReactNode }> }) {
   return (
-    <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1.5 text-sm">
+    <dl className="grid grid-cols-[fit-content(60%)_minmax(0,1fr)] gap-x-4 gap-y-1.5 text-sm">
       {items.map((item) => (
         <div key={item.label} className="contents">
           <dt className="text-muted">{item.label}</dt>
-          <dd className="tabular-nums">{item.value}</dd>
+          <dd className="tabular-nums break-words">{item.value}</dd>
         </div>
       ))}
     </dl>

@@ -11,8 +11,9 @@ export function RosterColumns({ orgId }: { orgId: string }) {
         One row per athlete, with this header row. Only <code>name</code> and <code>email</code> are required; leave a cell empty when you
         do not know it.
       </p>
-      <div role="region" aria-label="The template's columns" tabIndex={0} className="overflow-x-auto">
-        <table className="w-full min-w-[36rem] text-left">
+      {/* Two columns wrap to a phone's width: no sideways scroll needed. */}
+      <div>
+        <table className="w-full text-left">
           <thead>
             <tr className="border-b border-rule">
               <th scope="col" className="py-1 pr-4">
@@ -26,8 +27,8 @@ export function RosterColumns({ orgId }: { orgId: string }) {
           <tbody>
             {ROSTER_COLUMNS.map((c) => (
               <tr key={c} className="border-b border-rule align-top">
-                <td className="py-1 pr-4">
-                  <code>{c}</code>
+                <td className="py-1 pr-3">
+                  <code className="break-all">{c}</code>
                 </td>
                 <td className="py-1">
                   <span className="font-semibold">{COLUMN_WORDS[c].label}.</span> {COLUMN_WORDS[c].says}
