@@ -11,6 +11,7 @@ import { existsSync } from 'node:fs';
 import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
+import { createInterface } from 'node:readline';
 import { loadConfig } from '../server/src/config';
 import { createLogger } from '../server/src/logger';
 import { startServer } from '../server/src/server';
@@ -30,11 +31,67 @@ function stage(name: string) {
   console.log(`\n=== ${name} ===`);
 }
 
-function run(cmd: string, argv: string[], env: Record<string, string> = {}): Promise<number> {
+/** Runs a command; with a prefix, each line of its output is printed with it (shards side by side). */
+function run(cmd: string, argv: string[], env: Record<string, string> = {}, prefix = ''): Promise<number> {
   return new Promise((resolve) => {
-    const child = spawn(cmd, argv, { cwd: ROOT, stdio: 'inherit', env: { ...process.env, ...env } });
+    const child = spawn(cmd, argv, { cwd: ROOT, stdio: prefix ? ['ignore', 'pipe', 'pipe'] : 'inherit', env: { ...process.env, ...env } });
+    if (prefix) {
+      for (const [from, to] of [
+        [child.stdout, process.stdout],
+        [child.stderr, process.stderr],
+      ] as const) {
+        createInterface({ input: from! }).on('line', (line) => to.write(`${prefix}${line}\n`));
+      }
+    }
     child.on('exit', (code, signal) => resolve(code ?? (signal ? 1 : 0)));
   });
+}
+
+/**
+ * Browser-test shards run side by side (E2E_SHARDS, default 2: the machine's two cores). Most of a
+ * browser test is waiting on the server, the database and bcrypt, so two at once take well under the
+ * time of one after the other.
+ */
+const E2E_SHARDS = Math.max(1, Number(process.env.E2E_SHARDS ?? 2));
+
+async function startE2eWorld(shard: number) {
+  const db = await openDatabase(`loadline_e2e_${shard}`, true);
+  await migrate(db.ownerUrl, db.url);
+  const fake = await startFakeSmtp(db.url, 0);
+  // Uploads made by the browser tests go to a folder of their own, removed afterwards.
+  const storageDir = await mkdtemp(path.join(os.tmpdir(), `loadline-e2e-uploads-${shard}-`));
+  const config = loadConfig({
+    ...process.env,
+    SMTP_URL: fake.url,
+    FAKE_MAIL: 'true',
+    DATABASE_URL: db.url,
+    SESSION_SECRET: 'e2e-secret-e2e-secret-e2e-secret-e2e-secret',
+    PORT: '0',
+    LOG_LEVEL: 'warn',
+    // Every browser test signs in from the same address; the per-IP limit is tested in vitest.
+    SIGNIN_MAX_PER_IP: '1000',
+    ORG_SIGNUP_MAX_PER_IP: '1000',
+    CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
+    STORAGE_DIR: storageDir,
+  });
+  const seedDs = createDataSource(db.url, 2);
+  await seedDs.initialize();
+  await loadDemo(seedDs, { config, mail: true });
+  // Browser tests that need an athlete with nothing under way use their own (e2e/helpers.ts CLEAN).
+  await addCleanAthletes(seedDs);
+  await seedDs.destroy();
+  const server = await startServer(config, createLogger(config.LOG_LEVEL));
+  return {
+    shard,
+    cluster: db.cluster,
+    url: server.url,
+    dbUrl: db.url,
+    async stop() {
+      await server.stop();
+      await fake.stop();
+      await rm(storageDir, { recursive: true, force: true });
+    },
+  };
 }
 
 function ensureChromium() {
@@ -85,48 +142,35 @@ try {
   }
 
   if (only('e2e')) {
-    stage('browser tests (Playwright on Debian Chromium)');
+    stage(`browser tests (Playwright on Debian Chromium), ${E2E_SHARDS} shard(s) side by side`);
     ensureChromium();
-    const db = await openDatabase('loadline_e2e', true);
-    cluster ??= db.cluster;
-    await migrate(db.ownerUrl, db.url);
     await buildClient();
-    const fake = await startFakeSmtp(db.url, 0);
-    // Uploads made by the browser tests go to a folder of their own, removed afterwards.
-    const storageDir = await mkdtemp(path.join(os.tmpdir(), 'loadline-e2e-uploads-'));
-    const config = loadConfig({
-      ...process.env,
-      SMTP_URL: fake.url,
-      FAKE_MAIL: 'true',
-      DATABASE_URL: db.url,
-      SESSION_SECRET: 'e2e-secret-e2e-secret-e2e-secret-e2e-secret',
-      PORT: '0',
-      LOG_LEVEL: 'warn',
-      // Every browser test signs in from the same address; the per-IP limit is tested in vitest.
-      SIGNIN_MAX_PER_IP: '1000',
-      ORG_SIGNUP_MAX_PER_IP: '1000',
-      CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
-      STORAGE_DIR: storageDir,
-    });
-    const seedDs = createDataSource(db.url, 2);
-    await seedDs.initialize();
-    await loadDemo(seedDs, { config, mail: true });
-    // Browser tests that need an athlete with nothing under way use their own (e2e/helpers.ts CLEAN).
-    await addCleanAthletes(seedDs);
-    await seedDs.destroy();
-    const server = await startServer(config, createLogger(config.LOG_LEVEL));
+    // Each shard is a whole world of its own: its database with the demo, its fake mail server, its app
+    // server and its Playwright process, running a share of the spec files. Nothing is shared between
+    // shards, so the specs may assume what they assume in one sequential run.
+    const shards = await Promise.all(Array.from({ length: E2E_SHARDS }, (_, i) => startE2eWorld(i + 1)));
+    cluster ??= shards[0].cluster;
     try {
-      // The database URL lets a browser test read the fake mailbox (e.g. a password reset link).
-      const code = await run('npx', ['playwright', 'test', ...specs], {
-        E2E_BASE_URL: server.url,
-        CHROMIUM_PATH: CHROMIUM,
-        E2E_DATABASE_URL: db.url,
-      });
-      if (code !== 0) throw new Error('browser tests failed');
+      const codes = await Promise.all(
+        shards.map((w) =>
+          run(
+            'npx',
+            [
+              'playwright',
+              'test',
+              ...(E2E_SHARDS > 1 ? [`--shard=${w.shard}/${E2E_SHARDS}`] : []),
+              `--output=test-results/shard-${w.shard}`,
+              ...specs,
+            ],
+            // The database URL lets a browser test read the fake mailbox (e.g. a password reset link).
+            { E2E_BASE_URL: w.url, CHROMIUM_PATH: CHROMIUM, E2E_DATABASE_URL: w.dbUrl },
+            E2E_SHARDS > 1 ? `[e2e ${w.shard}/${E2E_SHARDS}] ` : '',
+          ),
+        ),
+      );
+      if (codes.some((c) => c !== 0)) throw new Error('browser tests failed');
     } finally {
-      await server.stop();
-      await fake.stop();
-      await rm(storageDir, { recursive: true, force: true });
+      for (const w of shards) await w.stop();
     }
   }
   console.log('\nAll tests passed.');
