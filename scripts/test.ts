@@ -8,18 +8,10 @@
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
-import { mkdtemp, rm } from 'node:fs/promises';
-import os from 'node:os';
 import path from 'node:path';
 import { createInterface } from 'node:readline';
-import { loadConfig } from '../server/src/config';
-import { createLogger } from '../server/src/logger';
-import { startServer } from '../server/src/server';
-import { createDataSource } from '../server/src/data-source';
-import { loadDemo } from '../server/src/seed/demo';
-import { addCleanAthletes } from '../server/src/test/e2e-athletes';
-import { ROOT, buildClient, migrate, openDatabase } from './runtime';
-import { startFakeSmtp } from '../server/src/mail/fake-smtp';
+import { ROOT, buildClient, openDatabase } from './runtime';
+import { startCluster } from './pg-cluster';
 
 const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 // Spec files named after the stage (`scripts/test.ts e2e e2e/coach.spec.ts`) narrow the browser tests.
@@ -54,44 +46,29 @@ function run(cmd: string, argv: string[], env: Record<string, string> = {}, pref
  */
 const E2E_SHARDS = Math.max(1, Number(process.env.E2E_SHARDS ?? 2));
 
-async function startE2eWorld(shard: number) {
-  const db = await openDatabase(`loadline_e2e_${shard}`, true);
-  await migrate(db.ownerUrl, db.url);
-  const fake = await startFakeSmtp(db.url, 0);
-  // Uploads made by the browser tests go to a folder of their own, removed afterwards.
-  const storageDir = await mkdtemp(path.join(os.tmpdir(), `loadline-e2e-uploads-${shard}-`));
-  const config = loadConfig({
-    ...process.env,
-    SMTP_URL: fake.url,
-    FAKE_MAIL: 'true',
-    DATABASE_URL: db.url,
-    SESSION_SECRET: 'e2e-secret-e2e-secret-e2e-secret-e2e-secret',
-    PORT: '0',
-    LOG_LEVEL: 'warn',
-    // Every browser test signs in from the same address; the per-IP limit is tested in vitest.
-    SIGNIN_MAX_PER_IP: '1000',
-    ORG_SIGNUP_MAX_PER_IP: '1000',
-    CLIENT_DIST: path.join(ROOT, 'client', 'dist'),
-    STORAGE_DIR: storageDir,
+/** Starts scripts/e2e-world.ts for one shard and waits for its address (a process each: see there). */
+function startE2eWorld(shard: number): Promise<{ shard: number; url: string; dbUrl: string; stop(): Promise<void> }> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'scripts', 'e2e-world.ts'), String(shard)], {
+      cwd: ROOT,
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
+    const exited = new Promise<void>((done) => child.on('exit', () => done()));
+    child.on('exit', (code) => reject(new Error(`the browser-test world ${shard} stopped (exit ${code}) before it was ready`)));
+    createInterface({ input: child.stdout }).on('line', (line) => {
+      if (!line.startsWith('E2E_WORLD ')) return void process.stdout.write(`[world ${shard}] ${line}\n`);
+      const { url, dbUrl } = JSON.parse(line.slice('E2E_WORLD '.length)) as { url: string; dbUrl: string };
+      resolve({
+        shard,
+        url,
+        dbUrl,
+        async stop() {
+          child.kill('SIGTERM');
+          await exited;
+        },
+      });
+    });
   });
-  const seedDs = createDataSource(db.url, 2);
-  await seedDs.initialize();
-  await loadDemo(seedDs, { config, mail: true });
-  // Browser tests that need an athlete with nothing under way use their own (e2e/helpers.ts CLEAN).
-  await addCleanAthletes(seedDs);
-  await seedDs.destroy();
-  const server = await startServer(config, createLogger(config.LOG_LEVEL));
-  return {
-    shard,
-    cluster: db.cluster,
-    url: server.url,
-    dbUrl: db.url,
-    async stop() {
-      await server.stop();
-      await fake.stop();
-      await rm(storageDir, { recursive: true, force: true });
-    },
-  };
 }
 
 function ensureChromium() {
@@ -148,8 +125,15 @@ try {
     // Each shard is a whole world of its own: its database with the demo, its fake mail server, its app
     // server and its Playwright process, running a share of the spec files. Nothing is shared between
     // shards, so the specs may assume what they assume in one sequential run.
-    const shards = await Promise.all(Array.from({ length: E2E_SHARDS }, (_, i) => startE2eWorld(i + 1)));
-    cluster ??= shards[0].cluster;
+    // The cluster is started here, so this process stops it at the end; the worlds find it running.
+    if (!process.env.DATABASE_URL) cluster ??= startCluster();
+    const started = await Promise.allSettled(Array.from({ length: E2E_SHARDS }, (_, i) => startE2eWorld(i + 1)));
+    const shards = started.flatMap((r) => (r.status === 'fulfilled' ? [r.value] : []));
+    const failedToStart = started.find((r) => r.status === 'rejected');
+    if (failedToStart) {
+      for (const w of shards) await w.stop();
+      throw failedToStart.reason as Error;
+    }
     try {
       const codes = await Promise.all(
         shards.map((w) =>
