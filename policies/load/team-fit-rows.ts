@@ -3,7 +3,7 @@ import type { EngineContext } from './compliance';
 import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import type { PreparedRules } from './prepared-rules';
 import { unreadableFields } from './check-support';
-import type { EngineSet } from './sets';
+import type { EngineSet, PlannedLoad } from './sets';
 import { resolveLoad } from './team-fit-support';
 
 /**
@@ -40,40 +40,56 @@ export const addNotes = (slot: Slot, notes: readonly string[]) => {
 };
 
 /**
- * The team's sets of one row resolved for this athlete (a % of 1RM as a load on the steps): each set as
- * written. A set whose load needs no resolving is its own version (sets are never changed in place).
+ * One athlete's % of 1RM loads resolved on each exercise's steps (resolveLoad), kept per exercise and
+ * % across all the sessions fitted to them: a squad's program repeats the same few percentages. The
+ * answer depends only on the exercise, the % and the athlete's baselines, which this holds by
+ * reference (loadsFor makes a new one for other baselines). A % that cannot be resolved comes back as
+ * the very load passed in, as resolveLoad returns it.
  */
-export function asWrittenOf(ex: EngineExercise | undefined, baselines: Record<string, number>): (s: PlannedSetInput) => PlannedSetInput {
-  // A row's sets usually share their % of 1RM: resolved once per value.
-  let lastPercent: number | null = null;
-  let lastLoad: PlannedSetInput['load'] | null = null;
-  const resolve = (load: PlannedSetInput['load']) => {
-    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, baselines) : load;
-    if (load.value !== lastPercent || lastLoad === null) {
-      lastPercent = load.value;
-      lastLoad = resolveLoad(load, ex, baselines);
-    }
-    return lastLoad;
-  };
-  return (s) => {
-    const load = resolve(s.load);
-    return load === s.load ? s : { ...s, load };
-  };
+export class ResolvedLoads {
+  private readonly byExercise = new Map<EngineExercise, Map<number, PlannedLoad>>();
+  constructor(readonly baselines: Record<string, number>) {}
+
+  of(load: PlannedLoad, ex: EngineExercise): PlannedLoad {
+    if (load.kind !== 'percent') return load;
+    let byPercent = this.byExercise.get(ex);
+    if (!byPercent) this.byExercise.set(ex, (byPercent = new Map()));
+    let r = byPercent.get(load.value);
+    if (r === undefined) byPercent.set(load.value, (r = resolveLoad(load, ex, this.baselines)));
+    return r.kind === 'percent' ? load : r;
+  }
+}
+
+/** The resolved loads kept with an athlete's prepared rules (one squad fitting), for these baselines. */
+const kept = new WeakMap<PreparedRules, ResolvedLoads>();
+export function loadsFor(prepared: PreparedRules, baselines: Record<string, number>): ResolvedLoads {
+  let loads = kept.get(prepared);
+  if (loads?.baselines !== baselines) kept.set(prepared, (loads = new ResolvedLoads(baselines)));
+  return loads;
+}
+
+/**
+ * A team set resolved for this athlete (a % of 1RM as a load on the steps): the set as written. A set
+ * whose load needs no resolving is its own version (sets are never changed in place).
+ */
+export function asWrittenSet(s: PlannedSetInput, ex: EngineExercise | undefined, loads: ResolvedLoads): PlannedSetInput {
+  if (!ex) return s;
+  const load = loads.of(s.load, ex);
+  return load === s.load ? s : { ...s, load };
 }
 
 /**
  * The session as written for this athlete (what finish returns when nothing changed), or null when an
  * exercise is unknown or a set cannot be read (the fitting loop then says why). Only for a calendar day.
  */
-export function asWrittenContent(content: SessionContent, ctx: EngineContext): SessionContent | null {
+export function asWrittenContent(content: SessionContent, ctx: EngineContext, loads: ResolvedLoads): SessionContent | null {
   const exercises: SessionContent['exercises'] = [];
   for (const r of content.exercises) {
     const ex = ctx.exercises[r.exerciseId];
     if (!ex) return null;
-    const asWritten = asWrittenOf(ex, ctx.baselines);
     const sets: PlannedSetInput[] = [];
     for (const s of r.sets) {
-      const set = asWritten(s);
+      const set = asWrittenSet(s, ex, loads);
       if (unreadableFields(set) !== null) return null;
       sets.push(set);
     }
@@ -82,9 +98,8 @@ export function asWrittenContent(content: SessionContent, ctx: EngineContext): S
   return { exercises };
 }
 
-export function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
+export function newRow(r: SessionContent['exercises'][number], ctx: EngineContext, loads: ResolvedLoads): Row {
   const ex = ctx.exercises[r.exerciseId];
-  const asWrittenSet = asWrittenOf(ex, ctx.baselines);
   return {
     id: r.id,
     teamExerciseId: r.exerciseId,
@@ -92,7 +107,7 @@ export function newRow(r: SessionContent['exercises'][number], ctx: EngineContex
     ex,
     notes: r.notes,
     slots: r.sets.map((s) => {
-      const asWritten = asWrittenSet(s);
+      const asWritten = asWrittenSet(s, ex, loads);
       return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES };
     }),
     swaps: null,

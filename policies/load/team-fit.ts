@@ -15,6 +15,7 @@ import {
   asWrittenContent,
   contentOf,
   engineSetsOf,
+  loadsFor,
   newRow,
   rowReadable,
   untouched,
@@ -58,13 +59,14 @@ export function fitTeamSession(
   if (prepared.outOn(team.date)) return { content: { exercises: [] }, changes: [], state: 'out' };
   const engine: EngineContext = ctx.waivedSetIds === undefined ? ctx : { ...ctx, waivedSetIds: undefined };
   const unit = ctx.unit ?? 'kg';
+  const loads = loadsFor(prepared, ctx.baselines);
   // No stage in force on a calendar day (and not Out): most versions of a team session. When every
   // exercise is known and every set reads, nothing can breach: the version is the session as written.
   if (ctx.plans.length === 0 || prepared.on(team.date)?.stages.day.stages.length === 0) {
-    const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx) : null;
+    const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx, loads) : null;
     if (content) return { content, changes: [], state: 'as_written' };
   }
-  const rows = team.content.exercises.map((r) => newRow(r, ctx));
+  const rows = team.content.exercises.map((r) => newRow(r, ctx, loads));
   // No plan and every exercise known: the check runs with no day (nothing to read rules from).
   const stages = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : stagesOn(prepared, team.date);
   const day = stages?.day;
