@@ -88,7 +88,10 @@ export function heaviestPassing(steps: LoadSteps, upperKg: number, ok: (kg: numb
   let lo = -1;
   let hi = count;
   if (guessKg !== undefined && isFiniteNumber(guessKg)) {
-    const g = Math.min(count - 1, values !== null ? values.filter((v) => v <= guessKg + EPS).length - 1 : Math.floor(guessKg / kg + EPS) - 1);
+    const g = Math.min(
+      count - 1,
+      values !== null ? values.filter((v) => v <= guessKg + EPS).length - 1 : Math.floor(guessKg / kg + EPS) - 1,
+    );
     if (g >= 0) {
       if (!passesAt(steps, values, ok, loadAt(steps, values, g))) hi = g;
       else if (g + 1 >= count || !passesAt(steps, values, ok, loadAt(steps, values, g + 1))) return loadAt(steps, values, g);

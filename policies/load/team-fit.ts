@@ -1,7 +1,7 @@
 import type { Unit } from '../schemas/common';
 import type { PlannedSetInput, SessionContent } from '../schemas/programs';
 import type { Breach, BreachRule } from './breach';
-import { blockingBreaches, checkSets, type EngineContext } from './compliance';
+import { blockingBreaches, checkSetsToFit, type EngineContext } from './compliance';
 import { suggestSwaps, type EngineExercise, type ExerciseRules } from './exercise-rules';
 import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
@@ -121,7 +121,7 @@ function fitLoop(
     if (sets.length === 0) return round;
     // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
     // order of its input does not change its answer).
-    const all = checkSets(others.length ? [...others, ...sets] : sets, ctx, prepared);
+    const all = checkSetsToFit(others.length ? [...others, ...sets] : sets, ctx, prepared);
     if (all.length === 0) return round;
     const ours = new Set(sets.map((s) => s.id));
     const breaches = blockingBreaches(all).filter((b) => ours.has(b.setId));
