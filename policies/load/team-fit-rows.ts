@@ -21,6 +21,9 @@ export interface Slot {
   repsCut: boolean;
   /** Why it changed; NO_NOTES (shared, frozen) until a note is added with addNotes. */
   notes: readonly string[];
+  /** The set as it last passed the engine, and the exercise it passed as (see engineSetsOf's onlyChanged). */
+  passed: PlannedSetInput | null;
+  passedAs: string | null;
 }
 
 export interface Row {
@@ -108,7 +111,7 @@ export function newRow(r: SessionContent['exercises'][number], ctx: EngineContex
     notes: r.notes,
     slots: r.sets.map((s) => {
       const asWritten = asWrittenSet(s, ex, loads);
-      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES };
+      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES, passed: null, passedAs: null };
     }),
     swaps: null,
     swapNotes: [],
@@ -125,9 +128,15 @@ export const rowReadable = (row: Row) => row.slots.every((slot) => slot.set === 
 
 /**
  * The session's sets as the engine reads them: sessionEngineSets(contentOf(rows)) without building the
- * content. `skip` leaves out a row's sets (numbered all the same, so the others keep their order).
+ * content. `skip` leaves out a row's sets, `onlyChanged` the sets that passed the engine as they stand
+ * (numbered all the same, so the others keep their order).
  */
-export function engineSetsOf(team: { id: string; date: string }, rows: Row[], skip?: (row: Row) => boolean): EngineSet[] {
+export function engineSetsOf(
+  team: { id: string; date: string },
+  rows: Row[],
+  skip?: (row: Row) => boolean,
+  onlyChanged = false,
+): EngineSet[] {
   const out: EngineSet[] = [];
   let order = 0;
   for (const r of rows) {
@@ -135,7 +144,7 @@ export function engineSetsOf(team: { id: string; date: string }, rows: Row[], sk
     for (const slot of r.slots) {
       const s = slot.set;
       if (s === null) continue;
-      if (skipped) {
+      if (skipped || (onlyChanged && slot.passed === s && slot.passedAs === r.exerciseId)) {
         order++;
         continue;
       }
@@ -181,3 +190,6 @@ export function contentOf(rows: Row[]): SessionContent {
   }
   return { exercises };
 }
+
+/** Whether a rule in force counts sets (per session or hard sets per week): a set's breaches may then depend on the other sets. */
+export const counts = (r: ExerciseRules) => r.capped.some((c) => c.maxSets !== undefined || c.maxHard !== undefined);

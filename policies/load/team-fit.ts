@@ -14,6 +14,7 @@ import {
   allReadable,
   asWrittenContent,
   contentOf,
+  counts,
   engineSetsOf,
   loadsFor,
   newRow,
@@ -116,7 +117,12 @@ function fitLoop(
   };
   const validDate = prepared.on(team.date) !== null;
   for (let round = 0; ; round++) {
-    const sets = engineSetsOf(team, rows, validDate ? skip : undefined);
+    // With no counted limit on any of the session's exercises (and no other sets counted), the engine
+    // reads each set on its own: a set that passed and has not changed since passes again, and only the
+    // sets changed by the last round are checked. Otherwise the whole session is checked again.
+    const perSet =
+      validDate && stages !== undefined && others.length === 0 && rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
+    const sets = engineSetsOf(team, rows, validDate ? skip : undefined, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
     // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
@@ -132,6 +138,12 @@ function fitLoop(
       if (list) list.push(b);
       else bySet.set(b.setId, [b]);
     }
+    for (const row of rows)
+      for (const slot of row.slots)
+        if (slot.set !== null && ours.has(slot.set.id) && !bySet.has(slot.set.id)) {
+          slot.passed = slot.set;
+          slot.passedAs = row.exerciseId;
+        }
     const last = round >= MAX_ROUNDS;
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
@@ -240,13 +252,7 @@ function drop(slot: Slot, notes: string[]) {
 /** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
 function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
   const original = ctx.exercises[row.teamExerciseId];
-  if (row.swaps === null) {
-    // The pattern family only: no-pattern exercises come from "use instead" (see (c) above).
-    const library = Object.values(ctx.exercises).filter((e) => e.patterns.length > 0);
-    const preferred = (original?.useInstead ?? []).filter((id) => id !== row.teamExerciseId && ctx.exercises[id]);
-    const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
-    row.swaps = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
-  }
+  if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day)];
   row.swapNotes.push(...why);
   const nextId = row.swaps.shift();
   if (nextId === undefined) {
@@ -268,6 +274,27 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
     slot.removed = null;
     slot.repsCut = false;
   }
+}
+
+/**
+ * The exercises a row of `teamExerciseId` may be swapped to on a day, in the order they are tried. The
+ * list depends only on the exercise, the library and the day's rules, so it is kept with the day's
+ * rules (shared by every session of the same stages of one athlete) for the same library.
+ */
+const swapLists = new WeakMap<InForce, { exercises: EngineContext['exercises']; byExercise: Map<string, string[]> }>();
+function swapCandidates(teamExerciseId: string, ctx: EngineContext, day: InForce | undefined): readonly string[] {
+  let kept = day && swapLists.get(day);
+  if (day && kept?.exercises !== ctx.exercises) swapLists.set(day, (kept = { exercises: ctx.exercises, byExercise: new Map() }));
+  let list = kept?.byExercise.get(teamExerciseId);
+  if (list) return list;
+  const original = ctx.exercises[teamExerciseId];
+  // The pattern family only: no-pattern exercises come from "use instead" (see (c) above).
+  const library = Object.values(ctx.exercises).filter((e) => e.patterns.length > 0);
+  const preferred = (original?.useInstead ?? []).filter((id) => id !== teamExerciseId && ctx.exercises[id]);
+  const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
+  list = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
+  kept?.byExercise.set(teamExerciseId, list);
+  return list;
 }
 
 function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
