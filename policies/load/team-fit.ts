@@ -7,7 +7,7 @@ import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
 import { PATTERN_LABELS } from './patterns';
 import { PreparedRules, type StageRules } from './prepared-rules';
-import { plannedKg, type EngineSet } from './sets';
+import { plannedKg, sessionEngineSets, type EngineSet } from './sets';
 import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
 import {
   addNotes,
@@ -53,7 +53,7 @@ import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, 
 export function fitTeamSession(
   team: { id: string; date: string; content: SessionContent },
   ctx: EngineContext,
-  opts: { otherSets?: EngineSet[]; rules?: PreparedRules } = {},
+  opts: { otherSets?: EngineSet[]; otherSessions?: readonly SessionOf[]; rules?: PreparedRules } = {},
 ): FittedSession {
   // The athlete's rules, prepared once for all the sessions fitted to them (a squad's program), or for this one.
   const prepared = opts.rules?.fits(ctx) ? opts.rules : new PreparedRules(ctx);
@@ -80,10 +80,33 @@ export function fitTeamSession(
     return finish(rows, unit, ctx);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
-  const weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
-  const others = weekly ? (opts.otherSets ?? []).filter((s) => s.sessionId !== team.id) : [];
+  const others = weeklyLimit(day) ? otherSetsOf(opts, team.id) : [];
   fitLoop(team, rows, engine, others, prepared, stages);
   return finish(rows, unit, ctx);
+}
+
+type SessionOf = { id: string; date: string; content: SessionContent };
+
+/** Whether a weekly hard-set limit is in force on the day (kept per day's rules). */
+const weeklyByDay = new WeakMap<InForce, boolean>();
+function weeklyLimit(day: InForce): boolean {
+  let weekly = weeklyByDay.get(day);
+  if (weekly === undefined) {
+    weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
+    weeklyByDay.set(day, weekly);
+  }
+  return weekly;
+}
+
+/**
+ * The athlete's other sets of the same weeks, counted toward weekly limits: `otherSets` as given, and
+ * `otherSessions` turned into engine sets here, only when a weekly limit needs them.
+ */
+function otherSetsOf(opts: { otherSets?: EngineSet[]; otherSessions?: readonly SessionOf[] }, teamId: string): EngineSet[] {
+  const out: EngineSet[] = [];
+  for (const s of opts.otherSets ?? []) if (s.sessionId !== teamId) out.push(s);
+  for (const session of opts.otherSessions ?? []) if (session.id !== teamId) out.push(...sessionEngineSets(session));
+  return out;
 }
 
 /** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
@@ -138,12 +161,13 @@ function fitLoop(
       if (list) list.push(b);
       else bySet.set(b.setId, [b]);
     }
-    for (const row of rows)
-      for (const slot of row.slots)
-        if (slot.set !== null && ours.has(slot.set.id) && !bySet.has(slot.set.id)) {
-          slot.passed = slot.set;
-          slot.passedAs = row.exerciseId;
-        }
+    if (perSet)
+      for (const row of rows)
+        for (const slot of row.slots)
+          if (slot.set !== null && ours.has(slot.set.id) && !bySet.has(slot.set.id)) {
+            slot.passed = slot.set;
+            slot.passedAs = row.exerciseId;
+          }
     const last = round >= MAX_ROUNDS;
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
