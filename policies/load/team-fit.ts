@@ -2,12 +2,13 @@ import type { Unit } from '../schemas/common';
 import type { PlannedSetInput, SessionContent } from '../schemas/programs';
 import type { Breach, BreachRule } from './breach';
 import { blockingBreaches, checkSetsToFit, type EngineContext } from './compliance';
-import { suggestSwaps, type EngineExercise, type ExerciseRules } from './exercise-rules';
+import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
 import { PATTERN_LABELS } from './patterns';
 import { PreparedRules, type StageRules } from './prepared-rules';
-import { plannedKg, sessionEngineSets, type EngineSet } from './sets';
+import { plannedKg, type EngineSet } from './sets';
+import { otherSetsOf, swapCandidates, weeklyLimit, type SessionOf } from './team-fit-day';
 import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
 import {
   addNotes,
@@ -53,7 +54,14 @@ import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, 
 export function fitTeamSession(
   team: { id: string; date: string; content: SessionContent },
   ctx: EngineContext,
-  opts: { otherSets?: EngineSet[]; otherSessions?: readonly SessionOf[]; rules?: PreparedRules } = {},
+  opts: {
+    /** The athlete's other sets of the same weeks, counted toward weekly limits, as engine sets or as sessions. */
+    otherSets?: EngineSet[];
+    otherSessions?: readonly SessionOf[];
+    rules?: PreparedRules;
+    /** Check every set again in every round, never only the changed ones: the same answer, slower (for the test that says so). */
+    recheckEverySet?: boolean;
+  } = {},
 ): FittedSession {
   // The athlete's rules, prepared once for all the sessions fitted to them (a squad's program), or for this one.
   const prepared = opts.rules?.fits(ctx) ? opts.rules : new PreparedRules(ctx);
@@ -76,37 +84,13 @@ export function fitTeamSession(
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
     // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
     if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx);
-    fitLoop(team, rows, engine, [], prepared, stages);
+    fitLoop(team, rows, engine, [], prepared, stages, opts.recheckEverySet);
     return finish(rows, unit, ctx);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   const others = weeklyLimit(day) ? otherSetsOf(opts, team.id) : [];
-  fitLoop(team, rows, engine, others, prepared, stages);
+  fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
   return finish(rows, unit, ctx);
-}
-
-type SessionOf = { id: string; date: string; content: SessionContent };
-
-/** Whether a weekly hard-set limit is in force on the day (kept per day's rules). */
-const weeklyByDay = new WeakMap<InForce, boolean>();
-function weeklyLimit(day: InForce): boolean {
-  let weekly = weeklyByDay.get(day);
-  if (weekly === undefined) {
-    weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
-    weeklyByDay.set(day, weekly);
-  }
-  return weekly;
-}
-
-/**
- * The athlete's other sets of the same weeks, counted toward weekly limits: `otherSets` as given, and
- * `otherSessions` turned into engine sets here, only when a weekly limit needs them.
- */
-function otherSetsOf(opts: { otherSets?: EngineSet[]; otherSessions?: readonly SessionOf[] }, teamId: string): EngineSet[] {
-  const out: EngineSet[] = [];
-  for (const s of opts.otherSets ?? []) if (s.sessionId !== teamId) out.push(s);
-  for (const session of opts.otherSessions ?? []) if (session.id !== teamId) out.push(...sessionEngineSets(session));
-  return out;
 }
 
 /** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
@@ -129,7 +113,8 @@ function fitLoop(
   ctx: EngineContext,
   others: EngineSet[],
   prepared: PreparedRules,
-  stages?: StageRules,
+  stages: StageRules | undefined,
+  recheckEverySet = false,
 ): number {
   const day = stages?.day;
   const rulesOf = (ex: EngineExercise) => (stages ? prepared.rulesFor(stages, ex) : undefined);
@@ -144,7 +129,11 @@ function fitLoop(
     // reads each set on its own: a set that passed and has not changed since passes again, and only the
     // sets changed by the last round are checked. Otherwise the whole session is checked again.
     const perSet =
-      validDate && stages !== undefined && others.length === 0 && rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
+      !recheckEverySet &&
+      validDate &&
+      stages !== undefined &&
+      others.length === 0 &&
+      rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
     const sets = engineSetsOf(team, rows, validDate ? skip : undefined, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
@@ -276,7 +265,7 @@ function drop(slot: Slot, notes: string[]) {
 /** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
 function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
   const original = ctx.exercises[row.teamExerciseId];
-  if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day)];
+  if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day, MAX_SWAP_CANDIDATES)];
   row.swapNotes.push(...why);
   const nextId = row.swaps.shift();
   if (nextId === undefined) {
@@ -298,27 +287,6 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
     slot.removed = null;
     slot.repsCut = false;
   }
-}
-
-/**
- * The exercises a row of `teamExerciseId` may be swapped to on a day, in the order they are tried. The
- * list depends only on the exercise, the library and the day's rules, so it is kept with the day's
- * rules (shared by every session of the same stages of one athlete) for the same library.
- */
-const swapLists = new WeakMap<InForce, { exercises: EngineContext['exercises']; byExercise: Map<string, string[]> }>();
-function swapCandidates(teamExerciseId: string, ctx: EngineContext, day: InForce | undefined): readonly string[] {
-  let kept = day && swapLists.get(day);
-  if (day && kept?.exercises !== ctx.exercises) swapLists.set(day, (kept = { exercises: ctx.exercises, byExercise: new Map() }));
-  let list = kept?.byExercise.get(teamExerciseId);
-  if (list) return list;
-  const original = ctx.exercises[teamExerciseId];
-  // The pattern family only: no-pattern exercises come from "use instead" (see (c) above).
-  const library = Object.values(ctx.exercises).filter((e) => e.patterns.length > 0);
-  const preferred = (original?.useInstead ?? []).filter((id) => id !== teamExerciseId && ctx.exercises[id]);
-  const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
-  list = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
-  kept?.byExercise.set(teamExerciseId, list);
-  return list;
 }
 
 function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
