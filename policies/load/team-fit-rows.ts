@@ -1,7 +1,7 @@
 import type { PlannedSetInput, SessionContent } from '../schemas/programs';
 import type { EngineContext } from './compliance';
 import type { EngineExercise, ExerciseRules } from './exercise-rules';
-import type { PreparedRules } from './prepared-rules';
+import type { PreparedRules, StageRules } from './prepared-rules';
 import { unreadableFields } from './check-support';
 import type { EngineSet, PlannedLoad } from './sets';
 import { resolveLoad } from './team-fit-support';
@@ -128,19 +128,19 @@ export const rowReadable = (row: Row) => row.slots.every((slot) => slot.set === 
 
 /**
  * The session's sets as the engine reads them: sessionEngineSets(contentOf(rows)) without building the
- * content. `skip` leaves out a row's sets, `onlyChanged` the sets that passed the engine as they stand
+ * content. `untouchedIn` leaves out the sets of a row no rule in force on the day touches, `onlyChanged` the sets that passed the engine as they stand
  * (numbered all the same, so the others keep their order).
  */
 export function engineSetsOf(
   team: { id: string; date: string },
   rows: Row[],
-  skip?: (row: Row) => boolean,
+  untouchedIn: { stages: StageRules; prepared: PreparedRules } | null,
   onlyChanged = false,
 ): EngineSet[] {
   const out: EngineSet[] = [];
   let order = 0;
   for (const r of rows) {
-    const skipped = skip?.(r) ?? false;
+    const skipped = untouchedIn !== null && rowUntouched(r, untouchedIn.stages, untouchedIn.prepared);
     for (const slot of r.slots) {
       const s = slot.set;
       if (s === null) continue;
@@ -162,6 +162,11 @@ export function engineSetsOf(
     }
   }
   return out;
+}
+
+/** A row whose exercise no rule in force touches and whose sets all read: the engine can find nothing against it. */
+function rowUntouched(row: Row, stages: StageRules, prepared: PreparedRules): boolean {
+  return row.ex !== undefined && untouched(row.ex, prepared.rulesFor(stages, row.ex)) && rowReadable(row);
 }
 
 /**

@@ -19,8 +19,6 @@ import {
   engineSetsOf,
   loadsFor,
   newRow,
-  rowReadable,
-  untouched,
   type Row,
   type Slot,
 } from './team-fit-rows';
@@ -117,12 +115,7 @@ function fitLoop(
   recheckEverySet = false,
 ): number {
   const day = stages?.day;
-  const rulesOf = (ex: EngineExercise) => (stages ? prepared.rulesFor(stages, ex) : undefined);
-  const skip = (row: Row) => {
-    if (!row.ex || !day) return false;
-    const r = rulesOf(row.ex);
-    return r !== undefined && untouched(row.ex, r) && rowReadable(row);
-  };
+  // No closures made per call here or in finish (each is named, and costs, under tsx): this runs per session.
   const validDate = prepared.on(team.date) !== null;
   for (let round = 0; ; round++) {
     // With no counted limit on any of the session's exercises (and no other sets counted), the engine
@@ -134,7 +127,7 @@ function fitLoop(
       stages !== undefined &&
       others.length === 0 &&
       rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
-    const sets = engineSetsOf(team, rows, validDate ? skip : undefined, perSet);
+    const sets = engineSetsOf(team, rows, validDate && stages ? { stages, prepared } : null, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
     // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
@@ -170,7 +163,7 @@ function fitLoop(
           drop(slot, bs.map(noteOf));
           continue;
         }
-        const action = fixSet(slot, bs, row, ctx, rulesOf, onlyCounts);
+        const action = fixSet(slot, bs, row, ctx, prepared, stages, onlyCounts);
         if (action === 'swap') {
           swapRow = true;
           swapWhy.push(...bs.filter((b) => !COUNT_RULES.has(b.rule)).map(noteOf));
@@ -187,7 +180,8 @@ function fixSet(
   bs: Breach[],
   row: Row,
   ctx: EngineContext,
-  rulesOf: (ex: EngineExercise) => ExerciseRules | undefined,
+  prepared: PreparedRules | undefined,
+  stages: StageRules | undefined,
   onlyCounts: boolean,
 ): 'fixed' | 'swap' | 'none' {
   const set = slot.set!;
@@ -197,10 +191,11 @@ function fixSet(
     return 'fixed';
   }
   if (bs.some((b) => SWAP_RULES.has(b.rule))) return 'swap';
+  const rules = prepared && stages ? prepared.rulesFor(stages, ex) : undefined;
   let next: PlannedSetInput = { ...set };
   const notes: string[] = [];
   const repCap = bs.find((b) => b.rule === 'reps_per_set');
-  const capValue = repCap && rulesOf(ex)?.reps?.value;
+  const capValue = repCap && rules?.reps?.value;
   if (repCap && capValue !== undefined && capValue !== null && capValue >= 1) {
     next.reps = Math.min(next.reps, Math.floor(capValue));
     slot.repsCut = true;
@@ -208,7 +203,7 @@ function fixSet(
   } else if (repCap) return 'swap';
   const loads = bs.filter((b) => LOAD_RULES.has(b.rule));
   if (loads.length > 0 && !repCap) {
-    const fix = loadFix(next, loads, ex, ctx, rulesOf);
+    const fix = loadFix(next, loads, ex, ctx, rules);
     if (fix === null) return 'swap';
     if (fix.reps < next.reps) slot.repsCut = true;
     next = fix;
@@ -235,7 +230,7 @@ function loadFix(
   loads: Breach[],
   ex: EngineExercise,
   ctx: EngineContext,
-  rulesOf: (ex: EngineExercise) => ExerciseRules | undefined,
+  rules: ExerciseRules | undefined,
 ): PlannedSetInput | null {
   const withFit = loads.filter((b) => b.fittingKg !== null);
   if (withFit.length > 0) {
@@ -243,12 +238,12 @@ function loadFix(
     const reps = Math.min(set.reps, ...withFit.map((b) => b.fittingReps ?? set.reps));
     return { ...set, reps, load: loadOnSteps(kg, ex.steps) };
   }
-  const rpeCap = rulesOf(ex)?.rpe?.value;
+  const rpeCap = rules?.rpe?.value;
   if (loads.every((b) => b.rule === 'rpe') && rpeCap !== undefined && rpeCap >= 1) {
     if (set.targetRpe != null) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
     const oneRm = oneRmFor(ex, ctx.baselines);
     if (set.load.kind === 'percent' && oneRm === undefined) {
-      const p = suggestPercent(set.reps, rpeCap, rulesOf(ex)?.pct?.value ?? null);
+      const p = suggestPercent(set.reps, rpeCap, rules?.pct?.value ?? null);
       return p && { ...set, reps: p.reps, load: { kind: 'percent', value: p.percent } };
     }
     if (plannedKg(set.load, oneRm) === null || oneRm === undefined) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
@@ -292,21 +287,12 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
 function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
   const changes: FitChange[] = [];
   // The sets of a row are mostly alike: the words of the last set are kept for the next one like it.
-  const lastWords = (): ((set: PlannedSetInput) => string) => {
-    let last: PlannedSetInput | null = null;
-    let words = '';
-    return (set) => {
-      if (last === null || !sameSet(last, set)) words = setWords((last = set), unit);
-      return words;
-    };
-  };
-  const notesOf = (notes: readonly string[]) => [...new Set(notes)].join('; ');
   for (const row of rows) {
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
-    const beforeWords = lastWords();
-    const afterWords = lastWords();
+    const beforeWords = new LastWords(unit);
+    const afterWords = new LastWords(unit);
     const rowNote = swapped ? notesOf(row.swapNotes) : '';
     for (const slot of row.slots) {
       // Untouched since it was resolved: as written (the words below are built only for a change).
@@ -326,7 +312,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
           (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
         if (onlyRounded) continue;
       }
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords(asWritten)}`;
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords.of(asWritten)}`;
       const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
       // Written out rather than spread from a common part: this runs for every changed set of a squad.
       const teamExerciseRowId = row.id;
@@ -346,7 +332,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
         continue;
       }
       if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords(set)}`;
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords.of(set)}`;
         changes.push({
           teamExerciseRowId,
           teamSetId,
@@ -360,9 +346,22 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
         continue;
       }
       const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords(set), note });
+      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords.of(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
   return { content: contentOf(rows), changes, state };
+}
+
+const notesOf = (notes: readonly string[]) => [...new Set(notes)].join('; ');
+
+/** The words of a set; the sets of a row are mostly alike, so the words of the last set are kept for the next one like it. */
+class LastWords {
+  private last: PlannedSetInput | null = null;
+  private words = '';
+  constructor(private readonly unit: Unit) {}
+  of(set: PlannedSetInput): string {
+    if (this.last === null || !sameSet(this.last, set)) this.words = setWords((this.last = set), this.unit);
+    return this.words;
+  }
 }
