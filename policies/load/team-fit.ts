@@ -134,8 +134,9 @@ function fitLoop(
     // order of its input does not change its answer).
     const all = checkSetsToFit(others.length ? [...others, ...sets] : sets, ctx, prepared);
     if (all.length === 0) return round;
-    const ours = new Set(sets.map((s) => s.id));
-    const breaches = blockingBreaches(all).filter((b) => ours.has(b.setId));
+    // Only the session's own breaches are fixed (the other sessions' sets are checked with it, not changed).
+    const ours = others.length > 0 ? new Set(sets.map((s) => s.id)) : null;
+    const breaches = ours ? blockingBreaches(all).filter((b) => ours.has(b.setId)) : blockingBreaches(all);
     if (breaches.length === 0) return round;
     const bySet = new Map<string, Breach[]>();
     for (const b of breaches) {
@@ -143,10 +144,12 @@ function fitLoop(
       if (list) list.push(b);
       else bySet.set(b.setId, [b]);
     }
+    // What passed as it stands: the sets checked without a breach, and those of rows no rule touches
+    // (left out of the check because the engine can find nothing against them).
     if (perSet)
       for (const row of rows)
         for (const slot of row.slots)
-          if (slot.set !== null && ours.has(slot.set.id) && !bySet.has(slot.set.id)) {
+          if (slot.set !== null && !bySet.has(slot.set.id)) {
             slot.passed = slot.set;
             slot.passedAs = row.exerciseId;
           }
