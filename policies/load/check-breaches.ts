@@ -45,10 +45,10 @@ export class BreachList {
     return (this.nums ??= memo(n))(v);
   }
 
-  /** A breach of the set being checked; its words are worked out only when they are kept (see `lean`). */
-  push(rule: BreachRule, pattern: MovementPattern | null, limit: string, fit: Fit | null, words: () => BreachWords): void {
+  /** A breach of the set being checked; in a lean check the words of a pattern breach are left empty (see `lean`). */
+  push(rule: BreachRule, pattern: MovementPattern | null, limit: string, fit: Fit | null, words: BreachWords): void {
     const set = this.set;
-    const [planned, fits, message] = this.lean && pattern !== null ? LEAN_WORDS : words();
+    const [planned, fits, message] = this.lean && pattern !== null ? LEAN_WORDS : words;
     this.list.push({
       setId: set.id,
       sessionId: set.sessionId,
@@ -98,4 +98,5 @@ export class BreachList {
   }
 }
 
-const LEAN_WORDS: BreachWords = ['', null, ''];
+/** The words of a pattern breach in a lean check: none. */
+export const LEAN_WORDS: BreachWords = ['', null, ''];

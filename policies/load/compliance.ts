@@ -2,7 +2,7 @@ import type { Unit } from '../schemas/common';
 import type { Breach } from './breach';
 import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import { overCap, percentOf, suggestPercent, type Fit } from './fitting';
-import { BreachList } from './check-breaches';
+import { BreachList, LEAN_WORDS } from './check-breaches';
 import { bySessionThenOrder, unreadableFields } from './check-support';
 import { isFiniteNumber } from './guard';
 import type { PlanInput } from './in-force';
@@ -69,6 +69,8 @@ function countsFor(map: Map<string, Int32Array>, key: string): Int32Array {
 function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | undefined, lean: boolean): Breach[] {
   // Helpers live on `b` (one object per check), not in closures made per check: fitting runs thousands.
   const b = new BreachList(ctx.unit ?? 'kg', lean);
+  // The words of a breach that names a pattern are built only for the full check (see checkSetsToFit).
+  const full = !lean;
   // The rules per day and per exercise: those prepared for this athlete, or worked out for this check.
   const rules = prepared?.fits(ctx) ? prepared : new PreparedRules(ctx);
   // Callers usually pass sets already in order; a stable sort would return them unchanged.
@@ -94,7 +96,7 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     b.waived = ctx.waivedSetIds?.has(set.id) ?? false;
     if (!ex) {
       // An exercise the engine does not know has no patterns to check: fail closed, never a pass.
-      b.push('unreadable', null, 'an exercise of the library', null, () => [
+      b.push('unreadable', null, 'an exercise of the library', null, [
         'an unknown exercise',
         null,
         'This set names an exercise that is not in the library, so it cannot be checked. Choose an exercise from the library.',
@@ -105,7 +107,7 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     const problem = set.date === date || rules.on(set.date) !== null ? unreadableFields(set) : 'its date is not a calendar day';
     if (problem) {
       // Unknown is never a pass: a set the engine cannot read is a breach, and nothing else is said of it.
-      b.push('unreadable', null, 'a set the check can read', null, () => [
+      b.push('unreadable', null, 'a set the check can read', null, [
         name,
         null,
         `${name}: this set cannot be checked: ${problem}. Fix the set.`,
@@ -124,7 +126,7 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     const r = rules.rulesFor(stages, ex);
 
     if (out && day.stages.length === 0) {
-      b.push('status_out', null, 'Out: no training until a clinician sets what is allowed', null, () => [
+      b.push('status_out', null, 'Out: no training until a clinician sets what is allowed', null, [
         `${name}`,
         null,
         `The athlete is Out on ${humanDate(set.date)} and no restriction plan says what they may train. Ask the clinician for a plan or an exception.`,
@@ -133,20 +135,32 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     }
     if (r.blocked) {
       const label = PATTERN_LABELS[r.blocked];
-      b.push('blocked', r.blocked, `${label} is blocked`, null, () => [
-        name,
+      b.push(
+        'blocked',
+        r.blocked,
+        `${label} is blocked`,
         null,
-        `${label} is blocked on ${humanDate(set.date)}: ${name} cannot be programmed. Swap to an exercise that fits.`,
-      ]);
+        full
+          ? [name, null, `${label} is blocked on ${humanDate(set.date)}: ${name} cannot be programmed. Swap to an exercise that fits.`]
+          : LEAN_WORDS,
+      );
       continue;
     }
     if (r.impactOff && ex.ballistic) {
       const impactOff = r.impactOff;
-      b.push('impact', impactOff, 'no impact', null, () => [
-        `${name} (impact)`,
+      b.push(
+        'impact',
+        impactOff,
+        'no impact',
         null,
-        `${PATTERN_LABELS[impactOff]}: no impact allowed on ${humanDate(set.date)}; ${name} is ballistic. Swap to a non-impact exercise.`,
-      ]);
+        full
+          ? [
+              `${name} (impact)`,
+              null,
+              `${PATTERN_LABELS[impactOff]}: no impact allowed on ${humanDate(set.date)}; ${name} is ballistic. Swap to a non-impact exercise.`,
+            ]
+          : LEAN_WORDS,
+      );
     }
 
     const rawOneRm = ctx.baselines[ex.referenceId ?? ex.id];
@@ -161,20 +175,30 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     const pct = r.pct;
     if (pct) {
       if (oneRm === undefined) {
-        b.push('no_baseline', pct.pattern, `max ${b.num(pct.value)}% of 1RM`, null, () => [
-          set.load.kind === 'percent' ? `${b.num(set.load.value)}%` : loadKg !== null ? b.show(loadKg) : 'bodyweight',
+        b.push(
+          'no_baseline',
+          pct.pattern,
+          `max ${b.num(pct.value)}% of 1RM`,
           null,
-          `${PATTERN_LABELS[pct.pattern]}: capped at ${b.num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`,
-        ]);
+          full
+            ? [
+                set.load.kind === 'percent' ? `${b.num(set.load.value)}%` : loadKg !== null ? b.show(loadKg) : 'bodyweight',
+                null,
+                `${PATTERN_LABELS[pct.pattern]}: capped at ${b.num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`,
+              ]
+            : LEAN_WORDS,
+        );
       } else if (percent !== null && overCap(percent, pct.value)) {
         const capKg = (pct.value / 100) * oneRm;
         const f = b.fitFor(steps, r, oneRm);
         const limit = `max ${b.num(pct.value)}% of ${b.show(oneRm)} = ${b.showCap(capKg)}`;
-        b.push('percent_1rm', pct.pattern, limit, f, () => {
+        let words = LEAN_WORDS;
+        if (full) {
           const fits = b.fitWords(f, steps, 'steps');
           const planned = loadKg !== null ? b.show(loadKg) : `${b.num(percent)}%`;
-          return [planned, fits, `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${b.fixSentence(f, fits, steps)}.`];
-        });
+          words = [planned, fits, `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${b.fixSentence(f, fits, steps)}.`];
+        }
+        b.push('percent_1rm', pct.pattern, limit, f, words);
       }
     }
 
@@ -182,21 +206,32 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     if (abs) {
       if (loadKg === null && set.load.kind === 'percent') {
         const value = set.load.value;
-        b.push('no_baseline', abs.pattern, `max ${b.showCap(abs.value)}`, null, () => [
-          `${b.num(value)}%`,
+        b.push(
+          'no_baseline',
+          abs.pattern,
+          `max ${b.showCap(abs.value)}`,
           null,
-          `${PATTERN_LABELS[abs.pattern]}: capped at ${b.showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
-        ]);
+          full
+            ? [
+                `${b.num(value)}%`,
+                null,
+                `${PATTERN_LABELS[abs.pattern]}: capped at ${b.showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
+              ]
+            : LEAN_WORDS,
+        );
       } else if (loadKg !== null && overCap(loadKg, abs.value)) {
         const f = b.fitFor(steps, r, oneRm);
-        b.push('absolute_load', abs.pattern, `max ${b.showCap(abs.value)}`, f, () => {
+        let words = LEAN_WORDS;
+        if (full) {
           const fits = b.fitWords(f, steps, 'steps');
-          return [
-            b.show(loadKg),
+          const planned = b.show(loadKg);
+          words = [
+            planned,
             fits,
-            `${PATTERN_LABELS[abs.pattern]}: max ${b.showCap(abs.value)}: planned ${b.show(loadKg)}; ${b.fixSentence(f, fits, steps)}.`,
+            `${PATTERN_LABELS[abs.pattern]}: max ${b.showCap(abs.value)}: planned ${planned}; ${b.fixSentence(f, fits, steps)}.`,
           ];
-        });
+        }
+        b.push('absolute_load', abs.pattern, `max ${b.showCap(abs.value)}`, f, words);
       }
     }
 
@@ -204,31 +239,49 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     if (rpeCap) {
       const cap = b.num(rpeCap.value);
       if (rpe === null) {
-        b.push('rpe', rpeCap.pattern, `max RPE ${cap}`, null, () => [
-          'no target RPE',
-          `target RPE ${cap} or lower`,
-          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${cap}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${cap} or lower.`,
-        ]);
+        b.push(
+          'rpe',
+          rpeCap.pattern,
+          `max RPE ${cap}`,
+          null,
+          full
+            ? [
+                'no target RPE',
+                `target RPE ${cap} or lower`,
+                `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${cap}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${cap} or lower.`,
+              ]
+            : LEAN_WORDS,
+        );
       } else if (overCap(rpe, rpeCap.value)) {
         // A load fit only for an RPE estimated from a load in kg: a target RPE is lowered, a % with no 1RM said as a %.
         const f = estimated !== null && oneRm !== undefined ? b.fitFor(steps, r, oneRm) : null;
-        b.push('rpe', rpeCap.pattern, `max RPE ${cap}`, f, () => {
+        let words = LEAN_WORDS;
+        if (full) {
           const plannedWords =
             estimated !== null ? `RPE ${b.num(rpe)} (estimated from ${b.num(percent!)}% × ${set.reps})` : `RPE ${b.num(rpe)}`;
-          const [words, sentence] = rpeFix(b, f, estimated, oneRm, rpeCap.value, r, steps);
-          return [plannedWords, words, `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${cap}: planned ${plannedWords}; ${sentence}.`];
-        });
+          const [fits, sentence] = rpeFix(b, f, estimated, oneRm, rpeCap.value, r, steps);
+          words = [plannedWords, fits, `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${cap}: planned ${plannedWords}; ${sentence}.`];
+        }
+        b.push('rpe', rpeCap.pattern, `max RPE ${cap}`, f, words);
       }
     }
 
     const reps = r.reps;
     if (reps && overCap(set.reps, reps.value)) {
       const cap = b.num(reps.value);
-      b.push('reps_per_set', reps.pattern, `max ${cap} reps per set`, null, () => [
-        `${set.reps} reps`,
-        `${cap} reps`,
-        `${PATTERN_LABELS[reps.pattern]}: max ${cap} reps per set: planned ${set.reps}; ${cap} reps fits.`,
-      ]);
+      b.push(
+        'reps_per_set',
+        reps.pattern,
+        `max ${cap} reps per set`,
+        null,
+        full
+          ? [
+              `${set.reps} reps`,
+              `${cap} reps`,
+              `${PATTERN_LABELS[reps.pattern]}: max ${cap} reps per set: planned ${set.reps}; ${cap} reps fits.`,
+            ]
+          : LEAN_WORDS,
+      );
     }
 
     if (r.capped.length === 0) continue;
@@ -242,11 +295,19 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
       const sCount = ++sessionCount[c.index];
       if (c.maxSets !== undefined && sCount > c.maxSets) {
         const max = c.maxSets;
-        b.push('sets_per_session', c.pattern, `max ${max} sets per session`, null, () => [
-          `set ${sCount}`,
-          `${max} sets`,
-          `${PATTERN_LABELS[c.pattern]}: max ${max} sets per session: this is set ${sCount}; remove it or move it to another day.`,
-        ]);
+        b.push(
+          'sets_per_session',
+          c.pattern,
+          `max ${max} sets per session`,
+          null,
+          full
+            ? [
+                `set ${sCount}`,
+                `${max} sets`,
+                `${PATTERN_LABELS[c.pattern]}: max ${max} sets per session: this is set ${sCount}; remove it or move it to another day.`,
+              ]
+            : LEAN_WORDS,
+        );
       }
       if (!hard) continue;
       weekCount ??= countsFor(weekCounts, week);
@@ -254,11 +315,19 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
       if (c.maxHard !== undefined && wCount > c.maxHard) {
         const max = c.maxHard;
         const weekOfSet = week;
-        b.push('hard_sets_per_week', c.pattern, `max ${max} hard sets per week`, null, () => [
-          `hard set ${wCount} of the week of ${humanDate(weekOfSet)}`,
-          `${max} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
-          `${PATTERN_LABELS[c.pattern]}: max ${max} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${humanDate(weekOfSet)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
-        ]);
+        b.push(
+          'hard_sets_per_week',
+          c.pattern,
+          `max ${max} hard sets per week`,
+          null,
+          full
+            ? [
+                `hard set ${wCount} of the week of ${humanDate(weekOfSet)}`,
+                `${max} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
+                `${PATTERN_LABELS[c.pattern]}: max ${max} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${humanDate(weekOfSet)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
+              ]
+            : LEAN_WORDS,
+        );
       }
     }
   }
