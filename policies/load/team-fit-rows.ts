@@ -4,7 +4,7 @@ import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import type { PreparedRules, StageRules } from './prepared-rules';
 import { unreadableFields } from './check-support';
 import type { EngineSet, PlannedLoad } from './sets';
-import { resolveLoad } from './team-fit-support';
+import { floorOfPrescription, resolveLoad } from './team-fit-support';
 
 /**
  * The working rows of one athlete's version of a team session (team-fit.ts): each team row's sets as
@@ -51,6 +51,7 @@ export const addNotes = (slot: Slot, notes: readonly string[]) => {
  */
 export class ResolvedLoads {
   private readonly byExercise = new Map<EngineExercise, Map<number, PlannedLoad>>();
+  private readonly floors = new Map<EngineExercise, Map<number, number | null>>();
   constructor(readonly baselines: Record<string, number>) {}
 
   of(load: PlannedLoad, ex: EngineExercise): PlannedLoad {
@@ -60,6 +61,16 @@ export class ResolvedLoads {
     let r = byPercent.get(load.value);
     if (r === undefined) byPercent.set(load.value, (r = resolveLoad(load, ex, this.baselines)));
     return r.kind === 'percent' ? load : r;
+  }
+
+  /** floorOfPrescription, kept the same way (a load that is not a % has none: plannedKg of it is its own kg, not kept). */
+  floorOf(load: PlannedLoad, ex: EngineExercise): number | null {
+    if (load.kind !== 'percent') return floorOfPrescription(load, ex, this.baselines);
+    let byPercent = this.floors.get(ex);
+    if (!byPercent) this.floors.set(ex, (byPercent = new Map()));
+    let f = byPercent.get(load.value);
+    if (f === undefined) byPercent.set(load.value, (f = floorOfPrescription(load, ex, this.baselines)));
+    return f;
   }
 }
 

@@ -18,11 +18,12 @@ import {
   counts,
   engineSetsOf,
   loadsFor,
+  type ResolvedLoads,
   newRow,
   type Row,
   type Slot,
 } from './team-fit-rows';
-import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
+import { loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
 
 /**
  * One athlete's version of a team session (team programming, issue 14). The team session is resolved
@@ -81,14 +82,14 @@ export function fitTeamSession(
     // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
     // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
-    if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx);
+    if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx, loads);
     fitLoop(team, rows, engine, [], prepared, stages, opts.recheckEverySet);
-    return finish(rows, unit, ctx);
+    return finish(rows, unit, ctx, loads);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   const others = weeklyLimit(day) ? otherSetsOf(opts, team.id) : [];
   fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
-  return finish(rows, unit, ctx);
+  return finish(rows, unit, ctx, loads);
 }
 
 /** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
@@ -287,7 +288,7 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
   }
 }
 
-function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
+function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoads): FittedSession {
   const changes: FitChange[] = [];
   // The sets of a row are mostly alike: the words of the last set are kept for the next one like it.
   for (const row of rows) {
@@ -305,7 +306,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
       if (!swapped && set !== null) {
         if (sameSet(set, asWritten)) continue;
         // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
-        const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
+        const floor = teamEx ? loads.floorOf(slot.team.load, teamEx) : null;
         const kgNow = plannedKg(set.load, undefined);
         const onlyRounded =
           floor !== null &&
