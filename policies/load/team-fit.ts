@@ -357,7 +357,11 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
   return { content: contentOf(rows), changes, state };
 }
 
-const notesOf = (notes: readonly string[]) => [...new Set(notes)].join('; ');
+/** The notes, each once, in order, joined ("a; b"); one note is itself (most changed sets have one). */
+function notesOf(notes: readonly string[]): string {
+  if (notes.length === 1) return notes[0];
+  return [...new Set(notes)].join('; ');
+}
 
 /** The words of a set; the sets of a row are mostly alike, so the words of the last set are kept for the next one like it. */
 class LastWords {
