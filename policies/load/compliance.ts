@@ -1,16 +1,16 @@
 import type { Unit } from '../schemas/common';
-import type { Breach, BreachRule } from './breach';
+import type { Breach } from './breach';
 import type { EngineExercise, ExerciseRules } from './exercise-rules';
-import { overCap, percentOf, suggestFit, suggestPercent, type Fit, type LoadCaps } from './fitting';
-import { bySessionThenOrder, memo, n, unreadable } from './check-support';
+import { overCap, percentOf, suggestPercent, type Fit } from './fitting';
+import { BreachList, LEAN_WORDS } from './check-breaches';
+import { bySessionThenOrder, unreadableFields } from './check-support';
 import { isFiniteNumber } from './guard';
 import type { PlanInput } from './in-force';
 import { estimateRpe } from './intensity';
-import { MOVEMENT_PATTERNS, PATTERN_LABELS, type MovementPattern, type ParticipationStatus } from './patterns';
+import { MOVEMENT_PATTERNS, PATTERN_LABELS, type ParticipationStatus } from './patterns';
 import { PreparedRules, type StageRules } from './prepared-rules';
 import { HARD_SET_RPE, isHardSet, plannedKg, type EngineSet } from './sets';
-import { describeSteps, type LoadSteps } from './steps';
-import { formatLoad } from './units';
+import type { LoadSteps } from './steps';
 import { humanDate } from '../words/dates';
 
 /**
@@ -48,13 +48,31 @@ export interface EngineContext {
  * prepared from this context's plans, library and status, and gives the same breaches as none.
  */
 export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: PreparedRules): Breach[] {
-  const unit = ctx.unit ?? 'kg';
-  const show = memo((kg: number) => formatLoad(kg, unit));
-  const showCap = memo((kg: number) => formatLoad(kg, unit, 'down'));
-  const num = memo(n);
+  return check(sets, ctx, prepared, false);
+}
+
+/**
+ * checkSets for the team fitting, which reads of a breach only its set, rule, pattern, limit and
+ * fitting load: the same breaches in the same order, but a breach that names a pattern comes with
+ * empty planned words, fix and message (they are not built). Property-tested against checkSets.
+ */
+export function checkSetsToFit(sets: EngineSet[], ctx: EngineContext, prepared?: PreparedRules): Breach[] {
+  return check(sets, ctx, prepared, true);
+}
+
+function countsFor(map: Map<string, Int32Array>, key: string): Int32Array {
+  let c = map.get(key);
+  if (!c) map.set(key, (c = new Int32Array(MOVEMENT_PATTERNS.length)));
+  return c;
+}
+
+function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | undefined, lean: boolean): Breach[] {
+  // Helpers live on `b` (one object per check), not in closures made per check: fitting runs thousands.
+  const b = new BreachList(ctx.unit ?? 'kg', lean);
+  // The words of a breach that names a pattern are built only for the full check (see checkSetsToFit).
+  const full = !lean;
   // The rules per day and per exercise: those prepared for this athlete, or worked out for this check.
   const rules = prepared?.fits(ctx) ? prepared : new PreparedRules(ctx);
-  const breaches: Breach[] = [];
   // Callers usually pass sets already in order; a stable sort would return them unchanged.
   let sorted = true;
   for (let i = 1; i < sets.length && sorted; i++) sorted = bySessionThenOrder(sets[i - 1], sets[i]) <= 0;
@@ -62,105 +80,38 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: Prep
   // Counts per session and per week, one slot per movement pattern.
   const sessionCounts = new Map<string, Int32Array>();
   const weekCounts = new Map<string, Int32Array>();
-  const countsFor = (map: Map<string, Int32Array>, key: string) => {
-    let c = map.get(key);
-    if (!c) map.set(key, (c = new Int32Array(MOVEMENT_PATTERNS.length)));
-    return c;
-  };
 
-  let date: string | null = null;
   // Sets come sorted by date: a date is read once, when the loop moves to it (only valid dates become `date`).
-  const validDate = (d: string) => d === date || rules.on(d) !== null;
+  let date: string | null = null;
   let stages!: StageRules;
   let out = false;
   let week = '';
   let weekCount: Int32Array | null = null;
   let sessionId: string | null = null;
   let sessionCount!: Int32Array;
-  let set: EngineSet = ordered[0];
-  let waived = false;
-  const push = (
-    rule: BreachRule,
-    pattern: MovementPattern | null,
-    limit: string,
-    planned: string,
-    fits: string | null,
-    fit: Fit | null,
-    message: string,
-  ) =>
-    breaches.push({
-      setId: set.id,
-      sessionId: set.sessionId,
-      date: set.date,
-      exerciseId: set.exerciseId,
-      waived,
-      rule,
-      pattern,
-      limit,
-      planned,
-      fits,
-      fittingKg: fit?.kg ?? null,
-      ...(fit && fit.reps !== set.reps ? { fittingReps: fit.reps } : {}),
-      message,
-    });
 
-  // One fit per set, the load that passes all of its load caps, worked out at most once and only when
-  // one of them is breached. Helpers are made once per check, not per set: this loop is the hot path.
-  let fitted: { of: EngineSet; fit: Fit | null } | null = null;
-  const fitFor = (steps: LoadSteps, r: ExerciseRules, oneRm: number | undefined): Fit | null => {
-    if (fitted?.of !== set) {
-      const caps: LoadCaps = {
-        oneRmKg: oneRm,
-        pct: r.pct?.value ?? null,
-        abs: r.abs?.value ?? null,
-        rpe: set.targetRpe == null ? (r.rpe?.value ?? null) : null,
-      };
-      fitted = { of: set, fit: suggestFit(steps, set.reps, caps) };
-    }
-    return fitted.fit;
-  };
-  /** The fix in words: the fitting load at these reps (on the steps, or × reps), fewer reps when no load fits, or none. */
-  const fitWords = (f: Fit | null, steps: LoadSteps, form: 'steps' | 'reps'): string | null => {
-    if (f === null) return null;
-    if (f.reps !== set.reps) return `cut to ${f.reps} reps: ${show(f.kg)} × ${f.reps} fits`;
-    return form === 'steps' ? `${show(f.kg)} fits on ${describeSteps(steps)}` : `${show(f.kg)} × ${set.reps} fits`;
-  };
-  const fixSentence = (f: Fit | null, words: string | null, steps: LoadSteps): string =>
-    words === null
-      ? 'no load on this exercise fits — choose a lighter one'
-      : f!.reps === set.reps
-        ? words
-        : `no load on ${describeSteps(steps)} fits ${set.reps} reps — ${words}`;
-
-  for (set of ordered) {
+  for (const set of ordered) {
+    b.set = set;
     const ex = ctx.exercises[set.exerciseId];
-    waived = ctx.waivedSetIds?.has(set.id) ?? false;
+    b.waived = ctx.waivedSetIds?.has(set.id) ?? false;
     if (!ex) {
       // An exercise the engine does not know has no patterns to check: fail closed, never a pass.
-      push(
-        'unreadable',
-        null,
-        'an exercise of the library',
+      b.push('unreadable', null, 'an exercise of the library', null, [
         'an unknown exercise',
         null,
-        null,
         'This set names an exercise that is not in the library, so it cannot be checked. Choose an exercise from the library.',
-      );
+      ]);
       continue;
     }
     const name = ex.name;
-    const problem = unreadable(set, validDate);
+    const problem = set.date === date || rules.on(set.date) !== null ? unreadableFields(set) : 'its date is not a calendar day';
     if (problem) {
       // Unknown is never a pass: a set the engine cannot read is a breach, and nothing else is said of it.
-      push(
-        'unreadable',
-        null,
-        'a set the check can read',
+      b.push('unreadable', null, 'a set the check can read', null, [
         name,
         null,
-        null,
         `${name}: this set cannot be checked: ${problem}. Fix the set.`,
-      );
+      ]);
       continue;
     }
     if (set.date !== date) {
@@ -175,39 +126,40 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: Prep
     const r = rules.rulesFor(stages, ex);
 
     if (out && day.stages.length === 0) {
-      push(
-        'status_out',
-        null,
-        'Out: no training until a clinician sets what is allowed',
+      b.push('status_out', null, 'Out: no training until a clinician sets what is allowed', null, [
         `${name}`,
         null,
-        null,
         `The athlete is Out on ${humanDate(set.date)} and no restriction plan says what they may train. Ask the clinician for a plan or an exception.`,
-      );
+      ]);
       continue;
     }
     if (r.blocked) {
       const label = PATTERN_LABELS[r.blocked];
-      push(
+      b.push(
         'blocked',
         r.blocked,
         `${label} is blocked`,
-        name,
         null,
-        null,
-        `${label} is blocked on ${humanDate(set.date)}: ${name} cannot be programmed. Swap to an exercise that fits.`,
+        full
+          ? [name, null, `${label} is blocked on ${humanDate(set.date)}: ${name} cannot be programmed. Swap to an exercise that fits.`]
+          : LEAN_WORDS,
       );
       continue;
     }
     if (r.impactOff && ex.ballistic) {
-      push(
+      const impactOff = r.impactOff;
+      b.push(
         'impact',
-        r.impactOff,
+        impactOff,
         'no impact',
-        `${name} (impact)`,
         null,
-        null,
-        `${PATTERN_LABELS[r.impactOff]}: no impact allowed on ${humanDate(set.date)}; ${name} is ballistic. Swap to a non-impact exercise.`,
+        full
+          ? [
+              `${name} (impact)`,
+              null,
+              `${PATTERN_LABELS[impactOff]}: no impact allowed on ${humanDate(set.date)}; ${name} is ballistic. Swap to a non-impact exercise.`,
+            ]
+          : LEAN_WORDS,
       );
     }
 
@@ -223,117 +175,112 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: Prep
     const pct = r.pct;
     if (pct) {
       if (oneRm === undefined) {
-        push(
+        b.push(
           'no_baseline',
           pct.pattern,
-          `max ${num(pct.value)}% of 1RM`,
-          set.load.kind === 'percent' ? `${num(set.load.value)}%` : loadKg !== null ? show(loadKg) : 'bodyweight',
+          `max ${b.num(pct.value)}% of 1RM`,
           null,
-          null,
-          `${PATTERN_LABELS[pct.pattern]}: capped at ${num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`,
+          full
+            ? [
+                set.load.kind === 'percent' ? `${b.num(set.load.value)}%` : loadKg !== null ? b.show(loadKg) : 'bodyweight',
+                null,
+                `${PATTERN_LABELS[pct.pattern]}: capped at ${b.num(pct.value)}% of 1RM, but ${name} has no baseline — enter a tested max or use a load cap.`,
+              ]
+            : LEAN_WORDS,
         );
       } else if (percent !== null && overCap(percent, pct.value)) {
         const capKg = (pct.value / 100) * oneRm;
-        const f = fitFor(steps, r, oneRm);
-        const fits = fitWords(f, steps, 'steps');
-        const planned = loadKg !== null ? show(loadKg) : `${num(percent)}%`;
-        const limit = `max ${num(pct.value)}% of ${show(oneRm)} = ${showCap(capKg)}`;
-        push(
-          'percent_1rm',
-          pct.pattern,
-          limit,
-          planned,
-          fits,
-          f,
-          `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${fixSentence(f, fits, steps)}.`,
-        );
+        const f = b.fitFor(steps, r, oneRm);
+        const limit = `max ${b.num(pct.value)}% of ${b.show(oneRm)} = ${b.showCap(capKg)}`;
+        let words = LEAN_WORDS;
+        if (full) {
+          const fits = b.fitWords(f, steps, 'steps');
+          const planned = loadKg !== null ? b.show(loadKg) : `${b.num(percent)}%`;
+          words = [planned, fits, `${PATTERN_LABELS[pct.pattern]}: ${limit}: planned ${planned}; ${b.fixSentence(f, fits, steps)}.`];
+        }
+        b.push('percent_1rm', pct.pattern, limit, f, words);
       }
     }
 
     const abs = r.abs;
     if (abs) {
       if (loadKg === null && set.load.kind === 'percent') {
-        push(
+        const value = set.load.value;
+        b.push(
           'no_baseline',
           abs.pattern,
-          `max ${showCap(abs.value)}`,
-          `${num(set.load.value)}%`,
+          `max ${b.showCap(abs.value)}`,
           null,
-          null,
-          `${PATTERN_LABELS[abs.pattern]}: capped at ${showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
+          full
+            ? [
+                `${b.num(value)}%`,
+                null,
+                `${PATTERN_LABELS[abs.pattern]}: capped at ${b.showCap(abs.value)}, but the load is a % of 1RM and ${name} has no baseline — enter a tested max or plan a load.`,
+              ]
+            : LEAN_WORDS,
         );
       } else if (loadKg !== null && overCap(loadKg, abs.value)) {
-        const f = fitFor(steps, r, oneRm);
-        const fits = fitWords(f, steps, 'steps');
-        push(
-          'absolute_load',
-          abs.pattern,
-          `max ${showCap(abs.value)}`,
-          show(loadKg),
-          fits,
-          f,
-          `${PATTERN_LABELS[abs.pattern]}: max ${showCap(abs.value)}: planned ${show(loadKg)}; ${fixSentence(f, fits, steps)}.`,
-        );
+        const f = b.fitFor(steps, r, oneRm);
+        let words = LEAN_WORDS;
+        if (full) {
+          const fits = b.fitWords(f, steps, 'steps');
+          const planned = b.show(loadKg);
+          words = [
+            planned,
+            fits,
+            `${PATTERN_LABELS[abs.pattern]}: max ${b.showCap(abs.value)}: planned ${planned}; ${b.fixSentence(f, fits, steps)}.`,
+          ];
+        }
+        b.push('absolute_load', abs.pattern, `max ${b.showCap(abs.value)}`, f, words);
       }
     }
 
     const rpeCap = r.rpe;
     if (rpeCap) {
+      const cap = b.num(rpeCap.value);
       if (rpe === null) {
-        push(
+        b.push(
           'rpe',
           rpeCap.pattern,
-          `max RPE ${num(rpeCap.value)}`,
-          'no target RPE',
-          `target RPE ${num(rpeCap.value)} or lower`,
+          `max RPE ${cap}`,
           null,
-          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${num(rpeCap.value)} or lower.`,
+          full
+            ? [
+                'no target RPE',
+                `target RPE ${cap} or lower`,
+                `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${cap}: this set has no target RPE and no baseline to estimate one — set a target RPE of ${cap} or lower.`,
+              ]
+            : LEAN_WORDS,
         );
       } else if (overCap(rpe, rpeCap.value)) {
-        const plannedWords = estimated !== null ? `RPE ${num(rpe)} (estimated from ${num(percent!)}% × ${set.reps})` : `RPE ${num(rpe)}`;
-        let f: Fit | null = null;
-        let words: string | null;
-        let sentence: string;
-        if (estimated === null) {
-          // A target RPE is the coach's own reading of the set: the fix is a lower target, not a load.
-          words = sentence = `target RPE ${num(rpeCap.value)} or lower`;
-        } else if (oneRm === undefined) {
-          // A % load with no 1RM to turn it into kg: the fix can only be said as a %.
-          const p = suggestPercent(set.reps, rpeCap.value, r.pct?.value ?? null);
-          words = p === null ? null : `${p.reps === set.reps ? '' : `cut to ${p.reps} reps: `}${p.percent}% × ${p.reps} fits`;
-          sentence =
-            words === null
-              ? 'no load fits — choose a lighter exercise'
-              : p!.reps === set.reps
-                ? words
-                : `no % fits ${set.reps} reps — ${words}`;
-        } else {
-          f = fitFor(steps, r, oneRm);
-          words = fitWords(f, steps, 'reps');
-          sentence = fixSentence(f, words, steps);
+        // A load fit only for an RPE estimated from a load in kg: a target RPE is lowered, a % with no 1RM said as a %.
+        const f = estimated !== null && oneRm !== undefined ? b.fitFor(steps, r, oneRm) : null;
+        let words = LEAN_WORDS;
+        if (full) {
+          const plannedWords =
+            estimated !== null ? `RPE ${b.num(rpe)} (estimated from ${b.num(percent!)}% × ${set.reps})` : `RPE ${b.num(rpe)}`;
+          const [fits, sentence] = rpeFix(b, f, estimated, oneRm, rpeCap.value, r, steps);
+          words = [plannedWords, fits, `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${cap}: planned ${plannedWords}; ${sentence}.`];
         }
-        push(
-          'rpe',
-          rpeCap.pattern,
-          `max RPE ${num(rpeCap.value)}`,
-          plannedWords,
-          words,
-          f,
-          `${PATTERN_LABELS[rpeCap.pattern]}: max RPE ${num(rpeCap.value)}: planned ${plannedWords}; ${sentence}.`,
-        );
+        b.push('rpe', rpeCap.pattern, `max RPE ${cap}`, f, words);
       }
     }
 
     const reps = r.reps;
     if (reps && overCap(set.reps, reps.value)) {
-      push(
+      const cap = b.num(reps.value);
+      b.push(
         'reps_per_set',
         reps.pattern,
-        `max ${num(reps.value)} reps per set`,
-        `${set.reps} reps`,
-        `${num(reps.value)} reps`,
+        `max ${cap} reps per set`,
         null,
-        `${PATTERN_LABELS[reps.pattern]}: max ${num(reps.value)} reps per set: planned ${set.reps}; ${num(reps.value)} reps fits.`,
+        full
+          ? [
+              `${set.reps} reps`,
+              `${cap} reps`,
+              `${PATTERN_LABELS[reps.pattern]}: max ${cap} reps per set: planned ${set.reps}; ${cap} reps fits.`,
+            ]
+          : LEAN_WORDS,
       );
     }
 
@@ -347,31 +294,67 @@ export function checkSets(sets: EngineSet[], ctx: EngineContext, prepared?: Prep
     for (const c of r.capped) {
       const sCount = ++sessionCount[c.index];
       if (c.maxSets !== undefined && sCount > c.maxSets) {
-        push(
+        const max = c.maxSets;
+        b.push(
           'sets_per_session',
           c.pattern,
-          `max ${c.maxSets} sets per session`,
-          `set ${sCount}`,
-          `${c.maxSets} sets`,
+          `max ${max} sets per session`,
           null,
-          `${PATTERN_LABELS[c.pattern]}: max ${c.maxSets} sets per session: this is set ${sCount}; remove it or move it to another day.`,
+          full
+            ? [
+                `set ${sCount}`,
+                `${max} sets`,
+                `${PATTERN_LABELS[c.pattern]}: max ${max} sets per session: this is set ${sCount}; remove it or move it to another day.`,
+              ]
+            : LEAN_WORDS,
         );
       }
       if (!hard) continue;
       weekCount ??= countsFor(weekCounts, week);
       const wCount = ++weekCount[c.index];
       if (c.maxHard !== undefined && wCount > c.maxHard) {
-        push(
+        const max = c.maxHard;
+        const weekOfSet = week;
+        b.push(
           'hard_sets_per_week',
           c.pattern,
-          `max ${c.maxHard} hard sets per week`,
-          `hard set ${wCount} of the week of ${humanDate(week)}`,
-          `${c.maxHard} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
+          `max ${max} hard sets per week`,
           null,
-          `${PATTERN_LABELS[c.pattern]}: max ${c.maxHard} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${humanDate(week)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
+          full
+            ? [
+                `hard set ${wCount} of the week of ${humanDate(weekOfSet)}`,
+                `${max} hard sets, or make this set easier than RPE ${HARD_SET_RPE}`,
+                `${PATTERN_LABELS[c.pattern]}: max ${max} hard sets (RPE ${HARD_SET_RPE}+) in the week of ${humanDate(weekOfSet)}: this is hard set ${wCount}; lighten it below RPE ${HARD_SET_RPE} or drop it.`,
+              ]
+            : LEAN_WORDS,
         );
       }
     }
   }
-  return breaches;
+  return b.list;
+}
+
+/** The fix of an RPE over its cap, in words and as the message's sentence. */
+function rpeFix(
+  b: BreachList,
+  f: Fit | null,
+  estimated: number | null,
+  oneRm: number | undefined,
+  cap: number,
+  r: ExerciseRules,
+  steps: LoadSteps,
+): [string | null, string] {
+  // A target RPE is the coach's own reading of the set: the fix is a lower target, not a load.
+  if (estimated === null) return [`target RPE ${b.num(cap)} or lower`, `target RPE ${b.num(cap)} or lower`];
+  if (oneRm === undefined) {
+    // A % load with no 1RM to turn it into kg: the fix can only be said as a %.
+    const reps = b.set.reps;
+    const p = suggestPercent(reps, cap, r.pct?.value ?? null);
+    const words = p === null ? null : `${p.reps === reps ? '' : `cut to ${p.reps} reps: `}${p.percent}% × ${p.reps} fits`;
+    const sentence =
+      words === null ? 'no load fits — choose a lighter exercise' : p!.reps === reps ? words : `no % fits ${reps} reps — ${words}`;
+    return [words, sentence];
+  }
+  const words = b.fitWords(f, steps, 'reps');
+  return [words, b.fixSentence(f, words, steps)];
 }

@@ -91,9 +91,11 @@ export function suggestSwaps(
   const named = [...new Set(exercise.useInstead ?? [])]
     .map((id) => byId.get(id))
     .filter((e): e is EngineExercise => !!e && e.id !== exercise.id && allowed(e));
-  const shared = (e: EngineExercise) => e.patterns.filter((p) => exercise.patterns.includes(p)).length;
+  // Patterns shared with the exercise, counted once per candidate (not in every comparison of the sort).
+  const shared = new Map<EngineExercise, number>();
+  for (const e of library) shared.set(e, e.patterns.filter((p) => exercise.patterns.includes(p)).length);
   const family = library
-    .filter((e) => e.id !== exercise.id && !named.includes(e) && allowed(e) && shared(e) > 0)
-    .sort((a, b) => shared(b) - shared(a) || a.name.localeCompare(b.name));
+    .filter((e) => e.id !== exercise.id && !named.includes(e) && allowed(e) && shared.get(e)! > 0)
+    .sort((a, b) => shared.get(b)! - shared.get(a)! || a.name.localeCompare(b.name));
   return [...named, ...family].slice(0, limit);
 }

@@ -36,6 +36,20 @@ function stepValue(steps: Extract<LoadSteps, { kind: 'increment' }>, count: numb
   return downToMicroKg(steps.unit === 'kg' ? count * steps.step : count * steps.step * KG_PER_LB);
 }
 
+type Increment = Extract<LoadSteps, { kind: 'increment' }>;
+
+/** The i-th load of a search, lightest first: a list's sorted value, or i + 1 steps. */
+function loadAt(steps: LoadSteps, values: number[] | null, i: number): number {
+  return values !== null ? values[i] : stepValue(steps as Increment, i + 1);
+}
+
+/** `ok` for a load of the search; on pound steps also for the exact multiple of the step (see heaviestPassing). */
+function passesAt(steps: LoadSteps, values: number[] | null, ok: (kg: number) => boolean, v: number): boolean {
+  if (!ok(v)) return false;
+  if (values !== null || steps.kind !== 'increment' || steps.unit !== 'lb') return true;
+  return ok(Math.round(v / KG_PER_LB / steps.step) * steps.step * KG_PER_LB);
+}
+
 /**
  * The largest load that does not exceed `limitKg` on these steps — rounded down, never to nearest,
  * because under a cap the nearest step can be over it. Null (nothing fits, or cannot compute) when
@@ -57,40 +71,39 @@ export function largestFitting(limitKg: number, steps: LoadSteps): number | null
 export function heaviestPassing(steps: LoadSteps, upperKg: number, ok: (kg: number) => boolean, guessKg?: number): number | null {
   if (!isFiniteNumber(upperKg) || upperKg < 0) return null;
   const upper = Math.min(upperKg, MAX_LOAD_KG);
+  // Plain values and module-level helpers, no closures made per search: this runs for every fitted set.
   let count: number;
-  let at: (i: number) => number;
-  let indexAtOrBelow: (kg: number) => number;
-  let passes = ok;
+  let values: number[] | null = null;
+  let kg = 0;
   if (steps.kind === 'list') {
-    const values = [...new Set((steps.valuesKg ?? []).filter((v) => isFiniteNumber(v) && v > 0 && v <= MAX_LOAD_KG))].sort((a, b) => a - b);
+    values = [...new Set((steps.valuesKg ?? []).filter((v) => isFiniteNumber(v) && v > 0 && v <= MAX_LOAD_KG))].sort((a, b) => a - b);
     count = values.length;
-    at = (i) => values[i];
-    indexAtOrBelow = (kg) => values.filter((v) => v <= kg + EPS).length - 1;
   } else {
-    const kg = stepKg(steps);
-    if (kg === null) return null;
+    const k = stepKg(steps);
+    if (k === null) return null;
+    kg = k;
     count = Math.floor(upper / kg + EPS) + 1;
-    at = (i) => stepValue(steps, i + 1);
-    indexAtOrBelow = (v) => Math.floor(v / kg + EPS) - 1;
-    if (steps.unit === 'lb') passes = (v) => ok(v) && ok(Math.round(v / KG_PER_LB / steps.step) * steps.step * KG_PER_LB);
   }
   // The largest index whose value passes lies in lo … hi − 1 (lo = −1: none passes).
   let lo = -1;
   let hi = count;
   if (guessKg !== undefined && isFiniteNumber(guessKg)) {
-    const g = Math.min(count - 1, indexAtOrBelow(guessKg));
+    const g = Math.min(
+      count - 1,
+      values !== null ? values.filter((v) => v <= guessKg + EPS).length - 1 : Math.floor(guessKg / kg + EPS) - 1,
+    );
     if (g >= 0) {
-      if (!passes(at(g))) hi = g;
-      else if (g + 1 >= count || !passes(at(g + 1))) return at(g);
+      if (!passesAt(steps, values, ok, loadAt(steps, values, g))) hi = g;
+      else if (g + 1 >= count || !passesAt(steps, values, ok, loadAt(steps, values, g + 1))) return loadAt(steps, values, g);
       else lo = g + 1;
     }
   }
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1;
-    if (passes(at(mid))) lo = mid;
+    if (passesAt(steps, values, ok, loadAt(steps, values, mid))) lo = mid;
     else hi = mid;
   }
-  return lo < 0 ? null : at(lo);
+  return lo < 0 ? null : loadAt(steps, values, lo);
 }
 
 export function describeSteps(steps: LoadSteps): string {

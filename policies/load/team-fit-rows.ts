@@ -1,10 +1,10 @@
 import type { PlannedSetInput, SessionContent } from '../schemas/programs';
 import type { EngineContext } from './compliance';
 import type { EngineExercise, ExerciseRules } from './exercise-rules';
-import type { PreparedRules } from './prepared-rules';
+import type { PreparedRules, StageRules } from './prepared-rules';
 import { unreadableFields } from './check-support';
-import type { EngineSet } from './sets';
-import { resolveLoad } from './team-fit-support';
+import type { EngineSet, PlannedLoad } from './sets';
+import { floorOfPrescription, resolveLoad } from './team-fit-support';
 
 /**
  * The working rows of one athlete's version of a team session (team-fit.ts): each team row's sets as
@@ -21,6 +21,9 @@ export interface Slot {
   repsCut: boolean;
   /** Why it changed; NO_NOTES (shared, frozen) until a note is added with addNotes. */
   notes: readonly string[];
+  /** The set as it last passed the engine, and the exercise it passed as (see engineSetsOf's onlyChanged). */
+  passed: PlannedSetInput | null;
+  passedAs: string | null;
 }
 
 export interface Row {
@@ -40,40 +43,67 @@ export const addNotes = (slot: Slot, notes: readonly string[]) => {
 };
 
 /**
- * The team's sets of one row resolved for this athlete (a % of 1RM as a load on the steps): each set as
- * written. A set whose load needs no resolving is its own version (sets are never changed in place).
+ * One athlete's % of 1RM loads resolved on each exercise's steps (resolveLoad), kept per exercise and
+ * % across all the sessions fitted to them: a squad's program repeats the same few percentages. The
+ * answer depends only on the exercise, the % and the athlete's baselines, which this holds by
+ * reference (loadsFor makes a new one for other baselines). A % that cannot be resolved comes back as
+ * the very load passed in, as resolveLoad returns it.
  */
-export function asWrittenOf(ex: EngineExercise | undefined, baselines: Record<string, number>): (s: PlannedSetInput) => PlannedSetInput {
-  // A row's sets usually share their % of 1RM: resolved once per value.
-  let lastPercent: number | null = null;
-  let lastLoad: PlannedSetInput['load'] | null = null;
-  const resolve = (load: PlannedSetInput['load']) => {
-    if (!ex || load.kind !== 'percent') return ex ? resolveLoad(load, ex, baselines) : load;
-    if (load.value !== lastPercent || lastLoad === null) {
-      lastPercent = load.value;
-      lastLoad = resolveLoad(load, ex, baselines);
-    }
-    return lastLoad;
-  };
-  return (s) => {
-    const load = resolve(s.load);
-    return load === s.load ? s : { ...s, load };
-  };
+export class ResolvedLoads {
+  private readonly byExercise = new Map<EngineExercise, Map<number, PlannedLoad>>();
+  private readonly floors = new Map<EngineExercise, Map<number, number | null>>();
+  constructor(readonly baselines: Record<string, number>) {}
+
+  of(load: PlannedLoad, ex: EngineExercise): PlannedLoad {
+    if (load.kind !== 'percent') return load;
+    let byPercent = this.byExercise.get(ex);
+    if (!byPercent) this.byExercise.set(ex, (byPercent = new Map()));
+    let r = byPercent.get(load.value);
+    if (r === undefined) byPercent.set(load.value, (r = resolveLoad(load, ex, this.baselines)));
+    return r.kind === 'percent' ? load : r;
+  }
+
+  /** floorOfPrescription, kept the same way (a load that is not a % has none: plannedKg of it is its own kg, not kept). */
+  floorOf(load: PlannedLoad, ex: EngineExercise): number | null {
+    if (load.kind !== 'percent') return floorOfPrescription(load, ex, this.baselines);
+    let byPercent = this.floors.get(ex);
+    if (!byPercent) this.floors.set(ex, (byPercent = new Map()));
+    let f = byPercent.get(load.value);
+    if (f === undefined) byPercent.set(load.value, (f = floorOfPrescription(load, ex, this.baselines)));
+    return f;
+  }
+}
+
+/** The resolved loads kept with an athlete's prepared rules (one squad fitting), for these baselines. */
+const kept = new WeakMap<PreparedRules, ResolvedLoads>();
+export function loadsFor(prepared: PreparedRules, baselines: Record<string, number>): ResolvedLoads {
+  let loads = kept.get(prepared);
+  if (loads?.baselines !== baselines) kept.set(prepared, (loads = new ResolvedLoads(baselines)));
+  return loads;
+}
+
+/**
+ * A team set resolved for this athlete (a % of 1RM as a load on the steps): the set as written. A set
+ * whose load needs no resolving is its own version (sets are never changed in place).
+ */
+export function asWrittenSet(s: PlannedSetInput, ex: EngineExercise | undefined, loads: ResolvedLoads): PlannedSetInput {
+  if (!ex) return s;
+  const load = loads.of(s.load, ex);
+  return load === s.load ? s : { ...s, load };
 }
 
 /**
  * The session as written for this athlete (what finish returns when nothing changed), or null when an
  * exercise is unknown or a set cannot be read (the fitting loop then says why). Only for a calendar day.
  */
-export function asWrittenContent(content: SessionContent, ctx: EngineContext): SessionContent | null {
+export function asWrittenContent(content: SessionContent, ctx: EngineContext, loads: ResolvedLoads): SessionContent | null {
   const exercises: SessionContent['exercises'] = [];
   for (const r of content.exercises) {
     const ex = ctx.exercises[r.exerciseId];
     if (!ex) return null;
-    const asWritten = asWrittenOf(ex, ctx.baselines);
     const sets: PlannedSetInput[] = [];
     for (const s of r.sets) {
-      const set = asWritten(s);
+      const set = asWrittenSet(s, ex, loads);
       if (unreadableFields(set) !== null) return null;
       sets.push(set);
     }
@@ -82,9 +112,8 @@ export function asWrittenContent(content: SessionContent, ctx: EngineContext): S
   return { exercises };
 }
 
-export function newRow(r: SessionContent['exercises'][number], ctx: EngineContext): Row {
+export function newRow(r: SessionContent['exercises'][number], ctx: EngineContext, loads: ResolvedLoads): Row {
   const ex = ctx.exercises[r.exerciseId];
-  const asWrittenSet = asWrittenOf(ex, ctx.baselines);
   return {
     id: r.id,
     teamExerciseId: r.exerciseId,
@@ -92,8 +121,8 @@ export function newRow(r: SessionContent['exercises'][number], ctx: EngineContex
     ex,
     notes: r.notes,
     slots: r.sets.map((s) => {
-      const asWritten = asWrittenSet(s);
-      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES };
+      const asWritten = asWrittenSet(s, ex, loads);
+      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES, passed: null, passedAs: null };
     }),
     swaps: null,
     swapNotes: [],
@@ -110,17 +139,23 @@ export const rowReadable = (row: Row) => row.slots.every((slot) => slot.set === 
 
 /**
  * The session's sets as the engine reads them: sessionEngineSets(contentOf(rows)) without building the
- * content. `skip` leaves out a row's sets (numbered all the same, so the others keep their order).
+ * content. `untouchedIn` leaves out the sets of a row no rule in force on the day touches, `onlyChanged` the sets that passed the engine as they stand
+ * (numbered all the same, so the others keep their order).
  */
-export function engineSetsOf(team: { id: string; date: string }, rows: Row[], skip?: (row: Row) => boolean): EngineSet[] {
+export function engineSetsOf(
+  team: { id: string; date: string },
+  rows: Row[],
+  untouchedIn: { stages: StageRules; prepared: PreparedRules } | null,
+  onlyChanged = false,
+): EngineSet[] {
   const out: EngineSet[] = [];
   let order = 0;
   for (const r of rows) {
-    const skipped = skip?.(r) ?? false;
+    const skipped = untouchedIn !== null && rowUntouched(r, untouchedIn.stages, untouchedIn.prepared);
     for (const slot of r.slots) {
       const s = slot.set;
       if (s === null) continue;
-      if (skipped) {
+      if (skipped || (onlyChanged && slot.passed === s && slot.passedAs === r.exerciseId)) {
         order++;
         continue;
       }
@@ -138,6 +173,11 @@ export function engineSetsOf(team: { id: string; date: string }, rows: Row[], sk
     }
   }
   return out;
+}
+
+/** A row whose exercise no rule in force touches and whose sets all read: the engine can find nothing against it. */
+function rowUntouched(row: Row, stages: StageRules, prepared: PreparedRules): boolean {
+  return row.ex !== undefined && untouched(row.ex, prepared.rulesFor(stages, row.ex)) && rowReadable(row);
 }
 
 /**
@@ -166,3 +206,6 @@ export function contentOf(rows: Row[]): SessionContent {
   }
   return { exercises };
 }
+
+/** Whether a rule in force counts sets (per session or hard sets per week): a set's breaches may then depend on the other sets. */
+export const counts = (r: ExerciseRules) => r.capped.some((c) => c.maxSets !== undefined || c.maxHard !== undefined);

@@ -1,27 +1,29 @@
 import type { Unit } from '../schemas/common';
 import type { PlannedSetInput, SessionContent } from '../schemas/programs';
 import type { Breach, BreachRule } from './breach';
-import { blockingBreaches, checkSets, type EngineContext } from './compliance';
-import { suggestSwaps, type EngineExercise, type ExerciseRules } from './exercise-rules';
+import { blockingBreaches, checkSetsToFit, type EngineContext } from './compliance';
+import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import { suggestPercent } from './fitting';
 import { inForceOn, type InForce } from './in-force';
 import { PATTERN_LABELS } from './patterns';
 import { PreparedRules, type StageRules } from './prepared-rules';
 import { plannedKg, type EngineSet } from './sets';
+import { otherSetsOf, swapCandidates, weeklyLimit, type SessionOf } from './team-fit-day';
 import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
 import {
   addNotes,
   allReadable,
   asWrittenContent,
   contentOf,
+  counts,
   engineSetsOf,
+  loadsFor,
+  type ResolvedLoads,
   newRow,
-  rowReadable,
-  untouched,
   type Row,
   type Slot,
 } from './team-fit-rows';
-import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
+import { loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
 
 /**
  * One athlete's version of a team session (team programming, issue 14). The team session is resolved
@@ -51,20 +53,28 @@ import { floorOfPrescription, loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, 
 export function fitTeamSession(
   team: { id: string; date: string; content: SessionContent },
   ctx: EngineContext,
-  opts: { otherSets?: EngineSet[]; rules?: PreparedRules } = {},
+  opts: {
+    /** The athlete's other sets of the same weeks, counted toward weekly limits, as engine sets or as sessions. */
+    otherSets?: EngineSet[];
+    otherSessions?: readonly SessionOf[];
+    rules?: PreparedRules;
+    /** Check every set again in every round, never only the changed ones: the same answer, slower (for the test that says so). */
+    recheckEverySet?: boolean;
+  } = {},
 ): FittedSession {
   // The athlete's rules, prepared once for all the sessions fitted to them (a squad's program), or for this one.
   const prepared = opts.rules?.fits(ctx) ? opts.rules : new PreparedRules(ctx);
   if (prepared.outOn(team.date)) return { content: { exercises: [] }, changes: [], state: 'out' };
   const engine: EngineContext = ctx.waivedSetIds === undefined ? ctx : { ...ctx, waivedSetIds: undefined };
   const unit = ctx.unit ?? 'kg';
+  const loads = loadsFor(prepared, ctx.baselines);
   // No stage in force on a calendar day (and not Out): most versions of a team session. When every
   // exercise is known and every set reads, nothing can breach: the version is the session as written.
   if (ctx.plans.length === 0 || prepared.on(team.date)?.stages.day.stages.length === 0) {
-    const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx) : null;
+    const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx, loads) : null;
     if (content) return { content, changes: [], state: 'as_written' };
   }
-  const rows = team.content.exercises.map((r) => newRow(r, ctx));
+  const rows = team.content.exercises.map((r) => newRow(r, ctx, loads));
   // No plan and every exercise known: the check runs with no day (nothing to read rules from).
   const stages = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : stagesOn(prepared, team.date);
   const day = stages?.day;
@@ -72,15 +82,14 @@ export function fitTeamSession(
     // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
     // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
-    if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx);
-    fitLoop(team, rows, engine, [], prepared, stages);
-    return finish(rows, unit, ctx);
+    if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx, loads);
+    fitLoop(team, rows, engine, [], prepared, stages, opts.recheckEverySet);
+    return finish(rows, unit, ctx, loads);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
-  const weekly = Object.values(day.patterns).some((p) => p.mode === 'capped' && p.caps?.maxHardSetsPerWeek !== undefined);
-  const others = weekly ? (opts.otherSets ?? []).filter((s) => s.sessionId !== team.id) : [];
-  fitLoop(team, rows, engine, others, prepared, stages);
-  return finish(rows, unit, ctx);
+  const others = weeklyLimit(day) ? otherSetsOf(opts, team.id) : [];
+  fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
+  return finish(rows, unit, ctx, loads);
 }
 
 /** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
@@ -103,26 +112,32 @@ function fitLoop(
   ctx: EngineContext,
   others: EngineSet[],
   prepared: PreparedRules,
-  stages?: StageRules,
+  stages: StageRules | undefined,
+  recheckEverySet = false,
 ): number {
   const day = stages?.day;
-  const rulesOf = (ex: EngineExercise) => (stages ? prepared.rulesFor(stages, ex) : undefined);
-  const skip = (row: Row) => {
-    if (!row.ex || !day) return false;
-    const r = rulesOf(row.ex);
-    return r !== undefined && untouched(row.ex, r) && rowReadable(row);
-  };
+  // No closures made per call here or in finish (each is named, and costs, under tsx): this runs per session.
   const validDate = prepared.on(team.date) !== null;
   for (let round = 0; ; round++) {
-    const sets = engineSetsOf(team, rows, validDate ? skip : undefined);
+    // With no counted limit on any of the session's exercises (and no other sets counted), the engine
+    // reads each set on its own: a set that passed and has not changed since passes again, and only the
+    // sets changed by the last round are checked. Otherwise the whole session is checked again.
+    const perSet =
+      !recheckEverySet &&
+      validDate &&
+      stages !== undefined &&
+      others.length === 0 &&
+      rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
+    const sets = engineSetsOf(team, rows, validDate && stages ? { stages, prepared } : null, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
     // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
     // order of its input does not change its answer).
-    const all = checkSets(others.length ? [...others, ...sets] : sets, ctx, prepared);
+    const all = checkSetsToFit(others.length ? [...others, ...sets] : sets, ctx, prepared);
     if (all.length === 0) return round;
-    const ours = new Set(sets.map((s) => s.id));
-    const breaches = blockingBreaches(all).filter((b) => ours.has(b.setId));
+    // Only the session's own breaches are fixed (the other sessions' sets are checked with it, not changed).
+    const ours = others.length > 0 ? new Set(sets.map((s) => s.id)) : null;
+    const breaches = ours ? blockingBreaches(all).filter((b) => ours.has(b.setId)) : blockingBreaches(all);
     if (breaches.length === 0) return round;
     const bySet = new Map<string, Breach[]>();
     for (const b of breaches) {
@@ -130,6 +145,15 @@ function fitLoop(
       if (list) list.push(b);
       else bySet.set(b.setId, [b]);
     }
+    // What passed as it stands: the sets checked without a breach, and those of rows no rule touches
+    // (left out of the check because the engine can find nothing against them).
+    if (perSet)
+      for (const row of rows)
+        for (const slot of row.slots)
+          if (slot.set !== null && !bySet.has(slot.set.id)) {
+            slot.passed = slot.set;
+            slot.passedAs = row.exerciseId;
+          }
     const last = round >= MAX_ROUNDS;
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
@@ -143,7 +167,7 @@ function fitLoop(
           drop(slot, bs.map(noteOf));
           continue;
         }
-        const action = fixSet(slot, bs, row, ctx, rulesOf, onlyCounts);
+        const action = fixSet(slot, bs, row, ctx, prepared, stages, onlyCounts);
         if (action === 'swap') {
           swapRow = true;
           swapWhy.push(...bs.filter((b) => !COUNT_RULES.has(b.rule)).map(noteOf));
@@ -160,7 +184,8 @@ function fixSet(
   bs: Breach[],
   row: Row,
   ctx: EngineContext,
-  rulesOf: (ex: EngineExercise) => ExerciseRules | undefined,
+  prepared: PreparedRules | undefined,
+  stages: StageRules | undefined,
   onlyCounts: boolean,
 ): 'fixed' | 'swap' | 'none' {
   const set = slot.set!;
@@ -170,10 +195,11 @@ function fixSet(
     return 'fixed';
   }
   if (bs.some((b) => SWAP_RULES.has(b.rule))) return 'swap';
+  const rules = prepared && stages ? prepared.rulesFor(stages, ex) : undefined;
   let next: PlannedSetInput = { ...set };
   const notes: string[] = [];
   const repCap = bs.find((b) => b.rule === 'reps_per_set');
-  const capValue = repCap && rulesOf(ex)?.reps?.value;
+  const capValue = repCap && rules?.reps?.value;
   if (repCap && capValue !== undefined && capValue !== null && capValue >= 1) {
     next.reps = Math.min(next.reps, Math.floor(capValue));
     slot.repsCut = true;
@@ -181,7 +207,7 @@ function fixSet(
   } else if (repCap) return 'swap';
   const loads = bs.filter((b) => LOAD_RULES.has(b.rule));
   if (loads.length > 0 && !repCap) {
-    const fix = loadFix(next, loads, ex, ctx, rulesOf);
+    const fix = loadFix(next, loads, ex, ctx, rules);
     if (fix === null) return 'swap';
     if (fix.reps < next.reps) slot.repsCut = true;
     next = fix;
@@ -208,7 +234,7 @@ function loadFix(
   loads: Breach[],
   ex: EngineExercise,
   ctx: EngineContext,
-  rulesOf: (ex: EngineExercise) => ExerciseRules | undefined,
+  rules: ExerciseRules | undefined,
 ): PlannedSetInput | null {
   const withFit = loads.filter((b) => b.fittingKg !== null);
   if (withFit.length > 0) {
@@ -216,12 +242,12 @@ function loadFix(
     const reps = Math.min(set.reps, ...withFit.map((b) => b.fittingReps ?? set.reps));
     return { ...set, reps, load: loadOnSteps(kg, ex.steps) };
   }
-  const rpeCap = rulesOf(ex)?.rpe?.value;
+  const rpeCap = rules?.rpe?.value;
   if (loads.every((b) => b.rule === 'rpe') && rpeCap !== undefined && rpeCap >= 1) {
     if (set.targetRpe != null) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
     const oneRm = oneRmFor(ex, ctx.baselines);
     if (set.load.kind === 'percent' && oneRm === undefined) {
-      const p = suggestPercent(set.reps, rpeCap, rulesOf(ex)?.pct?.value ?? null);
+      const p = suggestPercent(set.reps, rpeCap, rules?.pct?.value ?? null);
       return p && { ...set, reps: p.reps, load: { kind: 'percent', value: p.percent } };
     }
     if (plannedKg(set.load, oneRm) === null || oneRm === undefined) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
@@ -238,13 +264,7 @@ function drop(slot: Slot, notes: string[]) {
 /** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
 function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
   const original = ctx.exercises[row.teamExerciseId];
-  if (row.swaps === null) {
-    // The pattern family only: no-pattern exercises come from "use instead" (see (c) above).
-    const library = Object.values(ctx.exercises).filter((e) => e.patterns.length > 0);
-    const preferred = (original?.useInstead ?? []).filter((id) => id !== row.teamExerciseId && ctx.exercises[id]);
-    const family = original && day ? suggestSwaps(original, library, day, MAX_SWAP_CANDIDATES).map((e) => e.id) : [];
-    row.swaps = [...new Set([...preferred, ...family])].slice(0, MAX_SWAP_CANDIDATES);
-  }
+  if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day, MAX_SWAP_CANDIDATES)];
   row.swapNotes.push(...why);
   const nextId = row.swaps.shift();
   if (nextId === undefined) {
@@ -268,24 +288,15 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
   }
 }
 
-function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
+function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoads): FittedSession {
   const changes: FitChange[] = [];
   // The sets of a row are mostly alike: the words of the last set are kept for the next one like it.
-  const lastWords = (): ((set: PlannedSetInput) => string) => {
-    let last: PlannedSetInput | null = null;
-    let words = '';
-    return (set) => {
-      if (last === null || !sameSet(last, set)) words = setWords((last = set), unit);
-      return words;
-    };
-  };
-  const notesOf = (notes: readonly string[]) => [...new Set(notes)].join('; ');
   for (const row of rows) {
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
-    const beforeWords = lastWords();
-    const afterWords = lastWords();
+    const beforeWords = new LastWords(unit);
+    const afterWords = new LastWords(unit);
     const rowNote = swapped ? notesOf(row.swapNotes) : '';
     for (const slot of row.slots) {
       // Untouched since it was resolved: as written (the words below are built only for a change).
@@ -295,7 +306,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
       if (!swapped && set !== null) {
         if (sameSet(set, asWritten)) continue;
         // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
-        const floor = teamEx ? floorOfPrescription(slot.team.load, teamEx, ctx.baselines) : null;
+        const floor = teamEx ? loads.floorOf(slot.team.load, teamEx) : null;
         const kgNow = plannedKg(set.load, undefined);
         const onlyRounded =
           floor !== null &&
@@ -305,7 +316,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
           (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
         if (onlyRounded) continue;
       }
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords(asWritten)}`;
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords.of(asWritten)}`;
       const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
       // Written out rather than spread from a common part: this runs for every changed set of a squad.
       const teamExerciseRowId = row.id;
@@ -325,7 +336,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
         continue;
       }
       if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords(set)}`;
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords.of(set)}`;
         changes.push({
           teamExerciseRowId,
           teamSetId,
@@ -339,9 +350,26 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext): FittedSession {
         continue;
       }
       const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords(set), note });
+      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords.of(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
   return { content: contentOf(rows), changes, state };
+}
+
+/** The notes, each once, in order, joined ("a; b"); one note is itself (most changed sets have one). */
+function notesOf(notes: readonly string[]): string {
+  if (notes.length === 1) return notes[0];
+  return [...new Set(notes)].join('; ');
+}
+
+/** The words of a set; the sets of a row are mostly alike, so the words of the last set are kept for the next one like it. */
+class LastWords {
+  private last: PlannedSetInput | null = null;
+  private words = '';
+  constructor(private readonly unit: Unit) {}
+  of(set: PlannedSetInput): string {
+    if (this.last === null || !sameSet(this.last, set)) this.words = setWords((this.last = set), this.unit);
+    return this.words;
+  }
 }
