@@ -270,6 +270,9 @@ test('a session log refused when it arrives (its session was deleted meanwhile) 
     // Still there after a reload: nothing is dropped until the athlete acts.
     await athlete.reload();
     await expect(refused).toBeVisible();
+    // The week settles first: a click while what is above still loads could land on the button below.
+    await expectHome(athlete, 'My week');
+    await expect(athlete.getByRole('status').filter({ hasText: /^Loading / })).toHaveCount(0);
     await refused.getByRole('button', { name: 'Send as a session of its own' }).click();
     await expect(athlete.getByRole('region', { name: 'Kept on this phone' })).toHaveCount(0, { timeout: 20_000 });
     await expect.poll(() => logsWithNotes(athlete, notes)).toBe(1);

@@ -72,7 +72,12 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
     s.on('error', reject);
   });
-  server.keepAliveTimeout = 5000;
+  // An idle kept-alive connection is closed by the server after 65 s, longer than the 60 s that
+  // clients and proxies commonly keep one (common practice): the client, not the server, closes first,
+  // so a request sent on a connection the server is just closing (ECONNRESET) does not happen.
+  // Shutdown still closes idle connections at once (stop below).
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   // Node ends a request that takes over 5 minutes to arrive; a full-size clip from a phone on a slow
   // uplink needs longer. Allow the largest clip at 256 kB/s (20 minutes for 300 MB).
   server.requestTimeout = Math.max(300_000, Math.ceil((config.UPLOAD_MAX_CLIP_MB * 1024) / 256) * 1000);
