@@ -4,8 +4,10 @@
  * starts one per shard. A process each, because the server keeps some state per process (the notice
  * queue, the address its e-mailed links point to), so two servers in one process would mix them.
  *
- *   node --import tsx scripts/e2e-world.ts <shard>
+ *   node --import tsx scripts/e2e-world.ts <shard> <database url> <owner url>
  *
+ * The database is made (fresh) by scripts/test.ts, one after the other: making roles and databases
+ * side by side in one cluster collides ("tuple concurrently updated").
  * Prints one line `E2E_WORLD {"url":…,"dbUrl":…}` when ready; stops everything on SIGTERM.
  */
 import { mkdtemp, rm } from 'node:fs/promises';
@@ -20,8 +22,9 @@ import { startServer } from '../server/src/server';
 import { addCleanAthletes } from '../server/src/test/e2e-athletes';
 import { ROOT, migrate, openDatabase } from './runtime';
 
-const shard = Number(process.argv[2] ?? 1);
-const db = await openDatabase(`loadline_e2e_${shard}`, true);
+const [shardArg, url, ownerUrl] = process.argv.slice(2);
+const shard = Number(shardArg ?? 1);
+const db = url && ownerUrl ? { url, ownerUrl } : await openDatabase(`loadline_e2e_${shard}`, true);
 await migrate(db.ownerUrl, db.url);
 const fake = await startFakeSmtp(db.url, 0);
 // Uploads made by the browser tests go to a folder of their own, removed afterwards.

@@ -47,12 +47,19 @@ function run(cmd: string, argv: string[], env: Record<string, string> = {}, pref
 const E2E_SHARDS = Math.max(1, Number(process.env.E2E_SHARDS ?? 2));
 
 /** Starts scripts/e2e-world.ts for one shard and waits for its address (a process each: see there). */
-function startE2eWorld(shard: number): Promise<{ shard: number; url: string; dbUrl: string; stop(): Promise<void> }> {
+function startE2eWorld(
+  shard: number,
+  db: { url: string; ownerUrl: string },
+): Promise<{ shard: number; url: string; dbUrl: string; stop(): Promise<void> }> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'scripts', 'e2e-world.ts'), String(shard)], {
-      cwd: ROOT,
-      stdio: ['ignore', 'pipe', 'inherit'],
-    });
+    const child = spawn(
+      process.execPath,
+      ['--import', 'tsx', path.join(ROOT, 'scripts', 'e2e-world.ts'), String(shard), db.url, db.ownerUrl],
+      {
+        cwd: ROOT,
+        stdio: ['ignore', 'pipe', 'inherit'],
+      },
+    );
     const exited = new Promise<void>((done) => child.on('exit', () => done()));
     child.on('exit', (code) => reject(new Error(`the browser-test world ${shard} stopped (exit ${code}) before it was ready`)));
     createInterface({ input: child.stdout }).on('line', (line) => {
@@ -127,7 +134,11 @@ try {
     // shards, so the specs may assume what they assume in one sequential run.
     // The cluster is started here, so this process stops it at the end; the worlds find it running.
     if (!process.env.DATABASE_URL) cluster ??= startCluster();
-    const started = await Promise.allSettled(Array.from({ length: E2E_SHARDS }, (_, i) => startE2eWorld(i + 1)));
+    // The databases one after the other (roles and databases made side by side collide), then the
+    // worlds side by side (migrations and the demo, in databases of their own).
+    const databases = [];
+    for (let i = 1; i <= E2E_SHARDS; i++) databases.push(await openDatabase(`loadline_e2e_${i}`, true));
+    const started = await Promise.allSettled(databases.map((db, i) => startE2eWorld(i + 1, db)));
     const shards = started.flatMap((r) => (r.status === 'fulfilled' ? [r.value] : []));
     const failedToStart = started.find((r) => r.status === 'rejected');
     if (failedToStart) {
