@@ -87,7 +87,9 @@ export function fitTeamSession(
     return finish(rows, unit, ctx, loads);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
-  const others = weeklyLimit(day) ? otherSetsOf(opts, team.id) : [];
+  // On the fast path only the other sets that can change a count this session reads (see otherSetsOf).
+  const week = opts.recheckEverySet ? undefined : prepared.on(team.date)?.week;
+  const others = weeklyLimit(day) ? otherSetsOf(opts, team, week === undefined ? null : { prepared, week }) : [];
   fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
   return finish(rows, unit, ctx, loads);
 }
