@@ -107,9 +107,14 @@ export function asWrittenContent(content: SessionContent, ctx: EngineContext, lo
       if (unreadableFields(set) !== null) return null;
       sets.push(set);
     }
-    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+    if (sets.length > 0) exercises.push(contentRow(r.id, r.exerciseId, r.notes, sets));
   }
   return { exercises };
+}
+
+/** One exercise row of session content; `notes` only when given. Written out, not spread: this runs for every row of a squad's versions. */
+function contentRow(id: string, exerciseId: string, notes: string | null | undefined, sets: PlannedSetInput[]) {
+  return notes !== undefined ? { id, exerciseId, notes, sets } : { id, exerciseId, sets };
 }
 
 export function newRow(r: SessionContent['exercises'][number], ctx: EngineContext, loads: ResolvedLoads): Row {
@@ -201,8 +206,9 @@ export function untouched(ex: EngineExercise, r: ExerciseRules): boolean {
 export function contentOf(rows: Row[]): SessionContent {
   const exercises: SessionContent['exercises'] = [];
   for (const r of rows) {
-    const sets = r.slots.filter((s) => s.set !== null).map((s) => s.set!);
-    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+    const sets: PlannedSetInput[] = [];
+    for (const slot of r.slots) if (slot.set !== null) sets.push(slot.set);
+    if (sets.length > 0) exercises.push(contentRow(r.id, r.exerciseId, r.notes, sets));
   }
   return { exercises };
 }

@@ -160,8 +160,8 @@ function fitLoop(
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
     for (const row of rows) {
-      let swapRow = false;
-      const swapWhy: string[] = [];
+      // Made only for a row to swap (most rows have none).
+      let swapWhy: string[] | null = null;
       for (const slot of row.slots) {
         const bs = slot.set && bySet.get(slot.set.id);
         if (!bs) continue;
@@ -171,11 +171,11 @@ function fitLoop(
         }
         const action = fixSet(slot, bs, row, ctx, prepared, stages, onlyCounts);
         if (action === 'swap') {
-          swapRow = true;
-          swapWhy.push(...bs.filter((b) => !COUNT_RULES.has(b.rule)).map(noteOf));
+          swapWhy ??= [];
+          for (const b of bs) if (!COUNT_RULES.has(b.rule)) swapWhy.push(noteOf(b));
         }
       }
-      if (swapRow) swapOrDrop(row, swapWhy, ctx, day, bySet);
+      if (swapWhy !== null) swapOrDrop(row, swapWhy, ctx, day, bySet);
     }
   }
 }
@@ -362,7 +362,10 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
 /** The notes, each once, in order, joined ("a; b"); one note is itself (most changed sets have one). */
 function notesOf(notes: readonly string[]): string {
   if (notes.length === 1) return notes[0];
-  return [...new Set(notes)].join('; ');
+  // A few notes at most: each kept at its first place, as a Set would keep them, without making one.
+  let out = '';
+  for (let i = 0; i < notes.length; i++) if (notes.indexOf(notes[i]) === i) out = i === 0 ? notes[i] : `${out}; ${notes[i]}`;
+  return out;
 }
 
 /** The words of a set; the sets of a row are mostly alike, so the words of the last set are kept for the next one like it. */
