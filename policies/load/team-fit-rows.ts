@@ -156,11 +156,15 @@ export function engineSetsOf(
   const out: EngineSet[] = [];
   let order = 0;
   for (const r of rows) {
-    const skipped = untouchedIn !== null && rowUntouched(r, untouchedIn.stages, untouchedIn.prepared);
+    // Worked out for the row only when one of its sets is still to be checked (after the first round, most have passed).
+    let skipped: boolean | undefined;
     for (const slot of r.slots) {
       const s = slot.set;
       if (s === null) continue;
-      if (skipped || (onlyChanged && slot.passed === s && slot.passedAs === r.exerciseId)) {
+      if (
+        (onlyChanged && slot.passed === s && slot.passedAs === r.exerciseId) ||
+        (skipped ??= untouchedIn !== null && rowUntouched(r, untouchedIn.stages, untouchedIn.prepared))
+      ) {
         order++;
         continue;
       }

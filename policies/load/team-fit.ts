@@ -120,17 +120,20 @@ function fitLoop(
   const day = stages?.day;
   // No closures made per call here or in finish (each is named, and costs, under tsx): this runs per session.
   const validDate = prepared.on(team.date) !== null;
+  const untouchedIn = validDate && stages ? { stages, prepared } : null;
+  // Whether only changed sets are checked (below); worked out again only after a swap changes a row's exercise.
+  let perSet: boolean | undefined;
   for (let round = 0; ; round++) {
     // With no counted limit on any of the session's exercises (and no other sets counted), the engine
     // reads each set on its own: a set that passed and has not changed since passes again, and only the
     // sets changed by the last round are checked. Otherwise the whole session is checked again.
-    const perSet =
+    perSet ??=
       !recheckEverySet &&
       validDate &&
       stages !== undefined &&
       others.length === 0 &&
       rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
-    const sets = engineSetsOf(team, rows, validDate && stages ? { stages, prepared } : null, perSet);
+    const sets = engineSetsOf(team, rows, untouchedIn, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
     // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
@@ -175,7 +178,10 @@ function fitLoop(
           for (const b of bs) if (!COUNT_RULES.has(b.rule)) swapWhy.push(noteOf(b));
         }
       }
-      if (swapWhy !== null) swapOrDrop(row, swapWhy, ctx, day, bySet);
+      if (swapWhy !== null) {
+        swapOrDrop(row, swapWhy, ctx, day, bySet);
+        perSet = undefined;
+      }
     }
   }
 }
@@ -297,8 +303,9 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
-    const beforeWords = new LastWords(unit);
-    const afterWords = new LastWords(unit);
+    // Made for a row with a change only (most rows have none).
+    let beforeWords: LastWords | null = null;
+    let afterWords: LastWords | null = null;
     const rowNote = swapped ? notesOf(row.swapNotes) : '';
     for (const slot of row.slots) {
       // Untouched since it was resolved: as written (the words below are built only for a change).
@@ -318,7 +325,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
           (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
         if (onlyRounded) continue;
       }
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords.of(asWritten)}`;
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${(beforeWords ??= new LastWords(unit)).of(asWritten)}`;
       const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
       // Written out rather than spread from a common part: this runs for every changed set of a squad.
       const teamExerciseRowId = row.id;
@@ -338,7 +345,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
         continue;
       }
       if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords.of(set)}`;
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${(afterWords ??= new LastWords(unit)).of(set)}`;
         changes.push({
           teamExerciseRowId,
           teamSetId,
@@ -352,7 +359,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
         continue;
       }
       const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords.of(set), note });
+      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: (afterWords ??= new LastWords(unit)).of(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
