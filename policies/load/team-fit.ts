@@ -58,7 +58,7 @@ export function fitTeamSession(
     otherSets?: EngineSet[];
     otherSessions?: readonly SessionOf[];
     rules?: PreparedRules;
-    /** Check every set again in every round, never only the changed ones: the same answer, slower (for the test that says so). */
+    /** The plain path: every set checked again in every round with every other set, a row no rule touches kept with slots; the same answer, slower (for the test that says so). */
     recheckEverySet?: boolean;
   } = {},
 ): FittedSession {
@@ -74,10 +74,15 @@ export function fitTeamSession(
     const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx, loads) : null;
     if (content) return { content, changes: [], state: 'as_written' };
   }
-  const rows = team.content.exercises.map((r) => newRow(r, ctx, loads));
   // No plan and every exercise known: the check runs with no day (nothing to read rules from).
-  const stages = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : stagesOn(prepared, team.date);
+  const stages = ctx.plans.length === 0 && allKnown(team.content, ctx) ? undefined : stagesOn(prepared, team.date);
   const day = stages?.day;
+  // On a calendar day with stages in force, a row no rule touches is kept as written, without slots (see
+  // newRow); the plain path keeps slots for every row.
+  const lean =
+    !opts.recheckEverySet && stages && day && day.stages.length > 0 && prepared.on(team.date) !== null ? { stages, prepared } : null;
+  const rows: Row[] = [];
+  for (const r of team.content.exercises) rows.push(newRow(r, ctx, loads, lean));
   if (!stages || !day || day.stages.length === 0) {
     // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
@@ -92,6 +97,12 @@ export function fitTeamSession(
   const others = weeklyLimit(day) ? otherSetsOf(opts, team, week === undefined ? null : { prepared, week }) : [];
   fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
   return finish(rows, unit, ctx, loads);
+}
+
+/** Every exercise of the session is in the library. */
+function allKnown(content: SessionContent, ctx: EngineContext): boolean {
+  for (const r of content.exercises) if (!ctx.exercises[r.exerciseId]) return false;
+  return true;
 }
 
 /** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
