@@ -2,6 +2,7 @@ import type { SessionContent } from '../schemas/programs';
 import type { EngineContext } from './compliance';
 import { suggestSwaps } from './exercise-rules';
 import type { InForce } from './in-force';
+import type { PreparedRules } from './prepared-rules';
 import { sessionEngineSets, type EngineSet } from './sets';
 
 /**
@@ -26,13 +27,63 @@ export function weeklyLimit(day: InForce): boolean {
 
 /**
  * The athlete's other sets of the same weeks, counted toward weekly limits: `otherSets` as given, and
- * `otherSessions` turned into engine sets here, only when a weekly limit needs them.
+ * `otherSessions` turned into engine sets here, only when a weekly limit needs them. With `counted`
+ * (the session's date, valid, and the athlete's rules), only the sets that can change a count the
+ * session's own sets read are kept: the check counts a set only when its exercise is known, its date
+ * is a calendar day and a capped pattern is in force for it; counts per week are kept per week, and
+ * a set is counted in date, then session, then set order (bySessionThenOrder), so a set of another
+ * week, or one ordered after every set of the session, is read after what it could change. The
+ * session's own breaches are then the same as with every other set checked along.
  */
-export function otherSetsOf(opts: { otherSets?: EngineSet[]; otherSessions?: readonly SessionOf[] }, teamId: string): EngineSet[] {
+export function otherSetsOf(
+  opts: { otherSets?: EngineSet[]; otherSessions?: readonly SessionOf[] },
+  team: { id: string; date: string },
+  counted: { prepared: PreparedRules; week: string } | null,
+): EngineSet[] {
   const out: EngineSet[] = [];
-  for (const s of opts.otherSets ?? []) if (s.sessionId !== teamId) out.push(s);
-  for (const session of opts.otherSessions ?? []) if (session.id !== teamId) out.push(...sessionEngineSets(session));
+  for (const s of opts.otherSets ?? [])
+    if (s.sessionId !== team.id && (counted === null || mayCount(s.date, s.sessionId, s.exerciseId, team, counted))) out.push(s);
+  for (const session of opts.otherSessions ?? []) {
+    if (session.id === team.id) continue;
+    if (counted === null) {
+      out.push(...sessionEngineSets(session));
+      continue;
+    }
+    // Numbered as sessionEngineSets numbers them, the sets left out included.
+    let order = 0;
+    for (const row of session.content.exercises)
+      for (const s of row.sets) {
+        if (mayCount(session.date, session.id, row.exerciseId, team, counted))
+          out.push({
+            id: s.id,
+            sessionId: session.id,
+            date: session.date,
+            exerciseId: row.exerciseId,
+            reps: s.reps,
+            load: s.load,
+            targetRpe: s.targetRpe ?? null,
+            warmUp: s.warmUp ?? false,
+            order,
+          });
+        order++;
+      }
+  }
   return out;
+}
+
+/** Whether another set may change a count that the session's own sets read (see otherSetsOf). */
+function mayCount(
+  date: string,
+  sessionId: string,
+  exerciseId: string,
+  team: { id: string; date: string },
+  counted: { prepared: PreparedRules; week: string },
+): boolean {
+  if (date > team.date || (date === team.date && sessionId > team.id)) return false;
+  const ex = counted.prepared.exercises[exerciseId];
+  const day = ex && counted.prepared.on(date);
+  if (!day) return true;
+  return day.week === counted.week && counted.prepared.rulesFor(day.stages, ex).capped.length > 0;
 }
 
 /**

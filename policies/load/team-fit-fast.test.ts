@@ -55,7 +55,7 @@ describe('team fitting, fast paths (properties)', () => {
     );
   });
 
-  it('a squad-style fitting (rules and resolved loads kept, other versions as sessions, only changed sets checked again) gives exactly the plain fitting', () => {
+  it('a squad-style fitting (rules and resolved loads kept, other versions as sessions and only those that can count, untouched rows kept as written, only changed sets checked again) gives exactly the plain fitting', () => {
     fc.assert(
       fc.property(contextArb, fc.array(teamArb, { minLength: 1, maxLength: 5 }), (ctx, teams) => {
         const sessions = teams

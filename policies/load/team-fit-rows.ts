@@ -33,6 +33,11 @@ export interface Row {
   ex: EngineExercise | undefined;
   notes: string | null | undefined;
   slots: Slot[];
+  /**
+   * The sets as written of a row no rule in force touches (every set readable): never checked nor
+   * changed, so kept as they are, with no slots; null for every other row.
+   */
+  fixed: PlannedSetInput[] | null;
   swaps: string[] | null;
   swapNotes: string[];
 }
@@ -107,26 +112,52 @@ export function asWrittenContent(content: SessionContent, ctx: EngineContext, lo
       if (unreadableFields(set) !== null) return null;
       sets.push(set);
     }
-    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+    if (sets.length > 0) exercises.push(contentRow(r.id, r.exerciseId, r.notes, sets));
   }
   return { exercises };
 }
 
-export function newRow(r: SessionContent['exercises'][number], ctx: EngineContext, loads: ResolvedLoads): Row {
+/** One exercise row of session content; `notes` only when given. Written out, not spread: this runs for every row of a squad's versions. */
+function contentRow(id: string, exerciseId: string, notes: string | null | undefined, sets: PlannedSetInput[]) {
+  return notes !== undefined ? { id, exerciseId, notes, sets } : { id, exerciseId, sets };
+}
+
+/**
+ * A working row of the team's row. With `untouchedIn` (the stages of a calendar day), a row whose
+ * exercise no rule in force touches and whose sets all read is kept as its sets as written (`fixed`):
+ * engineSetsOf would leave it out of every check, so nothing in it can breach or change.
+ */
+export function newRow(
+  r: SessionContent['exercises'][number],
+  ctx: EngineContext,
+  loads: ResolvedLoads,
+  untouchedIn: { stages: StageRules; prepared: PreparedRules } | null = null,
+): Row {
   const ex = ctx.exercises[r.exerciseId];
-  return {
+  const row: Row = {
     id: r.id,
     teamExerciseId: r.exerciseId,
     exerciseId: r.exerciseId,
     ex,
     notes: r.notes,
-    slots: r.sets.map((s) => {
-      const asWritten = asWrittenSet(s, ex, loads);
-      return { team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES, passed: null, passedAs: null };
-    }),
+    slots: [],
+    fixed: null,
     swaps: null,
     swapNotes: [],
   };
+  if (ex && untouchedIn && untouched(ex, untouchedIn.prepared.rulesFor(untouchedIn.stages, ex))) {
+    const fixed: PlannedSetInput[] = [];
+    for (const s of r.sets) fixed.push(asWrittenSet(s, ex, loads));
+    if (fixed.every((s) => unreadableFields(s) === null)) {
+      row.fixed = fixed;
+      return row;
+    }
+  }
+  for (const s of r.sets) {
+    const asWritten = asWrittenSet(s, ex, loads);
+    row.slots.push({ team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES, passed: null, passedAs: null });
+  }
+  return row;
 }
 
 /** Every exercise known and every set readable on the date, as the engine reads them (check-support's unreadable). */
@@ -151,11 +182,19 @@ export function engineSetsOf(
   const out: EngineSet[] = [];
   let order = 0;
   for (const r of rows) {
-    const skipped = untouchedIn !== null && rowUntouched(r, untouchedIn.stages, untouchedIn.prepared);
+    if (r.fixed !== null) {
+      order += r.fixed.length;
+      continue;
+    }
+    // Worked out for the row only when one of its sets is still to be checked (after the first round, most have passed).
+    let skipped: boolean | undefined;
     for (const slot of r.slots) {
       const s = slot.set;
       if (s === null) continue;
-      if (skipped || (onlyChanged && slot.passed === s && slot.passedAs === r.exerciseId)) {
+      if (
+        (onlyChanged && slot.passed === s && slot.passedAs === r.exerciseId) ||
+        (skipped ??= untouchedIn !== null && rowUntouched(r, untouchedIn.stages, untouchedIn.prepared))
+      ) {
         order++;
         continue;
       }
@@ -201,8 +240,12 @@ export function untouched(ex: EngineExercise, r: ExerciseRules): boolean {
 export function contentOf(rows: Row[]): SessionContent {
   const exercises: SessionContent['exercises'] = [];
   for (const r of rows) {
-    const sets = r.slots.filter((s) => s.set !== null).map((s) => s.set!);
-    if (sets.length > 0) exercises.push({ id: r.id, exerciseId: r.exerciseId, ...(r.notes !== undefined ? { notes: r.notes } : {}), sets });
+    let sets = r.fixed;
+    if (sets === null) {
+      sets = [];
+      for (const slot of r.slots) if (slot.set !== null) sets.push(slot.set);
+    }
+    if (sets.length > 0) exercises.push(contentRow(r.id, r.exerciseId, r.notes, sets));
   }
   return { exercises };
 }

@@ -58,7 +58,7 @@ export function fitTeamSession(
     otherSets?: EngineSet[];
     otherSessions?: readonly SessionOf[];
     rules?: PreparedRules;
-    /** Check every set again in every round, never only the changed ones: the same answer, slower (for the test that says so). */
+    /** The plain path: every set checked again in every round with every other set, a row no rule touches kept with slots; the same answer, slower (for the test that says so). */
     recheckEverySet?: boolean;
   } = {},
 ): FittedSession {
@@ -74,10 +74,15 @@ export function fitTeamSession(
     const content = prepared.on(team.date) !== null ? asWrittenContent(team.content, ctx, loads) : null;
     if (content) return { content, changes: [], state: 'as_written' };
   }
-  const rows = team.content.exercises.map((r) => newRow(r, ctx, loads));
   // No plan and every exercise known: the check runs with no day (nothing to read rules from).
-  const stages = ctx.plans.length === 0 && rows.every((r) => r.ex) ? undefined : stagesOn(prepared, team.date);
+  const stages = ctx.plans.length === 0 && allKnown(team.content, ctx) ? undefined : stagesOn(prepared, team.date);
   const day = stages?.day;
+  // On a calendar day with stages in force, a row no rule touches is kept as written, without slots (see
+  // newRow); the plain path keeps slots for every row.
+  const lean =
+    !opts.recheckEverySet && stages && day && day.stages.length > 0 && prepared.on(team.date) !== null ? { stages, prepared } : null;
+  const rows: Row[] = [];
+  for (const r of team.content.exercises) rows.push(newRow(r, ctx, loads, lean));
   if (!stages || !day || day.stages.length === 0) {
     // No stage in force and not Out: nothing can be capped or blocked, only an unknown exercise or an
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
@@ -87,9 +92,17 @@ export function fitTeamSession(
     return finish(rows, unit, ctx, loads);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
-  const others = weeklyLimit(day) ? otherSetsOf(opts, team.id) : [];
+  // On the fast path only the other sets that can change a count this session reads (see otherSetsOf).
+  const week = opts.recheckEverySet ? undefined : prepared.on(team.date)?.week;
+  const others = weeklyLimit(day) ? otherSetsOf(opts, team, week === undefined ? null : { prepared, week }) : [];
   fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
   return finish(rows, unit, ctx, loads);
+}
+
+/** Every exercise of the session is in the library. */
+function allKnown(content: SessionContent, ctx: EngineContext): boolean {
+  for (const r of content.exercises) if (!ctx.exercises[r.exerciseId]) return false;
+  return true;
 }
 
 /** The stages in force on the date as the engine reads them; for a date that is not a calendar day, as inForceOn reads it. */
@@ -118,17 +131,20 @@ function fitLoop(
   const day = stages?.day;
   // No closures made per call here or in finish (each is named, and costs, under tsx): this runs per session.
   const validDate = prepared.on(team.date) !== null;
+  const untouchedIn = validDate && stages ? { stages, prepared } : null;
+  // Whether only changed sets are checked (below); worked out again only after a swap changes a row's exercise.
+  let perSet: boolean | undefined;
   for (let round = 0; ; round++) {
     // With no counted limit on any of the session's exercises (and no other sets counted), the engine
     // reads each set on its own: a set that passed and has not changed since passes again, and only the
     // sets changed by the last round are checked. Otherwise the whole session is checked again.
-    const perSet =
+    perSet ??=
       !recheckEverySet &&
       validDate &&
       stages !== undefined &&
       others.length === 0 &&
       rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
-    const sets = engineSetsOf(team, rows, validDate && stages ? { stages, prepared } : null, perSet);
+    const sets = engineSetsOf(team, rows, untouchedIn, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
     // The other sessions' sets first: they are of earlier days, so the check finds them in order (the
@@ -158,8 +174,8 @@ function fitLoop(
     // Counted limits are read last: lighter or swapped sets may no longer count toward them.
     const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
     for (const row of rows) {
-      let swapRow = false;
-      const swapWhy: string[] = [];
+      // Made only for a row to swap (most rows have none).
+      let swapWhy: string[] | null = null;
       for (const slot of row.slots) {
         const bs = slot.set && bySet.get(slot.set.id);
         if (!bs) continue;
@@ -169,11 +185,14 @@ function fitLoop(
         }
         const action = fixSet(slot, bs, row, ctx, prepared, stages, onlyCounts);
         if (action === 'swap') {
-          swapRow = true;
-          swapWhy.push(...bs.filter((b) => !COUNT_RULES.has(b.rule)).map(noteOf));
+          swapWhy ??= [];
+          for (const b of bs) if (!COUNT_RULES.has(b.rule)) swapWhy.push(noteOf(b));
         }
       }
-      if (swapRow) swapOrDrop(row, swapWhy, ctx, day, bySet);
+      if (swapWhy !== null) {
+        swapOrDrop(row, swapWhy, ctx, day, bySet);
+        perSet = undefined;
+      }
     }
   }
 }
@@ -295,8 +314,9 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
     const teamEx = ctx.exercises[row.teamExerciseId];
     const swapped = row.exerciseId !== row.teamExerciseId;
     const ex = ctx.exercises[row.exerciseId];
-    const beforeWords = new LastWords(unit);
-    const afterWords = new LastWords(unit);
+    // Made for a row with a change only (most rows have none).
+    let beforeWords: LastWords | null = null;
+    let afterWords: LastWords | null = null;
     const rowNote = swapped ? notesOf(row.swapNotes) : '';
     for (const slot of row.slots) {
       // Untouched since it was resolved: as written (the words below are built only for a change).
@@ -316,7 +336,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
           (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
         if (onlyRounded) continue;
       }
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${beforeWords.of(asWritten)}`;
+      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${(beforeWords ??= new LastWords(unit)).of(asWritten)}`;
       const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
       // Written out rather than spread from a common part: this runs for every changed set of a squad.
       const teamExerciseRowId = row.id;
@@ -336,7 +356,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
         continue;
       }
       if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${afterWords.of(set)}`;
+        const after = `${ex?.name ?? 'Unknown exercise'}: ${(afterWords ??= new LastWords(unit)).of(set)}`;
         changes.push({
           teamExerciseRowId,
           teamSetId,
@@ -350,7 +370,7 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
         continue;
       }
       const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: afterWords.of(set), note });
+      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: (afterWords ??= new LastWords(unit)).of(set), note });
     }
   }
   const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
@@ -360,7 +380,10 @@ function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoad
 /** The notes, each once, in order, joined ("a; b"); one note is itself (most changed sets have one). */
 function notesOf(notes: readonly string[]): string {
   if (notes.length === 1) return notes[0];
-  return [...new Set(notes)].join('; ');
+  // A few notes at most: each kept at its first place, as a Set would keep them, without making one.
+  let out = '';
+  for (let i = 0; i < notes.length; i++) if (notes.indexOf(notes[i]) === i) out = i === 0 ? notes[i] : `${out}; ${notes[i]}`;
+  return out;
 }
 
 /** The words of a set; the sets of a row are mostly alike, so the words of the last set are kept for the next one like it. */
