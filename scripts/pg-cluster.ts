@@ -129,6 +129,14 @@ export function startCluster(): Cluster {
   } else {
     log(`PostgreSQL already running on 127.0.0.1:${PG_PORT}`);
   }
+  // The cluster keeps the port it was made with (postgresql.conf); a different LOADLINE_PG_PORT would
+  // only fail later on a missing socket, so say which port it is on. postmaster.pid's 4th line is the port.
+  const runningPort = readFileSync(path.join(data, 'postmaster.pid'), 'utf8').split('\n')[3]?.trim();
+  if (runningPort && runningPort !== String(PG_PORT)) {
+    throw new Error(
+      `The database cluster in ${data} listens on port ${runningPort}, not ${PG_PORT}: run with LOADLINE_PG_PORT=${runningPort} (or remove ${data} to make a new one).`,
+    );
+  }
   // The roles are created once, over the local socket where the superuser is trusted.
   const psql = (sql: string) =>
     run(
