@@ -284,7 +284,7 @@ function drop(slot: Slot, notes: string[]) {
 function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
   const original = ctx.exercises[row.teamExerciseId];
   if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day, MAX_SWAP_CANDIDATES)];
-  row.swapNotes.push(...why);
+  row.swapNotes = row.swapNotes.concat(why);
   const nextId = row.swaps.shift();
   if (nextId === undefined) {
     for (const slot of row.slots) if (slot.set && bySet.has(slot.set.id)) drop(slot, why);
