@@ -29,42 +29,51 @@ export function fixSet(
 ): 'fixed' | 'swap' | 'none' {
   const set = slot.set!;
   const ex = ctx.exercises[row.exerciseId];
-  if (!ex || bs.some((b) => b.rule === 'unreadable' || b.rule === 'status_out')) {
+  // The set's breaches read in one pass, without closures: this runs for every blocked set of a squad.
+  let unreadable = !ex;
+  let swap = false;
+  let counted = false;
+  let repCap: Breach | undefined;
+  let loads: Breach[] | null = null;
+  for (const b of bs) {
+    if (b.rule === 'unreadable' || b.rule === 'status_out') unreadable = true;
+    else if (SWAP_RULES.has(b.rule)) swap = true;
+    else if (b.rule === 'reps_per_set') repCap ??= b;
+    else if (LOAD_RULES.has(b.rule)) (loads ??= []).push(b);
+    else if (COUNT_RULES.has(b.rule)) counted = true;
+  }
+  if (unreadable || !ex) {
     drop(slot, bs.map(noteOf));
     return 'fixed';
   }
-  if (bs.some((b) => SWAP_RULES.has(b.rule))) return 'swap';
+  if (swap) return 'swap';
   const rules = prepared && stages ? prepared.rulesFor(stages, ex) : undefined;
-  let next: PlannedSetInput = { ...set };
-  const notes: string[] = [];
-  const repCap = bs.find((b) => b.rule === 'reps_per_set');
-  const capValue = repCap && rules?.reps?.value;
-  if (repCap && capValue !== undefined && capValue !== null && capValue >= 1) {
-    next.reps = Math.min(next.reps, Math.floor(capValue));
+  let next: PlannedSetInput;
+  let notes: string[];
+  if (repCap) {
+    const capValue = rules?.reps?.value;
+    if (capValue === undefined || capValue === null || !(capValue >= 1)) return 'swap';
+    next = { ...set, reps: Math.min(set.reps, Math.floor(capValue)) };
     slot.repsCut = true;
-    notes.push(noteOf(repCap));
-  } else if (repCap) return 'swap';
-  const loads = bs.filter((b) => LOAD_RULES.has(b.rule));
-  if (loads.length > 0 && !repCap) {
-    const fix = loadFix(next, loads, ex, ctx, rules);
+    notes = [noteOf(repCap)];
+  } else if (loads !== null) {
+    const fix = loadFix(set, loads, ex, ctx, rules);
     if (fix === null) return 'swap';
-    if (fix.reps < next.reps) slot.repsCut = true;
+    if (fix.reps < set.reps) slot.repsCut = true;
     next = fix;
-    notes.push(...loads.map(noteOf));
-  }
-  if (notes.length > 0) {
-    slot.set = next;
-    addNotes(slot, notes);
-    return 'fixed';
-  }
-  const counts = bs.filter((b) => COUNT_RULES.has(b.rule));
-  if (counts.length > 0 && onlyCounts) {
+    notes = loads.map(noteOf);
+  } else {
+    if (!counted || !onlyCounts) return 'none';
+    const cut: string[] = [];
+    for (const b of bs) if (COUNT_RULES.has(b.rule)) cut.push(noteOf(b));
     slot.set = null;
     slot.removed = 'sets_cut';
-    addNotes(slot, counts.map(noteOf));
+    addNotes(slot, cut);
     return 'fixed';
   }
-  return 'none';
+  slot.set = next;
+  addNotes(slot, notes);
+  return 'fixed';
 }
 
 /** (a) and the reps part of (b) for the load caps: the engine's fit, a lower target RPE, or a lower %. Null when no load fits. */
@@ -75,14 +84,19 @@ function loadFix(
   ctx: EngineContext,
   rules: ExerciseRules | undefined,
 ): PlannedSetInput | null {
-  const withFit = loads.filter((b) => b.fittingKg !== null);
-  if (withFit.length > 0) {
-    const kg = Math.min(...withFit.map((b) => b.fittingKg!));
-    const reps = Math.min(set.reps, ...withFit.map((b) => b.fittingReps ?? set.reps));
-    return { ...set, reps, load: loadOnSteps(kg, ex.steps) };
+  // The lightest of the engine's fits, at the fewest reps any of them needs.
+  let kg: number | null = null;
+  let reps = set.reps;
+  let onlyRpe = true;
+  for (const b of loads) {
+    if (b.rule !== 'rpe') onlyRpe = false;
+    if (b.fittingKg === null) continue;
+    kg = kg === null ? b.fittingKg : Math.min(kg, b.fittingKg);
+    reps = Math.min(reps, b.fittingReps ?? set.reps);
   }
+  if (kg !== null) return { ...set, reps, load: loadOnSteps(kg, ex.steps) };
   const rpeCap = rules?.rpe?.value;
-  if (loads.every((b) => b.rule === 'rpe') && rpeCap !== undefined && rpeCap >= 1) {
+  if (onlyRpe && rpeCap !== undefined && rpeCap >= 1) {
     if (set.targetRpe != null) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
     const oneRm = oneRmFor(ex, ctx.baselines);
     if (set.load.kind === 'percent' && oneRm === undefined) {

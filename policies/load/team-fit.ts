@@ -1,6 +1,6 @@
 import type { SessionContent } from '../schemas/programs';
 import type { Breach } from './breach';
-import { blockingBreaches, checkSetsToFit, type EngineContext } from './compliance';
+import { checkSetsToFit, type EngineContext } from './compliance';
 import { inForceOn, type InForce } from './in-force';
 import { PreparedRules, type StageRules } from './prepared-rules';
 import { plannedKg, type EngineSet } from './sets';
@@ -8,8 +8,8 @@ import { finish } from './team-fit-changes';
 import { otherSetsOf, swapCandidates, weeklyLimit, type SessionOf } from './team-fit-day';
 import { COUNT_RULES, drop, fixSet, noteOf } from './team-fit-fix';
 import type { FittedSession } from './team-fit-types';
-import { allReadable, asWrittenContent, counts, engineSetsOf, loadsFor, newRow, type Row } from './team-fit-rows';
-import { oneRmFor, resolveLoad } from './team-fit-support';
+import { allReadable, asWrittenContent, counts, engineSetsOf, loadsFor, newRow, type ResolvedLoads, type Row } from './team-fit-rows';
+import { oneRmFor } from './team-fit-support';
 
 /**
  * One athlete's version of a team session (team programming, issue 14). The team session is resolved
@@ -74,14 +74,14 @@ export function fitTeamSession(
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
     // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
     if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx, loads);
-    fitLoop(team, rows, engine, [], prepared, stages, opts.recheckEverySet);
+    fitLoop(team, rows, engine, [], prepared, loads, stages, opts.recheckEverySet);
     return finish(rows, unit, ctx, loads);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   // On the fast path only the other sets that can change a count this session reads (see otherSetsOf).
   const week = opts.recheckEverySet ? undefined : prepared.on(team.date)?.week;
   const others = weeklyLimit(day) ? otherSetsOf(opts, team, week === undefined ? null : { prepared, week }) : [];
-  fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
+  fitLoop(team, rows, engine, others, prepared, loads, stages, opts.recheckEverySet);
   return finish(rows, unit, ctx, loads);
 }
 
@@ -106,6 +106,7 @@ function fitLoop(
   ctx: EngineContext,
   others: EngineSet[],
   prepared: PreparedRules,
+  loads: ResolvedLoads,
   stages: StageRules | undefined,
   recheckEverySet = false,
 ): number {
@@ -119,12 +120,7 @@ function fitLoop(
     // With no counted limit on any of the session's exercises (and no other sets counted), the engine
     // reads each set on its own: a set that passed and has not changed since passes again, and only the
     // sets changed by the last round are checked. Otherwise the whole session is checked again.
-    perSet ??=
-      !recheckEverySet &&
-      validDate &&
-      stages !== undefined &&
-      others.length === 0 &&
-      rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
+    perSet ??= !recheckEverySet && validDate && stages !== undefined && others.length === 0 && noCountedLimit(rows, prepared, stages);
     const sets = engineSetsOf(team, rows, untouchedIn, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
@@ -132,16 +128,23 @@ function fitLoop(
     // order of its input does not change its answer).
     const all = checkSetsToFit(others.length ? [...others, ...sets] : sets, ctx, prepared);
     if (all.length === 0) return round;
-    // Only the session's own breaches are fixed (the other sessions' sets are checked with it, not changed).
-    const ours = others.length > 0 ? new Set(sets.map((s) => s.id)) : null;
-    const breaches = ours ? blockingBreaches(all).filter((b) => ours.has(b.setId)) : blockingBreaches(all);
-    if (breaches.length === 0) return round;
-    const bySet = new Map<string, Breach[]>();
-    for (const b of breaches) {
-      const list = bySet.get(b.setId);
+    // Only the session's own blocking breaches are fixed (the other sessions' sets are checked with it,
+    // not changed), by set; counted limits are read last: lighter or swapped sets may no longer count.
+    let ours: Set<string> | null = null;
+    if (others.length > 0) {
+      ours = new Set();
+      for (const s of sets) ours.add(s.id);
+    }
+    let bySet: Map<string, Breach[]> | null = null;
+    let onlyCounts = true;
+    for (const b of all) {
+      if (b.waived || (ours !== null && !ours.has(b.setId))) continue;
+      if (!COUNT_RULES.has(b.rule)) onlyCounts = false;
+      const list = (bySet ??= new Map()).get(b.setId);
       if (list) list.push(b);
       else bySet.set(b.setId, [b]);
     }
+    if (bySet === null) return round;
     // What passed as it stands: the sets checked without a breach, and those of rows no rule touches
     // (left out of the check because the engine can find nothing against them).
     if (perSet)
@@ -152,8 +155,6 @@ function fitLoop(
             slot.passedAs = row.exerciseId;
           }
     const last = round >= MAX_ROUNDS;
-    // Counted limits are read last: lighter or swapped sets may no longer count toward them.
-    const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
     for (const row of rows) {
       // Made only for a row to swap (most rows have none).
       let swapWhy: string[] | null = null;
@@ -171,15 +172,28 @@ function fitLoop(
         }
       }
       if (swapWhy !== null) {
-        swapOrDrop(row, swapWhy, ctx, day, bySet);
+        swapOrDrop(row, swapWhy, ctx, day, bySet, loads);
         perSet = undefined;
       }
     }
   }
 }
 
+/** No counted limit (sets per session, hard sets per week) on any of the rows' exercises. */
+function noCountedLimit(rows: Row[], prepared: PreparedRules, stages: StageRules): boolean {
+  for (const r of rows) if (r.ex && counts(prepared.rulesFor(stages, r.ex))) return false;
+  return true;
+}
+
 /** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
-function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
+function swapOrDrop(
+  row: Row,
+  why: string[],
+  ctx: EngineContext,
+  day: InForce | undefined,
+  bySet: Map<string, Breach[]>,
+  loads: ResolvedLoads,
+) {
   const original = ctx.exercises[row.teamExerciseId];
   if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day, MAX_SWAP_CANDIDATES)];
   row.swapNotes = row.swapNotes.concat(why);
@@ -199,7 +213,8 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
     // An absolute load keeps its intensity when both exercises have a 1RM: the same % of the new one.
     if ((load.kind === 'kg' || load.kind === 'lb') && fromOneRm !== undefined && toOneRm !== undefined)
       load = { kind: 'percent', value: Math.min(110, (plannedKg(load, undefined)! / fromOneRm) * 100) };
-    slot.set = { ...slot.team, load: resolveLoad(load, ex, ctx.baselines) };
+    // Resolved as resolveLoad does, kept per exercise and % for the athlete (the same few loads in every session).
+    slot.set = { ...slot.team, load: loads.of(load, ex) };
     slot.removed = null;
     slot.repsCut = false;
   }
