@@ -44,8 +44,12 @@ export interface Row {
 }
 
 export const NO_NOTES: readonly string[] = Object.freeze([]);
-/** The slots of a row kept as written (`fixed`): none, one frozen array for all of them. */
-const NO_SLOTS = Object.freeze([]) as unknown as Slot[];
+/**
+ * The slots of a row kept as written (`fixed`): none, one empty array shared by all of them (never
+ * added to: newRow fills a row's own array). Not frozen: a loop over a frozen array is not optimised
+ * as one over a plain array, and every row's slots are looped over.
+ */
+const NO_SLOTS: Slot[] = [];
 export const addNotes = (slot: Slot, notes: readonly string[]) => {
   if (notes.length > 0) slot.notes = slot.notes.concat(notes);
 };
