@@ -126,15 +126,33 @@ export function asWrittenContent(content: SessionContent, ctx: EngineContext, lo
  * rows of a squad's versions (loads in kg, body weight) are the team's as they stand.
  */
 function asWrittenSets(teamSets: PlannedSetInput[], ex: EngineExercise, loads: ResolvedLoads): PlannedSetInput[] | null {
+  if (!teamRowReadable(teamSets)) return null;
   let out: PlannedSetInput[] | null = null;
   for (let i = 0; i < teamSets.length; i++) {
     const s = teamSets[i];
     const set = asWrittenSet(s, ex, loads);
-    if (unreadableFields(set) !== null) return null;
     if (out === null && set !== s) out = teamSets.slice(0, i);
     if (out !== null) out.push(set);
   }
   return out ?? teamSets;
+}
+
+/**
+ * Whether every set of a team row reads (unreadableFields), kept per row's array of sets: a squad's
+ * athletes share the team's rows. A set as written for an athlete reads exactly when the team's set
+ * does: resolving a % changes only its load, into a load on the steps (a finite kg or lb, not
+ * negative), which reads, and a % that does not read (not a finite number of at least 0) is never
+ * resolved (plannedKg). Team content is not changed in place (the server reads it afresh).
+ */
+const readableRows = new WeakMap<readonly PlannedSetInput[], boolean>();
+function teamRowReadable(sets: readonly PlannedSetInput[]): boolean {
+  let readable = readableRows.get(sets);
+  if (readable === undefined) {
+    readable = true;
+    for (const s of sets) if (unreadableFields(s) !== null) readable = false;
+    readableRows.set(sets, readable);
+  }
+  return readable;
 }
 
 /** One exercise row of session content; `notes` only when given. Written out, not spread: this runs for every row of a squad's versions. */
