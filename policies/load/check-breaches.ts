@@ -19,7 +19,7 @@ export type BreachWords = [planned: string, fits: string | null, message: string
  * pattern; the rest is exactly what the full check gives.
  */
 export class BreachList {
-  readonly list: Breach[] = [];
+  list: Breach[] = [];
   /** The set being checked, and whether an exception covers it. */
   set!: EngineSet;
   waived = false;
@@ -28,11 +28,24 @@ export class BreachList {
   private shows: ((kg: number) => string) | null = null;
   private caps: ((kg: number) => string) | null = null;
   private nums: ((v: number) => string) | null = null;
+  /** Checks since the remembered words were last dropped (a reused lean list, see leanBreachList). */
+  private uses = 0;
 
   constructor(
     readonly unit: Unit,
     readonly lean: boolean,
   ) {}
+
+  /** Emptied for the next check; the words remembered (pure functions of a value and the unit) are kept, and dropped every 4,096 checks so they stay few. */
+  reset(): void {
+    this.list = [];
+    this.fitOf = null;
+    this.fit = null;
+    this.waived = false;
+    if (++this.uses < 4096) return;
+    this.uses = 0;
+    this.shows = this.caps = this.nums = null;
+  }
 
   /** A load in the reader's unit, and a cap rounded down in it (remembered for the length of the check). */
   show(kg: number): string {
@@ -96,6 +109,19 @@ export class BreachList {
         ? words
         : `no load on ${describeSteps(steps)} fits ${this.set.reps} reps — ${words}`;
   }
+}
+
+/**
+ * The lean list of a unit for the next check, made once and reused (see reset): the fitting runs
+ * thousands of small checks one after the other, and the check never calls itself, so one list per
+ * unit is enough. The limits it words (a load, a cap, a number) repeat from check to check.
+ */
+const leanLists = new Map<Unit, BreachList>();
+export function leanBreachList(unit: Unit): BreachList {
+  let b = leanLists.get(unit);
+  if (b === undefined) leanLists.set(unit, (b = new BreachList(unit, true)));
+  else b.reset();
+  return b;
 }
 
 /** The words of a pattern breach in a lean check: none. */

@@ -2,7 +2,7 @@ import type { Unit } from '../schemas/common';
 import type { Breach } from './breach';
 import type { EngineExercise, ExerciseRules } from './exercise-rules';
 import { overCap, percentOf, suggestPercent, type Fit } from './fitting';
-import { BreachList, LEAN_WORDS } from './check-breaches';
+import { BreachList, LEAN_WORDS, leanBreachList } from './check-breaches';
 import { bySessionThenOrder, unreadableFields } from './check-support';
 import { isFiniteNumber } from './guard';
 import type { PlanInput } from './in-force';
@@ -67,8 +67,8 @@ function countsFor(map: Map<string, Int32Array>, key: string): Int32Array {
 }
 
 function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | undefined, lean: boolean): Breach[] {
-  // Helpers live on `b` (one object per check), not in closures made per check: fitting runs thousands.
-  const b = new BreachList(ctx.unit ?? 'kg', lean);
+  // Helpers live on `b` (one object per check, reused by the lean check), not in closures made per check: fitting runs thousands.
+  const b = lean ? leanBreachList(ctx.unit ?? 'kg') : new BreachList(ctx.unit ?? 'kg', false);
   // The words of a breach that names a pattern are built only for the full check (see checkSetsToFit).
   const full = !lean;
   // The rules per day and per exercise: those prepared for this athlete, or worked out for this check.
@@ -77,9 +77,9 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
   let sorted = true;
   for (let i = 1; i < sets.length && sorted; i++) sorted = bySessionThenOrder(sets[i - 1], sets[i]) <= 0;
   const ordered = sorted ? sets : [...sets].sort(bySessionThenOrder);
-  // Counts per session and per week, one slot per movement pattern.
-  const sessionCounts = new Map<string, Int32Array>();
-  const weekCounts = new Map<string, Int32Array>();
+  // Counts per session and per week, one slot per movement pattern (made at the first capped set: most small checks have none).
+  let sessionCounts: Map<string, Int32Array> | null = null;
+  let weekCounts: Map<string, Int32Array> | null = null;
 
   // Sets come sorted by date: a date is read once, when the loop moves to it (only valid dates become `date`).
   let date: string | null = null;
@@ -287,7 +287,7 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
     if (r.capped.length === 0) continue;
     if (set.sessionId !== sessionId) {
       sessionId = set.sessionId;
-      sessionCount = countsFor(sessionCounts, sessionId);
+      sessionCount = countsFor((sessionCounts ??= new Map()), sessionId);
     }
     const hard = isHardSet(rpe, set.warmUp);
     // Counted per pattern: a set of a two-pattern exercise counts toward both patterns' limits.
@@ -310,7 +310,7 @@ function check(sets: EngineSet[], ctx: EngineContext, prepared: PreparedRules | 
         );
       }
       if (!hard) continue;
-      weekCount ??= countsFor(weekCounts, week);
+      weekCount ??= countsFor((weekCounts ??= new Map()), week);
       const wCount = ++weekCount[c.index];
       if (c.maxHard !== undefined && wCount > c.maxHard) {
         const max = c.maxHard;

@@ -39,10 +39,17 @@ export interface Row {
    */
   fixed: PlannedSetInput[] | null;
   swaps: string[] | null;
-  swapNotes: string[];
+  /** Why the row was swapped; NO_NOTES until a swap (most rows have none). */
+  swapNotes: readonly string[];
 }
 
 export const NO_NOTES: readonly string[] = Object.freeze([]);
+/**
+ * The slots of a row kept as written (`fixed`): none, one empty array shared by all of them (never
+ * added to: newRow fills a row's own array). Not frozen: a loop over a frozen array is not optimised
+ * as one over a plain array, and every row's slots are looped over.
+ */
+const NO_SLOTS: Slot[] = [];
 export const addNotes = (slot: Slot, notes: readonly string[]) => {
   if (notes.length > 0) slot.notes = slot.notes.concat(notes);
 };
@@ -106,15 +113,46 @@ export function asWrittenContent(content: SessionContent, ctx: EngineContext, lo
   for (const r of content.exercises) {
     const ex = ctx.exercises[r.exerciseId];
     if (!ex) return null;
-    const sets: PlannedSetInput[] = [];
-    for (const s of r.sets) {
-      const set = asWrittenSet(s, ex, loads);
-      if (unreadableFields(set) !== null) return null;
-      sets.push(set);
-    }
+    const sets = asWrittenSets(r.sets, ex, loads);
+    if (sets === null) return null;
     if (sets.length > 0) exercises.push(contentRow(r.id, r.exerciseId, r.notes, sets));
   }
   return { exercises };
+}
+
+/**
+ * A team row's sets as written for this athlete (asWrittenSet), or null when one cannot be read. When
+ * no load needed resolving this is the team's own array: sets are never changed in place, and most
+ * rows of a squad's versions (loads in kg, body weight) are the team's as they stand.
+ */
+function asWrittenSets(teamSets: PlannedSetInput[], ex: EngineExercise, loads: ResolvedLoads): PlannedSetInput[] | null {
+  if (!teamRowReadable(teamSets)) return null;
+  let out: PlannedSetInput[] | null = null;
+  for (let i = 0; i < teamSets.length; i++) {
+    const s = teamSets[i];
+    const set = asWrittenSet(s, ex, loads);
+    if (out === null && set !== s) out = teamSets.slice(0, i);
+    if (out !== null) out.push(set);
+  }
+  return out ?? teamSets;
+}
+
+/**
+ * Whether every set of a team row reads (unreadableFields), kept per row's array of sets: a squad's
+ * athletes share the team's rows. A set as written for an athlete reads exactly when the team's set
+ * does: resolving a % changes only its load, into a load on the steps (a finite kg or lb, not
+ * negative), which reads, and a % that does not read (not a finite number of at least 0) is never
+ * resolved (plannedKg). Team content is not changed in place (the server reads it afresh).
+ */
+const readableRows = new WeakMap<readonly PlannedSetInput[], boolean>();
+function teamRowReadable(sets: readonly PlannedSetInput[]): boolean {
+  let readable = readableRows.get(sets);
+  if (readable === undefined) {
+    readable = true;
+    for (const s of sets) if (unreadableFields(s) !== null) readable = false;
+    readableRows.set(sets, readable);
+  }
+  return readable;
 }
 
 /** One exercise row of session content; `notes` only when given. Written out, not spread: this runs for every row of a squad's versions. */
@@ -134,30 +172,26 @@ export function newRow(
   untouchedIn: { stages: StageRules; prepared: PreparedRules } | null = null,
 ): Row {
   const ex = ctx.exercises[r.exerciseId];
-  const row: Row = {
+  // A row no rule touches keeps its sets as written, with no slots (and no array made for them).
+  const fixed =
+    ex && untouchedIn && untouched(ex, untouchedIn.prepared.rulesFor(untouchedIn.stages, ex)) ? asWrittenSets(r.sets, ex, loads) : null;
+  const slots: Slot[] = fixed === null ? [] : NO_SLOTS;
+  if (fixed === null)
+    for (const s of r.sets) {
+      const asWritten = asWrittenSet(s, ex, loads);
+      slots.push({ team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES, passed: null, passedAs: null });
+    }
+  return {
     id: r.id,
     teamExerciseId: r.exerciseId,
     exerciseId: r.exerciseId,
     ex,
     notes: r.notes,
-    slots: [],
-    fixed: null,
+    slots,
+    fixed,
     swaps: null,
-    swapNotes: [],
+    swapNotes: NO_NOTES,
   };
-  if (ex && untouchedIn && untouched(ex, untouchedIn.prepared.rulesFor(untouchedIn.stages, ex))) {
-    const fixed: PlannedSetInput[] = [];
-    for (const s of r.sets) fixed.push(asWrittenSet(s, ex, loads));
-    if (fixed.every((s) => unreadableFields(s) === null)) {
-      row.fixed = fixed;
-      return row;
-    }
-  }
-  for (const s of r.sets) {
-    const asWritten = asWrittenSet(s, ex, loads);
-    row.slots.push({ team: s, asWritten, set: asWritten, removed: null, repsCut: false, notes: NO_NOTES, passed: null, passedAs: null });
-  }
-  return row;
 }
 
 /** Every exercise known and every set readable on the date, as the engine reads them (check-support's unreadable). */

@@ -16,13 +16,28 @@ export function oneRmFor(ex: EngineExercise, baselines: Record<string, number>):
   return isFiniteNumber(raw) && raw > 0 ? raw : undefined;
 }
 
+/**
+ * A number rounded to six decimals, as Number(v.toFixed(6)) gives it, kept per value: the loads of a
+ * squad's versions are a few steps repeated thousands of times, and toFixed is a slow call. Bounded:
+ * the table is emptied when it grows large.
+ */
+const rounded = new Map<number, number>();
+function sixDecimals(v: number): number {
+  let r = rounded.get(v);
+  if (r === undefined) {
+    if (rounded.size >= 4096) rounded.clear();
+    rounded.set(v, (r = Number(v.toFixed(6))));
+  }
+  return r;
+}
+
 /** A load in kg as a planned load on these steps: pound steps stay in pounds (an exact multiple of the step), others in kg. */
 export function loadOnSteps(kg: number, steps: LoadSteps): PlannedLoad {
   if (steps.kind === 'increment' && steps.unit === 'lb' && isFiniteNumber(steps.step) && steps.step > 0) {
     const count = Math.round(kg / KG_PER_LB / steps.step);
-    return { kind: 'lb', value: Number((count * steps.step).toFixed(6)) };
+    return { kind: 'lb', value: sixDecimals(count * steps.step) };
   }
-  return { kind: 'kg', value: Number(kg.toFixed(6)) };
+  return { kind: 'kg', value: sixDecimals(kg) };
 }
 
 /**
@@ -43,7 +58,7 @@ export function nearestStepKg(kg: number, steps: LoadSteps): number | null {
   const stepKg = steps.unit === 'lb' ? steps.step * KG_PER_LB : steps.step;
   if (!isFiniteNumber(stepKg) || stepKg <= 0) return null;
   const count = Math.max(1, Math.round(kg / stepKg - 1e-9));
-  return steps.unit === 'lb' ? count * steps.step * KG_PER_LB : Number((count * steps.step).toFixed(6));
+  return steps.unit === 'lb' ? count * steps.step * KG_PER_LB : sixDecimals(count * steps.step);
 }
 
 /**

@@ -1,29 +1,15 @@
-import type { Unit } from '../schemas/common';
-import type { PlannedSetInput, SessionContent } from '../schemas/programs';
-import type { Breach, BreachRule } from './breach';
-import { blockingBreaches, checkSetsToFit, type EngineContext } from './compliance';
-import type { EngineExercise, ExerciseRules } from './exercise-rules';
-import { suggestPercent } from './fitting';
+import type { SessionContent } from '../schemas/programs';
+import type { Breach } from './breach';
+import { checkSetsToFit, type EngineContext } from './compliance';
 import { inForceOn, type InForce } from './in-force';
-import { PATTERN_LABELS } from './patterns';
 import { PreparedRules, type StageRules } from './prepared-rules';
 import { plannedKg, type EngineSet } from './sets';
+import { finish } from './team-fit-changes';
 import { otherSetsOf, swapCandidates, weeklyLimit, type SessionOf } from './team-fit-day';
-import type { FitChange, FitChangeKind, FittedSession } from './team-fit-types';
-import {
-  addNotes,
-  allReadable,
-  asWrittenContent,
-  contentOf,
-  counts,
-  engineSetsOf,
-  loadsFor,
-  type ResolvedLoads,
-  newRow,
-  type Row,
-  type Slot,
-} from './team-fit-rows';
-import { loadOnSteps, oneRmFor, resolveLoad, rpeAtOrBelow, sameSet, setWords } from './team-fit-support';
+import { COUNT_RULES, drop, fixSet, noteOf } from './team-fit-fix';
+import type { FittedSession } from './team-fit-types';
+import { allReadable, asWrittenContent, counts, engineSetsOf, loadsFor, newRow, type ResolvedLoads, type Row } from './team-fit-rows';
+import { oneRmFor } from './team-fit-support';
 
 /**
  * One athlete's version of a team session (team programming, issue 14). The team session is resolved
@@ -88,14 +74,14 @@ export function fitTeamSession(
     // unreadable set can breach. Most versions of a team session are this; when every set reads,
     // the engine would find nothing, so it is not asked (the hot path of a squad's fitting).
     if (allReadable(team, rows, prepared)) return finish(rows, unit, ctx, loads);
-    fitLoop(team, rows, engine, [], prepared, stages, opts.recheckEverySet);
+    fitLoop(team, rows, engine, [], prepared, loads, stages, opts.recheckEverySet);
     return finish(rows, unit, ctx, loads);
   }
   // Other sets matter only for weekly hard-set limits: passed to the check only when one is in force.
   // On the fast path only the other sets that can change a count this session reads (see otherSetsOf).
   const week = opts.recheckEverySet ? undefined : prepared.on(team.date)?.week;
   const others = weeklyLimit(day) ? otherSetsOf(opts, team, week === undefined ? null : { prepared, week }) : [];
-  fitLoop(team, rows, engine, others, prepared, stages, opts.recheckEverySet);
+  fitLoop(team, rows, engine, others, prepared, loads, stages, opts.recheckEverySet);
   return finish(rows, unit, ctx, loads);
 }
 
@@ -110,13 +96,8 @@ function stagesOn(prepared: PreparedRules, date: string): StageRules {
   return prepared.on(date)?.stages ?? { day: inForceOn(prepared.plans, date), exercises: new Map() };
 }
 
-const SWAP_RULES = new Set<BreachRule>(['blocked', 'impact', 'no_baseline']);
-const LOAD_RULES = new Set<BreachRule>(['percent_1rm', 'absolute_load', 'rpe']);
-const COUNT_RULES = new Set<BreachRule>(['sets_per_session', 'hard_sets_per_week']);
 const MAX_ROUNDS = 12;
 const MAX_SWAP_CANDIDATES = 8;
-
-const noteOf = (b: Breach) => (b.pattern ? `${PATTERN_LABELS[b.pattern]}: ${b.limit}` : b.message);
 
 /** Rounds of check-and-fix; the number of rounds run. */
 function fitLoop(
@@ -125,6 +106,7 @@ function fitLoop(
   ctx: EngineContext,
   others: EngineSet[],
   prepared: PreparedRules,
+  loads: ResolvedLoads,
   stages: StageRules | undefined,
   recheckEverySet = false,
 ): number {
@@ -138,12 +120,7 @@ function fitLoop(
     // With no counted limit on any of the session's exercises (and no other sets counted), the engine
     // reads each set on its own: a set that passed and has not changed since passes again, and only the
     // sets changed by the last round are checked. Otherwise the whole session is checked again.
-    perSet ??=
-      !recheckEverySet &&
-      validDate &&
-      stages !== undefined &&
-      others.length === 0 &&
-      rows.every((r) => !r.ex || !counts(prepared.rulesFor(stages, r.ex)));
+    perSet ??= !recheckEverySet && validDate && stages !== undefined && others.length === 0 && noCountedLimit(rows, prepared, stages);
     const sets = engineSetsOf(team, rows, untouchedIn, perSet);
     // Nothing left that a rule in force touches: the engine would find nothing against the session.
     if (sets.length === 0) return round;
@@ -151,16 +128,23 @@ function fitLoop(
     // order of its input does not change its answer).
     const all = checkSetsToFit(others.length ? [...others, ...sets] : sets, ctx, prepared);
     if (all.length === 0) return round;
-    // Only the session's own breaches are fixed (the other sessions' sets are checked with it, not changed).
-    const ours = others.length > 0 ? new Set(sets.map((s) => s.id)) : null;
-    const breaches = ours ? blockingBreaches(all).filter((b) => ours.has(b.setId)) : blockingBreaches(all);
-    if (breaches.length === 0) return round;
-    const bySet = new Map<string, Breach[]>();
-    for (const b of breaches) {
-      const list = bySet.get(b.setId);
+    // Only the session's own blocking breaches are fixed (the other sessions' sets are checked with it,
+    // not changed), by set; counted limits are read last: lighter or swapped sets may no longer count.
+    let ours: Set<string> | null = null;
+    if (others.length > 0) {
+      ours = new Set();
+      for (const s of sets) ours.add(s.id);
+    }
+    let bySet: Map<string, Breach[]> | null = null;
+    let onlyCounts = true;
+    for (const b of all) {
+      if (b.waived || (ours !== null && !ours.has(b.setId))) continue;
+      if (!COUNT_RULES.has(b.rule)) onlyCounts = false;
+      const list = (bySet ??= new Map()).get(b.setId);
       if (list) list.push(b);
       else bySet.set(b.setId, [b]);
     }
+    if (bySet === null) return round;
     // What passed as it stands: the sets checked without a breach, and those of rows no rule touches
     // (left out of the check because the engine can find nothing against them).
     if (perSet)
@@ -171,8 +155,6 @@ function fitLoop(
             slot.passedAs = row.exerciseId;
           }
     const last = round >= MAX_ROUNDS;
-    // Counted limits are read last: lighter or swapped sets may no longer count toward them.
-    const onlyCounts = breaches.every((b) => COUNT_RULES.has(b.rule));
     for (const row of rows) {
       // Made only for a row to swap (most rows have none).
       let swapWhy: string[] | null = null;
@@ -190,101 +172,31 @@ function fitLoop(
         }
       }
       if (swapWhy !== null) {
-        swapOrDrop(row, swapWhy, ctx, day, bySet);
+        swapOrDrop(row, swapWhy, ctx, day, bySet, loads);
         perSet = undefined;
       }
     }
   }
 }
 
-/** One round's fix of one set; 'swap' when only another exercise can help. */
-function fixSet(
-  slot: Slot,
-  bs: Breach[],
-  row: Row,
-  ctx: EngineContext,
-  prepared: PreparedRules | undefined,
-  stages: StageRules | undefined,
-  onlyCounts: boolean,
-): 'fixed' | 'swap' | 'none' {
-  const set = slot.set!;
-  const ex = ctx.exercises[row.exerciseId];
-  if (!ex || bs.some((b) => b.rule === 'unreadable' || b.rule === 'status_out')) {
-    drop(slot, bs.map(noteOf));
-    return 'fixed';
-  }
-  if (bs.some((b) => SWAP_RULES.has(b.rule))) return 'swap';
-  const rules = prepared && stages ? prepared.rulesFor(stages, ex) : undefined;
-  let next: PlannedSetInput = { ...set };
-  const notes: string[] = [];
-  const repCap = bs.find((b) => b.rule === 'reps_per_set');
-  const capValue = repCap && rules?.reps?.value;
-  if (repCap && capValue !== undefined && capValue !== null && capValue >= 1) {
-    next.reps = Math.min(next.reps, Math.floor(capValue));
-    slot.repsCut = true;
-    notes.push(noteOf(repCap));
-  } else if (repCap) return 'swap';
-  const loads = bs.filter((b) => LOAD_RULES.has(b.rule));
-  if (loads.length > 0 && !repCap) {
-    const fix = loadFix(next, loads, ex, ctx, rules);
-    if (fix === null) return 'swap';
-    if (fix.reps < next.reps) slot.repsCut = true;
-    next = fix;
-    notes.push(...loads.map(noteOf));
-  }
-  if (notes.length > 0) {
-    slot.set = next;
-    addNotes(slot, notes);
-    return 'fixed';
-  }
-  const counts = bs.filter((b) => COUNT_RULES.has(b.rule));
-  if (counts.length > 0 && onlyCounts) {
-    slot.set = null;
-    slot.removed = 'sets_cut';
-    addNotes(slot, counts.map(noteOf));
-    return 'fixed';
-  }
-  return 'none';
-}
-
-/** (a) and the reps part of (b) for the load caps: the engine's fit, a lower target RPE, or a lower %. Null when no load fits. */
-function loadFix(
-  set: PlannedSetInput,
-  loads: Breach[],
-  ex: EngineExercise,
-  ctx: EngineContext,
-  rules: ExerciseRules | undefined,
-): PlannedSetInput | null {
-  const withFit = loads.filter((b) => b.fittingKg !== null);
-  if (withFit.length > 0) {
-    const kg = Math.min(...withFit.map((b) => b.fittingKg!));
-    const reps = Math.min(set.reps, ...withFit.map((b) => b.fittingReps ?? set.reps));
-    return { ...set, reps, load: loadOnSteps(kg, ex.steps) };
-  }
-  const rpeCap = rules?.rpe?.value;
-  if (loads.every((b) => b.rule === 'rpe') && rpeCap !== undefined && rpeCap >= 1) {
-    if (set.targetRpe != null) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
-    const oneRm = oneRmFor(ex, ctx.baselines);
-    if (set.load.kind === 'percent' && oneRm === undefined) {
-      const p = suggestPercent(set.reps, rpeCap, rules?.pct?.value ?? null);
-      return p && { ...set, reps: p.reps, load: { kind: 'percent', value: p.percent } };
-    }
-    if (plannedKg(set.load, oneRm) === null || oneRm === undefined) return { ...set, targetRpe: rpeAtOrBelow(rpeCap) };
-  }
-  return null;
-}
-
-function drop(slot: Slot, notes: string[]) {
-  slot.set = null;
-  slot.removed = 'dropped';
-  addNotes(slot, notes);
+/** No counted limit (sets per session, hard sets per week) on any of the rows' exercises. */
+function noCountedLimit(rows: Row[], prepared: PreparedRules, stages: StageRules): boolean {
+  for (const r of rows) if (r.ex && counts(prepared.rulesFor(stages, r.ex))) return false;
+  return true;
 }
 
 /** (c) the next allowed exercise for the whole row, its sets resolved again from the team's; (d) drop the blocked sets when none is left. */
-function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | undefined, bySet: Map<string, Breach[]>) {
+function swapOrDrop(
+  row: Row,
+  why: string[],
+  ctx: EngineContext,
+  day: InForce | undefined,
+  bySet: Map<string, Breach[]>,
+  loads: ResolvedLoads,
+) {
   const original = ctx.exercises[row.teamExerciseId];
   if (row.swaps === null) row.swaps = [...swapCandidates(row.teamExerciseId, ctx, day, MAX_SWAP_CANDIDATES)];
-  row.swapNotes.push(...why);
+  row.swapNotes = row.swapNotes.concat(why);
   const nextId = row.swaps.shift();
   if (nextId === undefined) {
     for (const slot of row.slots) if (slot.set && bySet.has(slot.set.id)) drop(slot, why);
@@ -301,98 +213,9 @@ function swapOrDrop(row: Row, why: string[], ctx: EngineContext, day: InForce | 
     // An absolute load keeps its intensity when both exercises have a 1RM: the same % of the new one.
     if ((load.kind === 'kg' || load.kind === 'lb') && fromOneRm !== undefined && toOneRm !== undefined)
       load = { kind: 'percent', value: Math.min(110, (plannedKg(load, undefined)! / fromOneRm) * 100) };
-    slot.set = { ...slot.team, load: resolveLoad(load, ex, ctx.baselines) };
+    // Resolved as resolveLoad does, kept per exercise and % for the athlete (the same few loads in every session).
+    slot.set = { ...slot.team, load: loads.of(load, ex) };
     slot.removed = null;
     slot.repsCut = false;
-  }
-}
-
-function finish(rows: Row[], unit: Unit, ctx: EngineContext, loads: ResolvedLoads): FittedSession {
-  const changes: FitChange[] = [];
-  // The sets of a row are mostly alike: the words of the last set are kept for the next one like it.
-  for (const row of rows) {
-    const teamEx = ctx.exercises[row.teamExerciseId];
-    const swapped = row.exerciseId !== row.teamExerciseId;
-    const ex = ctx.exercises[row.exerciseId];
-    // Made for a row with a change only (most rows have none).
-    let beforeWords: LastWords | null = null;
-    let afterWords: LastWords | null = null;
-    const rowNote = swapped ? notesOf(row.swapNotes) : '';
-    for (const slot of row.slots) {
-      // Untouched since it was resolved: as written (the words below are built only for a change).
-      if (!swapped && slot.set === slot.asWritten) continue;
-      const asWritten = slot.asWritten;
-      const set = slot.set;
-      if (!swapped && set !== null) {
-        if (sameSet(set, asWritten)) continue;
-        // A % prescription resolved to the step below the nearest one (to stay under a cap) is still the prescription.
-        const floor = teamEx ? loads.floorOf(slot.team.load, teamEx) : null;
-        const kgNow = plannedKg(set.load, undefined);
-        const onlyRounded =
-          floor !== null &&
-          kgNow !== null &&
-          kgNow >= floor - 1e-6 &&
-          set.reps === asWritten.reps &&
-          (set.targetRpe ?? null) === (asWritten.targetRpe ?? null);
-        if (onlyRounded) continue;
-      }
-      const before = `${swapped ? `${teamEx?.name ?? 'Unknown exercise'}: ` : ''}${(beforeWords ??= new LastWords(unit)).of(asWritten)}`;
-      const note = slot.notes.length === 0 ? rowNote : notesOf(swapped ? [...row.swapNotes, ...slot.notes] : slot.notes);
-      // Written out rather than spread from a common part: this runs for every changed set of a squad.
-      const teamExerciseRowId = row.id;
-      const teamSetId = slot.team.id;
-      const exerciseId = row.teamExerciseId;
-      if (set === null) {
-        const kind = slot.removed ?? 'dropped';
-        changes.push({
-          teamExerciseRowId,
-          teamSetId,
-          exerciseId,
-          before,
-          kind,
-          after: null,
-          note: note || 'Nothing allowed fits this set',
-        });
-        continue;
-      }
-      if (swapped) {
-        const after = `${ex?.name ?? 'Unknown exercise'}: ${(afterWords ??= new LastWords(unit)).of(set)}`;
-        changes.push({
-          teamExerciseRowId,
-          teamSetId,
-          exerciseId,
-          before,
-          kind: 'swapped',
-          swappedToExerciseId: row.exerciseId,
-          after,
-          note,
-        });
-        continue;
-      }
-      const kind: FitChangeKind = slot.repsCut || set.reps < asWritten.reps ? 'reps_cut' : 'load_lowered';
-      changes.push({ teamExerciseRowId, teamSetId, exerciseId, before, kind, after: (afterWords ??= new LastWords(unit)).of(set), note });
-    }
-  }
-  const state = changes.some((c) => c.kind === 'dropped') ? 'needs_decision' : changes.length > 0 ? 'fitted' : 'as_written';
-  return { content: contentOf(rows), changes, state };
-}
-
-/** The notes, each once, in order, joined ("a; b"); one note is itself (most changed sets have one). */
-function notesOf(notes: readonly string[]): string {
-  if (notes.length === 1) return notes[0];
-  // A few notes at most: each kept at its first place, as a Set would keep them, without making one.
-  let out = '';
-  for (let i = 0; i < notes.length; i++) if (notes.indexOf(notes[i]) === i) out = i === 0 ? notes[i] : `${out}; ${notes[i]}`;
-  return out;
-}
-
-/** The words of a set; the sets of a row are mostly alike, so the words of the last set are kept for the next one like it. */
-class LastWords {
-  private last: PlannedSetInput | null = null;
-  private words = '';
-  constructor(private readonly unit: Unit) {}
-  of(set: PlannedSetInput): string {
-    if (this.last === null || !sameSet(this.last, set)) this.words = setWords((this.last = set), this.unit);
-    return this.words;
   }
 }

@@ -5,7 +5,7 @@ import type { FittedSession } from '../../../policies/load/team-fit-types';
 import type { Unit } from '../../../policies/schemas/common';
 import type { SessionContent } from '../../../policies/schemas/programs';
 import { Program, ProgramSession } from '../entities';
-import { breachesFor, engineContext, engineSets, publishedInWeeks } from './programs';
+import { breachesFor, engineContext, publishedInWeeks } from './programs';
 import { fitTeamSession } from '../../../policies/load/team-fit';
 
 /**
@@ -110,7 +110,9 @@ export async function fitFor(
   // Fitted on the team's ids (the changes name the team's rows and sets), then given the athlete's own.
   const probe = { id: version?.id ?? team.id, date: team.date, content: team.content };
   const ctx = await engineContext(m, organizationId, athleteId, [...(version ? [version] : []), ...others], unit, today);
-  const fitted = fitTeamSession(probe, ctx, { otherSets: others.flatMap(engineSets) });
+  // Passed as sessions: the fitting turns them into engine sets only when a weekly limit is in force,
+  // and then only the sets that can change a count the session reads (otherSetsOf) — the same answer.
+  const fitted = fitTeamSession(probe, ctx, { otherSessions: others });
   return { ...fitted, content: withAthleteIds(fitted.content, athleteId) };
 }
 
