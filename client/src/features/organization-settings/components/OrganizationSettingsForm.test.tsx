@@ -72,7 +72,11 @@ describe('OrganizationSettingsForm', () => {
     renderWithProviders(<OrganizationSettingsForm orgId="org-1" settings={settings} />);
     const number = screen.getByRole('textbox', { name: 'Local emergency number' });
     expect(number).toHaveAccessibleDescription(/It is the number of the country, so it changes when the country does/);
-    fireEvent.change(screen.getByRole('combobox', { name: 'Country' }), { target: { value: 'GB' } });
+    const country = screen.getByRole('combobox', { name: 'Country' });
+    expect(country).toHaveValue('US');
+    fireEvent.change(country, { target: { value: 'NO' } });
+    expect(number).toHaveValue('112');
+    fireEvent.change(country, { target: { value: 'GB' } });
     expect(number).toHaveValue('999');
     expect(number).toHaveAccessibleDescription('Changed with the country: 999 is the number in United Kingdom. Check it before saving.');
     fireEvent.click(screen.getByRole('button', { name: 'Save settings' }));

@@ -85,6 +85,7 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
       <TextField label="Organization name" error={errors.name?.message} {...register('name')} />
       <SelectField
         label="Country"
+        hint="Brings its emergency number, unless the number below was set by hand."
         error={errors.country?.message}
         {...register('country', {
           setValueAs: (v: string | undefined) => (v ? v : undefined),
