@@ -5,8 +5,9 @@ import { DEMO, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from
 /**
  * Issue 16 §2 in the browser: Dana, the demo admin, downloads the roster template, checks a file with
  * two problems (a bad e-mail, a minor without a guardian), fixes it, imports it through the server's
- * queue, and imports the same file again, which changes nothing. The people are this run's own
- * (unique e-mails and names) and have no coach, clinician or group, so no other spec sees them.
+ * queue (after a reload between the check and the import), and imports the same file again, which
+ * changes nothing. The people are this run's own (unique e-mails and names) and have no coach,
+ * clinician or group, so no other spec sees them.
  */
 
 test.skip(({ isMobile }) => isMobile, 'bringing a roster is a desk task; the desktop run covers it');
@@ -98,6 +99,10 @@ test('Dana brings a roster: the template, the problems, the fix, the import, and
   Object.assign(eve, { guardian: { name: name('Hal'), email: at('hal') } });
   const fixed = csv(rows);
   await check(page, fixed);
+  // A reload before importing keeps the checked file: the server holds it until it is imported.
+  await page.reload();
+  await expect(page.getByRole('heading', { name: 'What importing roster.csv would do' })).toBeVisible();
+  await expect(page.getByRole('status').filter({ hasText: 'not imported yet' })).toBeVisible();
   await expect(count(page, 'New athletes')).toHaveText('6');
   await expect(count(page, 'With problems')).toHaveText('0');
   await page.getByRole('radio', { name: 'All rows (6)' }).check();

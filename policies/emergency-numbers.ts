@@ -24,3 +24,27 @@ const BY_COUNTRY: Record<string, string> = {
 export function emergencyNumberFor(country: string): string {
   return BY_COUNTRY[country] ?? '112';
 }
+
+/**
+ * Whether the organization's emergency number is still the one its country gives. An admin may type
+ * any number in the settings; one that differs from the country's is theirs (set by hand). With no
+ * country recorded (organizations made before it was asked) nobody can tell, so it counts as set by hand.
+ */
+export function followsCountry(org: { country: string | null; emergencyNumber: string }): boolean {
+  return org.country !== null && org.emergencyNumber === emergencyNumberFor(org.country);
+}
+
+/**
+ * The number after a settings edit. A number typed in the same edit wins. Otherwise, when the country
+ * changes, a number that followed the old country follows the new one, and a number set by hand is
+ * kept: the admin chose it, and a wrong guess on the stop-and-get-care screen is worse than asking.
+ * Both sides use this: the form says beforehand what saving will do, the server decides.
+ */
+export function emergencyNumberAfter(
+  before: { country: string | null; emergencyNumber: string },
+  edit: { country?: string; emergencyNumber?: string },
+): string {
+  if (edit.emergencyNumber !== undefined && edit.emergencyNumber !== before.emergencyNumber) return edit.emergencyNumber;
+  if (edit.country === undefined || edit.country === before.country || !followsCountry(before)) return before.emergencyNumber;
+  return emergencyNumberFor(edit.country);
+}

@@ -30,6 +30,10 @@ export interface OrganizationSettingsDto extends OrganizationDto {
   letterPaper: 'letter' | 'a4' | null;
   /** The paper letters are printed on now (the choice, or the country's). */
   letterPaperInUse: 'letter' | 'a4';
+  /** ISO 3166-1 alpha-2; null for organizations made before it was asked. */
+  country: string | null;
+  /** The emergency number is the country's own, so it changes with the country (false: set by hand, kept). */
+  emergencyNumberFollowsCountry: boolean;
   version: number;
 }
 export interface ErrorBody {

@@ -35,3 +35,8 @@ export interface RosterPreviewDto {
   counts: RosterCounts;
   rows: RosterPreviewRowDto[];
 }
+
+/** The admin's last checked file that is not imported yet, or none (a reload of the page shows it again). */
+export interface RosterLastCheckDto {
+  preview: RosterPreviewDto | null;
+}

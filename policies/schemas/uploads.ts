@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { isTimeZone } from '../today';
 import { IsoDateSchema, UuidSchema, VersionSchema, isStorableText, text } from './common';
 import { LETTER_PAPERS } from '../letter-paper';
+import { CountrySchema } from './organization-signup';
 
 const line = (max: number) =>
   text(max)
@@ -58,6 +59,8 @@ export const OrganizationSettingsSchema = z.strictObject({
     .optional(),
   /** Paper for clearance letters; null: the paper of the time zone's country (policies/letter-paper.ts). */
   letterPaper: z.enum(LETTER_PAPERS, { message: 'must be letter or a4 (or empty: by country)' }).nullable().optional(),
+  /** ISO 3166-1 alpha-2; a number that followed the old country follows the new one (policies/emergency-numbers.ts). */
+  country: CountrySchema.optional(),
   version: VersionSchema,
 });
 export type OrganizationSettingsInput = z.infer<typeof OrganizationSettingsSchema>;

@@ -86,6 +86,8 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'audit.exported': (who) => `${who} downloaded the audit trail`,
   'demo.loaded': (who) => `${who} loaded the demo`,
   'organization.signup_requested': () => 'Someone asked, on the public page, to start a new organization',
+  'organization.signups_purged': (_who, e) =>
+    `Loadline deleted ${String(field(e.after, 'deleted') ?? 0)} requests to start an organization that were never confirmed`,
   'organization.created': (who, e) =>
     field(e.after, 'via') === 'operator' ? 'An operator created the organization' : `${who} started the organization`,
   'organization.settings_changed': (who) => `${who} changed the organization's settings`,

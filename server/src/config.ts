@@ -130,6 +130,8 @@ const ConfigSchema = z.object({
   AUDIT_SEAL_DIR: z.string().optional(),
   /** When the daily seal runs (cron, UTC); pg-boss runs it once across all app servers. */
   AUDIT_SEAL_CRON: z.string().default('0 2 * * *'),
+  /** When unconfirmed sign-up requests are purged (cron, UTC; commands/organization-signup.ts). */
+  SIGNUP_PURGE_CRON: z.string().default('30 2 * * *'),
 });
 
 export type Config = z.infer<typeof ConfigSchema>;

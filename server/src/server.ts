@@ -13,6 +13,7 @@ import { DEFAULT_AUDIT_SEAL_DIR } from './services/audit-seal';
 import { sealAll } from './services/audit-seal-job';
 import { buildRecordExport } from './services/record-export-job';
 import { runRosterImport } from './services/roster-import-job';
+import { purgeSignups } from './services/signup-purge-job';
 import { createStorage } from './storage';
 
 export interface RunningServer {
@@ -52,6 +53,8 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
       // Roster imports (issue 16 §2): batches between which this process keeps serving requests.
       const workerDeps = { ds, config, logger, jobs, storage: createStorage(config) };
       await jobs.workRosterImports((job) => runRosterImport(workerDeps, job.importId));
+      // Sign-ups never confirmed are deleted a week after their link expired (GDPR Art. 5(1)(e)).
+      await jobs.scheduleSignupPurge(config.SIGNUP_PURGE_CRON, () => purgeSignups(workerDeps));
       // The daily audit seal (ASVS 5.0 V16.4.3): pg-boss sends one job per day, worked by one server.
       if (config.AUDIT_SEAL_KEY) {
         const sealDeps = { ds, key: config.AUDIT_SEAL_KEY, dir: config.AUDIT_SEAL_DIR ?? DEFAULT_AUDIT_SEAL_DIR, queue: jobs, logger };

@@ -133,3 +133,38 @@ export const confirmOrganizationSignup = publicCommand({
     return { organizationId: org.id, organizationName: org.name, email: user.email, existingAccount: !!existing };
   },
 });
+
+/**
+ * Days an unconfirmed request is kept after its link expired, then deleted with its e-mail address and
+ * names (GDPR Art. 5(1)(e), storage limitation: kept no longer than needed). A week is common practice:
+ * long enough to answer "I never got the link" and to look into abuse of the public form, short enough
+ * that nothing unproven lingers.
+ */
+export const SIGNUP_PURGE_AFTER_DAYS = 7;
+
+/**
+ * Deletes the sign-up requests never confirmed whose link expired more than SIGNUP_PURGE_AFTER_DAYS
+ * ago, with one audit entry (the count and the cut-off, no addresses) in the trail of no organization.
+ * Confirmed requests stay: they record how their organization started. Run by the daily pg-boss job
+ * (services/signup-purge-job.ts); running it twice, or again after a crash, deletes nothing more.
+ */
+export const purgeUnconfirmedSignups = publicCommand({
+  name: 'purgeUnconfirmedSignups',
+  async run(ctx, _input: void): Promise<{ deleted: number; expiredBefore: Date }> {
+    const expiredBefore = new Date(ctx.now.getTime() - SIGNUP_PURGE_AFTER_DAYS * 86_400_000);
+    const [rows]: [{ id: string }[], number] = await ctx.m.query(
+      `DELETE FROM organization_signups WHERE confirmed_at IS NULL AND expires_at < $1 RETURNING id`,
+      [expiredBefore],
+    );
+    if (rows.length) {
+      await ctx.audit({
+        actorUserId: null,
+        action: 'organization.signups_purged',
+        subjectType: 'OrganizationSignup',
+        subjectId: null,
+        after: { deleted: rows.length, expiredBefore: expiredBefore.toISOString(), afterDays: SIGNUP_PURGE_AFTER_DAYS },
+      });
+    }
+    return { deleted: rows.length, expiredBefore };
+  },
+});

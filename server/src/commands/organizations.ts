@@ -5,22 +5,25 @@ import { authorize } from '../core/authorize';
 import { orgCommand, publicCommand } from '../core/command';
 import { publicBaseUrl } from '../core/public-url';
 import { newInvitationToken } from '../services/invitations';
+import { emergencyNumberAfter } from '../../../policies/emergency-numbers';
 import { startOrganization } from '../services/organizations';
 import { updateVersioned } from '../services/versioned';
 import { loadOrganization, toSettingsDto } from '../queries/organizations';
 
 /**
  * An admin changes the organization's name, emergency number, whether guardians may watch clips, the
- * clearance letters' paper, or its time zone (whose calendar day is everyone's "today" from the next request on). The edit names
- * the version it was made against (409 when someone changed the settings meanwhile) and the entry
- * records every setting before and after.
+ * clearance letters' paper, its time zone (whose calendar day is everyone's "today" from the next request on)
+ * or its country. A new country brings its emergency number unless the number was set by hand
+ * (`emergencyNumberAfter`, shared with the form). The edit names the version it was made against (409
+ * when someone changed the settings meanwhile) and the entry records every setting before and after.
  */
 export const updateOrganizationSettings = orgCommand({
   name: 'updateOrganizationSettings',
   async run(ctx, input: OrganizationSettingsInput): Promise<OrganizationSettingsDto> {
-    const { version, ...changes } = input;
+    const { version, ...edit } = input;
     const org = await loadOrganization(ctx.m, ctx.actor.organizationId);
     authorize(ctx.ability, 'update', 'Organization', org);
+    const changes = { ...edit, emergencyNumber: emergencyNumberAfter(org, edit) };
     await updateVersioned(ctx.m, Organization, org.id, version, changes, 'organization settings');
     const before = {
       name: org.name,
@@ -28,6 +31,7 @@ export const updateOrganizationSettings = orgCommand({
       guardiansSeeClips: org.guardiansSeeClips,
       timeZone: org.timeZone,
       letterPaper: org.letterPaper,
+      country: org.country,
     };
     await ctx.audit({
       action: 'organization.settings_changed',

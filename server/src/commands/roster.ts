@@ -1,5 +1,13 @@
 import type { RosterImportDto, RosterPreviewDto } from '../../../policies/dto';
-import { applyToWorld, checkRosterFile, planRow, planWords, previewRoster } from '../../../policies/roster';
+import {
+  applyToWorld,
+  checkRosterFile,
+  planRow,
+  planWords,
+  previewRoster,
+  type CheckedRow,
+  type RosterWorld,
+} from '../../../policies/roster';
 import { RosterImport } from '../entities';
 import { orgCommand, type OrgCommandCtx } from '../core/command';
 import { authorize } from '../core/authorize';
@@ -39,6 +47,31 @@ export function toRosterImportDto(r: RosterImport): RosterImportDto {
   };
 }
 
+/**
+ * What importing the checked rows would do, planned in order against the organization as it is now:
+ * the answer to the upload, and again when the page is reloaded before importing (getLastRosterCheck).
+ */
+export function toRosterPreviewDto(r: RosterImport, checked: CheckedRow[], world: RosterWorld, today: string): RosterPreviewDto {
+  const { rows, counts } = previewRoster({ fileProblems: [], rows: checked }, world, today);
+  return {
+    import: toRosterImportDto(r),
+    counts,
+    rows: rows.map((p) => ({
+      line: p.row.line,
+      name: p.row.name,
+      email: p.row.email,
+      outcome: p.outcome,
+      problems: p.problems,
+      does: p.plan ? planWords(p.plan) : [],
+    })),
+  };
+}
+
+/**
+ * Checks an uploaded file and keeps its checked rows as the admin's one check waiting to be imported:
+ * an earlier check of theirs not yet imported is deleted (its rows are of an older file, and nothing
+ * else points to it), so a reload shows the file checked last (getLastRosterCheck).
+ */
 export const previewRosterImport = orgCommand({
   name: 'previewRosterImport',
   async run(ctx, input: { bytes: Buffer; fileName: string | null; sha256: string }): Promise<RosterPreviewDto> {
@@ -47,8 +80,11 @@ export const previewRosterImport = orgCommand({
     const file = checkRosterFile(header, records, ctx.today);
     if (file.fileProblems.length)
       throw new AppError('validation_failed', `The file cannot be imported: ${file.fileProblems.join(' ')}`, { file: file.fileProblems });
+    const [replaced]: [{ id: string }[], number] = await ctx.m.query(
+      `DELETE FROM roster_imports WHERE organization_id = $1 AND created_by = $2 AND status = 'previewed' RETURNING id`,
+      [ctx.actor.organizationId, ctx.userId],
+    );
     const state = await loadRosterState(ctx.m, ctx.actor.organizationId);
-    const { rows, counts } = previewRoster(file, state.world, ctx.today);
     const saved = await ctx.m.save(
       ctx.m.create(RosterImport, {
         organizationId: ctx.actor.organizationId,
@@ -60,24 +96,19 @@ export const previewRosterImport = orgCommand({
         totalRows: file.rows.length,
       }),
     );
+    const preview = toRosterPreviewDto(saved, file.rows, state.world, ctx.today);
     await ctx.audit({
       action: 'roster.previewed',
       subjectType: 'RosterImport',
       subjectId: saved.id,
-      after: { fileName: input.fileName, sha256: input.sha256, ...counts },
+      after: {
+        fileName: input.fileName,
+        sha256: input.sha256,
+        ...preview.counts,
+        ...(replaced.length ? { replaces: replaced.map((r) => r.id) } : {}),
+      },
     });
-    return {
-      import: toRosterImportDto(saved),
-      counts,
-      rows: rows.map((r) => ({
-        line: r.row.line,
-        name: r.row.name,
-        email: r.row.email,
-        outcome: r.outcome,
-        problems: r.problems,
-        does: r.plan ? planWords(r.plan) : [],
-      })),
-    };
+    return preview;
   },
 });
 

@@ -173,6 +173,7 @@ describe('the route table', () => {
         "GET    /api/orgs/:orgId/athletes/:id/week  ⇒  member: read Program",
         "GET    /api/orgs/:orgId/roster-imports/template.csv  ⇒  member: create Invitation",
         "POST   /api/orgs/:orgId/roster-imports  ⇒  member: create Invitation",
+        "GET    /api/orgs/:orgId/roster-imports/last-check  ⇒  member: create Invitation",
         "GET    /api/orgs/:orgId/roster-imports/:id  ⇒  member: create Invitation",
         "POST   /api/orgs/:orgId/roster-imports/:id/start  ⇒  member: create Invitation",
         "GET    /api/orgs/:orgId/letters  ⇒  member: read Letter",

@@ -9,6 +9,8 @@ export const AUDIT_SEAL_QUEUE = 'audit-seal';
 export const RECORD_EXPORT_QUEUE = 'record-export';
 /** Roster imports (services/roster-import-job.ts): one job per uploaded file, worked in batches. */
 export const ROSTER_QUEUE = 'roster-import';
+/** Unconfirmed sign-up requests deleted (services/signup-purge-job.ts): one job a day, from a pg-boss schedule. */
+export const SIGNUP_PURGE_QUEUE = 'signup-purge';
 
 const QUEUES = [
   { name: EMAIL_QUEUE, retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 120 },
@@ -16,6 +18,8 @@ const QUEUES = [
   { name: RECORD_EXPORT_QUEUE, retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 15 * 60 },
   // A large file takes minutes on a busy server; a retried job resumes where the last batch ended.
   { name: ROSTER_QUEUE, retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 * 60 },
+  // One DELETE; a failed or crashed run is retried, and tomorrow's run catches anything still left.
+  { name: SIGNUP_PURGE_QUEUE, retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 },
 ];
 
 export interface EmailJob {
@@ -82,6 +86,12 @@ export class JobQueue {
   async scheduleAuditSeal(cron: string, handler: () => Promise<void>): Promise<void> {
     await this.boss.schedule(AUDIT_SEAL_QUEUE, cron, {}, { tz: 'UTC', singletonKey: 'audit-seal' });
     await this.boss.work(AUDIT_SEAL_QUEUE, { pollingIntervalSeconds: 5 }, async () => handler());
+  }
+
+  /** The daily purge of unconfirmed sign-ups: one job per cron tick across all app servers (UTC). */
+  async scheduleSignupPurge(cron: string, handler: () => Promise<void>): Promise<void> {
+    await this.boss.schedule(SIGNUP_PURGE_QUEUE, cron, {}, { tz: 'UTC', singletonKey: 'signup-purge' });
+    await this.boss.work(SIGNUP_PURGE_QUEUE, { pollingIntervalSeconds: 5 }, async () => handler());
   }
 
   /** One job per delivery (the delivery id is the singleton key), in the caller's transaction. */

@@ -1,5 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { OrganizationDto, OrganizationSettingsDto } from '../../../policies/dto';
+import { followsCountry } from '../../../policies/emergency-numbers';
 import { letterPaperOf } from '../../../policies/letter-paper';
 import { Organization } from '../entities';
 import { authorize } from '../core/authorize';
@@ -15,6 +16,8 @@ export function toSettingsDto(org: Organization): OrganizationSettingsDto {
     guardiansSeeClips: org.guardiansSeeClips,
     letterPaper: org.letterPaper,
     letterPaperInUse: letterPaperOf(org),
+    country: org.country,
+    emergencyNumberFollowsCountry: followsCountry(org),
     version: org.version,
   };
 }

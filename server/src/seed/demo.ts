@@ -156,7 +156,9 @@ export async function loadDemo(ds: DataSource, opts: DemoOptions): Promise<{ cre
       await m.query(`SELECT pg_advisory_xact_lock(hashtextextended('loadline:demo', 0))`);
       const again = await m.findOneBy(Organization, { name: DEMO_ORG_NAME });
       if (again) return again.id;
-      const org = await m.save(m.create(Organization, { name: DEMO_ORG_NAME, emergencyNumber: '911', timeZone: DEMO_TIME_ZONE }));
+      const org = await m.save(
+        m.create(Organization, { name: DEMO_ORG_NAME, country: 'US', emergencyNumber: '911', timeZone: DEMO_TIME_ZONE }),
+      );
       const ids: Record<string, string> = {};
       const userIds: Record<string, string> = {};
       for (const p of [...DEMO_PEOPLE, ...SQUAD]) {

@@ -31,7 +31,8 @@ export const organizationRoutes: RouteDef[] = [
   orgRoute({
     method: 'patch',
     path: '/orgs/:orgId/settings',
-    summary: 'Change name, emergency number, time zone or whether guardians may watch clips (admins; 409 on a stale version)',
+    summary:
+      'Change name, country, emergency number, time zone, letter paper or whether guardians may watch clips (admins; 409 on a stale version)',
     access: { kind: 'org', action: 'update', subject: 'Organization' },
     params: OrgParamsSchema,
     query: NothingSchema,

@@ -1,6 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
+import { COUNTRY_MESSAGE } from '../../../../policies/schemas';
 
 const ZONE_MESSAGE = 'must be an IANA time zone such as America/Chicago';
 
@@ -30,6 +31,8 @@ describe("the organization's time zone, in the admin's settings", () => {
       guardiansSeeClips: false,
       letterPaper: null,
       letterPaperInUse: 'a4',
+      country: null,
+      emergencyNumberFollowsCountry: false,
       version: 1,
     });
   });
@@ -97,5 +100,64 @@ describe("the organization's time zone, in the admin's settings", () => {
     expect(inChicago.body).toMatchObject({ dateOfBirth: '2010-03-14', age: 16 });
     const person = await admin.get(`/api/orgs/${org.id}/people/${org.athlete.membershipId}`);
     expect(person.body.athlete).toMatchObject({ age: 16 });
+  });
+});
+
+describe("the organization's country, in the admin's settings", () => {
+  const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
+  const as = (m: TestOrg['admin']) => signedIn(h.app, m.email, TEST_PASSWORD);
+  const inUs = async (emergencyNumber: string) => {
+    const org = await createOrg(h.ds);
+    await h.ds.query(`UPDATE organizations SET country = 'US', emergency_number = $2 WHERE id = $1`, [org.id, emergencyNumber]);
+    return org;
+  };
+  const entries = (orgId: string): Promise<{ before: Record<string, unknown>; after: Record<string, unknown> }[]> =>
+    h.ds.query(
+      `SELECT before, after FROM audit_entries WHERE action = 'organization.settings_changed' AND subject_id = $1 ORDER BY occurred_at`,
+      [orgId],
+    );
+
+  it('a new country brings its emergency number (GB 999), which the stop-and-get-care screen shows; audited before and after', async () => {
+    const org = await inUs('911');
+    const admin = await as(org.admin);
+    expect((await admin.get(`/api/orgs/${org.id}/settings`)).body).toMatchObject({ country: 'US', emergencyNumberFollowsCountry: true });
+    const res = await admin.patch(`/api/orgs/${org.id}/settings`, { country: 'gb', emergencyNumber: '911', version: 1 });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body).toMatchObject({ country: 'GB', emergencyNumber: '999', emergencyNumberFollowsCountry: true, version: 2 });
+    expect((await (await as(org.athlete)).get(`/api/orgs/${org.id}`)).body.emergencyNumber).toBe('999');
+    const [entry] = await entries(org.id);
+    expect(entry.before).toMatchObject({ country: 'US', emergencyNumber: '911' });
+    expect(entry.after).toMatchObject({ country: 'GB', emergencyNumber: '999' });
+  });
+
+  it('a number set by hand stays when the country changes; a number typed in the same edit wins', async () => {
+    const org = await inUs('+1 555 0100');
+    const admin = await as(org.admin);
+    const kept = await admin.patch(`/api/orgs/${org.id}/settings`, { country: 'NO', version: 1 });
+    expect(kept.body).toMatchObject({ country: 'NO', emergencyNumber: '+1 555 0100', emergencyNumberFollowsCountry: false });
+    const typed = await admin.patch(`/api/orgs/${org.id}/settings`, { country: 'AU', emergencyNumber: '000', version: 2 });
+    expect(typed.body).toMatchObject({ country: 'AU', emergencyNumber: '000', emergencyNumberFollowsCountry: true, version: 3 });
+  });
+
+  it('refuses a code that is not ISO 3166-1 alpha-2, naming the field, and changes nothing; a stale version is a 409', async () => {
+    const org = await inUs('911');
+    const admin = await as(org.admin);
+    for (const country of ['XX', 'USA', '', 'Norway', 7]) {
+      const res = await admin.patch(`/api/orgs/${org.id}/settings`, { country, version: 1 });
+      expect(res.status, String(country)).toBe(400);
+      expect(res.body.error.fields).toEqual({ country: [COUNTRY_MESSAGE] });
+      expect(res.body.error.message).toContain(`country ${COUNTRY_MESSAGE}`);
+    }
+    expect((await admin.patch(`/api/orgs/${org.id}/settings`, { country: 'CA', version: 1 })).status).toBe(200);
+    const stale = await admin.patch(`/api/orgs/${org.id}/settings`, { country: 'GB', version: 1 });
+    expect(stale.status).toBe(409);
+    expect((await admin.get(`/api/orgs/${org.id}/settings`)).body).toMatchObject({ country: 'CA', emergencyNumber: '911', version: 2 });
+    expect(await entries(org.id)).toHaveLength(1);
+  });
+
+  it('only an admin changes it', async () => {
+    const org = await inUs('911');
+    const res = await (await as(org.coach)).patch(`/api/orgs/${org.id}/settings`, { country: 'GB', version: 1 });
+    expect(res.status).toBe(403);
   });
 });

@@ -2,7 +2,7 @@ import { NothingSchema, OrgItemParamsSchema, OrgParamsSchema } from '../../../..
 import { ROSTER_MAX_BYTES, rosterTemplateCsv } from '../../../../policies/roster';
 import { previewRosterImport, startRosterImport } from '../../commands/roster';
 import { orgRoute, type RouteDef } from '../../http/route';
-import { getRosterImport } from '../../queries/roster-imports';
+import { getLastRosterCheck, getRosterImport } from '../../queries/roster-imports';
 import { runRosterImport } from '../../services/roster-import-job';
 import { receiveTextFile } from '../../storage/receive-text';
 
@@ -45,6 +45,19 @@ export const rosterImportRoutes: RouteDef[] = [
     async handler({ run, req }) {
       const file = await receiveTextFile(req, ROSTER_MAX_BYTES, 'roster files');
       return run(previewRosterImport, file);
+    },
+  }),
+  // Before `/:id`, which would read "last-check" as an id.
+  orgRoute({
+    method: 'get',
+    path: '/orgs/:orgId/roster-imports/last-check',
+    summary: "The admin's last checked roster file not yet imported, planned again against the people here now (or none)",
+    access,
+    params: OrgParamsSchema,
+    query: NothingSchema,
+    body: NothingSchema,
+    async handler({ read }) {
+      return read(getLastRosterCheck, undefined);
     },
   }),
   orgRoute({

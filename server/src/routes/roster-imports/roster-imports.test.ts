@@ -202,4 +202,38 @@ describe('roster import', () => {
     const big = await upload(admin, org.id, Buffer.alloc(2 * 1024 * 1024 + 10, 'a'));
     expect(big.status).toBe(413);
   });
+
+  it('keeps the last checked file for its admin until it is imported: a reload shows it again, a new check replaces it', async () => {
+    const lastCheck = (c: Client, orgId = org.id) => c.get(`/api/orgs/${orgId}/roster-imports/last-check`);
+    const one = rosterCsv([{ name: 'Rae Reload', email: e('rae') }]);
+    const first = await upload(admin, org.id, one);
+    expect(first.status).toBe(201);
+    const shown = await lastCheck(admin);
+    expect(shown.status).toBe(200);
+    expect(shown.body.preview).toEqual(first.body);
+
+    const two = await upload(
+      admin,
+      org.id,
+      rosterCsv([
+        { name: 'Rae Reload', email: e('rae') },
+        { name: 'Sol Second', email: e('sol') },
+      ]),
+    );
+    expect((await lastCheck(admin)).body.preview).toMatchObject({ import: { id: two.body.import.id }, counts: { rows: 2, create: 2 } });
+    expect((await admin.get(`/api/orgs/${org.id}/roster-imports/${first.body.import.id}`)).status).toBe(404);
+    const [entry] = await h.ds.query(`SELECT after FROM audit_entries WHERE action = 'roster.previewed' AND subject_id = $1`, [
+      two.body.import.id,
+    ]);
+    expect(entry.after.replaces).toEqual([first.body.import.id]);
+
+    // Only admins, and only their own organization's.
+    expect((await lastCheck(coach)).status).toBe(403);
+    expect((await lastCheck(adminB)).status).toBe(404);
+    expect((await lastCheck(adminB, orgB.id)).body).toEqual({ preview: null });
+
+    expect((await admin.post(`/api/orgs/${org.id}/roster-imports/${two.body.import.id}/start`)).status).toBe(202);
+    expect((await lastCheck(admin)).body).toEqual({ preview: null });
+    expect(await waitDone(admin, org.id, two.body.import.id)).toMatchObject({ status: 'done', created: 2 });
+  });
 });

@@ -20,6 +20,8 @@ const settings: OrganizationSettingsDto = {
   timeZone: 'America/Los_Angeles',
   letterPaper: null,
   letterPaperInUse: 'letter',
+  country: 'US',
+  emergencyNumberFollowsCountry: true,
   version: 3,
 };
 
@@ -63,5 +65,62 @@ describe('OrganizationSettingsForm', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Save settings' }));
     await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
     expect(JSON.parse(fetchMock.mock.calls[0][1]?.body as string)).toMatchObject({ letterPaper: 'a4', version: 3 });
+  });
+
+  it('a new country brings its emergency number when the number was the old country’s, and both are sent with the version read', async () => {
+    fetchMock.mockImplementation(async () => jsonResponse(200, { ...settings, country: 'GB', emergencyNumber: '999', version: 4 }));
+    renderWithProviders(<OrganizationSettingsForm orgId="org-1" settings={settings} />);
+    const number = screen.getByRole('textbox', { name: 'Local emergency number' });
+    expect(number).toHaveAccessibleDescription(/It is the number of the country, so it changes when the country does/);
+    const country = screen.getByRole('combobox', { name: 'Country' });
+    expect(country).toHaveValue('US');
+    fireEvent.change(country, { target: { value: 'NO' } });
+    expect(number).toHaveValue('112');
+    fireEvent.change(country, { target: { value: 'GB' } });
+    expect(number).toHaveValue('999');
+    expect(number).toHaveAccessibleDescription('Changed with the country: 999 is the number in United Kingdom. Check it before saving.');
+    fireEvent.click(screen.getByRole('button', { name: 'Save settings' }));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+    expect(JSON.parse(fetchMock.mock.calls[0][1]?.body as string)).toMatchObject({ country: 'GB', emergencyNumber: '999', version: 3 });
+  });
+
+  it('keeps a number set by hand when the country changes, and says so with the new country’s usual number', () => {
+    const byHand = { ...settings, emergencyNumber: '+1 555 0100', emergencyNumberFollowsCountry: false };
+    renderWithProviders(<OrganizationSettingsForm orgId="org-1" settings={byHand} />);
+    const number = screen.getByRole('textbox', { name: 'Local emergency number' });
+    expect(number).toHaveAccessibleDescription(/It was set by hand, so it stays when the country changes/);
+    fireEvent.change(screen.getByRole('combobox', { name: 'Country' }), { target: { value: 'NO' } });
+    expect(number).toHaveValue('+1 555 0100');
+    expect(number).toHaveAccessibleDescription(
+      '+1 555 0100 was set by hand, so it stays with the new country. The usual number in Norway is 112: type it here to use it.',
+    );
+  });
+
+  it('an organization with no country recorded is asked to choose one; the server’s refusal shows on the Country field', async () => {
+    fetchMock.mockImplementation(async () =>
+      jsonResponse(400, {
+        error: {
+          code: 'validation_failed',
+          message: 'Check the form.',
+          fields: { country: ['must be a two-letter country code (ISO 3166-1) such as NO or US'] },
+        },
+        requestId: 'r1',
+      }),
+    );
+    renderWithProviders(
+      <OrganizationSettingsForm orgId="org-1" settings={{ ...settings, country: null, emergencyNumberFollowsCountry: false }} />,
+    );
+    const country = screen.getByRole('combobox', { name: 'Country' });
+    expect(country).toHaveValue('');
+    expect(screen.getByRole('option', { name: 'Not recorded: choose the country' })).toBeInTheDocument();
+    fireEvent.change(country, { target: { value: 'AU' } });
+    const number = screen.getByRole('textbox', { name: 'Local emergency number' });
+    expect(number).toHaveValue('911');
+    expect(number).toHaveAccessibleDescription(
+      /911 stays: no country was recorded, so it may have been set by hand. The usual number in Australia is 000/,
+    );
+    fireEvent.click(screen.getByRole('button', { name: 'Save settings' }));
+    expect(await screen.findByText(/must be a two-letter country code/)).toBeInTheDocument();
+    expect(country).toHaveAccessibleDescription(/must be a two-letter country code/);
   });
 });

@@ -1,5 +1,5 @@
 import { useEffect, useMemo } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
@@ -13,6 +13,7 @@ import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { queryKeys } from '../../../lib/query-keys';
 import { useUpdateOrganizationSettings } from '../api/organization-settings';
+import { countryChoices, emergencyNumberHint, numberForCountryChange } from './countries';
 import { timeZoneChoices, timeZoneLabel } from './time-zones';
 
 type Input = z.input<typeof OrganizationSettingsSchema>;
@@ -24,10 +25,11 @@ const startingValues = (s: OrganizationSettingsDto): Input => ({
   guardiansSeeClips: s.guardiansSeeClips,
   timeZone: s.timeZone,
   letterPaper: s.letterPaper,
+  country: s.country ?? undefined,
   version: s.version,
 });
 
-/** Name, local emergency number, time zone, letter paper and who watches clips; saved with the version it was read at. */
+/** Name, country and local emergency number, time zone, letter paper and who watches clips; saved with the version it was read at. */
 export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; settings: OrganizationSettingsDto }) {
   const queryClient = useQueryClient();
   const update = useUpdateOrganizationSettings(orgId);
@@ -36,6 +38,9 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
     handleSubmit,
     setError,
     reset,
+    control,
+    getValues,
+    setValue,
     formState: { errors, isDirty },
   } = useForm<Input, unknown, Output>({ resolver: zodResolver(OrganizationSettingsSchema), defaultValues: startingValues(settings) });
 
@@ -43,12 +48,15 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
     reset(startingValues(settings));
   }, [settings, reset]);
 
+  const countries = useMemo(() => countryChoices(), []);
+  const [country, emergencyNumber] = useWatch({ control, name: ['country', 'emergencyNumber'] });
+  const numberHint = emergencyNumberHint(settings, { country, emergencyNumber: emergencyNumber ?? '' });
   const zones = useMemo(() => timeZoneChoices(settings.timeZone), [settings.timeZone]);
   const stale = isApiError(update.error) && (update.error.code === 'version_conflict' || update.error.status === 409);
   const onSubmit = handleSubmit((values) =>
     update.mutate(values, {
       onError: (error) =>
-        applyServerFieldErrors(error, setError, ['name', 'emergencyNumber', 'timeZone', 'guardiansSeeClips', 'letterPaper']),
+        applyServerFieldErrors(error, setError, ['name', 'country', 'emergencyNumber', 'timeZone', 'guardiansSeeClips', 'letterPaper']),
     }),
   );
 
@@ -75,9 +83,30 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
         </Notice>
       )}
       <TextField label="Organization name" error={errors.name?.message} {...register('name')} />
+      <SelectField
+        label="Country"
+        hint="Brings its emergency number, unless the number below was set by hand."
+        error={errors.country?.message}
+        {...register('country', {
+          setValueAs: (v: string | undefined) => (v ? v : undefined),
+          onChange: (e: { target: { value: string } }) => {
+            const to = e.target.value || undefined;
+            // `country` is still this render's value: the one the select showed before this change.
+            const number = numberForCountryChange(settings, getValues('emergencyNumber') ?? '', country, to);
+            if (number !== getValues('emergencyNumber')) setValue('emergencyNumber', number, { shouldDirty: true });
+          },
+        })}
+      >
+        {!settings.country && <option value="">Not recorded: choose the country</option>}
+        {countries.map((c) => (
+          <option key={c.code} value={c.code}>
+            {c.name}
+          </option>
+        ))}
+      </SelectField>
       <TextField
         label="Local emergency number"
-        hint="Shown with the warning signs on every athlete's and guardian's page, e.g. 911 or 112."
+        hint={numberHint}
         inputMode="tel"
         error={errors.emergencyNumber?.message}
         {...register('emergencyNumber')}

@@ -2,13 +2,14 @@ import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { COUNTRY_CODES, countryName, isCountryCode } from '../../../../../policies/countries';
+import { isCountryCode } from '../../../../../policies/countries';
 import { OrganizationSignupSchema } from '../../../../../policies/schemas';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { Button } from '../../../components/ui/Button';
 import { SelectField, TextField } from '../../../components/ui/Field';
 import { Notice } from '../../../components/ui/Notice';
 import { AccountFailureNotice, EmailField, PasswordField } from '../../auth/components/account-form-parts';
+import { countryChoices } from '../../organization-settings/components/countries';
 import { timeZoneChoices, timeZoneLabel } from '../../organization-settings/components/time-zones';
 import { useRequestSignup } from '../api/org-signup';
 
@@ -34,10 +35,7 @@ export function StartOrganizationForm() {
   const request = useRequestSignup();
   const guess = useMemo(() => browserGuess(), []);
   const zones = useMemo(() => timeZoneChoices(guess.timeZone), [guess.timeZone]);
-  const countries = useMemo(
-    () => COUNTRY_CODES.map((code) => ({ code, name: countryName(code) })).sort((a, b) => a.name.localeCompare(b.name)),
-    [],
-  );
+  const countries = useMemo(() => countryChoices(), []);
   const {
     register,
     handleSubmit,

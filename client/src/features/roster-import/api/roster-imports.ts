@@ -1,6 +1,6 @@
 import { useCallback } from 'react';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { RosterImportDto, RosterPreviewDto } from '../../../../../policies/dto';
+import type { RosterImportDto, RosterLastCheckDto, RosterPreviewDto } from '../../../../../policies/dto';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query-keys';
 import { uploadForm, uploadWithProgress, type UploadOptions } from '../../../lib/upload';
@@ -11,6 +11,9 @@ import type { FileUploadVariables } from '../../../lib/use-file-upload';
  * writes no people, the start of the background import, and its progress, polled while it runs.
  */
 export const rosterImportKey = (orgId: string, id: string) => ['orgs', orgId, 'roster-imports', id] as const;
+
+/** The admin's last checked file not yet imported: kept by the server, so a reload shows it again. */
+export const rosterLastCheckKey = (orgId: string) => ['orgs', orgId, 'roster-imports', 'last-check'] as const;
 
 /** Served by the server from the same column list it reads uploads with (policies/roster.ts). */
 export const rosterTemplateHref = (orgId: string) => `/api/orgs/${orgId}/roster-imports/template.csv`;
@@ -26,6 +29,19 @@ export function usePreviewRoster(orgId: string) {
   });
 }
 
+export function getLastRosterCheck(orgId: string): Promise<RosterLastCheckDto> {
+  return api.get<RosterLastCheckDto>(`/orgs/${orgId}/roster-imports/last-check`);
+}
+
+export function getLastRosterCheckQueryOptions(orgId: string) {
+  return queryOptions({ queryKey: rosterLastCheckKey(orgId), queryFn: () => getLastRosterCheck(orgId) });
+}
+
+/** Read when the page opens on no started import; a new check or a start writes it in place. */
+export function useLastRosterCheck(orgId: string, enabled: boolean) {
+  return useQuery({ ...getLastRosterCheckQueryOptions(orgId), enabled });
+}
+
 export function startRosterImport(orgId: string, id: string): Promise<RosterImportDto> {
   return api.post<RosterImportDto>(`/orgs/${orgId}/roster-imports/${id}/start`);
 }
@@ -34,7 +50,11 @@ export function useStartRosterImport(orgId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: string) => startRosterImport(orgId, id),
-    onSuccess: (started) => queryClient.setQueryData(rosterImportKey(orgId, started.id), started),
+    onSuccess: (started) => {
+      queryClient.setQueryData(rosterImportKey(orgId, started.id), started);
+      // A started file is no longer waiting: the server answers none from now on.
+      queryClient.setQueryData<RosterLastCheckDto>(rosterLastCheckKey(orgId), { preview: null });
+    },
   });
 }
 
