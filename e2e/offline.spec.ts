@@ -280,3 +280,30 @@ test('a session log refused when it arrives (its session was deleted meanwhile) 
     await context.close();
   }
 });
+
+test("the guardian's letters read from the last visit without signal, marked with when, and gone after sign-out", async ({
+  page,
+}, testInfo) => {
+  test.skip(!testInfo.project.use.isMobile, "a parent's phone; the copy is the same on every screen");
+  // Elena, Maya's mother in the demo, only reads: nothing another spec sees changes.
+  await signIn(page, DEMO.elena.email);
+  await expectHome(page, HOME_HEADING.guardian);
+  const letter = page.getByRole('article', { name: `Clearance letter for ${DEMO.maya.name.split(' ')[0]}` });
+  await expect(letter).toBeVisible();
+  await underServiceWorker(page);
+  await expectHome(page, HOME_HEADING.guardian);
+
+  await page.context().setOffline(true);
+  await page.reload();
+  await expectHome(page, HOME_HEADING.guardian);
+  await expect(page.getByRole('status').filter({ hasText: /^Last updated / })).toBeVisible();
+  await expect(letter).toBeVisible();
+  await expectNoSidewaysScroll(page);
+  await keepScreenshot(page, testInfo, 'offline-guardian');
+
+  await page.context().setOffline(false);
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await expect(page.getByRole('heading', { name: 'Sign in to Loadline' })).toBeVisible();
+  const kept = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('loadline.offline.')));
+  expect(kept).toEqual([]);
+});

@@ -14,6 +14,9 @@ import { BROWSER_ZONE, contextOptions } from './plan-helpers';
  * her diagnosis or the clinician's notes; a new address stops the old one, and turning it off stops
  * the new one. Her feed ends off, as the demo has it.
  *
+ * Elena, Maya's mother, turns on a feed of her own: Maya's planned sessions under "Maya:", with none of
+ * the limits, stages or diagnosis, and turns it off again.
+ *
  * Priya downloads Maya's case for a health record: the file is a FHIR R4 Bundle that FHIR.js validates
  * against the R4 definitions, with the patient, the condition, the pain scores (LOINC 72514-3), the
  * plan as a CarePlan and the clinician. Both read the demo as loaded and change nothing another spec
@@ -100,6 +103,36 @@ test('an athlete turns on a private calendar feed that an iCalendar parser reads
   await panel.getByRole('button', { name: 'Turn off' }).click();
   await expect(panel).toContainText('The feed is off; its address no longer works.');
   expect((await page.request.fetch(second)).status()).toBe(404);
+  await context.close();
+});
+
+test("a guardian's feed lists the athlete's sessions under her first name, without limits or diagnosis", async ({ browser }, testInfo) => {
+  const context = await browser.newContext(contextOptions(testInfo));
+  const page = await context.newPage();
+  await signIn(page, DEMO.elena.email);
+  await expectHome(page, HOME_HEADING.guardian);
+  await page.goto('/account');
+  const panel = page.getByRole('region', { name: /Calendar feed/ });
+  await expect(panel).toContainText('No diagnosis, notes or limits are in it');
+  await panel.getByRole('button', { name: 'Turn on calendar feed' }).click();
+  const address = panel.getByLabel('Your feed address (shown only now)');
+  await expect(address).toHaveValue(/^https?:\/\/.+\.ics$/);
+  const url = await address.inputValue();
+
+  const text = await (await page.request.fetch(url)).text();
+  const events = new ICAL.Component(ICAL.parse(text)).getAllSubcomponents('vevent');
+  // The demo publishes Maya's coming week; each entry is hers, by first name, as RFC 5545 §3.6.1 asks (UID, DTSTAMP).
+  expect(events.length).toBeGreaterThan(0);
+  for (const e of events) {
+    expect(String(e.getFirstPropertyValue('summary'))).toMatch(/^Maya: /);
+    expect(e.getFirstPropertyValue('uid')).toBeTruthy();
+    expect(e.getFirstPropertyValue('dtstamp')).toBeTruthy();
+  }
+  for (const secret of [DIAGNOSIS, CLINICAL_NOTE, 'Settle', 'With limits', '/10']) expect(text).not.toContain(secret);
+
+  await panel.getByRole('button', { name: 'Turn off' }).click();
+  await expect(panel).toContainText('The feed is off; its address no longer works.');
+  expect((await page.request.fetch(url)).status()).toBe(404);
   await context.close();
 });
 

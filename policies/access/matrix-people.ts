@@ -140,15 +140,16 @@ export const PEOPLE_GRID: [SubjectName, Action, Relation, string][] = [
   ['RecordExport',       'read',   'other-athlete',   'n   n   n   n   n'],
   ['RecordExport',       'read',   'other-org',       'n   n   n   n   n'],
 
-  // A private calendar feed: each athlete or coach turns on, reads and turns off only their own.
-  ['CalendarFeed',       'read',   'self',            'Y   Y   n   n   n'],
+  // A private calendar feed: each athlete, coach or guardian turns on, reads and turns off only their
+  // own (a guardian's lists the sessions of the athletes they are linked to, never the athlete's feed).
+  ['CalendarFeed',       'read',   'self',            'Y   Y   n   Y   n'],
   ['CalendarFeed',       'read',   'own-care-team',   '-   n   n   n   -'],
   ['CalendarFeed',       'read',   'same-org',        'n   n   n   n   n'],
   ['CalendarFeed',       'read',   'other-org',       'n   n   n   n   n'],
-  ['CalendarFeed',       'create', 'self',            'Y   Y   n   n   n'],
+  ['CalendarFeed',       'create', 'self',            'Y   Y   n   Y   n'],
   ['CalendarFeed',       'create', 'same-org',        'n   n   n   n   n'],
   ['CalendarFeed',       'create', 'other-org',       'n   n   n   n   n'],
-  ['CalendarFeed',       'delete', 'self',            'Y   Y   n   n   n'],
+  ['CalendarFeed',       'delete', 'self',            'Y   Y   n   Y   n'],
   ['CalendarFeed',       'delete', 'own-care-team',   '-   n   n   n   -'],
   ['CalendarFeed',       'delete', 'other-org',       'n   n   n   n   n'],
 

@@ -30,6 +30,20 @@ export function athleteSessionText(title: string, day: DayInWords, held: boolean
   return { summary: held ? `On hold: ${title}` : title, description: lines.join('\n') };
 }
 
+const SEE_APP_FAMILY = "Open Loadline to see what they may do that day; the clinician's advice comes first.";
+
+/**
+ * A session in a guardian's feed: the athlete's first name and the session's title, and whether the
+ * coach has it on hold. No limits, status or stage: a family calendar is often shared with the whole
+ * household, so what the athlete may do stays in the app, where the guardian reads it signed in.
+ */
+export function guardianSessionText(firstName: string, title: string, held: boolean): EntryText {
+  const lines: string[] = [];
+  if (held) lines.push(`On hold: the coach is changing this session for ${firstName}. It is not to be trained as written.`);
+  lines.push(SEE_APP_FAMILY);
+  return { summary: `${firstName}: ${held ? `On hold: ${title}` : title}`, description: lines.join('\n') };
+}
+
 /** "Stage 2 of 3: Build", or the number alone when the clinician named none. */
 export function stageSummary(label: string | null | undefined, index: number, count: number): string {
   const name = label?.trim();

@@ -3,7 +3,7 @@ import { QueryClient, type QueryKey } from '@tanstack/react-query';
 import { render, screen } from '@testing-library/react';
 import type { SessionDto } from '../../../policies/dto';
 import { LastUpdatedNote } from '../features/offline/components/LastUpdatedNote';
-import { installOfflineCopy, oldestCopyShown } from './offline-copy';
+import { clearOfflineCopies, installOfflineCopy, oldestCopyShown } from './offline-copy';
 import { sessionQueryKey } from './query-client';
 
 /**
@@ -33,11 +33,11 @@ let uninstall: (() => void)[] = [];
  * A page load: a new cache and the copy put back. Without signal the session is the copy's own; with
  * `signedIn`, the server's answer for that person arrives.
  */
-function openApp(at: Date, signedIn?: string): QueryClient {
+function openApp(at: Date, signedIn?: string, sessionOf: (userId: string) => SessionDto = session): QueryClient {
   vi.setSystemTime(at);
   const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   uninstall.push(installOfflineCopy(client));
-  if (signedIn || !client.getQueryData(sessionQueryKey)) client.setQueryData(sessionQueryKey, session(signedIn ?? 'user-1'));
+  if (signedIn || !client.getQueryData(sessionQueryKey)) client.setQueryData(sessionQueryKey, sessionOf(signedIn ?? 'user-1'));
   return client;
 }
 
@@ -151,5 +151,84 @@ describe('the offline copy on a later day', () => {
     client.setQueryData(todayKey('2026-12-05'), todayOf('2026-12-05'));
     const fresh = client.getQueryState(todayKey('2026-12-05'))!;
     expect(oldestCopyShown([{ data: fresh.data, dataUpdatedAt: fresh.dataUpdatedAt }])).toBeNull();
+  });
+});
+
+/** A guardian's phone: Elena-like, the guardian of one athlete (WARD) in the organization. */
+const GUARDIAN = 'guardian-membership-1';
+const WARD = 'ward-membership-1';
+const guardianSession = (userId: string): SessionDto =>
+  ({
+    user: { id: userId },
+    memberships: [{ id: GUARDIAN, organizationId: ORG, roles: ['guardian'], actor: { guardianOf: [WARD] } }],
+    csrfToken: 'token',
+  }) as unknown as SessionDto;
+const openGuardian = (at: Date) => openApp(at, undefined, guardianSession);
+const allLetters = ['orgs', ORG, 'letters', { athleteId: null }];
+const athletesList = ['orgs', ORG, 'athletes'];
+const wardInForce = (day: string) => ['orgs', ORG, 'in-force', WARD, day];
+
+describe("the guardian's letters offline", () => {
+  it("keeps the guardian's page — their athlete, status today and letters — cut to the athletes in their care", () => {
+    const friday = openGuardian(FRIDAY_EVENING);
+    friday.setQueryData(athletesList, [{ id: WARD }, { id: 'someone-else' }]);
+    friday.setQueryData(allLetters, [
+      { id: 'letter-1', athleteId: WARD, decision: 'limited' },
+      { id: 'letter-2', athleteId: 'someone-else' },
+    ]);
+    friday.setQueryData(wardInForce('2026-12-04'), { status: 'limited' });
+    friday.setQueryData(['orgs', ORG, 'in-force', 'someone-else', '2026-12-04'], { status: 'out' });
+    friday.setQueryData(['orgs', ORG, 'training-logs', WARD, { from: '2026-11-21', to: '2026-12-04' }], ['a log']);
+
+    const saturday = openGuardian(SATURDAY_MORNING);
+    expect(saturday.getQueryData(sessionQueryKey)).toMatchObject({ user: { id: 'user-1' }, csrfToken: '' });
+    expect(saturday.getQueryData(athletesList)).toEqual([{ id: WARD }]);
+    expect(saturday.getQueryData(allLetters)).toEqual([{ id: 'letter-1', athleteId: WARD, decision: 'limited' }]);
+    expect(firstRead(saturday, wardInForce('2026-12-05')).data).toEqual({ status: 'limited' });
+    expect(saturday.getQueryData(['orgs', ORG, 'in-force', 'someone-else', '2026-12-04'])).toBeUndefined();
+    // Only what the guardian's page shows: not the athlete's own logs, even had they been read.
+    expect(saturday.getQueryData(['orgs', ORG, 'training-logs', WARD, { from: '2026-11-21', to: '2026-12-04' }])).toBeUndefined();
+    const letters = saturday.getQueryState(allLetters)!;
+    expect(oldestCopyShown([{ data: letters.data, dataUpdatedAt: letters.dataUpdatedAt }])).toBe(FRIDAY_EVENING.getTime());
+  });
+
+  it('marks the letters "Last updated" and, a day later, defers to the clinician or coach in the family\'s words', () => {
+    const friday = openGuardian(FRIDAY_EVENING);
+    friday.setQueryData(wardInForce('2026-12-04'), { status: 'limited' });
+    const saturday = openGuardian(SATURDAY_MORNING);
+    render(<LastUpdatedNote queries={[firstRead(saturday, wardInForce('2026-12-05'))]} audience="family" />);
+    const note = screen.getByRole('status');
+    expect(note).toHaveTextContent(/^Last updated 4 Dec 2026, \d\d:\d\d/);
+    expect(note).toHaveTextContent('Check with the clinician or coach before your athlete trains on it.');
+    expect(note).not.toHaveTextContent('before you train');
+  });
+
+  it("a sign-out, or a session found signed out, leaves none of the guardian's copy on the phone", () => {
+    const keys = () => Object.keys(localStorage).filter((k) => k.startsWith('loadline.offline.'));
+    const friday = openGuardian(FRIDAY_EVENING);
+    friday.setQueryData(allLetters, [{ id: 'letter-1', athleteId: WARD }]);
+    expect(keys().length).toBeGreaterThan(0);
+    // What the sign-out button does first (features/auth/api/sign-out.ts).
+    clearOfflineCopies();
+    expect(keys()).toEqual([]);
+
+    const again = openGuardian(FRIDAY_EVENING);
+    again.setQueryData(allLetters, [{ id: 'letter-1', athleteId: WARD }]);
+    expect(keys().length).toBeGreaterThan(0);
+    again.setQueryData(sessionQueryKey, { user: null, memberships: [], csrfToken: 't' });
+    expect(keys()).toEqual([]);
+  });
+
+  it('keeps nothing for a guardian linked to no athlete (the guardianship ended)', () => {
+    const unlinked = (userId: string) =>
+      ({
+        user: { id: userId },
+        memberships: [{ id: GUARDIAN, organizationId: ORG, roles: ['guardian'], actor: { guardianOf: [] } }],
+        csrfToken: 't',
+      }) as unknown as SessionDto;
+    const client = openApp(FRIDAY_EVENING, 'user-3', unlinked);
+    client.setQueryData(allLetters, [{ id: 'letter-1', athleteId: WARD }]);
+    client.setQueryData(['orgs', ORG, 'organization'], { name: 'Harbor' });
+    expect(Object.keys(localStorage).filter((k) => k.startsWith('loadline.offline.'))).toEqual([]);
   });
 });

@@ -9,6 +9,8 @@ import { sessionQueryKey } from './query-client';
  * reports and the clearance letters) are copied to this browser's storage under the signed-in person's id, and put back into
  * the query cache when the app starts. Only queries about one of the person's own athlete memberships
  * (or the organization as a whole) are copied: a coach's roster or another athlete's record never is.
+ * A guardian's page is copied the same way, narrower: the athletes they are linked to, their status and
+ * limits today and their clearance letters — lists kept only with the entries about those athletes.
  * A sign-out, or a session found ended, removes every copy. The service worker caches the app's files
  * only, never an API answer.
  */
@@ -20,6 +22,8 @@ const copyKey = (userId: string) => `${PREFIX}user.${userId}`;
 const ORG_WIDE = new Set(['organization', 'exercises']);
 /** Parts of the key of queries about one athlete, copied only when that athlete is the person signed in. */
 const ABOUT_AN_ATHLETE = new Set(['athletes', 'in-force', 'training-logs', 'check-ins', 'workload', 'pain-reports', 'letters']);
+/** Parts of the key of queries about an athlete the person is guardian of: what the guardian's page shows. */
+const ABOUT_A_WARD = new Set(['in-force', 'letters']);
 
 /** The athlete ids a key names: plain parts, and the `athleteId` of an object part (`{ athleteId }` of letters). */
 function namesAthlete(key: QueryKey, athleteIds: Set<string>): boolean {
@@ -78,14 +82,48 @@ function storage(): Storage | null {
   }
 }
 
-function ownAthleteIds(session: SessionDto | undefined): Set<string> {
-  return new Set((session?.memberships ?? []).filter((m) => m.roles.includes('athlete')).map((m) => m.id));
+/** Whose records a person's copy may hold: their own athlete memberships, and the athletes they are guardian of. */
+interface CopyScope {
+  own: Set<string>;
+  wards: Set<string>;
+  /** Organizations where the person is a guardian: their lists of athletes and letters are copied, cut to `wards`. */
+  guardianIn: Set<string>;
 }
 
-function shouldCopy(key: QueryKey, athleteIds: Set<string>): boolean {
-  if (key[0] !== 'orgs' || typeof key[2] !== 'string') return false;
-  if (ORG_WIDE.has(key[2])) return athleteIds.size > 0;
-  return ABOUT_AN_ATHLETE.has(key[2]) && namesAthlete(key, athleteIds);
+function scopeOf(session: SessionDto | undefined): CopyScope {
+  const memberships = session?.memberships ?? [];
+  const guardians = memberships.filter((m) => m.roles.includes('guardian'));
+  return {
+    own: new Set(memberships.filter((m) => m.roles.includes('athlete')).map((m) => m.id)),
+    wards: new Set(guardians.flatMap((m) => m.actor?.guardianOf ?? [])),
+    guardianIn: new Set(guardians.map((m) => m.organizationId)),
+  };
+}
+
+const keepsACopy = (scope: CopyScope) => scope.own.size > 0 || scope.wards.size > 0;
+
+/**
+ * The lists a guardian's page reads with no athlete in the key (the athletes they may see, every letter
+ * they may read), with the athlete each entry is about. Someone who is also staff reads more in them.
+ */
+function wardListItemAthlete(key: QueryKey): ((item: unknown) => unknown) | null {
+  if (key.length === 3 && key[2] === 'athletes') return (item) => (item as { id?: unknown } | null)?.id;
+  const filter = key[3] as { athleteId?: unknown } | undefined;
+  if (key.length === 4 && key[2] === 'letters' && filter && typeof filter === 'object' && filter.athleteId === null)
+    return (item) => (item as { athleteId?: unknown } | null)?.athleteId;
+  return null;
+}
+
+/** What to keep of an answer: all of it, only its entries about the guardian's athletes, or nothing (undefined). */
+function copyOf(key: QueryKey, data: unknown, scope: CopyScope): { data: unknown } | undefined {
+  if (!keepsACopy(scope) || key[0] !== 'orgs' || typeof key[1] !== 'string' || typeof key[2] !== 'string') return undefined;
+  if (ORG_WIDE.has(key[2])) return { data };
+  if (ABOUT_AN_ATHLETE.has(key[2]) && namesAthlete(key, scope.own)) return { data };
+  if (ABOUT_A_WARD.has(key[2]) && namesAthlete(key, scope.wards)) return { data };
+  const athleteOf = wardListItemAthlete(key);
+  if (athleteOf && scope.guardianIn.has(key[1]) && Array.isArray(data))
+    return { data: data.filter((item) => scope.wards.has(athleteOf(item) as string)) };
+  return undefined;
 }
 
 export function clearOfflineCopies(): void {
@@ -198,15 +236,18 @@ export function installOfflineCopy(queryClient: QueryClient): () => void {
     const session = queryClient.getQueryData<SessionDto>(sessionQueryKey);
     if (query.queryKey[0] === sessionQueryKey[0]) {
       const fresh = query.state.data as SessionDto | undefined;
-      // Signed out, someone else signed in, or no athlete to read offline: no copy is kept.
-      if (!fresh?.user || store.getItem(LAST_USER) !== fresh.user.id || ownAthleteIds(fresh).size === 0) clearOfflineCopies();
-      if (!fresh?.user || ownAthleteIds(fresh).size === 0) return;
+      // Signed out, someone else signed in, or no athlete of one's own or in one's care: no copy is kept.
+      const user = fresh?.user;
+      const keeps = !!user && keepsACopy(scopeOf(fresh));
+      if (!user || !keeps || store.getItem(LAST_USER) !== user.id) clearOfflineCopies();
+      if (!user || !keeps) return;
       // The CSRF token is bound to the live session: never stored.
-      save(fresh.user.id, { key: sessionQueryKey, data: { ...fresh, csrfToken: '' }, updatedAt: query.state.dataUpdatedAt });
+      save(user.id, { key: sessionQueryKey, data: { ...fresh, csrfToken: '' }, updatedAt: query.state.dataUpdatedAt });
       return;
     }
-    if (!session?.user || !shouldCopy(query.queryKey, ownAthleteIds(session))) return;
-    save(session.user.id, { key: query.queryKey, data: query.state.data, updatedAt: query.state.dataUpdatedAt });
+    if (!session?.user) return;
+    const copy = copyOf(query.queryKey, query.state.data, scopeOf(session));
+    if (copy) save(session.user.id, { key: query.queryKey, data: copy.data, updatedAt: query.state.dataUpdatedAt });
   });
 }
 

@@ -4,7 +4,13 @@ import { dayInWords } from '../../../policies/load/day-words';
 import { inForceOn, type PlanStage } from '../../../policies/load/in-force';
 import type { Unit } from '../../../policies/schemas/common';
 import { addDays, orgToday } from '../../../policies/today';
-import { athleteSessionText, coachAthleteLine, coachSessionText, stageText } from '../../../policies/words/calendar-words';
+import {
+  athleteSessionText,
+  coachAthleteLine,
+  coachSessionText,
+  guardianSessionText,
+  stageText,
+} from '../../../policies/words/calendar-words';
 import { authorize } from '../core/authorize';
 import { orgQuery, publicQuery, type QueryCtx } from '../core/command';
 import { notFound } from '../core/errors';
@@ -162,10 +168,36 @@ async function coachEvents(ctx: QueryCtx, unit: Unit, from: string, to: string):
   });
 }
 
+/** The athletes a guardian's feed is about: those they are linked to now and may read (active links only, services/actor.ts). */
+function wardsOf(ctx: QueryCtx): string[] {
+  const organizationId = ctx.actor.organizationId;
+  return ctx.actor.guardianOf.filter((id) => ctx.ability.can('read', asSubject('Athlete', { id, organizationId }) as never));
+}
+
+/**
+ * A guardian's feed: each linked athlete's published sessions, as dated and held in the athlete's own
+ * feed, titled with the athlete's first name. Nothing of the athlete's limits, status or plan (see
+ * guardianSessionText); a session the athletes share is one entry per athlete, so each has its own UID.
+ */
+async function guardianEvents(ctx: QueryCtx, from: string, to: string): Promise<FeedEvent[]> {
+  const sessions = await publishedSessions(ctx.db, ctx.actor.organizationId, wardsOf(ctx), from, to);
+  return sessions.map((s) => ({
+    uid: `session-${s.id}-${s.athlete_id}@loadline`,
+    date: s.date,
+    lastDate: s.date,
+    ...guardianSessionText(s.athlete_name.split(/\s+/)[0] || s.athlete_name, s.title, s.held),
+    changedAt: s.updated_at,
+    sequence: s.version,
+    tentative: s.held,
+  }));
+}
+
 /**
  * The feed behind a secret address, for a calendar that subscribes to it (no session, no cookie).
  * The token finds a live feed by its hash; the owner's rules are then built as for any request, so a
- * member who left, or lost the role, reads nothing. Unknown, revoked or orphaned: one 404 for all.
+ * member who left, or lost the role, reads nothing. Unknown, revoked or orphaned: one 404 for all; so is
+ * a guardian's feed once they are linked to no athlete (the guardianship ended) and have no other role
+ * with a calendar.
  */
 export const calendarFeedByToken = publicQuery({
   name: 'calendar_feed.read',
@@ -188,11 +220,14 @@ export const calendarFeedByToken = publicQuery({
       throw notFound('calendar');
     const today = orgToday(actor.timeZone, ctx.now);
     const qctx: QueryCtx = { db: ctx.db, deps: ctx.deps, userId: feed.user_id, actor, ability, now: ctx.now, today };
+    const asGuardian = actor.roles.includes('guardian') && wardsOf(qctx).length > 0;
+    if (!asGuardian && !actor.roles.includes('athlete') && !actor.roles.includes('coach')) throw notFound('calendar');
     const from = addDays(today, -FEED_DAYS_BACK);
     const to = addDays(today, FEED_DAYS_AHEAD);
     const events: FeedEvent[] = [];
     if (actor.roles.includes('athlete')) events.push(...(await athleteEvents(qctx, feed.unit_pref, from, to)));
     if (actor.roles.includes('coach')) events.push(...(await coachEvents(qctx, feed.unit_pref, from, to)));
+    if (asGuardian) events.push(...(await guardianEvents(qctx, from, to)));
     events.sort((a, b) => a.date.localeCompare(b.date) || a.uid.localeCompare(b.uid));
     return writeIcs(`Loadline: ${feed.display_name} (${actor.organizationName})`, events);
   },

@@ -3,13 +3,15 @@ import { AccountForm } from '../../features/account/components/AccountForm';
 import { TwoStepSection } from '../../features/auth/components/TwoStepSection';
 import { useTwoStepStatus } from '../../features/auth/api/two-step';
 import { Facts, PageHeader, Panel } from '../../components/ui/Panel';
-import { ROLE_LABELS } from '../../../../policies/roles';
+import { ROLE_LABELS, type Role } from '../../../../policies/roles';
 import { useDocumentTitle } from '../../lib/use-document-title';
 import { useContext } from 'react';
 import { useAppAbility } from '../../lib/ability';
 import { MembershipContext } from '../../lib/membership-context';
 import { RecordExportPanel } from '../../features/record-export/components/RecordExportPanel';
 import { CalendarFeedPanel } from '../../features/calendar-feed/components/CalendarFeedPanel';
+
+const FEED_ROLES: Role[] = ['athlete', 'coach', 'guardian'];
 
 export function AccountPage() {
   useDocumentTitle('Your account');
@@ -20,7 +22,7 @@ export function AccountPage() {
   if (!user) return null;
   const memberships = session.data?.memberships ?? [];
   // Offered to anyone who holds clinical or admin rights anywhere; shown to anyone who already has it on.
-  const feedMemberships = memberships.filter((m) => m.roles.includes('athlete') || m.roles.includes('coach'));
+  const feedMemberships = memberships.filter((m) => m.roles.some((r) => FEED_ROLES.includes(r)));
   const offerTwoStep = memberships.some((m) => m.roles.includes('clinician') || m.roles.includes('admin'));
 
   return (
@@ -35,13 +37,14 @@ export function AccountPage() {
       {/* The athlete's own record, a guardian's minors': whoever the rules let ask in this organization. */}
       {current && ability.can('create', 'RecordExport') ? <RecordExportPanel orgId={current.orgId} /> : null}
       {offerTwoStep ? <TwoStepSection /> : <TwoStepIfOn />}
-      {/* Athletes and coaches have a training calendar; one feed per organization. */}
+      {/* Athletes and coaches have a training calendar, guardians their athletes'; one feed per organization. */}
       {feedMemberships.map((m) => (
         <CalendarFeedPanel
           key={m.id}
           orgId={m.organizationId}
           organizationName={feedMemberships.length > 1 ? m.organizationName : undefined}
           timeZone={m.timeZone}
+          roles={m.roles}
         />
       ))}
       <Panel title="Organizations">

@@ -1,7 +1,9 @@
 import { useId } from 'react';
 import { useAthletes } from '../../features/athletes/api/get-athletes';
 import { AthleteCard } from '../../features/athletes/components/AthleteCard';
+import { useLetters } from '../../features/letters/api/get-letters';
 import { FamilyLetters } from '../../features/letters/components/FamilyLetters';
+import { LastUpdatedNote } from '../../features/offline/components/LastUpdatedNote';
 import { FamilyClips } from '../../features/clips/components/ClipsSection';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
@@ -28,6 +30,8 @@ function Wards() {
   const { orgId, membership } = useCurrentMembership();
   const athletes = useAthletes(orgId);
   const organization = useOrganization(orgId);
+  // The same cache entry the letters below read: only to tell whether the page comes from the last visit.
+  const letters = useLetters(orgId, null);
   const mine = (athletes.data ?? []).filter((a) => a.guardians.some((g) => g.guardianId === membership.id));
 
   return (
@@ -35,9 +39,10 @@ function Wards() {
       <PageHeader title={mine.length > 1 ? 'Your athletes' : 'Your athlete'}>
         The athletes you are linked to as parent or guardian at {membership.organizationName}.
       </PageHeader>
+      <LastUpdatedNote queries={[athletes, letters]} audience="family" />
       {athletes.isPending ? (
         <Loading what="your athletes" />
-      ) : athletes.isError ? (
+      ) : athletes.isError && !athletes.data ? (
         <ErrorNotice error={athletes.error} />
       ) : mine.length === 0 ? (
         <p className="rounded-lg border border-rule bg-sheet p-4 text-sm">
@@ -74,7 +79,7 @@ function WardToday({ athleteId, name }: { athleteId: string; name: string }) {
   const inForce = useInForce(orgId, athleteId, todayLocal());
   const headingId = useId();
   if (inForce.isPending) return <Loading what={`${name}'s limits`} />;
-  if (inForce.isError) return isNoAccess(inForce.error) ? null : <ErrorNotice error={inForce.error} />;
+  if (inForce.isError && !inForce.data) return isNoAccess(inForce.error) ? null : <ErrorNotice error={inForce.error} />;
   return (
     <>
       <section aria-labelledby={headingId} className="rounded-lg border border-rule bg-sheet p-4 sm:p-5">

@@ -51,8 +51,23 @@ describe('the calendar feed panel on the account page', () => {
     expect(calls).toEqual([`POST /orgs/${ORG}/calendar-feed`, `DELETE /orgs/${ORG}/calendar-feed`]);
   });
 
-  it('a guardian has no calendar feed panel', async () => {
-    api(['guardian'], {});
+  it("a guardian turns on a feed of their athletes' sessions, told it holds no diagnosis, notes or limits", async () => {
+    const calls = api(['guardian'], {
+      [`GET /orgs/${ORG}/calendar-feed`]: () => jsonResponse(200, { on: false, since: null }),
+      [`POST /orgs/${ORG}/calendar-feed`]: () => jsonResponse(201, { on: true, since: SINCE, url: URL_ONCE }),
+    });
+    renderAt('/account');
+    const panel = (await screen.findByRole('heading', { name: 'Calendar feed' })).closest('section')!;
+    expect(within(panel).getByText(/planned sessions of each athlete you are linked to as parent or guardian/)).toBeInTheDocument();
+    expect(within(panel).getByText(/No diagnosis, notes or limits are in it/)).toBeInTheDocument();
+    expect(within(panel).queryByText(/what is limited that day/)).toBeNull();
+    fireEvent.click(await within(panel).findByRole('button', { name: 'Turn on calendar feed' }));
+    expect(await within(panel).findByLabelText('Your feed address (shown only now)')).toHaveValue(URL_ONCE);
+    expect(calls).toEqual([`POST /orgs/${ORG}/calendar-feed`]);
+  });
+
+  it('an administrator has no calendar feed panel', async () => {
+    api(['admin'], {});
     renderAt('/account');
     expect(await screen.findByRole('heading', { name: 'Your account' })).toBeInTheDocument();
     expect(screen.queryByRole('heading', { name: /Calendar feed/ })).toBeNull();

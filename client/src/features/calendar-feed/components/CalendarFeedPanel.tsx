@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { Role } from '../../../../../policies/roles';
 import { Button } from '../../../components/ui/Button';
 import { CopyField } from '../../../components/ui/CopyField';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
@@ -6,11 +7,37 @@ import { Panel } from '../../../components/ui/Panel';
 import { formatDateTime } from '../../../lib/format';
 import { useCalendarFeed, useStartCalendarFeed, useStopCalendarFeed } from '../api/calendar-feed';
 
+/** What the feed holds, in the reader's terms: one feed per membership carries what each of its roles gives. */
+function feedContents(roles: Role[]): string {
+  const training = roles.includes('athlete') || roles.includes('coach');
+  const family = roles.includes('guardian');
+  const parts: string[] = [];
+  if (training)
+    parts.push(
+      "Add your published sessions and stage dates to your phone's calendar. Each entry says what is limited that day; no diagnosis or notes are in it.",
+    );
+  if (family)
+    parts.push(
+      `${training ? 'It also lists' : "Add to your phone's calendar"} the planned sessions of each athlete you are linked to as parent or guardian, under their first name. No diagnosis, notes or limits are in it: what they may do stays here in Loadline.`,
+    );
+  return `${parts.join(' ')} The calendar keeps itself up to date.`;
+}
+
 /**
  * A member's private calendar feed in one organization: turn it on, copy the address (shown only
  * right after it is made: the server keeps only a hash of it), make a new one, or turn it off.
  */
-export function CalendarFeedPanel({ orgId, organizationName, timeZone }: { orgId: string; organizationName?: string; timeZone: string }) {
+export function CalendarFeedPanel({
+  orgId,
+  organizationName,
+  timeZone,
+  roles,
+}: {
+  orgId: string;
+  organizationName?: string;
+  timeZone: string;
+  roles: Role[];
+}) {
   const feed = useCalendarFeed(orgId);
   const start = useStartCalendarFeed(orgId);
   const stop = useStopCalendarFeed(orgId);
@@ -23,10 +50,7 @@ export function CalendarFeedPanel({ orgId, organizationName, timeZone }: { orgId
   return (
     <Panel title={organizationName ? `Calendar feed: ${organizationName}` : 'Calendar feed'}>
       <div className="space-y-3 text-sm">
-        <p>
-          Add your published sessions and stage dates to your phone&apos;s calendar. Each entry says what is limited that day; no diagnosis
-          or notes are in it. The calendar keeps itself up to date.
-        </p>
+        <p>{feedContents(roles)}</p>
         <p className="text-ink-2">
           Anyone with the address can read the feed, so keep it to yourself. If it gets out, make a new one: the old one stops working at
           once.

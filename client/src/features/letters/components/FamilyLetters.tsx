@@ -41,7 +41,7 @@ export function FamilyLetters({
       <div className="mt-4 space-y-5">
         {letters.isPending ? (
           <Loading what="letters" />
-        ) : letters.isError ? (
+        ) : letters.isError && !letters.data ? (
           <ErrorNotice error={letters.error} />
         ) : (
           athletes.map((athlete) => {
