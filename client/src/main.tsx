@@ -5,8 +5,8 @@ import '@fontsource/public-sans/400.css';
 import '@fontsource/public-sans/600.css';
 import '@fontsource/public-sans/700.css';
 import './index.css';
-import { registerSW } from 'virtual:pwa-register';
 import { App } from './app/App';
+import { registerServiceWorkerWhenIdle } from './lib/register-service-worker';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('The page has no #root element to mount Loadline into.');
@@ -17,5 +17,6 @@ createRoot(container).render(
   </StrictMode>,
 );
 
-// The service worker (client/vite.config.ts) makes the app installable and its files load offline.
-registerSW({ immediate: true });
+registerServiceWorkerWhenIdle(() => {
+  void import('virtual:pwa-register').then(({ registerSW }) => registerSW({ immediate: true }));
+});
