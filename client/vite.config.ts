@@ -3,6 +3,7 @@ import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { VitePWA } from 'vite-plugin-pwa';
+import { startingShellHtml } from './src/app/layout/starting-shell';
 
 const clientRoot = fileURLToPath(new URL('.', import.meta.url));
 const repoRoot = fileURLToPath(new URL('..', import.meta.url));
@@ -12,6 +13,12 @@ export default defineConfig({
   plugins: [
     react(),
     tailwindcss(),
+    // The starting frame (brand, "Loading Loadline…", the standing caution) in the page itself, shown
+    // before any script has run; React replaces it on its first render (issue 17, first load).
+    {
+      name: 'loadline-starting-shell',
+      transformIndexHtml: (html) => html.replace('<div id="root"></div>', `<div id="root">${startingShellHtml()}</div>`),
+    },
     // Installable, and the app's own files load without signal. The service worker precaches the
     // build only: no API answer is ever cached by it (the athlete's offline copy is per person, kept by
     // the app itself in lib/offline-copy.ts and removed at sign-out). A new version waits until every
