@@ -6,7 +6,6 @@ import '@fontsource/public-sans/600.css';
 import '@fontsource/public-sans/700.css';
 import './index.css';
 import { App } from './app/App';
-import { registerServiceWorkerWhenIdle } from './lib/register-service-worker';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('The page has no #root element to mount Loadline into.');
@@ -16,7 +15,3 @@ createRoot(container).render(
     <App />
   </StrictMode>,
 );
-
-registerServiceWorkerWhenIdle(() => {
-  void import('virtual:pwa-register').then(({ registerSW }) => registerSW({ immediate: true }));
-});
