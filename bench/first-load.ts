@@ -10,7 +10,9 @@
  *   side by side with a minimal static page served by the same server under the same profile (the
  *   practical floor: one HTML file and nothing else).
  *
- * Reported in the README; never asserted. FIRST_LOAD_RUNS sets the number of runs (default 5).
+ * Reported in the README; never asserted. FIRST_LOAD_RUNS sets the number of runs (default 5);
+ * FIRST_LOAD_WATERFALL=1 also prints, for the first run of each page, every request with when it started
+ * and ended (ms from the navigation), the way to see which round trip waits on which.
  */
 import { mkdtemp, rm, unlink, writeFile } from 'node:fs/promises';
 import { readFileSync } from 'node:fs';
@@ -27,6 +29,7 @@ import { DEMO_PASSWORD, DEMO_PEOPLE, loadDemo } from '../server/src/seed/demo';
 import { ROOT, buildClient, migrate, openDatabase } from '../scripts/runtime';
 
 const RUNS = Number(process.env.FIRST_LOAD_RUNS ?? 5);
+const WATERFALL = process.env.FIRST_LOAD_WATERFALL === '1';
 const DIST = path.join(ROOT, 'client', 'dist');
 const FLOOR = 'bench-floor.html';
 /** The slow mobile profile of issue 17 (bytes per second for CDP). */
@@ -42,10 +45,16 @@ const FLOOR_PAGE = `<!doctype html>
 `;
 
 // Collects the largest-contentful-paint entries from the start of the page; the last one is the LCP.
+// The element is kept as its tag and the start of its text, to say in the waterfall what the LCP was.
 const LCP_OBSERVER = `
   window.__lcp = 0;
+  window.__lcpElement = '';
   new PerformanceObserver((list) => {
-    for (const entry of list.getEntries()) window.__lcp = entry.startTime;
+    for (const entry of list.getEntries()) {
+      window.__lcp = entry.startTime;
+      const el = entry.element;
+      window.__lcpElement = el ? el.tagName.toLowerCase() + ' "' + (el.textContent || '').trim().slice(0, 50) + '" (' + entry.size + ' px²)' : '';
+    }
   }).observe({ type: 'largest-contentful-paint', buffered: true });
 `;
 
@@ -53,6 +62,10 @@ interface Load {
   lcp: number;
   scripts: string[];
   wireBytes: number;
+  /** When the screen was usable, and each request's start and end, in ms from the navigation. */
+  usableAt: number;
+  lcpElement: string;
+  requests: { path: string; type: string; start: number; end: number }[];
 }
 
 const gzipCache = new Map<string, number>();
@@ -80,7 +93,14 @@ async function coldLoad(context: BrowserContext, urlPath: string, ready: (page: 
   const scripts: string[] = [];
   let wireBytes = 0;
   const pending: Promise<void>[] = [];
+  const requests: Load['requests'] = [];
+  const started = new Map<object, number>();
+  let t0 = 0;
+  const now = () => performance.now() - t0;
+  page.on('request', (request) => started.set(request, now()));
   page.on('requestfinished', (request) => {
+    const { pathname } = new URL(request.url());
+    requests.push({ path: pathname, type: request.resourceType(), start: started.get(request) ?? 0, end: now() });
     if (request.resourceType() !== 'script') return;
     scripts.push(new URL(request.url()).pathname);
     pending.push(
@@ -89,17 +109,22 @@ async function coldLoad(context: BrowserContext, urlPath: string, ready: (page: 
       }),
     );
   });
+  t0 = performance.now();
   await page.goto(urlPath, { waitUntil: 'commit' });
   await ready(page);
+  const usableAt = now();
   // The screen is usable: what was fetched so far is what it needed. Let late paints settle before
   // reading the LCP (a later, larger paint would replace the candidate).
   const usable = [...scripts];
   await page.waitForLoadState('networkidle');
   await page.waitForTimeout(500);
-  const lcp = await page.evaluate(() => (window as unknown as { __lcp: number }).__lcp);
+  const { lcp, lcpElement } = await page.evaluate(() => {
+    const w = window as unknown as { __lcp: number; __lcpElement: string };
+    return { lcp: w.__lcp, lcpElement: w.__lcpElement };
+  });
   await Promise.all(pending);
   await page.close();
-  return { lcp, scripts: usable, wireBytes };
+  return { lcp, lcpElement, scripts: usable, wireBytes, usableAt, requests };
 }
 
 async function signInByApi(context: BrowserContext, base: string, email: string): Promise<void> {
@@ -153,6 +178,15 @@ async function measure(browser: Browser, base: string) {
   return results;
 }
 
+function waterfall(name: string, load: Load) {
+  console.log(
+    `\nRequests of the ${name}, first run (ms from the navigation; usable at ${load.usableAt.toFixed(0)}, LCP ${load.lcp.toFixed(0)}: ${load.lcpElement}):`,
+  );
+  for (const r of [...load.requests].sort((a, b) => a.start - b.start)) {
+    console.log(`${r.start.toFixed(0).padStart(6)} → ${r.end.toFixed(0).padStart(6)}  ${r.type.padEnd(10)} ${r.path}`);
+  }
+}
+
 function report(results: Record<'signIn' | 'athlete' | 'floor', Load[]>) {
   const floorLcp = median(results.floor.map((l) => l.lcp));
   const row = (name: string, loads: Load[]) => {
@@ -176,6 +210,7 @@ function report(results: Record<'signIn' | 'athlete' | 'floor', Load[]>) {
     ["athlete's home", results.athlete],
   ] as const) {
     const largest = [...loads[0].scripts].sort((a, b) => gzippedSize(b) - gzippedSize(a)).slice(0, 5);
+    if (WATERFALL) waterfall(name, loads[0]);
     console.log(
       `\nLargest JS before the ${name} is usable: ${largest.map((s) => `${path.basename(s)} ${kB(gzippedSize(s))} kB`).join(', ')}`,
     );

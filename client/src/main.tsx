@@ -5,7 +5,6 @@ import '@fontsource/public-sans/400.css';
 import '@fontsource/public-sans/600.css';
 import '@fontsource/public-sans/700.css';
 import './index.css';
-import { registerSW } from 'virtual:pwa-register';
 import { App } from './app/App';
 
 const container = document.getElementById('root');
@@ -16,6 +15,3 @@ createRoot(container).render(
     <App />
   </StrictMode>,
 );
-
-// The service worker (client/vite.config.ts) makes the app installable and its files load offline.
-registerSW({ immediate: true });

@@ -1,9 +1,10 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider } from 'react-router-dom';
 import { installOfflineCopy } from '../lib/offline-copy';
 import { createQueryClient } from '../lib/query-client';
 import { getSessionQueryOptions } from '../features/auth/api/get-session';
+import { registerServiceWorkerWhenIdle } from '../lib/register-service-worker';
 import { createAppRouter } from './router';
 
 export function App() {
@@ -16,6 +17,16 @@ export function App() {
     return client;
   });
   const [router] = useState(createAppRouter);
+  useEffect(() => {
+    if (!import.meta.env.PROD) return;
+    const screen = {
+      settled: () => router.state.initialized && router.state.navigation.state === 'idle',
+      subscribe: (onChange: () => void) => router.subscribe(onChange),
+    };
+    registerServiceWorkerWhenIdle(() => {
+      void import('virtual:pwa-register').then(({ registerSW }) => registerSW({ immediate: true }));
+    }, screen);
+  }, [router]);
   return (
     <QueryClientProvider client={queryClient}>
       <RouterProvider router={router} />

@@ -15,6 +15,11 @@ const script = `export const screens = ${JSON.stringify(Array.from({ length: 400
 mkdirSync(path.join(dist, 'assets'));
 writeFileSync(path.join(dist, 'index.html'), page);
 writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js'), script);
+// A second script as the build leaves it: beside it, the same at brotli quality 11 (client/vite.config.ts).
+const prebuiltScript = `export const steps = ${JSON.stringify(Array.from({ length: 400 }, (_, i) => `step ${i}`))};\n`;
+const prebuiltBr = zlib.brotliCompressSync(prebuiltScript, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11 } });
+writeFileSync(path.join(dist, 'assets', 'steps-Ef56Gh78.js'), prebuiltScript);
+writeFileSync(path.join(dist, 'assets', 'steps-Ef56Gh78.js.br'), prebuiltBr);
 writeFileSync(path.join(dist, 'favicon.svg'), '<svg xmlns="http://www.w3.org/2000/svg"/>');
 // What vite-plugin-pwa writes beside the page (client/vite.config.ts): the service worker, its workbox
 // runtime (named with a hash, but outside /assets) and the web app manifest.
@@ -67,6 +72,23 @@ describe('the built client: compressed, hashed files cached for a year, the page
     const plain = await raw(base, '/assets/index-Ab12Cd34.js', 'identity');
     expect(plain.headers['content-encoding']).toBeUndefined();
     expect(plain.body.toString()).toBe(script);
+  });
+
+  it('sends the brotli file the build made (quality 11) as the script it stands for, to a browser that offers brotli', async () => {
+    const res = await raw(base, '/assets/steps-Ef56Gh78.js', 'gzip, deflate, br');
+    expect(res.headers['content-encoding']).toBe('br');
+    expect(res.headers['content-type']).toMatch(/^text\/javascript/);
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(res.headers.vary).toMatch(/Accept-Encoding/i);
+    expect(res.body.equals(prebuiltBr)).toBe(true);
+    expect(zlib.brotliDecompressSync(res.body).toString()).toBe(prebuiltScript);
+
+    // RFC 9110 section 12.5.3: br;q=0 refuses brotli.
+    for (const offer of ['gzip', 'gzip, br;q=0']) {
+      const gz = await raw(base, '/assets/steps-Ef56Gh78.js', offer);
+      expect(gz.headers['content-encoding'], offer).toBe('gzip');
+      expect(zlib.gunzipSync(gz.body).toString(), offer).toBe(prebuiltScript);
+    }
   });
 
   it('sends the page for any client route, compressed and never cached without asking again', async () => {

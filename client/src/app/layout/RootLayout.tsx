@@ -46,16 +46,26 @@ export function RootLayout() {
           <Outlet />
         )}
       </div>
-      <footer className="border-t border-rule px-4 py-3">
-        <div className="mx-auto max-w-6xl">
-          <CareCaution />
-        </div>
-      </footer>
+      <CautionFooter />
     </div>
   );
 }
 
-/** While the first screen's code loads: the same frame and words as while the session loads. */
+function CautionFooter() {
+  return (
+    <footer className="border-t border-rule px-4 py-3">
+      <div className="mx-auto max-w-6xl">
+        <CareCaution />
+      </div>
+    </footer>
+  );
+}
+
+/**
+ * While the first screen's code loads: the same frame and words as while the session loads, footer
+ * included. index.html carries this same markup (starting-shell.ts), so it shows as soon as the page and
+ * its style sheet arrive, before any script has run (issue 17, first load).
+ */
 export function StartingUp() {
   return (
     <div className="flex min-h-screen flex-col">
@@ -64,6 +74,7 @@ export function StartingUp() {
           <Loading what="Loadline" />
         </CenteredShell>
       </div>
+      <CautionFooter />
     </div>
   );
 }

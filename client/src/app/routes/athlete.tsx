@@ -5,7 +5,7 @@ import { CurrentLetter } from '../../features/letters/components/CurrentLetter';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
-import { NextStageUnlocks } from '../../features/stage-criteria/components/StageCriteriaPanel';
+import { NextStageUnlocks } from '../../features/stage-criteria/components/NextStageUnlocks';
 import { TodaySessions } from '../../features/programs/components/TodaySessions';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';

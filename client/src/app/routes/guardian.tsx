@@ -8,7 +8,7 @@ import { FamilyClips } from '../../features/clips/components/ClipsSection';
 import { useOrganization } from '../../features/organization/api/get-organization';
 import { isNoAccess, useInForce } from '../../features/plans/api/get-in-force';
 import { StatusToday, TodayLimits } from '../../features/plans/components/TodayLimits';
-import { NextStageUnlocks } from '../../features/stage-criteria/components/StageCriteriaPanel';
+import { NextStageUnlocks } from '../../features/stage-criteria/components/NextStageUnlocks';
 import { RedFlagCaution } from '../../components/Cautions';
 import { ErrorNotice } from '../../components/ui/Notice';
 import { Loading, PageHeader } from '../../components/ui/Panel';

@@ -1,9 +1,9 @@
 import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { SecondStepSchema } from '../../../../../policies/schemas';
+import type { SecondStepSchema } from '../../../../../policies/schemas/account-security';
 import type { SessionDto } from '../../../../../policies/dto';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
+import { lazyZodResolver } from '../../../lib/lazy-resolver';
 import { Button } from '../../../components/ui/Button';
 import { TextField } from '../../../components/ui/Field';
 import { useSecondStep } from '../api/second-step';
@@ -11,6 +11,9 @@ import { AccountFailureNotice } from './account-form-parts';
 
 type Input = z.input<typeof SecondStepSchema>;
 type Output = z.output<typeof SecondStepSchema>;
+
+/** Shown on the sign-in page: the shared schema's check comes when the code is first checked. */
+const codeCheck = lazyZodResolver(() => import('../../../../../policies/schemas/account-security').then((m) => m.SecondStepSchema));
 
 /** The second sign-in screen: the password was right, now a code from the app (or a recovery code). */
 export function SecondStepForm({ onSignedIn, onStartOver }: { onSignedIn: (session: SessionDto) => void; onStartOver: () => void }) {
@@ -20,7 +23,7 @@ export function SecondStepForm({ onSignedIn, onStartOver }: { onSignedIn: (sessi
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<Input, unknown, Output>({ resolver: zodResolver(SecondStepSchema), defaultValues: { code: '' } });
+  } = useForm<Input, unknown, Output>({ resolver: codeCheck.resolver, defaultValues: { code: '' } });
 
   const onSubmit = handleSubmit((values) =>
     step.mutate(values, {
@@ -31,7 +34,7 @@ export function SecondStepForm({ onSignedIn, onStartOver }: { onSignedIn: (sessi
 
   const failure = step.error;
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Enter your sign-in code">
+    <form onSubmit={onSubmit} onFocus={codeCheck.preload} noValidate className="space-y-4" aria-label="Enter your sign-in code">
       <p className="text-sm text-ink-2">
         Your password is right. Open the authenticator app you linked to Loadline and enter the 6-digit code it shows for Loadline now.
         Without your phone, enter one of the recovery codes you saved instead.

@@ -1,10 +1,10 @@
 import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { SignInSchema } from '../../../../../policies/schemas';
+import type { SignInSchema } from '../../../../../policies/schemas/auth';
 import type { SessionDto } from '../../../../../policies/dto';
 import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
+import { lazyZodResolver } from '../../../lib/lazy-resolver';
 import { Button } from '../../../components/ui/Button';
 import { Notice } from '../../../components/ui/Notice';
 import { useSignIn } from '../api/sign-in';
@@ -16,6 +16,9 @@ type SignInFormOutput = z.output<typeof SignInSchema>;
 /** Whatever the server's reason, a failed password check reads the same: it never says which part was wrong. */
 export const WRONG_CREDENTIALS = 'E-mail or password is incorrect.';
 
+/** The shared schema's check, fetched when the form is first focused rather than with the page. */
+const signInCheck = lazyZodResolver(() => import('../../../../../policies/schemas/auth').then((m) => m.SignInSchema));
+
 export function SignInForm({ onSignedIn }: { onSignedIn: (session: SessionDto) => void }) {
   const signIn = useSignIn();
   const {
@@ -24,7 +27,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (session: SessionDto) =
     setError,
     formState: { errors },
   } = useForm<SignInFormInput, unknown, SignInFormOutput>({
-    resolver: zodResolver(SignInSchema),
+    resolver: signInCheck.resolver,
     defaultValues: { email: '', password: '' },
   });
 
@@ -37,7 +40,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (session: SessionDto) =
 
   const failure = signIn.error;
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Sign in">
+    <form onSubmit={onSubmit} onFocus={signInCheck.preload} noValidate className="space-y-4" aria-label="Sign in">
       {failure &&
         (isApiError(failure) && failure.code === 'invalid_credentials' ? (
           <Notice tone="problem" role="alert">

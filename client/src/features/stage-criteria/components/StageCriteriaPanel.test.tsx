@@ -4,7 +4,8 @@ import type { StageCriteriaDto } from '../../../../../policies/dto';
 import { jargonIn } from '../../../../../policies/plain-words';
 import { setCsrfToken } from '../../../lib/api-client';
 import { jsonResponse, renderWithProviders } from '../../../test/render';
-import { NextStageUnlocks, StageCriteriaPanel } from './StageCriteriaPanel';
+import { NextStageUnlocks } from './NextStageUnlocks';
+import { StageCriteriaPanel } from './StageCriteriaPanel';
 
 // Issue 15 part 1: criteria-based progression (Bern consensus, Ardern et al. 2016: a shared decision).
 const ORG = '11111111-1111-4111-8111-111111111111';
