@@ -78,7 +78,7 @@ async function castTeam(): Promise<Cast> {
         a.id,
         clinician.id,
       ]);
-    // As server/src/routes/team-programs/team-world.ts: group_members.member_id is a membership id.
+    // As server/src/test/worlds/team-world.ts: group_members.member_id is a membership id.
     const { rows: g } = await db.query<{ id: string }>(
       `INSERT INTO groups (organization_id, name, kind, version) VALUES ($1, $2, 'team', 1) RETURNING id`,
       [orgId, `Squad ${stamp}`],

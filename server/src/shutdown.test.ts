@@ -11,7 +11,7 @@ import { createDataSource } from './data-source';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createOrg, TEST_PASSWORD, type TestOrg } from './test/factories';
 import { TEST_SECRET } from './test/harness';
-import { createLog, MP4 } from './routes/uploads/fixtures';
+import { createLog, MP4 } from './test/worlds/uploads-fixtures';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../test/harness';
-import { logBody, trainingWorld } from '../routes/training/training-world';
+import { logBody, trainingWorld } from '../test/worlds/training-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world } = trainingWorld(h);

@@ -6,7 +6,7 @@ import { createLogger } from '../logger';
 import { signedIn, useHarness } from '../test/harness';
 import { asOwner } from '../test/owner';
 import { createOrg, TEST_PASSWORD } from '../test/factories';
-import { caseBody, caseWorld } from '../routes/cases/case-world';
+import { caseBody, caseWorld } from '../test/worlds/case-world';
 
 /** A logger as main.ts makes it, writing into an array instead of stdout. */
 function capturedLogger() {

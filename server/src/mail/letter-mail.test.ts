@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { EMAIL_CAUTION } from '../../../templates/email/layout';
 import { EMAIL_QUEUE } from '../jobs/queue';
-import { binary, pdfText } from '../routes/letters/letter-fixtures';
+import { binary, pdfText } from '../test/worlds/letter-fixtures';
 import { useHarness, type Harness } from '../test/harness';
 import { createOrg, type TestOrg } from '../test/factories';
 import { createTransport, deliver } from './deliveries';

@@ -9,7 +9,7 @@ function sources(dir: string): string[] {
   return readdirSync(dir).flatMap((name) => {
     const path = join(dir, name);
     if (statSync(path).isDirectory()) return name === 'test' ? [] : sources(path);
-    // Test fixtures (routes/audit/fixtures.ts writes 'test.entry') are not the server's actions.
+    // Test fixtures (test/worlds/audit-fixtures.ts writes 'test.entry') are not the server's actions.
     return name.endsWith('.ts') && !name.endsWith('.test.ts') && name !== 'fixtures.ts' ? [path] : [];
   });
 }

@@ -4,9 +4,9 @@ import { jargonIn } from '../../../policies/plain-words';
 import { User, CareTeamAssignment } from '../entities';
 import { setNoticeQueue } from '../jobs/queue';
 import { deliveriesWhere, mailTo, waitFor } from '../mail/mail-fixtures';
-import { pinClock, unpinClock } from '../routes/cases/clock-world';
-import { reportBody } from '../routes/pain-reports/report-world';
-import { put } from '../routes/plans/plan-world';
+import { pinClock, unpinClock } from '../test/worlds/clock-world';
+import { reportBody } from '../test/worlds/report-world';
+import { put } from '../test/worlds/plan-world';
 import { signedIn, useHarness, type Client } from '../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../test/factories';
 

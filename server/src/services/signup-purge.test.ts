@@ -4,7 +4,7 @@ import { afterEach, describe, expect, inject, it, vi } from 'vitest';
 import type { CoreDeps } from '../core/command';
 import { OrganizationSignup } from '../entities';
 import { JobQueue, SIGNUP_PURGE_QUEUE } from '../jobs/queue';
-import { waitFor } from '../routes/account-security/fixtures';
+import { waitFor } from '../test/worlds/account-security-fixtures';
 import { SIGNUP_PURGE_AFTER_DAYS } from '../commands/organization-signup';
 import { useHarness } from '../test/harness';
 import { purgeSignups } from './signup-purge-job';

@@ -14,7 +14,7 @@ import {
   resetMails,
   uniqueEmail,
   waitFor,
-} from './fixtures';
+} from '../../test/worlds/account-security-fixtures';
 
 /**
  * Password reset through HTTP on the real database (ASVS 5.0 V6.3.8 no account enumeration; V6.4.1

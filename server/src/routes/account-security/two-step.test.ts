@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Express } from 'express';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { auditCount, enable, nextCode, totp, cookieOf, replay } from './fixtures';
+import { auditCount, enable, nextCode, totp, cookieOf, replay } from '../../test/worlds/account-security-fixtures';
 
 /** Two-step sign-in (TOTP, RFC 6238; ASVS 5.0 V6.3.3) and its recovery codes, through HTTP on the real database. */
 

@@ -4,7 +4,7 @@ import type { AuditEntryDto } from '../../../../policies/dto';
 import { Membership } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { auditProbes, eventually, newRequestId, type EntryRow } from './fixtures';
+import { auditProbes, eventually, newRequestId, type EntryRow } from '../../test/worlds/audit-fixtures';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { entriesFor, orgEntryIds } = auditProbes(h);

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { AuditEntryDto } from '../../../../policies/dto';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { auditProbes } from './fixtures';
+import { auditProbes } from '../../test/worlds/audit-fixtures';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { append } = auditProbes(h);

@@ -5,7 +5,7 @@ import { appendAudit, verifyChain } from '../../services/audit';
 import { signedIn, useHarness } from '../../test/harness';
 import { ownerUrl, tamperAuditEntry } from '../../test/owner';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { auditProbes, newRequestId, type EntryRow } from './fixtures';
+import { auditProbes, newRequestId, type EntryRow } from '../../test/worlds/audit-fixtures';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { entriesFor, orgEntryIds, append } = auditProbes(h);

@@ -5,7 +5,7 @@ import { allows, expectedOutcome, MATRIX_ROLES, roleMay, type Relation } from '.
 import type { AuditEntryDto } from '../../../../policies/dto';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { auditProbes, newRequestId, playerOf } from './fixtures';
+import { auditProbes, newRequestId, playerOf } from '../../test/worlds/audit-fixtures';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { entriesFor, orgEntryIds, append } = auditProbes(h);

@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { caseBody, caseWorld, fromToday, openCase, type Who, type World } from './case-world';
+import { caseBody, caseWorld, fromToday, openCase, type Who, type World } from '../../test/worlds/case-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { shared, caseRow, casesOf, statusRows } = caseWorld(h);

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
 import { createOrg } from '../../test/factories';
-import { caseWorld, fromToday, openCase } from './case-world';
+import { caseWorld, fromToday, openCase } from '../../test/worlds/case-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { shared, freshAthlete, caseRow, statusRows } = caseWorld(h);

@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { heldSessions, onHoldNotices, pinClock, publishSession, unpinClock, zonedWorld } from './clock-world';
+import { heldSessions, onHoldNotices, pinClock, publishSession, unpinClock, zonedWorld } from '../../test/worlds/clock-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 

@@ -1,7 +1,7 @@
 import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { addDays, dayIn } from '../../../../policies/today';
 import { useHarness } from '../../test/harness';
-import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from './clock-world';
+import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from '../../test/worlds/clock-world';
 import { AWKWARD_INSTANTS, nextDay } from './today-rows';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });

@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { addDays, pinClock, TODAY } from '../programs/test-world';
-import { DIAGNOSIS, feedWorld, fetchFeed, NOTES, parse } from './calendar-feed-world';
+import { addDays, pinClock, TODAY } from '../../test/worlds/test-world';
+import { DIAGNOSIS, feedWorld, fetchFeed, NOTES, parse } from '../../test/worlds/calendar-feed-world';
 
 /**
  * A guardian's own calendar feed (issue 16 §3 follow-up): the published sessions of each athlete they

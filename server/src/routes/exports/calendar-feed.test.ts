@@ -2,8 +2,8 @@ import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { addDays, pinClock, programWorld, put, TODAY } from '../programs/test-world';
-import { DIAGNOSIS, feedWorld, fetchFeed, NOTES, parse } from './calendar-feed-world';
+import { addDays, pinClock, programWorld, put, TODAY } from '../../test/worlds/test-world';
+import { DIAGNOSIS, feedWorld, fetchFeed, NOTES, parse } from '../../test/worlds/calendar-feed-world';
 
 /**
  * The private calendar feed (issue 16 §3): written with `ics`, read back here with a separate parser

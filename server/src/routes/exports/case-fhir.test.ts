@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { PainReport } from '../../entities';
 import { caseBundle, painScore, type FhirCaseInput } from '../../services/fhir-case-bundle';
 import { useHarness } from '../../test/harness';
-import { addDays, pinClock, programWorld, TODAY } from '../programs/test-world';
+import { addDays, pinClock, programWorld, TODAY } from '../../test/worlds/test-world';
 
 /**
  * The FHIR R4 export of a case (issue 16 §3), validated with FHIR.js (`fhir` 4.12, R4 definitions)

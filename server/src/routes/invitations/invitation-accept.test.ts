@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { invitationHelpers, NEW_PASSWORD, uniqueEmail, unknownToken } from './fixtures';
+import { invitationHelpers, NEW_PASSWORD, uniqueEmail, unknownToken } from '../../test/worlds/invitations-fixtures';
 
 describe('accepting an invitation', () => {
   const h = useHarness();

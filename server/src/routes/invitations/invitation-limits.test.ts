@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { NEW_PASSWORD, uniqueEmail, unknownToken } from './fixtures';
+import { NEW_PASSWORD, uniqueEmail, unknownToken } from '../../test/worlds/invitations-fixtures';
 
 describe('invitation rate limits are per link, not one bucket for everyone', () => {
   const h = useHarness();

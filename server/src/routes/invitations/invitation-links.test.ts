@@ -3,7 +3,7 @@ import type { DataSource } from 'typeorm';
 import { dayIn } from '../../../../policies/today';
 import { signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { uniqueEmail } from './fixtures';
+import { uniqueEmail } from '../../test/worlds/invitations-fixtures';
 
 /**
  * Links in invitation e-mails come from configuration, never from the request's Host header: a

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { invitationHelpers, sha256, uniqueEmail } from './fixtures';
+import { invitationHelpers, sha256, uniqueEmail } from '../../test/worlds/invitations-fixtures';
 
 describe('invitations: an admin invites, the holder of the link previews', () => {
   const h = useHarness();

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef } from '../../test/factories';
-import { letterBody, letterKit, pinClock, type Signed, type World } from './letter-fixtures';
+import { letterBody, letterKit, pinClock, type Signed, type World } from '../../test/worlds/letter-fixtures';
 
 /**
  * Who may draft, sign, download and acknowledge a letter: a record of another care team or

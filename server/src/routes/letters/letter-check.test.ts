@@ -4,7 +4,7 @@ import { addDays, orgToday } from '../../../../policies/today';
 import { hashCode, initials, newVerificationCode, normalizeCode } from '../../services/letters';
 import { Client, useHarness } from '../../test/harness';
 import type { MemberRef } from '../../test/factories';
-import { letterKit, pinClock, type Signed, type World } from './letter-fixtures';
+import { letterKit, pinClock, type Signed, type World } from '../../test/worlds/letter-fixtures';
 
 /**
  * The public check page: a verification code answers the letter's standing with dates, decision and

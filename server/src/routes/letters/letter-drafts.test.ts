@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CareTeamAssignment } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createMember, TEST_PASSWORD } from '../../test/factories';
-import { binary, letterKit, pdfText, pinClock } from './letter-fixtures';
+import { binary, letterKit, pdfText, pinClock } from '../../test/worlds/letter-fixtures';
 
 /** A draft is the clinicians' working copy; signing freezes it and supersedes the athlete's earlier letter. */
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });

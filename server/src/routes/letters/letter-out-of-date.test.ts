@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { addDays, orgToday } from '../../../../policies/today';
 import { useHarness } from '../../test/harness';
-import { letterKit, pinClock, type World } from './letter-fixtures';
+import { letterKit, pinClock, type World } from '../../test/worlds/letter-fixtures';
 
 /**
  * Letters never go stale (issue 13, section 5): when the plan or status changes while a letter is in

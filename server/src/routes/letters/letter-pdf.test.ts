@@ -4,7 +4,7 @@ import { noRedFlags } from '../../../../policies/red-flags';
 import { LETTER_CAUTION } from '../../../../templates/letter/clearance-letter';
 import { useHarness } from '../../test/harness';
 import type { MemberRef } from '../../test/factories';
-import { binary, letterKit, oneLine, pdfText, pinClock, type Signed, type World } from './letter-fixtures';
+import { binary, letterKit, oneLine, pdfText, pinClock, type Signed, type World } from '../../test/worlds/letter-fixtures';
 
 /**
  * What a signed clearance letter's PDF says, and never says (it carries status and limits only, no

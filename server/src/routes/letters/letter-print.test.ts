@@ -3,7 +3,7 @@ import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { orgToday } from '../../../../policies/today';
 import { TEST_PASSWORD } from '../../test/factories';
 import { signedIn, useHarness } from '../../test/harness';
-import { binary, letterKit, pdfText, pinClock, type World } from './letter-fixtures';
+import { binary, letterKit, pdfText, pinClock, type World } from '../../test/worlds/letter-fixtures';
 
 /**
  * What the signed letter prints besides its decision: the organization's paper, its clock, the

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { addDays, orgToday } from '../../../../policies/today';
 import { useHarness } from '../../test/harness';
-import { letterKit, pinClock } from './letter-fixtures';
+import { letterKit, pinClock } from '../../test/worlds/letter-fixtures';
 
 /**
  * Where a signed letter stands on the organization's day: scheduled until its start date, then in

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { addDays, hourIn, orgToday } from '../../../../policies/today';
 import { Organization } from '../../entities';
 import { useHarness } from '../../test/harness';
-import { letterKit, pinClock, type World } from './letter-fixtures';
+import { letterKit, pinClock, type World } from '../../test/worlds/letter-fixtures';
 
 /**
  * A letter's "today" is its organization's day (policies/today.ts), not the server's UTC day. The

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Notification } from '../../entities';
 import { useHarness, type Client } from '../../test/harness';
 import type { MemberRef } from '../../test/factories';
-import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from '../cases/clock-world';
+import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from '../../test/worlds/clock-world';
 import { asOwner } from '../../test/owner';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });

@@ -6,7 +6,7 @@ import { runPublicCommand } from '../../commands/run';
 import { createOrganizationByOperator } from '../../commands/organizations';
 import { createStorage } from '../../storage';
 import { GENESIS_HASH, verifyChain } from '../../services/audit';
-import { uniqueEmail } from '../account-security/fixtures';
+import { uniqueEmail } from '../../test/worlds/account-security-fixtures';
 
 /** `npm run org:create` (scripts/org-create.ts) runs this command: an organization and its admin's one-time invitation. */
 describe('an operator creates an organization', () => {

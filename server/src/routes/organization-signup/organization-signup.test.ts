@@ -6,7 +6,7 @@ import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
 import { GENESIS_HASH, verifyChain } from '../../services/audit';
 import { SIGNUP_REQUESTED } from '../../commands/organization-signup';
-import { uniqueEmail, waitFor } from '../account-security/fixtures';
+import { uniqueEmail, waitFor } from '../../test/worlds/account-security-fixtures';
 import { SIGNUP_CLOSED_MESSAGE } from './organization-signup.router';
 
 /**

@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { reportBody, reportWorld, type World } from './report-world';
+import { reportBody, reportWorld, type World } from '../../test/worlds/report-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, casesOf, reportsOf } = reportWorld(h);

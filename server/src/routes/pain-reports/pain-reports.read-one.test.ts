@@ -4,7 +4,7 @@ import request from 'supertest';
 import type { MemberRef } from '../../test/factories';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
 import { signedIn, useHarness } from '../../test/harness';
-import { reportBody, reportWorld, type World } from './report-world';
+import { reportBody, reportWorld, type World } from '../../test/worlds/report-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, freshAthlete } = reportWorld(h);

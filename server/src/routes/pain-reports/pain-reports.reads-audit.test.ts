@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { reportBody, reportWorld } from './report-world';
+import { reportBody, reportWorld } from '../../test/worlds/report-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, freshAthlete } = reportWorld(h);

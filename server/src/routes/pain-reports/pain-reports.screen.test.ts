@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { noRedFlags, RED_FLAG_ITEMS, redFlagQuestion, redFlagQuestionsFor } from '../../../../policies/red-flags';
 import { PainReport } from '../../entities';
 import { useHarness } from '../../test/harness';
-import { EMERGENCY_NUMBER, fromToday, reportBody, reportWorld } from './report-world';
+import { EMERGENCY_NUMBER, fromToday, reportBody, reportWorld } from '../../test/worlds/report-world';
 
 // Sources: NICE NG59, "Low back pain and sciatica in over 16s" (2016, updated 2020); Finucane et al. 2020,
 // JOSPT 50(7):350–372. The adolescent bending-backwards item (pars stress fracture) is from memory.

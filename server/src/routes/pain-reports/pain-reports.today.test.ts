@@ -3,7 +3,7 @@ import { RED_FLAG_ITEMS } from '../../../../policies/red-flags';
 import { dayIn } from '../../../../policies/today';
 import { humanDate } from '../../../../policies/words/dates';
 import { useHarness } from '../../test/harness';
-import { heldSessions, onHoldNotices, pinClock, publishSession, unpinClock, zonedWorld } from '../cases/clock-world';
+import { heldSessions, onHoldNotices, pinClock, publishSession, unpinClock, zonedWorld } from '../../test/worlds/clock-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 

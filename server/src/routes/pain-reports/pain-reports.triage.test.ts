@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type request from 'supertest';
 import type { MemberRef } from '../../test/factories';
 import { useHarness } from '../../test/harness';
-import { EMERGENCY_NUMBER, fromToday, question, reportBody, reportWorld, TODAY, type World } from './report-world';
+import { EMERGENCY_NUMBER, fromToday, question, reportBody, reportWorld, TODAY, type World } from '../../test/worlds/report-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, freshAthlete, noticesAbout, flagsAbout, casesOf } = reportWorld(h);

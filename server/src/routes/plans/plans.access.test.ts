@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { planWorld, put, twoStages, type World } from './plan-world';
+import { planWorld, put, twoStages, type World } from '../../test/worlds/plan-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, openCase, newPlan, versionRows } = planWorld(h);

@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { pinClock, unpinClock, zonedWorld } from '../cases/clock-world';
-import { twoStages } from './plan-world';
+import { pinClock, unpinClock, zonedWorld } from '../../test/worlds/clock-world';
+import { twoStages } from '../../test/worlds/plan-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 

@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { RestrictionPlan, RestrictionPlanVersion } from '../../entities';
 import { appendAudit } from '../../services/audit';
 import { useHarness } from '../../test/harness';
-import { planWorld, put, twoStages, type World } from './plan-world';
+import { planWorld, put, twoStages, type World } from '../../test/worlds/plan-world';
 import { asOwner } from '../../test/owner';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });

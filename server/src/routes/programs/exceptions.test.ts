@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { TEST_PASSWORD } from '../../test/factories';
-import { addDays, createOrg, pinClock, put, TODAY } from './test-world';
+import { addDays, createOrg, pinClock, put, TODAY } from '../../test/worlds/test-world';
 
 const DATE = addDays(TODAY, 10);
 

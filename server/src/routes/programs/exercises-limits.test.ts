@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { addDays, content, pinClock, programWorld, TODAY } from './test-world';
+import { addDays, content, pinClock, programWorld, TODAY } from '../../test/worlds/test-world';
 import { humanDate } from '../../../../policies/words/dates';
 
 /**

@@ -4,8 +4,8 @@ import type { ExerciseDto } from '../../../../policies/dto';
 import { MAX_USE_INSTEAD } from '../../../../policies/schemas/programs';
 import { DEFAULT_LIBRARY, DEFAULT_USE_INSTEAD } from '../../services/exercise-library';
 import { useHarness } from '../../test/harness';
-import { MONDAY, teamWorld } from '../team-programs/team-world';
-import { addDays, createOrg, pinClock, programWorld } from './test-world';
+import { MONDAY, teamWorld } from '../../test/worlds/team-world';
+import { addDays, createOrg, pinClock, programWorld } from '../../test/worlds/test-world';
 
 /**
  * Issue 14 §3: "keep a 'use instead' relation in the library". An exercise names, in order, library

@@ -4,7 +4,7 @@ import { expectedOutcome } from '../../../../policies/access/matrix';
 import { DEFAULT_LIBRARY } from '../../services/exercise-library';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { createOrg, pinClock } from './test-world';
+import { createOrg, pinClock } from '../../test/worlds/test-world';
 
 const STATUS = { allowed: [200, 201], forbidden: [403], not_found: [404] } as const;
 

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { signedIn, useHarness } from '../../test/harness';
 import { TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { content, createOrg, pinClock } from './test-world';
+import { content, createOrg, pinClock } from '../../test/worlds/test-world';
 
 /**
  * "Today" is the organization's calendar day (policies/today.ts), not the UTC date. An organization

@@ -6,7 +6,7 @@ import type { SubjectName, Action } from '../../../../policies/access';
 import { CareTeamAssignment } from '../../entities';
 import { TEST_PASSWORD } from '../../test/factories';
 import { Client, signedIn, useHarness } from '../../test/harness';
-import { addDays, content, createOrg, pinClock, programWorld, put, setIds, TODAY } from './test-world';
+import { addDays, content, createOrg, pinClock, programWorld, put, setIds, TODAY } from '../../test/worlds/test-world';
 
 /** Who may see and change a program: staff on every athlete's care team; the athlete, their published sessions. */
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { addDays, content, type Content, pinClock, programWorld, setIds, TODAY } from './test-world';
+import { addDays, content, type Content, pinClock, programWorld, setIds, TODAY } from '../../test/worlds/test-world';
 
 /** Copying a week and shifting drafts: the calendar tools of the program builder. */
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CareTeamAssignment } from '../../entities';
 import { createMember } from '../../test/factories';
 import { useHarness } from '../../test/harness';
-import { addDays, content, type Content, pinClock, programWorld, put, setIds, TODAY } from './test-world';
+import { addDays, content, type Content, pinClock, programWorld, put, setIds, TODAY } from '../../test/worlds/test-world';
 
 /** Publishing checks every set of a session against each athlete's limits; an edit of a published session is checked again. */
 

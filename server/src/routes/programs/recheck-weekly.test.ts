@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { weekOf } from '../../../../policies/load/compliance';
 import { useHarness } from '../../test/harness';
-import { recheckWorld } from './recheck-world';
-import { addDays, pinClock, put, TODAY } from './test-world';
+import { recheckWorld } from '../../test/worlds/recheck-world';
+import { addDays, pinClock, put, TODAY } from '../../test/worlds/test-world';
 import { humanDate } from '../../../../policies/words/dates';
 
 describe('published sessions are checked again against the weekly hard-set limit', () => {

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { CareTeamAssignment } from '../../entities';
 import { signedIn, useHarness } from '../../test/harness';
 import { createMember, TEST_PASSWORD } from '../../test/factories';
-import { oneSet, recheckWorld } from './recheck-world';
-import { addDays, cheapen, pinClock, TODAY } from './test-world';
+import { oneSet, recheckWorld } from '../../test/worlds/recheck-world';
+import { addDays, cheapen, pinClock, TODAY } from '../../test/worlds/test-world';
 import { humanDate } from '../../../../policies/words/dates';
 
 describe('published sessions are checked again when what they depend on changes', () => {

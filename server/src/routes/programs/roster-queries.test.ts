@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { describeRule } from '../../../../policies/load/describe';
 import { signedIn, useHarness } from '../../test/harness';
 import { createMember, TEST_PASSWORD, type TestOrg } from '../../test/factories';
-import { addDays, createOrg, pinClock, TODAY } from './test-world';
+import { addDays, createOrg, pinClock, TODAY } from '../../test/worlds/test-world';
 
 // The roster is one set-based read (queries/roster.ts): its round trips to PostgreSQL must not grow
 // with the number of athletes, whatever each athlete has (an open case with a plan, a session ahead).

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { addDays, pinClock, TODAY } from './test-world';
+import { addDays, pinClock, TODAY } from '../../test/worlds/test-world';
 
 // The roster is one set-based query (queries/roster.ts); this fixes what each column
 // must say when an athlete has several cases, holds, exceptions and sessions around today.

@@ -7,9 +7,9 @@ import { NO_LONGER_ALLOWED, buildRecordExport, sweepExpiredCopies } from '../../
 import { createStorage } from '../../storage';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { PDF } from '../uploads/fixtures';
+import { PDF } from '../../test/worlds/uploads-fixtures';
 import pino from 'pino';
-import { CLINICAL_NOTE, DIAGNOSIS, OTHER_PERSON, PAIN_NARRATIVE, plantRecord } from './record-export-fixtures';
+import { CLINICAL_NOTE, DIAGNOSIS, OTHER_PERSON, PAIN_NARRATIVE, plantRecord } from '../../test/worlds/record-export-fixtures';
 
 /**
  * A person's whole record (issue 16, part 3): asked for over HTTP, built by the real pg-boss worker,

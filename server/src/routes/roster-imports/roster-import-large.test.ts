@@ -5,7 +5,7 @@ import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
 import { runRosterImport } from '../../services/roster-import-job';
 import { createStorage } from '../../storage';
-import { rosterCsv, upload, waitDone } from './fixtures';
+import { rosterCsv, upload, waitDone } from '../../test/worlds/roster-imports-fixtures';
 
 /**
  * Issue 16 §2: a 2,000-row roster imports in the background with progress, and the server keeps

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import pino from 'pino';
 import type { RosterPreviewDto } from '../../../../policies/dto';
 import { ROSTER_COLUMNS } from '../../../../policies/roster';
-import { rosterCsv, upload, waitDone } from './fixtures';
+import { rosterCsv, upload, waitDone } from '../../test/worlds/roster-imports-fixtures';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
 import { runRosterImport } from '../../services/roster-import-job';

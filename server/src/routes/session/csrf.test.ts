@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { sessionCookie } from './fixtures';
+import { sessionCookie } from '../../test/worlds/session-fixtures';
 
 describe('CSRF and the signed-in person’s own profile (default settings)', () => {
   const h = useHarness();

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Client, signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { invitationToken, uniqueEmail } from './fixtures';
+import { invitationToken, uniqueEmail } from '../../test/worlds/session-fixtures';
 
 describe('passwords (through the invitation-accept flow)', () => {
   const h = useHarness();

@@ -2,7 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import request from 'supertest';
 import { useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { MIN, replay, sessionCookie, sessionRows, sidOf, signInCapturing, simulateClock } from './fixtures';
+import { MIN, replay, sessionCookie, sessionRows, sidOf, signInCapturing, simulateClock } from '../../test/worlds/session-fixtures';
 
 describe('sessions with SECURE_COOKIES=true behind a TLS proxy', () => {
   const h = useHarness({ SECURE_COOKIES: 'true', TRUST_PROXY: 'true', PUBLIC_URL: 'https://loadline.example.org' });

@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { DataSource } from 'typeorm';
 import { Client, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef } from '../../test/factories';
-import { simulateClock, uniqueEmail } from './fixtures';
+import { simulateClock, uniqueEmail } from '../../test/worlds/session-fixtures';
 
 // These tests sign in dozens of times: the people's passwords are stored at bcrypt cost 4 (the
 // comparison follows the stored cost), so the limits are tested, not the hashing.

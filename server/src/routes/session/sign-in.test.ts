@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { Client, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { COOKIE, replay, sessionCookie, sessionRows, sidOf, signInCapturing, uniqueEmail } from './fixtures';
+import { COOKIE, replay, sessionCookie, sessionRows, sidOf, signInCapturing, uniqueEmail } from '../../test/worlds/session-fixtures';
 
 describe('signing in and out (default settings)', () => {
   const h = useHarness();

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { Client, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { COOKIE, sessionCookie } from './fixtures';
+import { COOKIE, sessionCookie } from '../../test/worlds/session-fixtures';
 
 /** Rows of callers who are nobody: no signed-in user and no pending second step. */
 async function anonymousSessionRows(h: ReturnType<typeof useHarness>): Promise<number> {

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { TrainingLog } from '../../entities';
 import { useHarness } from '../../test/harness';
-import { planWorld, type World } from '../plans/plan-world';
+import { planWorld, type World } from '../../test/worlds/plan-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 // The clock is pinned at 10 June 2026 (plan-world).

@@ -2,9 +2,9 @@ import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { useHarness } from '../../test/harness';
-import { binary, pdfText } from '../letters/letter-fixtures';
-import { addDays, pinClock, put, TODAY } from '../programs/test-world';
-import { MONDAY, teamWorld } from './team-world';
+import { binary, pdfText } from '../../test/worlds/letter-fixtures';
+import { addDays, pinClock, put, TODAY } from '../../test/worlds/test-world';
+import { MONDAY, teamWorld } from '../../test/worlds/team-world';
 
 /**
  * Issue 14 §6: the floor sheet of a team session, as PDF and CSV. The squad of team-world.ts: back

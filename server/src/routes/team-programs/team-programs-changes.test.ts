@@ -3,8 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { onGroupAthletesChanged } from '../../services/team-membership';
 import { createMember } from '../../test/factories';
 import { useHarness } from '../../test/harness';
-import { addDays, pinClock, put, TODAY } from '../programs/test-world';
-import { teamWorld } from './team-world';
+import { addDays, pinClock, put, TODAY } from '../../test/worlds/test-world';
+import { teamWorld } from '../../test/worlds/team-world';
 
 /** Issue 14 §5 and §7: changes flow to the versions; who may read and change a group's team work. */
 describe('team programs: changes flow, and who may do what', () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { pinClock } from '../programs/test-world';
-import { teamWorld } from './team-world';
+import { pinClock } from '../../test/worlds/test-world';
+import { teamWorld } from '../../test/worlds/team-world';
 
 /**
  * Issue 14 §4: the coach's acceptance of a version (say of a drop) is part of what the grid and the

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { useHarness } from '../../test/harness';
-import { pinClock, put } from '../programs/test-world';
-import { MONDAY, teamWorld } from './team-world';
+import { pinClock, put } from '../../test/worlds/test-world';
+import { MONDAY, teamWorld } from '../../test/worlds/team-world';
 
 /** Issue 14 §3–4: one team session, each athlete's fitted version, the review grid and publishing the whole group. */
 describe('team programs: fitting, the grid and publishing', () => {

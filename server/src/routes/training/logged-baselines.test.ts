@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { afterEach, describe, expect, it } from 'vitest';
 import { useHarness, signedIn } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { heldSessions, pinClock, unpinClock, zonedWorld } from '../cases/clock-world';
+import { heldSessions, pinClock, unpinClock, zonedWorld } from '../../test/worlds/clock-world';
 
 describe('logged sets feed the strength history', () => {
   const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });

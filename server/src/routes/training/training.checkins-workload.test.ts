@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { useHarness, type Client } from '../../test/harness';
-import { fromToday, logBody, logSession, trainingWorld, type World } from './training-world';
+import { fromToday, logBody, logSession, trainingWorld, type World } from '../../test/worlds/training-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, freshAthlete } = trainingWorld(h);

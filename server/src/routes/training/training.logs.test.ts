@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { useHarness } from '../../test/harness';
-import { fromToday, logBody, logSession, trainingWorld, type World } from './training-world';
+import { fromToday, logBody, logSession, trainingWorld, type World } from '../../test/worlds/training-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, freshAthlete, noticesAbout, flagsFrom, logsOf } = trainingWorld(h);

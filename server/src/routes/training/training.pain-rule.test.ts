@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { dayIn } from '../../../../policies/today';
 import { useHarness } from '../../test/harness';
-import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from '../cases/clock-world';
+import { pinClock, unpinClock, zonedWorld, type ZonedWorld } from '../../test/worlds/clock-world';
 
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 afterEach(unpinClock);

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { AuditEntry, Clip, ClipNote, Notification } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef } from '../../test/factories';
-import { createLog, filesUnder, MOV, MP4, PDF, webm } from './fixtures';
+import { createLog, filesUnder, MOV, MP4, PDF, webm } from '../../test/worlds/uploads-fixtures';
 
 const LIMIT_MB = 0.05;
 const LIMIT = Math.floor(LIMIT_MB * 1024 * 1024);

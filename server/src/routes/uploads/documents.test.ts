@@ -8,7 +8,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { AuditEntry, CaseDocument, CareTeamAssignment } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { createCase, filesUnder, HEIC, HTML, PDF, PNG } from './fixtures';
+import { createCase, filesUnder, HEIC, HTML, PDF, PNG } from '../../test/worlds/uploads-fixtures';
 
 // A small limit (about 51 kB) so oversize uploads stay quick; the default is 20 MB.
 const LIMIT_MB = 0.05;

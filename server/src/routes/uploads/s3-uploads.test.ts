@@ -13,7 +13,7 @@ import { Clip } from '../../entities';
 import { S3Storage } from '../../storage';
 import { signedIn, TEST_SECRET } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
-import { createLog, webm } from './fixtures';
+import { createLog, webm } from '../../test/worlds/uploads-fixtures';
 
 /**
  * The same upload routes with S3_BUCKET set: the app picks S3Storage from its configuration and talks

@@ -4,7 +4,7 @@ import { allows, MATRIX_ROLES, type Outcome, type Relation } from '../../../../p
 import { CaseDocument, Clip } from '../../entities';
 import { signedIn, useHarness, type Client } from '../../test/harness';
 import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { createCase, createLog } from './fixtures';
+import { createCase, createLog } from '../../test/worlds/uploads-fixtures';
 
 /**
  * The access matrix (policies/access/matrix.ts) drives these HTTP checks, so the table and the

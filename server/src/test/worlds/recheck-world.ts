@@ -1,7 +1,7 @@
 import { expect } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { signedIn, type Harness } from '../../test/harness';
-import { TEST_PASSWORD } from '../../test/factories';
+import { signedIn, type Harness } from '../harness';
+import { TEST_PASSWORD } from '../factories';
 import { addDays, createOrg, put, TODAY } from './test-world';
 
 /** The re-check tests' world (recheck.test.ts, recheck-weekly.test.ts): one athlete, their coach and clinician, one program. */

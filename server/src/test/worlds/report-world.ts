@@ -3,9 +3,9 @@ import type { BodyRegion } from '../../../../policies/body-regions';
 import { noRedFlags, RED_FLAG_ITEMS } from '../../../../policies/red-flags';
 import { addDays } from '../../../../policies/today';
 import { CareTeamAssignment, GuardianLink, Membership, Organization } from '../../entities';
-import { signedIn, type Client, type Harness } from '../../test/harness';
-import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
-import { pinClock, unpinClock } from '../cases/clock-world';
+import { signedIn, type Client, type Harness } from '../harness';
+import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../factories';
+import { pinClock, unpinClock } from './clock-world';
 
 export type Who = 'admin' | 'coach' | 'clinician' | 'clinician2' | 'athlete' | 'guardian' | 'otherCoach' | 'otherClinician';
 

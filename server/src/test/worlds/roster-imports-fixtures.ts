@@ -1,7 +1,7 @@
 import { expect } from 'vitest';
 import type { RosterImportDto } from '../../../../policies/dto';
 import { ROSTER_COLUMNS } from '../../../../policies/roster';
-import type { Client } from '../../test/harness';
+import type { Client } from '../harness';
 
 /** Helpers of the roster import tests: a CSV in the template's columns, the upload, and waiting for the job. */
 type Cells = Partial<Record<(typeof ROSTER_COLUMNS)[number], string>>;

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, expect } from 'vitest';
 import { addDays } from '../../../../policies/today';
 import { CareTeamAssignment } from '../../entities';
-import { signedIn, type Client, type Harness } from '../../test/harness';
-import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { signedIn, type Client, type Harness } from '../harness';
+import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../factories';
 import { pinClock, unpinClock } from './clock-world';
 
 export type Who = 'admin' | 'coach' | 'clinician' | 'athlete' | 'guardian' | 'otherCoach' | 'otherClinician';

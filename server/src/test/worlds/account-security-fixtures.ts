@@ -4,7 +4,7 @@ import type { Response } from 'supertest';
 import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
 import { Secret, TOTP } from 'otpauth';
-import { Client } from '../../test/harness';
+import { Client } from '../harness';
 
 /** Shared by the password reset and two-step sign-in test files. */
 

@@ -3,8 +3,8 @@ import request from 'supertest';
 import type { Response } from 'supertest';
 import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
-import { Client } from '../../test/harness';
-import { TEST_PASSWORD } from '../../test/factories';
+import { Client } from '../harness';
+import { TEST_PASSWORD } from '../factories';
 
 /** Shared by the session test files. */
 export const COOKIE = 'loadline.sid';

@@ -4,8 +4,8 @@ import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
 import { expect, vi } from 'vitest';
 import { Organization } from '../../entities';
-import { signedIn, type Client } from '../../test/harness';
-import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { signedIn, type Client } from '../harness';
+import { createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../factories';
 
 /**
  * Test support for "one meaning of today": an organization in a given IANA zone, the clock pinned

@@ -1,8 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import type { Role } from '../../../../policies/roles';
 import { appendAudit, type AuditInput } from '../../services/audit';
-import type { Harness } from '../../test/harness';
-import type { MemberRef, TestOrg } from '../../test/factories';
+import type { Harness } from '../harness';
+import type { MemberRef, TestOrg } from '../factories';
 
 /** Shared by the audit test files: each builds its own harness and passes it in. */
 export interface EntryRow {

@@ -3,8 +3,8 @@ import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import type request from 'supertest';
 import { addDays } from '../../../../policies/today';
 import { CareTeamAssignment, GuardianLink } from '../../entities';
-import { Client, signedIn, type Harness } from '../../test/harness';
-import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { Client, signedIn, type Harness } from '../harness';
+import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../factories';
 
 /**
  * Shared by the clearance-letter test files (one file per scenario): a world of people around two

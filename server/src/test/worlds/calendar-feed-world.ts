@@ -1,8 +1,8 @@
 import ICAL from 'ical.js';
 import request from 'supertest';
 import { expect } from 'vitest';
-import type { Harness } from '../../test/harness';
-import { addDays, content, programWorld, TODAY } from '../programs/test-world';
+import type { Harness } from '../harness';
+import { addDays, content, programWorld, TODAY } from './test-world';
 
 /**
  * What the calendar feed tests share: a world with a diagnosis, notes, a plan and published sessions,

@@ -2,9 +2,9 @@ import { randomUUID } from 'node:crypto';
 import { expect } from 'vitest';
 import type { TeamGridDto, TeamProgramDto, TeamVersionDto } from '../../../../policies/dto/teams';
 import { CareTeamAssignment } from '../../entities';
-import { createMember, type MemberRef } from '../../test/factories';
-import type { Client, Harness } from '../../test/harness';
-import { addDays, cheapen, programWorld, TODAY } from '../programs/test-world';
+import { createMember, type MemberRef } from '../factories';
+import type { Client, Harness } from '../harness';
+import { addDays, cheapen, programWorld, TODAY } from './test-world';
 
 /**
  * The team-program tests' world: a squad of eight athletes in one group coached by the org's coach,

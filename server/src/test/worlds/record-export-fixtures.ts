@@ -3,8 +3,8 @@ import type { DataSource } from 'typeorm';
 import type { Config } from '../../config';
 import { CaseDocument, CaseRecord, CheckIn, Clip, PainReport, TrainingLog } from '../../entities';
 import { createStorage } from '../../storage';
-import type { TestOrg } from '../../test/factories';
-import { PDF, webm } from '../uploads/fixtures';
+import type { TestOrg } from '../factories';
+import { PDF, webm } from './uploads-fixtures';
 
 /** Strings planted in records the ZIP must or must not carry. */
 export const CLINICAL_NOTE = 'CLINICAL-NOTE-ONLY-FOR-THE-CARE-TEAM';

@@ -3,8 +3,8 @@ import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
 import { afterAll, beforeAll, expect, vi } from 'vitest';
 import { addDays } from '../../../../policies/today';
-import { Client, signedIn, type Harness } from '../../test/harness';
-import { createOrg as createFullOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
+import { Client, signedIn, type Harness } from '../harness';
+import { createOrg as createFullOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../factories';
 
 /** Shared by the programming tests: a pinned clock, cheap sign-ins, and the usual world of an athlete with a plan. */
 

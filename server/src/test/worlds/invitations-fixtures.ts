@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { expect } from 'vitest';
-import { Client, signedIn, type Harness } from '../../test/harness';
-import { TEST_PASSWORD, type TestOrg } from '../../test/factories';
+import { Client, signedIn, type Harness } from '../harness';
+import { TEST_PASSWORD, type TestOrg } from '../factories';
 
 /** Shared by the invitation test files. */
 export const NEW_PASSWORD = 'a brand new passphrase of mine';
