@@ -17,6 +17,16 @@ const PREFS: NoticePreferenceDto[] = [
 ];
 
 describe('e-mail choices', () => {
+  it('the box follows the click in the same render, even while a reload of the choices is still on its way', async () => {
+    fetchMock.mockResolvedValueOnce(jsonResponse(200, PREFS));
+    renderWithProviders(<EmailPreferences orgId="org-1" />);
+    const plans = await screen.findByRole('checkbox', { name: 'A new version of the limits (restriction plan)' });
+    // Every later request (the PATCH) hangs: nothing settles while the box is looked at.
+    fetchMock.mockImplementation(() => new Promise<Response>(() => {}));
+    fireEvent.click(plans);
+    expect(plans).not.toBeChecked();
+  });
+
   it('shows an emergency as ticked and fixed, with the reason in words (not a greyed box alone)', async () => {
     fetchMock.mockResolvedValue(jsonResponse(200, PREFS));
     renderWithProviders(<EmailPreferences orgId="org-1" />);
