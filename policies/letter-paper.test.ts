@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { letterPaperOf, paperForTimeZone } from './letter-paper';
+import { letterPaperOf, paperForCountry, paperForTimeZone } from './letter-paper';
 
 // Letter countries: ANSI/ASME Y14.1 Letter is the everyday size in the US, Canada, Mexico and the
 // Philippines (and several Central and South American countries); the rest of the world uses ISO 216 A4.
@@ -17,6 +17,15 @@ describe('the paper of a letter', () => {
       expect(paperForTimeZone(zone), zone).toBe('letter');
     for (const zone of ['UTC', 'Europe/London', 'Australia/Brisbane', 'America/Sao_Paulo', 'America/Argentina/Buenos_Aires', 'Asia/Tokyo'])
       expect(paperForTimeZone(zone), zone).toBe('a4');
+  });
+
+  it('follows the recorded country (ISO 3166-1 alpha-2) over the time zone', () => {
+    for (const country of ['US', 'CA', 'MX', 'PH', 'CL', 'CO', 'us']) expect(paperForCountry(country), country).toBe('letter');
+    for (const country of ['GB', 'DE', 'AU', 'BR', 'AR', 'JP', 'NO']) expect(paperForCountry(country), country).toBe('a4');
+    expect(letterPaperOf({ letterPaper: null, country: 'DE', timeZone: 'America/Chicago' })).toBe('a4');
+    expect(letterPaperOf({ letterPaper: null, country: 'US', timeZone: 'Europe/Berlin' })).toBe('letter');
+    // No country recorded (organizations made before countries were): the zone's country.
+    expect(letterPaperOf({ letterPaper: null, country: null, timeZone: 'America/Chicago' })).toBe('letter');
   });
 
   it("the organization's choice wins", () => {

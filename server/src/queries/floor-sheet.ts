@@ -24,8 +24,8 @@ export interface FloorSheetData extends FloorSheet {
 
 export async function floorSheetFor(m: EntityManager, actor: ActorWithOrg, teamSessionId: string): Promise<FloorSheetData> {
   const { team, program, group } = await teamSessionFor(m, actor, teamSessionId, 'read');
-  const [org]: { name: string; time_zone: string; letter_paper: LetterPaper | null }[] = await m.query(
-    `SELECT name, time_zone, letter_paper FROM organizations WHERE id = $1`,
+  const [org]: { name: string; time_zone: string; country: string | null; letter_paper: LetterPaper | null }[] = await m.query(
+    `SELECT name, time_zone, country, letter_paper FROM organizations WHERE id = $1`,
     [actor.organizationId],
   );
   const athletes = await groupAthletes(m, group.id);
@@ -118,7 +118,7 @@ export async function floorSheetFor(m: EntityManager, actor: ActorWithOrg, teamS
     sessionTitle: team.title,
     date: team.date,
     published: team.status === 'published',
-    paper: letterPaperOf({ letterPaper: org.letter_paper, timeZone: org.time_zone }),
+    paper: letterPaperOf({ letterPaper: org.letter_paper, country: org.country, timeZone: org.time_zone }),
     rows,
   };
 }

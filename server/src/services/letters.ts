@@ -83,8 +83,8 @@ export async function letterPrintContext(
   athleteId: string,
   clinicianId: string,
 ): Promise<LetterPrintContext> {
-  const [org]: { name: string; time_zone: string; letter_paper: LetterPaper | null }[] = await db.query(
-    `SELECT name, time_zone, letter_paper FROM organizations WHERE id = $1`,
+  const [org]: { name: string; time_zone: string; country: string | null; letter_paper: LetterPaper | null }[] = await db.query(
+    `SELECT name, time_zone, country, letter_paper FROM organizations WHERE id = $1`,
     [organizationId],
   );
   const [profile]: { date_of_birth: string | null }[] = await db.query(
@@ -97,7 +97,7 @@ export async function letterPrintContext(
     athleteName: people.get(athleteId)?.name ?? '',
     athleteDateOfBirth: profile?.date_of_birth ?? null,
     clinicianContact: people.get(clinicianId)?.email ?? '',
-    paper: letterPaperOf({ letterPaper: org.letter_paper, timeZone: org.time_zone }),
+    paper: letterPaperOf({ letterPaper: org.letter_paper, country: org.country, timeZone: org.time_zone }),
     timeZone: org.time_zone,
   };
 }

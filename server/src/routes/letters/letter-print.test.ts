@@ -41,7 +41,7 @@ async function signedPdf(w: World, over: Record<string, unknown> = {}) {
 }
 
 describe('the paper (ISO 216 A4 = 595.28 × 841.89 pt; ANSI Letter = 612 × 792 pt)', () => {
-  it('follows the time zone’s country until the admin chooses, then the choice', async () => {
+  it('follows the time zone’s country until the admin chooses, then the choice; a recorded country over the zone', async () => {
     const w = await world();
     // UTC is no country's zone: A4.
     expect(await settings(w, { timeZone: 'UTC' })).toMatchObject({ letterPaper: null, letterPaperInUse: 'a4' });
@@ -53,6 +53,9 @@ describe('the paper (ISO 216 A4 = 595.28 × 841.89 pt; ANSI Letter = 612 × 792 
     expect(await settings(w, { letterPaper: 'a4' })).toMatchObject({ letterPaper: 'a4', letterPaperInUse: 'a4' });
     expect(await mediaBox((await signedPdf(w)).pdf)).toEqual([0, 0, 595.28, 841.89]);
     expect(await settings(w, { letterPaper: null })).toMatchObject({ letterPaper: null, letterPaperInUse: 'letter' });
+    // A recorded country decides over the time zone's: a German organization keeps a Chicago clock but prints on A4.
+    expect(await settings(w, { country: 'DE' })).toMatchObject({ letterPaper: null, letterPaperInUse: 'a4' });
+    expect(await mediaBox((await signedPdf(w)).pdf)).toEqual([0, 0, 595.28, 841.89]);
   });
 
   it('refuses a paper that is neither, naming the field', async () => {

@@ -60,6 +60,10 @@ describe('OrganizationSettingsForm', () => {
     const paper = screen.getByRole('combobox', { name: 'Paper for clearance letters' });
     expect(paper).toHaveValue('');
     expect(paper).toHaveAccessibleDescription(/Letters print on US Letter \(8\.5 × 11 in\) now/);
+    // The paper follows the country in the form before it is saved.
+    fireEvent.change(screen.getByRole('combobox', { name: 'Country' }), { target: { value: 'DE' } });
+    expect(paper).toHaveAccessibleDescription(/Letters will print on A4 \(210 × 297 mm\) once saved/);
+    fireEvent.change(screen.getByRole('combobox', { name: 'Country' }), { target: { value: 'US' } });
     expect(screen.getByRole('option', { name: 'A4 (210 × 297 mm)' })).toBeInTheDocument();
     fireEvent.change(paper, { target: { value: 'a4' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save settings' }));

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { OrganizationSettingsDto } from '../../../../../policies/dto';
-import { LETTER_PAPERS, PAPER_LABELS } from '../../../../../policies/letter-paper';
+import { LETTER_PAPERS, PAPER_LABELS, letterPaperOf } from '../../../../../policies/letter-paper';
 import { OrganizationSettingsSchema } from '../../../../../policies/schemas';
 import { Button } from '../../../components/ui/Button';
 import { SelectField, TextField } from '../../../components/ui/Field';
@@ -49,7 +49,12 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
   }, [settings, reset]);
 
   const countries = useMemo(() => countryChoices(), []);
-  const [country, emergencyNumber] = useWatch({ control, name: ['country', 'emergencyNumber'] });
+  const [country, emergencyNumber, timeZone, letterPaper] = useWatch({
+    control,
+    name: ['country', 'emergencyNumber', 'timeZone', 'letterPaper'],
+  });
+  // The paper letters will print on once saved, as the server works it out (policies/letter-paper.ts).
+  const paperInUse = letterPaperOf({ letterPaper: letterPaper ?? null, country: country ?? null, timeZone: timeZone ?? settings.timeZone });
   const numberHint = emergencyNumberHint(settings, { country, emergencyNumber: emergencyNumber ?? '' });
   const zones = useMemo(() => timeZoneChoices(settings.timeZone), [settings.timeZone]);
   const stale = isApiError(update.error) && (update.error.code === 'version_conflict' || update.error.status === 409);
@@ -125,7 +130,7 @@ export function OrganizationSettingsForm({ orgId, settings }: { orgId: string; s
       </SelectField>
       <SelectField
         label="Paper for clearance letters"
-        hint={`By country: the paper of the time zone's country (US Letter in the United States, Canada, Mexico, the Philippines and parts of Latin America; A4 elsewhere). Letters print on ${PAPER_LABELS[settings.letterPaperInUse]} now. Letters already signed keep their paper.`}
+        hint={`By country: the paper of the organization's country (US Letter in the United States, Canada, Mexico, the Philippines and parts of Latin America; A4 elsewhere). Letters ${isDirty ? `will print on ${PAPER_LABELS[paperInUse]} once saved` : `print on ${PAPER_LABELS[paperInUse]} now`}. Letters already signed keep their paper.`}
         error={errors.letterPaper?.message}
         {...register('letterPaper', { setValueAs: (v: string | null) => (v ? v : null) })}
       >
