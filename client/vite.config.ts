@@ -46,7 +46,7 @@ export default defineConfig(({ command }) => ({
     react(),
     tailwindcss(),
     // The starting frame (brand, "Loading Loadline…", the standing caution) in the page itself, shown
-    // before any script has run; React replaces it on its first render (issue 17, first load).
+    // before any script has run; React replaces it on its first render (a fast first load on a slow phone).
     {
       name: 'loadline-starting-shell',
       transformIndexHtml: (html) => html.replace('<div id="root"></div>', `<div id="root">${startingShellHtml()}</div>`),
@@ -90,7 +90,7 @@ export default defineConfig(({ command }) => ({
   resolve: {
     // React Router 7 names only its development build in its package exports (remix-run/react-router
     // issues 12532 and 14102), so a production bundle carried its developer warnings. Its production
-    // build, shipped beside it, is the same code with them off (issue 17, first load).
+    // build, shipped beside it, is the same code with them off (a fast first load on a slow phone).
     alias:
       command !== 'build'
         ? []
@@ -113,12 +113,12 @@ export default defineConfig(({ command }) => ({
       preserveEntrySignatures: false,
       // The shared rules and schemas only define things: a screen that uses one schema need not load
       // every schema file the barrel (policies/schemas/index.ts) names. Zod's calls at the top of those
-      // files look like side effects to the bundler, which would otherwise keep them all (issue 17).
+      // files look like side effects to the bundler, which would otherwise keep them all (small first load).
       treeshake: { moduleSideEffects: [{ test: /[\\/]policies[\\/].*\.ts$/, sideEffects: false }] },
       output: {
         // React and the router change less often than our code and every screen needs them: a chunk of
         // their own stays cached across releases. Other libraries are not grouped, so each one (charts,
-        // the table, forms) goes with the lazily loaded screens that use it (issue 17, first load).
+        // the table, forms) goes with the lazily loaded screens that use it (a small first load).
         codeSplitting: {
           // Common chunks under 12 kB (before minifying) are copied into the chunks that use them rather
           // than fetched on their own: the athlete's home went from 48 files to 11, each a round trip

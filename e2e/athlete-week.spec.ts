@@ -7,7 +7,7 @@ import { contextOptions, isoDay } from './plan-helpers';
 import { apiWrite } from './uploads-helpers';
 
 /**
- * Issue 13 §6, "the athlete's week looks ahead and logs from the plan": an athlete of this spec's own
+ * The athlete's week looks ahead and logs from the plan: an athlete of this spec's own
  * (invited fresh with their own coach and clinician, so nothing another spec reads is touched) reads
  * pounds, is Limited with a stage from today to the day after tomorrow (lifting from the floor up to
  * 45 kg, no jumping), and has a published session today and one in four days. In My week they see

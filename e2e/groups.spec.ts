@@ -2,8 +2,8 @@ import { expect, test } from '@playwright/test';
 import { DEMO, signIn } from './helpers';
 
 /**
- * Issue 14 §1 in the browser: an admin makes a group of demo athletes from the Groups page, edits its
- * members and archives it. The group has no coach, so no one's access changes for the other tests.
+ * Team programming's groups in the browser: an admin makes a group of demo athletes from the Groups page,
+ * edits its members and archives it. The group has no coach, so no one's access changes for the other tests.
  */
 test('an admin creates a group of demo athletes, changes its members and archives it', async ({ page }, testInfo) => {
   const name = `Outfield ${testInfo.project.name} ${Date.now().toString(36)}`;

@@ -2,9 +2,9 @@ import { expect, test } from '@playwright/test';
 import { DEMO, expectNoSidewaysScroll, signIn } from './helpers';
 
 /**
- * Issue 15 §3 in the browser: Dana (admin) reads Harbor Point's season injury report — totals with
- * intervals, the chart, a breakdown with small rows withheld, the CSV — and Theo records a practice for
- * the softball infield in one step, unticking an absent athlete.
+ * The injury report (IOC consensus, Bahr et al. 2020) in the browser: Dana (admin) reads Harbor Point's
+ * season injury report — totals with intervals, the chart, a breakdown with small rows withheld, the CSV —
+ * and Theo records a practice for the softball infield in one step, unticking an absent athlete.
  */
 test("an admin reads the season's injury report with small rows withheld and downloads the CSV", async ({ page }) => {
   await signIn(page, DEMO.admin.email);

@@ -11,7 +11,7 @@ const HINGE_50 =
   'Lifting things from the floor or bending forward at the hips: weights no heavier than half of the most that can be lifted once.';
 
 /**
- * Letters never go stale (issue 13, section 5): Priya signs a Limited letter for an athlete of this
+ * Letters never go stale: Priya signs a Limited letter for an athlete of this
  * spec's own (invited fresh, so no other spec's letters or plans are touched), then tightens the plan.
  * The letter in force reads "Out of date"; one click opens the updated letter filled in from the plan
  * now in force; signing it replaces the old letter and the mark is gone. Desktop only: the plan editor

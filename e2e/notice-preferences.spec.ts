@@ -8,11 +8,11 @@ import { BROWSER_ZONE, contextOptions, isoDay } from './plan-helpers';
 import { apiWrite } from './uploads-helpers';
 
 /**
- * Issue 13 §4 in the browser, with people of its own (nothing another spec reads is touched): Dana
- * (the demo admin) invites a 16-year-old athlete, a clinician and the athlete's guardian; the
- * clinician writes a plan through the API. The guardian, on a phone, reads it in plain words on the
- * Notices page — no "hinge", no "RPE" — and switches the e-mail copy of plan changes off there; the
- * emergency kind shows as fixed. The athlete reads the same plan addressed to them.
+ * Everyone hears every change, in the browser, with people of its own (nothing another spec reads is
+ * touched): Dana (the demo admin) invites a 16-year-old athlete, a clinician and the athlete's guardian; the
+ * clinician writes a plan through the API. The guardian, on a phone, reads it in plain words on the Notices
+ * page — no "hinge", no "RPE" — and switches the e-mail copy of plan changes off there; the emergency kind
+ * shows as fixed. The athlete reads the same plan addressed to them.
  */
 
 test.skip(({ isMobile }) => isMobile, 'one flow over its own records; the guardian’s and the athlete’s phones open inside it');

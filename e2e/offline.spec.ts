@@ -17,11 +17,10 @@ import { isoDay } from './plan-helpers';
 import { TIER_HEADINGS } from '../policies/red-flags';
 
 /**
- * Phone first (issue 17, part 2): the app installs from Chromium, a session logged without signal is
- * kept on the phone and arrives once when the connection returns, the athlete's page reads from the
- * last visit marked with when it was updated, and emergency answers made offline show the
- * stop-and-get-care screen at once. Each test invites an athlete of its own, so no other spec sees
- * what it logs.
+ * Phone first (the app works without signal): the app installs from Chromium, a session logged without signal
+ * is kept on the phone and arrives once when the connection returns, the athlete's page reads from the last
+ * visit marked with when it was updated, and emergency answers made offline show the stop-and-get-care screen
+ * at once. Each test invites an athlete of its own, so no other spec sees what it logs.
  */
 
 /** Until the service worker is active and controls the page, a reload without signal has nothing to load. */

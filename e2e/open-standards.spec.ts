@@ -7,7 +7,7 @@ import { DEMO, HOME_HEADING, expectHome, signIn } from './helpers';
 import { BROWSER_ZONE, contextOptions } from './plan-helpers';
 
 /**
- * Issue 16 §3 in the browser: records leave in open standards.
+ * Records leave in open standards (iCalendar, RFC 5545; HL7 FHIR R4), in the browser.
  *
  * Maya turns on her private calendar feed on her account page; the address it shows serves an
  * iCalendar file (RFC 5545) that a separate parser (ical.js) reads, with her stage dates and without

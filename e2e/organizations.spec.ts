@@ -3,7 +3,7 @@ import pg from 'pg';
 import { SLOW_HASH_MS, createInvitation, expectHome, expectNoSidewaysScroll, keepScreenshot, uniqueEmail } from './helpers';
 
 /**
- * Organizations start themselves (issue 16 §1): the public page, the confirmation e-mail (read from the
+ * Organizations start themselves: the public page, the confirmation e-mail (read from the
  * fake SMTP server's mailbox), the first admin signing in; and one person in two organizations,
  * switching between them, with nothing of one visible in the other. Every organization and person
  * here is the test's own, so no demo account gains a second organization.

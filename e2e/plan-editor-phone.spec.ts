@@ -15,8 +15,9 @@ import { fillStageDates, isoDay, newPhonePage, setPattern, stageFieldset } from 
 /**
  * The restriction-plan editor on a 375 px phone shows the patterns a stage limits, each with its
  * controls, and lists the rest in one line as "no limit"; drawing all thirteen patterns made the page
- * about 9,700 px tall (issue 13). A clinician brings another movement in with "Add a limit for another movement"
- * and the plan saves it. Uses an athlete of its own, so no other spec's plan changes.
+ * about 9,700 px tall, far too long to work in on a phone. A clinician brings another movement in with
+ * "Add a limit for another movement" and the plan saves it. Uses an athlete of its own, so no other
+ * spec's plan changes.
  */
 
 /**

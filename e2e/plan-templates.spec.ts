@@ -7,7 +7,7 @@ import { BROWSER_ZONE, contextOptions, isoDay, stageFieldset } from './plan-help
 import { apiWrite } from './uploads-helpers';
 
 /**
- * Issue 15 §2 in the browser: plan templates. Priya (a demo clinician) saves a plan of her own as a
+ * Plan templates in the browser. Priya (a demo clinician) saves a plan of her own as a
  * template and finds it in the organization's list with its version and author, beside the demo's
  * two; Marcus (the other demo clinician) may copy it but not change it — the page offers no edit and
  * the server refuses one; then Priya starts a new plan from it for another case, the stages dated

@@ -3,7 +3,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { DEMO, expectHome, expectNoSidewaysScroll, keepScreenshot, signIn } from './helpers';
 
 /**
- * Issue 16 §2 in the browser: Dana, the demo admin, downloads the roster template, checks a file with
+ * Bringing a roster, in the browser: Dana, the demo admin, downloads the roster template, checks a file with
  * two problems (a bad e-mail, a minor without a guardian), fixes it, imports it through the server's
  * queue (after a reload between the check and the import), and imports the same file again, which
  * changes nothing. The people are this run's own (unique e-mails and names) and have no coach,

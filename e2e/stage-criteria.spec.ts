@@ -7,7 +7,7 @@ import { apiWrite } from './uploads-helpers';
 import { pickScore } from './athlete-helpers';
 
 /**
- * Issue 15 §1 in the browser: exit criteria of a plan's stage.
+ * Exit criteria of a plan's stage (criteria-based progression), in the browser.
  *
  * First, on the demo as loaded (read only, so any other spec can rely on it): Maya's "Settle" stage has
  * its criteria part met — Priya's bending check done, Maya's readiness not yet — and each person reads

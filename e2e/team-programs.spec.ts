@@ -8,7 +8,7 @@ import { BROWSER_ZONE, contextOptions, isoDay } from './plan-helpers';
 import { apiWrite } from './uploads-helpers';
 
 /**
- * Issue 14, the coach's side of team programming in the browser. The spec owns its people: a coach,
+ * The coach's side of team programming in the browser. The spec owns its people: a coach,
  * a clinician and a squad of eight athletes made by SQL in the demo organization (no other spec reads
  * them), two of them restricted by the clinician — deadlift (hinge) capped at 60 % of 1RM, and sprinting
  * blocked. The coach writes one squad session, reviews the grid (the capped athlete "Fitted", the

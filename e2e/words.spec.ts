@@ -2,7 +2,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { DEMO, HOME_HEADING, expectHome, signIn } from './helpers';
 
 /**
- * Loadline's own words on the pages people read (issue 13 section 7): audit entries as sentences,
+ * Loadline's own words on the pages people read: audit entries as sentences,
  * dates as "Thu 3 Dec 2026" (never YYYY-MM-DD in visible text), and labels in the trade's plain words.
  */
 const ISO_DATE = /\d{4}-\d{2}-\d{2}/;

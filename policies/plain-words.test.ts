@@ -31,7 +31,7 @@ function everyFamilyText(): string[] {
   return texts;
 }
 
-describe('plain words for families (issue 13 §4)', () => {
+describe('plain words for families (everyone hears every change, in their own words)', () => {
   it('common practice: no family text holds a word of the trade (hinge, RPE, 1RM, rotation, sets, reps, %, …)', () => {
     const texts = everyFamilyText();
     expect(texts.length).toBeGreaterThan(MOVEMENT_PATTERNS.length * CAP_KEYS.length * 2);
@@ -50,7 +50,7 @@ describe('plain words for families (issue 13 §4)', () => {
     expect(jargonIn('Loadline: a representative will settle it, the clinician set out what is allowed')).toEqual([]);
   });
 
-  it('every pattern has its own words, and the blocked hinge reads as the issue asks', () => {
+  it('every pattern has its own words, and the blocked hinge reads in the plain words the product sets for it', () => {
     for (const p of MOVEMENT_PATTERNS) expect(PLAIN_PATTERNS[p].activity.length).toBeGreaterThan(5);
     expect(plainPatternLimit('hinge', { mode: 'blocked' }, 'kg')).toBe(
       'No lifting heavy things from the floor or bending forward with weight.',

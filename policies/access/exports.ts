@@ -2,7 +2,7 @@ import { hasRole } from './actor';
 import type { RuleSet } from './builder';
 
 /**
- * Records leaving in open standards (issue 16 §3).
+ * Records leaving in open standards (iCalendar, RFC 5545; HL7 FHIR R4).
  * - CalendarFeed: a member's own private iCalendar feed. Athletes (their sessions and stages), coaches
  *   (their athletes' sessions) and guardians (the sessions of the athletes they are linked to, with no
  *   limits) turn one on, read its state and turn it off — only their own. Clinicians and admins have

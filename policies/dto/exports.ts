@@ -1,4 +1,4 @@
-/** A member's private calendar feed (issue 16 §3). The URL holds a secret and is shown only when made. */
+/** A member's private calendar feed (iCalendar, RFC 5545). The URL holds a secret and is shown only when made. */
 export interface CalendarFeedDto {
   on: boolean;
   /** When the live address was made (ISO instant), or null when the feed is off. */

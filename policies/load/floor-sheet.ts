@@ -7,7 +7,7 @@ import type { FitState } from './team-fit-types';
 import { formatLoad, toUnit } from './units';
 
 /**
- * The floor sheet (issue 14 §6): one row per athlete of a group for one team session, with each
+ * The floor sheet of team programming: one row per athlete of a group for one team session, with each
  * athlete's own loads in their own unit and, for barbell sets, the plates to put on each side — the
  * page a coach tapes to the rack. Pure formatting, shared by the PDF and the CSV (both built on the
  * server from the same rows, so they cannot disagree).

@@ -5,9 +5,9 @@ import { DEFAULT_PAIN_CEILING } from './patterns';
 const kinds = (r: ReturnType<typeof evaluatePain>) => r.flags.map((f) => f.kind);
 
 // Source of every check below unless said otherwise: Silbernagel et al. 2007, AJSM 35:897–906, the
-// pain-monitoring model (REFERENCES.md §6: the conditions confirmed, the thresholds secondary). Its title,
-// "Continued sports activity, using a pain-monitoring model, during rehabilitation in patients with
-// Achilles tendinopathy", is quoted from memory.
+// pain-monitoring model (the conditions confirmed against the paper, the thresholds from secondary sources).
+// Its title, "Continued sports activity, using a pain-monitoring model, during rehabilitation in patients
+// with Achilles tendinopathy", is quoted from memory.
 describe('pain-monitoring model (Silbernagel et al. 2007, AJSM 35:897–906; thresholds confirmed only through a reproduction)', () => {
   it('the default ceiling and the model ceiling are both 5 (Silbernagel et al. 2007)', () => {
     expect(DEFAULT_PAIN_CEILING).toBe(5);

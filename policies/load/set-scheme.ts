@@ -1,8 +1,8 @@
 import type { PlannedSetInput } from '../schemas/programs';
 
 /**
- * Quick set entry: "3 × 5 @ 75 %" → three planned sets. Our own small grammar (issue 14), shared by the
- * session editor and anything else that takes a scheme. Spaces are allowed between any two tokens and
+ * Quick set entry: "3 × 5 @ 75 %" → three planned sets. Our own small grammar (team programming), shared by
+ * the session editor and anything else that takes a scheme. Spaces are allowed between any two tokens and
  * letters may be in any case.
  *
  *   scheme    = group , { ( "," | "+" ) , group } ;

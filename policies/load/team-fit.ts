@@ -12,7 +12,7 @@ import { allReadable, asWrittenContent, counts, engineSetsOf, loadsFor, newRow, 
 import { oneRmFor } from './team-fit-support';
 
 /**
- * One athlete's version of a team session (team programming, issue 14). The team session is resolved
+ * One athlete's version of a team session (team programming). The team session is resolved
  * against the athlete's baselines (% of 1RM → a load on the exercise's steps; not a change) and then
  * checked by the compliance engine on its date, with the athlete's other published sets of the same
  * weeks counted toward weekly limits. Each set the engine blocks is fitted, in this order:

@@ -5,7 +5,7 @@ import { MOVEMENT_PATTERNS, STATUS_LABELS, type ParticipationStatus } from '../l
 import type { Unit } from '../schemas/common';
 
 /**
- * The words of a private calendar feed (issue 16 §3). A feed leaves the app for a phone's calendar
+ * The words of a private calendar feed (iCalendar, RFC 5545). A feed leaves the app for a phone's calendar
  * and whatever service syncs it, so it carries the session and what is limited that day — the
  * engine's own words (day-words.ts, describe.ts) — and never a diagnosis, a body region, a pain
  * report or a note. Every entry ends by pointing back to the app, which stays the record.

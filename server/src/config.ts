@@ -59,8 +59,9 @@ const ConfigSchema = z.object({
     .max(24 * 14)
     .default(72),
   /**
-   * Whether anyone may start an organization from the public page (issue 16). `closed` for a private
-   * installation: the page says so, the sign-up routes answer 404, and operators use `npm run org:create`.
+   * Whether anyone may start an organization from the public page (organizations start themselves).
+   * `closed` for a private installation: the page says so, the sign-up routes answer 404, and operators
+   * use `npm run org:create`.
    */
   ORG_SIGNUP: z.enum(['open', 'closed']).default('open'),
   /** A sign-up's confirmation link works once and for this many hours. */

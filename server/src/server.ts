@@ -50,7 +50,7 @@ export async function startServer(config: Config, logger: Logger): Promise<Runni
       // Copies of a person's whole record (services/record-export-job.ts), built one at a time.
       const exportDeps = { ds, config, logger, jobs, storage: createStorage(config) };
       await jobs.workRecordExports((job, lastTry) => buildRecordExport(exportDeps, job.exportId, lastTry));
-      // Roster imports (issue 16 §2): batches between which this process keeps serving requests.
+      // Roster imports from a CSV: batches between which this process keeps serving requests.
       const workerDeps = { ds, config, logger, jobs, storage: createStorage(config) };
       await jobs.workRosterImports((job) => runRosterImport(workerDeps, job.importId));
       // Sign-ups never confirmed are deleted a week after their link expired (GDPR Art. 5(1)(e)).

@@ -5,10 +5,10 @@ import { RootLayout, StartingUp } from './layout/RootLayout';
 import { HomeRedirect } from './routes/home-redirect';
 
 /**
- * Every screen but the outer frame is loaded when first visited (issue 17, first load): the sign-in
- * page and each role's home fetch only their own code, and the heavy parts (charts, the clip player,
- * the plan editor, the program builder) come with the screens that use them. The router loads a
- * route's code before it renders it, so a navigation keeps the current screen until the next is ready.
+ * Every screen but the outer frame is loaded when first visited (a fast first load on a slow phone): the
+ * sign-in page and each role's home fetch only their own code, and the heavy parts (charts, the clip player,
+ * the plan editor, the program builder) come with the screens that use them. The router loads a route's code
+ * before it renders it, so a navigation keeps the current screen until the next is ready.
  */
 function page<M extends Record<string, unknown>>(load: () => Promise<M>, name: keyof M & string): RouteObject['lazy'] {
   return async () => ({ Component: (await load())[name] as ComponentType });

@@ -2,7 +2,7 @@ import { useId } from 'react';
 import { CLINICIAN_RECORD_CAUTION, PAIN_CEILING_CAUTION, TEAM_RECORD_CAUTION, type Caution } from '../../../policies/cautions';
 import { WARNING_TIERS } from '../../../policies/red-flags';
 
-// In a file of its own so the frame of every page does not load the warning signs with it (issue 17).
+// In a file of its own so the frame of every page does not load the warning signs (a small first load).
 export { CareCaution } from './CareCaution';
 
 /**

@@ -11,7 +11,7 @@ export interface LazyResolver<Input extends FieldValues, Output> {
  * A shared schema's form check (the same zod schema the server validates with, through the same
  * zodResolver) that is fetched with the first check rather than with the page. Zod and the schema
  * are a quarter of the sign-in page's code and nothing on it needs them before someone types
- * (issue 17, first load).
+ * (a fast first load on a slow phone).
  *
  * When the check cannot be fetched (the connection dropped after the page loaded), the form is let
  * through unchecked: the server checks the same schema and its answer names the field and the problem

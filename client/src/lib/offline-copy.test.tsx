@@ -7,9 +7,9 @@ import { clearOfflineCopies, installOfflineCopy, oldestCopyShown } from './offli
 import { sessionQueryKey } from './query-client';
 
 /**
- * The athlete's offline copy across days (issue 17 §2): opened without signal on a later day than it
- * was saved, the copy is still shown, marked with when it was last updated and that today's view may
- * be out of date — it neither vanishes nor poses as today's.
+ * The athlete's offline copy across days (phone first: the app works without signal): opened without signal
+ * on a later day than it was saved, the copy is still shown, marked with when it was last updated and that
+ * today's view may be out of date — it neither vanishes nor poses as today's.
  */
 const ORG = 'org-1';
 const ATHLETE = 'athlete-membership-1';

@@ -37,8 +37,9 @@ function namesAthlete(key: QueryKey, athleteIds: Set<string>): boolean {
 /**
  * Many copied queries are keyed by a day (today's sessions, what is in force on a date, the week from
  * today, a range of logs). On a later day the screen asks for a new key; the copy of the latest earlier
- * day is shown in its place, marked with when it was saved, rather than nothing (issue 17 §2). A few
- * days per kind of query are kept, so the copy does not grow with every day the app is opened.
+ * day is shown in its place, marked with when it was saved, rather than nothing (phone first: the app
+ * works without signal). A few days per kind of query are kept, so the copy does not grow with every
+ * day the app is opened.
  */
 const DAYS_KEPT_PER_KIND = 3;
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;

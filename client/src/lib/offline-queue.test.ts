@@ -12,10 +12,10 @@ import {
 import { ApiError } from './api-client';
 
 /**
- * The phone's outbox (issue 17 §2), driven through the real API client against a fake server in place
- * of fetch: kept in order when there is no signal, each with one Idempotency-Key for all its tries
- * (draft-ietf-httpapi-idempotency-key-header), a refusal on arrival kept with its reason until the
- * athlete acts, server faults and lost connections tried again later, and nothing lost on a reload.
+ * The phone's outbox (phone first: the app works without signal), driven through the real API client against
+ * a fake server in place of fetch: kept in order when there is no signal, each with one Idempotency-Key for
+ * all its tries (draft-ietf-httpapi-idempotency-key-header), a refusal on arrival kept with its reason until
+ * the athlete acts, server faults and lost connections tried again later, and nothing lost on a reload.
  */
 const USER = 'user-1';
 const ORG = 'org-1';

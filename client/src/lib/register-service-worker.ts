@@ -9,7 +9,7 @@ export interface ScreenState {
  * installed it fetches every screen's files to keep them (about 1.8 MB): registered at once, that
  * download and its own script shared a slow connection with the first screen's files. It is registered
  * once the page has loaded, the screen asked for is shown and the browser is idle instead, as web.dev's
- * "Service worker registration" advises (issue 17, first load); a later visit is served by it as before.
+ * "Service worker registration" advises (a fast first load); a later visit is served by it as before.
  */
 export function registerServiceWorkerWhenIdle(register: () => void, screen: ScreenState, win: Window = window): void {
   let done = false;

@@ -8,7 +8,7 @@ import { CalendarFeed } from '../entities';
 import { hashToken } from '../services/invitations';
 
 /**
- * A member's private calendar feed (issue 16 §3). Turning it on makes a 256-bit token, keeps only its
+ * A member's private calendar feed (iCalendar, RFC 5545). Turning it on makes a 256-bit token, keeps only its
  * SHA-256 and answers the address once; turning it on again makes a new address and ends the old one
  * (for a link that was shared by mistake). Turning it off ends the address at once: the feed answers
  * 404. Neither changes anything an athlete may do.

@@ -8,7 +8,7 @@ import { CaseRecord } from '../entities';
 import { caseBundle, type FhirCaseInput } from '../services/fhir-case-bundle';
 
 /**
- * Download a case as a FHIR R4 Bundle (issue 16 §3), for a clinician on the athlete's care team to
+ * Download a case as an HL7 FHIR R4 Bundle, for a clinician on the athlete's care team to
  * take into a health record. A read, but recorded: the file carries the diagnosis, the pain reports
  * and the signed letter out of the app. Another team's case answers 404, like every record.
  */

@@ -10,10 +10,10 @@ import { createOrg } from '../test/factories';
 import { LimitsNotReported, runOrgCommand } from './run';
 
 /**
- * Issue 11 §2, proven from the route table: every route that can change what an athlete may do runs a
- * command declared as changing limits (marked `!`), and the runner refuses to commit such a command
- * unless it reported through the one path (commands/limits.ts). A new route that changes limits
- * without declaring it shows here as a diff to review.
+ * One path for every change to limits, proven from the route table: every route that can change what an
+ * athlete may do runs a command declared as changing limits (marked `!`), and the runner refuses to commit
+ * such a command unless it reported through the one path (commands/limits.ts). A new route that changes
+ * limits without declaring it shows here as a diff to review.
  */
 describe('the one "limits changed" path', () => {
   const h = useHarness();

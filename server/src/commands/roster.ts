@@ -15,11 +15,12 @@ import { AppError } from '../core/errors';
 import { applyRosterRow, loadRosterState, parseRosterCsv } from '../services/roster';
 
 /**
- * Bringing a roster (issue 16 §2). An admin uploads a CSV; the preview checks every row (policies/roster.ts)
- * against the organization and stores the checked rows, writing nothing else. Starting the import queues
- * one background job (services/roster-import-job.ts), which runs `importRosterBatch` until every row is
- * done: each batch is one transaction, planned again against the database as it is then, so importing
- * the same file twice changes nothing. Roster imports are the admin's: whoever may invite may import.
+ * Bringing a roster (a CSV of people, checked before anything is written). An admin uploads a CSV; the
+ * preview checks every row (policies/roster.ts) against the organization and stores the checked rows, writing
+ * nothing else. Starting the import queues one background job (services/roster-import-job.ts), which runs
+ * `importRosterBatch` until every row is done: each batch is one transaction, planned again against the
+ * database as it is then, so importing the same file twice changes nothing. Roster imports are the admin's:
+ * whoever may invite may import.
  */
 
 /** Rows per transaction: small enough that no request waits long on the rows a batch locks. */

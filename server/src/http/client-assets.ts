@@ -7,10 +7,10 @@ import express, { type Express, type RequestHandler } from 'express';
 const YEAR = 31_536_000;
 
 /**
- * Serves the built client (issue 17, first load). Files under /assets carry a content hash in their
- * names, so a browser may keep them for a year without asking again: a release makes new names. The
- * page itself (index.html, which names those files) and anything else in the folder are asked for again
- * each time (`no-cache`: a conditional request, a 304 when unchanged), so a release is seen at once.
+ * Serves the built client (a fast first load on a slow phone). Files under /assets carry a content hash in
+ * their names, so a browser may keep them for a year without asking again: a release makes new names. The
+ * page itself (index.html, which names those files) and anything else in the folder are asked for again each
+ * time (`no-cache`: a conditional request, a 304 when unchanged), so a release is seen at once.
  *
  * Text goes out compressed, brotli when the browser offers it, else gzip (the `compression` package,
  * which honours Accept-Encoding and sets Vary); fonts, images and already-compressed files are left as
@@ -63,7 +63,7 @@ function offersBrotli(header: string | undefined): boolean {
  * The build writes each script and style sheet also as brotli at its highest quality, 11
  * (client/vite.config.ts): a few kB smaller than the quality the `compression` package uses on the fly,
  * and no compressing per request. A browser that offers brotli gets that file, with the original's type
- * and cache lifetime; any other request goes on to the usual path (issue 17, first load).
+ * and cache lifetime; any other request goes on to the usual path (fewer bytes for the first load).
  */
 function prebuiltBrotli(clientDist: string): RequestHandler {
   const prebuilt = new Set(

@@ -1,9 +1,9 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * A log made from a planned session names it (issue 13 §6: "Log this session"), so the care team can
- * set what was done beside what was planned. Nullable: logs of unplanned training, and every log
- * before this column, have no session. A session that is deleted leaves the log (it happened) and
+ * A log made from a planned session names it (the athlete's week logs from the plan: "Log this session"), so
+ * the care team can set what was done beside what was planned. Nullable: logs of unplanned training, and
+ * every log before this column, have no session. A session that is deleted leaves the log (it happened) and
  * clears the link.
  */
 export class AddTrainingLogSession1765836000000 implements MigrationInterface {

@@ -1,8 +1,9 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Stage criteria (issue 15 part 1). The criteria themselves live inside each stage of a plan version
- * (restriction_plan_versions.stages, JSON), so they are versioned with the plan. Here:
+ * Stage criteria (criteria-based progression; Bern consensus, Ardern et al. 2016). The criteria themselves
+ * live inside each stage of a plan version (restriction_plan_versions.stages, JSON), so they are versioned
+ * with the plan. Here:
  * - stage_criterion_readings: what the clinician assessed for one criterion (value or yes/no, note)
  *   and the athlete's readiness ratings (0–10), each dated and tied to the plan's stage id;
  * - stage_decisions: each move to the next stage, a shared decision with who agreed, how many days

@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Plan templates (issue 15, part 2): a restriction plan's stages written as days from the plan's
+ * Plan templates: a restriction plan's stages written as days from the plan's
  * start, shared by the organization's clinicians. `stages` holds each stage whole (limits, pain
  * ceiling, label, exit criteria) with `startOffset`/`endOffset`/`reviewOffset` in place of its id and
  * dates (policies/load/plan-template.ts). The author is a membership, because the access rules compare

@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Why: organizations start themselves (issue 16). An organization records its country, and a public
+ * Why: organizations start themselves, from a public page. An organization records its country, and a public
  * sign-up waits in `organization_signups` until its first admin confirms the e-mail address: the
  * organization is created only then. Old organizations keep no country (null).
  */

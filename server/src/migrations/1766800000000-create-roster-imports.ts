@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Bringing a roster (issue 16 §2): one row per uploaded CSV. The checked rows are kept as JSON from the
+ * Bringing a roster from a CSV: one row per uploaded CSV. The checked rows are kept as JSON from the
  * preview until the background job has imported them, so the import works on exactly the file the
  * admin previewed; `processed` is how far the job got, so a retried job resumes instead of starting over.
  */

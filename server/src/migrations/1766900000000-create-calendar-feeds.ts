@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Private calendar feeds (issue 16 §3): an athlete or coach subscribes a phone calendar to an
+ * Private calendar feeds (iCalendar, RFC 5545): an athlete or coach subscribes a phone calendar to an
  * iCalendar URL holding a secret token. Only the token's SHA-256 is kept, so a copy of the database
  * cannot be used to read anyone's feed; the URL is shown once, when the feed is turned on. Turning it
  * off (or making a new URL) stamps `revoked_at` rather than deleting, so the audit trail's entries keep

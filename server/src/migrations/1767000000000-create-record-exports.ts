@@ -1,12 +1,12 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * A person's whole record (issue 16, part 3): one row per request. The ZIP is built by a pg-boss job
- * (so a crash between request and build loses nothing) and kept in object storage under
- * `storage_key`; the e-mailed link's secret is stored only as its SHA-256 (`token_hash`), like reset
- * tokens, and works until `expires_at`. `requested_by` is the user who asked: only they download it.
- * `athlete_id` is the athlete membership the record is about (the requester's own, or a guardian's
- * minor). Requests are counted per requester over a day (the rate limit reads `created_at`).
+ * A person's whole record, exported on request (GDPR Art. 15 and 20): one row per request. The ZIP is built
+ * by a pg-boss job (so a crash between request and build loses nothing) and kept in object storage under
+ * `storage_key`; the e-mailed link's secret is stored only as its SHA-256 (`token_hash`), like reset tokens,
+ * and works until `expires_at`. `requested_by` is the user who asked: only they download it. `athlete_id` is
+ * the athlete membership the record is about (the requester's own, or a guardian's minor). Requests are
+ * counted per requester over a day (the rate limit reads `created_at`).
  */
 export class CreateRecordExports1767000000000 implements MigrationInterface {
   name = 'CreateRecordExports1767000000000';

@@ -12,9 +12,9 @@ import { memberNames } from './members';
 import { isReviewed, teamSessionFor } from './team-programs';
 
 /**
- * The floor sheet of one team session (issue 14 §6): every active athlete of the group, each with
- * their own version's sets in their own unit (users.unit_pref), plates per side for barbell sets, and
- * the fitting's mark. Read through the group's rule (services/team-access.ts): admins, the group's
+ * The floor sheet of one team session (the page a coach tapes to the rack): every active athlete of the
+ * group, each with their own version's sets in their own unit (users.unit_pref), plates per side for barbell
+ * sets, and the fitting's mark. Read through the group's rule (services/team-access.ts): admins, the group's
  * coaches, and the clinicians of its athletes; anyone else is told it was not found.
  */
 export interface FloorSheetData extends FloorSheet {

@@ -108,7 +108,7 @@ describe('the demo scenario', () => {
     expect(holds).toEqual([{ title: 'Lower body (light hinge)' }]);
   });
 
-  it("shows Maya's stage criteria part met: the clinician's check done, her readiness not yet (issue 15)", async () => {
+  it("shows Maya's stage criteria part met: the clinician's check done, her readiness not yet (a shared decision, Bern consensus)", async () => {
     await load();
     const maya = await member('maya.torres');
     const readings = await h.ds.query(

@@ -11,8 +11,8 @@ import { signedIn, useHarness, type Client } from '../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../test/factories';
 
 /**
- * Issue 13 §4: a status change and a new plan version reach the athlete, their coaches and a minor's
- * guardians — in the app and by e-mail through the real queue and the fake SMTP server — each in
+ * Everyone hears every change: a status change and a new plan version reach the athlete, their coaches and a
+ * minor's guardians — in the app and by e-mail through the real queue and the fake SMTP server — each in
  * their own words; each person's e-mail choice is respected, and emergencies always go.
  */
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' }, { mail: true });

@@ -6,9 +6,9 @@ import { MOVEMENT_PATTERNS, PATTERN_LABELS } from '../../../policies/load/patter
 import type { Unit } from '../../../policies/schemas/common';
 
 /**
- * A case as a FHIR R4 Bundle (issue 16 §3) for the clinician's health record. Pure: the command loads
+ * A case as an HL7 FHIR R4 Bundle for the clinician's health record. Pure: the command loads
  * the rows, this lays them out. The resources are kept minimal (what the record needs to place the
- * case, nothing the clinician did not write); shared/REFERENCES.md §12 lists the rules followed:
+ * case, nothing the clinician did not write); the rules of FHIR R4 and LOINC followed:
  * - pain reports: Observation, LOINC 72514-3 "Pain severity - 0-10 verbal numeric rating [Score] -
  *   Reported", valueInteger 0–10 (anything else is refused here, never sent);
  * - the injury: Condition; with an abatement date, clinicalStatus is resolved (invariant con-4);
@@ -73,7 +73,7 @@ function activityStatus(start: string, end: string, today: string): string {
   return 'in-progress';
 }
 
-/** A pain score as FHIR allows it: a whole number 0–10 (REFERENCES.md §12: 11 is refused). */
+/** A pain score as FHIR allows it: a whole number 0–10 (LOINC 72514-3, a 0–10 rating: 11 is refused). */
 export function painScore(n: number): number {
   if (!Number.isInteger(n) || n < 0 || n > 10) throw new RangeError(`a pain score is a whole number from 0 to 10, not ${n}`);
   return n;

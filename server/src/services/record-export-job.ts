@@ -1,8 +1,8 @@
 /**
- * The background half of a person's whole record (issue 16, part 3): read the record with the
- * requester's own rules, write the ZIP, store it, then record it, make its link and e-mail it in one
- * transaction (commands/record-exports.ts finishRecordExport). Run by pg-boss (jobs/queue.ts), so a
- * request survives a crash; a retried job for a request already finished does nothing.
+ * The background half of a person's whole record, exported on request (GDPR Art. 15 and 20): read the record
+ * with the requester's own rules, write the ZIP, store it, then record it, make its link and e-mail it in one
+ * transaction (commands/record-exports.ts finishRecordExport). Run by pg-boss (jobs/queue.ts), so a request
+ * survives a crash; a retried job for a request already finished does nothing.
  */
 import { randomUUID } from 'node:crypto';
 import { createReadStream } from 'node:fs';

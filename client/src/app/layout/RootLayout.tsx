@@ -64,7 +64,7 @@ function CautionFooter() {
 /**
  * While the first screen's code loads: the same frame and words as while the session loads, footer
  * included. index.html carries this same markup (starting-shell.ts), so it shows as soon as the page and
- * its style sheet arrive, before any script has run (issue 17, first load).
+ * its style sheet arrive, before any script has run (a fast first load on a slow phone).
  */
 export function StartingUp() {
   return (

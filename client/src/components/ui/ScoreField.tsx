@@ -2,7 +2,7 @@ import { Controller, type Control, type FieldPath, type FieldValues } from 'reac
 import { ScoreScale, type ScoreScaleProps } from './ScoreScale';
 
 // Apart from ScoreScale so that a screen showing a scale outside a form (the athlete's home) does not
-// load the form library with it (issue 17, first load).
+// load the form library with it (a fast first load on a slow phone).
 /** A ScoreScale bound to a react-hook-form field. */
 export function ScoreField<T extends FieldValues>({
   control,

@@ -5,7 +5,7 @@ import { addDays, pinClock, TODAY } from '../../test/worlds/test-world';
 import { DIAGNOSIS, feedWorld, fetchFeed, NOTES, parse } from '../../test/worlds/calendar-feed-world';
 
 /**
- * A guardian's own calendar feed (issue 16 §3 follow-up): the published sessions of each athlete they
+ * A guardian's own calendar feed: the published sessions of each athlete they
  * are linked to, titled with the athlete's first name, read back with ical.js as a calendar would
  * (RFC 5545 §3.6.1: UID and DTSTAMP on every VEVENT). What a guardian may see (PRODUCT.md, minimum
  * necessary): no diagnosis, note or pain report ever, and — since a family calendar is often shared

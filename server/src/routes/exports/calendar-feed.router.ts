@@ -8,7 +8,7 @@ import { limitStore } from '../../http/security';
 import { calendarFeedByToken, calendarFeedState } from '../../queries/calendar-feed';
 
 /**
- * The private calendar feed (issue 16 §3): a member turns theirs on (the answer holds the address,
+ * The private calendar feed (iCalendar, RFC 5545): a member turns theirs on (the answer holds the address,
  * once), reads whether it is on, and turns it off. The feed itself is public by address: a calendar
  * subscribes without a session, so the 256-bit token is the only key, kept hashed. Fetches are not
  * audited: calendars poll every hour or so and would drown the trail; turning on and off is.

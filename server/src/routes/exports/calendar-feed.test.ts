@@ -6,9 +6,9 @@ import { addDays, pinClock, programWorld, put, TODAY } from '../../test/worlds/t
 import { DIAGNOSIS, feedWorld, fetchFeed, NOTES, parse } from '../../test/worlds/calendar-feed-world';
 
 /**
- * The private calendar feed (issue 16 §3): written with `ics`, read back here with a separate parser
+ * The private calendar feed: written with `ics`, read back here with a separate parser
  * (ical.js) as a calendar would. RFC 5545 [confirmed: IETF] §3.6.1: every VEVENT has UID and DTSTAMP;
- * an all-day entry is DTSTART;VALUE=DATE with an exclusive DTEND (REFERENCES.md §16).
+ * an all-day entry is DTSTART;VALUE=DATE with an exclusive DTEND.
  */
 
 describe('the private calendar feed', () => {

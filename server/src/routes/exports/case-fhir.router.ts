@@ -3,7 +3,7 @@ import { downloadCaseFhir } from '../../commands/case-export';
 import { orgRoute, type RouteDef } from '../../http/route';
 
 /**
- * A case as a FHIR R4 Bundle (issue 16 §3): the clinician on the care team downloads it to bring the
+ * A case as an HL7 FHIR R4 Bundle: the clinician on the care team downloads it to bring the
  * case into a health record. An attachment, never cached, and audited (case.exported_fhir).
  */
 export const caseFhirRoutes: RouteDef[] = [

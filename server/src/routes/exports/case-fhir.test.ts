@@ -7,8 +7,8 @@ import { useHarness } from '../../test/harness';
 import { addDays, pinClock, programWorld, TODAY } from '../../test/worlds/test-world';
 
 /**
- * The FHIR R4 export of a case (issue 16 §3), validated with FHIR.js (`fhir` 4.12, R4 definitions)
- * and the rules of shared/REFERENCES.md §12: pain as LOINC 72514-3 [confirmed] with valueInteger
+ * The HL7 FHIR R4 export of a case, validated with FHIR.js (`fhir` 4.12, R4 definitions)
+ * and these rules of FHIR R4 and LOINC: pain as LOINC 72514-3 [confirmed] with valueInteger
  * 0–10 (11 refused); Condition invariant con-4 [confirmed]; restrictions as CarePlan.activity.detail
  * with doNotPerform and scheduledPeriod [secondary]; a date-only end is inclusive.
  */
@@ -117,7 +117,7 @@ describe('the FHIR R4 export of a case', () => {
 
   const download = (client: { get: (p: string) => any }, base: string, caseId: string) => client.get(`${base}/cases/${caseId}/fhir`);
 
-  it('gives the clinician a Bundle that FHIR R4 validates, with every part the issue names', async () => {
+  it('gives the clinician a Bundle that FHIR R4 validates, with patient, condition, pain reports, care plan, clinician and letter', async () => {
     const w = await world();
     const res = await download(w.clinician, w.base, w.caseId);
     expect(res.status, res.text).toBe(200);
@@ -249,7 +249,7 @@ describe('the Bundle builder, alone', () => {
     letters: [],
   };
 
-  it('refuses a pain score outside 0–10 (REFERENCES.md §12: 11 is rejected) rather than send it', () => {
+  it('refuses a pain score outside 0–10 (LOINC 72514-3, a 0–10 rating: 11 is rejected) rather than send it', () => {
     expect(painScore(0)).toBe(0);
     expect(painScore(10)).toBe(10);
     expect(() => painScore(11)).toThrow(RangeError);

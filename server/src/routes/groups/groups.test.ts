@@ -5,7 +5,7 @@ import { Client, signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
 import { put } from '../../test/worlds/test-world';
 
-/** Issue 14 §1: groups — who starts them, who keeps their membership, and that a group's coach sees its athletes. */
+/** Team programming, groups: who starts them, who keeps their membership, and that a group's coach sees its athletes. */
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 
 describe('groups', () => {

@@ -7,9 +7,9 @@ import { orgRoute, type RouteDef } from '../../http/route';
 import { injuryReport, listTeamSessionHours } from '../../queries/injury-report';
 
 /**
- * The injury report (issue 15 §3; policies/load/injury-report.ts) for admins and clinicians — aggregates
- * only, small cells suppressed — as JSON for the page and as CSV, and the team session hours a group's
- * coaches record as exposure.
+ * The injury report (IOC consensus, Bahr et al. 2020; policies/load/injury-report.ts) for admins and
+ * clinicians — aggregates only, small cells suppressed — as JSON for the page and as CSV, and the team
+ * session hours a group's coaches record as exposure.
  */
 const readReport = { kind: 'org', action: 'read', subject: 'InjuryReport' } as const;
 

@@ -4,7 +4,7 @@ import { Client, signedIn, useHarness } from '../../test/harness';
 import { createMember, createOrg, TEST_PASSWORD, type MemberRef, type TestOrg } from '../../test/factories';
 
 /**
- * Issue 15 §3: the injury report on the real database, with the worked example of the IOC consensus
+ * The injury report on the real database, with the worked example of the IOC consensus
  * definitions (Bahr et al. 2020, BJSM 54:372–389): 18 time-loss injuries and 270 days lost in
  * 12,000 exposure hours → 1.5 injuries and 22.5 days lost per 1,000 h (computed from the definitions).
  */

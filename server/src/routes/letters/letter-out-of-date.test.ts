@@ -5,7 +5,7 @@ import { useHarness } from '../../test/harness';
 import { letterKit, pinClock, type World } from '../../test/worlds/letter-fixtures';
 
 /**
- * Letters never go stale (issue 13, section 5): when the plan or status changes while a letter is in
+ * Letters never go stale: when the plan or status changes while a letter is in
  * force and its limits no longer match, the letter reads "out of date" to everyone who sees it, the
  * public check says a newer decision exists (nothing more), the care team's clinicians get a notice,
  * and the updated letter's form is filled in from what is in force now. The clock is pinned; the

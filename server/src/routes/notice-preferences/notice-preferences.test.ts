@@ -7,8 +7,9 @@ import { createOrg, TEST_PASSWORD, type TestOrg } from '../../test/factories';
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 
 /**
- * Each person's own e-mail choices (issue 13 §4): read and changed only by that person, refused
- * signed out and outside the organization, the change audited in the same transaction.
+ * Each person's own e-mail choices (everyone hears every change, the way they chose): read and
+ * changed only by that person, refused signed out and outside the organization, the change audited
+ * in the same transaction.
  */
 let org: TestOrg;
 let other: TestOrg;

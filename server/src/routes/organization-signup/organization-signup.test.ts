@@ -10,8 +10,8 @@ import { uniqueEmail, waitFor } from '../../test/worlds/account-security-fixture
 import { SIGNUP_CLOSED_MESSAGE } from './organization-signup.router';
 
 /**
- * Starting an organization from the public page (issue 16 §1), through HTTP on the real database, with
- * the confirmation e-mail going through the real queue to the fake SMTP server. ASVS 5.0 V6.3.8 (no
+ * Starting an organization from the public page, through HTTP on the real database, with the
+ * confirmation e-mail going through the real queue to the fake SMTP server. ASVS 5.0 V6.3.8 (no
  * account enumeration), V6.4.1 (one-time, short-lived links whose token is stored only as a hash).
  */
 

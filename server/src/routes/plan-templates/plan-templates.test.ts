@@ -5,7 +5,7 @@ import { signedIn, useHarness } from '../../test/harness';
 import { createOrg, TEST_PASSWORD } from '../../test/factories';
 import { planWorld, put, twoStages } from '../../test/worlds/plan-world';
 
-/** Issue 15 §2: plan templates — saved from a plan, shared, owned by their author, copied, and started from. */
+/** Plan templates: saved from a plan, shared, owned by their author, copied, and started from. */
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 const { world, openCase, newPlan } = planWorld(h);
 

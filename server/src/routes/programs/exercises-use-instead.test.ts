@@ -8,7 +8,7 @@ import { MONDAY, teamWorld } from '../../test/worlds/team-world';
 import { addDays, createOrg, pinClock, programWorld } from '../../test/worlds/test-world';
 
 /**
- * Issue 14 §3: "keep a 'use instead' relation in the library". An exercise names, in order, library
+ * Team programming keeps a "use instead" relation in the library. An exercise names, in order, library
  * exercises to use when it is not allowed; the team fitting tries them before dropping a set. The
  * starter relations are common practice (see DEFAULT_USE_INSTEAD), not a published rule.
  */

@@ -12,8 +12,9 @@ import pino from 'pino';
 import { CLINICAL_NOTE, DIAGNOSIS, OTHER_PERSON, PAIN_NARRATIVE, plantRecord } from '../../test/worlds/record-export-fixtures';
 
 /**
- * A person's whole record (issue 16, part 3): asked for over HTTP, built by the real pg-boss worker,
- * e-mailed through the real fake SMTP server, downloaded with the e-mailed code and unpacked here.
+ * A person's whole record, exported on request (GDPR Art. 15 and 20): asked for over HTTP, built by
+ * the real pg-boss worker, e-mailed through the real fake SMTP server, downloaded with the e-mailed
+ * code and unpacked here.
  */
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' }, { mail: true });
 const logger = pino({ level: 'silent' });

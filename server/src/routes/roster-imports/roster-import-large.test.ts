@@ -8,7 +8,7 @@ import { createStorage } from '../../storage';
 import { rosterCsv, upload, waitDone } from '../../test/worlds/roster-imports-fixtures';
 
 /**
- * Issue 16 §2: a 2,000-row roster imports in the background with progress, and the server keeps
+ * Bringing a large roster: a 2,000-row roster imports in the background with progress, and the server keeps
  * answering while it runs (batches of 25 rows, each its own transaction, the event loop free between).
  */
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' }, { mail: true });

@@ -7,7 +7,7 @@ import { runRosterImport } from '../../services/roster-import-job';
 import { receiveTextFile } from '../../storage/receive-text';
 
 /**
- * Bringing a roster (issue 16 §2): the template, the upload that answers with a preview (writing only
+ * Bringing a roster from a CSV: the template, the upload that answers with a preview (writing only
  * the import's own row), the start of the background import, and its progress. Admins only: the
  * route needs the right to invite, which only admins hold (policies/access/invitation.ts).
  */

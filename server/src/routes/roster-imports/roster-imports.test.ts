@@ -9,7 +9,7 @@ import { runRosterImport } from '../../services/roster-import-job';
 import { createStorage } from '../../storage';
 
 /**
- * Issue 16 §2, bringing the roster: the template, the preview that writes no people, the background
+ * Bringing the roster from a CSV: the template, the preview that writes no people, the background
  * import through the queue (pg-boss) with its invitations, the second import of the same file that
  * changes nothing, and an imported person accepting their invitation.
  */

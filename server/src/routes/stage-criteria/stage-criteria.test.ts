@@ -54,7 +54,7 @@ async function logSession(w: World, athleteId: string, date: string, painBefore:
   });
 }
 
-describe('stage criteria on a plan (issue 15 part 1)', () => {
+describe('stage criteria on a plan (criteria-based progression, Bern consensus)', () => {
   it('the clinician sees each criterion with its evidence; when all are met, the prompt to move on (never a move by itself)', async () => {
     const w = await world();
     const athleteId = await freshAthlete(w);

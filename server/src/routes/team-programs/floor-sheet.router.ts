@@ -4,10 +4,10 @@ import { sendPdf } from '../../http/downloads';
 import { orgRoute, type RouteDef } from '../../http/route';
 
 /**
- * The floor sheet of a team session (issue 14 §6): each athlete's own sets, plates per side and the
- * fitted mark, as a PDF to print or a CSV. Read under the team program's rule (services/team-access.ts):
- * admins, the group's coaches, and clinicians of its athletes; anyone else gets 404. Each download is
- * audited (floor_sheet.downloaded) and never cached.
+ * The floor sheet of a team session (the page a coach tapes to the rack): each athlete's own sets, plates per
+ * side and the fitted mark, as a PDF to print or a CSV. Read under the team program's rule
+ * (services/team-access.ts): admins, the group's coaches, and clinicians of its athletes; anyone else gets
+ * 404. Each download is audited (floor_sheet.downloaded) and never cached.
  */
 const read = { kind: 'org', action: 'read', subject: 'Program' } as const;
 

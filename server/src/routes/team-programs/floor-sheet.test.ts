@@ -7,9 +7,10 @@ import { addDays, pinClock, put, TODAY } from '../../test/worlds/test-world';
 import { MONDAY, teamWorld } from '../../test/worlds/team-world';
 
 /**
- * Issue 14 §6: the floor sheet of a team session, as PDF and CSV. The squad of team-world.ts: back
- * squat and deadlift 3 × 5 @ 75 % of 1RM (100 kg and 140 kg), four sprints; the hinge athlete capped
- * at 60 % (deadlift fitted down to 82.5 kg), the sprint athlete blocked (sprints dropped), one Out.
+ * The floor sheet a coach tapes to the rack for a team session, as PDF and CSV. The squad of
+ * team-world.ts: back squat and deadlift 3 × 5 @ 75 % of 1RM (100 kg and 140 kg), four sprints; the
+ * hinge athlete capped at 60 % (deadlift fitted down to 82.5 kg), the sprint athlete blocked (sprints
+ * dropped), one Out.
  */
 describe('team programs: the floor sheet', () => {
   const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });

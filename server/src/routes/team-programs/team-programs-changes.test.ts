@@ -6,7 +6,7 @@ import { useHarness } from '../../test/harness';
 import { addDays, pinClock, put, TODAY } from '../../test/worlds/test-world';
 import { teamWorld } from '../../test/worlds/team-world';
 
-/** Issue 14 §5 and §7: changes flow to the versions; who may read and change a group's team work. */
+/** Team programming: changes flow to the versions; who may read and change a group's team work. */
 describe('team programs: changes flow, and who may do what', () => {
   const h = useHarness();
   pinClock();

@@ -4,7 +4,7 @@ import { pinClock } from '../../test/worlds/test-world';
 import { teamWorld } from '../../test/worlds/team-world';
 
 /**
- * Issue 14 §4: the coach's acceptance of a version (say of a drop) is part of what the grid and the
+ * Team programming: the coach's acceptance of a version (say of a drop) is part of what the grid and the
  * version screen read, for as long as it holds for the version's current fit.
  */
 describe('team programs: a reviewed version stays reviewed while its fit is the same', () => {

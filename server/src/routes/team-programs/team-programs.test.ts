@@ -3,7 +3,7 @@ import { useHarness } from '../../test/harness';
 import { pinClock, put } from '../../test/worlds/test-world';
 import { MONDAY, teamWorld } from '../../test/worlds/team-world';
 
-/** Issue 14 §3–4: one team session, each athlete's fitted version, the review grid and publishing the whole group. */
+/** Team programming: one team session, each athlete's fitted version, the review grid and publishing the whole group. */
 describe('team programs: fitting, the grid and publishing', () => {
   const h = useHarness();
   pinClock();

@@ -4,7 +4,7 @@ import { signedIn, useHarness, type Client } from '../../test/harness';
 import { TEST_PASSWORD } from '../../test/factories';
 import { addDays, content, pinClock, programWorld, TODAY } from '../../test/worlds/test-world';
 
-// Issue 13 §6: the athlete's coming week, logging from the plan, and logged sets over a limit.
+// The athlete's week looks ahead and logs from the plan; and logged sets over a limit.
 const h = useHarness({ SIGNIN_MAX_PER_IP: '1000' });
 pinClock();
 

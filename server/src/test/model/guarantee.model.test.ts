@@ -1,11 +1,11 @@
 /**
- * Model-based test of Loadline's guarantee (issue 11, "Prove it"): random sequences of what the
- * clinician and the coach do — cases, statuses, plans, baselines, exercise edits and archives,
- * sessions, publishing, exceptions — with the clock moving forward across midnights in the
- * organization's zone, all through the HTTP API on the real database. After every step the
- * database is read directly and checked against an independent, plain re-implementation of the
- * rules (checker.ts): no published, non-held, non-waived set breaches the limits in force on its
- * date, and every held session from today on really breaches (invariant.ts).
+ * Model-based test of Loadline's guarantee (no published set breaks a limit in force; proven, not assumed):
+ * random sequences of what the clinician and the coach do — cases, statuses, plans, baselines, exercise edits
+ * and archives, sessions, publishing, exceptions — with the clock moving forward across midnights in the
+ * organization's zone, all through the HTTP API on the real database. After every step the database is read
+ * directly and checked against an independent, plain re-implementation of the rules (checker.ts): no
+ * published, non-held, non-waived set breaches the limits in force on its date, and every held session from
+ * today on really breaches (invariant.ts).
  *
  * fast-check's model runner (fc.commands, fc.asyncModelRun) shrinks a failure to a short sequence;
  * the failure prints the sequence as it ran. Known bugs of the app are stepped around in marked

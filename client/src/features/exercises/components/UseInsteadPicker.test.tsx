@@ -5,7 +5,7 @@ import { setCsrfToken } from '../../../lib/api-client';
 import { jsonResponse, renderWithProviders } from '../../../test/render';
 import { ExerciseForm } from './ExerciseForm';
 
-// Issue 14: the library's "use instead" list, chosen in the exercise form (at most six, in order).
+// Team programming: the library's "use instead" list, chosen in the exercise form (at most six, in order).
 const ORG = '11111111-1111-4111-8111-111111111111';
 const uuid = (n: number) => `00000000-0000-4000-8000-${String(n).padStart(12, '0')}`;
 const exercise = (n: number, name: string, more: Partial<ExerciseDto> = {}): ExerciseDto => ({

@@ -82,7 +82,7 @@ export function criterionToForm(c: StageCriterion): CriterionForm {
 }
 
 /**
- * A new criterion of one kind. The record rule starts at the issue's own example (pain during ≤ 2,
+ * A new criterion of one kind. The record rule starts at our worked example (pain during ≤ 2,
  * three sessions in a row); thresholds start empty, so the clinician sets each one.
  */
 export function blankCriterion(kind: CriterionKind, id: string = crypto.randomUUID()): CriterionForm {

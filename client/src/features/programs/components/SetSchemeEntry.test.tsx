@@ -7,7 +7,7 @@ import { SessionEditor } from './SessionEditor';
 import { SetSchemeEntry } from './SetSchemeEntry';
 import { schemeToSetForms, type SetForm } from './session-form';
 
-// The grammar is ours (policies/load/set-scheme.ts, issue 14); these check the editor's side of it.
+// The grammar is ours (policies/load/set-scheme.ts, quick set entry); these check the editor's side of it.
 const ORG = '11111111-1111-4111-8111-111111111111';
 const SAM = '22222222-2222-4222-8222-222222222222';
 const SQUAT = '33333333-3333-4333-8333-333333333333';

@@ -7,7 +7,7 @@ import { uploadForm, uploadWithProgress, type UploadOptions } from '../../../lib
 import type { FileUploadVariables } from '../../../lib/use-file-upload';
 
 /**
- * Bringing a roster (issue 16 §2): the server's template, the upload that answers with a preview and
+ * Bringing a roster from a CSV: the server's template, the upload that answers with a preview and
  * writes no people, the start of the background import, and its progress, polled while it runs.
  */
 export const rosterImportKey = (orgId: string, id: string) => ['orgs', orgId, 'roster-imports', id] as const;

@@ -6,7 +6,7 @@ import { RosterImportFlow } from './RosterImportFlow';
 import { RosterImportProgress } from './RosterImportProgress';
 import { importDto } from './roster-fixtures';
 
-/** Issue 16 §2: a large file imports in the background, with progress, and ends with its counts. */
+/** Bringing a roster: a large file imports in the background, with progress, and ends with its counts. */
 
 const ORG = '11111111-1111-4111-8111-111111111111';
 const show = (state: RosterImportDto, onResume = () => {}) =>

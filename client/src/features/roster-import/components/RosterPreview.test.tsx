@@ -6,7 +6,7 @@ import { renderWithProviders } from '../../../test/render';
 import { RosterPreview } from './RosterPreview';
 import { importDto } from './roster-fixtures';
 
-/** Issue 16 §2: the preview shows each row's problems before anything is written. */
+/** Bringing a roster: the preview shows each row's problems before anything is written. */
 
 const row = (line: number, over: Partial<RosterPreviewRowDto>): RosterPreviewRowDto => ({
   line,

@@ -5,7 +5,7 @@ import { ScoreScale } from '../../../components/ui/ScoreScale';
 import { useRateReadiness, useStageCriteria } from '../api/stage-criteria';
 
 // A file of its own, apart from the care team's StageCriteriaPanel: the athlete's and family's homes
-// show it, and need none of the panel's forms and fields (issue 17, first load).
+// show it, and need none of the panel's forms and fields (a fast first load on a slow phone).
 /** What the athlete or family reads: what unlocks the next stage, how far along, and (for the athlete) the readiness question. */
 export function NextStageUnlocks({ orgId, planId, name }: { orgId: string; planId: string; name?: string }) {
   const q = useStageCriteria(orgId, planId);

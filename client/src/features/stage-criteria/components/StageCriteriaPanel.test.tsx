@@ -7,7 +7,7 @@ import { jsonResponse, renderWithProviders } from '../../../test/render';
 import { NextStageUnlocks } from './NextStageUnlocks';
 import { StageCriteriaPanel } from './StageCriteriaPanel';
 
-// Issue 15 part 1: criteria-based progression (Bern consensus, Ardern et al. 2016: a shared decision).
+// Criteria-based progression (Bern consensus, Ardern et al. 2016: a shared decision).
 const ORG = '11111111-1111-4111-8111-111111111111';
 const PLAN = '22222222-2222-4222-8222-222222222222';
 const uuid = (n: number) => `00000000-0000-4000-8000-${String(n).padStart(12, '0')}`;
