@@ -40,7 +40,8 @@ export const HOME_HEADING = {
 } as const;
 
 /**
- * Password checks use bcrypt at the production cost (about 2 s on a small, busy machine), so the steps
+ * Passwords set through the app in a test (invitations, resets, sign-up) are checked at bcrypt's production
+ * cost (about 2 s on a small, busy machine; the demo people's are stored cheaply, scripts/e2e-world.ts), so the steps
  * waiting on one get more than the default 5 s.
  */
 export const SLOW_HASH_MS = 15_000;
