@@ -12,24 +12,24 @@ type ItemParams = { id: string };
 
 /** Reads the list the query string asks for. */
 export function readList<I, O>(query: Query<I, O>) {
-  return { handler: ({ read, query: input }: OrgCtx<unknown, I, unknown>) => read(query, input) };
+  return { handler: async ({ read, query: input }: OrgCtx<unknown, I, unknown>) => read(query, input) };
 }
 
 /** Reads the record named by `:id`. */
 export function readItem<O>(query: Query<ItemParams, O>) {
-  return { handler: ({ read, params }: OrgCtx<ItemParams, unknown, unknown>) => read(query, { id: params.id }) };
+  return { handler: async ({ read, params }: OrgCtx<ItemParams, unknown, unknown>) => read(query, { id: params.id }) };
 }
 
 /** Creates a record from the body. */
 export function createFromBody<I, O>(command: Command<I, O, OrgCommandCtx>) {
-  return { command, handler: ({ run, body }: OrgCtx<unknown, unknown, I>) => run(command, body) };
+  return { command, handler: async ({ run, body }: OrgCtx<unknown, unknown, I>) => run(command, body) };
 }
 
 /** Changes the record named by `:id` as the body says. */
 export function changeItem<I extends ItemParams, O>(command: Command<I, O, OrgCommandCtx>) {
   return {
     command,
-    handler: ({ run, params, body }: OrgCtx<ItemParams, unknown, Omit<I, 'id'>>) => run(command, { ...body, id: params.id } as I),
+    handler: async ({ run, params, body }: OrgCtx<ItemParams, unknown, Omit<I, 'id'>>) => run(command, { ...body, id: params.id } as I),
   };
 }
 
