@@ -8,6 +8,7 @@ import {
 } from '../../../../policies/schemas/groups';
 import { archiveGroup, createGroup, setGroupMembers, updateGroup } from '../../commands/groups';
 import { orgRoute, type RouteDef } from '../../http/route';
+import { changeItem, createFromBody, readItem, readList } from '../../http/route-handlers';
 import { getGroup, listGroups } from '../../queries/groups';
 
 /**
@@ -26,23 +27,18 @@ export const groupRoutes: RouteDef[] = [
     params: OrgParamsSchema,
     query: GroupListQuerySchema,
     body: NothingSchema,
-    async handler({ read: r, query }) {
-      return r(listGroups, query);
-    },
+    ...readList(listGroups),
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/groups',
     summary: 'Start a group (a coach who starts one is its coach)',
     access: { kind: 'org', action: 'create', subject: 'Group' },
-    command: createGroup,
     params: OrgParamsSchema,
     query: NothingSchema,
     body: GroupCreateSchema,
     status: 201,
-    async handler({ run, body }) {
-      return run(createGroup, body);
-    },
+    ...createFromBody(createGroup),
   }),
   orgRoute({
     method: 'get',
@@ -52,47 +48,36 @@ export const groupRoutes: RouteDef[] = [
     params: OrgItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    async handler({ read: r, params }) {
-      return r(getGroup, { id: params.id });
-    },
+    ...readItem(getGroup),
   }),
   orgRoute({
     method: 'patch',
     path: '/orgs/:orgId/groups/:id',
     summary: 'Rename a group or change its kind',
     access: update,
-    command: updateGroup,
     params: OrgItemParamsSchema,
     query: NothingSchema,
     body: GroupUpdateSchema,
-    async handler({ run, params, body }) {
-      return run(updateGroup, { ...body, id: params.id });
-    },
+    ...changeItem(updateGroup),
   }),
   orgRoute({
     method: 'put',
     path: '/orgs/:orgId/groups/:id/members',
     summary: "Set a group's athletes (and, for admins, its coaches); access follows at once",
     access: update,
-    command: setGroupMembers,
     params: OrgItemParamsSchema,
     query: NothingSchema,
     body: GroupMembersSchema,
-    async handler({ run, params, body }) {
-      return run(setGroupMembers, { ...body, id: params.id });
-    },
+    ...changeItem(setGroupMembers),
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/groups/:id/archive',
     summary: 'Archive a group: kept for the record, nobody coaches through it any more',
     access: update,
-    command: archiveGroup,
     params: OrgItemParamsSchema,
     query: NothingSchema,
     body: GroupArchiveSchema,
-    async handler({ run, params, body }) {
-      return run(archiveGroup, { ...body, id: params.id });
-    },
+    ...changeItem(archiveGroup),
   }),
 ];

@@ -24,20 +24,22 @@ import {
   updateProgram,
 } from '../../commands/programs';
 import { orgRoute, type RouteDef } from '../../http/route';
+import { changeItem, createFromBody, deleteItem, readItem, readList } from '../../http/route-handlers';
 import { checkSession, getProgram, listPrograms } from '../../queries/programs';
+
+const read = { kind: 'org', action: 'read', subject: 'Program' } as const;
+const update = { kind: 'org', action: 'update', subject: 'Program' } as const;
 
 export const programRoutes: RouteDef[] = [
   orgRoute({
     method: 'get',
     path: '/orgs/:orgId/programs',
     summary: 'Programs I may see (athletes: those they are part of, published sessions only)',
-    access: { kind: 'org', action: 'read', subject: 'Program' },
+    access: read,
     params: OrgParamsSchema,
     body: NothingSchema,
     query: z.strictObject({ athleteId: UuidSchema.optional() }),
-    async handler({ read, query }) {
-      return read(listPrograms, query);
-    },
+    ...readList(listPrograms),
   }),
   orgRoute({
     method: 'post',
@@ -45,44 +47,36 @@ export const programRoutes: RouteDef[] = [
     summary: 'Start a program for one athlete or a group',
     access: { kind: 'org', action: 'create', subject: 'Program' },
     query: NothingSchema,
-    command: createProgram,
     params: OrgParamsSchema,
     body: ProgramCreateSchema,
     status: 201,
-    async handler({ run, body }) {
-      return run(createProgram, body);
-    },
+    ...createFromBody(createProgram),
   }),
   orgRoute({
     method: 'get',
     path: '/orgs/:orgId/programs/:id',
     summary: 'A program with its sessions',
-    access: { kind: 'org', action: 'read', subject: 'Program' },
+    access: read,
     params: ProgramItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    async handler({ read, params }) {
-      return read(getProgram, { id: params.id });
-    },
+    ...readItem(getProgram),
   }),
   orgRoute({
     method: 'patch',
     path: '/orgs/:orgId/programs/:id',
     summary: 'Rename a program or change its athletes',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
-    command: updateProgram,
     params: ProgramItemParamsSchema,
     body: ProgramUpdateSchema,
-    async handler({ run, params, body }) {
-      return run(updateProgram, { ...body, id: params.id });
-    },
+    ...changeItem(updateProgram),
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/programs/:id/sessions',
     summary: 'Add a dated session (a draft) to a program',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
     command: addSession,
     params: ProgramItemParamsSchema,
@@ -96,7 +90,7 @@ export const programRoutes: RouteDef[] = [
     method: 'put',
     path: '/orgs/:orgId/sessions/:id',
     summary: 'Edit a session; an edit of a published session is checked again and refused if it breaches',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
     command: editSession,
     params: ProgramItemParamsSchema,
@@ -109,34 +103,30 @@ export const programRoutes: RouteDef[] = [
     method: 'delete',
     path: '/orgs/:orgId/sessions/:id',
     summary: 'Delete a session',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
     body: NothingSchema,
-    command: deleteSession,
     params: ProgramItemParamsSchema,
-    async handler({ run, params }) {
-      await run(deleteSession, { id: params.id });
-      return undefined;
-    },
+    ...deleteItem(deleteSession),
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/sessions/:id/check',
     summary: "Check a session against each athlete's plan without publishing",
-    access: { kind: 'org', action: 'read', subject: 'Program' },
+    access: read,
     query: NothingSchema,
     body: NothingSchema,
     writesNothing: 'a dry run of the publish check',
     params: ProgramItemParamsSchema,
-    async handler({ read, user, params }) {
-      return read(checkSession, { id: params.id, unit: user.unitPref });
+    async handler({ read: r, user, params }) {
+      return r(checkSession, { id: params.id, unit: user.unitPref });
     },
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/sessions/:id/publish',
     summary: 'Publish a session: refused (422) with the breach list if any set goes past a cap',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
     command: publishSession,
     params: ProgramItemParamsSchema,
@@ -149,7 +139,7 @@ export const programRoutes: RouteDef[] = [
     method: 'post',
     path: '/orgs/:orgId/sessions/:id/unpublish',
     summary: 'Take a session back to draft',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
     command: unpublishSession,
     params: ProgramItemParamsSchema,
@@ -162,26 +152,20 @@ export const programRoutes: RouteDef[] = [
     method: 'post',
     path: '/orgs/:orgId/programs/:id/copy-week',
     summary: 'Copy the sessions of one week to another week, as drafts',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
-    command: copyWeek,
     params: ProgramItemParamsSchema,
     body: CopyWeekSchema,
-    async handler({ run, params, body }) {
-      return run(copyWeek, { ...body, id: params.id });
-    },
+    ...changeItem(copyWeek),
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/programs/:id/shift',
     summary: 'Move every draft session from a date on by a number of days',
-    access: { kind: 'org', action: 'update', subject: 'Program' },
+    access: update,
     query: NothingSchema,
-    command: shiftDrafts,
     params: ProgramItemParamsSchema,
     body: ShiftDatesSchema,
-    async handler({ run, params, body }) {
-      return run(shiftDrafts, { ...body, id: params.id });
-    },
+    ...changeItem(shiftDrafts),
   }),
 ];

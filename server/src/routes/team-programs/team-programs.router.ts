@@ -16,6 +16,7 @@ import {
 import { addTeamSession, createTeamProgram, deleteTeamSession, editTeamSession, renameTeamProgram } from '../../commands/team-programs';
 import { acceptVersion, asWrittenVersion, publishTeamSessions, resetVersion } from '../../commands/team-versions';
 import { orgRoute, type RouteDef } from '../../http/route';
+import { changeItem, createFromBody, deleteItem, readItem, readList } from '../../http/route-handlers';
 import { getTeamProgram, getTeamVersion, listTeamPrograms, teamGrid } from '../../queries/team-programs';
 
 /**
@@ -35,23 +36,18 @@ export const teamProgramRoutes: RouteDef[] = [
     params: OrgParamsSchema,
     query: TeamProgramListQuerySchema,
     body: NothingSchema,
-    async handler({ read: r, query }) {
-      return r(listTeamPrograms, query);
-    },
+    ...readList(listTeamPrograms),
   }),
   orgRoute({
     method: 'post',
     path: '/orgs/:orgId/team-programs',
     summary: 'Start a team program for a group',
     access: { kind: 'org', action: 'create', subject: 'Program' },
-    command: createTeamProgram,
     params: OrgParamsSchema,
     query: NothingSchema,
     body: TeamProgramCreateSchema,
     status: 201,
-    async handler({ run, body }) {
-      return run(createTeamProgram, body);
-    },
+    ...createFromBody(createTeamProgram),
   }),
   orgRoute({
     method: 'get',
@@ -61,22 +57,17 @@ export const teamProgramRoutes: RouteDef[] = [
     params: ProgramItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    async handler({ read: r, params }) {
-      return r(getTeamProgram, { id: params.id });
-    },
+    ...readItem(getTeamProgram),
   }),
   orgRoute({
     method: 'patch',
     path: '/orgs/:orgId/team-programs/:id',
     summary: 'Rename a team program',
     access: update,
-    command: renameTeamProgram,
     params: ProgramItemParamsSchema,
     query: NothingSchema,
     body: TeamProgramRenameSchema,
-    async handler({ run, params, body }) {
-      return run(renameTeamProgram, { ...body, id: params.id });
-    },
+    ...changeItem(renameTeamProgram),
   }),
   orgRoute({
     method: 'post',
@@ -110,14 +101,10 @@ export const teamProgramRoutes: RouteDef[] = [
     path: '/orgs/:orgId/team-sessions/:id',
     summary: "Delete a team session and the athletes' versions of it",
     access: update,
-    command: deleteTeamSession,
     params: ProgramItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    async handler({ run, params }) {
-      await run(deleteTeamSession, { id: params.id });
-      return undefined;
-    },
+    ...deleteItem(deleteTeamSession),
   }),
   orgRoute({
     method: 'get',
@@ -127,9 +114,7 @@ export const teamProgramRoutes: RouteDef[] = [
     params: ProgramItemParamsSchema,
     query: NothingSchema,
     body: NothingSchema,
-    async handler({ read: r, params }) {
-      return r(teamGrid, { id: params.id });
-    },
+    ...readItem(teamGrid),
   }),
   orgRoute({
     method: 'post',

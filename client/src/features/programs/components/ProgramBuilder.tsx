@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import type { ProgramDto, ProgramSessionDto } from '../../../../../policies/dto';
 import { blockingBreaches } from '../../../../../policies/load/compliance';
@@ -14,6 +14,7 @@ import { useLibrary } from '../api/get-library';
 import { getProgramQueryOptions, useProgram } from '../api/get-programs';
 import { AddSessionForm } from './AddSessionForm';
 import { engineLibrary, liveBreaches } from './live-check';
+import { ExerciseLibraryLink, SessionPane, useChosenSession } from './program-screen-parts';
 import { ProgramTools } from './ProgramTools';
 import { groupByWeek } from './program-words';
 import { SessionEditor } from './SessionEditor';
@@ -54,7 +55,6 @@ export function ProgramBuilder({
 
 function Builder({ orgId, program, unit }: { orgId: string; program: ProgramDto; unit: Unit }) {
   const queryClient = useQueryClient();
-  const [params, setParams] = useSearchParams();
   const [epoch, setEpoch] = useState(0);
   const library = useLibrary(orgId);
   const exceptions = useExceptions(orgId);
@@ -63,12 +63,9 @@ function Builder({ orgId, program, unit }: { orgId: string; program: ProgramDto;
   const exercises = useMemo(() => engineLibrary(library.data ?? []), [library.data]);
 
   const sessions = program.sessions;
-  const selectedId = params.get('session');
-  const selected = sessions.find((s) => s.id === selectedId) ?? null;
+  const { selectedId, selected, select, lastDate } = useChosenSession(sessions);
   const weeks = groupByWeek(sessions).map((w) => w.monday);
-  const lastDate = sessions.length ? sessions[sessions.length - 1].date : null;
   const hrefFor = (id: string) => `?session=${id}`;
-  const select = (id: string | null) => setParams(id ? { session: id } : {}, { replace: false });
 
   const granted = new Set((exceptions.data ?? []).filter((x) => x.status === 'granted').flatMap((x) => x.grantedSetIds));
   const overCap = (s: ProgramSessionDto) => {
@@ -86,14 +83,7 @@ function Builder({ orgId, program, unit }: { orgId: string; program: ProgramDto;
 
   return (
     <>
-      <PageHeader
-        title={program.name}
-        actions={
-          <Link to="/coach/exercises" className="text-sm font-semibold">
-            Exercise library
-          </Link>
-        }
-      >
+      <PageHeader title={program.name} actions={<ExerciseLibraryLink />}>
         {athletes.length === 1
           ? `For ${athletes[0].name}.`
           : `For a group: ${joinNames(athletes.map((a) => a.name))}. Every set is checked for each of them.`}
@@ -112,29 +102,27 @@ function Builder({ orgId, program, unit }: { orgId: string; program: ProgramDto;
           <WeeksView sessions={sessions} selectedId={selectedId} hrefFor={hrefFor} overCap={overCap} />
           <ProgramTools orgId={orgId} programId={program.id} weeks={weeks} onChanged={() => setEpoch((n) => n + 1)} />
         </div>
-        <div className="min-w-0">
-          {selected && library.data ? (
+        <SessionPane
+          selected={selected}
+          library={library.data}
+          prompt={sessions.length ? 'Choose a session from the weeks to edit it.' : 'Add a session to start writing this program.'}
+        >
+          {(chosen, lib) => (
             <SessionEditor
-              key={`${selected.id}:${epoch}`}
+              key={`${chosen.id}:${epoch}`}
               orgId={orgId}
               unit={unit}
               athletes={athletes}
-              session={selected}
-              library={library.data}
+              session={chosen}
+              library={lib}
               engines={inputs.engines}
               enginesPending={inputs.isPending}
               exceptions={exceptions.data ?? []}
               onReload={reload}
               onDeleted={() => select(null)}
             />
-          ) : selected ? (
-            <Loading what="the exercise library" />
-          ) : (
-            <p className="rounded-lg border border-dashed border-rule-strong px-4 py-6 text-sm text-ink-2">
-              {sessions.length ? 'Choose a session from the weeks to edit it.' : 'Add a session to start writing this program.'}
-            </p>
           )}
-        </div>
+        </SessionPane>
       </div>
     </>
   );

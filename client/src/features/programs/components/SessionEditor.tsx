@@ -1,26 +1,21 @@
 import { useId, useMemo, useState } from 'react';
-import { FormProvider, useFieldArray, useForm, useWatch } from 'react-hook-form';
+import { FormProvider } from 'react-hook-form';
 import type { ExceptionDto, ExerciseDto, ProgramSessionDto } from '../../../../../policies/dto';
-import { blockingBreaches, HARD_SET_DEFINITION, suggestSwaps } from '../../../../../policies/load/compliance';
+import { blockingBreaches, suggestSwaps } from '../../../../../policies/load/compliance';
 import { inForceOn, ruleForPatterns } from '../../../../../policies/load/in-force';
 import type { SessionCreateInput, Unit } from '../../../../../policies/schemas';
 import { isApiError } from '../../../lib/api-client';
-import { formatDate } from '../../../lib/format';
-import { Badge } from '../../../components/ui/Panel';
-import { TextField } from '../../../components/ui/Field';
 import { checkSession, useSessionCheck, useUpdateSession } from '../api/sessions';
 import type { SetBreach } from './BreachList';
-import { ExerciseBlock } from './ExerciseBlock';
-import { ExercisePicker } from './ExercisePicker';
 import { engineLibrary, fingerprints, liveBreaches, loadLine, type AthleteEngine } from './live-check';
 import { EXCEPTION_WORDS } from './program-words';
 import { SessionActions, type Refusal } from './SessionActions';
 import { HoldNotice } from './HoldNotice';
-import { blankExercise, formToCheckable, sessionFormResolver, sessionToForm, type SessionForm } from './session-form';
+import { formToCheckable, sessionToForm } from './session-form';
+import { SessionDateTitleFields, SessionExercisesForm, SessionHeading, useSessionEditorForm } from './session-editor-parts';
 import type { SetLine } from './SetRow';
 
 const ISO = /^\d{4}-\d{2}-\d{2}$/;
-const MAX_EXERCISES = 30;
 
 export interface SessionEditorProps {
   orgId: string;
@@ -56,17 +51,11 @@ export function SessionEditor({
 }: SessionEditorProps) {
   const headingId = useId();
   const formId = useId();
-  const hardSetHelpId = useId();
   const [base, setBase] = useState(session);
   const [refusal, setRefusal] = useState<Refusal | null>(null);
   const [conflict, setConflict] = useState(false);
-  const methods = useForm<SessionForm, unknown, SessionCreateInput>({
-    resolver: sessionFormResolver,
-    defaultValues: sessionToForm(session),
-  });
-  const { control, handleSubmit, reset, formState, register } = methods;
-  const { fields, append, remove, move } = useFieldArray({ control, name: 'exercises' });
-  const values = useWatch({ control }) as SessionForm;
+  const { methods, exercises: exerciseRows, values } = useSessionEditorForm(session);
+  const { handleSubmit, reset, formState } = methods;
   const update = useUpdateSession(orgId, base.id);
   const check = useSessionCheck(orgId, base.id, base.version);
 
@@ -198,25 +187,10 @@ export function SessionEditor({
 
   return (
     <section aria-labelledby={headingId} className="min-w-0 space-y-3">
-      <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <h2 id={headingId} className="text-lg font-bold">
-          {base.title} <span className="font-normal text-ink-2 tabular-nums">· {formatDate(base.date)}</span>
-        </h2>
-        <Badge>{published ? 'Published' : 'Draft'}</Badge>
-      </div>
+      <SessionHeading id={headingId} session={base} />
       {published && holds.map((h) => <HoldNotice key={h.athleteId} athleteName={nameOf(h.athleteId)} breaches={h.breaches} />)}
       <FormProvider {...methods}>
-        {/* "Date" and "Title", not "Session date"/"Session title": those name the add-a-session form beside it. */}
-        <div className="flex flex-wrap gap-3">
-          <TextField label="Date" type="date" form={formId} className="w-44" error={formState.errors.date?.message} {...register('date')} />
-          <TextField
-            label="Title"
-            form={formId}
-            className="min-w-[12rem] flex-1"
-            error={formState.errors.title?.message}
-            {...register('title')}
-          />
-        </div>
+        <SessionDateTitleFields formId={formId} />
         <SessionActions
           orgId={orgId}
           formId={formId}
@@ -228,7 +202,7 @@ export function SessionEditor({
           conflict={conflict}
           blocking={blocking}
           waivedSets={new Set(results.flatMap((r) => r.breaches.filter((b) => b.waived).map((b) => b.setId))).size}
-          empty={fields.length === 0}
+          empty={exerciseRows.fields.length === 0}
           checking={!!enginesPending}
           refusal={refusal}
           setLabel={(setId) => setLabel(live.content, byId, setId)}
@@ -239,51 +213,16 @@ export function SessionEditor({
           onDeleted={onDeleted}
           clearRefusal={() => setRefusal(null)}
         />
-        <form
-          id={formId}
+        <SessionExercisesForm
+          formId={formId}
+          title={base.title}
           onSubmit={handleSubmit((p) => void save(p))}
-          noValidate
-          aria-label={`Exercises of ${base.title}`}
-          className="space-y-3"
-        >
-          {/* The engine's meaning of "hard set", on screen where the weekly limit and the warm-up boxes are used. */}
-          <p id={hardSetHelpId} className="text-sm text-ink-2">
-            {HARD_SET_DEFINITION}
-          </p>
-          {fields.length === 0 ? (
-            <p className="rounded-md border border-dashed border-rule-strong px-3 py-4 text-sm text-ink-2">
-              No exercise yet. Add one from the library below.
-            </p>
-          ) : (
-            <ol aria-label="Exercises" className="space-y-3">
-              {fields.map((field, i) => {
-                const exerciseId = values.exercises?.[i]?.exerciseId ?? field.exerciseId;
-                return (
-                  <ExerciseBlock
-                    key={field.id}
-                    index={i}
-                    count={fields.length}
-                    exercise={byId.get(exerciseId)}
-                    unit={unit}
-                    breachesFor={(setId) => bySet.get(setId) ?? []}
-                    linesFor={linesFor}
-                    exceptionFor={exceptionFor}
-                    swapsFor={swapsFor}
-                    onMove={(to) => move(i, to)}
-                    onRemove={() => remove(i)}
-                    hardSetHelpId={hardSetHelpId}
-                  />
-                );
-              })}
-            </ol>
-          )}
-          <ExercisePicker
-            library={library}
-            ruledOut={ruledOut}
-            disabled={fields.length >= MAX_EXERCISES}
-            onPick={(exerciseId) => append(blankExercise(exerciseId, unit))}
-          />
-        </form>
+          exercises={exerciseRows}
+          values={values}
+          library={library}
+          unit={unit}
+          checks={{ breachesFor: (setId) => bySet.get(setId) ?? [], linesFor, exceptionFor, swapsFor, ruledOut }}
+        />
       </FormProvider>
     </section>
   );

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import type { TeamProgramDto } from '../../../../../policies/dto/teams';
 import type { Unit } from '../../../../../policies/schemas';
@@ -9,6 +9,7 @@ import { Loading, PageHeader } from '../../../components/ui/Panel';
 import { formatDate, joinNames } from '../../../lib/format';
 import { useDocumentTitle } from '../../../lib/use-document-title';
 import { useLibrary } from '../../programs/api/get-library';
+import { ExerciseLibraryLink, SessionPane, useChosenSession } from '../../programs/components/program-screen-parts';
 import { plural } from '../../programs/components/program-words';
 import {
   getTeamProgramQueryOptions,
@@ -51,7 +52,6 @@ export function TeamProgramScreen({ orgId, programId, unit }: { orgId: string; p
 
 function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamProgramDto; unit: Unit }) {
   const queryClient = useQueryClient();
-  const [params, setParams] = useSearchParams();
   const [epoch, setEpoch] = useState(0);
   const library = useLibrary(orgId);
   const grid = useTeamGrid(orgId, program.id);
@@ -60,10 +60,7 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
   const [done, setDone] = useState<PublishResult | null>(null);
 
   const sessions = program.teamSessions;
-  const selectedId = params.get('session');
-  const selected = sessions.find((s) => s.id === selectedId) ?? null;
-  const select = (id: string | null) => setParams(id ? { session: id } : {}, { replace: false });
-  const lastDate = sessions.length ? sessions[sessions.length - 1].date : null;
+  const { selectedId, selected, select, lastDate } = useChosenSession(sessions);
   const nameOf = (athleteId: string) => program.athletes.find((a) => a.id === athleteId)?.name ?? 'Athlete';
   const hrefFor = (teamSessionId: string, athleteId: string) => teamVersionHref(program.id, teamSessionId, athleteId);
   const problems = publishProblems(publish.error);
@@ -85,14 +82,7 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
 
   return (
     <>
-      <PageHeader
-        title={program.name}
-        actions={
-          <Link to="/coach/exercises" className="text-sm font-semibold">
-            Exercise library
-          </Link>
-        }
-      >
+      <PageHeader title={program.name} actions={<ExerciseLibraryLink />}>
         Team program of <span className="font-semibold">{program.groupName}</span>
         {program.athletes.length ? `: ${joinNames(program.athletes.map((a) => a.name))}.` : ' (no athletes yet).'} Write each session once;
         it is fitted to each athlete’s limits, and nothing reaches an athlete until you publish.
@@ -136,28 +126,26 @@ function TeamProgram({ orgId, program, unit }: { orgId: string; program: TeamPro
             )}
           </nav>
         </div>
-        <div className="min-w-0">
-          {selected && library.data ? (
+        <SessionPane
+          selected={selected}
+          library={library.data}
+          prompt={sessions.length ? 'Choose a team session to edit it.' : 'Add a team session to start writing this program.'}
+        >
+          {(chosen, lib) => (
             <TeamSessionEditor
-              key={`${selected.id}:${selected.version}:${epoch}`}
+              key={`${chosen.id}:${chosen.version}:${epoch}`}
               orgId={orgId}
               unit={unit}
-              session={selected}
-              library={library.data}
+              session={chosen}
+              library={lib}
               athleteName={nameOf}
-              headerLinks={<FloorSheetLinks orgId={orgId} teamSessionId={selected.id} />}
+              headerLinks={<FloorSheetLinks orgId={orgId} teamSessionId={chosen.id} />}
               onSaved={() => undefined}
               onDeleted={() => select(null)}
               onReload={() => void reload()}
             />
-          ) : selected ? (
-            <Loading what="the exercise library" />
-          ) : (
-            <p className="rounded-lg border border-dashed border-rule-strong px-4 py-6 text-sm text-ink-2">
-              {sessions.length ? 'Choose a team session to edit it.' : 'Add a team session to start writing this program.'}
-            </p>
           )}
-        </div>
+        </SessionPane>
       </div>
       <section aria-labelledby="review-grid" className="space-y-3">
         <div className="flex flex-wrap items-end justify-between gap-2">

@@ -1,22 +1,21 @@
 import { useId, useState, type ReactNode } from 'react';
-import { FormProvider, useFieldArray, useForm, useWatch } from 'react-hook-form';
+import { FormProvider } from 'react-hook-form';
 import type { ExerciseDto, ProgramSessionDto } from '../../../../../policies/dto';
 import type { Breach } from '../../../../../policies/load/compliance';
-import { HARD_SET_DEFINITION } from '../../../../../policies/load/compliance';
-import type { SessionCreateInput, Unit } from '../../../../../policies/schemas';
+import type { Unit } from '../../../../../policies/schemas';
 import { Button } from '../../../components/ui/Button';
-import { TextField } from '../../../components/ui/Field';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
-import { Badge } from '../../../components/ui/Panel';
 import { isApiError } from '../../../lib/api-client';
-import { formatDate } from '../../../lib/format';
-import { ExerciseBlock } from '../../programs/components/ExerciseBlock';
-import { ExercisePicker } from '../../programs/components/ExercisePicker';
 import { STALE_SESSION } from '../../programs/components/SessionActions';
-import { blankExercise, sessionFormResolver, sessionToForm, type SessionForm } from '../../programs/components/session-form';
+import { sessionToForm } from '../../programs/components/session-form';
+import {
+  NO_CHECKS,
+  SessionDateTitleFields,
+  SessionExercisesForm,
+  SessionHeading,
+  useSessionEditorForm,
+} from '../../programs/components/session-editor-parts';
 import { useDeleteTeamSession, useEditTeamSession } from '../api/team-programs';
-
-const MAX_EXERCISES = 30;
 
 /**
  * Writes one team session as the coach means it for the whole group, with the single-athlete
@@ -48,19 +47,12 @@ export function TeamSessionEditor({
 }) {
   const headingId = useId();
   const formId = useId();
-  const hardSetHelpId = useId();
   const [base, setBase] = useState(session);
   const [confirmDelete, setConfirmDelete] = useState(false);
-  const methods = useForm<SessionForm, unknown, SessionCreateInput>({
-    resolver: sessionFormResolver,
-    defaultValues: sessionToForm(session),
-  });
-  const { control, handleSubmit, reset, formState, register } = methods;
-  const { fields, append, remove, move } = useFieldArray({ control, name: 'exercises' });
-  const values = useWatch({ control }) as SessionForm;
+  const { methods, exercises, values } = useSessionEditorForm(session);
+  const { handleSubmit, reset, formState } = methods;
   const edit = useEditTeamSession(orgId, base.id);
   const del = useDeleteTeamSession(orgId);
-  const byId = new Map(library.map((e) => [e.id, e]));
   const published = base.status === 'published';
   const conflict = isApiError(edit.error) && edit.error.code === 'version_conflict';
   const refused = isApiError(edit.error) && edit.error.status === 422 ? edit.error : null;
@@ -83,34 +75,23 @@ export function TeamSessionEditor({
 
   return (
     <section aria-labelledby={headingId} className="min-w-0 space-y-3">
-      <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <h2 id={headingId} className="text-lg font-bold">
-          {base.title} <span className="font-normal text-ink-2 tabular-nums">· {formatDate(base.date)}</span>
-        </h2>
-        <div className="flex flex-wrap items-center gap-2">
-          {/* The floor sheet's links go in this spot (built separately). */}
+      <SessionHeading
+        id={headingId}
+        session={base}
+        links={
+          // The floor sheet's links go in this spot (built separately).
           <div data-slot="session-links" className="flex flex-wrap gap-2 text-sm">
             {headerLinks}
           </div>
-          <Badge>{published ? 'Published' : 'Draft'}</Badge>
-        </div>
-      </div>
+        }
+      />
       {published && (
         <p className="text-sm text-ink-2">
           Published to the group. A change is fitted again for every athlete and must still pass each one’s limits, or nothing is saved.
         </p>
       )}
       <FormProvider {...methods}>
-        <div className="flex flex-wrap gap-3">
-          <TextField label="Date" type="date" form={formId} className="w-44" error={formState.errors.date?.message} {...register('date')} />
-          <TextField
-            label="Title"
-            form={formId}
-            className="min-w-[12rem] flex-1"
-            error={formState.errors.title?.message}
-            {...register('title')}
-          />
-        </div>
+        <SessionDateTitleFields formId={formId} />
         <div className="flex flex-wrap items-center gap-2 rounded-lg border border-rule bg-shade p-3">
           <Button type="submit" form={formId} busy={edit.isPending} disabled={!formState.isDirty}>
             Save the team session
@@ -161,41 +142,16 @@ export function TeamSessionEditor({
           edit.isError && <ErrorNotice error={edit.error} />
         )}
         {del.isError && <ErrorNotice error={del.error} />}
-        <form id={formId} onSubmit={save} noValidate aria-label={`Exercises of ${base.title}`} className="space-y-3">
-          <p id={hardSetHelpId} className="text-sm text-ink-2">
-            {HARD_SET_DEFINITION}
-          </p>
-          {fields.length === 0 ? (
-            <p className="rounded-md border border-dashed border-rule-strong px-3 py-4 text-sm text-ink-2">
-              No exercise yet. Add one from the library below.
-            </p>
-          ) : (
-            <ol aria-label="Exercises" className="space-y-3">
-              {fields.map((field, i) => (
-                <ExerciseBlock
-                  key={field.id}
-                  index={i}
-                  count={fields.length}
-                  exercise={byId.get(values.exercises?.[i]?.exerciseId ?? field.exerciseId)}
-                  unit={unit}
-                  breachesFor={() => []}
-                  linesFor={() => []}
-                  exceptionFor={() => null}
-                  swapsFor={() => []}
-                  onMove={(to) => move(i, to)}
-                  onRemove={() => remove(i)}
-                  hardSetHelpId={hardSetHelpId}
-                />
-              ))}
-            </ol>
-          )}
-          <ExercisePicker
-            library={library}
-            ruledOut={() => null}
-            disabled={fields.length >= MAX_EXERCISES}
-            onPick={(exerciseId) => append(blankExercise(exerciseId, unit))}
-          />
-        </form>
+        <SessionExercisesForm
+          formId={formId}
+          title={base.title}
+          onSubmit={save}
+          exercises={exercises}
+          values={values}
+          library={library}
+          unit={unit}
+          checks={NO_CHECKS}
+        />
       </FormProvider>
     </section>
   );
