@@ -96,7 +96,7 @@ describe('plain words for families (everyone hears every change, in their own wo
     );
     expect(lines).toEqual([
       'No lifting heavy things from the floor or bending forward with weight.',
-      'Squatting down and standing back up with weight: nothing heavier than 40 kg; at most 8 in a row before a rest; no jumping, landing or other jarring impact.',
+      'Squatting down and standing back up with weight: nothing heavier than 40 kg; at most 8 in a row before a rest; nothing fast or jarring while doing it (no throwing, jumping or landing with it).',
       'Everything else: no limit.',
       'Stop and tell the clinician if pain during training goes above 3 out of 10.',
     ]);

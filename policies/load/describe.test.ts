@@ -25,7 +25,7 @@ describe('describeCaps: caps in plain words for athletes and guardians', () => {
       'at most 4 sets a session',
       'at most 8 reps a set',
       'at most 10 hard sets a week',
-      'no jumping, landing or other impact',
+      'no explosive or impact work in this movement (throws, jumps, landings)',
     ]);
   });
 

@@ -21,7 +21,7 @@ export function describeCaps(caps: Caps | undefined, unit: Unit, voice: Voice = 
   if (caps.maxSetsPerSession !== undefined) parts.push(`at most ${c(caps.maxSetsPerSession)} sets a session`);
   if (caps.maxRepsPerSet !== undefined) parts.push(`at most ${c(caps.maxRepsPerSet)} reps a set`);
   if (caps.maxHardSetsPerWeek !== undefined) parts.push(`at most ${c(caps.maxHardSetsPerWeek)} hard sets a week`);
-  if (caps.impactAllowed === false) parts.push('no jumping, landing or other impact');
+  if (caps.impactAllowed === false) parts.push('no explosive or impact work in this movement (throws, jumps, landings)');
   return parts;
 }
 

@@ -83,7 +83,7 @@ export function overLimitWords(breach: Breach, set: LoggedSet, exerciseName: str
     case 'status_out':
       return `${what}: the athlete is Out on ${day} and no plan says what they may train.`;
     case 'impact':
-      return `${what}: no jumping, landing or other impact is allowed for ${where} on ${day}.`;
+      return `${what}: no explosive or impact work (throws, jumps, landings) is allowed for ${where} on ${day}.`;
     case 'sets_per_session':
       return `${exerciseName} ${breach.planned} is over the limit for ${where}: ${breach.limit}.`;
     case 'hard_sets_per_week':
