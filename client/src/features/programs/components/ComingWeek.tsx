@@ -1,5 +1,4 @@
 import type { AthleteWeekDto } from '../../../../../policies/dto';
-import { formatLoad } from '../../../../../policies/load/units';
 import type { Unit } from '../../../../../policies/schemas';
 import { ButtonLink } from '../../../components/ui/Button';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
@@ -7,24 +6,9 @@ import { Loading } from '../../../components/ui/Panel';
 import { StatusMark } from '../../../components/ui/StatusMark';
 import { formatDate } from '../../../lib/format';
 import { useWeek } from '../api/get-week';
+import { setLines } from './week-set-lines';
 
 type Day = AthleteWeekDto['days'][number];
-type WeekSession = Day['sessions'][number];
-
-/** Consecutive identical sets in one line: "2 sets of 5 reps at 40 kg · RPE 6". */
-function setLines(session: WeekSession, exercise: WeekSession['content']['exercises'][number], unit: Unit): string[] {
-  const lines: { words: string; count: number }[] = [];
-  for (const set of exercise.sets) {
-    const kg = session.loadsKg[set.id] ?? null;
-    const load =
-      set.load.kind === 'bodyweight' ? 'body weight' : kg === null ? `${set.load.value}% of your best lift` : `${formatLoad(kg, unit)}`;
-    const words = `${set.reps} reps at ${load}${set.targetRpe != null ? ` · RPE ${set.targetRpe}` : ''}${set.warmUp ? ' (warm-up)' : ''}`;
-    const last = lines.at(-1);
-    if (last?.words === words) last.count++;
-    else lines.push({ words, count: 1 });
-  }
-  return lines.map((l) => (l.count > 1 ? `${l.count} sets of ${l.words}` : `1 set of ${l.words}`));
-}
 
 /**
  * "My week" looking ahead: the seven days from the organization's today, each with what is planned
