@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { barStepFor, capOnTheBar, capOnTheBarWords, DEFAULT_BAR_STEP } from './bar-cap';
+import { barStepFor, capOnTheBar, capOnTheBarWords, DEFAULT_BAR_STEP, plannedLoadOnTheBarKg } from './bar-cap';
 import { KG_PER_LB } from './units';
 
 /*
@@ -71,5 +71,14 @@ describe("the step: the exercise's own increments when they are in the reader's 
     expect(barStepFor({ kind: 'list', valuesKg: [8, 12, 16] }, 'kg')).toBe(2.5);
     expect(barStepFor({ kind: 'increment', step: -1, unit: 'kg' }, 'kg')).toBe(2.5);
     expect(barStepFor(undefined, 'lb')).toBe(5);
+  });
+
+  it('a planned load read in pounds is what goes on the bar, rounded down; in kg it is unchanged (1 lb = 0.45359237 kg, NIST SP 811)', () => {
+    // 40 kg = 88.185 lb → 85 lb; 12 kg = 26.455 lb → 25 lb; 135 lb stored as kg stays 135 lb.
+    expect(plannedLoadOnTheBarKg(40, 'lb') / KG_PER_LB).toBeCloseTo(85, 9);
+    expect(plannedLoadOnTheBarKg(12, 'lb') / KG_PER_LB).toBeCloseTo(25, 9);
+    expect(plannedLoadOnTheBarKg(135 * KG_PER_LB, 'lb') / KG_PER_LB).toBeCloseTo(135, 9);
+    expect(plannedLoadOnTheBarKg(42.5, 'kg')).toBe(42.5);
+    for (const kg of [0.5, 3, 17.3, 40, 61.2, 102.06, 250]) expect(plannedLoadOnTheBarKg(kg, 'lb')).toBeLessThanOrEqual(kg);
   });
 });

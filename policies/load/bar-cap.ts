@@ -1,7 +1,7 @@
 import type { Unit } from '../schemas/common';
 import { isFiniteNumber } from './guard';
 import type { LoadSteps } from './steps';
-import { toUnit } from './units';
+import { fromUnit, toUnit } from './units';
 
 /**
  * The total-load step an athlete can add to a bar when nothing more precise is known: 2.5 kg or
@@ -40,4 +40,16 @@ export function capOnTheBarWords(capKg: number, unit: Unit, step: number = DEFAU
   if (load === null) return 'a load limit that cannot be read — ask your coach';
   if (load === 0) return `less than ${step} ${unit} — ask your coach what to use`;
   return `up to ${load} ${unit}`;
+}
+
+/**
+ * A planned load (kg) as an athlete reading pounds loads it: rounded DOWN to a 5 lb step, returned in
+ * kg so it can be shown, plated and logged like any load. Loads are planned in kg on the exercise's
+ * own steps, so a kg reader gets them unchanged; a set planned in the reader's own unit is shown as
+ * planned by the caller and never comes here.
+ */
+export function plannedLoadOnTheBarKg(kg: number, unit: Unit): number {
+  if (unit === 'kg') return kg;
+  const lb = capOnTheBar(kg, unit);
+  return lb === null ? kg : fromUnit(lb, unit);
 }

@@ -1,4 +1,5 @@
 import type { ExerciseDto, TodayDto } from '../../../../../policies/dto';
+import { plannedLoadOnTheBarKg } from '../../../../../policies/load/bar-cap';
 import { loadTimesReps } from '../../../../../policies/words/loads';
 import type { Unit } from '../../../../../policies/schemas';
 import { ErrorNotice, Notice } from '../../../components/ui/Notice';
@@ -89,7 +90,9 @@ function OneSession({ session, unit, exercises }: { session: TodaySession; unit:
               {e.notes && <p className="text-sm text-ink-2">{e.notes}</p>}
               <ul className="mt-1 space-y-2">
                 {e.sets.map((set, j) => {
-                  const loadKg = session.loadsKg[set.id] ?? null;
+                  const plannedKg = session.loadsKg[set.id] ?? null;
+                  // A kg plan read in pounds: what goes on the bar, rounded down (as in My week and the log).
+                  const loadKg = plannedKg === null || set.load.kind === unit ? plannedKg : plannedLoadOnTheBarKg(plannedKg, unit);
                   // One plate line per distinct load: identical sets do not repeat it.
                   const key = loadKg === null ? '' : loadKg.toFixed(3);
                   const showPlates = barbell && loadKg !== null && !helped.has(key);

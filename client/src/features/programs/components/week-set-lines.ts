@@ -1,28 +1,24 @@
 import type { AthleteWeekDto } from '../../../../../policies/dto';
-import { capOnTheBar } from '../../../../../policies/load/bar-cap';
+import { plannedLoadOnTheBarKg } from '../../../../../policies/load/bar-cap';
 import { formatLoad } from '../../../../../policies/load/units';
 import type { Unit } from '../../../../../policies/schemas';
 
 type WeekSession = AthleteWeekDto['days'][number]['sessions'][number];
 
 /**
- * A planned load as the athlete puts it on the bar. Loads are planned in kg on the exercise's own
- * steps; read in pounds they are rounded DOWN to a 5 lb step (bar-cap.ts: never over what was
- * planned), not shown as 92.59 lb.
+ * Consecutive identical sets in one line: "2 sets of 5 reps at 40 kg · RPE 6". A load planned in kg and
+ * read in pounds is what goes on the bar, rounded down (plannedLoadOnTheBarKg), never 26.46 lb.
  */
-function loadOnTheBar(kg: number, unit: Unit): string {
-  if (unit === 'kg') return formatLoad(kg, unit);
-  const lb = capOnTheBar(kg, unit);
-  return lb === null ? formatLoad(kg, unit) : `${lb} lb`;
-}
-
-/** Consecutive identical sets in one line: "2 sets of 5 reps at 40 kg · RPE 6". */
 export function setLines(session: WeekSession, exercise: WeekSession['content']['exercises'][number], unit: Unit): string[] {
   const lines: { words: string; count: number }[] = [];
   for (const set of exercise.sets) {
     const kg = session.loadsKg[set.id] ?? null;
     const load =
-      set.load.kind === 'bodyweight' ? 'body weight' : kg === null ? `${set.load.value}% of your best lift` : loadOnTheBar(kg, unit);
+      set.load.kind === 'bodyweight'
+        ? 'body weight'
+        : kg === null
+          ? `${set.load.value}% of your best lift`
+          : formatLoad(set.load.kind === unit ? kg : plannedLoadOnTheBarKg(kg, unit), unit);
     const words = `${set.reps} ${set.reps === 1 ? 'rep' : 'reps'} at ${load}${set.targetRpe != null ? ` · RPE ${set.targetRpe}` : ''}${set.warmUp ? ' (warm-up)' : ''}`;
     const last = lines.at(-1);
     if (last?.words === words) last.count++;

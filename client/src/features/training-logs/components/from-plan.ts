@@ -1,4 +1,5 @@
 import type { TodayDto } from '../../../../../policies/dto';
+import { plannedLoadOnTheBarKg } from '../../../../../policies/load/bar-cap';
 import { toUnit } from '../../../../../policies/load/units';
 import type { Unit } from '../../../../../policies/schemas';
 import type { SetRow } from './log-form';
@@ -8,7 +9,8 @@ type PlannedSession = Pick<TodayDto['sessions'][number], 'content' | 'loadsKg' |
 /**
  * The log form's sets from a planned session: every planned set in order, its library exercise,
  * reps, target RPE, and the load in the athlete's unit — as planned when it was planned in that
- * unit, otherwise converted exactly (NIST SP 811) to two decimals. A % of a best lift with no best
+ * unit, otherwise converted (NIST SP 811) and, read in pounds, rounded down to what goes on the bar
+ * (plannedLoadOnTheBarKg: 40 kg is 85 lb, not 88.18). A % of a best lift with no best
  * lift on record, which has no load to show, is left for the athlete to type; body weight is 0.
  */
 export function setsFromPlan(session: PlannedSession, unit: Unit): SetRow[] {
@@ -22,7 +24,7 @@ export function setsFromPlan(session: PlannedSession, unit: Unit): SetRow[] {
             ? set.load.value
             : kg === null
               ? undefined
-              : Number(toUnit(kg, unit).toFixed(2));
+              : Number(toUnit(plannedLoadOnTheBarKg(kg, unit), unit).toFixed(2));
       return {
         exercise: session.exerciseNames[e.exerciseId] ?? 'Exercise',
         exerciseId: e.exerciseId,
