@@ -188,7 +188,16 @@ export function SessionEditor({
   return (
     <section aria-labelledby={headingId} className="min-w-0 space-y-3">
       <SessionHeading id={headingId} session={base} />
-      {published && holds.map((h) => <HoldNotice key={h.athleteId} athleteName={nameOf(h.athleteId)} breaches={h.breaches} />)}
+      {published &&
+        holds.map((h) => (
+          <HoldNotice
+            key={h.athleteId}
+            athleteName={nameOf(h.athleteId)}
+            breaches={h.breaches}
+            exercises={base.content.exercises}
+            exerciseName={(id) => byId.get(id)?.name ?? 'Exercise'}
+          />
+        ))}
       <FormProvider {...methods}>
         <SessionDateTitleFields formId={formId} />
         <SessionActions
