@@ -28,8 +28,9 @@ describe('audit trail sentences (ASVS 5.0 V16.2.1: entries people can read)', ()
   });
 
   it('names Loadline for entries without a person, and never shows a bare code for an unknown action', () => {
-    expect(auditSentence({ action: 'auth.sign_in_limited', actorName: null, athleteName: null, subjectType: 'User' })).toBe(
-      'Sign-in attempts for Loadline were paused after too many tries.',
+    expect(auditSentence({ action: 'team.recheck', actorName: null, athleteName: null, subjectType: 'Route' })).toMatch(/^Loadline /);
+    expect(auditSentence({ action: 'auth.sign_in_limited', actorName: null, athleteName: null, subjectType: 'Route' })).toBe(
+      'Sign-in attempts from one network address were paused after too many tries.',
     );
     const unknown = auditSentence({
       action: 'widget.frobbed',
@@ -39,6 +40,24 @@ describe('audit trail sentences (ASVS 5.0 V16.2.1: entries people can read)', ()
     });
     expect(unknown).toBe("Ana Ruiz made a change to Maya Torres's training log.");
     expect(unknown).not.toContain('widget.frobbed');
+  });
+
+  it('a failed or paused sign-in names the e-mail that was tried, never "Loadline" as if it had signed in (ASVS 5.0 V16.3.1)', () => {
+    const failed = (after: object) =>
+      auditSentence({ action: 'auth.sign_in_failed', actorName: null, athleteName: null, subjectType: 'User', after });
+    expect(failed({ email: 'maya@example.org' })).toBe('A sign-in as maya@example.org failed.');
+    expect(failed({ email: 'maya@example.org', step: 'second' })).toBe(
+      'A sign-in as maya@example.org failed at the second step (the code was wrong or used).',
+    );
+    expect(
+      auditSentence({
+        action: 'auth.sign_in_limited',
+        actorName: null,
+        athleteName: null,
+        subjectType: 'Route',
+        after: { email: 'maya@example.org' },
+      }),
+    ).toBe('Sign-in attempts as maya@example.org were paused after too many tries.');
   });
 
   it('every sentence is a sentence: capital first, no code, no ISO date', () => {

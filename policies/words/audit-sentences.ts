@@ -63,8 +63,16 @@ export const AUDIT_SENTENCES: Record<string, Sentence> = {
   'access.csrf_refused': (who) => `A request for ${who} was refused because it did not come from Loadline's own pages`,
   'auth.signed_in': (who) => `${who} signed in`,
   'auth.signed_out': (who) => `${who} signed out`,
-  'auth.sign_in_failed': (who) => `A sign-in as ${who} failed`,
-  'auth.sign_in_limited': (who) => `Sign-in attempts for ${who} were paused after too many tries`,
+  // Nobody is signed in when a sign-in fails: the entry names the e-mail that was tried, not an actor.
+  'auth.sign_in_failed': (_who, e) => {
+    const email = field(e.after, 'email');
+    const second = field(e.after, 'step') === 'second';
+    return `A sign-in${typeof email === 'string' ? ` as ${email}` : ''} failed${second ? ' at the second step (the code was wrong or used)' : ''}`;
+  },
+  'auth.sign_in_limited': (_who, e) => {
+    const email = field(e.after, 'email');
+    return `Sign-in attempts${typeof email === 'string' ? ` as ${email}` : ' from one network address'} were paused after too many tries`;
+  },
   'auth.second_step_needed': (who) => `${who} gave the right password and was asked for the second step`,
   'auth.password_reset_requested': (who) => `A password reset was requested for ${who}`,
   'auth.password_reset': (who) => `${who} set a new password with a reset link`,
