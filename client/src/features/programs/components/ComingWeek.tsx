@@ -102,6 +102,12 @@ function OneDay({
         )}
         {limits.free && <p className="text-sm text-ink-2">{limits.free}</p>}
         {limits.pain && <p className="text-sm font-semibold">{limits.pain}</p>}
+        {!isToday && day.stages.some((st) => st.startDate === day.date) && (
+          <p className="rounded-md bg-shade px-3 py-2 text-sm">
+            A new stage of your plan starts on this day, as planned. Your clinician may keep you at the stage before for longer: if they
+            have not talked it through with you yet, ask them before you do more.
+          </p>
+        )}
       </div>
       <div className="mt-3 space-y-3">
         {day.sessions.length === 0 ? (
