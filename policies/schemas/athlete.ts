@@ -2,25 +2,25 @@ import { z } from 'zod';
 import { BODY_REGIONS } from '../body-regions';
 import { MOVEMENT_PATTERNS } from '../load/patterns';
 import { checkRedFlagAnswers, RED_FLAG_ITEMS, redFlagQuestion } from '../red-flags';
-import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text, numberError } from './common';
 
 /** 0–10 verbal numeric rating, whole numbers (LOINC 72514-3 takes integers 0–10). */
 export const PainScoreSchema = z
-  .number({ message: 'must be a number from 0 to 10' })
+  .number(numberError('must be a number from 0 to 10'))
   .int({ message: 'must be a whole number from 0 to 10' })
   .min(0, { message: 'must be from 0 to 10' })
   .max(10, { message: 'must be from 0 to 10' });
 
 /** Session RPE on Foster's modified CR-10: whole numbers 0–10 (Foster et al. 2001). */
 export const SessionRpeSchema = z
-  .number({ message: 'must be a number from 0 to 10' })
+  .number(numberError('must be a number from 0 to 10'))
   .int({ message: 'must be a whole number from 0 to 10' })
   .min(0, { message: 'must be from 0 to 10' })
   .max(10, { message: 'must be from 0 to 10' });
 
 /** Set RPE on the reps-in-reserve scale: 1–10 in half steps (Zourdos et al. 2016). */
 export const SetRpeSchema = z
-  .number({ message: 'must be a number from 1 to 10' })
+  .number(numberError('must be a number from 1 to 10'))
   .min(1, { message: 'must be from 1 to 10' })
   .max(10, { message: 'must be from 1 to 10' })
   .multipleOf(0.5, { message: 'must be a whole or half step' });
@@ -73,7 +73,7 @@ export const CheckInSchema = z.strictObject({
   athleteId: UuidSchema,
   date: IsoDateSchema,
   sleepHours: z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .min(0, { message: 'must be 0–16' })
     .max(16, { message: 'must be 0–16' })
     .multipleOf(0.5, { message: 'must be in half hours' }),
@@ -89,11 +89,11 @@ export const LoggedSetSchema = z.strictObject({
   exerciseId: UuidSchema.nullable().optional(),
   /** Kilograms; the client converts from the athlete's unit. 0 for bodyweight. */
   loadKg: z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .min(0, { message: 'must be 0 or more' })
     .max(1000, { message: 'must be at most 1000 kg' }),
   reps: z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .int({ message: 'must be a whole number' })
     .min(0, { message: 'must be 0 or more' })
     .max(100, { message: 'must be at most 100' }),
@@ -105,7 +105,7 @@ export const TrainingLogCreateSchema = z.strictObject({
   athleteId: UuidSchema,
   date: IsoDateSchema,
   durationMinutes: z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .int({ message: 'must be whole minutes' })
     .min(1, { message: 'must be at least 1 minute' })
     .max(600, { message: 'must be at most 600 minutes' }),

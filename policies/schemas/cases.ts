@@ -3,7 +3,7 @@ import { BODY_REGIONS } from '../body-regions';
 import { CAP_KEYS, DEFAULT_PAIN_CEILING, MOVEMENT_PATTERNS, PARTICIPATION_STATUSES, PATTERN_MODES } from '../load/patterns';
 import { stageIssues } from '../load/in-force';
 import { StageCriteriaListSchema } from './stage-criteria';
-import { IsoDateSchema, UuidSchema, VersionSchema, text, wholeNumberText } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text, wholeNumberText, numberError } from './common';
 
 export const ParticipationStatusSchema = z.enum(PARTICIPATION_STATUSES, { message: 'must be out, limited or full' });
 export const BodyRegionSchema = z.enum(BODY_REGIONS, { message: 'must be a body region from the list' });
@@ -55,7 +55,7 @@ export type StatusChangeInput = z.infer<typeof StatusChangeSchema>;
 
 const positive = (max: number, label: string) =>
   z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .positive({ message: 'must be above 0' })
     .max(max, { message: `must be at most ${max}${label}` });
 
@@ -63,7 +63,7 @@ export const CapsSchema = z.strictObject({
   maxPercent1RM: positive(100, '%').optional(),
   maxLoadKg: positive(1000, ' kg').optional(),
   maxRpe: z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .min(1, { message: 'must be at least 1' })
     .max(10, { message: 'must be at most 10' })
     .multipleOf(0.5, { message: 'must be a whole or half step' })

@@ -101,3 +101,21 @@ export const NothingSchema = z.strictObject({});
 
 export const UNITS = ['kg', 'lb'] as const;
 export type Unit = (typeof UNITS)[number];
+
+/**
+ * The error of a number field: an empty field (undefined, null, '' or the NaN a cleared number input
+ * gives) says the field is required — "Pain now is required (a number from 0 to 10)" — rather than
+ * blaming the person for a value they never typed; anything else that is not a number gets `message`.
+ */
+export function numberError(message: string) {
+  const empty = `is required (${message.replace(/^must be /, '')})`;
+  return {
+    error: (issue: { input?: unknown }) =>
+      issue.input === undefined ||
+      issue.input === null ||
+      issue.input === '' ||
+      (typeof issue.input === 'number' && Number.isNaN(issue.input))
+        ? empty
+        : message,
+  };
+}

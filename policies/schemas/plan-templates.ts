@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { templateStageIssues } from '../load/plan-template';
 import { PlanStageSchema } from './cases';
-import { UuidSchema, VersionSchema, line, text } from './common';
+import { UuidSchema, VersionSchema, line, text, numberError } from './common';
 
 /**
  * Request shapes of plan templates: a restriction plan's stages counted in days from the plan's start
@@ -12,7 +12,7 @@ import { UuidSchema, VersionSchema, line, text } from './common';
 /** Ten years of days: longer than any rehabilitation plan, and well inside int4. */
 const MAX_OFFSET = 3650;
 const Offset = z
-  .number({ message: 'must be a number of days' })
+  .number(numberError('must be a number of days'))
   .int({ message: 'must be a whole number of days' })
   .min(0, { message: 'must be 0 (the first day) or more' })
   .max(MAX_OFFSET, { message: `must be at most ${MAX_OFFSET} days` });

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { MOVEMENT_PATTERNS } from '../load/patterns';
-import { IsoDateSchema, UuidSchema, VersionSchema, text } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, text, numberError } from './common';
 import { SetRpeSchema } from './athlete';
 
 export const EQUIPMENT = [
@@ -22,7 +22,7 @@ export const LoadStepsSchema = z.discriminatedUnion(
   [
     z.strictObject({
       kind: z.literal('increment'),
-      step: z.number({ message: 'must be a number' }).positive({ message: 'must be above 0' }).max(50, { message: 'must be at most 50' }),
+      step: z.number(numberError('must be a number')).positive({ message: 'must be above 0' }).max(50, { message: 'must be at most 50' }),
       unit: z.enum(['kg', 'lb'], { message: 'must be kg or lb' }),
     }),
     z.strictObject({
@@ -85,11 +85,11 @@ export const BaselineCreateSchema = z
     exerciseId: UuidSchema,
     kind: z.enum(['tested', 'estimated'], { message: 'must be tested or estimated' }),
     loadKg: z
-      .number({ message: 'must be a number' })
+      .number(numberError('must be a number'))
       .positive({ message: 'must be above 0' })
       .max(1000, { message: 'must be at most 1000 kg' }),
     reps: z
-      .number({ message: 'must be a number' })
+      .number(numberError('must be a number'))
       .int({ message: 'must be a whole number' })
       .min(1, { message: 'must be at least 1' })
       .max(36, { message: 'must be at most 36 (the estimates break down beyond)' }),
@@ -104,16 +104,16 @@ export const PlannedLoadSchema = z.discriminatedUnion(
   [
     z.strictObject({
       kind: z.literal('kg'),
-      value: z.number({ message: 'must be a number' }).min(0).max(1000, { message: 'must be at most 1000' }),
+      value: z.number(numberError('must be a number')).min(0).max(1000, { message: 'must be at most 1000' }),
     }),
     z.strictObject({
       kind: z.literal('lb'),
-      value: z.number({ message: 'must be a number' }).min(0).max(2200, { message: 'must be at most 2200' }),
+      value: z.number(numberError('must be a number')).min(0).max(2200, { message: 'must be at most 2200' }),
     }),
     z.strictObject({
       kind: z.literal('percent'),
       value: z
-        .number({ message: 'must be a number' })
+        .number(numberError('must be a number'))
         .positive({ message: 'must be above 0' })
         .max(110, { message: 'must be at most 110%' }),
     }),
@@ -125,7 +125,7 @@ export const PlannedLoadSchema = z.discriminatedUnion(
 export const PlannedSetSchema = z.strictObject({
   id: UuidSchema,
   reps: z
-    .number({ message: 'must be a number' })
+    .number(numberError('must be a number'))
     .int({ message: 'must be a whole number' })
     .min(1, { message: 'must be at least 1' })
     .max(100, { message: 'must be at most 100' }),

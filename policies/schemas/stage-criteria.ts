@@ -1,9 +1,9 @@
 import { z } from 'zod';
 import { CLINICIAN_MEASURES, RECORD_RULES, THRESHOLD_DIRECTIONS } from '../load/stage-criteria';
-import { IsoDateSchema, UuidSchema, VersionSchema, line, text } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, line, text, numberError } from './common';
 
 const zeroToTen = z
-  .number({ message: 'must be a number' })
+  .number(numberError('must be a number'))
   .int({ message: 'must be a whole number' })
   .min(0, { message: 'must be 0–10' })
   .max(10, { message: 'must be 0–10' });
@@ -14,7 +14,7 @@ const RecordCriterionSchema = z
     kind: z.literal('record'),
     rule: z.enum(RECORD_RULES, { message: 'must be a rule from the list' }),
     count: z
-      .number({ message: 'must be a number' })
+      .number(numberError('must be a number'))
       .int({ message: 'must be a whole number' })
       .min(1, { message: 'must be at least 1' })
       .max(50, { message: 'must be at most 50' })
@@ -42,7 +42,7 @@ const ClinicianCriterionSchema = z
     kind: z.literal('clinician'),
     label: line(120),
     measure: z.enum(CLINICIAN_MEASURES, { message: 'must be threshold or yes_no' }),
-    threshold: z.number({ message: 'must be a number' }).min(-100_000).max(100_000).optional(),
+    threshold: z.number(numberError('must be a number')).min(-100_000).max(100_000).optional(),
     direction: z.enum(THRESHOLD_DIRECTIONS, { message: 'must be at_least or at_most' }).optional(),
     unit: line(20).nullable().optional(),
   })
@@ -85,7 +85,7 @@ export const StageAssessmentSchema = z
     stageId: UuidSchema,
     criterionId: UuidSchema,
     date: IsoDateSchema,
-    value: z.number({ message: 'must be a number' }).min(-100_000).max(100_000).nullable().optional(),
+    value: z.number(numberError('must be a number')).min(-100_000).max(100_000).nullable().optional(),
     met: z.boolean({ message: 'must be yes or no' }).nullable().optional(),
     note: text(500).optional(),
   })

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { isTimeZone } from '../today';
-import { IsoDateSchema, UuidSchema, VersionSchema, isStorableText, text } from './common';
+import { IsoDateSchema, UuidSchema, VersionSchema, isStorableText, text, numberError } from './common';
 import { LETTER_PAPERS } from '../letter-paper';
 import { CountrySchema } from './organization-signup';
 
@@ -35,7 +35,7 @@ export const ClipListQuerySchema = z.strictObject({
 
 export const ClipNoteCreateSchema = z.strictObject({
   atMs: z
-    .number({ message: 'is required' })
+    .number(numberError('is required'))
     .int({ message: 'must be whole milliseconds' })
     .min(0, { message: 'cannot be negative' })
     .max(3_600_000, { message: 'must be within the first hour' }),

@@ -134,7 +134,7 @@ describe('exit criteria in the plan editor', () => {
     expect(summary).toHaveTextContent('Stage 1, criterion 1: What is assessed');
     expect(summary).toHaveTextContent('Stage 1, criterion 1: Threshold is needed for a measured test');
     expect(summary).toHaveTextContent('Stage 1, criterion 2: Readiness needed must be 0–10');
-    expect(summary).toHaveTextContent('Stage 1, criterion 3: Sessions needed must be a number');
+    expect(summary).toHaveTextContent('Stage 1, criterion 3: Sessions needed is required (a number)');
     expect(within(criterion(1, 'Assessed by the clinician')).getByLabelText('Threshold')).toHaveAttribute('aria-invalid', 'true');
     expect(within(criterion(1, 'Assessed by the clinician')).getByText('Threshold is needed for a measured test')).toBeInTheDocument();
     expect(within(criterion(2, 'Reported by the athlete')).getByText('Readiness needed must be 0–10')).toBeInTheDocument();
