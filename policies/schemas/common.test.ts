@@ -15,6 +15,7 @@ import {
   AuditQuerySchema,
   DisplayNameSchema,
   EmailSchema,
+  PainScoreSchema,
 } from './index';
 
 const errorsOf = (r: { success: boolean; error?: { issues: { message: string }[] } }) => r.error?.issues.map((i) => i.message) ?? [];
@@ -107,5 +108,20 @@ describe('shared bounds: every value fits the column it is stored in (ASVS 5.0 V
     };
     expect(LetterCreateSchema.safeParse(letter).success).toBe(false);
     expect(LetterCreateSchema.safeParse({ ...letter, familyNote: '' }).success).toBe(true);
+  });
+});
+
+describe('an empty field says it is required, not that it is wrong', () => {
+  const messages = (r: { success: boolean; error?: { issues: { message: string }[] } }) => r.error?.issues.map((i) => i.message) ?? [];
+
+  it('an empty e-mail is required; a wrong one is not a valid address', () => {
+    expect(messages(EmailSchema.safeParse(''))).toEqual(['is required']);
+    expect(messages(EmailSchema.safeParse('maya@'))).toEqual(['must be a valid e-mail address']);
+  });
+
+  it('an empty number (a cleared number input gives NaN) is required, with the range; a wrong type is not a number', () => {
+    expect(messages(PainScoreSchema.safeParse(Number.NaN))).toEqual(['is required (a number from 0 to 10)']);
+    expect(messages(PainScoreSchema.safeParse(undefined))).toEqual(['is required (a number from 0 to 10)']);
+    expect(messages(PainScoreSchema.safeParse('7'))).toEqual(['must be a number from 0 to 10']);
   });
 });

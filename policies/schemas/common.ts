@@ -68,6 +68,7 @@ export const EmailSchema = z
   .string({ message: 'is required' })
   .trim()
   .toLowerCase()
+  .min(1, { message: 'is required' })
   .max(254, { message: 'must be at most 254 characters' })
   .refine((v) => !/[\r\n]/.test(v), { message: 'must not contain line breaks' })
   .refine(isStorableText, { message: UNSTORABLE_MESSAGE })
