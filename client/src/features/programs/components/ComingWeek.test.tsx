@@ -27,7 +27,11 @@ const WEEK: AthleteWeekDto = {
   from: '2026-12-08',
   to: '2026-12-10',
   unit: 'kg',
-  days: [day('2026-12-08', [first]), day('2026-12-09', [first]), day('2026-12-10', [second])],
+  days: [
+    day('2026-12-08', [first]),
+    day('2026-12-09', [first]),
+    { ...day('2026-12-10', [second]), limits: { ...limits, withLimits: ['Hinge: up to 60 kg'] } },
+  ],
 };
 
 describe('the coming week', () => {
@@ -40,5 +44,15 @@ describe('the coming week', () => {
     expect(days[2]).toHaveTextContent(note);
     expect(days[0]).not.toHaveTextContent(note);
     expect(days[1]).not.toHaveTextContent(note);
+  });
+
+  it('a day with the same limits as the day before says so instead of repeating them all', async () => {
+    fetchMock.mockResolvedValue(jsonResponse(200, WEEK));
+    renderWithProviders(<ComingWeek orgId="o1" athleteId="a1" today="2026-12-08" logHref={() => '/log'} loggedSessionIds={new Set()} />);
+    const days = await screen.findAllByRole('listitem', { name: /Dec/ });
+    expect(days[0]).not.toHaveTextContent('The same limits as the day before.');
+    expect(days[1]).toHaveTextContent('The same limits as the day before.');
+    expect(days[2]).not.toHaveTextContent('The same limits as the day before.');
+    expect(days[2]).toHaveTextContent('Hinge: up to 60 kg');
   });
 });

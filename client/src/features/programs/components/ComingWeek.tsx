@@ -42,10 +42,11 @@ export function ComingWeek({
         put on the bar, rounded down.
       </p>
       <ol className="space-y-3">
-        {week.data.days.map((d) => (
+        {week.data.days.map((d, i) => (
           <OneDay
             key={d.date}
             day={d}
+            sameLimitsAsDayBefore={i > 0 && sameLimits(week.data.days[i - 1], d)}
             isToday={d.date === today}
             unit={week.data.unit}
             logHref={logHref}
@@ -57,14 +58,21 @@ export function ComingWeek({
   );
 }
 
+/** Two days with the same status and the same limits in words: the later one need not say them all again. */
+function sameLimits(a: Day, b: Day): boolean {
+  return a.status === b.status && JSON.stringify(a.limits) === JSON.stringify(b.limits);
+}
+
 function OneDay({
   day,
+  sameLimitsAsDayBefore,
   isToday,
   unit,
   logHref,
   loggedSessionIds,
 }: {
   day: Day;
+  sameLimitsAsDayBefore: boolean;
   isToday: boolean;
   unit: Unit;
   logHref: (sessionId: string, date: string) => string;
@@ -80,28 +88,7 @@ function OneDay({
       </div>
       <div className="mt-2 space-y-1 text-base">
         <p className="font-semibold">{limits.headline}</p>
-        {limits.mayNot.length > 0 && (
-          <div>
-            <p>Not allowed:</p>
-            <ul className="ml-5 list-disc">
-              {limits.mayNot.map((m) => (
-                <li key={m}>{m}</li>
-              ))}
-            </ul>
-          </div>
-        )}
-        {limits.withLimits.length > 0 && (
-          <div>
-            <p>Allowed within limits:</p>
-            <ul className="ml-5 list-disc">
-              {limits.withLimits.map((m) => (
-                <li key={m}>{m}</li>
-              ))}
-            </ul>
-          </div>
-        )}
-        {limits.free && <p className="text-sm text-ink-2">{limits.free}</p>}
-        {limits.pain && <p className="text-sm font-semibold">{limits.pain}</p>}
+        {sameLimitsAsDayBefore ? <p className="text-sm text-ink-2">The same limits as the day before.</p> : <LimitLists limits={limits} />}
         {!isToday && day.stages.some((st) => st.startDate === day.date) && (
           <p className="rounded-md bg-shade px-3 py-2 text-sm">
             A new stage of your plan starts on this day, as planned. Your clinician may keep you at the stage before for longer: if they
@@ -147,5 +134,35 @@ function OneDay({
         )}
       </div>
     </li>
+  );
+}
+
+/** What may not be done, what may within limits, what is free, and the pain limit, as lists. */
+function LimitLists({ limits }: { limits: Day['limits'] }) {
+  return (
+    <>
+      {limits.mayNot.length > 0 && (
+        <div>
+          <p>Not allowed:</p>
+          <ul className="ml-5 list-disc">
+            {limits.mayNot.map((m) => (
+              <li key={m}>{m}</li>
+            ))}
+          </ul>
+        </div>
+      )}
+      {limits.withLimits.length > 0 && (
+        <div>
+          <p>Allowed within limits:</p>
+          <ul className="ml-5 list-disc">
+            {limits.withLimits.map((m) => (
+              <li key={m}>{m}</li>
+            ))}
+          </ul>
+        </div>
+      )}
+      {limits.free && <p className="text-sm text-ink-2">{limits.free}</p>}
+      {limits.pain && <p className="text-sm font-semibold">{limits.pain}</p>}
+    </>
   );
 }
