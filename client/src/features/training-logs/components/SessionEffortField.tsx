@@ -6,8 +6,8 @@ import { EFFORT_SCORES, EFFORT_WORDS, effortWords } from './effort-words';
 export const EFFORT_LABEL = 'Session effort (0–10)';
 
 /**
- * Session RPE: a number box, with Foster's words beside it as buttons that fill the box — a tap is
- * enough, and typing works too. `input` is react-hook-form's register() result.
+ * Session RPE: a number box, with a button for every score 0–10 (Foster's words on the scores that
+ * have them) that fills the box — a tap is enough, and typing works too. `input` is react-hook-form's register() result.
  */
 export function SessionEffortField({
   value,
@@ -58,7 +58,7 @@ export function SessionEffortField({
         </p>
       )}
       <ul aria-label="Effort scale" className="mt-2 grid grid-cols-2 gap-1.5 sm:grid-cols-4">
-        {EFFORT_SCORES.filter((s) => EFFORT_WORDS[s]).map((s) => (
+        {EFFORT_SCORES.map((s) => (
           <li key={s}>
             <button
               type="button"
@@ -70,7 +70,8 @@ export function SessionEffortField({
               )}
             >
               <span className="w-5 font-bold tabular-nums">{s}</span>
-              <span>{EFFORT_WORDS[s]}</span>
+              {/* The scale has no words at 6, 8 and 9 (Foster et al. 2001); the button still gives the number. */}
+              <span className={EFFORT_WORDS[s] ? undefined : 'text-muted'}>{EFFORT_WORDS[s] ?? ''}</span>
             </button>
           </li>
         ))}

@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { fireEvent, screen, waitFor } from '@testing-library/react';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { KG_PER_LB } from '../../../../../policies/load/units';
 import { jsonResponse, renderWithProviders } from '../../../test/render';
 import { TrainingLogForm } from './TrainingLogForm';
@@ -34,6 +34,14 @@ describe('TrainingLogForm', () => {
     fireEvent.click(screen.getByRole('button', { name: '7 Very hard' }));
     expect(screen.getByLabelText('Session effort (0–10)')).toHaveValue(7);
     expect(screen.getByLabelText('Session effort (0–10)')).toHaveAccessibleDescription(expect.stringContaining('Very hard'));
+  });
+
+  it('every score 0–10 has a button, the ones without words on the scale too (6, 8, 9: Foster et al. 2001)', () => {
+    renderWithProviders(<TrainingLogForm orgId="org-1" athleteId={ATHLETE} unit="kg" onSaved={() => {}} />);
+    expect(within(screen.getByRole('list', { name: 'Effort scale' })).getAllByRole('button')).toHaveLength(11);
+    fireEvent.click(screen.getByRole('button', { name: '8' }));
+    expect(screen.getByLabelText('Session effort (0–10)')).toHaveValue(8);
+    expect(screen.getByLabelText('Session effort (0–10)')).toHaveAccessibleDescription(expect.stringContaining('Between very hard and'));
   });
 
   it('sends a load typed in lb as kg, with the exact NIST factor (1 lb = 0.45359237 kg)', async () => {
