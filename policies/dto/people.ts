@@ -8,6 +8,8 @@ export interface CareTeamAssignmentDto {
   athleteName: string;
   memberId: string;
   memberName: string;
+  /** The coach's or clinician's sign-in e-mail, so the athlete and family can reach them ("contact your clinician"). */
+  memberEmail: string;
   role: CareTeamRole;
 }
 export interface GuardianLinkDto {

@@ -28,6 +28,7 @@ function maya(over: Partial<AthleteProfileDto> = {}): AthleteProfileDto {
         athleteName: 'Maya Torres',
         memberId: 'm-theo',
         memberName: 'Theo Lindqvist',
+        memberEmail: 'theo.lindqvist@harborpoint.example',
         role: 'coach',
       },
     ],

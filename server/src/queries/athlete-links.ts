@@ -23,6 +23,7 @@ interface LinkRow {
   athlete_name: string;
   member_id: string;
   member_name: string;
+  member_email: string;
   role: CareTeamRole | 'guardian';
 }
 
@@ -31,7 +32,7 @@ async function linkRows(db: Db, kind: LinkKind, athleteIds: readonly string[]): 
   const t = TABLES[kind];
   return db.query(
     `SELECT l.id, l.organization_id, l.athlete_id, au.display_name AS athlete_name, l.${t.member} AS member_id,
-            mu.display_name AS member_name, ${t.role} AS role
+            mu.display_name AS member_name, mu.email AS member_email, ${t.role} AS role
        FROM ${t.table} l
        JOIN memberships am ON am.id = l.athlete_id JOIN users au ON au.id = am.user_id
        JOIN memberships mm ON mm.id = l.${t.member} AND mm.active AND ${t.role} = ANY(mm.roles) JOIN users mu ON mu.id = mm.user_id
@@ -49,6 +50,7 @@ export async function careTeamsFor(db: Db, athleteIds: readonly string[]): Promi
     athleteName: r.athlete_name,
     memberId: r.member_id,
     memberName: r.member_name,
+    memberEmail: r.member_email,
     role: r.role as CareTeamRole,
   }));
 }

@@ -115,27 +115,27 @@ describe('athletes, role by role as the access matrix says', () => {
       {
         "admin": {
           "athlete": "age careTeam dateOfBirth displayName guardians id isMinor needsGuardian organizationId position sport version",
-          "careTeam": "athleteId athleteName id memberId memberName organizationId role",
+          "careTeam": "athleteId athleteName id memberEmail memberId memberName organizationId role",
           "guardians": "athleteId athleteName guardianId guardianName id organizationId",
         },
         "athlete": {
           "athlete": "age careTeam dateOfBirth displayName guardians id isMinor needsGuardian organizationId position sport version",
-          "careTeam": "athleteId athleteName id memberId memberName organizationId role",
+          "careTeam": "athleteId athleteName id memberEmail memberId memberName organizationId role",
           "guardians": "athleteId athleteName guardianId guardianName id organizationId",
         },
         "clinician": {
           "athlete": "age careTeam dateOfBirth displayName guardians id isMinor needsGuardian organizationId position sport version",
-          "careTeam": "athleteId athleteName id memberId memberName organizationId role",
+          "careTeam": "athleteId athleteName id memberEmail memberId memberName organizationId role",
           "guardians": "athleteId athleteName guardianId guardianName id organizationId",
         },
         "coach": {
           "athlete": "age careTeam dateOfBirth displayName guardians id isMinor needsGuardian organizationId position sport version",
-          "careTeam": "athleteId athleteName id memberId memberName organizationId role",
+          "careTeam": "athleteId athleteName id memberEmail memberId memberName organizationId role",
           "guardians": "athleteId athleteName guardianId guardianName id organizationId",
         },
         "guardian": {
           "athlete": "age careTeam dateOfBirth displayName guardians id isMinor needsGuardian organizationId position sport version",
-          "careTeam": "athleteId athleteName id memberId memberName organizationId role",
+          "careTeam": "athleteId athleteName id memberEmail memberId memberName organizationId role",
           "guardians": "athleteId athleteName guardianId guardianName id organizationId",
         },
       }

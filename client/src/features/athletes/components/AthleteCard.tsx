@@ -36,9 +36,17 @@ export function AthleteCard({ athlete, self = false }: { athlete: AthleteProfile
       ) : (
         <ul className="mt-2 space-y-2">
           {[...clinicians, ...coaches].map((member) => (
-            <li key={member.id} className="flex min-h-12 items-center justify-between gap-3 rounded-md border border-rule px-3 py-2">
+            <li
+              key={member.id}
+              className="flex min-h-12 flex-wrap items-center justify-between gap-x-3 gap-y-1 rounded-md border border-rule px-3 py-2"
+            >
               <span className="font-semibold">{member.memberName}</span>
               <span className="text-sm text-ink-2">{ROLE_LABELS[member.role]}</span>
+              {/* "Contact your clinician" has to be something a person can do from here. */}
+              <a href={`mailto:${member.memberEmail}`} className="w-full break-all text-sm underline underline-offset-2">
+                <span className="sr-only">E-mail {member.memberName}: </span>
+                {member.memberEmail}
+              </a>
             </li>
           ))}
         </ul>

@@ -53,6 +53,7 @@ const PEOPLE: PersonDto[] = [
           athleteName: 'Maya Torres',
           memberId: 'theo',
           memberName: 'Theo Lindqvist',
+          memberEmail: 'theo.lindqvist@harborpoint.example',
           role: 'coach',
         },
       ],
