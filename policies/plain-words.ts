@@ -123,7 +123,8 @@ const readCap = (v: unknown) => (isFiniteNumber(v) && v >= 0 ? v : 0);
  * reserve); a half step left in reserve is said as the next whole one up, the stricter reading.
  */
 export function plainCap(key: CapKey, value: number | boolean, unit: Unit): string | null {
-  if (key === 'impactAllowed') return value === false ? 'nothing fast or jarring while doing it (no throwing, jumping or landing with it)' : null;
+  if (key === 'impactAllowed')
+    return value === false ? 'nothing fast or jarring while doing it (no throwing, jumping or landing with it)' : null;
   const n = readCap(value);
   switch (key) {
     case 'maxPercent1RM': {
